@@ -1,0 +1,12 @@
+#include "cli/commands.hpp"
+
+namespace slipscreen::cli {
+
+const std::vector<Registrar>& registrars() {
+  static const std::vector<Registrar> list = {
+      &register_units_command,
+  };
+  return list;
+}
+
+}  // namespace slipscreen::cli

@@ -1,0 +1,14 @@
+#pragma once
+// The list of subcommands. Each lives in its own src/cli/<name>_command.cpp and exposes one
+// registrar; add a line here and in commands.cpp when adding a command.
+#include <vector>
+
+#include "cli/app.hpp"
+
+namespace slipscreen::cli {
+
+const std::vector<Registrar>& registrars();
+
+void register_units_command(CLI::App& app, Context& ctx);
+
+}  // namespace slipscreen::cli

@@ -1,0 +1,49 @@
+#include "core/units/units.hpp"
+
+#include <doctest/doctest.h>
+
+#include "core/errors.hpp"
+
+using namespace slipscreen;
+using units::Dimension;
+
+TEST_CASE("conversion factors match their definitions") {
+  // NIST SP 811 (2008), Appendix B.8: 1 psi = 6.894 757 E+03 Pa; 1 ft = 0.3048 m (exact);
+  // 1 barrel (42 US gal) = 1.589 873 E-01 m3; 1 cP = 1.0 E-03 Pa s (exact).
+  CHECK(units::parse("1 psi", Dimension::pressure, "p") == doctest::Approx(6894.757).epsilon(1e-7));
+  CHECK(units::parse("1 ft", Dimension::length, "z") == 0.3048);
+  CHECK(units::parse("1 bbl", Dimension::volume, "v") == doctest::Approx(0.1589873).epsilon(1e-7));
+  CHECK(units::parse("0.5 cP", Dimension::viscosity, "mu") == doctest::Approx(5e-4).epsilon(1e-15));
+  // Common practice: 1 mD = 9.869233e-16 m2.
+  CHECK(units::parse("10 mD", Dimension::permeability, "k") == doctest::Approx(9.869233e-15).epsilon(1e-12));
+  // Common practice: hydrostatic 0.433 psi/ft is about 9.79 MPa/km.
+  CHECK(units::parse("0.433 psi/ft", Dimension::pressure_gradient, "g") ==
+        doctest::Approx(9794.7).epsilon(1e-4));
+  // 2e4 bbl/d = 2e4 * 0.158987294928 / 86400 m3/s = 0.036802614566 m3/s (arithmetic).
+  CHECK(units::parse("2e4 bbl/d", Dimension::volume_rate, "q") ==
+        doctest::Approx(0.036802614566).epsilon(1e-10));
+  CHECK(units::parse("1e-9 1/Pa", Dimension::compressibility, "ct") == 1e-9);
+  CHECK(units::parse("20 %", Dimension::dimensionless, "phi") == doctest::Approx(0.2).epsilon(1e-15));
+  CHECK(units::parse("0.2", Dimension::dimensionless, "phi") == 0.2);
+  CHECK(units::parse("10mD", Dimension::permeability, "k") == doctest::Approx(9.869233e-15).epsilon(1e-12));
+}
+
+TEST_CASE("values are reported in any unit of their dimension") {
+  CHECK(units::to_unit(6894.757293168361e3, "psi", Dimension::pressure) == doctest::Approx(1000).epsilon(1e-14));
+  CHECK(units::to_unit(1.0e6, "MPa", Dimension::pressure) == 1.0);
+  CHECK(units::from_unit(3000, "ft", Dimension::length) == doctest::Approx(914.4).epsilon(1e-14));
+}
+
+TEST_CASE("unknown, missing and incompatible units are clear errors") {
+  CHECK_THROWS_WITH_AS(units::parse("10", Dimension::permeability, "permeability"),
+                       doctest::Contains("unit is missing"), InputError);
+  CHECK_THROWS_WITH_AS(units::parse("10 furlong", Dimension::length, "depth"),
+                       doctest::Contains("field 'depth' = 'furlong'"), InputError);
+  CHECK_THROWS_WITH_AS(units::parse("10 MPA", Dimension::pressure, "p"),
+                       doctest::Contains("did you mean 'MPa'"), InputError);
+  CHECK_THROWS_WITH_AS(units::parse("10 psi", Dimension::length, "depth"),
+                       doctest::Contains("not a pressure unit"), InputError);
+  CHECK_THROWS_AS(units::parse("abc psi", Dimension::pressure, "p"), InputError);
+  CHECK_THROWS_AS(units::parse("nan psi", Dimension::pressure, "p"), InputError);
+  CHECK_THROWS_AS(units::parse("", Dimension::pressure, "p"), InputError);
+}
