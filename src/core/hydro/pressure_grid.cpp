@@ -115,13 +115,13 @@ struct TileJob {
   double r2_min, r2_cut;  // clamp (r_w²) and cut-off radius² of the source
   double s0, inv_h;       // ln r_w and 1/h
   std::size_t nodes;      // profile nodes of the source (≥ 2)
-  const double* table;    // nodes × (2 nt): [f(t_0..), h·f'(t_0..)] per node
-  std::size_t nt;
+  const double* table;    // nodes × (2 m): [f(t_k0..), h·f'(t_k0..)] per node, m = nt − k0
+  std::size_t k0, nt;     // first output time (in the block) after the source's first step
   double* acc;            // np × nt
 };
 
 __attribute__((always_inline)) inline void accumulate_body(const TileJob& j) {
-  const std::size_t nt = j.nt, stride = 2 * nt;
+  const std::size_t nt = j.nt - j.k0, stride = 2 * nt;
   for (std::size_t p = 0; p < j.np; ++p) {
     const double dx = j.px[p] - j.sx, dy = j.py[p] - j.sy;
     const double r2 = dx * dx + dy * dy;
@@ -136,22 +136,31 @@ __attribute__((always_inline)) inline void accumulate_body(const TileJob& j) {
     const double w2 = th * th * (3.0 - 2.0 * th), w3 = -th * th * om;
     const double* a = j.table + n * stride;
     const double* b = a + stride;
-    double* out = j.acc + p * nt;
+    double* out = j.acc + p * j.nt + j.k0;
 #pragma omp simd
     for (std::size_t k = 0; k < nt; ++k)
       out[k] += w0 * a[k] + w1 * a[nt + k] + w2 * b[k] + w3 * b[nt + k];
   }
 }
 
+__attribute__((target("avx512f,avx512vl,avx2,fma"))) void accumulate_avx512(const TileJob& j) {
+  accumulate_body(j);
+}
 __attribute__((target("avx2,fma"))) void accumulate_avx2(const TileJob& j) { accumulate_body(j); }
 void accumulate_default(const TileJob& j) { accumulate_body(j); }
 
+// Run-time dispatch on the CPU's vector units (the build itself stays portable x86-64).
+using Kernel = void (*)(const TileJob&);
+Kernel pick_kernel() {
+  __builtin_cpu_init();
+  const bool avx2 = __builtin_cpu_supports("avx2") && __builtin_cpu_supports("fma");
+  if (avx2 && __builtin_cpu_supports("avx512f") && __builtin_cpu_supports("avx512vl")) return accumulate_avx512;
+  if (avx2) return accumulate_avx2;
+  return accumulate_default;
+}
 void accumulate(const TileJob& j) {
-  static const bool avx2 = __builtin_cpu_supports("avx2") && __builtin_cpu_supports("fma");
-  if (avx2)
-    accumulate_avx2(j);
-  else
-    accumulate_default(j);
+  static const Kernel kernel = pick_kernel();
+  kernel(j);
 }
 
 PressureGrid empty_grid(const GridGeometry& g, std::span<const double> times) {
@@ -285,13 +294,16 @@ PressureGrid pressure_grid(const GridGeometry& geometry, const GridFormation& fo
     const std::size_t nt = std::min(block, order.size() - b0);
     const double t_hi = times[order[b0 + nt - 1]];
     std::vector<double> r2cut(ns);
-    std::vector<std::size_t> nodes(ns, 0), offset(ns + 1, 0);
+    std::vector<std::size_t> nodes(ns, 0), offset(ns + 1, 0), k0(ns, nt);
     std::size_t k_max = 2;
     for (std::size_t w = 0; w < ns; ++w) {
       r2cut[w] = cut_radius2(w, t_hi);
       // A source that stays below its share even at the well face contributes nothing here.
       if (r2cut[w] >= 0.0 && r2cut[w] > rw * rw) nodes[w] = nodes_for(r2cut[w]);
-      offset[w + 1] = offset[w] + nodes[w] * 2 * nt;
+      k0[w] = 0;
+      while (k0[w] < nt && times[order[b0 + k0[w]]] <= first[w]) ++k0[w];
+      if (k0[w] == nt) nodes[w] = 0;
+      offset[w + 1] = offset[w] + nodes[w] * 2 * (nt - k0[w]);
       k_max = std::max(k_max, nodes[w]);
       out.profile_nodes += nodes[w];
     }
@@ -319,10 +331,12 @@ PressureGrid pressure_grid(const GridGeometry& geometry, const GridFormation& fo
       const Eigen::MatrixXd f = c * (dq.leftCols(Eigen::Index(nj)) * e);
       const Eigen::MatrixXd fd = c * (dq.leftCols(Eigen::Index(nj)) * g);
       for (std::size_t w = 0; w < ns; ++w) {
+        if (kk < k0[w]) continue;
+        const std::size_t m = nt - k0[w], col = kk - k0[w];
         double* tw = table.data() + offset[w];
         for (std::size_t n = 0; n < nodes[w]; ++n) {
-          tw[n * 2 * nt + kk] = f(Eigen::Index(w), Eigen::Index(n));
-          tw[n * 2 * nt + nt + kk] = fd(Eigen::Index(w), Eigen::Index(n));
+          tw[n * 2 * m + col] = f(Eigen::Index(w), Eigen::Index(n));
+          tw[n * 2 * m + m + col] = fd(Eigen::Index(w), Eigen::Index(n));
         }
       }
     }
@@ -347,7 +361,7 @@ PressureGrid pressure_grid(const GridGeometry& geometry, const GridFormation& fo
         const double gx = std::max({xlo - s.x, 0.0, s.x - xhi}), gy = std::max({ylo - s.y, 0.0, s.y - yhi});
         if (gx * gx + gy * gy > r2cut[w]) continue;  // the whole tile is beyond the cut-off
         accumulate(TileJob{px.data(), py.data(), np, s.x, s.y, rw * rw, r2cut[w], s0, 1.0 / h,
-                           nodes[w], table.data() + offset[w], nt, acc.data()});
+                           nodes[w], table.data() + offset[w], k0[w], nt, acc.data()});
       }
       for (std::size_t kk = 0; kk < nt; ++kk) {
         const std::size_t k = order[b0 + kk];
