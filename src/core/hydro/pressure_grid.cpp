@@ -34,8 +34,7 @@ std::string str(double v) {
   return s.str();
 }
 
-void validate(const GridGeometry& g, const GridFormation& f, std::span<const GridSource> sources,
-              std::span<const double> times) {
+void validate_geometry(const GridGeometry& g) {
   auto finite = [](double v) { return std::isfinite(v); };
   if (!finite(g.origin_x)) throw InputError("origin_x", str(g.origin_x), "a finite coordinate in m");
   if (!finite(g.origin_y)) throw InputError("origin_y", str(g.origin_y), "a finite coordinate in m");
@@ -45,6 +44,10 @@ void validate(const GridGeometry& g, const GridFormation& f, std::span<const Gri
     throw InputError("cell_y", str(g.cell_y), "a finite, non-zero pixel height in m (negative for north-up)");
   if (g.nx == 0 || g.ny == 0)
     throw InputError("size", std::to_string(g.nx) + "x" + std::to_string(g.ny), "at least 1x1 pixels");
+}
+
+void validate(const GridFormation& f, std::span<const GridSource> sources, std::span<const double> times) {
+  auto finite = [](double v) { return std::isfinite(v); };
   if (!finite(f.prefactor) || f.prefactor <= 0.0)
     throw InputError("prefactor", str(f.prefactor), "a finite μ/(4π k h) > 0 Pa per m³/s");
   if (!finite(f.diffusivity) || f.diffusivity <= 0.0)
@@ -176,7 +179,7 @@ PressureGrid empty_grid(const GridGeometry& g, std::span<const double> times) {
 std::vector<double> pressure_direct_at(const GridFormation& formation,
                                        std::span<const GridSource> sources, double x, double y,
                                        std::span<const double> times) {
-  validate(GridGeometry{0, 0, 1, -1, 1, 1}, formation, sources, times);
+  validate(formation, sources, times);
   std::vector<double> out(times.size(), 0.0), u, e;
   const double r2_min = formation.well_radius * formation.well_radius;
   for (std::size_t k = 0; k < times.size(); ++k) {
@@ -192,7 +195,8 @@ std::vector<double> pressure_direct_at(const GridFormation& formation,
 
 PressureGrid pressure_grid_direct(const GridGeometry& geometry, const GridFormation& formation,
                                   std::span<const GridSource> sources, std::span<const double> times) {
-  validate(geometry, formation, sources, times);
+  validate_geometry(geometry);
+  validate(formation, sources, times);
   PressureGrid out = empty_grid(geometry, times);
   const std::size_t nx = geometry.nx, ny = geometry.ny;
 #pragma omp parallel for schedule(dynamic)
@@ -217,7 +221,8 @@ PressureGrid pressure_grid_direct(const GridGeometry& geometry, const GridFormat
 PressureGrid pressure_grid(const GridGeometry& geometry, const GridFormation& formation,
                            std::span<const GridSource> sources, std::span<const double> times,
                            const PressureGridOptions& options) {
-  validate(geometry, formation, sources, times);
+  validate_geometry(geometry);
+  validate(formation, sources, times);
   if (!std::isfinite(options.threshold) || options.threshold <= 0.0)
     throw InputError("threshold", str(options.threshold), "a finite pressure > 0 Pa");
   if (!std::isfinite(options.relative_tolerance) || options.relative_tolerance <= 0.0 ||
