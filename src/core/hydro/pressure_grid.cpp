@@ -244,13 +244,36 @@ PressureGrid pressure_grid(const GridGeometry& geometry, const GridFormation& fo
   const double qsum = std::accumulate(qmax.begin(), qmax.end(), 0.0);
   if (qsum == 0.0 || times.empty()) return out;
 
-  // Node spacing in ln r: Σ_w kHermiteFactor h⁴ C max|q_w| ≤ ε/2.
-  const double h = std::min(0.05, std::pow(0.5 * eps / (kHermiteFactor * c * qsum), 0.25));
-  out.node_spacing = h;
-  const double s0 = std::log(rw);
   // Cut-off: source w is dropped beyond R_w with C max|q_w| E1(R_w²/(4 D θ_w)) = ε/4 · max|q_w|/Σ max|q|,
   // i.e. E1(u*) = ε/(4 C Σ max|q|), the same u* for every source.
   const double u_cut = e1_inverse(0.25 * eps / (c * qsum));
+  std::vector<double> first(ns, 0.0);
+  for (std::size_t w = 0; w < ns; ++w)
+    if (!sources[w].start.empty()) first[w] = sources[w].start.front();
+  const double t_last = *std::max_element(times.begin(), times.end());
+  // Sources whose cut-off radius at the last time does not reach the raster (pixel centres) are
+  // dropped altogether: each stays within its share of ε/4 everywhere on it.
+  const double bx0 = std::min(geometry.centre_x(0), geometry.centre_x(nx - 1));
+  const double bx1 = std::max(geometry.centre_x(0), geometry.centre_x(nx - 1));
+  const double by0 = std::min(geometry.centre_y(0), geometry.centre_y(ny - 1));
+  const double by1 = std::max(geometry.centre_y(0), geometry.centre_y(ny - 1));
+  std::vector<char> reach(ns, 0);
+  double qsum_reach = 0.0;
+  for (std::size_t w = 0; w < ns; ++w) {
+    const double theta = t_last - first[w];
+    if (qmax[w] == 0.0 || sources[w].start.empty() || theta <= 0.0) continue;
+    const double gx = std::max({bx0 - sources[w].x, 0.0, sources[w].x - bx1});
+    const double gy = std::max({by0 - sources[w].y, 0.0, sources[w].y - by1});
+    if (gx * gx + gy * gy > 4.0 * d * theta * u_cut) continue;
+    reach[w] = 1;
+    qsum_reach += qmax[w];
+  }
+  if (qsum_reach == 0.0) return out;
+
+  // Node spacing in ln r: Σ_w kHermiteFactor h⁴ C max|q_w| ≤ ε/2 over the sources kept.
+  const double h = std::min(0.05, std::pow(0.5 * eps / (kHermiteFactor * c * qsum_reach), 0.25));
+  out.node_spacing = h;
+  const double s0 = std::log(rw);
 
   // Union of step times and the rate increments of every source on it.
   std::vector<double> tau;
@@ -258,11 +281,9 @@ PressureGrid pressure_grid(const GridGeometry& geometry, const GridFormation& fo
   std::sort(tau.begin(), tau.end());
   tau.erase(std::unique(tau.begin(), tau.end()), tau.end());
   Eigen::MatrixXd dq = Eigen::MatrixXd::Zero(Eigen::Index(ns), Eigen::Index(tau.size()));
-  std::vector<double> first(ns, 0.0);
   for (std::size_t w = 0; w < ns; ++w) {
     double prev = 0.0;
     const GridSource& s = sources[w];
-    if (!s.start.empty()) first[w] = s.start.front();
     for (std::size_t j = 0; j < s.start.size(); ++j) {
       const auto col = std::lower_bound(tau.begin(), tau.end(), s.start[j]) - tau.begin();
       dq(Eigen::Index(w), col) += s.rate[j] - prev;
@@ -282,10 +303,9 @@ PressureGrid pressure_grid(const GridGeometry& geometry, const GridFormation& fo
   };
   auto cut_radius2 = [&](std::size_t w, double t) {
     const double theta = t - first[w];
-    if (qmax[w] == 0.0 || sources[w].start.empty() || theta <= 0.0) return -1.0;  // inactive
+    if (!reach[w] || theta <= 0.0) return -1.0;  // inactive
     return 4.0 * d * theta * u_cut;
   };
-  const double t_last = times[order.back()];
   double bytes_per_time = 0.0;
   for (std::size_t w = 0; w < ns; ++w)
     if (cut_radius2(w, t_last) >= 0.0) bytes_per_time += 16.0 * double(nodes_for(cut_radius2(w, t_last)));

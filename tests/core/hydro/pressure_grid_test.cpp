@@ -192,6 +192,20 @@ TEST_CASE("fast path: results do not depend on the thread count or the table mem
   CHECK(ref[0] != ref[1]);
 }
 
+TEST_CASE("a source whose cut-off radius never reaches the raster is dropped within its share") {
+  const GridGeometry g = small_grid();
+  const GridFormation f = formation();
+  const GridSource near = monthly_source(g.origin_x + 3000, g.origin_y - 2000, 0.02, 0, 24, 30, 1);
+  // 2000 km away: E1(r²/(4 D t)) underflows for 2 years at D = 1 m²/s.
+  const GridSource far = monthly_source(g.origin_x + 2e6, g.origin_y, 0.05, 0, 24, 30, 2);
+  const std::vector<double> times = {24 * kMonth};
+  const PressureGrid one = pressure_grid(g, f, std::vector<GridSource>{near}, times);
+  const PressureGrid both = pressure_grid(g, f, std::vector<GridSource>{near, far}, times);
+  CHECK(both.node_spacing == one.node_spacing);
+  CHECK(both.values == one.values);
+  CHECK(pressure_direct_at(f, std::vector<GridSource>{far}, g.centre_x(0), g.centre_y(0), times)[0] == 0.0);
+}
+
 TEST_CASE("fourth-derivative constant of the error bound") {
   // I = ∫₀^∞ e^{−x} |x³ − 6x² + 7x − 1| dx by composite Simpson on [0, 60] (the tail beyond is
   // below 1e-20), as an independent check of the closed form used in the bound.
