@@ -201,8 +201,9 @@ TEST_CASE("a source whose cut-off radius never reaches the raster is dropped wit
   const std::vector<double> times = {24 * kMonth};
   const PressureGrid one = pressure_grid(g, f, std::vector<GridSource>{near}, times);
   const PressureGrid both = pressure_grid(g, f, std::vector<GridSource>{near, far}, times);
-  CHECK(both.node_spacing == one.node_spacing);
-  CHECK(both.values == one.values);
+  CHECK(both.node_spacing == one.node_spacing);  // the far source does not refine the nodes
+  for (std::size_t n = 0; n < one.values.size(); ++n)
+    CHECK(std::abs(both.values[n] - one.values[n]) <= one.error_bound);  // cut-off shares differ
   CHECK(pressure_direct_at(f, std::vector<GridSource>{far}, g.centre_x(0), g.centre_y(0), times)[0] == 0.0);
 }
 
