@@ -16,7 +16,8 @@ namespace {
 // max|f⁗(s)| ≤ 16 I C max|q| with I = ∫₀^∞ e^{−x} |x³ − 6x² + 7x − 1| dx (see the header), and
 // the cubic Hermite error factor 1/384: |f − H| ≤ kHermiteFactor · h⁴ · C max|q|.
 constexpr double kHermiteFactor = 16.0 * kProfileFourthDerivativeIntegral / 384.0;
-constexpr std::size_t kTile = 16;  // pixels per tile side
+constexpr std::size_t kTile = 16;        // pixels per tile side
+constexpr std::size_t kStepChunk = 256;  // union steps per matrix product in the table build
 
 using RowMatrix = Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>;
 
@@ -275,18 +276,21 @@ PressureGrid pressure_grid(const GridGeometry& geometry, const GridFormation& fo
   out.node_spacing = h;
   const double s0 = std::log(rw);
 
-  // Union of step times and the rate increments of every source on it.
+  // Union of the kept sources' step times, and their rate increments on it (row r: kept[r]).
+  std::vector<std::size_t> kept;
+  for (std::size_t w = 0; w < ns; ++w)
+    if (reach[w]) kept.push_back(w);
   std::vector<double> tau;
-  for (const GridSource& s : sources) tau.insert(tau.end(), s.start.begin(), s.start.end());
+  for (std::size_t w : kept) tau.insert(tau.end(), sources[w].start.begin(), sources[w].start.end());
   std::sort(tau.begin(), tau.end());
   tau.erase(std::unique(tau.begin(), tau.end()), tau.end());
-  Eigen::MatrixXd dq = Eigen::MatrixXd::Zero(Eigen::Index(ns), Eigen::Index(tau.size()));
-  for (std::size_t w = 0; w < ns; ++w) {
+  Eigen::MatrixXd dq = Eigen::MatrixXd::Zero(Eigen::Index(kept.size()), Eigen::Index(tau.size()));
+  for (std::size_t r = 0; r < kept.size(); ++r) {
     double prev = 0.0;
-    const GridSource& s = sources[w];
+    const GridSource& s = sources[kept[r]];
     for (std::size_t j = 0; j < s.start.size(); ++j) {
       const auto col = std::lower_bound(tau.begin(), tau.end(), s.start[j]) - tau.begin();
-      dq(Eigen::Index(w), col) += s.rate[j] - prev;
+      dq(Eigen::Index(r), col) += s.rate[j] - prev;
       prev = s.rate[j];
     }
   }
@@ -334,34 +338,41 @@ PressureGrid pressure_grid(const GridGeometry& geometry, const GridFormation& fo
     }
     std::vector<double> table(offset[ns], 0.0);
 
-    // Tables: for each output time, E1 and its s-derivative at every node and union step,
-    // then one matrix product with the rate increments gives every source's profile.
+    // Tables: for each output time, E1 and its s-derivative at every node and union step, then
+    // matrix products with the rate increments give every kept source's profile. Steps are taken
+    // in chunks to bound the scratch memory when the union of step times is long.
 #pragma omp parallel for schedule(dynamic)
     for (std::size_t kk = 0; kk < nt; ++kk) {
       const double t = times[order[b0 + kk]];
       const std::size_t nj = static_cast<std::size_t>(std::lower_bound(tau.begin(), tau.end(), t) - tau.begin());
       if (nj == 0) continue;
-      const auto rows = static_cast<Eigen::Index>(nj), cols = static_cast<Eigen::Index>(k_max);
-      RowMatrix e(rows, cols), g(rows, cols);
+      const auto cols = static_cast<Eigen::Index>(k_max);
+      Eigen::MatrixXd f = Eigen::MatrixXd::Zero(dq.rows(), cols), fd = Eigen::MatrixXd::Zero(dq.rows(), cols);
       std::vector<double> r2n(k_max);
       for (std::size_t n = 0; n < k_max; ++n) r2n[n] = std::exp(2.0 * (s0 + double(n) * h));
-      for (std::size_t jj = 0; jj < nj; ++jj) {
-        const double a = 1.0 / (4.0 * d * (t - tau[jj]));
-        double* er = e.data() + jj * k_max;
-        double* gr = g.data() + jj * k_max;
-        for (std::size_t n = 0; n < k_max; ++n) gr[n] = r2n[n] * a;  // u
-        e1_batch(gr, er, k_max);
-        for (std::size_t n = 0; n < k_max; ++n) gr[n] = -2.0 * h * std::exp(-gr[n]);  // h · dE1/ds
+      for (std::size_t c0 = 0; c0 < nj; c0 += kStepChunk) {
+        const std::size_t nc = std::min(kStepChunk, nj - c0);
+        RowMatrix e(static_cast<Eigen::Index>(nc), cols), g(static_cast<Eigen::Index>(nc), cols);
+        for (std::size_t jj = 0; jj < nc; ++jj) {
+          const double a = 1.0 / (4.0 * d * (t - tau[c0 + jj]));
+          double* er = e.data() + jj * k_max;
+          double* gr = g.data() + jj * k_max;
+          for (std::size_t n = 0; n < k_max; ++n) gr[n] = r2n[n] * a;  // u
+          e1_batch(gr, er, k_max);
+          for (std::size_t n = 0; n < k_max; ++n) gr[n] = -2.0 * h * std::exp(-gr[n]);  // h · dE1/ds
+        }
+        const auto block_cols = dq.middleCols(static_cast<Eigen::Index>(c0), static_cast<Eigen::Index>(nc));
+        f.noalias() += block_cols * e;
+        fd.noalias() += block_cols * g;
       }
-      const Eigen::MatrixXd f = c * (dq.leftCols(Eigen::Index(nj)) * e);
-      const Eigen::MatrixXd fd = c * (dq.leftCols(Eigen::Index(nj)) * g);
-      for (std::size_t w = 0; w < ns; ++w) {
-        if (kk < k0[w]) continue;
+      for (std::size_t r = 0; r < kept.size(); ++r) {
+        const std::size_t w = kept[r];
+        if (kk < k0[w] || nodes[w] == 0) continue;
         const std::size_t m = nt - k0[w], col = kk - k0[w];
         double* tw = table.data() + offset[w];
         for (std::size_t n = 0; n < nodes[w]; ++n) {
-          tw[n * 2 * m + col] = f(Eigen::Index(w), Eigen::Index(n));
-          tw[n * 2 * m + m + col] = fd(Eigen::Index(w), Eigen::Index(n));
+          tw[n * 2 * m + col] = c * f(Eigen::Index(r), Eigen::Index(n));
+          tw[n * 2 * m + m + col] = c * fd(Eigen::Index(r), Eigen::Index(n));
         }
       }
     }

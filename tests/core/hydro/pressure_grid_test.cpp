@@ -192,6 +192,24 @@ TEST_CASE("fast path: results do not depend on the thread count or the table mem
   CHECK(ref[0] != ref[1]);
 }
 
+TEST_CASE("fast path with unaligned step times (a long union of steps)") {
+  GridGeometry g = small_grid();
+  g.nx = 12;
+  g.ny = 10;
+  const GridFormation f = formation();
+  std::vector<GridSource> sources;
+  for (int w = 0; w < 3; ++w) {
+    GridSource s = monthly_source(g.origin_x + 500 + 900 * w, g.origin_y - 700 - 400 * w, 0.01, 0, 110, 90, w + 1);
+    for (double& t : s.start) t += 86400.0 * (3 * w + 1);  // offsets of days: 330 distinct steps
+    sources.push_back(s);
+  }
+  const std::vector<double> times = {50 * kMonth, 100 * kMonth, 115 * kMonth};
+  const PressureGrid fast = pressure_grid(g, f, sources, times);
+  const PressureGrid direct = pressure_grid_direct(g, f, sources, times);
+  for (std::size_t n = 0; n < fast.values.size(); ++n)
+    CHECK(std::abs(fast.values[n] - direct.values[n]) <= fast.error_bound);
+}
+
 TEST_CASE("a source whose cut-off radius never reaches the raster is dropped within its share") {
   const GridGeometry g = small_grid();
   const GridFormation f = formation();
