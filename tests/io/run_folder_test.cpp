@@ -7,7 +7,6 @@
 #include <string>
 
 #include "core/errors.hpp"
-#include "io/path_policy.hpp"
 #include "temp_dir.hpp"
 
 using namespace slipscreen;
@@ -113,21 +112,4 @@ TEST_CASE("output paths that escape the run folder are refused, naming key and v
   CHECK_THROWS_AS(run.output("k", "/vsis3/bucket/x.tif"), RefusedError);
   CHECK(run.output("k", "./a//b.csv") == run.staging() / "a" / "b.csv");
   CHECK_FALSE(fs::exists(dir / "x.tif"));
-}
-
-TEST_CASE("network paths are recognised and refused unless allowed") {
-  for (const char* p : {"/vsicurl/https://example.org/f.gpkg", "/vsis3/bucket/f.gpkg", "/VSIGS/b/f.fgb",
-                        "/vsizip//vsicurl/http://h/f.zip", "https://example.org/f.geojson", "ftp://h/f.shp",
-                        "PG:dbname=faults", "WFS:http://h/wfs"}) {
-    CAPTURE(p);
-    CHECK(io::is_network_path(p));
-    CHECK_THROWS_WITH_AS(io::require_local_path(p, false, "region.faults"), doctest::Contains("region.faults"),
-                         RefusedError);
-    CHECK_NOTHROW(io::require_local_path(p, true, "region.faults"));
-  }
-  for (const char* p : {"faults.gpkg", "data/faults.geojson", "/home/u/faults.shp", "/vsizip/local.zip/f.shp",
-                        "C:/data/f.gpkg"}) {
-    CAPTURE(p);
-    CHECK_FALSE(io::is_network_path(p));
-  }
 }
