@@ -53,6 +53,13 @@ std::vector<Point2> check_points(const std::vector<Point2>& vertices, int k) {
   return out;
 }
 
+std::vector<Point2> straight_trace(Point2 centre, double strike_rad, double length_m) {
+  if (!(length_m > 0.0) || !std::isfinite(length_m))
+    throw InputError("length", std::to_string(length_m), "a positive fault length");
+  const double hx = 0.5 * length_m * std::sin(strike_rad), hy = 0.5 * length_m * std::cos(strike_rad);
+  return {{centre.x - hx, centre.y - hy}, {centre.x + hx, centre.y + hy}};
+}
+
 std::vector<TraceSegment> split_trace(const std::vector<Point2>& vertices, double max_length_m,
                                       int k_check_points) {
   if (!(max_length_m > 0.0) || !std::isfinite(max_length_m))

@@ -46,6 +46,12 @@ std::vector<Point2> sub_polyline(const std::vector<Point2>& vertices, double s0,
 // k check points along a polyline, as described above.
 std::vector<Point2> check_points(const std::vector<Point2>& vertices, int k);
 
+// A straight trace of `length_m` centred on `centre` with grid azimuth `strike_rad` (for fault
+// tables that give centre, strike and length): {centre − ½L·u, centre + ½L·u},
+// u = (sin strike, cos strike). Digitised along strike, so the right-hand rule holds.
+// Throws InputError for a non-positive or non-finite length.
+std::vector<Point2> straight_trace(Point2 centre, double strike_rad, double length_m);
+
 // Split a trace into segments of at most `max_length_m`, each with `k_check_points` check
 // points. Repeated consecutive vertices are dropped first. Throws InputError when the trace has
 // fewer than two distinct vertices, a non-finite coordinate, max_length_m ≤ 0 or k < 1.

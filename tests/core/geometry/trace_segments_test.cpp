@@ -94,3 +94,16 @@ TEST_CASE("repeated vertices are dropped; degenerate input is refused") {
   CHECK_THROWS_WITH_AS(split_trace({{0, 0}, {0, 1}}, 10.0, 0), doctest::Contains("check_points"),
                        slipscreen::InputError);
 }
+
+TEST_CASE("a straight trace from centre, strike and length") {
+  // Strike N30E, 2 km long, centred at (1000, 1000): ends 1 km either way along (sin 30°, cos 30°).
+  const auto t = straight_trace({1000, 1000}, 30 * kDeg, 2000.0);
+  REQUIRE(t.size() == 2);
+  CHECK(near(t[0], {1000 - 500.0, 1000 - 1000 * std::sqrt(3.0) / 2}));
+  CHECK(near(t[1], {1000 + 500.0, 1000 + 1000 * std::sqrt(3.0) / 2}));
+  const auto segs = split_trace(t, 1000.0, 1);
+  REQUIRE(segs.size() == 2);
+  CHECK(std::abs(segs[0].chord_azimuth_rad - 30 * kDeg) < kTolRad);
+  CHECK(near(segs[0].end, {1000, 1000}));
+  CHECK_THROWS_AS(straight_trace({0, 0}, 0.0, 0.0), slipscreen::InputError);
+}
