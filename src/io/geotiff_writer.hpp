@@ -30,6 +30,8 @@ struct RasterBand {
   std::vector<float> values;  // grid.cell_count() values, row-major, northern row first
 };
 
+// Set members by name (GeoTiffOptions o; o.cloud_optimized = true;): a designated initializer
+// that leaves out trailing members trips -Wmissing-field-initializers under -Wextra.
 struct GeoTiffOptions {
   bool cloud_optimized = false;
   float nodata = -9999.0f;

@@ -40,6 +40,10 @@ RunFolder::RunFolder(fs::path target, RunFolderOptions options) : options_(optio
   staging_ = sibling(target_, ".partial");
   std::error_code ec;
   fs::remove_all(staging_, ec);  // left over by a killed process that had our pid
+  for (fs::path p = target_.parent_path(); !p.empty() && !fs::exists(p, ec); p = p.parent_path()) {
+    created_parent_ = p;
+    if (p == p.parent_path()) break;
+  }
   fs::create_directories(staging_, ec);
   if (ec) throw IoError(staging_.string() + ": cannot create the run's staging folder: " + ec.message());
 }
@@ -48,6 +52,11 @@ RunFolder::~RunFolder() {
   if (committed_) return;
   std::error_code ec;
   fs::remove_all(staging_, ec);  // best effort; a destructor must not throw
+  if (created_parent_.empty()) return;
+  // Remove the parent folders this run created, innermost first, while they are empty.
+  for (fs::path p = target_.parent_path();; p = p.parent_path()) {
+    if (!fs::remove(p, ec) || p == created_parent_) break;
+  }
 }
 
 fs::path RunFolder::output(std::string_view key, std::string_view relative) const {

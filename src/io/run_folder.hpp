@@ -11,7 +11,8 @@
 //   "<target>.replaced-<pid>" only after the new run is complete, the new one is renamed into
 //   place, and the old one is deleted. If the second rename fails the old run is put back.
 // - If commit() is never reached (an exception, an early return), the destructor removes the
-//   staging folder, so no half-written output is left behind.
+//   staging folder (and any parent folders it had to create), so no half-written output is
+//   left behind.
 // - output(key, relative) checks a path named by scenario key `key` (io/path_policy.hpp: no
 //   absolute paths, no "..", no network paths), creates its parent folders inside the staging
 //   folder and returns the full path to write.
@@ -50,6 +51,7 @@ class RunFolder {
 
  private:
   std::filesystem::path target_, staging_;
+  std::filesystem::path created_parent_;  // outermost parent folder this run created, if any
   RunFolderOptions options_;
   bool committed_ = false;
 };

@@ -5,6 +5,7 @@
 #include <ogr_spatialref.h>
 
 #include <cmath>
+#include <fstream>
 #include <limits>
 #include <string>
 
@@ -116,6 +117,22 @@ TEST_CASE("Cloud-Optimized variant reports LAYOUT=COG") {
   const char* layout = ds->GetMetadataItem("LAYOUT", "IMAGE_STRUCTURE");
   REQUIRE(layout != nullptr);
   CHECK(std::string(layout) == "COG");
+}
+
+TEST_CASE("rerunning gives byte-identical GeoTIFFs") {
+  const Fixture f;
+  test::TempDir dir("tif-repro");
+  for (bool cog : {false, true}) {
+    CAPTURE(cog);
+    io::GeoTiffOptions o;
+    o.cloud_optimized = cog;
+    io::write_geotiff(dir / "a.tif", f.grid, f.crs, f.bands, o);
+    io::write_geotiff(dir / "b.tif", f.grid, f.crs, f.bands, o);
+    std::ifstream a(dir / "a.tif", std::ios::binary), b(dir / "b.tif", std::ios::binary);
+    const std::string sa(std::istreambuf_iterator<char>(a), {}), sb(std::istreambuf_iterator<char>(b), {});
+    CHECK(sa.size() > 100);
+    CHECK(sa == sb);
+  }
 }
 
 TEST_CASE("GeoTIFF input errors") {

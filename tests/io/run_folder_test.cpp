@@ -97,6 +97,20 @@ TEST_CASE("an exception mid-run leaves no folder behind") {
   CHECK_FALSE(fs::exists(target));
   CHECK_FALSE(fs::exists(staging));
   CHECK(entries(dir.path()) == 0);
+
+  // Parent folders the run had to create go too.
+  try {
+    io::RunFolder run(dir / "runs" / "2031" / "review");
+    CHECK(fs::exists(dir / "runs" / "2031"));
+    throw std::runtime_error("simulated failure");
+  } catch (const std::runtime_error&) {
+  }
+  CHECK(entries(dir.path()) == 0);
+  {
+    io::RunFolder run(dir / "runs" / "2031" / "review");
+    run.commit();
+  }
+  CHECK(fs::is_directory(dir / "runs" / "2031" / "review"));
 }
 
 TEST_CASE("output paths that escape the run folder are refused, naming key and value") {
