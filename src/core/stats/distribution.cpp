@@ -171,8 +171,8 @@ double Distribution::quantile(double u) const {
       // F⁻¹(u) = μ + σ Φ⁻¹(u) (JKB 1994 ch. 13), Φ⁻¹ by Boost.Math.
       return boost::math::quantile(boost::math::normal_distribution<double>(a_, b_), u);
     case DistributionKind::truncated_normal: {
-      // F⁻¹(u) = μ + σ Φ⁻¹(Φ(α) + u (Φ(β) − Φ(α))), α = (a−μ)/σ, β = (b−μ)/σ (JKB 1994 ch. 13
-      // §10.1, inversion); on the upper tail with Q = 1 − Φ: Q⁻¹(Q(α) − u (Q(α) − Q(β))).
+      // F⁻¹(u) = μ + σ Φ⁻¹(Φ(α) + u (Φ(β) − Φ(α))), α = (a−μ)/σ, β = (b−μ)/σ (JKB 1994 ch. 13,
+      // by inversion); on the upper tail with Q = 1 − Φ: Q⁻¹(Q(α) − u (Q(α) − Q(β))).
       // Interpolate from the nearer end (1 − u is exact for u ≥ 1/2), so that a small p near
       // either bound keeps its relative precision.
       const double p = u <= 0.5 ? p_lo_ + u * (p_hi_ - p_lo_) : p_hi_ - (1.0 - u) * (p_hi_ - p_lo_);
@@ -224,7 +224,7 @@ double Distribution::mean() const {
     case DistributionKind::uniform: return 0.5 * (a_ + b_);
     case DistributionKind::normal: return a_;
     case DistributionKind::truncated_normal: {
-      // E[X] = μ + σ (φ(α) − φ(β)) / Z, Z = Φ(β) − Φ(α) (JKB 1994 ch. 13 §10.1).
+      // E[X] = μ + σ (φ(α) − φ(β)) / Z, Z = Φ(β) − Φ(α) (JKB 1994 ch. 13).
       const double alpha = (c_ - a_) / b_, beta = (d_ - a_) / b_;
       const double mass = std::abs(p_hi_ - p_lo_);
       return a_ + b_ * (phi(alpha) - phi(beta)) / mass;
@@ -245,7 +245,7 @@ double Distribution::standard_deviation() const {
       return boost::math::standard_deviation(boost::math::uniform_distribution<double>(a_, b_));
     case DistributionKind::normal: return b_;
     case DistributionKind::truncated_normal: {
-      // Var X = σ² [1 + (αφ(α) − βφ(β))/Z − ((φ(α) − φ(β))/Z)²] (JKB 1994 ch. 13 §10.1).
+      // Var X = σ² [1 + (αφ(α) − βφ(β))/Z − ((φ(α) − φ(β))/Z)²] (JKB 1994 ch. 13).
       const double alpha = (c_ - a_) / b_, beta = (d_ - a_) / b_;
       const double mass = std::abs(p_hi_ - p_lo_);
       const double m = (phi(alpha) - phi(beta)) / mass;

@@ -6,7 +6,7 @@
 // Sources (one line beside each formula in distribution.cpp):
 //   uniform, normal, lognormal: Johnson, Kotz & Balakrishnan (1994, 1995), Continuous
 //     Univariate Distributions, 2nd ed., Wiley, vol. 1 ch. 13-14, vol. 2 ch. 26.
-//   truncated normal by inversion: Johnson, Kotz & Balakrishnan (1994) vol. 1 ch. 13 §10.1
+//   truncated normal by inversion: Johnson, Kotz & Balakrishnan (1994) vol. 1 ch. 13
 //     (doubly truncated normal: density, mean and variance).
 //   triangular: Kotz & van Dorp (2004), Beyond Beta, World Scientific, ch. 1.
 //   Inverse CDFs are evaluated by Boost.Math (normal, lognormal, triangular distributions).

@@ -16,7 +16,6 @@ namespace {
 struct Point {
   double u, x;
 };
-}  // namespace
 
 // Reference quantiles from scipy 1.10.1, printed by
 //   /usr/bin/python3 -c "from scipy.stats import norm, truncnorm, lognorm, triang; ..."
@@ -26,14 +25,19 @@ struct Point {
 // algorithms, both accurate to near machine precision.
 constexpr double kTol = 1e-13;
 
-TEST_CASE("normal quantiles match scipy.stats.norm.ppf") {
-  const Distribution d = Distribution::normal(0.6, 0.05);
-  for (const Point p : {Point{1e-10, 0.2819329548797972}, Point{0.025, 0.5020018007729973},
-                        Point{0.3, 0.5737799743645979}, Point{0.5, 0.6}, Point{0.9, 0.66407757827723},
-                        Point{0.999999, 0.8376712154408543}}) {
+void check_quantiles(const Distribution& d, std::initializer_list<Point> points) {
+  for (const Point p : points) {
     CAPTURE(p.u);
     CHECK(relative_error(d.quantile(p.u), p.x) < kTol);
   }
+}
+}  // namespace
+
+TEST_CASE("normal quantiles match scipy.stats.norm.ppf") {
+  const Distribution d = Distribution::normal(0.6, 0.05);
+  check_quantiles(d, {{1e-10, 0.2819329548797972}, {0.025, 0.5020018007729973},
+                        {0.3, 0.5737799743645979}, {0.5, 0.6}, {0.9, 0.66407757827723},
+                        {0.999999, 0.8376712154408543}});
   CHECK(d.mean() == 0.6);
   CHECK(d.standard_deviation() == 0.05);
 }
@@ -41,24 +45,18 @@ TEST_CASE("normal quantiles match scipy.stats.norm.ppf") {
 TEST_CASE("truncated normal quantiles and moments match scipy.stats.truncnorm") {
   SUBCASE("two-sided, symmetric: truncnormal(mean=0.6, sd=0.1, min=0.3, max=0.9)") {
     const Distribution d = Distribution::truncated_normal(0.6, 0.1, 0.3, 0.9);
-    for (const Point p : {Point{1e-10, 0.30000000225030304}, Point{0.025, 0.40615209657029455},
-                          Point{0.3, 0.5477151834566211}, Point{0.5, 0.6}, Point{0.9, 0.7275422223467578},
-                          Point{0.999999, 0.8999775045615954}}) {
-      CAPTURE(p.u);
-      CHECK(relative_error(d.quantile(p.u), p.x) < kTol);
-    }
+    check_quantiles(d, {{1e-10, 0.30000000225030304}, {0.025, 0.40615209657029455},
+                          {0.3, 0.5477151834566211}, {0.5, 0.6}, {0.9, 0.7275422223467578},
+                          {0.999999, 0.8999775045615954}});
     // scipy: truncnorm.mean = 0.6, truncnorm.std = 0.09865783925581087.
     CHECK(relative_error(d.mean(), 0.6) < 1e-14);
     CHECK(relative_error(d.standard_deviation(), 0.09865783925581087) < 1e-12);
   }
   SUBCASE("upper tail only: truncnormal(mean=0, sd=1, min=3), inverted on the complementary CDF") {
     const Distribution d = Distribution::truncated_normal(0.0, 1.0, 3.0, std::numeric_limits<double>::infinity());
-    for (const Point p : {Point{1e-10, 3.000000000030459}, Point{0.025, 3.0077031586208176},
-                          Point{0.3, 3.107016696637142}, Point{0.5, 3.2051549205989334},
-                          Point{0.9, 3.6425222758316242}, Point{0.999999, 5.948882346129337}}) {
-      CAPTURE(p.u);
-      CHECK(relative_error(d.quantile(p.u), p.x) < kTol);
-    }
+    check_quantiles(d, {{1e-10, 3.000000000030459}, {0.025, 3.0077031586208176},
+                          {0.3, 3.107016696637142}, {0.5, 3.2051549205989334},
+                          {0.9, 3.6425222758316242}, {0.999999, 5.948882346129337}});
     // scipy: truncnorm(3, inf).mean() = 3.28309865493044, .std() = 0.2656297927290082.
     CHECK(relative_error(d.mean(), 3.28309865493044) < 1e-12);
     CHECK(relative_error(d.standard_deviation(), 0.2656297927290082) < 1e-10);
@@ -67,12 +65,9 @@ TEST_CASE("truncated normal quantiles and moments match scipy.stats.truncnorm") 
   }
   SUBCASE("lower tail only: truncnormal(mean=2, sd=0.5, max=0)") {
     const Distribution d = Distribution::truncated_normal(2.0, 0.5, -std::numeric_limits<double>::infinity(), 0.0);
-    for (const Point p : {Point{1e-10, -1.8985535454507234}, Point{0.025, -0.4001954608979794},
-                          Point{0.3, -0.13814863017022327}, Point{0.5, -0.08055213929894034},
-                          Point{0.9, -0.012432034332583886}}) {
-      CAPTURE(p.u);
-      CHECK(relative_error(d.quantile(p.u), p.x) < kTol);
-    }
+    check_quantiles(d, {{1e-10, -1.8985535454507234}, {0.025, -0.4001954608979794},
+                          {0.3, -0.13814863017022327}, {0.5, -0.08055213929894034},
+                          {0.9, -0.012432034332583886}});
     // Near the bound x → 0 the relative accuracy in x is limited by the cancellation
     // mean + sd·z ≈ 0 (2 − 2.0000001): absolute accuracy ~ulp(2) = 4.4e-16, checked to 1e-14.
     CHECK(std::abs(d.quantile(0.999999) - -1.1832624746688225e-07) < 1e-14);
@@ -81,12 +76,9 @@ TEST_CASE("truncated normal quantiles and moments match scipy.stats.truncnorm") 
 
 TEST_CASE("lognormal quantiles and moments match scipy.stats.lognorm") {
   const Distribution d = Distribution::lognormal(10.0, 0.8);
-  for (const Point p : {Point{1e-10, 0.06163732732295166}, Point{0.025, 2.0846769545105075},
-                        Point{0.3, 6.573620083645885}, Point{0.5, 10.0}, Point{0.9, 27.87767935249002},
-                        Point{0.999999, 448.2380890631307}}) {
-    CAPTURE(p.u);
-    CHECK(relative_error(d.quantile(p.u), p.x) < kTol);
-  }
+  check_quantiles(d, {{1e-10, 0.06163732732295166}, {0.025, 2.0846769545105075},
+                        {0.3, 6.573620083645885}, {0.5, 10.0}, {0.9, 27.87767935249002},
+                        {0.999999, 448.2380890631307}});
   // scipy: lognorm(0.8, scale=10).mean() = 13.771277643359571, .std() = 13.039013943793183.
   CHECK(relative_error(d.mean(), 13.771277643359571) < 1e-14);
   CHECK(relative_error(d.standard_deviation(), 13.039013943793183) < 1e-14);
@@ -105,12 +97,9 @@ TEST_CASE("lognormal from P10 and P90") {
 
 TEST_CASE("triangular quantiles and moments match scipy.stats.triang") {
   const Distribution d = Distribution::triangular(0.5, 0.6, 0.8);
-  for (const Point p : {Point{1e-10, 0.5000017320508076}, Point{0.025, 0.5273861278752583},
-                        Point{0.3, 0.5948683298050513}, Point{0.5, 0.6267949192431123},
-                        Point{0.9, 0.7225403330758516}, Point{0.999999, 0.7997550510257181}}) {
-    CAPTURE(p.u);
-    CHECK(relative_error(d.quantile(p.u), p.x) < kTol);
-  }
+  check_quantiles(d, {{1e-10, 0.5000017320508076}, {0.025, 0.5273861278752583},
+                        {0.3, 0.5948683298050513}, {0.5, 0.6267949192431123},
+                        {0.9, 0.7225403330758516}, {0.999999, 0.7997550510257181}});
   // scipy: mean 0.6333333333333333, std 0.06236095644623236; mean = (a + b + c)/3 (Kotz & van Dorp 2004).
   CHECK(relative_error(d.mean(), 0.6333333333333333) < 1e-15);
   CHECK(relative_error(d.standard_deviation(), 0.06236095644623236) < 1e-14);
@@ -179,4 +168,23 @@ TEST_CASE("bad parameters are clear input errors") {
   CHECK_THROWS_AS(Distribution::fixed(std::numeric_limits<double>::quiet_NaN()), InputError);
   CHECK_THROWS_AS(Distribution::normal(0.6, 0.05).quantile(0.0), InputError);
   CHECK_THROWS_AS(Distribution::normal(0.6, 0.05).quantile(1.0), InputError);
+}
+
+TEST_CASE("the extreme variates of a random stream give finite values inside the support") {
+  // RandomStream's uniforms lie in [2⁻⁵³, 1 − 2⁻⁵³] (random_stream.hpp): no quantile may
+  // overflow there.
+  constexpr double inf = std::numeric_limits<double>::infinity();
+  for (const Distribution& d :
+       {Distribution::uniform(1.0, 3.0), Distribution::normal(0.6, 0.05),
+        Distribution::truncated_normal(0.6, 0.1, 0.3, 0.9), Distribution::truncated_normal(0.0, 1.0, 3.0, inf),
+        Distribution::truncated_normal(0.0, 1.0, -inf, -20.0), Distribution::lognormal(1e-14, 2.0),
+        Distribution::triangular(0.5, 0.8, 0.8)}) {
+    for (double u : {0x1p-53, 1.0 - 0x1p-53}) {
+      CAPTURE(u);
+      const double x = d.quantile(u);
+      CHECK(std::isfinite(x));
+      CHECK(x >= d.lower());
+      CHECK(x <= d.upper());
+    }
+  }
 }

@@ -87,60 +87,58 @@ TEST_CASE("the canonical text reads back to the same distribution") {
   CHECK(stats::format_distribution(Distribution::normal(0.6, 0.05), Dimension::dimensionless) == "normal(mean=0.6, sd=0.05)");
 }
 
+namespace {
+struct BadText {
+  const char* text;
+  Dimension dimension;
+  const char* field;
+  const char* message;
+};
+}  // namespace
+
 TEST_CASE("bad distribution text gives one clear message") {
-  const auto k = Dimension::permeability;
-  // Unknown name, with a suggestion from the edit distance (core/util/suggest.hpp).
-  CHECK_THROWS_WITH_AS(parse_distribution("lognormel(10 mD, 0.8)", k, "permeability"),
+  // Whole messages: unknown name with a suggestion from the edit distance
+  // (core/util/suggest.hpp), and a parameter check reported with the text as written.
+  CHECK_THROWS_WITH_AS(parse_distribution("lognormel(10 mD, 0.8)", Dimension::permeability, "permeability"),
                        "field 'permeability' = 'lognormel(10 mD, 0.8)': expected a value with a unit or a distribution: "
                        "fixed, uniform, normal, truncnormal, lognormal or triangular (did you mean 'lognormal'?)",
                        InputError);
-  CHECK_THROWS_WITH_AS(parse_distribution("gamma(2, 3)", Dimension::dimensionless, "mu"),
-                       doctest::Contains("fixed, uniform, normal"), InputError);
-  CHECK_THROWS_WITH_AS(parse_distribution("normal", Dimension::dimensionless, "mu"),
-                       doctest::Contains("in parentheses (did you mean 'normal'?)"), InputError);
-  // Missing units.
-  CHECK_THROWS_WITH_AS(parse_distribution("uniform(20, 24)", Dimension::pressure_gradient, "shmin_gradient"),
-                       doctest::Contains("field 'shmin_gradient' = 'uniform(20, 24)': expected for min ('20') a number "
-                                         "with a pressure gradient unit"),
-                       InputError);
-  CHECK_THROWS_WITH_AS(parse_distribution("lognormal(median=10, sigma_ln=0.8)", k, "permeability"),
-                       doctest::Contains("the unit is missing"), InputError);
-  CHECK_THROWS_WITH_AS(parse_distribution("10", k, "permeability"), doctest::Contains("the unit is missing"), InputError);
-  CHECK_THROWS_WITH_AS(parse_distribution("normal(10 psi, 1 psi)", k, "permeability"),
-                       doctest::Contains("not a pressure unit"), InputError);
-  // Parameter checks, reported with the text as written.
   CHECK_THROWS_WITH_AS(parse_distribution("uniform(24 MPa/km, 20 MPa/km)", Dimension::pressure_gradient, "shmin"),
                        "field 'shmin' = 'uniform(24 MPa/km, 20 MPa/km)': expected min < max (for a single value write "
                        "the value alone)",
                        InputError);
-  CHECK_THROWS_WITH_AS(parse_distribution("normal(0.6, -0.05)", Dimension::dimensionless, "friction"),
-                       doctest::Contains("'normal(0.6, -0.05)': expected a positive standard deviation"), InputError);
-  CHECK_THROWS_WITH_AS(parse_distribution("lognormal(median=0 mD, sigma_ln=0.8)", k, "permeability"),
-                       doctest::Contains("expected a positive median"), InputError);
-  CHECK_THROWS_WITH_AS(parse_distribution("lognormal(median=-3 mD, sigma_ln=0.8)", k, "permeability"),
-                       doctest::Contains("expected a positive median"), InputError);
-  CHECK_THROWS_WITH_AS(parse_distribution("triangular(min=0.5, mode=0.9, max=0.8)", Dimension::dimensionless, "mu"),
-                       doctest::Contains("min <= mode <= max"), InputError);
-  // Syntax.
-  CHECK_THROWS_WITH_AS(parse_distribution("normal(mean=0.6, sdev=0.05)", Dimension::dimensionless, "mu"),
-                       doctest::Contains("not 'sdev' (did you mean 'sd'?)"), InputError);
-  CHECK_THROWS_WITH_AS(parse_distribution("normal(0.6, mean=0.5)", Dimension::dimensionless, "mu"),
-                       doctest::Contains("'mean' is given twice"), InputError);
-  CHECK_THROWS_WITH_AS(parse_distribution("normal(mean=0.6, 0.05)", Dimension::dimensionless, "mu"),
-                       doctest::Contains("positional parameters before named ones"), InputError);
-  CHECK_THROWS_WITH_AS(parse_distribution("normal(0.6, 0.05, 0.1)", Dimension::dimensionless, "mu"),
-                       doctest::Contains("at most 2 parameters"), InputError);
-  CHECK_THROWS_WITH_AS(parse_distribution("normal(0.6)", Dimension::dimensionless, "mu"),
-                       doctest::Contains("a value for sd: normal(mean, sd)"), InputError);
-  CHECK_THROWS_WITH_AS(parse_distribution("normal(0.6,)", Dimension::dimensionless, "mu"),
-                       doctest::Contains("a value between every pair of commas"), InputError);
-  CHECK_THROWS_WITH_AS(parse_distribution("normal(0.6, 0.05", Dimension::dimensionless, "mu"),
-                       doctest::Contains("one pair of parentheses"), InputError);
-  CHECK_THROWS_WITH_AS(parse_distribution("normal()", Dimension::dimensionless, "mu"),
-                       doctest::Contains("parameters: normal(mean, sd)"), InputError);
-  CHECK_THROWS_WITH_AS(parse_distribution("lognormal(median=10 mD, p90=50 mD)", k, "k"),
-                       doctest::Contains("not a mix"), InputError);
-  CHECK_THROWS_WITH_AS(parse_distribution("truncnormal(mean=0.6, sd=0.1)", Dimension::dimensionless, "mu"),
-                       doctest::Contains("min or max"), InputError);
-  CHECK_THROWS_AS(parse_distribution("", Dimension::dimensionless, "mu"), InputError);
+  // (text, dimension, field, part of the message)
+  const BadText cases[] = {
+      // unknown names
+      {"gamma(2, 3)", Dimension::dimensionless, "mu", "fixed, uniform, normal"},
+      {"normal", Dimension::dimensionless, "mu", "in parentheses (did you mean 'normal'?)"},
+      // missing or wrong units
+      {"uniform(20, 24)", Dimension::pressure_gradient, "shmin_gradient",
+       "field 'shmin_gradient' = 'uniform(20, 24)': expected for min ('20') a number with a pressure gradient unit"},
+      {"lognormal(median=10, sigma_ln=0.8)", Dimension::permeability, "permeability", "the unit is missing"},
+      {"10", Dimension::permeability, "permeability", "the unit is missing"},
+      {"normal(10 psi, 1 psi)", Dimension::permeability, "permeability", "not a pressure unit"},
+      // parameter checks
+      {"normal(0.6, -0.05)", Dimension::dimensionless, "friction",
+       "'normal(0.6, -0.05)': expected a positive standard deviation"},
+      {"lognormal(median=0 mD, sigma_ln=0.8)", Dimension::permeability, "permeability", "expected a positive median"},
+      {"lognormal(median=-3 mD, sigma_ln=0.8)", Dimension::permeability, "permeability", "expected a positive median"},
+      {"triangular(min=0.5, mode=0.9, max=0.8)", Dimension::dimensionless, "mu", "min <= mode <= max"},
+      // syntax
+      {"normal(mean=0.6, sdev=0.05)", Dimension::dimensionless, "mu", "not 'sdev' (did you mean 'sd'?)"},
+      {"normal(0.6, mean=0.5)", Dimension::dimensionless, "mu", "'mean' is given twice"},
+      {"normal(mean=0.6, 0.05)", Dimension::dimensionless, "mu", "positional parameters before named ones"},
+      {"normal(0.6, 0.05, 0.1)", Dimension::dimensionless, "mu", "at most 2 parameters"},
+      {"normal(0.6)", Dimension::dimensionless, "mu", "a value for sd: normal(mean, sd)"},
+      {"normal(0.6,)", Dimension::dimensionless, "mu", "a value between every pair of commas"},
+      {"normal(0.6, 0.05", Dimension::dimensionless, "mu", "one pair of parentheses"},
+      {"normal()", Dimension::dimensionless, "mu", "parameters: normal(mean, sd)"},
+      {"lognormal(median=10 mD, p90=50 mD)", Dimension::permeability, "k", "not a mix"},
+      {"truncnormal(mean=0.6, sd=0.1)", Dimension::dimensionless, "mu", "min or max"},
+      {"", Dimension::dimensionless, "mu", "field 'mu' = '': expected a value with a unit or a distribution"},
+  };
+  for (const auto& c : cases) {
+    CAPTURE(c.text);
+    CHECK_THROWS_WITH_AS(parse_distribution(c.text, c.dimension, c.field), doctest::Contains(c.message), InputError);
+  }
 }

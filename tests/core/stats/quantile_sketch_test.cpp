@@ -128,3 +128,16 @@ TEST_CASE("encoding round trip and bad use") {
   QuantileSketch other(0.02);
   CHECK_THROWS_AS(s.merge(other), InputError);
 }
+
+TEST_CASE("values on bucket boundaries stay within the accuracy") {
+  // x = γ^k lies on the upper edge of bucket k; log rounding may put it in bucket k + 1,
+  // whose representative 2γ^(k+1)/(γ+1) is then exactly α above it (Masson et al. 2019 §2).
+  const double alpha = 0.01, gamma = (1 + alpha) / (1 - alpha);
+  for (int k = -60; k <= 60; k += 7) {
+    QuantileSketch s(alpha);
+    const double x = std::pow(gamma, k);
+    for (double v : {0.1 * x, x, x, x, 10.0 * x}) s.add(v);  // min and max apart: no clamping
+    CAPTURE(k);
+    CHECK(std::abs(s.quantile(0.5) - x) <= alpha * x * (1.0 + 1e-12));
+  }
+}
