@@ -4,10 +4,12 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 #include <vector>
 
 #include "core/errors.hpp"
 #include "core/stats/random_stream.hpp"
+#include "core/stats/wilson_interval.hpp"
 
 using namespace slipscreen;
 using stats::Distribution;
@@ -144,4 +146,41 @@ TEST_CASE("bad sampler input is a clear error") {
   std::vector<double> wrong(2);
   CHECK_THROWS_AS(s.draw(0, wrong), InputError);
   CHECK_THROWS_AS(s.stratum(0, 0), InputError);  // Monte Carlo has no strata
+}
+
+TEST_CASE("Latin hypercube: the k-th smallest value lies in the k-th probability stratum") {
+  // Stratification in value space (McKay et al. 1979): sorted, the N values x_(k) satisfy
+  // F⁻¹(k/N) ≤ x_(k) ≤ F⁻¹((k+1)/N), since F⁻¹ is increasing and each stratum holds one point.
+  constexpr std::int64_t n = 400;
+  const Distribution d = Distribution::lognormal(1e-14, 0.8);
+  const Sampler s({{"k", d}}, SamplingMethod::latin_hypercube, 55, RealizationCount(n));
+  std::vector<double> x;
+  for (std::uint64_t i = 0; i < n; ++i) x.push_back(s.draw(i)[0]);
+  std::sort(x.begin(), x.end());
+  for (std::int64_t k = 0; k < n; ++k) {
+    const double lo = k == 0 ? 0.0 : d.quantile(static_cast<double>(k) / n);
+    const double hi = k == n - 1 ? std::numeric_limits<double>::infinity() : d.quantile((k + 1.0) / n);
+    CAPTURE(k);
+    CHECK(x[static_cast<std::size_t>(k)] >= lo * (1 - 1e-14));
+    CHECK(x[static_cast<std::size_t>(k)] <= hi * (1 + 1e-14));
+  }
+}
+
+TEST_CASE("a closed-form probability is recovered within its Wilson interval") {
+  // P(X < 0.55) for X ~ normal(0.6, 0.05) is Φ(−1) = 0.15865525393145707 (scipy.stats.norm.cdf(-1)).
+  // With 20000 realizations the 99.9 % Wilson interval (z = 3.2905267314919255, scipy
+  // norm.ppf(0.9995)) must hold it — for both samplers (the seed is fixed: deterministic).
+  for (const auto method : {SamplingMethod::monte_carlo, SamplingMethod::latin_hypercube}) {
+    constexpr std::int64_t n = 20000;
+    const Sampler s({{"friction", Distribution::normal(0.6, 0.05)}}, method, 9, RealizationCount(n));
+    std::uint64_t below = 0;
+    for (std::uint64_t i = 0; i < n; ++i) below += s.draw(i)[0] < 0.55;
+    const auto ci = stats::wilson_interval(below, n, 3.2905267314919255);
+    CAPTURE(stats::sampling_method_name(method));
+    CHECK(ci.lower <= 0.15865525393145707);
+    CHECK(0.15865525393145707 <= ci.upper);
+    // LHS: the count below the 0.15865…-quantile is fixed by the strata up to one stratum:
+    // ⌊N·p⌋ or ⌈N·p⌉ (N·p = 3173.1).
+    if (method == SamplingMethod::latin_hypercube) CHECK((below == 3173 || below == 3174));
+  }
 }
