@@ -274,6 +274,11 @@ nlohmann::json to_json(const ResolvedScenario& s) {
   const auto& r = s.region;
   json stress = {{"vertical_gradient_Pa_per_m", num(r.stress.vertical_gradient)},
                  {"shmax_azimuth_rad", num(r.stress.shmax_azimuth)}};
+  if (!r.stress.density_layers.empty()) {
+    json layers = json::array();
+    for (const auto& l : r.stress.density_layers) layers.push_back({{"top_m", l.top}, {"density_kg_per_m3", l.density}});
+    stress["density_layers"] = layers;
+  }
   switch (r.stress.model) {
     case StressModel::gradients:
       stress["model"] = "gradients";
@@ -284,8 +289,11 @@ nlohmann::json to_json(const ResolvedScenario& s) {
       stress["model"] = "uniaxial_strain";
       stress["poisson_ratio"] = num(r.stress.poisson_ratio);
       stress["biot"] = num(r.stress.biot);
-      stress["tectonic_shmin_gradient_Pa_per_m"] = num(r.stress.tectonic_shmin_gradient);
-      stress["tectonic_shmax_gradient_Pa_per_m"] = num(r.stress.tectonic_shmax_gradient);
+      stress["young_modulus_Pa"] = num(r.stress.young_modulus);
+      stress["strain_shmin"] = num(r.stress.strain_shmin);
+      stress["strain_shmax"] = num(r.stress.strain_shmax);
+      stress["tectonic_shmin_Pa"] = num(r.stress.tectonic_shmin);
+      stress["tectonic_shmax_Pa"] = num(r.stress.tectonic_shmax);
       break;
     case StressModel::a_phi:
       stress["model"] = "a_phi";
@@ -318,9 +326,8 @@ nlohmann::json to_json(const ResolvedScenario& s) {
                  {"layer", f.layer},
                  {"crs", f.crs},
                  {"attributes", {{"id", f.id_attribute}, {"dip", f.dip_attribute},
-                                 {"dip_direction", f.dip_direction_attribute}, {"strike", f.strike_attribute},
-                                 {"friction", f.friction_attribute}}},
-                 {"orientation", f.orientation == FaultMapSpec::Orientation::dip_direction ? "dip_direction" : "strike_rhr"},
+                                 {"dip_direction", f.dip_direction_attribute}, {"dips_to", f.dips_to_attribute},
+                                 {"friction", f.friction_attribute}, {"default_dip_rad", num(f.default_dip)}}},
                  {"friction", f.friction},
                  {"cohesion_Pa", f.cohesion},
                  {"segment_length_m", f.segment_length},

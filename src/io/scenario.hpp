@@ -29,16 +29,23 @@ enum class StressModel { gradients, uniaxial_strain, a_phi };
 // In-situ stress at the reference depth; the three forms of the geomechanics engine.
 struct StressSpec {
   StressModel model = StressModel::gradients;
-  double vertical_gradient = kUnset;   // Pa/m, dSv/dz (or overburden density x g)
+  double vertical_gradient = kUnset;   // Pa/m, dSv/dz (or overburden density x g); unset with layers
+  struct DensityLayer {
+    double top;      // m
+    double density;  // kg/m^3
+  };
+  std::vector<DensityLayer> density_layers;  // Sv = g sum(rho dz), when given instead of a gradient
   double shmax_azimuth = kUnset;       // rad, clockwise from north
   // model = gradients
   double shmax_gradient = kUnset;      // Pa/m
   double shmin_gradient = kUnset;      // Pa/m
-  // model = uniaxial_strain: Shmin = nu/(1-nu) (Sv - alpha p0) + alpha p0 + tectonic terms
+  // model = uniaxial_strain: Shmin = nu/(1-nu) (Sv - alpha p0) + alpha p0, plus optional
+  // tectonic strains (with Young's modulus) and stresses, as geomech::UniaxialStrainModel
   double poisson_ratio = kUnset;       // 1
   double biot = 1.0;                   // 1
-  double tectonic_shmin_gradient = 0;  // Pa/m, added to Shmin
-  double tectonic_shmax_gradient = 0;  // Pa/m, SHmax = Shmin + this (uniaxial strain)
+  double young_modulus = 0;            // Pa (needed only with non-zero strains)
+  double strain_shmin = 0, strain_shmax = 0;  // 1, tectonic strains (extension negative)
+  double tectonic_shmin = 0, tectonic_shmax = 0;  // Pa, added stresses
   // model = a_phi (Simpson 1997): magnitudes from frictional equilibrium at this friction
   double a_phi = kUnset;               // 0..3
   double equilibrium_friction = kUnset;  // 1, defaults to the fault friction
@@ -49,13 +56,14 @@ struct FaultMapSpec {
   std::string file;             // display name
   std::string layer;            // empty: the first layer
   std::string crs;              // empty: the file's own CRS
-  // attribute mapping
-  std::string id_attribute = "id";
+  // attribute mapping (field names in the fault file; "" disables an optional field)
+  std::string id_attribute = "fault_id";
   std::string dip_attribute = "dip";
-  std::string dip_direction_attribute = "dip_direction";
-  std::string strike_attribute;    // used when orientation = strike_rhr
-  std::string friction_attribute;  // optional per-fault friction
-  enum class Orientation { dip_direction, strike_rhr } orientation = Orientation::dip_direction;
+  std::string dip_direction_attribute = "dip_dir";  // azimuth or compass point
+  std::string dips_to_attribute = "dips_to";        // "right"/"left" of the digitising direction
+  std::string friction_attribute = "friction";      // optional per-fault friction
+  double default_dip = kUnset;  // rad, used where the dip field is absent or null
+  // Without a dip direction or dips_to, a trace follows the right-hand rule (dips to the right).
   double friction = 0.6;        // 1
   double cohesion = 0.0;        // Pa
   double segment_length = 2000; // m, longest segment after splitting polylines

@@ -30,9 +30,9 @@ void require_range(const Section& s, std::string_view key, double v, double lo, 
 }
 
 StressSpec read_stress(const Section& s, double fault_friction) {
-  s.allow({"model", "vertical_gradient", "overburden_density", "shmax_azimuth", "shmax_gradient",
-           "shmin_gradient", "poisson_ratio", "biot", "tectonic_shmin_gradient", "tectonic_shmax_gradient",
-           "a_phi", "equilibrium_friction"});
+  s.allow({"model", "vertical_gradient", "overburden_density", "density_layers", "shmax_azimuth", "shmax_gradient",
+           "shmin_gradient", "poisson_ratio", "biot", "young_modulus", "strain_shmin", "strain_shmax",
+           "tectonic_shmin", "tectonic_shmax", "a_phi", "equilibrium_friction"});
   StressSpec st;
   const std::string model = s.string("model");
   if (model == "gradients") st.model = StressModel::gradients;
@@ -40,21 +40,44 @@ StressSpec read_stress(const Section& s, double fault_friction) {
   else if (model == "a_phi") st.model = StressModel::a_phi;
   else s.fail("model", model, "one of 'gradients', 'uniaxial_strain', 'a_phi'");
 
-  if (s.has("vertical_gradient") && s.has("overburden_density"))
-    s.fail("overburden_density", "(also vertical_gradient)", "either vertical_gradient or overburden_density, not both");
-  if (s.has("overburden_density"))
+  const int sv_forms = int(s.has("vertical_gradient")) + int(s.has("overburden_density")) + int(s.has("density_layers"));
+  if (sv_forms != 1)
+    s.fail(s.has("overburden_density") ? "overburden_density" : "vertical_gradient", sv_forms ? "(several)" : "(missing)",
+           "exactly one of vertical_gradient, overburden_density or density_layers");
+  if (s.has("overburden_density")) {
     st.vertical_gradient = s.quantity("overburden_density", Dimension::density) * units::kStandardGravity;
-  else st.vertical_gradient = s.quantity("vertical_gradient", Dimension::pressure_gradient);
-  require_positive(s, s.has("overburden_density") ? "overburden_density" : "vertical_gradient", st.vertical_gradient);
+    require_positive(s, "overburden_density", st.vertical_gradient);
+  } else if (s.has("vertical_gradient")) {
+    st.vertical_gradient = s.quantity("vertical_gradient", Dimension::pressure_gradient);
+    require_positive(s, "vertical_gradient", st.vertical_gradient);
+  } else {
+    const auto f = *s.find("density_layers");
+    const toml::array* arr = f.node->as_array();
+    if (!arr || !arr->is_array_of_tables() || arr->empty())
+      s.fail("density_layers", toml_value_text(*f.node), "an array of tables {top = \"0 m\", density = \"2300 kg/m3\"}");
+    for (std::size_t i = 0; i < arr->size(); ++i) {
+      const Section ls({{arr->get(i)->as_table(), f.layer->file,
+                         s.key_path(f, "density_layers") + "[" + std::to_string(i) + "]", f.layer->dir}});
+      ls.allow({"top", "density"});
+      StressSpec::DensityLayer l{ls.quantity("top", Dimension::length), ls.quantity("density", Dimension::density)};
+      if (i == 0 && l.top != 0) ls.fail("top", std::to_string(l.top) + " m", "0 m for the first layer");
+      if (i > 0 && !(l.top > st.density_layers.back().top)) ls.fail("top", std::to_string(l.top) + " m", "a top below the previous layer's");
+      require_positive(ls, "density", l.density);
+      st.density_layers.push_back(l);
+    }
+  }
   st.shmax_azimuth = s.quantity("shmax_azimuth", Dimension::angle);
 
   const auto forbid = [&](std::initializer_list<std::string_view> keys) {
     for (auto k : keys)
       if (s.has(k)) s.fail(k, "(set)", "no '" + std::string(k) + "' with model = '" + model + "'");
   };
+  const std::initializer_list<std::string_view> uniaxial_keys = {"poisson_ratio", "biot", "young_modulus", "strain_shmin", "strain_shmax",
+                              "tectonic_shmin", "tectonic_shmax"};
   switch (st.model) {
     case StressModel::gradients:
-      forbid({"poisson_ratio", "biot", "tectonic_shmin_gradient", "tectonic_shmax_gradient", "a_phi", "equilibrium_friction"});
+      forbid(uniaxial_keys);
+      forbid({"a_phi", "equilibrium_friction"});
       st.shmax_gradient = s.quantity("shmax_gradient", Dimension::pressure_gradient);
       st.shmin_gradient = s.quantity("shmin_gradient", Dimension::pressure_gradient);
       require_positive(s, "shmin_gradient", st.shmin_gradient);
@@ -67,13 +90,18 @@ StressSpec read_stress(const Section& s, double fault_friction) {
       require_range(s, "poisson_ratio", st.poisson_ratio, 0.0, 0.4999, "a Poisson ratio in [0, 0.5)");
       st.biot = s.quantity_or("biot", Dimension::dimensionless, 1.0);
       require_range(s, "biot", st.biot, 0.0, 1.0, "a Biot coefficient in [0, 1]");
-      st.tectonic_shmin_gradient = s.quantity_or("tectonic_shmin_gradient", Dimension::pressure_gradient, 0.0);
-      st.tectonic_shmax_gradient = s.quantity_or("tectonic_shmax_gradient", Dimension::pressure_gradient, 0.0);
-      if (st.tectonic_shmax_gradient < 0)
-        s.fail("tectonic_shmax_gradient", std::to_string(st.tectonic_shmax_gradient), "a value >= 0 (SHmax >= Shmin)");
+      st.young_modulus = s.quantity_or("young_modulus", Dimension::pressure, 0.0);
+      st.strain_shmin = s.quantity_or("strain_shmin", Dimension::dimensionless, 0.0);
+      st.strain_shmax = s.quantity_or("strain_shmax", Dimension::dimensionless, 0.0);
+      if ((st.strain_shmin != 0 || st.strain_shmax != 0) && !(st.young_modulus > 0))
+        s.fail("young_modulus", s.has("young_modulus") ? std::to_string(st.young_modulus) : "(missing)",
+               "a Young's modulus > 0 (needed with tectonic strains)");
+      st.tectonic_shmin = s.quantity_or("tectonic_shmin", Dimension::pressure, 0.0);
+      st.tectonic_shmax = s.quantity_or("tectonic_shmax", Dimension::pressure, 0.0);
       break;
     case StressModel::a_phi:
-      forbid({"shmax_gradient", "shmin_gradient", "poisson_ratio", "biot", "tectonic_shmin_gradient", "tectonic_shmax_gradient"});
+      forbid(uniaxial_keys);
+      forbid({"shmax_gradient", "shmin_gradient"});
       st.a_phi = s.quantity("a_phi", Dimension::dimensionless);
       require_range(s, "a_phi", st.a_phi, 0.0, 3.0, "A_phi in [0, 3] (Simpson 1997)");
       st.equilibrium_friction = s.quantity_or("equilibrium_friction", Dimension::dimensionless, fault_friction);
@@ -84,25 +112,24 @@ StressSpec read_stress(const Section& s, double fault_friction) {
 }
 
 FaultMapSpec read_faults(const Section& s) {
-  s.allow({"file", "layer", "crs", "attributes", "orientation", "friction", "cohesion", "segment_length", "check_points"});
+  s.allow({"file", "layer", "crs", "attributes", "friction", "cohesion", "segment_length", "check_points"});
   FaultMapSpec f;
   // A path is relative to the file that names it (region file or scenario override).
   f.path = s.path("file");
   f.layer = s.optional_string("layer").value_or("");
   f.crs = s.optional_string("crs").value_or("");
   const Section a = s.child("attributes");
-  a.allow({"id", "dip", "dip_direction", "strike", "friction"});
+  a.allow({"id", "dip", "dip_direction", "dips_to", "friction", "default_dip"});
   f.id_attribute = a.optional_string("id").value_or(f.id_attribute);
   f.dip_attribute = a.optional_string("dip").value_or(f.dip_attribute);
   f.dip_direction_attribute = a.optional_string("dip_direction").value_or(f.dip_direction_attribute);
-  f.strike_attribute = a.optional_string("strike").value_or("");
-  f.friction_attribute = a.optional_string("friction").value_or("");
-  const std::string orient = s.optional_string("orientation").value_or("dip_direction");
-  if (orient == "dip_direction") f.orientation = FaultMapSpec::Orientation::dip_direction;
-  else if (orient == "strike_rhr") {
-    f.orientation = FaultMapSpec::Orientation::strike_rhr;
-    if (f.strike_attribute.empty()) f.strike_attribute = "strike";
-  } else s.fail("orientation", orient, "'dip_direction' or 'strike_rhr' (strike with the right-hand rule)");
+  f.dips_to_attribute = a.optional_string("dips_to").value_or(f.dips_to_attribute);
+  f.friction_attribute = a.optional_string("friction").value_or(f.friction_attribute);
+  if (a.has("default_dip")) {
+    f.default_dip = a.quantity("default_dip", Dimension::angle);
+    if (!(f.default_dip > 0 && f.default_dip <= 1.5707963267948966 + 1e-12))
+      a.fail("default_dip", std::to_string(f.default_dip) + " rad", "a dip in (0, 90] degrees");
+  }
   f.friction = s.quantity_or("friction", Dimension::dimensionless, 0.6);
   require_range(s, "friction", f.friction, 0.01, 2.0, "a friction coefficient in [0.01, 2]");
   f.cohesion = s.quantity_or("cohesion", Dimension::pressure, 0.0);
