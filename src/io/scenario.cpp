@@ -212,7 +212,7 @@ ResolvedScenario load_scenario(const fs::path& path) {
   // Region, with any overrides from [region.override].
   const Section reg = top.child("region");
   reg.allow({"file", "override"});
-  const fs::path region_path = reg.path("file");
+  const fs::path region_path = reg.input_path("file");
   const Section over = reg.child("override");
   sc.region = load_region(region_path, display_name(region_path), over.layers().front().table, sc.file,
                           "region.override", dir);
@@ -223,7 +223,7 @@ ResolvedScenario load_scenario(const fs::path& path) {
   wells.allow({"file", "crs"});
   const std::string wells_crs = wells.optional_string("crs").value_or("");
   if (wells.has("file")) {
-    const fs::path p = wells.path("file");
+    const fs::path p = wells.input_path("file");
     sc.wells_file = display_name(p);
     sc.wells = read_wells(read_csv(p, sc.wells_file), wells_crs);
     sc.inputs.push_back(p);
@@ -232,7 +232,7 @@ ResolvedScenario load_scenario(const fs::path& path) {
   hist.allow({"file"});
   if (hist.has("file")) {
     if (sc.wells.empty()) hist.fail("file", hist.string("file"), "a [wells] file that the histories refer to");
-    const fs::path p = hist.path("file");
+    const fs::path p = hist.input_path("file");
     sc.histories_file = display_name(p);
     read_histories(read_csv(p, sc.histories_file), sc.wells);
     sc.inputs.push_back(p);

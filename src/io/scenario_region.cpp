@@ -115,7 +115,7 @@ FaultMapSpec read_faults(const Section& s) {
   s.allow({"file", "layer", "crs", "attributes", "friction", "cohesion", "segment_length", "check_points"});
   FaultMapSpec f;
   // A path is relative to the file that names it (region file or scenario override).
-  f.path = s.path("file");
+  f.path = s.input_path("file");
   f.layer = s.optional_string("layer").value_or("");
   f.crs = s.optional_string("crs").value_or("");
   const Section a = s.child("attributes");

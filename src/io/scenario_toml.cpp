@@ -200,4 +200,15 @@ std::filesystem::path Section::path(std::string_view key) const {
   return (f.layer->dir / rel).lexically_normal();
 }
 
+std::filesystem::path Section::input_path(std::string_view key) const {
+  const std::filesystem::path p = path(key);
+  std::error_code ec;
+  if (!std::filesystem::is_regular_file(p, ec)) {
+    const Found f = *find(key);
+    throw IoError(where(f) + ": key '" + key_path(f, key) + "' = '" + string(key) + "': no such file (" +
+                  p.generic_string() + ")");
+  }
+  return p;
+}
+
 }  // namespace slipscreen::io

@@ -74,6 +74,8 @@ class Section {
   std::vector<std::pair<std::string, std::string>> string_list(std::string_view key) const;  // (value, where)
   // A path string resolved against the directory of the layer that sets it.
   std::filesystem::path path(std::string_view key) const;
+  // The same, for an input file that must exist: IoError naming the key, its place and the path.
+  std::filesystem::path input_path(std::string_view key) const;
 
   // "file line L, column C" of a found value, and its full key path.
   std::string where(const Found& f) const;

@@ -174,10 +174,10 @@ TEST_CASE("values: missing unit, wrong unit, wrong type, TOML syntax") {
 TEST_CASE("missing files") {
   TinyScenario t;
   t.replace("scenario.toml", "file = \"region.toml\"", "file = \"nowhere.toml\"");
-  CHECK_THROWS_WITH_AS(load_scenario(t.scenario()), doctest::Contains("nowhere.toml: cannot open"), IoError);
+  CHECK_THROWS_WITH_AS(load_scenario(t.scenario()), doctest::Contains("scenario.toml line 6, column 8: key 'region.file' = 'nowhere.toml': no such file"), IoError);
   TinyScenario w;
   w.replace("scenario.toml", "file = \"wells.csv\"", "file = \"no-wells.csv\"");
-  CHECK_THROWS_WITH_AS(load_scenario(w.scenario()), doctest::Contains("no-wells.csv: cannot open"), IoError);
+  CHECK_THROWS_WITH_AS(load_scenario(w.scenario()), doctest::Contains("key 'wells.file' = 'no-wells.csv': no such file"), IoError);
   CHECK_THROWS_AS(load_scenario(t.dir() / "no-scenario.toml"), IoError);
 }
 
