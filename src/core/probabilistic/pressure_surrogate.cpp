@@ -3,11 +3,16 @@
 #include <algorithm>
 #include <cmath>
 #include <numbers>
+#include <numeric>
 #include <string>
 
 #include "core/errors.hpp"
 
 namespace slipscreen::probabilistic {
+namespace {
+constexpr std::size_t kBlock = 32;       // points per build block (spatially close)
+constexpr double kBlockCell = 5000.0;    // m: cell size used to order points spatially
+}  // namespace
 
 PressureSurrogate::PressureSurrogate(const std::vector<SimilarityTable>& tables,
                                      std::span<const PressureSource> sources,
@@ -30,60 +35,82 @@ PressureSurrogate::PressureSurrogate(const std::vector<SimilarityTable>& tables,
   const std::size_t n = (hi - lo < 1e-12) ? 1 : std::max<std::size_t>(nodes, 2);
   ln_nodes_.resize(n);
   bary_.resize(n);
+  std::vector<double> inv4d(n);
   for (std::size_t d = 0; d < n; ++d) {
     ln_nodes_[d] = n == 1 ? lo
                           : 0.5 * (lo + hi) + 0.5 * (hi - lo) *
                                 std::cos(std::numbers::pi * static_cast<double>(d) / static_cast<double>(n - 1));
     bary_[d] = ((d % 2) ? -1.0 : 1.0) * ((d == 0 || d == n - 1) ? 0.5 : 1.0);
+    inv4d[d] = 0.25 / std::exp(ln_nodes_[d]);
   }
 
-  g_.assign(n_points_ * n_groups_, Eigen::MatrixXf(static_cast<Eigen::Index>(n_times_), static_cast<Eigen::Index>(n)));
-  double worst = 0.0;
-#pragma omp parallel for schedule(dynamic, 4) reduction(max : worst)
-  for (std::size_t p = 0; p < n_points_; ++p) {
-    std::vector<std::vector<double>> cols(n_groups_, std::vector<double>(n_times_));
-    for (std::size_t d = 0; d < n; ++d) {
-      fill_column(tables, sources, points[p], std::exp(ln_nodes_[d]), cols);
-      for (std::size_t g = 0; g < n_groups_; ++g)
-        for (std::size_t k = 0; k < n_times_; ++k)
-          g_[p * n_groups_ + g](static_cast<Eigen::Index>(k), static_cast<Eigen::Index>(d)) =
-              static_cast<float>(cols[g][k]);
+  const auto rows = static_cast<Eigen::Index>(n_times_), cols = static_cast<Eigen::Index>(n);
+  g_.assign(n_points_ * n_groups_, Eigen::MatrixXf::Zero(rows, cols));
+
+  // Points in spatial order, built in blocks: a block's points are close together, so for each
+  // source they read neighbouring rows of its similarity table (cache reuse).
+  std::vector<std::size_t> order(n_points_);
+  std::iota(order.begin(), order.end(), std::size_t{0});
+  std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
+    const auto ka = std::make_pair(std::floor(points[a].y / kBlockCell), std::floor(points[a].x / kBlockCell));
+    const auto kb = std::make_pair(std::floor(points[b].y / kBlockCell), std::floor(points[b].x / kBlockCell));
+    return ka < kb;
+  });
+  const std::size_t n_blocks = (n_points_ + kBlock - 1) / kBlock;
+#pragma omp parallel for schedule(dynamic, 1)
+  for (std::size_t b = 0; b < n_blocks; ++b) {
+    const std::size_t end = std::min(n_points_, (b + 1) * kBlock);
+    for (const auto& s : sources) {
+      const auto& table = tables[s.table];
+      const auto sign = static_cast<float>(s.sign);
+      for (std::size_t i = b * kBlock; i < end; ++i) {
+        const std::size_t p = order[i];
+        const double dx = points[p].x - s.x, dy = points[p].y - s.y;
+        const double r2 = std::max(dx * dx + dy * dy, s.radius * s.radius);
+        auto& m = g_[p * n_groups_ + s.group];
+        for (std::size_t d = 0; d < n; ++d)
+          table.accumulate(table.tap(r2 * inv4d[d]), sign, m.col(static_cast<Eigen::Index>(d)).data());
+      }
     }
-    // Error estimate at the midpoints (in ln D) between neighbouring nodes, on a sample of
-    // about 64 points spread through the list (it costs as much as the table itself).
-    if (p % std::max<std::size_t>(1, n_points_ / 64) != 0) continue;
+  }
+
+  col_max_.resize(n_points_ * n_groups_ * n);
+  for (std::size_t pg = 0; pg < n_points_ * n_groups_; ++pg)
+    for (std::size_t d = 0; d < n; ++d)
+      col_max_[pg * n + d] = g_[pg].col(static_cast<Eigen::Index>(d)).cwiseAbs().maxCoeff();
+
+  // Error estimate at the midpoints (in ln D) between neighbouring nodes, on a sample of about
+  // 64 points spread through the list (per point it costs as much as the table itself).
+  double worst = 0.0;
+  const std::size_t stride = std::max<std::size_t>(1, n_points_ / 64);
+#pragma omp parallel for schedule(dynamic, 1) reduction(max : worst)
+  for (std::size_t p = 0; p < n_points_; p += stride) {
+    std::vector<std::vector<float>> exact(n_groups_, std::vector<float>(n_times_));
     std::vector<float> ell(n);
     for (std::size_t d = 0; d + 1 < n; ++d) {
-      const double mid = 0.5 * (ln_nodes_[d] + ln_nodes_[d + 1]);
-      fill_column(tables, sources, points[p], std::exp(mid), cols);
-      basis(std::exp(mid), ell.data());
+      const double mid = std::exp(0.5 * (ln_nodes_[d] + ln_nodes_[d + 1]));
+      for (auto& c : exact) std::fill(c.begin(), c.end(), 0.0f);
+      for (const auto& s : sources) {
+        const double dx = points[p].x - s.x, dy = points[p].y - s.y;
+        const double r2 = std::max(dx * dx + dy * dy, s.radius * s.radius);
+        const auto& table = tables[s.table];
+        table.accumulate(table.tap(r2 * 0.25 / mid), static_cast<float>(s.sign), exact[s.group].data());
+      }
+      basis(mid, ell.data());
       for (std::size_t g = 0; g < n_groups_; ++g) {
         const auto& m = g_[p * n_groups_ + g];
         double scale = 0.0, err = 0.0;
         for (std::size_t k = 0; k < n_times_; ++k) {
           double v = 0.0;
           for (std::size_t e = 0; e < n; ++e) v += ell[e] * m(static_cast<Eigen::Index>(k), static_cast<Eigen::Index>(e));
-          scale = std::max(scale, std::abs(cols[g][k]));
-          err = std::max(err, std::abs(v - cols[g][k]));
+          scale = std::max(scale, std::abs(double(exact[g][k])));
+          err = std::max(err, std::abs(v - exact[g][k]));
         }
         if (scale > 0.0) worst = std::max(worst, err / scale);
       }
     }
   }
   max_error_ = worst;
-}
-
-void PressureSurrogate::fill_column(const std::vector<SimilarityTable>& tables,
-                                    std::span<const PressureSource> sources, const ObservationPoint& p,
-                                    double diffusivity, std::vector<std::vector<double>>& cols) const {
-  for (auto& c : cols) std::fill(c.begin(), c.end(), 0.0);
-  const double inv4d = 1.0 / (4.0 * diffusivity);
-  for (const auto& s : sources) {
-    const double dx = p.x - s.x, dy = p.y - s.y;
-    const double r2 = std::max(dx * dx + dy * dy, s.radius * s.radius);
-    const auto& table = tables[s.table];
-    table.accumulate(table.tap(r2 * inv4d), s.sign, cols[s.group].data());
-  }
 }
 
 void PressureSurrogate::basis(double diffusivity, float* out) const {

@@ -64,17 +64,21 @@ class PressureSurrogate {
   void evaluate(std::size_t point, const Eigen::MatrixXf& basis, const Eigen::MatrixXf& scale,
                 Eigen::MatrixXf& out) const;
 
+  // max_k |G_{p,g}(t_k, D_d)| for node d: with the basis, Σ_d |ℓ_d| · col_max bounds the
+  // interpolated |Δp|/scale at every tracking time (triangle inequality).
+  const float* column_max(std::size_t point, std::size_t group) const {
+    return &col_max_[(point * n_groups_ + group) * ln_nodes_.size()];
+  }
+
   // Largest |interpolant − exact| / max_k |exact| over points, groups, times and the midpoints
   // between nodes (0 with a single node).
   double max_relative_error() const { return max_error_; }
 
  private:
-  void fill_column(const std::vector<SimilarityTable>& tables, std::span<const PressureSource> sources,
-                   const ObservationPoint& p, double diffusivity, std::vector<std::vector<double>>& cols) const;
-
   std::size_t n_points_ = 0, n_groups_ = 0, n_times_ = 0;
   std::vector<double> ln_nodes_, bary_;
   std::vector<Eigen::MatrixXf> g_;
+  std::vector<float> col_max_;
   double max_error_ = 0.0;
 };
 

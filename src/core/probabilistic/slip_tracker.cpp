@@ -1,6 +1,7 @@
 #include "core/probabilistic/slip_tracker.hpp"
 
 #include <algorithm>
+#include <cmath>
 #include <string>
 
 #include "core/errors.hpp"
@@ -38,52 +39,60 @@ void track_slip(const PressureSurrogate& surrogate, const std::vector<std::vecto
   const std::size_t n_times = surrogate.time_count();
   for (std::size_t o : output_index)
     if (o >= n_times) throw InputError("output index", std::to_string(o), "a tracking-time index");
-  const std::size_t last = output_index.empty() ? n_times - 1 : output_index.back();
-  constexpr Eigen::Index kBlock = 256;  // realizations per block: keeps a block's Δp in cache
+  const std::size_t n_groups = surrogate.group_count();
+  const auto n_nodes = static_cast<Eigen::Index>(surrogate.node_count());
+  const std::vector<Eigen::Index> out_rows(output_index.begin(), output_index.end());
+  const Eigen::MatrixXf abs_basis = draws.basis.cwiseAbs();
 
 #pragma omp parallel
   {
-    Eigen::MatrixXf m, out;
+    Eigen::MatrixXf g_out, dp_out, series;
+    Eigen::VectorXf bound, col, best;
 #pragma omp for schedule(dynamic, 1)
     for (std::size_t s = 0; s < n_seg; ++s) {
       SegmentOutcome res;
       res.segment = s;
       res.first_crossing.assign(static_cast<std::size_t>(n_real), -1);
-      res.peak_dp.assign(static_cast<std::size_t>(n_real), 0.0f);
       res.dp_at_output.setZero(static_cast<Eigen::Index>(output_index.size()), n_real);
+      bound.setZero(n_real);
       const auto& pts = segment_points[s];
-      for (Eigen::Index r0 = 0; r0 < n_real; r0 += kBlock) {
-        const Eigen::Index nb = std::min(kBlock, n_real - r0);
-        const auto basis = draws.basis.middleCols(r0, nb);
-        const auto scale = draws.scale.middleCols(r0, nb);
-        m.setZero(static_cast<Eigen::Index>(n_times), nb);
+      // Δp at output times for all realizations, and the bound on Δp over all tracking times.
+      for (std::size_t i = 0; i < pts.size(); ++i) {
+        dp_out.setZero(static_cast<Eigen::Index>(output_index.size()), n_real);
+        Eigen::VectorXf b = Eigen::VectorXf::Zero(n_real);
+        for (std::size_t g = 0; g < n_groups; ++g) {
+          g_out = surrogate.table(pts[i], g)(out_rows, Eigen::all);
+          const Eigen::RowVectorXf scale = draws.scale.row(static_cast<Eigen::Index>(g));
+          series.noalias() = g_out * draws.basis;
+          series.array().rowwise() *= scale.array();
+          dp_out += series;
+          const Eigen::Map<const Eigen::RowVectorXf> cmax(surrogate.column_max(pts[i], g), n_nodes);
+          const Eigen::RowVectorXf bg = cmax * abs_basis;
+          b += (bg.array() * scale.array().abs()).matrix().transpose();
+        }
+        res.dp_at_output = i == 0 ? dp_out : res.dp_at_output.cwiseMax(dp_out);
+        bound = i == 0 ? b : bound.cwiseMax(b);
+      }
+      // Full tracking series only where the threshold can be reached.
+      for (Eigen::Index r = 0; r < n_real; ++r) {
+        const float crit = dp_crit(static_cast<Eigen::Index>(s), r);
+        if (crit <= 0.0f) {  // already critical before any injection
+          res.first_crossing[static_cast<std::size_t>(r)] = 0;
+          continue;
+        }
+        if (bound(r) < crit) continue;
+        best.setZero(static_cast<Eigen::Index>(n_times));
         for (std::size_t i = 0; i < pts.size(); ++i) {
-          surrogate.evaluate(pts[i], basis, scale, out);
-          if (i == 0) m = out;
-          else m = m.cwiseMax(out);
+          col.setZero(static_cast<Eigen::Index>(n_times));
+          for (std::size_t g = 0; g < n_groups; ++g)
+            col.noalias() += surrogate.table(pts[i], g) * draws.basis.col(r) * draws.scale(static_cast<Eigen::Index>(g), r);
+          best = i == 0 ? col : best.cwiseMax(col);
         }
-        for (Eigen::Index c = 0; c < nb; ++c) {
-          const auto r = static_cast<std::size_t>(r0 + c);
-          const float crit = dp_crit(static_cast<Eigen::Index>(s), r0 + c);
-          const float* col = m.col(c).data();
-          float peak = 0.0f;
-          int first = -1;
-          for (std::size_t k = 0; k <= last; ++k) {
-            peak = std::max(peak, col[k]);
-            if (first < 0 && col[k] >= crit) first = static_cast<int>(k);
+        for (std::size_t k = 0; k < n_times; ++k)
+          if (best(static_cast<Eigen::Index>(k)) >= crit) {
+            res.first_crossing[static_cast<std::size_t>(r)] = static_cast<int>(k);
+            break;
           }
-          if (first < 0) {  // the threshold may still be crossed after the last output time
-            for (std::size_t k = last + 1; k < n_times; ++k)
-              if (col[k] >= crit) {
-                first = static_cast<int>(k);
-                break;
-              }
-          }
-          res.first_crossing[r] = first;
-          res.peak_dp[r] = peak;
-          for (std::size_t o = 0; o < output_index.size(); ++o)
-            res.dp_at_output(static_cast<Eigen::Index>(o), r0 + c) = col[output_index[o]];
-        }
       }
       visit(res);
     }

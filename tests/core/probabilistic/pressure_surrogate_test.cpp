@@ -28,7 +28,7 @@ struct Fixture {
   std::vector<SimilarityTable> tables;
   Fixture() {
     for (int k = 1; k <= 100; ++k) times.push_back(k * 30.0 * kDay);
-    for (const auto& s : steps) tables.emplace_back(s, times, std::log(0.01 / 8.0), std::log(1e9 / 0.1));
+    for (const auto& s : steps) tables.emplace_back(s, times, SimilarityGrid{std::log(0.01 / 8.0), std::log(1e9 / 0.1), 0.05});
   }
   // Direct Theis superposition, in the same units as G (m³/s).
   double direct(std::size_t p, std::size_t group, double d, std::size_t k) const {
