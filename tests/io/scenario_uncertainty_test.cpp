@@ -56,7 +56,7 @@ TEST_CASE("[uncertainty] distributions, sampler, thresholds and maps are read in
 
 TEST_CASE("[uncertainty] bad input names the place, key and value") {
   CHECK_THROWS_WITH_AS(io::load_uncertainty(scenario_with("[uncertainty]\nfriktion = \"normal(0.6, 0.05)\"\n")),
-                       doctest::Contains("did you mean 'friction'"), InputError);
+                       doctest::Contains("did you mean 'friction'"), Error);
   CHECK_THROWS_WITH_AS(io::load_uncertainty(scenario_with("[uncertainty]\nrealizations = 0\n")),
                        doctest::Contains("realizations"), InputError);
   CHECK_THROWS_WITH_AS(io::load_uncertainty(scenario_with("[uncertainty]\nfriction = \"normal(0.6, -0.05)\"\n")),
