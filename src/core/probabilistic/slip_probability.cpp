@@ -11,6 +11,7 @@
 #include "core/geomech/a_phi.hpp"
 #include "core/geomech/critical_pressure_batch.hpp"
 #include "core/geomech/fault_plane.hpp"
+#include "core/geomech/orientation_search.hpp"
 #include "core/geomech/stress_state.hpp"
 #include "core/stats/random_stream.hpp"
 #include "core/stats/rank_correlation.hpp"
@@ -134,6 +135,13 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
   Eigen::MatrixXd x(static_cast<Eigen::Index>(n_inputs), static_cast<Eigen::Index>(n_all));
   Eigen::MatrixXf perturb(static_cast<Eigen::Index>(2 * fault_count), static_cast<Eigen::Index>(n_all));
   Eigen::MatrixXf crit_all(static_cast<Eigen::Index>(n_seg), static_cast<Eigen::Index>(n_all));
+  const bool maps = !settings.map_points.empty();
+  const bool oriented = maps && settings.map_strike && settings.map_dip;
+  const geomech::OrientationGrid orientations =
+      maps ? geomech::make_orientation_grid(5.0 * std::numbers::pi / 180.0, 5.0 * std::numbers::pi / 180.0)
+           : geomech::OrientationGrid{};
+  Eigen::MatrixXf map_crit(2, static_cast<Eigen::Index>(n_all));  // row 0: most dangerous, row 1: given
+  map_crit.setConstant(std::numeric_limits<float>::infinity());
   const double z = model.depth;
   std::exception_ptr failure;
 #pragma omp parallel
@@ -220,6 +228,19 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
         }
         geomech::critical_pressure_paired(planes, states, dp);
         for (std::size_t s = 0; s < n_seg; ++s) crit_all(static_cast<Eigen::Index>(s), col) = static_cast<float>(dp[s]);
+        if (maps) {
+          geomech::StressBatch one;
+          one.push_back(tensor, st.pore_pressure, geomech::Friction{mu_global, v[list.cohesion]}, model.stress_path_kappa);
+          const auto table = geomech::tabulate_critical_pressure(orientations, one);
+          map_crit(0, col) = static_cast<float>(*std::min_element(table.begin(), table.end()));
+          if (oriented) {
+            geomech::PlaneBatch p1;
+            p1.push_back(geomech::FaultPlane::from_strike_dip(*settings.map_strike, *settings.map_dip));
+            double v1 = 0.0;
+            geomech::critical_pressure_grid(p1, one, std::span<double>(&v1, 1));
+            map_crit(1, col) = static_cast<float>(v1);
+          }
+        }
       } catch (...) {
 #pragma omp critical(probabilistic_failure)
         if (!failure) failure = std::current_exception();
@@ -344,6 +365,43 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
     }
     out.segments[o.segment] = std::move(res);
   });
+
+  // ---- probability maps: each pixel is a one-point segment sharing the realization's Δp_crit ----
+  if (maps) {
+    const Eigen::MatrixXf mc = map_crit(Eigen::all, keep);
+    std::vector<std::vector<std::size_t>> pixel_points(settings.map_points.size());
+    double r2m = 0.0;
+    for (std::size_t p = 0; p < settings.map_points.size(); ++p) {
+      pixel_points[p] = {p};
+      for (const auto& src : sources) {
+        const double dx = settings.map_points[p].x - src.x, dy = settings.map_points[p].y - src.y;
+        r2m = std::max(r2m, dx * dx + dy * dy);
+      }
+    }
+    const SimilarityGrid map_grid{grid.ln_x_min, std::max(grid.ln_x_max, std::log(std::max(r2m, 1.0) /
+                                                                                   (4.0 * out.diffusivity_min)) + 0.1),
+                                  0.05};
+    const auto map_tables = map_grid.ln_x_max > grid.ln_x_max ? build_tables(steps, settings.tracking_times, map_grid)
+                                                              : tables;
+    const PressureSurrogate map_sur(map_tables, sources, settings.map_points, groups, out.diffusivity_min,
+                                    out.diffusivity_max, settings.surrogate_nodes);
+    const PressureDraws map_draws = make_pressure_draws(map_sur, d, pre, factor);
+    for (int which = 0; which < (oriented ? 2 : 1); ++which) {
+      auto& counts = which == 0 ? out.map_dangerous : out.map_oriented;
+      auto& already = which == 0 ? out.map_dangerous_already_critical : out.map_oriented_already_critical;
+      counts.assign(settings.map_points.size() * n_out, 0);
+      const Eigen::MatrixXf row = mc.row(which);
+      already = static_cast<std::uint64_t>((row.array() <= 0.0f).count());
+      track_slip(map_sur, pixel_points, map_draws, row, settings.output_index, [&](const SegmentOutcome& o) {
+        for (std::size_t c = 0; c < keep.size(); ++c) {
+          const int first = o.first_crossing[c];
+          if (first < 0 || !(row(0, static_cast<Eigen::Index>(c)) > 0.0f)) continue;
+          for (std::size_t t = 0; t < n_out; ++t)
+            if (settings.output_index[t] >= static_cast<std::size_t>(first)) ++counts[o.segment * n_out + t];
+        }
+      });
+    }
+  }
   return out;
 }
 

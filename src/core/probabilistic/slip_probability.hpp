@@ -95,6 +95,11 @@ struct RunSettings {
   std::vector<std::size_t> output_index; // tracking index of each output time
   std::vector<hydro::Boundary> boundaries;
   std::size_t surrogate_nodes = 16;
+  // Probability maps for unmapped faults: pixel centres (working CRS). For each pixel, the
+  // probability that a fault of the most dangerous orientation (minimum Δp_crit over a 5° grid
+  // of strikes and dips, global friction) — and optionally of a given orientation — has slipped.
+  std::vector<ObservationPoint> map_points;
+  std::optional<double> map_strike, map_dip;  // rad
 };
 
 struct SegmentResult {
@@ -112,6 +117,10 @@ struct ProbabilisticResult {
   std::uint64_t rejected = 0;             // realizations whose sampled stress was not physical
   std::uint64_t beyond_frictional_limit = 0;  // valid realizations beyond (S1−p)/(S3−p) ≤ [√(μ²+1)+μ]²
   std::vector<SegmentResult> segments;
+  // Maps: injection-induced slip counts [pixel * outputs + t]; realizations already critical
+  // before injection (the same for every pixel: the stress is uniform) are counted apart.
+  std::vector<std::uint64_t> map_dangerous, map_oriented;
+  std::uint64_t map_dangerous_already_critical = 0, map_oriented_already_critical = 0;
   double diffusivity_min = 0.0, diffusivity_max = 0.0;  // m²/s over the realizations
   double surrogate_error = 0.0;           // estimated relative interpolation error in D
   stats::SamplerDescriptor sampler;

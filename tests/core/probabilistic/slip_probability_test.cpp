@@ -189,3 +189,24 @@ TEST_CASE("bad input is rejected with the field named") {
   CHECK_THROWS_WITH_AS(run_probabilistic(e.model, e.wells, e.segments, e.settings),
                        doctest::Contains("physical stress state"), InputError);
 }
+
+TEST_CASE("probability maps: a pixel with a mapped fault's orientation matches that fault; the most dangerous orientation is never safer") {
+  Case c;
+  c.model.friction = Distribution::normal(0.6, 0.08);
+  c.settings.realizations = 500;
+  for (auto& s : c.segments) s.check_points = {s.check_points[1]};  // one point, like a pixel
+  for (const auto& s : c.segments) c.settings.map_points.push_back(s.check_points[0]);
+  c.settings.map_strike = c.segments[0].strike;
+  c.settings.map_dip = c.segments[0].dip;
+  const auto res = run_probabilistic(c.model, c.wells, c.segments, c.settings);
+  const std::size_t n_out = c.settings.output_index.size();
+  REQUIRE(res.map_oriented.size() == c.segments.size() * n_out);
+  for (std::size_t p = 0; p < c.segments.size(); ++p)
+    for (std::size_t t = 0; t < n_out; ++t) {
+      // Same orientation, same point, same realizations: identical counts (exact reasoning).
+      CHECK(res.map_oriented[p * n_out + t] == res.segments[p].slipped_by[t]);
+      // min over orientations of Δp_crit ≤ Δp_crit of any one orientation (up to the 5° grid).
+      CHECK(res.map_dangerous[p * n_out + t] + res.map_dangerous_already_critical >=
+            res.map_oriented[p * n_out + t]);
+    }
+}
