@@ -70,10 +70,11 @@ int main() {
 
   auto t0 = Clock::now();
   const double x_lo = std::log(0.01 / (4 * d_max)), x_hi = std::log(2.0e10 / (4 * d_min));
-  const auto tables = build_tables(steps, track, SimilarityGrid{x_lo, x_hi, 0.05});
+  const auto tables = build_tables(steps, track, SimilarityGrid{x_lo, x_hi, 0.025});
   const double t_tables = seconds_since(t0);
   t0 = Clock::now();
-  const PressureSurrogate sur(tables, sources, points, 1, d_min, d_max, 16);
+  const auto nodes = static_cast<std::size_t>(std::ceil(8.0 * std::log(d_max / d_min)));
+  const PressureSurrogate sur(tables, sources, points, 1, d_min, d_max, nodes);
   const double t_surrogate = seconds_since(t0);
 
   Eigen::MatrixXf crit(static_cast<Eigen::Index>(n_segments), static_cast<Eigen::Index>(n_real));

@@ -45,7 +45,7 @@ PressureSurrogate::PressureSurrogate(const std::vector<SimilarityTable>& tables,
   }
 
   const auto rows = static_cast<Eigen::Index>(n_times_), cols = static_cast<Eigen::Index>(n);
-  g_.assign(n_points_ * n_groups_, Eigen::MatrixXf::Zero(rows, cols));
+  g_.assign(n_points_ * n_groups_, Eigen::MatrixXd::Zero(rows, cols));
 
   // Points in spatial order, built in blocks: a block's points are close together, so for each
   // source they read neighbouring rows of its similarity table (cache reuse).
@@ -62,7 +62,7 @@ PressureSurrogate::PressureSurrogate(const std::vector<SimilarityTable>& tables,
     const std::size_t end = std::min(n_points_, (b + 1) * kBlock);
     for (const auto& s : sources) {
       const auto& table = tables[s.table];
-      const auto sign = static_cast<float>(s.sign);
+      const double sign = s.sign;
       for (std::size_t i = b * kBlock; i < end; ++i) {
         const std::size_t p = order[i];
         const double dx = points[p].x - s.x, dy = points[p].y - s.y;
@@ -85,16 +85,16 @@ PressureSurrogate::PressureSurrogate(const std::vector<SimilarityTable>& tables,
   const std::size_t stride = std::max<std::size_t>(1, n_points_ / 64);
 #pragma omp parallel for schedule(dynamic, 1) reduction(max : worst)
   for (std::size_t p = 0; p < n_points_; p += stride) {
-    std::vector<std::vector<float>> exact(n_groups_, std::vector<float>(n_times_));
-    std::vector<float> ell(n);
+    std::vector<std::vector<double>> exact(n_groups_, std::vector<double>(n_times_));
+    std::vector<double> ell(n);
     for (std::size_t d = 0; d + 1 < n; ++d) {
       const double mid = std::exp(0.5 * (ln_nodes_[d] + ln_nodes_[d + 1]));
-      for (auto& c : exact) std::fill(c.begin(), c.end(), 0.0f);
+      for (auto& c : exact) std::fill(c.begin(), c.end(), 0.0);
       for (const auto& s : sources) {
         const double dx = points[p].x - s.x, dy = points[p].y - s.y;
         const double r2 = std::max(dx * dx + dy * dy, s.radius * s.radius);
         const auto& table = tables[s.table];
-        table.accumulate(table.tap(r2 * 0.25 / mid), static_cast<float>(s.sign), exact[s.group].data());
+        table.accumulate(table.tap(r2 * 0.25 / mid), s.sign, exact[s.group].data());
       }
       basis(mid, ell.data());
       for (std::size_t g = 0; g < n_groups_; ++g) {
@@ -113,26 +113,26 @@ PressureSurrogate::PressureSurrogate(const std::vector<SimilarityTable>& tables,
   max_error_ = worst;
 }
 
-void PressureSurrogate::basis(double diffusivity, float* out) const {
+void PressureSurrogate::basis(double diffusivity, double* out) const {
   const std::size_t n = ln_nodes_.size();
   if (n == 1) {
-    out[0] = 1.0f;
+    out[0] = 1.0;
     return;
   }
   const double s = std::log(diffusivity);
   double denom = 0.0;
   for (std::size_t d = 0; d < n; ++d) {
     if (s == ln_nodes_[d]) {  // exactly on a node: the interpolant is that node's value
-      for (std::size_t e = 0; e < n; ++e) out[e] = e == d ? 1.0f : 0.0f;
+      for (std::size_t e = 0; e < n; ++e) out[e] = e == d ? 1.0 : 0.0;
       return;
     }
     denom += bary_[d] / (s - ln_nodes_[d]);
   }
-  for (std::size_t d = 0; d < n; ++d) out[d] = static_cast<float>(bary_[d] / (s - ln_nodes_[d]) / denom);
+  for (std::size_t d = 0; d < n; ++d) out[d] = bary_[d] / (s - ln_nodes_[d]) / denom;
 }
 
-void PressureSurrogate::evaluate(std::size_t point, const Eigen::MatrixXf& basis_block,
-                                 const Eigen::MatrixXf& scale, Eigen::MatrixXf& out) const {
+void PressureSurrogate::evaluate(std::size_t point, const Eigen::MatrixXd& basis_block,
+                                 const Eigen::MatrixXd& scale, Eigen::MatrixXd& out) const {
   if (n_groups_ == 1) {
     out.noalias() = table(point, 0) * basis_block;
     out.array().rowwise() *= scale.row(0).array();

@@ -51,22 +51,22 @@ class PressureSurrogate {
   std::size_t time_count() const { return n_times_; }
 
   // Barycentric basis ℓ_d(ln D) for one diffusivity, written into `basis` (node_count values).
-  void basis(double diffusivity, float* basis) const;
+  void basis(double diffusivity, double* basis) const;
 
   // G_{p,g} as an n_times × nodes matrix.
-  const Eigen::MatrixXf& table(std::size_t point, std::size_t group) const {
+  const Eigen::MatrixXd& table(std::size_t point, std::size_t group) const {
     return g_[point * n_groups_ + group];
   }
 
   // Δp at point p for a block of realizations: out (n_times × n) =
   //   Σ_g G_{p,g} · (basis ∘ scale_g), where `basis` is nodes × n and `scale` is groups × n
   // holding P·f_g per realization.
-  void evaluate(std::size_t point, const Eigen::MatrixXf& basis, const Eigen::MatrixXf& scale,
-                Eigen::MatrixXf& out) const;
+  void evaluate(std::size_t point, const Eigen::MatrixXd& basis, const Eigen::MatrixXd& scale,
+                Eigen::MatrixXd& out) const;
 
   // max_k |G_{p,g}(t_k, D_d)| for node d: with the basis, Σ_d |ℓ_d| · col_max bounds the
   // interpolated |Δp|/scale at every tracking time (triangle inequality).
-  const float* column_max(std::size_t point, std::size_t group) const {
+  const double* column_max(std::size_t point, std::size_t group) const {
     return &col_max_[(point * n_groups_ + group) * ln_nodes_.size()];
   }
 
@@ -77,8 +77,8 @@ class PressureSurrogate {
  private:
   std::size_t n_points_ = 0, n_groups_ = 0, n_times_ = 0;
   std::vector<double> ln_nodes_, bary_;
-  std::vector<Eigen::MatrixXf> g_;
-  std::vector<float> col_max_;
+  std::vector<Eigen::MatrixXd> g_;
+  std::vector<double> col_max_;
   double max_error_ = 0.0;
 };
 

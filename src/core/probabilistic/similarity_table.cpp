@@ -129,15 +129,16 @@ SimilarityTap SimilarityTable::tap(double x) const {
   return t;
 }
 
-void SimilarityTable::accumulate(const SimilarityTap& t, float scale, float* __restrict out) const {
-  const float w0 = scale * t.weight[0], w1 = scale * t.weight[1];
-  const float w2 = scale * t.weight[2], w3 = scale * t.weight[3];
-  if (w0 == 0.0f && w1 == 0.0f && w2 == 0.0f && w3 == 0.0f) return;
+void SimilarityTable::accumulate(const SimilarityTap& t, double scale, double* __restrict out) const {
+  const double w0 = scale * t.weight[0], w1 = scale * t.weight[1];
+  const double w2 = scale * t.weight[2], w3 = scale * t.weight[3];
+  if (w0 == 0.0 && w1 == 0.0 && w2 == 0.0 && w3 == 0.0) return;
   const float* __restrict r0 = &values_[t.first * n_times_];
   const float* __restrict r1 = r0 + n_times_;
   const float* __restrict r2 = r1 + n_times_;
   const float* __restrict r3 = r2 + n_times_;
-  for (std::size_t k = 0; k < n_times_; ++k) out[k] += w0 * r0[k] + w1 * r1[k] + w2 * r2[k] + w3 * r3[k];
+  for (std::size_t k = 0; k < n_times_; ++k)
+    out[k] += w0 * double(r0[k]) + w1 * double(r1[k]) + w2 * double(r2[k]) + w3 * double(r3[k]);
 }
 
 double SimilarityTable::direct(const RateSteps& steps, double x, double t) {

@@ -82,7 +82,7 @@ class SimilarityTable {
   }
 
   // Adds scale · H(x, t_k) for every tracking time k to out[k] (the hot loop of table builds).
-  void accumulate(const SimilarityTap& t, float scale, float* out) const;
+  void accumulate(const SimilarityTap& t, double scale, double* out) const;
 
   std::size_t time_count() const { return n_times_; }
   std::size_t node_count() const { return n_nodes_; }

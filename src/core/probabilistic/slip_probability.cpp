@@ -301,10 +301,14 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
         r2_max = std::max(r2_max, (p.x - src.x) * (p.x - src.x) + (p.y - src.y) * (p.y - src.y));
     }
   const SimilarityGrid grid{std::log(rw_min * rw_min / (4.0 * out.diffusivity_max)) - 0.1,
-                            std::log(std::max(r2_max, 1.0) / (4.0 * out.diffusivity_min)) + 0.1, 0.05};
+                            std::log(std::max(r2_max, 1.0) / (4.0 * out.diffusivity_min)) + 0.1, 0.025};
   const auto tables = build_tables(steps, settings.tracking_times, grid);
-  const PressureSurrogate surrogate(tables, sources, points, groups, out.diffusivity_min, out.diffusivity_max,
-                                    settings.surrogate_nodes);
+  const std::size_t nodes =
+      settings.surrogate_nodes > 0
+          ? settings.surrogate_nodes
+          : std::clamp<std::size_t>(
+                static_cast<std::size_t>(std::ceil(8.0 * std::log(out.diffusivity_max / out.diffusivity_min))), 4, 64);
+  const PressureSurrogate surrogate(tables, sources, points, groups, out.diffusivity_min, out.diffusivity_max, nodes);
   out.surrogate_error = surrogate.max_relative_error();
   Eigen::MatrixXd factor(static_cast<Eigen::Index>(groups), n);
   for (Eigen::Index c = 0; c < n; ++c) {
@@ -327,7 +331,31 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
   // ---- tracking and accumulation, one segment at a time ----
   const std::size_t n_out = settings.output_index.size();
   out.segments.resize(n_seg);
+  // Audited pairs: kept columns of the audited realizations.
+  std::vector<std::pair<std::uint64_t, Eigen::Index>> audit_cols;
+  for (std::uint64_t i : settings.audit_realizations) {
+    const auto it = std::lower_bound(keep.begin(), keep.end(), static_cast<Eigen::Index>(i));
+    if (it != keep.end() && *it == static_cast<Eigen::Index>(i)) audit_cols.emplace_back(i, it - keep.begin());
+  }
+  std::vector<std::vector<AuditEntry>> audit_by_segment(n_seg);
+  std::vector<char> audited(n_seg, 0);
+  for (std::size_t s : settings.audit_segments)
+    if (s < n_seg) audited[s] = 1;
   track_slip(surrogate, seg_points, draws, crit, settings.output_index, [&](const SegmentOutcome& o) {
+    if (audited[o.segment])
+      for (const auto& [i, c] : audit_cols) {
+        AuditEntry a;
+        a.realization = i;
+        a.segment = o.segment;
+        a.diffusivity = d[static_cast<std::size_t>(c)];
+        a.prefactor = pre[static_cast<std::size_t>(c)];
+        for (Eigen::Index g = 0; g < factor.rows(); ++g) a.group_scale.push_back(factor(g, c));
+        a.well_group = group_of;
+        a.dp_crit = crit(static_cast<Eigen::Index>(o.segment), c);
+        a.first_crossing = o.first_crossing[static_cast<std::size_t>(c)];
+        for (std::size_t t = 0; t < n_out; ++t) a.dp_at_output.push_back(o.dp_at_output(static_cast<Eigen::Index>(t), c));
+        audit_by_segment[o.segment].push_back(std::move(a));
+      }
     SegmentResult res;
     res.slipped_by.assign(n_out, 0);
     res.dp.assign(n_out, stats::QuantileSketch());
@@ -366,6 +394,12 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
     out.segments[o.segment] = std::move(res);
   });
 
+  for (auto& v : audit_by_segment)
+    for (auto& a : v) out.audit.push_back(std::move(a));
+  std::sort(out.audit.begin(), out.audit.end(), [](const AuditEntry& a, const AuditEntry& b) {
+    return std::make_pair(a.realization, a.segment) < std::make_pair(b.realization, b.segment);
+  });
+
   // ---- probability maps: each pixel is a one-point segment sharing the realization's Δp_crit ----
   if (maps) {
     const Eigen::MatrixXf mc = map_crit(Eigen::all, keep);
@@ -380,11 +414,11 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
     }
     const SimilarityGrid map_grid{grid.ln_x_min, std::max(grid.ln_x_max, std::log(std::max(r2m, 1.0) /
                                                                                    (4.0 * out.diffusivity_min)) + 0.1),
-                                  0.05};
+                                  0.025};
     const auto map_tables = map_grid.ln_x_max > grid.ln_x_max ? build_tables(steps, settings.tracking_times, map_grid)
                                                               : tables;
     const PressureSurrogate map_sur(map_tables, sources, settings.map_points, groups, out.diffusivity_min,
-                                    out.diffusivity_max, settings.surrogate_nodes);
+                                    out.diffusivity_max, nodes);
     const PressureDraws map_draws = make_pressure_draws(map_sur, d, pre, factor);
     for (int which = 0; which < (oriented ? 2 : 1); ++which) {
       auto& counts = which == 0 ? out.map_dangerous : out.map_oriented;
@@ -403,6 +437,38 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
     }
   }
   return out;
+}
+
+AuditEntry plain_slip_check(const AuditEntry& fast, const std::vector<WellInput>& wells,
+                            const std::vector<SegmentInput>& segments, const RunSettings& settings) {
+  AuditEntry a = fast;
+  const auto& seg = segments.at(a.segment);
+  const std::size_t n_t = settings.tracking_times.size();
+  std::vector<double> best(n_t, 0.0);
+  for (std::size_t p = 0; p < seg.check_points.size(); ++p) {
+    std::vector<double> dp(n_t, 0.0);
+    for (std::size_t w = 0; w < wells.size(); ++w) {
+      const double f = a.prefactor * a.group_scale.at(a.well_group.at(w));
+      for (const auto& im : hydro::image_wells(wells[w].x, wells[w].y, settings.boundaries)) {
+        const double dx = seg.check_points[p].x - im.x, dy = seg.check_points[p].y - im.y;
+        const double r2 = std::max(dx * dx + dy * dy, wells[w].radius * wells[w].radius);
+        for (std::size_t k = 0; k < n_t; ++k)
+          dp[k] += f * im.sign * SimilarityTable::direct(wells[w].steps, r2 / (4.0 * a.diffusivity), settings.tracking_times[k]);
+      }
+    }
+    for (std::size_t k = 0; k < n_t; ++k) best[k] = p == 0 ? dp[k] : std::max(best[k], dp[k]);
+  }
+  a.first_crossing = -1;
+  if (a.dp_crit <= 0.0) a.first_crossing = 0;
+  else
+    for (std::size_t k = 0; k < n_t; ++k)
+      if (best[k] >= a.dp_crit) {
+        a.first_crossing = static_cast<int>(k);
+        break;
+      }
+  a.dp_at_output.clear();
+  for (std::size_t o : settings.output_index) a.dp_at_output.push_back(best[o]);
+  return a;
 }
 
 }  // namespace slipscreen::probabilistic

@@ -94,12 +94,30 @@ struct RunSettings {
   std::vector<double> tracking_times;    // s, increasing, every output time included
   std::vector<std::size_t> output_index; // tracking index of each output time
   std::vector<hydro::Boundary> boundaries;
-  std::size_t surrogate_nodes = 16;
+  // Chebyshev nodes in ln D; 0: automatic, 8 per e-fold of D_max/D_min (at least 4, at most 64).
+  std::size_t surrogate_nodes = 0;
   // Probability maps for unmapped faults: pixel centres (working CRS). For each pixel, the
   // probability that a fault of the most dangerous orientation (minimum Δp_crit over a 5° grid
   // of strikes and dips, global friction) — and optionally of a given orientation — has slipped.
   std::vector<ObservationPoint> map_points;
   std::optional<double> map_strike, map_dip;  // rad
+  // Audit: keep the fast path's per-realization results for these realizations (by index) and
+  // segments, so that they can be checked against the plain method (plain_slip_check).
+  std::vector<std::uint64_t> audit_realizations;
+  std::vector<std::size_t> audit_segments;
+};
+
+// One audited (realization, segment) pair: the realization's pressure inputs, the segment's
+// Δp_crit and what the fast path found.
+struct AuditEntry {
+  std::uint64_t realization = 0;
+  std::size_t segment = 0;
+  double diffusivity = 0.0, prefactor = 0.0;  // m²/s, Pa per m³/s
+  std::vector<double> group_scale;            // rate factor per rate group
+  std::vector<std::size_t> well_group;        // rate group of each well
+  double dp_crit = 0.0;                       // Pa
+  int first_crossing = -1;                    // tracking index, fast path
+  std::vector<double> dp_at_output;           // Pa, fast path
 };
 
 struct SegmentResult {
@@ -124,7 +142,15 @@ struct ProbabilisticResult {
   double diffusivity_min = 0.0, diffusivity_max = 0.0;  // m²/s over the realizations
   double surrogate_error = 0.0;           // estimated relative interpolation error in D
   stats::SamplerDescriptor sampler;
+  std::vector<AuditEntry> audit;          // valid audited pairs, in (realization, segment) order
 };
+
+// The plain method for one audited pair: every E1 term of every well, image and rate step is
+// evaluated directly at every tracking time (no tables, no surrogate). Fills `first_crossing`
+// and `dp_at_output` of the returned copy. Used by the benchmark and the tests to bound the
+// fast path's error.
+AuditEntry plain_slip_check(const AuditEntry& fast, const std::vector<WellInput>& wells,
+                            const std::vector<SegmentInput>& segments, const RunSettings& settings);
 
 // Runs the probabilistic screen. Throws InputError for inconsistent inputs (naming the field).
 ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::vector<WellInput>& wells,

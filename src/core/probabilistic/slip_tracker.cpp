@@ -22,7 +22,7 @@ PressureDraws make_pressure_draws(const PressureSurrogate& surrogate, std::span<
     const auto i = static_cast<std::size_t>(r);
     surrogate.basis(diffusivity[i], d.basis.col(r).data());
     for (Eigen::Index g = 0; g < rate_factor.rows(); ++g)
-      d.scale(g, r) = static_cast<float>(prefactor[i] * rate_factor(g, r));
+      d.scale(g, r) = prefactor[i] * rate_factor(g, r);
   }
   return d;
 }
@@ -42,12 +42,12 @@ void track_slip(const PressureSurrogate& surrogate, const std::vector<std::vecto
   const std::size_t n_groups = surrogate.group_count();
   const auto n_nodes = static_cast<Eigen::Index>(surrogate.node_count());
   const std::vector<Eigen::Index> out_rows(output_index.begin(), output_index.end());
-  const Eigen::MatrixXf abs_basis = draws.basis.cwiseAbs();
+  const Eigen::MatrixXd abs_basis = draws.basis.cwiseAbs();
 
 #pragma omp parallel
   {
-    Eigen::MatrixXf g_out, dp_out, series;
-    Eigen::VectorXf bound, col, best;
+    Eigen::MatrixXd g_out, dp_out, series;
+    Eigen::VectorXd bound, col, best;
 #pragma omp for schedule(dynamic, 1)
     for (std::size_t s = 0; s < n_seg; ++s) {
       SegmentOutcome res;
@@ -59,15 +59,15 @@ void track_slip(const PressureSurrogate& surrogate, const std::vector<std::vecto
       // Δp at output times for all realizations, and the bound on Δp over all tracking times.
       for (std::size_t i = 0; i < pts.size(); ++i) {
         dp_out.setZero(static_cast<Eigen::Index>(output_index.size()), n_real);
-        Eigen::VectorXf b = Eigen::VectorXf::Zero(n_real);
+        Eigen::VectorXd b = Eigen::VectorXd::Zero(n_real);
         for (std::size_t g = 0; g < n_groups; ++g) {
           g_out = surrogate.table(pts[i], g)(out_rows, Eigen::all);
-          const Eigen::RowVectorXf scale = draws.scale.row(static_cast<Eigen::Index>(g));
+          const Eigen::RowVectorXd scale = draws.scale.row(static_cast<Eigen::Index>(g));
           series.noalias() = g_out * draws.basis;
           series.array().rowwise() *= scale.array();
           dp_out += series;
-          const Eigen::Map<const Eigen::RowVectorXf> cmax(surrogate.column_max(pts[i], g), n_nodes);
-          const Eigen::RowVectorXf bg = cmax * abs_basis;
+          const Eigen::Map<const Eigen::RowVectorXd> cmax(surrogate.column_max(pts[i], g), n_nodes);
+          const Eigen::RowVectorXd bg = cmax * abs_basis;
           b += (bg.array() * scale.array().abs()).matrix().transpose();
         }
         res.dp_at_output = i == 0 ? dp_out : res.dp_at_output.cwiseMax(dp_out);
@@ -75,8 +75,8 @@ void track_slip(const PressureSurrogate& surrogate, const std::vector<std::vecto
       }
       // Full tracking series only where the threshold can be reached.
       for (Eigen::Index r = 0; r < n_real; ++r) {
-        const float crit = dp_crit(dp_crit.rows() == 1 ? 0 : static_cast<Eigen::Index>(s), r);
-        if (crit <= 0.0f) {  // already critical before any injection
+        const double crit = dp_crit(dp_crit.rows() == 1 ? 0 : static_cast<Eigen::Index>(s), r);
+        if (crit <= 0.0) {  // already critical before any injection
           res.first_crossing[static_cast<std::size_t>(r)] = 0;
           continue;
         }

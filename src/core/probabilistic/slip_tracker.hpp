@@ -23,8 +23,8 @@ namespace slipscreen::probabilistic {
 
 // Per realization inputs of the pressure model for a set of N realizations.
 struct PressureDraws {
-  Eigen::MatrixXf basis;  // nodes × N: PressureSurrogate::basis of each realization's D
-  Eigen::MatrixXf scale;  // groups × N: prefactor μ/(4π k h) times the group's rate factor
+  Eigen::MatrixXd basis;  // nodes × N: PressureSurrogate::basis of each realization's D
+  Eigen::MatrixXd scale;  // groups × N: prefactor μ/(4π k h) times the group's rate factor
 };
 
 // Builds PressureDraws from diffusivities, prefactors and rate factors (groups × N).
@@ -34,7 +34,7 @@ PressureDraws make_pressure_draws(const PressureSurrogate& surrogate, std::span<
 struct SegmentOutcome {
   std::size_t segment = 0;
   std::vector<int> first_crossing;  // tracking index of the first Δp ≥ Δp_crit; −1 if never
-  Eigen::MatrixXf dp_at_output;     // outputs × N: Δp (max over check points) at output times
+  Eigen::MatrixXd dp_at_output;     // outputs × N: Δp (max over check points) at output times
 };
 
 // For every segment (OpenMP over segments), evaluates Δp for all realizations in blocks and

@@ -53,14 +53,14 @@ TEST_CASE("surrogate reproduces direct Theis superposition across the diffusivit
   CHECK(sur.max_relative_error() < 1e-5);
 
   const std::vector<double> ds = {0.05, 0.0731, 0.2, 0.555, 1.3, 2.0};
-  Eigen::MatrixXf basis(16, static_cast<Eigen::Index>(ds.size()));
-  Eigen::MatrixXf scale(2, static_cast<Eigen::Index>(ds.size()));
+  Eigen::MatrixXd basis(16, static_cast<Eigen::Index>(ds.size()));
+  Eigen::MatrixXd scale(2, static_cast<Eigen::Index>(ds.size()));
   for (std::size_t r = 0; r < ds.size(); ++r) {
     sur.basis(ds[r], basis.col(static_cast<Eigen::Index>(r)).data());
-    scale(0, static_cast<Eigen::Index>(r)) = 1.0f;
-    scale(1, static_cast<Eigen::Index>(r)) = 2.0f;  // group 1 doubled (a rate factor)
+    scale(0, static_cast<Eigen::Index>(r)) = 1.0;
+    scale(1, static_cast<Eigen::Index>(r)) = 2.0;  // group 1 doubled (a rate factor)
   }
-  Eigen::MatrixXf out;
+  Eigen::MatrixXd out;
   double worst = 0.0;
   for (std::size_t p = 0; p < f.points.size(); ++p) {
     sur.evaluate(p, basis, scale, out);
@@ -75,17 +75,17 @@ TEST_CASE("surrogate reproduces direct Theis superposition across the diffusivit
     }
   }
   MESSAGE("surrogate worst error relative to the point's peak: " << worst);
-  // Stated accuracy 1e-5 of the point's peak (float storage contributes ~1e-7).
+  // Stated accuracy 1e-5 of the point's peak (double storage).
   CHECK(worst < 1e-5);
 }
 
-TEST_CASE("surrogate with a fixed diffusivity uses one node and is exact to float rounding") {
+TEST_CASE("surrogate with a fixed diffusivity uses one node and is exact to the table rounding") {
   const Fixture f;
   const PressureSurrogate sur(f.tables, f.sources, f.points, 2, 0.3, 0.3);
   CHECK(sur.node_count() == 1);
-  Eigen::MatrixXf basis(1, 1), scale(2, 1), out;
+  Eigen::MatrixXd basis(1, 1), scale(2, 1), out;
   sur.basis(0.3, basis.data());
-  scale << 1.0f, 1.0f;
+  scale << 1.0, 1.0;
   sur.evaluate(0, basis, scale, out);
   const double exact = f.direct(0, 0, 0.3, 50) + f.direct(0, 1, 0.3, 50);
   CHECK(std::abs(out(50, 0) - exact) <= 1e-6 * std::abs(exact));

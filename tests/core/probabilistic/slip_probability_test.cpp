@@ -210,3 +210,27 @@ TEST_CASE("probability maps: a pixel with a mapped fault's orientation matches t
             res.map_oriented[p * n_out + t]);
     }
 }
+
+TEST_CASE("audit: the fast path agrees with the plain method (every E1 term evaluated)") {
+  Case c;
+  c.model.permeability = Distribution::lognormal(2e-14, 0.8);
+  c.model.friction = Distribution::normal(0.6, 0.1);
+  c.settings.realizations = 300;
+  c.settings.method = stats::SamplingMethod::latin_hypercube;
+  for (std::uint64_t i = 0; i < 300; i += 7) c.settings.audit_realizations.push_back(i);
+  c.settings.audit_segments = {0, 1, 2};
+  const auto res = run_probabilistic(c.model, c.wells, c.segments, c.settings);
+  REQUIRE(res.audit.size() >= 3 * 40);
+  double worst = 0.0;
+  int mismatched = 0;
+  for (const auto& fast : res.audit) {
+    const auto plain = plain_slip_check(fast, c.wells, c.segments, c.settings);
+    mismatched += fast.first_crossing != plain.first_crossing;
+    for (std::size_t t = 0; t < plain.dp_at_output.size(); ++t)
+      if (plain.dp_at_output[t] > 1000.0)  // the stated domain: Δp > 1 kPa
+        worst = std::max(worst, std::abs(fast.dp_at_output[t] - plain.dp_at_output[t]) / plain.dp_at_output[t]);
+  }
+  MESSAGE("fast vs plain: worst relative Δp difference " << worst << ", crossing mismatches " << mismatched);
+  CHECK(worst < 1e-4);  // the engine's stated accuracy (pressure_surrogate.hpp)
+  CHECK(mismatched == 0);
+}
