@@ -7,6 +7,8 @@ const std::vector<Registrar>& registrars() {
       &register_units_command,
       &register_catalog_command,
       &register_validate_command,
+      &register_run_command,
+      &register_demo_command,
   };
   return list;
 }
