@@ -8,6 +8,7 @@
 #include "cli/commands.hpp"
 #include "cli/exit_codes.hpp"
 #include "cli/scenario_summary.hpp"
+#include "io/run_inputs.hpp"
 #include "io/scenario.hpp"
 
 namespace slipscreen::cli {
@@ -20,7 +21,16 @@ struct ValidateOptions {
 
 int run_validate(const ValidateOptions& o, Context& ctx) {
   const io::ResolvedScenario s = io::load_scenario(o.scenario);
+  // Everything a run checks before computing: CRSs, the fault map, stresses, formation, grid.
+  const io::PreparedRun p = io::prepare_run(s, o.allow_network);
   print_scenario_summary(s, ctx.out);
+  ctx.out << "Faults     " << p.fault_count << " faults in " << p.segments.size() << " segments (working CRS "
+          << p.working.name() << "); " << p.inputs.tracking_times.size() << " tracking times\n";
+  const auto& st = p.inputs.stress;
+  ctx.out << "  stress at reference depth: Sv " << std::fixed << std::setprecision(1) << st.sv / 1e6 << " MPa, SHmax "
+          << st.shmax / 1e6 << " MPa, Shmin " << st.shmin / 1e6 << " MPa, p0 " << st.pore_pressure / 1e6 << " MPa\n";
+  if (s.output.rasters)
+    ctx.out << "  raster: " << p.grid.columns << " x " << p.grid.rows << " cells\n";
   ctx.out << "scenario is valid: " << s.file << "\n";
   return kExitOk;
 }
