@@ -5,6 +5,7 @@
 #include <nlohmann/json.hpp>
 
 #include "core/errors.hpp"
+#include "io/path_policy.hpp"
 #include "io/scenario_toml.hpp"
 #include "io/scenario_wells.hpp"
 
@@ -25,16 +26,14 @@ std::string display_name(const fs::path& p) {
 
 namespace {
 
-// A file name inside the run folder: relative, no "..", no network or virtual path.
+// A file name inside the run folder: relative, no "..", no network or virtual path
+// (io/path_policy.hpp), refused with the place of the key.
 void check_output_name(const Section& s, std::string_view key, const std::string& name) {
-  const fs::path p(name);
-  bool escapes = name.empty() || p.is_absolute() || p.has_root_name() || p.has_root_directory();
-  for (const auto& part : p) escapes = escapes || part == "..";
-  if (name.find("/vsi") == 0 || name.find("://") != std::string::npos) escapes = true;
-  if (escapes) {
-    const auto f = s.find(key);
-    throw RefusedError(s.where(*f) + ": key '" + s.key_path(*f, key) + "' = '" + name +
-                       "': refused: output files must stay inside the run folder (a relative path without '..')");
+  const auto f = s.find(key);
+  try {
+    safe_relative_output(s.key_path(*f, key), name);
+  } catch (const RefusedError& e) {
+    throw RefusedError(s.where(*f) + ": refused: key " + e.what());
   }
 }
 

@@ -242,11 +242,14 @@ TEST_CASE("output paths that escape the run folder are refused") {
   TinyScenario t;
   t.replace("scenario.toml", "cog = false", "cog = false\n[output.files]\nsegments = \"../../escape.csv\"");
   CHECK_THROWS_WITH_AS(load_scenario(t.scenario()),
-                       doctest::Contains("key 'output.files.segments' = '../../escape.csv': refused"), RefusedError);
+                       doctest::Contains("scenario.toml line 30, column 12: refused: key output.files.segments = '../../escape.csv': a '..' component leaves the run folder"), RefusedError);
   TinyScenario a;
   a.replace("scenario.toml", "folder = \"runs/tiny\"", "folder = \"/tmp/elsewhere\"");
   CHECK_THROWS_AS(load_scenario(a.scenario()), RefusedError);
   TinyScenario v;
   v.replace("scenario.toml", "cog = false", "cog = false\n[output.files]\ngeopackage = \"/vsizip/x.zip/a.gpkg\"");
   CHECK_THROWS_AS(load_scenario(v.scenario()), RefusedError);
+  TinyScenario n;
+  n.replace("scenario.toml", "file = \"wells.csv\"", "file = \"/vsicurl/https://example.invalid/wells.csv\"");
+  CHECK_THROWS_WITH_AS(load_scenario(n.scenario()), doctest::Contains("scenario inputs are local files"), RefusedError);
 }
