@@ -6,7 +6,6 @@
 
 #include <filesystem>
 #include <fstream>
-#include <random>
 #include <sstream>
 
 #include <gdal_priv.h>
@@ -20,16 +19,10 @@
 namespace fs = std::filesystem;
 using namespace slipscreen;
 using namespace slipscreen::io;
+using slipscreen::test::slurp;
 using slipscreen::test::TinyScenario;
 
 namespace {
-
-std::string slurp(const fs::path& p) {
-  std::ifstream in(p, std::ios::binary);
-  std::ostringstream ss;
-  ss << in.rdbuf();
-  return ss.str();
-}
 
 RunOptions options_into(const fs::path& out) {
   RunOptions o;
@@ -135,9 +128,8 @@ TEST_CASE("reruns give byte-identical outputs; an existing run folder is refused
 
 TEST_CASE("bad inputs found at run time leave no run folder behind") {
   const fs::path bad = fs::path(SLIPSCREEN_TEST_DATA) / "scenario/bad";
-  std::random_device rd;
-  const fs::path tmp = fs::temp_directory_path() / ("slipscreen-run-bad-" + std::to_string(rd()));
-  fs::create_directories(tmp);
+  const slipscreen::test::TempDir temp("run-bad");
+  const fs::path tmp = temp.path();
   SUBCASE("unknown CRS") {
     const auto s = load_scenario(bad / "unknown_crs.toml");
     CHECK_THROWS_WITH_AS(run_scenario(s, options_into(tmp / "out")),
@@ -149,5 +141,4 @@ TEST_CASE("bad inputs found at run time leave no run folder behind") {
     CHECK_THROWS_WITH_AS(run_scenario(s, options_into(tmp / "out")), doctest::Contains("points.geojson"), InputError);
   }
   CHECK(entries(tmp) == 0);
-  fs::remove_all(tmp);
 }

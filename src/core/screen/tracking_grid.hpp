@@ -3,7 +3,7 @@
 // fault reaches failure: the first day of every calendar month, plus every rate-change time of
 // every well, plus every output time, from the first rate change to the last output time.
 //
-// Why this grid (this project's choice, stated in docs/screening.md): with piecewise-constant
+// Why this grid (this project's choice, stated in docs/outputs.md): with piecewise-constant
 // rates, the pressure at a fault rises while injection goes on and peaks some time after a rate
 // drop or shut-in (the diffusion delay, of order r²/(4D)); a monthly grid resolves that peak to
 // within a month for the distances and diffusivities of regional screening, and including every
