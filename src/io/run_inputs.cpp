@@ -11,6 +11,7 @@
 #include "core/geomech/depth_profile.hpp"
 #include "core/geomech/horizontal_stress.hpp"
 #include "core/screen/tracking_grid.hpp"
+#include "io/fault_table_csv.hpp"
 
 namespace slipscreen::io {
 
@@ -146,7 +147,10 @@ PreparedRun prepare_run(const ResolvedScenario& s, bool allow_network) {
   fo.max_segment_length_m = r.faults.segment_length;
   fo.check_points = r.faults.check_points;
   fo.allow_network = allow_network;
-  run.segments = read_fault_segments(r.faults.path, working, fo);
+  run.segments = is_fault_table(r.faults.path)
+                     ? read_fault_table(r.faults.path, display_name(r.faults.path), working, r.faults.crs,
+                                        r.faults.segment_length, r.faults.check_points)
+                     : read_fault_segments(r.faults.path, working, fo);
   if (run.segments.empty())
     throw InputError("faults", display_name(r.faults.path), "a fault map with at least one fault", r.file);
   std::set<std::string> ids;
