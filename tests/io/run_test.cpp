@@ -9,6 +9,7 @@
 #include <sstream>
 
 #include <gdal_priv.h>
+#include <omp.h>
 #include <ogrsf_frmts.h>
 
 #include "core/errors.hpp"
@@ -124,6 +125,21 @@ TEST_CASE("reruns give byte-identical outputs; an existing run folder is refused
   force.force = true;
   run_scenario(s, force);
   CHECK(slurp(a / "segments.csv") == slurp(b / "segments.csv"));
+}
+
+TEST_CASE("the tables do not depend on the number of threads") {
+  TinyScenario t;
+  const ResolvedScenario s = load_scenario(t.scenario());
+  const int before = omp_get_max_threads();
+  omp_set_num_threads(1);
+  run_scenario(s, options_into(t.dir() / "one"));
+  omp_set_num_threads(2);
+  run_scenario(s, options_into(t.dir() / "two"));
+  omp_set_num_threads(before);
+  for (const char* f : {"segment_times.csv", "segments.csv", "well_shares.csv"}) {
+    CAPTURE(f);
+    CHECK(slurp(t.dir() / "one" / f) == slurp(t.dir() / "two" / f));
+  }
 }
 
 TEST_CASE("bad inputs found at run time leave no run folder behind") {
