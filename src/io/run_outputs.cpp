@@ -206,8 +206,9 @@ void write_layers(const RunFolder& folder, const ResolvedScenario& s, const Prep
                     {{"well_id", FieldType::string}, {"status", FieldType::string}, {"proposed", FieldType::integer},
                      {"top_m", FieldType::real}, {"bottom_m", FieldType::real}, {"radius_m", FieldType::real},
                      {"first_injection", FieldType::date}, {"last_injection", FieldType::date},
-                     {"volume_until", FieldType::date}, {"volume_m3", FieldType::real}, {"volume_bbl", FieldType::real}},
-                    "Wells with injected volumes up to the last output time");
+                     {"volume_until", FieldType::date}, {"volume_m3", FieldType::real}, {"volume_bbl", FieldType::real},
+                     {"volume_reported_bbl", FieldType::real}},
+                    "Wells with injected volumes up to the last output time (reported, planned and assumed)");
   for (const auto& w : p.wells) {
     VectorFeature f;
     f.geometry = {{w.x, w.y}};
@@ -216,7 +217,8 @@ void write_layers(const RunFolder& folder, const ResolvedScenario& s, const Prep
     f.values = {w.id, std::string(status_name(w.status)), static_cast<std::int64_t>(w.proposed), w.top, w.bottom,
                 w.radius, any ? FieldValue(date_of(w.periods.front().start)) : FieldValue(std::monostate{}),
                 any ? FieldValue(date_of(w.periods.back().end - 1.0)) : FieldValue(std::monostate{}),
-                util::format_iso_date(s.output.dates.back()), v, v / units::kBarrel};
+                util::format_iso_date(s.output.dates.back()), v, v / units::kBarrel,
+                w.reported_volume_until(t_end) / units::kBarrel};
     wells.features.push_back(std::move(f));
   }
   GeoPackageOptions go;

@@ -345,7 +345,7 @@ nlohmann::json to_json(const ResolvedScenario& s) {
     for (const auto& p : w.periods)
       periods.push_back({{"start", util::format_iso_date(util::date_at(p.start))},
                          {"end", util::format_iso_date(util::date_at(p.end))},
-                         {"rate_m3_per_s", p.rate}});
+                         {"rate_m3_per_s", p.rate}, {"assumed", p.assumed}});
     wells.push_back({{"id", w.id}, {"x", w.x}, {"y", w.y}, {"crs", w.crs}, {"top_m", w.top}, {"bottom_m", w.bottom},
                      {"radius_m", w.radius}, {"status", status_name(w.status)}, {"proposed", w.proposed},
                      {"periods", periods}});

@@ -116,6 +116,7 @@ struct RatePeriod {
   double start = 0, end = 0;
   double rate = 0;
   std::string source;  // "histories.csv line 14" (for messages)
+  bool assumed = false;  // an assumed continuation (histories.continue_active_until), not reported
 };
 
 struct WellSpec {
@@ -129,7 +130,8 @@ struct WellSpec {
   std::vector<RatePeriod> periods;  // sorted, non-overlapping; gaps mean no injection
   std::string source;               // where it was defined
 
-  double volume_until(double t) const;  // m^3 injected before time t
+  double volume_until(double t) const;           // m^3 injected before time t
+  double reported_volume_until(double t) const;  // the same without assumed continuations
 };
 
 struct OutputGrid {

@@ -92,6 +92,13 @@ double WellSpec::volume_until(double t) const {
   return v;
 }
 
+double WellSpec::reported_volume_until(double t) const {
+  double v = 0;
+  for (const auto& p : periods)
+    if (p.start < t && !p.assumed) v += p.rate * (std::min(t, p.end) - p.start);
+  return v;
+}
+
 std::vector<WellSpec> read_wells(const CsvTable& t, const std::string& scenario_crs) {
   const std::size_t c_id = need_column(t, "id", {"well", "well_id"});
   const bool lonlat = t.column("lon").has_value() || t.column("lat").has_value();
@@ -224,6 +231,7 @@ void continue_active_wells(std::vector<WellSpec>& wells, double until, const std
     p.end = until;
     p.rate = duration > 0 ? volume / duration : 0.0;
     p.source = where + " (continued at the mean rate of the last 12 reported months)";
+    p.assumed = true;
     w.periods.push_back(p);
   }
 }
