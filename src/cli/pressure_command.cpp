@@ -41,6 +41,7 @@ struct PressureOptions {
   std::vector<std::string> rates;      // "[NAME=]RATE [from START]"
   std::vector<std::string> distances;  // along +x from the first well
   std::vector<std::string> points;     // "X,Y"
+  std::vector<std::string> boundaries; // "KIND: X,Y,AZIMUTH"
   std::vector<std::string> times;      // since time zero of the schedules
   std::string unit;         // empty: the file's, else MPa
   std::string length_unit;  // empty: the file's, else m
@@ -122,6 +123,18 @@ void read_pressure_file(const std::string& path, PressureOptions& o) {
       }
     }
   }
+  if (const toml::array* bs = doc["boundary"].as_array()) {
+    for (const toml::node& bn : *bs) {
+      const toml::table* b = bn.as_table();
+      if (!b) continue;
+      std::string kind, x = "0 m", y = "0 m", azimuth = "0 deg";
+      get(*b, "kind", kind);
+      get(*b, "x", x);
+      get(*b, "y", y);
+      get(*b, "azimuth", azimuth);
+      o.boundaries.push_back(kind + ": " + x + "," + y + "," + azimuth);
+    }
+  }
   if (const toml::table* out = doc["output"].as_table()) {
     if (const toml::array* d = (*out)["distances"].as_array())
       for (const toml::node& n : *d) o.distances.push_back(toml_text(n, "distances", path));
@@ -141,6 +154,8 @@ struct Problem {
   std::vector<std::vector<std::string>> schedule_text;  // per well, for the header
   hydro::TheisParameters params;
   std::string formation_text;
+  std::vector<hydro::Boundary> boundaries;
+  std::vector<std::string> boundary_text;
   std::vector<hydro::FieldPoint> points;
   std::vector<double> times;
   std::vector<std::string> time_labels;
@@ -276,6 +291,24 @@ Problem build_problem(const PressureOptions& o) {
     pb.wells.push_back(std::move(w));
   }
 
+  // boundaries: a line through (X, Y) along AZIMUTH (clockwise from +y, north)
+  for (const std::string& b : o.boundaries) {
+    const auto colon = b.find(':');
+    const std::string kind = trim(colon == std::string::npos ? "" : b.substr(0, colon));
+    const auto parts = split(colon == std::string::npos ? "" : b.substr(colon + 1), ',');
+    if ((kind != "no-flow" && kind != "constant-pressure") || parts.size() != 3)
+      throw InputError("--boundary", b, "'no-flow: X,Y,AZIMUTH' or 'constant-pressure: X,Y,AZIMUTH', e.g. 'no-flow: 2 km,0 m,0 deg'");
+    hydro::Boundary bd;
+    bd.kind = kind == "no-flow" ? hydro::BoundaryKind::no_flow : hydro::BoundaryKind::constant_pressure;
+    bd.x0 = units::parse(parts[0], Dimension::length, "--boundary x");
+    bd.y0 = units::parse(parts[1], Dimension::length, "--boundary y");
+    const double az = units::parse(parts[2], Dimension::angle, "--boundary azimuth");
+    bd.dx = std::sin(az);
+    bd.dy = std::cos(az);
+    pb.boundaries.push_back(bd);
+    pb.boundary_text.push_back(b);
+  }
+
   // points
   for (const std::string& d : o.distances) {
     const double r = units::parse(d, Dimension::length, "--distance");
@@ -344,6 +377,7 @@ int run_pressure(PressureOptions o, Context& ctx) {
       o.points = from_file.points;
     }
     if (o.times.empty()) o.times = from_file.times;
+    if (o.boundaries.empty()) o.boundaries = from_file.boundaries;
     keep(o.unit, from_file.unit);
     keep(o.length_unit, from_file.length_unit);
     if (source_note.empty()) source_note = "Settings from " + o.file;
@@ -355,7 +389,7 @@ int run_pressure(PressureOptions o, Context& ctx) {
   units::lookup(o.length_unit, Dimension::length, "--length-unit");
 
   const Problem pb = build_problem(o);
-  const hydro::PressureField field(pb.wells);
+  const hydro::PressureField field(pb.wells, pb.boundaries);
   const hydro::PreparedPoints prepared = field.prepare(pb.points);
   const bool per_well = pb.wells.size() > 1;
   const hydro::PressureResult res = field.evaluate(prepared, pb.times, pb.params, {}, per_well);
@@ -385,6 +419,7 @@ int run_pressure(PressureOptions o, Context& ctx) {
       wells.push_back(jw);
     }
     j["wells"] = wells;
+    j["boundaries"] = pb.boundary_text;
     nlohmann::ordered_json times = nlohmann::ordered_json::array();
     for (std::size_t t = 0; t < pb.times.size(); ++t)
       times.push_back({{"label", pb.time_labels[t]}, {"seconds", pb.times[t]}});
@@ -434,6 +469,7 @@ int run_pressure(PressureOptions o, Context& ctx) {
       out << (k ? "; " : "") << pb.schedule_text[w][k];
     out << "\n";
   }
+  for (const auto& b : pb.boundary_text) out << "Boundary " << b << " (method of images)\n";
   out << "\n";
   std::vector<std::string> header = {"x [" + o.length_unit + "]", "y [" + o.length_unit + "]",
                                      "r to " + pb.wells[0].name + " [" + o.length_unit + "]"};
@@ -499,6 +535,7 @@ void register_pressure_command(CLI::App& app, Context& ctx) {
   sub->add_option("--well", o->wells, "A well NAME=X,Y[,R_W], e.g. 'A=0 m,0 m' or 'A=0 m,0 m,0.1 m' (repeat; default: one well at 0,0)");
   sub->add_option("--well-radius", o->well_radius, "Well radius r_w of wells that do not give their own (default '0.1 m')");
   sub->add_option("--rate", o->rates, "Rate step [NAME=]RATE [from START], e.g. '2e4 bbl/d' or 'A=0 bbl/d from 5 yr' (repeat, in time order; injection > 0)");
+  sub->add_option("--boundary", o->boundaries, "A straight boundary 'no-flow: X,Y,AZIMUTH' or 'constant-pressure: X,Y,AZIMUTH' (line through X,Y; azimuth clockwise from north), e.g. 'no-flow: 2 km,0 m,0 deg' (repeat; parallel or perpendicular only)");
   sub->add_option("--distance", o->distances, "Distances from the first well along +x, e.g. '500 m,1 km,5 km'")->delimiter(',');
   sub->add_option("--point", o->points, "A point X,Y, e.g. '1 km,-200 m' (repeat)");
   sub->add_option("--time", o->times, "Times since the schedules' zero, e.g. '30 d,1 yr,10 yr'")->delimiter(',');
