@@ -29,7 +29,8 @@ struct Source {
   double x, y;
   double rw2;     // clamp radius², the well's r_w²
   double scale;   // image sign × rate factor
-  std::size_t well;
+  const std::vector<double>* start;  // step start times, s (strictly increasing)
+  const std::vector<double>* rate;   // rates from each start, m³/s (before `scale`)
 };
 
 std::vector<Source> collect_sources(const PressureField& field, std::span<const double> factors) {
@@ -44,7 +45,8 @@ std::vector<Source> collect_sources(const PressureField& field, std::span<const 
   for (std::size_t w = 0; w < wells.size(); ++w) {
     const double f = factors.empty() ? 1.0 : factors[w];
     for (const ImageSource& img : field.sources(w))
-      out.push_back({img.x, img.y, wells[w].well_radius * wells[w].well_radius, img.sign * f, w});
+      out.push_back({img.x, img.y, wells[w].well_radius * wells[w].well_radius, img.sign * f,
+                     &wells[w].history.start_times(), &wells[w].history.rates()});
   }
   return out;
 }
@@ -192,13 +194,9 @@ PressureGrid pressure_grid_direct(const GridGeometry& geometry, const PressureFi
   return out;
 }
 
-PressureGrid pressure_grid(const GridGeometry& geometry, const PressureField& field,
-                           const TheisParameters& params, std::span<const double> times,
-                           std::span<const double> rate_factors, const PressureGridOptions& options) {
-  validate(geometry);
-  validate(params);
-  validate_times(times);
-  const std::vector<Source> sources = collect_sources(field, rate_factors);
+namespace {
+
+void validate(const PressureGridOptions& options) {
   if (!std::isfinite(options.threshold) || options.threshold <= 0.0)
     throw InputError("threshold", number_text(options.threshold), "a finite pressure > 0 Pa");
   if (!std::isfinite(options.relative_tolerance) || options.relative_tolerance <= 0.0 ||
@@ -206,20 +204,22 @@ PressureGrid pressure_grid(const GridGeometry& geometry, const PressureField& fi
     throw InputError("relative_tolerance", number_text(options.relative_tolerance), "a number in (0, 1)");
   if (!std::isfinite(options.max_table_bytes) || options.max_table_bytes < 1e6)
     throw InputError("max_table_bytes", number_text(options.max_table_bytes), "at least 1e6 bytes");
+}
 
+// The fast path proper, on validated input; pixels with inside == 0 become NaN.
+PressureGrid fast_grid(const GridGeometry& geometry, double c, double d, const std::vector<Source>& sources,
+                       std::span<const double> times, const PressureGridOptions& options,
+                       const std::vector<char>& inside) {
   PressureGrid out = empty_grid(geometry, times);
-  const std::vector<char> inside = region_mask(geometry, field);
   const double eps = options.relative_tolerance * options.threshold;
   out.error_bound = eps;
   const std::size_t nx = geometry.nx, ny = geometry.ny, ns = sources.size();
-  const double c = params.pressure_per_rate, d = params.diffusivity;
-  auto history = [&](std::size_t w) -> const RateHistory& { return field.wells()[sources[w].well].history; };
 
   // Rate scale per source and in total.
   std::vector<double> qmax(ns, 0.0), first(ns, 0.0);
   for (std::size_t w = 0; w < ns; ++w) {
-    for (double q : history(w).rates()) qmax[w] = std::max(qmax[w], std::abs(q * sources[w].scale));
-    if (!history(w).empty()) first[w] = history(w).start_times().front();
+    for (double q : *sources[w].rate) qmax[w] = std::max(qmax[w], std::abs(q * sources[w].scale));
+    if (!sources[w].start->empty()) first[w] = sources[w].start->front();
   }
   const double qsum = std::accumulate(qmax.begin(), qmax.end(), 0.0);
   if (qsum == 0.0 || times.empty()) {
@@ -242,7 +242,7 @@ PressureGrid pressure_grid(const GridGeometry& geometry, const PressureField& fi
   double qsum_reach = 0.0, rw2_min = 0.0;
   for (std::size_t w = 0; w < ns; ++w) {
     const double theta = t_last - first[w];
-    if (qmax[w] == 0.0 || history(w).empty() || theta <= 0.0) continue;
+    if (qmax[w] == 0.0 || sources[w].start->empty() || theta <= 0.0) continue;
     const Source& s = sources[w];
     const double gx = std::max({bx0 - s.x, 0.0, s.x - bx1}), gy = std::max({by0 - s.y, 0.0, s.y - by1});
     const double r2cut = 4.0 * d * theta * u_cut;
@@ -265,18 +265,17 @@ PressureGrid pressure_grid(const GridGeometry& geometry, const PressureField& fi
 
   // Union of the kept sources' step times, and their rate increments on it (row r: kept[r]).
   std::vector<double> tau;
-  for (std::size_t w : kept) tau.insert(tau.end(), history(w).start_times().begin(), history(w).start_times().end());
+  for (std::size_t w : kept) tau.insert(tau.end(), sources[w].start->begin(), sources[w].start->end());
   std::sort(tau.begin(), tau.end());
   tau.erase(std::unique(tau.begin(), tau.end()), tau.end());
   Eigen::MatrixXd dq = Eigen::MatrixXd::Zero(Eigen::Index(kept.size()), Eigen::Index(tau.size()));
   for (std::size_t r = 0; r < kept.size(); ++r) {
-    const RateHistory& hist = history(kept[r]);
-    const double scale = sources[kept[r]].scale;
+    const Source& src = sources[kept[r]];
     double prev = 0.0;
-    for (std::size_t j = 0; j < hist.start_times().size(); ++j) {
-      const auto col = std::lower_bound(tau.begin(), tau.end(), hist.start_times()[j]) - tau.begin();
-      dq(Eigen::Index(r), col) += scale * (hist.rates()[j] - prev);
-      prev = hist.rates()[j];
+    for (std::size_t j = 0; j < src.start->size(); ++j) {
+      const auto col = std::lower_bound(tau.begin(), tau.end(), (*src.start)[j]) - tau.begin();
+      dq(Eigen::Index(r), col) += src.scale * ((*src.rate)[j] - prev);
+      prev = (*src.rate)[j];
     }
   }
 
@@ -390,6 +389,55 @@ PressureGrid pressure_grid(const GridGeometry& geometry, const PressureField& fi
   }
   mask_outside(out, inside);
   return out;
+}
+
+}  // namespace
+
+PressureGrid pressure_grid(const GridGeometry& geometry, const PressureField& field,
+                           const TheisParameters& params, std::span<const double> times,
+                           std::span<const double> rate_factors, const PressureGridOptions& options) {
+  validate(geometry);
+  validate(params);
+  validate_times(times);
+  validate(options);
+  const std::vector<Source> sources = collect_sources(field, rate_factors);
+  return fast_grid(geometry, params.pressure_per_rate, params.diffusivity, sources, times, options,
+                   region_mask(geometry, field));
+}
+
+PressureGrid pressure_grid(const GridGeometry& geometry, const GridFormation& formation,
+                           std::span<const GridSource> sources, std::span<const double> times,
+                           const PressureGridOptions& options) {
+  validate(geometry);
+  if (!std::isfinite(formation.prefactor) || formation.prefactor <= 0.0)
+    throw InputError("prefactor", number_text(formation.prefactor), "a finite μ/(4π k h) > 0 (Pa per m³/s)");
+  if (!std::isfinite(formation.diffusivity) || formation.diffusivity <= 0.0)
+    throw InputError("diffusivity", number_text(formation.diffusivity), "a finite k/(μ φ c_t) > 0 (m²/s)");
+  if (!std::isfinite(formation.well_radius) || formation.well_radius <= 0.0)
+    throw InputError("well_radius", number_text(formation.well_radius), "a finite well radius > 0 (m)");
+  validate_times(times);
+  validate(options);
+  std::vector<Source> list;
+  const double rw2 = formation.well_radius * formation.well_radius;
+  for (std::size_t w = 0; w < sources.size(); ++w) {
+    const GridSource& s = sources[w];
+    const std::string tag = "sources[" + std::to_string(w) + "].";
+    if (!std::isfinite(s.x) || !std::isfinite(s.y))
+      throw InputError(tag + "x/y", number_text(s.x) + ", " + number_text(s.y), "finite coordinates (m)");
+    if (s.start.size() != s.rate.size())
+      throw InputError(tag + "rate", std::to_string(s.rate.size()) + " values",
+                       std::to_string(s.start.size()) + " values, one per step start");
+    for (std::size_t j = 0; j < s.start.size(); ++j) {
+      if (!std::isfinite(s.start[j]) || (j > 0 && !(s.start[j] > s.start[j - 1])))
+        throw InputError(tag + "start[" + std::to_string(j) + "]", number_text(s.start[j]),
+                         "a finite time after the previous step's (steps sorted, not overlapping)");
+      if (!std::isfinite(s.rate[j]))
+        throw InputError(tag + "rate[" + std::to_string(j) + "]", number_text(s.rate[j]), "a finite rate (m³/s)");
+    }
+    list.push_back({s.x, s.y, rw2, 1.0, &s.start, &s.rate});
+  }
+  return fast_grid(geometry, formation.prefactor, formation.diffusivity, list, times, options,
+                   std::vector<char>(geometry.nx * geometry.ny, 1));
 }
 
 }  // namespace slipscreen::hydro

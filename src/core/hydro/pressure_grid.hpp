@@ -102,6 +102,23 @@ PressureGrid pressure_grid(const GridGeometry& geometry, const PressureField& fi
                            std::span<const double> rate_factors = {},
                            const PressureGridOptions& options = {});
 
+// Explicit sources (images already expanded by the caller, each with its signed rates) in one
+// formation: C = prefactor, D = diffusivity, one clamp radius. Same method and bound as above;
+// no region mask (every pixel is evaluated).
+struct GridFormation {
+  double prefactor = 0.0;    // C = μ/(4π k h) = ρ g/(4π T), Pa per m³/s
+  double diffusivity = 0.0;  // D = k/(μ φ c_t) = T/S, m²/s
+  double well_radius = 0.1;  // r_w, m: distances below it are clamped to it
+};
+struct GridSource {
+  double x = 0.0, y = 0.0;    // m, working CRS
+  std::vector<double> start;  // s, strictly increasing
+  std::vector<double> rate;   // m³/s from start[j] until start[j+1]; signed (image producer < 0)
+};
+PressureGrid pressure_grid(const GridGeometry& geometry, const GridFormation& formation,
+                           std::span<const GridSource> sources, std::span<const double> times,
+                           const PressureGridOptions& options = {});
+
 // Reference: the direct sum of PressureField::evaluate at every pixel centre (no cut-off, no
 // interpolation); error_bound is 0. Same validation and the same NaN outside the region.
 PressureGrid pressure_grid_direct(const GridGeometry& geometry, const PressureField& field,

@@ -199,6 +199,36 @@ TEST_CASE("image wells: boundaries through the raster, pixels beyond them are no
   CHECK(recharged.at(1, 10, 23) < 0.2 * free.at(1, 10, 23));  // 125 m from the constant-pressure line
 }
 
+TEST_CASE("explicit sources (images expanded by the caller) give the same map") {
+  const GridGeometry g = small_grid();
+  const TheisParameters p = formation();
+  const double x0 = g.origin_x, y0 = g.origin_y;
+  const std::vector<Boundary> bounds = {{BoundaryKind::constant_pressure, x0, y0 - 6000.0, 1.0, 0.0}};
+  const PressureField field({monthly_well(x0 + 4000, y0 - 2500, 0.02, 0, 24, 18, 1)}, bounds);
+  std::vector<GridSource> sources;
+  for (const ImageSource& img : field.sources(0)) {
+    GridSource s{img.x, img.y, field.wells()[0].history.start_times(), field.wells()[0].history.rates()};
+    for (double& q : s.rate) q *= img.sign;
+    sources.push_back(s);
+  }
+  const std::vector<double> times = {10 * kMonth, 22 * kMonth};
+  const PressureGrid a = pressure_grid(g, field, p, times);
+  const PressureGrid b = pressure_grid(g, GridFormation{p.pressure_per_rate, p.diffusivity, 0.1}, sources, times);
+  CHECK(a.node_spacing == b.node_spacing);
+  std::size_t compared = 0;
+  for (std::size_t n = 0; n < a.values.size(); ++n)
+    if (!std::isnan(a.values[n])) {
+      ++compared;
+      CHECK(std::abs(a.values[n] - b.values[n]) <= 1e-9 * std::abs(a.values[n]) + 1e-9);
+    }
+  CHECK(compared > 1000);
+  GridSource bad = sources[0];
+  bad.rate.pop_back();
+  CHECK_THROWS_WITH_AS(pressure_grid(g, GridFormation{p.pressure_per_rate, p.diffusivity, 0.1},
+                                     std::vector<GridSource>{bad}, times),
+                       doctest::Contains("one per step start"), InputError);
+}
+
 TEST_CASE("fast path: results do not depend on the thread count or the table memory") {
   const GridGeometry g = small_grid();
   const TheisParameters p = formation();
