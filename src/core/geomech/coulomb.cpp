@@ -104,6 +104,12 @@ CriticalPressure critical_pressure_poroelastic(const Eigen::Matrix3d& stress, do
   return {dp, status_of(dp)};
 }
 
+double opening_pressure(const AndersonianStress& s, double kappa) {
+  const double vertical = s.sv - s.pore_pressure;  // Δσv = 0
+  const double horizontal = kappa < 1.0 ? (s.shmin - s.pore_pressure) / (1.0 - kappa) : INFINITY;
+  return std::fmin(vertical, horizontal);
+}
+
 double coulomb_failure_function_after(const Eigen::Matrix3d& stress, double p0, const Eigen::Vector3d& n,
                                       const Friction& f, double kappa, double dp) {
   const Eigen::Matrix3d s = stress + poroelastic_stress_change(kappa, dp);

@@ -28,6 +28,8 @@
 #include <cmath>
 #include <limits>
 
+#include "core/geomech/stress_state.hpp"
+
 namespace slipscreen::geomech {
 
 struct Friction {
@@ -91,6 +93,13 @@ double critical_pressure_path_root(double tau0, double ab, double bb, double g0,
 // by critical_pressure_path_root. κ = 0 gives the closed form exactly.
 CriticalPressure critical_pressure_poroelastic(const Eigen::Matrix3d& stress, double p0, const Eigen::Vector3d& n,
                                                const Friction& f, double kappa);
+
+// The pore-pressure increase at which the least effective principal stress of an Andersonian
+// state reaches zero, with the horizontal stresses rising by κ Δp (κ = 0: no stress path):
+// min(Sv − p0, (Shmin − p0)/(1 − κ)). Beyond it tensile opening (hydraulic fracturing) comes
+// before shear failure and the Coulomb screen no longer applies (Hubbert & Willis 1957; common
+// practice). Exact; always finite (Sv − p0 bounds it).
+double opening_pressure(const AndersonianStress& s, double kappa);
 
 // CFF recomputed from scratch after a pressure change Δp with the stress S + ΔS(κ, Δp) and
 // pressure p0 + Δp (the check that Δp_crit is a root).

@@ -1,5 +1,6 @@
 #include "core/geomech/critical_pressure_batch.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <string>
 
@@ -47,10 +48,27 @@ inline double one_path(double nx, double ny, double nz, const State& s) {
                                      t.ax * bx + t.ay * by + t.az * bz, bx * bx + by * by + bz * bz, g0, g1);
 }
 
+// The closed form over one row of planes, in blocks that stay in L1: loop 1 (traction, τ²) and
+// loop 3 (Δp_crit) vectorise in the AVX2 or SSE2 clone; the square roots go through Eigen's
+// array sqrt (packet instructions), because std::sqrt's errno branch stops GCC vectorising a
+// loop unless -fno-math-errno is set for the whole file.
 __attribute__((target_clones("avx2", "default")))
 void row_plain(const double* __restrict nx, const double* __restrict ny, const double* __restrict nz,
                std::size_t m, State s, double* __restrict out) {
-  for (std::size_t i = 0; i < m; ++i) out[i] = one(nx[i], ny[i], nz[i], s);
+  constexpr std::size_t kBlock = 256;
+  alignas(64) double tau[kBlock];
+  alignas(64) double sn_eff[kBlock];
+  for (std::size_t b = 0; b < m; b += kBlock) {
+    const std::size_t n = std::min(kBlock, m - b);
+    for (std::size_t i = 0; i < n; ++i) {
+      const Traction t = traction(nx[b + i], ny[b + i], nz[b + i], s);
+      tau[i] = t.ax * t.ax + t.ay * t.ay + t.az * t.az;
+      sn_eff[i] = t.sn - s.p0;
+    }
+    Eigen::Map<Eigen::ArrayXd> tau_block(tau, static_cast<Eigen::Index>(n));
+    tau_block = tau_block.sqrt();
+    for (std::size_t i = 0; i < n; ++i) out[b + i] = sn_eff[i] - (tau[i] - s.c) / s.mu;  // Hubbert & Rubey (1959)
+  }
 }
 
 void row_path(const double* nx, const double* ny, const double* nz, std::size_t m, State s, double* out) {
