@@ -8,6 +8,7 @@ const std::vector<Registrar>& registrars() {
       &register_pressure_command,
       &register_catalog_command,
       &register_validate_command,
+      &register_fault_stress_command,
   };
   return list;
 }
