@@ -6,6 +6,7 @@ const std::vector<Registrar>& registrars() {
   static const std::vector<Registrar> list = {
       &register_units_command,
       &register_catalog_command,
+      &register_validate_command,
   };
   return list;
 }
