@@ -33,7 +33,6 @@ constexpr Range kPositive{0.0, kInf, true, false, "positive values"};
 constexpr Range kNonNegative{0.0, kInf, false, false, "values >= 0"};
 constexpr Range kPorosity{0.0, 1.0, true, false, "values in (0, 1]"};
 constexpr Range kPoisson{0.0, 0.5, true, true, "values in (0, 0.5)"};
-constexpr Range kUnit{0.0, 1.0, false, false, "values in [0, 1]"};
 constexpr Range kAPhi{0.0, 3.0, false, false, "values in [0, 3]"};
 
 struct KeySpec {
@@ -94,8 +93,8 @@ void read_keys(const Section& section, std::initializer_list<KeySpec> keys, cons
 const std::initializer_list<KeySpec> kFaultKeys = {
     {"friction", Dimension::dimensionless, kPositive},
     {"cohesion", Dimension::pressure, kNonNegative},
-    {"strike_offset", Dimension::angle, kAny},
-    {"dip_offset", Dimension::angle, kAny},
+    {"strike_perturbation", Dimension::angle, kAny},
+    {"dip_perturbation", Dimension::angle, kAny},
 };
 
 std::string stress_model_name(StressModel m) {
@@ -120,11 +119,7 @@ void read_stress(const Section& stress, const UncertaintyContext& ctx, Uncertain
       {{"shmax_gradient", Dimension::pressure_gradient, kPositive}, kGrad},
       {{"shmin_gradient", Dimension::pressure_gradient, kPositive}, kGrad},
       {{"poisson_ratio", Dimension::dimensionless, kPoisson}, kUni},
-      {{"biot", Dimension::dimensionless, kUnit}, kUni},
-      {{"tectonic_shmin", Dimension::pressure, kAny}, kUni},
-      {{"tectonic_shmax", Dimension::pressure, kAny}, kUni},
       {{"a_phi", Dimension::dimensionless, kAPhi}, kAphi},
-      {{"equilibrium_friction", Dimension::dimensionless, kPositive}, kAphi},
   };
   const int model = 1 << static_cast<int>(ctx.stress_model);
   std::vector<std::string> applicable;
@@ -175,15 +170,6 @@ const UncertainValue* UncertaintySpec::find(std::string_view key) const {
     if (v.key == key) return &v;
   return nullptr;
 }
-
-std::vector<stats::UncertainInput> UncertaintySpec::inputs() const {
-  std::vector<stats::UncertainInput> out;
-  out.reserve(values.size());
-  for (const auto& v : values) out.push_back({v.key, v.distribution});
-  return out;
-}
-
-stats::Sampler UncertaintySpec::make_sampler() const { return stats::Sampler(inputs(), sampler, seed, realizations); }
 
 UncertaintyContext uncertainty_context(const ResolvedScenario& sc) {
   UncertaintyContext c;
@@ -265,14 +251,14 @@ UncertaintySpec read_uncertainty(const toml::table* table, const UncertaintyCont
               "formation.", spec);
 
   const Section faults = top.child("faults");
-  faults.allow({"friction", "cohesion", "strike_offset", "dip_offset"});
+  faults.allow({"friction", "cohesion", "strike_perturbation", "dip_perturbation"});
   read_keys(faults, kFaultKeys, "faults.", spec);
 
   const Section fault = top.child("fault");
   for (const auto& id : sub_table_ids(fault, "uncertainty.fault")) {
     const Section one = fault.child(id);
-    one.allow({"friction", "cohesion", "strike_offset", "dip_offset"});
-    read_keys(one, kFaultKeys, "fault." + id + ".", spec);
+    one.allow({"friction"});  // per fault: friction only (the driver's per-fault input)
+    read_keys(one, {{"friction", Dimension::dimensionless, kPositive}}, "fault." + id + ".", spec);
     spec.fault_ids.push_back(id);
   }
 

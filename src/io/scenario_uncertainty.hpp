@@ -10,17 +10,19 @@
 //   pore_pressure_gradient = "normal(0.433 psi/ft, 0.01 psi/ft)"
 //   rate_factor = "lognormal(median=1, sigma_ln=0.1)"   # every well
 //   [uncertainty.stress]      vertical_gradient, shmax_azimuth, and by stress model:
-//                             shmax_gradient, shmin_gradient | poisson_ratio, biot,
-//                             tectonic_shmin, tectonic_shmax | a_phi, equilibrium_friction
+//                             shmax_gradient, shmin_gradient | poisson_ratio | a_phi
 //   [uncertainty.formation]   permeability, thickness, porosity, total_compressibility,
 //                             viscosity | transmissivity, storativity
-//   [uncertainty.faults]      friction, cohesion, strike_offset, dip_offset (all faults)
-//   [uncertainty.fault."F-12"]  the same four keys for one fault (wins over [uncertainty.faults])
-//   [uncertainty.well."MW-01"]  rate_factor for one well (wins over the global rate_factor)
+//   [uncertainty.faults]      friction, cohesion, strike_perturbation, dip_perturbation
+//                             (every fault; perturbations are added to the mapped orientation)
+//   [uncertainty.fault."F-12"]  friction of one fault (replaces [uncertainty.faults] friction)
+//   [uncertainty.well."MW-01"]  rate_factor of one well (multiplies the global rate_factor)
 //
-// Inputs are ordered by their key (byte order), so the draws do not depend on the order of the
-// lines in the file. Keys: "pore_pressure_gradient", "rate_factor", "stress.a_phi",
-// "formation.permeability", "faults.friction", "fault.F-12.friction", "well.MW-01.rate_factor".
+// These map one to one onto the fields of the Monte Carlo driver's model
+// (probabilistic::UncertainModel); a key left out keeps the region's or scenario's value.
+// Keys of `values`: "pore_pressure_gradient", "rate_factor", "stress.a_phi",
+// "formation.permeability", "faults.friction", "fault.F-12.friction", "well.MW-01.rate_factor"
+// (sorted, so the spec does not depend on the order of the lines in the file).
 #include <cstdint>
 #include <string>
 #include <string_view>
@@ -56,9 +58,6 @@ struct UncertaintySpec {
 
   // The value for `key`, or null.
   const UncertainValue* find(std::string_view key) const;
-  // The inputs of the sampler, in key order.
-  std::vector<stats::UncertainInput> inputs() const;
-  stats::Sampler make_sampler() const;
 };
 
 // Everything the reader needs to know about the scenario to check keys against it.
