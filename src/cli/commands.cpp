@@ -9,6 +9,8 @@ const std::vector<Registrar>& registrars() {
       &register_catalog_command,
       &register_validate_command,
       &register_fault_stress_command,
+      &register_run_command,
+      &register_demo_command,
   };
   return list;
 }

@@ -14,5 +14,7 @@ void register_pressure_command(CLI::App& app, Context& ctx);
 void register_catalog_command(CLI::App& app, Context& ctx);
 void register_validate_command(CLI::App& app, Context& ctx);
 void register_fault_stress_command(CLI::App& app, Context& ctx);
+void register_run_command(CLI::App& app, Context& ctx);
+void register_demo_command(CLI::App& app, Context& ctx);
 
 }  // namespace slipscreen::cli

@@ -225,17 +225,25 @@ ResolvedScenario load_scenario(const fs::path& path) {
   if (wells.has("file")) {
     const fs::path p = wells.input_path("file");
     sc.wells_file = display_name(p);
+    sc.wells_path = p;
     sc.wells = read_wells(read_csv(p, sc.wells_file), wells_crs);
     sc.inputs.push_back(p);
   }
   const Section hist = top.child("histories");
-  hist.allow({"file"});
+  hist.allow({"file", "continue_active_until"});
   if (hist.has("file")) {
     if (sc.wells.empty()) hist.fail("file", hist.string("file"), "a [wells] file that the histories refer to");
     const fs::path p = hist.input_path("file");
     sc.histories_file = display_name(p);
+    sc.histories_path = p;
     read_histories(read_csv(p, sc.histories_file), sc.wells);
     sc.inputs.push_back(p);
+  }
+  if (auto f = hist.find("continue_active_until")) {
+    const std::string text = hist.string("continue_active_until");
+    const auto d = util::parse_iso_date(text);
+    if (!d) throw InputError(hist.key_path(*f, "continue_active_until"), text, "a date as YYYY-MM-DD", hist.where(*f));
+    continue_active_wells(sc.wells, util::to_seconds(*d), hist.where(*f));
   }
 
   // Proposed wells with inline schedules.

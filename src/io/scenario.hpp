@@ -164,6 +164,7 @@ struct ResolvedScenario {
   std::uint64_t seed = 1;
   RegionSpec region;
   std::string wells_file, histories_file;  // display names (empty if none)
+  std::filesystem::path wells_path, histories_path;
   std::vector<WellSpec> wells;   // existing wells, then proposed wells
   OutputSpec output;
   std::vector<std::filesystem::path> inputs;  // every file read (for the manifest hashes)

@@ -208,6 +208,26 @@ void read_histories(const CsvTable& t, std::vector<WellSpec>& wells) {
   for (auto& w : wells) check_periods(w);
 }
 
+void continue_active_wells(std::vector<WellSpec>& wells, double until, const std::string& where) {
+  for (auto& w : wells) {
+    if (w.status != WellStatus::active || w.periods.empty() || !(w.periods.back().end < until)) continue;
+    const double end = w.periods.back().end;
+    const double from = util::to_seconds(util::add_months(util::date_at(end), -12));
+    double volume = 0;
+    for (const auto& p : w.periods) {
+      const double a = std::max(p.start, from), b = p.end;
+      if (b > a) volume += p.rate * (b - a);
+    }
+    const double duration = end - std::max(from, w.periods.front().start);  // gaps count as zero
+    RatePeriod p;
+    p.start = end;
+    p.end = until;
+    p.rate = duration > 0 ? volume / duration : 0.0;
+    p.source = where + " (continued at the mean rate of the last 12 reported months)";
+    w.periods.push_back(p);
+  }
+}
+
 RatePeriod parse_schedule_entry(std::string_view text, const std::string& where, const std::string& field) {
   const std::string expected = "'<rate> from <YYYY-MM-DD> to <YYYY-MM-DD>', e.g. '2e4 bbl/d from 2027-01-01 to 2030-01-01'";
   const std::string s(text);
