@@ -33,7 +33,7 @@ void track_slip(const PressureSurrogate& surrogate, const std::vector<std::vecto
                 const std::function<void(const SegmentOutcome&)>& visit) {
   const Eigen::Index n_real = draws.basis.cols();
   const auto n_seg = segment_points.size();
-  if (dp_crit.rows() != static_cast<Eigen::Index>(n_seg) || dp_crit.cols() != n_real)
+  if ((dp_crit.rows() != static_cast<Eigen::Index>(n_seg) && dp_crit.rows() != 1) || dp_crit.cols() != n_real)
     throw InputError("dp_crit", std::to_string(dp_crit.rows()) + "x" + std::to_string(dp_crit.cols()),
                      "one Δp_crit per segment and realization");
   const std::size_t n_times = surrogate.time_count();
@@ -75,7 +75,7 @@ void track_slip(const PressureSurrogate& surrogate, const std::vector<std::vecto
       }
       // Full tracking series only where the threshold can be reached.
       for (Eigen::Index r = 0; r < n_real; ++r) {
-        const float crit = dp_crit(static_cast<Eigen::Index>(s), r);
+        const float crit = dp_crit(dp_crit.rows() == 1 ? 0 : static_cast<Eigen::Index>(s), r);
         if (crit <= 0.0f) {  // already critical before any injection
           res.first_crossing[static_cast<std::size_t>(r)] = 0;
           continue;

@@ -40,7 +40,7 @@ struct SegmentOutcome {
 // For every segment (OpenMP over segments), evaluates Δp for all realizations in blocks and
 // calls visit(outcome) once per segment — possibly from several threads at once, each with a
 // different segment, so the visitor must write to per-segment storage only.
-// `dp_crit` is segments × N. `output_index` lists the tracking indices of the output times.
+// `dp_crit` is segments × N, or 1 × N when every segment shares the same values (maps). `output_index` lists the tracking indices of the output times.
 void track_slip(const PressureSurrogate& surrogate, const std::vector<std::vector<std::size_t>>& segment_points,
                 const PressureDraws& draws, const Eigen::MatrixXf& dp_crit,
                 std::span<const std::size_t> output_index,

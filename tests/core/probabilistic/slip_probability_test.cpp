@@ -1,0 +1,212 @@
+#include "core/probabilistic/slip_probability.hpp"
+
+#include <doctest/doctest.h>
+#include <omp.h>
+
+#include <boost/math/distributions/normal.hpp>
+#include <boost/math/special_functions/expint.hpp>
+#include <cmath>
+#include <numbers>
+
+#include "core/errors.hpp"
+#include "core/geomech/fault_plane.hpp"
+#include "core/geomech/fault_stress.hpp"
+#include "core/geomech/stress_state.hpp"
+#include "core/stats/wilson_interval.hpp"
+
+using namespace slipscreen;
+using namespace slipscreen::probabilistic;
+using stats::Distribution;
+
+namespace {
+constexpr double kDay = 86400.0;
+constexpr double kDeg = std::numbers::pi / 180.0;
+
+// Fictional test case: one well injecting 0.05 m³/s for 6 years, then shut in; three fault
+// segments at 1.5, 4 and 12 km; strike-slip stress from gradients at 3 km.
+struct Case {
+  UncertainModel model;
+  std::vector<WellInput> wells;
+  std::vector<SegmentInput> segments;
+  RunSettings settings;
+  Case() {
+    model.depth = 3000.0;
+    model.vertical_gradient = Distribution::fixed(25e3);
+    model.pore_pressure_gradient = Distribution::fixed(10e3);
+    model.shmax_gradient = Distribution::fixed(30e3);
+    model.shmin_gradient = Distribution::fixed(17e3);
+    model.shmax_azimuth = Distribution::fixed(45 * kDeg);
+    model.permeability = Distribution::fixed(2e-14);
+    model.thickness = Distribution::fixed(50.0);
+    model.porosity = Distribution::fixed(0.12);
+    model.total_compressibility = Distribution::fixed(1.5e-9);
+    model.viscosity = Distribution::fixed(4e-4);
+    model.friction = Distribution::fixed(0.6);
+    WellInput w;
+    w.id = "W1";
+    w.steps.time = {0.0, 6 * 365 * kDay};
+    w.steps.delta_rate = {0.05, -0.05};
+    wells.push_back(w);
+    for (double r : {1500.0, 4000.0, 12000.0}) {
+      SegmentInput s;
+      s.check_points = {{r, -200.0}, {r, 0.0}, {r, 200.0}};
+      s.strike = 15 * kDeg;  // near-optimal for SHmax at 45° and μ = 0.6 (about 30° away)
+      s.dip = 80 * kDeg;
+      s.fault = segments.size();
+      segments.push_back(s);
+    }
+    for (int m = 1; m <= 120; ++m) settings.tracking_times.push_back(m * 30 * kDay);
+    settings.output_index = {11, 35, 71, 119};
+    settings.realizations = 1;
+    settings.method = stats::SamplingMethod::monte_carlo;
+  }
+  // Reference Δp by direct Theis superposition with Boost.Math's E1 (general-purpose library).
+  double dp(const SegmentInput& s, double t) const {
+    const double k = 2e-14, h = 50.0, phi = 0.12, ct = 1.5e-9, mu = 4e-4;
+    const double d = k / (mu * phi * ct), pre = mu / (4 * std::numbers::pi * k * h);
+    double best = 0.0;
+    for (const auto& p : s.check_points) {
+      const double r2 = p.x * p.x + p.y * p.y;
+      double sum = 0.0;
+      for (std::size_t j = 0; j < wells[0].steps.time.size(); ++j)
+        if (wells[0].steps.time[j] < t)
+          sum += wells[0].steps.delta_rate[j] * boost::math::expint(1, r2 / (4 * d * (t - wells[0].steps.time[j])));
+      best = std::max(best, pre * sum);
+    }
+    return best;
+  }
+  Eigen::Matrix3d tensor() const {
+    geomech::AndersonianStress st{75e6, 90e6, 51e6, 45 * kDeg, 30e6};
+    return geomech::stress_tensor_ned(st);
+  }
+};
+}  // namespace
+
+TEST_CASE("all inputs fixed: the probabilistic screen reproduces the deterministic one (P is 0 or 1)") {
+  Case c;
+  c.settings.realizations = 8;
+  const auto res = run_probabilistic(c.model, c.wells, c.segments, c.settings);
+  CHECK(res.realizations == 8);
+  CHECK(res.rejected == 0);
+  for (std::size_t s = 0; s < c.segments.size(); ++s) {
+    const auto plane = geomech::FaultPlane::from_strike_dip(c.segments[s].strike, c.segments[s].dip);
+    const auto rs = geomech::resolve(c.tensor(), 30e6, plane);
+    const double crit = rs.effective_normal_stress - rs.shear_stress / 0.6;  // Δp_crit, c = 0
+    REQUIRE(crit > 0.0);
+    // Deterministic first tracking time at which Δp ≥ Δp_crit.
+    int first = -1;
+    for (std::size_t k = 0; k < c.settings.tracking_times.size() && first < 0; ++k)
+      if (c.dp(c.segments[s], c.settings.tracking_times[k]) >= crit) first = static_cast<int>(k);
+    for (std::size_t o = 0; o < c.settings.output_index.size(); ++o) {
+      const bool slipped = first >= 0 && static_cast<int>(c.settings.output_index[o]) >= first;
+      CAPTURE(s);
+      CAPTURE(o);
+      CHECK(res.segments[s].slipped_by[o] == (slipped ? 8u : 0u));
+    }
+    CHECK(res.segments[s].dp_crit.quantile(0.5) == doctest::Approx(crit).epsilon(0.011));  // sketch α = 0.01
+  }
+  // The case is built so that the nearest segment slips and the farthest does not.
+  CHECK(res.segments[0].slipped_by.back() == 8);
+  CHECK(res.segments[2].slipped_by.back() == 0);
+}
+
+TEST_CASE("friction ~ normal: P(slip) matches the closed form within its Wilson interval") {
+  // Only μ is uncertain. With c = 0, slip by t  <=>  Δp_max(t) ≥ σn' − τ/μ  <=>  μ ≤ τ/(σn' − Δp_max),
+  // so P = Φ((τ/(σn' − Δp) − m)/sd) (exact reasoning; injection is monotone until t, so the
+  // running maximum is Δp(t) at the middle segment's output time before shut-in).
+  Case c;
+  const double m = 0.6, sd = 0.08;
+  c.model.friction = Distribution::normal(m, sd);
+  c.settings.realizations = 4000;
+  const auto res = run_probabilistic(c.model, c.wells, c.segments, c.settings);
+  const auto& seg = c.segments[1];
+  const auto rs = geomech::resolve(c.tensor(), 30e6, geomech::FaultPlane::from_strike_dip(seg.strike, seg.dip));
+  const boost::math::normal_distribution<double> phi(0.0, 1.0);
+  int checked = 0;
+  for (std::size_t o = 0; o < 3; ++o) {
+    const double dp = c.dp(seg, c.settings.tracking_times[c.settings.output_index[o]]);
+    const double mu_needed = rs.shear_stress / (rs.effective_normal_stress - dp);
+    const double p_exact = boost::math::cdf(phi, (mu_needed - m) / sd);
+    const auto ci = stats::wilson_interval(res.segments[1].slipped_by[o] + res.segments[1].already_critical,
+                                           res.realizations);
+    CAPTURE(o);
+    CAPTURE(p_exact);
+    CHECK(ci.lower <= p_exact);
+    CHECK(p_exact <= ci.upper);
+    checked += p_exact > 0.02 && p_exact < 0.98;
+  }
+  CHECK(checked >= 1);  // the case exercises a probability strictly between 0 and 1
+}
+
+TEST_CASE("same seed gives identical results with 1 and 2 threads; P never decreases with time") {
+  Case c;
+  c.model.friction = Distribution::normal(0.6, 0.1);
+  c.model.permeability = Distribution::lognormal(2e-14, 0.7);
+  c.model.shmax_azimuth = Distribution::normal(45 * kDeg, 10 * kDeg);
+  c.model.strike_perturbation = Distribution::normal(0.0, 5 * kDeg);
+  c.settings.realizations = 600;
+  c.settings.method = stats::SamplingMethod::latin_hypercube;
+  const int before = omp_get_max_threads();
+  omp_set_num_threads(1);
+  const auto one = run_probabilistic(c.model, c.wells, c.segments, c.settings);
+  omp_set_num_threads(2);
+  const auto two = run_probabilistic(c.model, c.wells, c.segments, c.settings);
+  omp_set_num_threads(before);
+  REQUIRE(one.segments.size() == two.segments.size());
+  for (std::size_t s = 0; s < one.segments.size(); ++s) {
+    CHECK(one.segments[s].slipped_by == two.segments[s].slipped_by);
+    CHECK(one.segments[s].already_critical == two.segments[s].already_critical);
+    CHECK(one.segments[s].dp_crit == two.segments[s].dp_crit);
+    CHECK(one.segments[s].dp == two.segments[s].dp);
+    REQUIRE(one.segments[s].sensitivity.size() == two.segments[s].sensitivity.size());
+    for (std::size_t j = 0; j < one.segments[s].sensitivity.size(); ++j) {
+      const double a = one.segments[s].sensitivity[j], b = two.segments[s].sensitivity[j];
+      CHECK(((std::isnan(a) && std::isnan(b)) || a == b));  // NaN: a fixed input has no ranking
+    }
+    for (std::size_t o = 1; o < one.segments[s].slipped_by.size(); ++o)
+      CHECK(one.segments[s].slipped_by[o] >= one.segments[s].slipped_by[o - 1]);
+  }
+  // Friction drives the margin of a near-optimal fault: ρ(friction, margin) > 0 (a larger μ
+  // raises Δp_crit). Exact reasoning: Δp_crit = σn' − τ/μ increases with μ.
+  const auto names = sampled_input_names(c.model, c.wells, 3);
+  const auto it = std::find(names.begin(), names.end(), "friction");
+  REQUIRE(it != names.end());
+  CHECK(one.segments[1].sensitivity[static_cast<std::size_t>(it - names.begin())] > 0.3);
+}
+
+TEST_CASE("bad input is rejected with the field named") {
+  Case c;
+  c.settings.realizations = 0;
+  CHECK_THROWS_WITH_AS(run_probabilistic(c.model, c.wells, c.segments, c.settings),
+                       doctest::Contains("realizations"), InputError);
+  Case d;
+  d.settings.realizations = 10;
+  d.segments.clear();
+  CHECK_THROWS_AS(run_probabilistic(d.model, d.wells, d.segments, d.settings), InputError);
+  Case e;
+  e.settings.realizations = 10;
+  e.model.shmin_gradient = Distribution::fixed(35e3);  // Shmin > SHmax in every realization
+  CHECK_THROWS_WITH_AS(run_probabilistic(e.model, e.wells, e.segments, e.settings),
+                       doctest::Contains("physical stress state"), InputError);
+}
+
+TEST_CASE("probability maps: a pixel with a mapped fault's orientation matches that fault; the most dangerous orientation is never safer") {
+  Case c;
+  c.model.friction = Distribution::normal(0.6, 0.08);
+  c.settings.realizations = 500;
+  for (auto& s : c.segments) s.check_points = {s.check_points[1]};  // one point, like a pixel
+  for (const auto& s : c.segments) c.settings.map_points.push_back(s.check_points[0]);
+  c.settings.map_strike = c.segments[0].strike;
+  c.settings.map_dip = c.segments[0].dip;
+  const auto res = run_probabilistic(c.model, c.wells, c.segments, c.settings);
+  const std::size_t n_out = c.settings.output_index.size();
+  REQUIRE(res.map_oriented.size() == c.segments.size() * n_out);
+  for (std::size_t p = 0; p < c.segments.size(); ++p)
+    for (std::size_t t = 0; t < n_out; ++t) {
+      // Same orientation, same point, same realizations: identical counts (exact reasoning).
+      CHECK(res.map_oriented[p * n_out + t] == res.segments[p].slipped_by[t]);
+      // min over orientations of Δp_crit ≤ Δp_crit of any one orientation (up to the 5° grid).
+      CHECK(res.map_dangerous[p * n_out + t] + res.map_dangerous_already_critical >=
+            res.map_oriented[p * n_out + t]);
+    }
+}
