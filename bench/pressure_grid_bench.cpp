@@ -14,9 +14,12 @@
 #include <string_view>
 #include <numbers>
 #include <random>
+#include <string>
 #include <vector>
 
+#include "core/hydro/pressure_field.hpp"
 #include "core/hydro/pressure_grid.hpp"
+#include "core/hydro/theis.hpp"
 
 using namespace slipscreen::hydro;
 
@@ -31,22 +34,25 @@ double uniform(std::mt19937_64& rng) { return double(rng() >> 11) * 0x1.0p-53; }
 // 200 fictional wells: positions over the map and a 10 km margin, start months over the first
 // 12 years, rates log-uniform between 500 and 25000 bbl/d-equivalent (0.001–0.046 m³/s) with a
 // monthly wobble, a third of them shut in (rate 0) for good at some month.
-std::vector<GridSource> fictional_wells(const GridGeometry& g, int wells, int months) {
+std::vector<WellSource> fictional_wells(const GridGeometry& g, int wells, int months) {
   std::mt19937_64 rng(20261201);
   const double w = g.nx * g.cell_x, hgt = g.ny * -g.cell_y, margin = 10000.0;
-  std::vector<GridSource> out;
+  std::vector<WellSource> out;
   for (int n = 0; n < wells; ++n) {
-    GridSource s;
+    WellSource s;
+    s.name = "fictional-" + std::to_string(n + 1);
     s.x = g.origin_x - margin + uniform(rng) * (w + 2 * margin);
     s.y = g.origin_y + margin - uniform(rng) * (hgt + 2 * margin);
     const int first = int(uniform(rng) * 144);
     const int shut = uniform(rng) < 1.0 / 3.0 ? first + 12 + int(uniform(rng) * (months - first)) : months;
     const double q = 0.001 * std::pow(46.0, uniform(rng));
     const double phase = 6.28 * uniform(rng);
+    std::vector<double> start, rate;
     for (int m = first; m < months; ++m) {
-      s.start.push_back(m * kMonth);
-      s.rate.push_back(m >= shut ? 0.0 : q * (1.0 + 0.25 * std::sin(0.5 * m + phase) * (0.5 + uniform(rng))));
+      start.push_back(m * kMonth);
+      rate.push_back(m >= shut ? 0.0 : q * (1.0 + 0.25 * std::sin(0.5 * m + phase) * (0.5 + uniform(rng))));
     }
+    s.history = RateHistory(start, rate);
     out.push_back(std::move(s));
   }
   return out;
@@ -67,20 +73,26 @@ int main(int argc, char** argv) {
   g.nx = 500;
   g.ny = 500;
   const int months = 240;
-  const std::vector<GridSource> wells = fictional_wells(g, 200, months);
+  const PressureField field(fictional_wells(g, 200, months));
+  const std::vector<WellSource>& wells = field.wells();
   std::vector<double> times;
   for (int k = 1; k <= 40; ++k) times.push_back(k * 6.0 * kMonth);  // every 6 months, 20 years
   // Fictional formation: k = 1e-13 m² (about 100 mD), h = 50 m, μ = 1 mPa·s, φ c_t = 1e-10 1/Pa.
-  GridFormation f;
-  f.prefactor = 1e-3 / (4.0 * std::numbers::pi * 1e-13 * 50.0);
-  f.diffusivity = 1e-13 / (1e-3 * 1e-10);
-  f.well_radius = 0.1;
+  Formation formation;
+  formation.permeability = 1e-13;
+  formation.thickness = 50.0;
+  formation.viscosity = 1e-3;
+  formation.porosity = 0.1;
+  formation.total_compressibility = 1e-9;
+  const TheisParameters f = theis_parameters(formation);
 
   // Terms of the direct sum per pixel: Σ_k Σ_w (rate steps of w before t_k).
   double terms_per_pixel = 0.0;
   for (double t : times)
-    for (const GridSource& s : wells)
-      terms_per_pixel += double(std::lower_bound(s.start.begin(), s.start.end(), t) - s.start.begin());
+    for (const WellSource& s : wells) {
+      const std::vector<double>& st = s.history.start_times();
+      terms_per_pixel += double(std::lower_bound(st.begin(), st.end(), t) - st.begin());
+    }
   const double pixels = double(g.nx * g.ny);
 
   std::printf("pressure_grid_bench: %zu fictional wells, %d months of history, %zux%zu grid, %zu output times, %d threads\n",
@@ -90,7 +102,7 @@ int main(int argc, char** argv) {
   // Fast path, whole grid.
   auto t0 = std::chrono::steady_clock::now();
   std::clock_t c0 = std::clock();
-  const PressureGrid fast = pressure_grid(g, f, wells, times);
+  const PressureGrid fast = pressure_grid(g, field, f, times);
   const double fast_s = seconds_since(t0), fast_cpu = double(std::clock() - c0) / CLOCKS_PER_SEC;
   const double fast_rate = terms_per_pixel * pixels / fast_s;
   std::printf("  fast path:  whole grid in %.2f s wall (%.2f s CPU over all threads) -> %.3e terms/s\n"
@@ -98,8 +110,9 @@ int main(int argc, char** argv) {
               fast_s, fast_cpu, fast_rate, fast.node_spacing, fast.profile_nodes, fast.error_bound);
 
   if (argc > 1 && std::string_view(argv[1]) == "--fast-only") return 0;  // skip the slow baseline
-  // Direct sum on a regular subsample of pixels (every 25th column and row: 400 pixels),
-  // extrapolated to the whole grid by the pixel count.
+  // Direct sum (PressureField::evaluate, the project's term-by-term superposition with the batched
+  // E1) on a regular subsample of pixels (every 25th column and row: 400 pixels), extrapolated to
+  // the whole grid by the pixel count.
   std::vector<std::size_t> sample_i, sample_j;
   for (std::size_t j = 12; j < g.ny; j += 25)
     for (std::size_t i = 12; i < g.nx; i += 25) {
@@ -107,12 +120,11 @@ int main(int argc, char** argv) {
       sample_j.push_back(j);
     }
   const std::size_t ns = sample_i.size();
-  std::vector<std::vector<double>> direct(ns);
+  std::vector<FieldPoint> points;
+  for (std::size_t p = 0; p < ns; ++p) points.push_back({g.centre_x(sample_i[p]), g.centre_y(sample_j[p])});
   t0 = std::chrono::steady_clock::now();
   c0 = std::clock();
-#pragma omp parallel for schedule(dynamic)
-  for (std::size_t p = 0; p < ns; ++p)
-    direct[p] = pressure_direct_at(f, wells, g.centre_x(sample_i[p]), g.centre_y(sample_j[p]), times);
+  const PressureResult direct = field.evaluate(field.prepare(points), times, f);
   const double direct_s = seconds_since(t0), direct_cpu = double(std::clock() - c0) / CLOCKS_PER_SEC;
   const double direct_rate = terms_per_pixel * double(ns) / direct_s;
   std::printf("  direct sum: %zu-pixel subsample in %.2f s wall (%.2f s CPU) -> %.3e terms/s;\n"
@@ -124,7 +136,7 @@ int main(int argc, char** argv) {
   std::size_t significant = 0;
   for (std::size_t p = 0; p < ns; ++p)
     for (std::size_t k = 0; k < times.size(); ++k) {
-      const double ref = direct[p][k], e = std::abs(fast.at(k, sample_i[p], sample_j[p]) - ref);
+      const double ref = direct.at(p, k), e = std::abs(fast.at(k, sample_i[p], sample_j[p]) - ref);
       worst_abs = std::max(worst_abs, e);
       if (std::abs(ref) > 1e3) {
         ++significant;

@@ -304,7 +304,7 @@ void write_folder(const CatalogOptions& o, const nlohmann::json& summary, const 
   fs::create_directories(tmp, ec);
   if (ec) throw IoError("cannot create '" + tmp.string() + "': " + ec.message());
   try {
-    write_text(tmp / "catalog_summary.json", summary.dump(2) + "\n");
+    write_text(tmp / "catalog_summary.json", summary.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) + "\n");
     std::ostringstream ev;
     ev << "# " << io::kScreeningCaution << "\n";
     ev << "event_id,time,x,y,depth_m,magnitude,magnitude_type\n";
@@ -362,7 +362,7 @@ int run_catalog(const CatalogOptions& o, Context& ctx) {
   const auto rt = build_rt(o, filtered.catalog, so);
   auto j = io::catalog_summary_json(read, filtered.counts, summary);
   j["rt_view"] = rt ? rt_json(*rt) : nlohmann::json(nullptr);
-  if (o.json) ctx.out << j.dump(2) << "\n";
+  if (o.json) ctx.out << j.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) << "\n";
   else print_summary(ctx.out, read, filtered.counts, summary, rt);
   if (!o.out.empty()) {
     write_folder(o, j, filtered.catalog, rt);

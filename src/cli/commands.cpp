@@ -5,8 +5,12 @@ namespace slipscreen::cli {
 const std::vector<Registrar>& registrars() {
   static const std::vector<Registrar> list = {
       &register_units_command,
+      &register_pressure_command,
       &register_catalog_command,
       &register_validate_command,
+      &register_fault_stress_command,
+      &register_run_command,
+      &register_demo_command,
   };
   return list;
 }

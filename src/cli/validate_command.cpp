@@ -8,6 +8,10 @@
 #include "cli/commands.hpp"
 #include "cli/exit_codes.hpp"
 #include "cli/scenario_summary.hpp"
+#include <algorithm>
+
+#include "core/geomech/frictional_limit.hpp"
+#include "io/run_inputs.hpp"
 #include "io/scenario.hpp"
 
 namespace slipscreen::cli {
@@ -20,7 +24,25 @@ struct ValidateOptions {
 
 int run_validate(const ValidateOptions& o, Context& ctx) {
   const io::ResolvedScenario s = io::load_scenario(o.scenario);
+  // Everything a run checks before computing: CRSs, the fault map, stresses, formation, grid.
+  const io::PreparedRun p = io::prepare_run(s, o.allow_network);
   print_scenario_summary(s, ctx.out);
+  ctx.out << "Faults     " << p.fault_count << " faults in " << p.segments.size() << " segments (working CRS "
+          << p.working.name() << "); " << p.inputs.tracking_times.size() << " tracking times\n";
+  const auto& st = p.inputs.stress;
+  ctx.out << "  stress at reference depth: Sv " << std::fixed << std::setprecision(1) << st.sv / 1e6 << " MPa, SHmax "
+          << st.shmax / 1e6 << " MPa, Shmin " << st.shmin / 1e6 << " MPa, p0 " << st.pore_pressure / 1e6 << " MPa\n";
+  {
+    const double s1 = std::max({st.sv, st.shmax, st.shmin}), s3 = std::min({st.sv, st.shmax, st.shmin});
+    const auto lim = geomech::check_frictional_limit(s1, s3, st.pore_pressure, p.inputs.friction.mu);
+    ctx.out << "  frictional limit (Jaeger & Cook): (S1-p0)/(S3-p0) = " << std::setprecision(3) << lim.ratio
+            << ", limit " << lim.limit << " for friction " << std::setprecision(2) << p.inputs.friction.mu << ": "
+            << geomech::to_string(lim.status)
+            << (lim.status == geomech::LimitStatus::beyond ? " (such a stress cannot persist: check the stress description)" : "")
+            << "\n";
+  }
+  if (s.output.rasters)
+    ctx.out << "  raster: " << p.grid.columns << " x " << p.grid.rows << " cells\n";
   ctx.out << "scenario is valid: " << s.file << "\n";
   return kExitOk;
 }

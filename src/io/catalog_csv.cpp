@@ -114,6 +114,7 @@ CatalogReadResult read_catalog_csv(const std::string& path, const CatalogColumns
   std::optional<std::size_t> c_time, c_lat, c_lon, c_x, c_y, c_depth, c_mag, c_type, c_id;
   while (std::getline(in, line)) {
     ++lineno;
+    if (lineno == 1 && line.rfind("\xEF\xBB\xBF", 0) == 0) line.erase(0, 3);  // UTF-8 byte-order mark
     const std::string t = trim(line);
     if (t.empty()) continue;
     if (t[0] == '#') {

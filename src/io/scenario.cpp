@@ -5,6 +5,7 @@
 #include <nlohmann/json.hpp>
 
 #include "core/errors.hpp"
+#include "io/path_policy.hpp"
 #include "io/scenario_toml.hpp"
 #include "io/scenario_wells.hpp"
 
@@ -25,16 +26,14 @@ std::string display_name(const fs::path& p) {
 
 namespace {
 
-// A file name inside the run folder: relative, no "..", no network or virtual path.
+// A file name inside the run folder: relative, no "..", no network or virtual path
+// (io/path_policy.hpp), refused with the place of the key.
 void check_output_name(const Section& s, std::string_view key, const std::string& name) {
-  const fs::path p(name);
-  bool escapes = name.empty() || p.is_absolute() || p.has_root_name() || p.has_root_directory();
-  for (const auto& part : p) escapes = escapes || part == "..";
-  if (name.find("/vsi") == 0 || name.find("://") != std::string::npos) escapes = true;
-  if (escapes) {
-    const auto f = s.find(key);
-    throw RefusedError(s.where(*f) + ": key '" + s.key_path(*f, key) + "' = '" + name +
-                       "': refused: output files must stay inside the run folder (a relative path without '..')");
+  const auto f = s.find(key);
+  try {
+    safe_relative_output(s.key_path(*f, key), name);
+  } catch (const RefusedError& e) {
+    throw RefusedError(s.where(*f) + ": refused: key " + e.what());
   }
 }
 
@@ -225,17 +224,25 @@ ResolvedScenario load_scenario(const fs::path& path) {
   if (wells.has("file")) {
     const fs::path p = wells.input_path("file");
     sc.wells_file = display_name(p);
+    sc.wells_path = p;
     sc.wells = read_wells(read_csv(p, sc.wells_file), wells_crs);
     sc.inputs.push_back(p);
   }
   const Section hist = top.child("histories");
-  hist.allow({"file"});
+  hist.allow({"file", "continue_active_until"});
   if (hist.has("file")) {
     if (sc.wells.empty()) hist.fail("file", hist.string("file"), "a [wells] file that the histories refer to");
     const fs::path p = hist.input_path("file");
     sc.histories_file = display_name(p);
+    sc.histories_path = p;
     read_histories(read_csv(p, sc.histories_file), sc.wells);
     sc.inputs.push_back(p);
+  }
+  if (auto f = hist.find("continue_active_until")) {
+    const std::string text = hist.string("continue_active_until");
+    const auto d = util::parse_iso_date(text);
+    if (!d) throw InputError(hist.key_path(*f, "continue_active_until"), text, "a date as YYYY-MM-DD", hist.where(*f));
+    continue_active_wells(sc.wells, util::to_seconds(*d), hist.where(*f));
   }
 
   // Proposed wells with inline schedules.
@@ -338,7 +345,7 @@ nlohmann::json to_json(const ResolvedScenario& s) {
     for (const auto& p : w.periods)
       periods.push_back({{"start", util::format_iso_date(util::date_at(p.start))},
                          {"end", util::format_iso_date(util::date_at(p.end))},
-                         {"rate_m3_per_s", p.rate}});
+                         {"rate_m3_per_s", p.rate}, {"assumed", p.assumed}});
     wells.push_back({{"id", w.id}, {"x", w.x}, {"y", w.y}, {"crs", w.crs}, {"top_m", w.top}, {"bottom_m", w.bottom},
                      {"radius_m", w.radius}, {"status", status_name(w.status)}, {"proposed", w.proposed},
                      {"periods", periods}});

@@ -116,6 +116,7 @@ struct RatePeriod {
   double start = 0, end = 0;
   double rate = 0;
   std::string source;  // "histories.csv line 14" (for messages)
+  bool assumed = false;  // an assumed continuation (histories.continue_active_until), not reported
 };
 
 struct WellSpec {
@@ -129,7 +130,8 @@ struct WellSpec {
   std::vector<RatePeriod> periods;  // sorted, non-overlapping; gaps mean no injection
   std::string source;               // where it was defined
 
-  double volume_until(double t) const;  // m^3 injected before time t
+  double volume_until(double t) const;           // m^3 injected before time t
+  double reported_volume_until(double t) const;  // the same without assumed continuations
 };
 
 struct OutputGrid {
@@ -164,6 +166,7 @@ struct ResolvedScenario {
   std::uint64_t seed = 1;
   RegionSpec region;
   std::string wells_file, histories_file;  // display names (empty if none)
+  std::filesystem::path wells_path, histories_path;
   std::vector<WellSpec> wells;   // existing wells, then proposed wells
   OutputSpec output;
   std::vector<std::filesystem::path> inputs;  // every file read (for the manifest hashes)

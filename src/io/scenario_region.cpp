@@ -3,6 +3,7 @@
 
 #include "core/errors.hpp"
 #include "io/scenario.hpp"
+#include "io/path_policy.hpp"
 #include "io/scenario_toml.hpp"
 
 namespace slipscreen::io {
@@ -114,8 +115,10 @@ StressSpec read_stress(const Section& s, double fault_friction) {
 FaultMapSpec read_faults(const Section& s) {
   s.allow({"file", "layer", "crs", "attributes", "friction", "cohesion", "segment_length", "check_points"});
   FaultMapSpec f;
-  // A path is relative to the file that names it (region file or scenario override).
-  f.path = s.input_path("file");
+  // A path is relative to the file that names it (region file or scenario override). A GDAL
+  // network path is kept as written: the fault reader refuses it unless --allow-network.
+  const std::string written = s.string("file");
+  f.path = is_network_path(written) ? std::filesystem::path(written) : s.input_path("file");
   f.layer = s.optional_string("layer").value_or("");
   f.crs = s.optional_string("crs").value_or("");
   const Section a = s.child("attributes");

@@ -4,6 +4,7 @@
 
 #include "core/errors.hpp"
 #include "core/util/suggest.hpp"
+#include "io/path_policy.hpp"
 
 namespace slipscreen::io {
 
@@ -201,6 +202,11 @@ std::filesystem::path Section::path(std::string_view key) const {
 }
 
 std::filesystem::path Section::input_path(std::string_view key) const {
+  if (is_network_path(string(key))) {
+    const Found f = *find(key);
+    throw RefusedError(where(f) + ": refused: key '" + key_path(f, key) + "' = '" + string(key) +
+                       "': scenario inputs are local files (network paths are never read)");
+  }
   const std::filesystem::path p = path(key);
   std::error_code ec;
   if (!std::filesystem::is_regular_file(p, ec)) {

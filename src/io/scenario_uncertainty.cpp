@@ -1,229 +1,310 @@
 #include "io/scenario_uncertainty.hpp"
 
+#include <algorithm>
+#include <charconv>
 #include <cmath>
+#include <limits>
+#include <optional>
+
 #include <nlohmann/json.hpp>
 
 #include "core/errors.hpp"
-#include "core/geomech/depth_profile.hpp"
 #include "core/stats/distribution_text.hpp"
+#include "core/stats/random_stream.hpp"
+#include "core/util/suggest.hpp"
 #include "io/scenario_toml.hpp"
 
 namespace slipscreen::io {
 namespace {
 
 using units::Dimension;
-using stats::Distribution;
+constexpr double kInf = std::numeric_limits<double>::infinity();
+// Largest probability a distribution may put outside its quantity's physical range.
+constexpr double kOutsideLimit = 1e-9;
 
-// Best estimate as a fixed distribution, or an error naming the region value that is missing.
-Distribution fixed_or(double value, const char* what) {
-  if (std::isnan(value)) return Distribution::fixed(0.0, what);
-  return Distribution::fixed(value, what);
-}
+// The physical range of a quantity: (lo, hi] or [lo, hi] etc.
+struct Range {
+  double lo = -kInf, hi = kInf;
+  bool lo_open = false, hi_open = false;
+  const char* what = "";  // "positive values", for messages
+};
+constexpr Range kAny{};
+constexpr Range kPositive{0.0, kInf, true, false, "positive values"};
+constexpr Range kNonNegative{0.0, kInf, false, false, "values >= 0"};
+constexpr Range kPorosity{0.0, 1.0, true, false, "values in (0, 1]"};
+constexpr Range kPoisson{0.0, 0.5, true, true, "values in (0, 0.5)"};
+constexpr Range kAPhi{0.0, 3.0, false, false, "values in [0, 3]"};
 
-struct Reader {
-  const Section& sec;
-  UncertaintySpec& spec;
-  // A distribution under `key` if present, else the given fallback.
-  Distribution get(std::string_view key, Dimension d, const Distribution& fallback) {
-    const auto f = sec.find(key);
-    if (!f) return fallback;
-    const auto* s = f->node->as_string();
-    if (!s) sec.fail(key, toml_value_text(*f->node), "a distribution written as a string, e.g. \"normal(0.6, 0.05)\"");
-    try {
-      Distribution dist = stats::parse_distribution(s->get(), d, key);
-      spec.written.push_back(std::string(key) + " = " + stats::format_distribution(dist, d));
-      return dist;
-    } catch (const InputError& e) {
-      throw e.located(sec.where(*f));
-    }
-  }
+struct KeySpec {
+  std::string_view key;
+  Dimension dimension;
+  Range range;
 };
 
-std::map<std::string, Distribution> read_map(const Section& parent, std::string_view key, Dimension d,
-                                             std::string& where, std::vector<std::string>& written) {
-  std::map<std::string, Distribution> out;
-  const auto f = parent.find(key);
-  if (!f) return out;
-  const auto* t = f->node->as_table();
-  if (!t) parent.fail(key, toml_value_text(*f->node), "a table of id = \"distribution\" pairs");
-  where = parent.where(*f);
-  for (const auto& [id, node] : *t) {
-    const std::string name(id.str());
-    const auto* s = node.as_string();
-    const std::string loc = toml_where(f->layer->file, node.source());
-    if (!s) throw InputError(std::string(key) + "." + name, toml_value_text(node), "a distribution string", loc);
-    try {
-      out.emplace(name, stats::parse_distribution(s->get(), d, std::string(key) + "." + name));
-      written.push_back(std::string(key) + "." + name + " = " + stats::format_distribution(out.at(name), d));
-    } catch (const InputError& e) {
-      throw e.located(loc);
+std::string number(double v) {
+  char buf[32];
+  const auto r = std::to_chars(buf, buf + sizeof buf, v, std::chars_format::general, 3);
+  return std::string(buf, r.ptr);
+}
+
+// Reads one distribution-valued key of `section`, if present, into `spec` under `out_key`.
+void read_value(const Section& section, const KeySpec& k, const std::string& out_key, UncertaintySpec& spec) {
+  const auto f = section.find(k.key);
+  if (!f) return;
+  const std::string path = section.key_path(*f, k.key);
+  const std::string where = section.where(*f);
+  std::string text;
+  if (auto s = f->node->as_string())
+    text = s->get();
+  else if (f->node->is_number())
+    text = toml_value_text(*f->node);
+  else
+    throw InputError(path, toml_value_text(*f->node), "a value or a distribution written as a string, e.g. 'normal(0.6, 0.05)'", where);
+  std::optional<stats::Distribution> d;
+  try {
+    d = stats::parse_distribution(text, k.dimension, path);
+  } catch (const InputError& e) {
+    throw e.located(where);
+  }
+  // Physical range: a fixed value must lie inside; a distribution may put at most 1e-9 of its
+  // probability outside (so that no realization of a feasible count leaves the range).
+  const Range& r = k.range;
+  if (d->is_fixed()) {
+    const double v = d->a();
+    const bool ok = (r.lo_open ? v > r.lo : v >= r.lo) && (r.hi_open ? v < r.hi : v <= r.hi);
+    if (!ok) throw InputError(path, text, std::string("a value among ") + r.what, where);
+  } else {
+    const double below = std::isinf(r.lo) ? 0.0 : d->cdf(r.lo);
+    const double above = std::isinf(r.hi) ? 0.0 : 1.0 - d->cdf(r.hi);
+    if (below > kOutsideLimit || above > kOutsideLimit)
+      throw InputError(path, text,
+                       std::string("a distribution of ") + r.what + " (this one puts " + number(below + above) +
+                           " of its probability outside; truncnormal or lognormal keep a quantity in range)",
+                       where);
+  }
+  spec.values.push_back(UncertainValue{out_key, k.dimension, *d, text, where});
+}
+
+void read_keys(const Section& section, std::initializer_list<KeySpec> keys, const std::string& prefix,
+               UncertaintySpec& spec) {
+  for (const auto& k : keys) read_value(section, k, prefix + std::string(k.key), spec);
+}
+
+const std::initializer_list<KeySpec> kFaultKeys = {
+    {"friction", Dimension::dimensionless, kPositive},
+    {"cohesion", Dimension::pressure, kNonNegative},
+    {"strike_perturbation", Dimension::angle, kAny},
+    {"dip_perturbation", Dimension::angle, kAny},
+};
+
+std::string stress_model_name(StressModel m) {
+  switch (m) {
+    case StressModel::gradients: return "gradients";
+    case StressModel::uniaxial_strain: return "uniaxial_strain";
+    case StressModel::a_phi: return "a_phi";
+  }
+  return "?";
+}
+
+void read_stress(const Section& stress, const UncertaintyContext& ctx, UncertaintySpec& spec) {
+  struct StressKey {
+    KeySpec spec;
+    int models;  // bit mask of StressModel values where the key applies
+  };
+  constexpr int kAll = 7, kGrad = 1 << static_cast<int>(StressModel::gradients),
+                kUni = 1 << static_cast<int>(StressModel::uniaxial_strain), kAphi = 1 << static_cast<int>(StressModel::a_phi);
+  const std::vector<StressKey> keys = {
+      {{"vertical_gradient", Dimension::pressure_gradient, kPositive}, kAll},
+      {{"shmax_azimuth", Dimension::angle, kAny}, kAll},
+      {{"shmax_gradient", Dimension::pressure_gradient, kPositive}, kGrad},
+      {{"shmin_gradient", Dimension::pressure_gradient, kPositive}, kGrad},
+      {{"poisson_ratio", Dimension::dimensionless, kPoisson}, kUni},
+      {{"a_phi", Dimension::dimensionless, kAPhi}, kAphi},
+  };
+  const int model = 1 << static_cast<int>(ctx.stress_model);
+  std::vector<std::string> applicable;
+  for (const auto& k : keys)
+    if (k.models & model) applicable.emplace_back(k.spec.key);
+  std::string list;
+  for (const auto& a : applicable) list += (list.empty() ? "" : ", ") + a;
+  for (const auto& layer : stress.layers()) {
+    if (!layer.table) continue;
+    for (const auto& [name, node] : *layer.table) {
+      const auto it = std::find_if(keys.begin(), keys.end(), [&](const StressKey& k) { return k.spec.key == name.str(); });
+      const std::string path = "uncertainty.stress." + std::string(name.str());
+      const std::string where = toml_where(layer.file, node.source());
+      if (it == keys.end())
+        throw InputError(path, toml_value_text(node),
+                         "a key of [uncertainty.stress]: " + list + util::did_you_mean(name.str(), applicable), where);
+      if (!(it->models & model))
+        throw InputError(path, toml_value_text(node),
+                         "a key of the region's stress model '" + stress_model_name(ctx.stress_model) + "': " + list, where);
+      if (it->spec.key == "vertical_gradient" && ctx.density_layers)
+        throw InputError(path, toml_value_text(node),
+                         "no vertical_gradient: the region gives Sv by a density table", where);
     }
   }
-  return out;
+  for (const auto& k : keys)
+    if (k.models & model) read_value(stress, k.spec, "stress." + std::string(k.spec.key), spec);
+}
+
+// Ids of the sub-tables of [uncertainty.fault] or [uncertainty.well], each a table.
+std::vector<std::string> sub_table_ids(const Section& s, const std::string& prefix) {
+  std::vector<std::string> ids;
+  for (const auto& layer : s.layers()) {
+    if (!layer.table) continue;
+    for (const auto& [name, node] : *layer.table) {
+      if (!node.is_table())
+        throw InputError(prefix + "." + std::string(name.str()), toml_value_text(node),
+                         "a table [" + prefix + ".\"" + std::string(name.str()) + "\"]", toml_where(layer.file, node.source()));
+      ids.emplace_back(name.str());
+    }
+  }
+  return ids;
 }
 
 }  // namespace
 
-UncertaintySpec load_uncertainty(const ResolvedScenario& sc) {
+const UncertainValue* UncertaintySpec::find(std::string_view key) const {
+  for (const auto& v : values)
+    if (v.key == key) return &v;
+  return nullptr;
+}
+
+UncertaintyContext uncertainty_context(const ResolvedScenario& sc) {
+  UncertaintyContext c;
+  c.file = sc.file;
+  c.seed = sc.seed;
+  c.stress_model = sc.region.stress.model;
+  c.density_layers = !sc.region.stress.density_layers.empty();
+  c.from_transmissivity = sc.region.formation.from_transmissivity;
+  for (const auto& w : sc.wells) c.well_ids.push_back(w.id);
+  return c;
+}
+
+UncertaintySpec read_uncertainty(const toml::table* table, const UncertaintyContext& ctx) {
   UncertaintySpec spec;
-  const RegionSpec& rg = sc.region;
-  auto& m = spec.model;
+  spec.seed = ctx.seed;
+  if (!table) return spec;
+  spec.given = true;
+  const Section top({Section::Layer{table, ctx.file, "uncertainty", {}}});
+  top.allow({"realizations", "sampler", "confidence", "thresholds", "pore_pressure_gradient", "rate_factor", "stress",
+             "formation", "faults", "fault", "well"});
 
-  // Best estimates from the region (with the scenario's overrides already applied).
-  const FormationSpec& fm = rg.formation;
-  m.from_transmissivity = fm.from_transmissivity;
-  if (fm.from_transmissivity) {
-    m.transmissivity = fixed_or(fm.transmissivity, "transmissivity");
-    m.storativity = fixed_or(fm.storativity, "storativity");
-    m.fluid_density = fm.fluid_density;
-  } else {
-    m.permeability = fixed_or(fm.permeability, "permeability");
-    m.thickness = fixed_or(fm.thickness, "thickness");
-    m.porosity = fixed_or(fm.porosity, "porosity");
-    m.total_compressibility = fixed_or(fm.total_compressibility, "total_compressibility");
-    m.viscosity = fixed_or(fm.viscosity, "viscosity");
+  if (const auto n = top.optional_integer("realizations")) {
+    if (*n < 1 || *n > stats::RealizationCount::kMax)
+      top.fail("realizations", std::to_string(*n), "a whole number of realizations from 1 to 100000000");
+    spec.realizations = stats::RealizationCount(*n, "uncertainty.realizations");
   }
-  m.depth = rg.reference_depth;
-  const StressSpec& st = rg.stress;
-  double sv_gradient = st.vertical_gradient;
-  if (!st.density_layers.empty()) {  // the integrated overburden expressed as a mean gradient
-    std::vector<geomech::DensityLayer> layers;
-    for (const auto& l : st.density_layers) layers.push_back({l.top, l.density});
-    sv_gradient = geomech::vertical_stress_from_layers(layers, rg.reference_depth) / rg.reference_depth;
-  }
-  m.vertical_gradient = fixed_or(sv_gradient, "vertical_gradient");
-  m.pore_pressure_gradient = fixed_or(rg.pore_pressure_gradient, "pore_pressure_gradient");
-  m.shmax_azimuth = fixed_or(st.shmax_azimuth, "shmax_azimuth");
-  switch (st.model) {
-    case StressModel::gradients:
-      m.model = probabilistic::HorizontalStressModel::gradients;
-      m.shmax_gradient = fixed_or(st.shmax_gradient, "shmax_gradient");
-      m.shmin_gradient = fixed_or(st.shmin_gradient, "shmin_gradient");
-      break;
-    case StressModel::uniaxial_strain:
-      m.model = probabilistic::HorizontalStressModel::uniaxial_strain;
-      m.poisson_ratio = fixed_or(st.poisson_ratio, "poisson_ratio");
-      m.uniaxial.biot = st.biot;
-      m.uniaxial.young = st.young_modulus;
-      m.uniaxial.strain_h = st.strain_shmin;
-      m.uniaxial.strain_H = st.strain_shmax;
-      m.uniaxial.tectonic_h = st.tectonic_shmin;
-      m.uniaxial.tectonic_H = st.tectonic_shmax;
-      break;
-    case StressModel::a_phi:
-      m.model = probabilistic::HorizontalStressModel::a_phi;
-      m.a_phi = fixed_or(st.a_phi, "a_phi");
-      if (!std::isnan(st.equilibrium_friction)) m.equilibrium_friction = st.equilibrium_friction;
-      break;
-  }
-  m.friction = Distribution::fixed(rg.faults.friction, "friction");
-  m.cohesion = Distribution::fixed(rg.faults.cohesion, "cohesion");
-
-  if (!sc.uncertainty) return spec;
-  spec.enabled = true;
-  const Section sec({Section::Layer{sc.uncertainty, sc.file, "uncertainty", sc.path.parent_path()}});
-  sec.allow({"realizations", "sampler", "thresholds", "permeability", "thickness", "porosity",
-             "total_compressibility", "viscosity", "transmissivity", "storativity", "vertical_gradient",
-             "pore_pressure_gradient", "shmax_azimuth", "shmax_gradient", "shmin_gradient", "a_phi",
-             "poisson_ratio", "friction", "cohesion", "strike_perturbation", "dip_perturbation", "rate_factor",
-             "fault_friction", "well_rate_factor", "maps"});
-  const std::int64_t n = sec.has("realizations") ? sec.integer("realizations") : 1000;
-  try {
-    spec.realizations = stats::RealizationCount(n, "uncertainty.realizations").value();
-  } catch (const InputError& e) {
-    throw e.located(sec.where(*sec.find("realizations")));
-  }
-  if (const auto s = sec.optional_string("sampler")) {
+  if (const auto s = top.optional_string("sampler")) {
     try {
-      spec.method = stats::parse_sampling_method(*s, "uncertainty.sampler");
+      spec.sampler = stats::parse_sampling_method(*s, "uncertainty.sampler");
     } catch (const InputError& e) {
-      throw e.located(sec.where(*sec.find("sampler")));
+      throw e.located(top.where(*top.find("sampler")));
     }
   }
-  if (const auto f = sec.find("thresholds")) {
-    const auto* arr = f->node->as_array();
-    if (!arr) sec.fail("thresholds", toml_value_text(*f->node), "an array of probabilities, e.g. [0.1, 0.5]");
-    for (const auto& v : *arr) {
-      const auto p = v.value<double>();
-      if (!p || !(*p > 0.0 && *p < 1.0) || (!spec.thresholds.empty() && !(*p > spec.thresholds.back())))
-        sec.fail("thresholds", toml_value_text(v), "increasing probabilities strictly between 0 and 1");
-      spec.thresholds.push_back(*p);
+  if (top.has("confidence")) {
+    spec.confidence = top.quantity("confidence", Dimension::dimensionless);
+    if (!(spec.confidence > 0.0 && spec.confidence < 1.0))
+      top.fail("confidence", toml_value_text(*top.find("confidence")->node), "a level between 0 and 1, such as 0.95");
+  }
+  if (const auto f = top.find("thresholds")) {
+    spec.thresholds.clear();
+    const auto take = [&](const toml::node& n) {
+      const auto v = n.value<double>();
+      if (!n.is_number() || !v || !(*v > 0.0 && *v < 1.0))
+        throw InputError("uncertainty.thresholds", toml_value_text(n), "probabilities between 0 and 1, such as [0.05, 0.2]",
+                         toml_where(ctx.file, n.source()));
+      spec.thresholds.push_back(*v);
+    };
+    if (const auto* arr = f->node->as_array()) {
+      for (const auto& n : *arr) take(n);
+    } else {
+      take(*f->node);
     }
-  } else {
-    spec.thresholds = {0.1};
+    std::sort(spec.thresholds.begin(), spec.thresholds.end());
+    spec.thresholds.erase(std::unique(spec.thresholds.begin(), spec.thresholds.end()), spec.thresholds.end());
+    if (spec.thresholds.empty())
+      top.fail("thresholds", "[]", "at least one probability, such as [0.05]");
   }
 
-  Reader r{sec, spec};
-  if (m.from_transmissivity) {
-    for (const char* k : {"permeability", "thickness", "porosity", "total_compressibility", "viscosity"})
-      if (sec.has(k))
-        sec.fail(k, "(given)", "transmissivity and storativity: this region's formation is given as (T, S)");
-    m.transmissivity = r.get("transmissivity", Dimension::diffusivity, m.transmissivity);
-    m.storativity = r.get("storativity", Dimension::dimensionless, m.storativity);
-  } else {
-    for (const char* k : {"transmissivity", "storativity"})
-      if (sec.has(k)) sec.fail(k, "(given)", "permeability, thickness, porosity, total_compressibility or viscosity: "
-                                             "this region's formation is given as (k, h, phi, c_t, mu)");
-    m.permeability = r.get("permeability", Dimension::permeability, m.permeability);
-    m.thickness = r.get("thickness", Dimension::length, m.thickness);
-    m.porosity = r.get("porosity", Dimension::dimensionless, m.porosity);
-    m.total_compressibility = r.get("total_compressibility", Dimension::compressibility, m.total_compressibility);
-    m.viscosity = r.get("viscosity", Dimension::viscosity, m.viscosity);
-  }
-  m.vertical_gradient = r.get("vertical_gradient", Dimension::pressure_gradient, m.vertical_gradient);
-  m.pore_pressure_gradient = r.get("pore_pressure_gradient", Dimension::pressure_gradient, m.pore_pressure_gradient);
-  m.shmax_azimuth = r.get("shmax_azimuth", Dimension::angle, m.shmax_azimuth);
-  const auto only_for = [&](const char* key, StressModel model, const char* name) {
-    if (sec.has(key) && st.model != model)
-      sec.fail(key, "(given)", std::string("an input of the region's stress model; '") + key + "' belongs to the " +
-                                   name + " model");
-  };
-  only_for("shmax_gradient", StressModel::gradients, "gradients");
-  only_for("shmin_gradient", StressModel::gradients, "gradients");
-  only_for("poisson_ratio", StressModel::uniaxial_strain, "uniaxial-strain");
-  only_for("a_phi", StressModel::a_phi, "A_phi");
-  m.shmax_gradient = r.get("shmax_gradient", Dimension::pressure_gradient, m.shmax_gradient);
-  m.shmin_gradient = r.get("shmin_gradient", Dimension::pressure_gradient, m.shmin_gradient);
-  m.poisson_ratio = r.get("poisson_ratio", Dimension::dimensionless, m.poisson_ratio);
-  m.a_phi = r.get("a_phi", Dimension::dimensionless, m.a_phi);
-  m.friction = r.get("friction", Dimension::dimensionless, m.friction);
-  m.cohesion = r.get("cohesion", Dimension::pressure, m.cohesion);
-  m.strike_perturbation = r.get("strike_perturbation", Dimension::angle, m.strike_perturbation);
-  m.dip_perturbation = r.get("dip_perturbation", Dimension::angle, m.dip_perturbation);
-  m.rate_factor = r.get("rate_factor", Dimension::dimensionless, m.rate_factor);
-  spec.fault_friction = read_map(sec, "fault_friction", Dimension::dimensionless, spec.fault_friction_where, spec.written);
-  spec.well_rate_factor =
-      read_map(sec, "well_rate_factor", Dimension::dimensionless, spec.well_rate_factor_where, spec.written);
+  read_keys(top, {{"pore_pressure_gradient", Dimension::pressure_gradient, kPositive},
+                  {"rate_factor", Dimension::dimensionless, kNonNegative}},
+            "", spec);
+  read_stress(top.child("stress"), ctx, spec);
 
-  const Section maps = sec.child("maps");
-  maps.allow({"cell_size", "strike", "dip"});
-  spec.map_cell_size = maps.quantity_or("cell_size", Dimension::length, 0.0);
-  if (maps.has("strike") != maps.has("dip"))
-    maps.fail(maps.has("strike") ? "dip" : "strike", "(missing)", "both strike and dip of the map orientation");
-  if (maps.has("strike")) {
-    spec.map_strike = maps.quantity("strike", Dimension::angle);
-    spec.map_dip = maps.quantity("dip", Dimension::angle);
-    if (!(*spec.map_dip >= 0.0 && *spec.map_dip <= 1.5707963267948966 + 1e-12))
-      maps.fail("dip", std::to_string(*spec.map_dip * 57.29577951308232) + " deg", "a dip from 0 to 90 deg");
+  const Section formation = top.child("formation");
+  const std::initializer_list<std::string_view> k_form = {"permeability", "thickness", "porosity",
+                                                          "total_compressibility", "viscosity"};
+  const std::initializer_list<std::string_view> t_form = {"transmissivity", "storativity"};
+  formation.allow(ctx.from_transmissivity ? t_form : k_form);
+  if (ctx.from_transmissivity)
+    read_keys(formation, {{"transmissivity", Dimension::diffusivity, kPositive},
+                          {"storativity", Dimension::dimensionless, kPositive}},
+              "formation.", spec);
+  else
+    read_keys(formation, {{"permeability", Dimension::permeability, kPositive},
+                          {"thickness", Dimension::length, kPositive},
+                          {"porosity", Dimension::dimensionless, kPorosity},
+                          {"total_compressibility", Dimension::compressibility, kPositive},
+                          {"viscosity", Dimension::viscosity, kPositive}},
+              "formation.", spec);
+
+  const Section faults = top.child("faults");
+  faults.allow({"friction", "cohesion", "strike_perturbation", "dip_perturbation"});
+  read_keys(faults, kFaultKeys, "faults.", spec);
+
+  const Section fault = top.child("fault");
+  for (const auto& id : sub_table_ids(fault, "uncertainty.fault")) {
+    const Section one = fault.child(id);
+    one.allow({"friction"});  // per fault: friction only (the driver's per-fault input)
+    read_keys(one, {{"friction", Dimension::dimensionless, kPositive}}, "fault." + id + ".", spec);
+    spec.fault_ids.push_back(id);
   }
-  if (spec.map_cell_size < 0.0) maps.fail("cell_size", std::to_string(spec.map_cell_size), "a cell size > 0");
+
+  const Section well = top.child("well");
+  for (const auto& id : sub_table_ids(well, "uncertainty.well")) {
+    if (std::find(ctx.well_ids.begin(), ctx.well_ids.end(), id) == ctx.well_ids.end())
+      throw InputError("uncertainty.well", id,
+                       "the id of a well of the scenario" + util::did_you_mean(id, ctx.well_ids),
+                       toml_where(ctx.file, well.layers().front().table->get(id)->source()));
+    const Section one = well.child(id);
+    one.allow({"rate_factor"});
+    read_keys(one, {{"rate_factor", Dimension::dimensionless, kNonNegative}}, "well." + id + ".", spec);
+  }
+
+  std::sort(spec.values.begin(), spec.values.end(), [](const UncertainValue& a, const UncertainValue& b) { return a.key < b.key; });
   return spec;
 }
 
-nlohmann::json to_json(const UncertaintySpec& u) {
-  nlohmann::json j;
-  j["enabled"] = u.enabled;
-  if (!u.enabled) return j;
-  j["realizations"] = u.realizations;
-  j["sampler"] = std::string(stats::sampling_method_name(u.method));
-  j["thresholds"] = u.thresholds;
-  j["distributions_SI"] = u.written;
-  j["map_cell_size_m"] = u.map_cell_size;
-  if (u.map_strike) {
-    j["map_strike_rad"] = *u.map_strike;
-    j["map_dip_rad"] = *u.map_dip;
+UncertaintySpec load_uncertainty(const ResolvedScenario& scenario) {
+  return read_uncertainty(scenario.uncertainty, uncertainty_context(scenario));
+}
+
+void check_fault_ids(const UncertaintySpec& spec, const std::vector<std::string>& fault_ids) {
+  for (const auto& id : spec.fault_ids) {
+    if (std::find(fault_ids.begin(), fault_ids.end(), id) != fault_ids.end()) continue;
+    std::string where;
+    for (const auto& v : spec.values)
+      if (v.key.rfind("fault." + id + ".", 0) == 0) where = v.where;
+    throw InputError("uncertainty.fault", id, "the id of a fault of the fault map" + util::did_you_mean(id, fault_ids), where);
   }
-  return j;
+}
+
+nlohmann::json to_json(const UncertaintySpec& spec) {
+  nlohmann::json inputs = nlohmann::json::array();
+  for (const auto& v : spec.values)
+    inputs.push_back({{"key", v.key},
+                      {"written", v.text},
+                      {"distribution_si", stats::format_distribution(v.distribution, v.dimension)}});
+  return {{"given", spec.given},
+          {"sampler", std::string(stats::sampling_method_name(spec.sampler))},
+          {"seed", spec.seed},
+          {"realizations", spec.realizations.value()},
+          {"stream", std::string(stats::kStreamVersion)},
+          {"confidence", spec.confidence},
+          {"thresholds", spec.thresholds},
+          {"inputs", inputs}};
 }
 
 }  // namespace slipscreen::io

@@ -92,6 +92,13 @@ double WellSpec::volume_until(double t) const {
   return v;
 }
 
+double WellSpec::reported_volume_until(double t) const {
+  double v = 0;
+  for (const auto& p : periods)
+    if (p.start < t && !p.assumed) v += p.rate * (std::min(t, p.end) - p.start);
+  return v;
+}
+
 std::vector<WellSpec> read_wells(const CsvTable& t, const std::string& scenario_crs) {
   const std::size_t c_id = need_column(t, "id", {"well", "well_id"});
   const bool lonlat = t.column("lon").has_value() || t.column("lat").has_value();
@@ -206,6 +213,27 @@ void read_histories(const CsvTable& t, std::vector<WellSpec>& wells) {
     it->second->periods.push_back(p);
   }
   for (auto& w : wells) check_periods(w);
+}
+
+void continue_active_wells(std::vector<WellSpec>& wells, double until, const std::string& where) {
+  for (auto& w : wells) {
+    if (w.status != WellStatus::active || w.periods.empty() || !(w.periods.back().end < until)) continue;
+    const double end = w.periods.back().end;
+    const double from = util::to_seconds(util::add_months(util::date_at(end), -12));
+    double volume = 0;
+    for (const auto& p : w.periods) {
+      const double a = std::max(p.start, from), b = p.end;
+      if (b > a) volume += p.rate * (b - a);
+    }
+    const double duration = end - std::max(from, w.periods.front().start);  // gaps count as zero
+    RatePeriod p;
+    p.start = end;
+    p.end = until;
+    p.rate = duration > 0 ? volume / duration : 0.0;
+    p.source = where + " (continued at the mean rate of the last 12 reported months)";
+    p.assumed = true;
+    w.periods.push_back(p);
+  }
 }
 
 RatePeriod parse_schedule_entry(std::string_view text, const std::string& where, const std::string& field) {

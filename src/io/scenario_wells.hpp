@@ -25,6 +25,11 @@ void read_histories(const CsvTable& table, std::vector<WellSpec>& wells);
 // One planned-schedule entry "<rate> from <date> to <date>". `where` names its place.
 RatePeriod parse_schedule_entry(std::string_view text, const std::string& where, const std::string& field);
 
+// Active wells (status active, with a history) continue after their last reported period at
+// the mean rate of their last 12 reported months (or fewer, if the history is shorter), until
+// `until` (s). Wells whose history already reaches `until` are unchanged.
+void continue_active_wells(std::vector<WellSpec>& wells, double until, const std::string& where);
+
 // Sorts a well's periods and refuses overlaps (naming both sources).
 void check_periods(WellSpec& well);
 

@@ -81,3 +81,10 @@ TEST_CASE("header problems and missing files") {
   CHECK(r.records == 0);
   CHECK(r.catalog.events.empty());
 }
+
+TEST_CASE("a UTF-8 byte-order mark before the first line is ignored") {
+  const auto r = io::read_catalog_csv(kDir + "bom_latin1.csv", io::CatalogColumns{});
+  CHECK(r.rejected.empty());
+  CHECK(r.catalog.events.size() == 2);
+  CHECK(r.catalog.description.find("Fictional") != std::string::npos);
+}

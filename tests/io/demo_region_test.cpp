@@ -9,19 +9,12 @@
 #include <sstream>
 
 #include "io/scenario.hpp"
+#include "scenario_fixture.hpp"
 
 namespace fs = std::filesystem;
 using namespace slipscreen;
 using namespace slipscreen::io;
-
-namespace {
-std::string slurp(const fs::path& p) {
-  std::ifstream in(p, std::ios::binary);
-  std::ostringstream ss;
-  ss << in.rdbuf();
-  return ss.str();
-}
-}  // namespace
+using slipscreen::test::slurp;
 
 TEST_CASE("demo scenario: at least 12 wells with 8-15 years of monthly volumes, several shut in, one proposed") {
   const fs::path dir = fs::path(SLIPSCREEN_SOURCE_DIR) / "regions/marrowick";
@@ -60,7 +53,7 @@ TEST_CASE("tools/make-demo-region.py regenerates the committed files byte for by
   const fs::path out = fs::temp_directory_path() / "slipscreen-demo-region-check";
   fs::remove_all(out);
   const std::string cmd = "/usr/bin/python3 '" + (fs::path(SLIPSCREEN_SOURCE_DIR) / "tools/make-demo-region.py").string() +
-                          "' --no-preview '" + out.string() + "'";
+                          "' '" + out.string() + "'";
   REQUIRE(std::system(cmd.c_str()) == 0);
   const fs::path dir = fs::path(SLIPSCREEN_SOURCE_DIR) / "regions/marrowick";
   std::set<std::string> names;

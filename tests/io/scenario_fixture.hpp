@@ -4,37 +4,32 @@
 
 #include <filesystem>
 #include <fstream>
-#include <random>
 #include <sstream>
 #include <string>
 
+#include "temp_dir.hpp"
+
 namespace slipscreen::test {
+
+// The bytes of a file ("" when it cannot be read).
+inline std::string slurp(const std::filesystem::path& p) {
+  std::ifstream in(p, std::ios::binary);
+  std::ostringstream ss;
+  ss << in.rdbuf();
+  return ss.str();
+}
 
 class TinyScenario {
  public:
-  TinyScenario() {
-    std::random_device rd;
-    dir_ = std::filesystem::temp_directory_path() / ("slipscreen-tiny-" + std::to_string(rd()) + std::to_string(rd()));
-    std::filesystem::create_directories(dir_);
+  TinyScenario() : temp_("tiny"), dir_(temp_.path()) {
     std::filesystem::copy(std::filesystem::path(SLIPSCREEN_TEST_DATA) / "scenario/tiny", dir_,
                           std::filesystem::copy_options::recursive);
   }
-  ~TinyScenario() {
-    std::error_code ec;
-    std::filesystem::remove_all(dir_, ec);
-  }
-  TinyScenario(const TinyScenario&) = delete;
-  TinyScenario& operator=(const TinyScenario&) = delete;
 
   const std::filesystem::path& dir() const { return dir_; }
   std::filesystem::path scenario() const { return dir_ / "scenario.toml"; }
 
-  std::string read(const std::string& name) const {
-    std::ifstream in(dir_ / name, std::ios::binary);
-    std::ostringstream ss;
-    ss << in.rdbuf();
-    return ss.str();
-  }
+  std::string read(const std::string& name) const { return slurp(dir_ / name); }
   void write(const std::string& name, const std::string& text) const {
     std::ofstream(dir_ / name, std::ios::binary) << text;
   }
@@ -49,6 +44,7 @@ class TinyScenario {
   void append(const std::string& name, const std::string& text) const { write(name, read(name) + text); }
 
  private:
+  TempDir temp_;
   std::filesystem::path dir_;
 };
 

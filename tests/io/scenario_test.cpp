@@ -133,6 +133,22 @@ TEST_CASE("the three stress forms and transmissivity-storativity") {
   CHECK(std::abs(sh.region.formation.mobility_thickness() - 0.02 / (1000 * 9.80665)) < 1e-18);  // T/(rho g)
 }
 
+TEST_CASE("active wells may continue at the mean rate of their last reported months") {
+  TinyScenario t;
+  t.replace("scenario.toml", "file = \"histories.csv\"", "file = \"histories.csv\"\ncontinue_active_until = \"2020-06-01\"");
+  const auto s = load_scenario(t.scenario());
+  const WellSpec& w1 = s.wells[0];  // active, reported January to March 2020
+  REQUIRE(w1.periods.size() == 4);
+  const RatePeriod& c = w1.periods.back();
+  CHECK(c.assumed);
+  CHECK(c.start == util::to_seconds({2020, 4, 1}));
+  CHECK(c.end == util::to_seconds({2020, 6, 1}));
+  // Fewer than 12 months reported: the mean over the 91 days from 2020-01-01 to 2020-04-01.
+  CHECK(std::abs(c.rate - 890000 * kBbl / (91 * 86400.0)) < 1e-15);
+  CHECK(std::abs(w1.reported_volume_until(util::to_seconds({2030, 1, 1})) - 890000 * kBbl) < 1e-6);
+  CHECK(s.wells[1].periods.size() == 2);  // W2 is shut in: not continued
+}
+
 // Each bad input gets its own message naming file, place, key or field, value and expectation.
 TEST_CASE("misspelt keys name the file, line, key path and the nearest valid key") {
   TinyScenario t;
@@ -242,11 +258,14 @@ TEST_CASE("output paths that escape the run folder are refused") {
   TinyScenario t;
   t.replace("scenario.toml", "cog = false", "cog = false\n[output.files]\nsegments = \"../../escape.csv\"");
   CHECK_THROWS_WITH_AS(load_scenario(t.scenario()),
-                       doctest::Contains("key 'output.files.segments' = '../../escape.csv': refused"), RefusedError);
+                       doctest::Contains("scenario.toml line 30, column 12: refused: key output.files.segments = '../../escape.csv': a '..' component leaves the run folder"), RefusedError);
   TinyScenario a;
   a.replace("scenario.toml", "folder = \"runs/tiny\"", "folder = \"/tmp/elsewhere\"");
   CHECK_THROWS_AS(load_scenario(a.scenario()), RefusedError);
   TinyScenario v;
   v.replace("scenario.toml", "cog = false", "cog = false\n[output.files]\ngeopackage = \"/vsizip/x.zip/a.gpkg\"");
   CHECK_THROWS_AS(load_scenario(v.scenario()), RefusedError);
+  TinyScenario n;
+  n.replace("scenario.toml", "file = \"wells.csv\"", "file = \"/vsicurl/https://example.invalid/wells.csv\"");
+  CHECK_THROWS_WITH_AS(load_scenario(n.scenario()), doctest::Contains("scenario inputs are local files"), RefusedError);
 }

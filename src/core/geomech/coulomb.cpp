@@ -44,42 +44,8 @@ Eigen::Matrix3d poroelastic_stress_change(double kappa, double dp) {
 }
 
 double critical_pressure_path_root(double tau0, double ab, double bb, double g0, double g1) {
-  constexpr double inf = std::numeric_limits<double>::infinity();
-  const double cff0 = tau0 - g0;
-  // For large Δp, CFF grows at |b| − g1 = |b| + μ (1 − κ sin²δ) per unit Δp. Below 1e-12 the
-  // plane never reaches failure by raising the pressure (κ = 1 on a vertical plane, say).
-  if (cff0 < 0.0 && std::sqrt(bb) - g1 <= 1e-12) return inf;
-  // |a + b x|² = (g0 + g1 x)²  ⇔  A x² + 2 B x + C = 0
-  const double A = bb - g1 * g1;
-  const double B = ab - g0 * g1;
-  const double C = cff0 * (tau0 + g0);  // = τ0² − g0², without cancellation
-  double roots[2];
-  int count = 0;
-  const double scale = std::fabs(bb) + g1 * g1;
-  if (std::fabs(A) <= 1e-14 * scale) {  // linear
-    if (B != 0.0) roots[count++] = -C / (2.0 * B);
-  } else {
-    double disc = B * B - A * C;
-    if (disc < 0.0 && disc > -1e-12 * B * B) disc = 0.0;
-    if (disc >= 0.0) {
-      const double q = -(B + std::copysign(std::sqrt(disc), B));
-      if (q != 0.0) {
-        roots[count++] = q / A;
-        roots[count++] = C / q;
-      } else {
-        roots[count++] = 0.0;  // B = 0 and disc = 0 ⇒ C = 0
-      }
-    }
-  }
-  const bool rising = cff0 < 0.0;
-  double best = rising ? inf : -inf;
-  for (int i = 0; i < count; ++i) {
-    const double x = roots[i];
-    const double g = g0 + g1 * x;
-    if (g < -1e-9 * (std::fabs(g0) + std::fabs(g1 * x))) continue;  // spurious: |a+bx| = −g
-    if (rising ? (x > 0.0 && x < best) : (x <= 0.0 && x > best)) best = x;
-  }
-  return best;
+  const PathQuadratic q = path_quadratic(tau0, ab, bb, g0, g1);
+  return path_root_select(tau0, bb, g0, g1, q, std::sqrt(bb), std::sqrt(std::fmax(q.disc, 0.0)));
 }
 
 CriticalPressure critical_pressure_poroelastic(const Eigen::Matrix3d& stress, double p0, const Eigen::Vector3d& n_in,
@@ -102,6 +68,12 @@ CriticalPressure critical_pressure_poroelastic(const Eigen::Matrix3d& stress, do
   const double g1 = f.mu * (beta_n - 1.0);
   const double dp = critical_pressure_path_root(a.norm(), a.dot(b), b.squaredNorm(), g0, g1);
   return {dp, status_of(dp)};
+}
+
+double opening_pressure(const AndersonianStress& s, double kappa) {
+  const double vertical = s.sv - s.pore_pressure;  // Δσv = 0
+  const double horizontal = kappa < 1.0 ? (s.shmin - s.pore_pressure) / (1.0 - kappa) : INFINITY;
+  return std::fmin(vertical, horizontal);
 }
 
 double coulomb_failure_function_after(const Eigen::Matrix3d& stress, double p0, const Eigen::Vector3d& n,

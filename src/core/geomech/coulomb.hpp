@@ -28,6 +28,8 @@
 #include <cmath>
 #include <limits>
 
+#include "core/geomech/stress_state.hpp"
+
 namespace slipscreen::geomech {
 
 struct Friction {
@@ -87,10 +89,62 @@ Eigen::Matrix3d poroelastic_stress_change(double kappa, double dp);
 // digits, ~1e-8 relative).
 double critical_pressure_path_root(double tau0, double ab, double bb, double g0, double g1);
 
+// The pieces of critical_pressure_path_root, inline and free of branches so the batched kernel
+// vectorises them with its square roots taken in separate passes:
+//   |a + b x|² = (g0 + g1 x)²  ⇔  A x² + 2 B x + C = 0, disc = B² − A C.
+struct PathQuadratic {
+  double a, b, c;  // A, B, C
+  double disc;     // B² − A C; rounding noise below 1e-12 B² set to 0; < 0: no real root
+};
+
+inline PathQuadratic path_quadratic(double tau0, double ab, double bb, double g0, double g1) {
+  PathQuadratic q;
+  q.a = bb - g1 * g1;
+  q.b = ab - g0 * g1;
+  q.c = (tau0 - g0) * (tau0 + g0);  // τ0² − g0² without cancellation
+  const double d = q.b * q.b - q.a * q.c;
+  q.disc = ((d < 0.0) & (d > -1e-12 * q.b * q.b)) ? 0.0 : d;  // & not &&: no branch
+  return q;
+}
+
+// Picks the root (see critical_pressure_path_root) given sqrt_bb = √bb and
+// sqrt_disc = √max(disc, 0). Every division is evaluated and the unused ones discarded, so a
+// division by zero here is harmless (IEEE, no trap).
+inline double path_root_select(double tau0, double bb, double g0, double g1, const PathQuadratic& q,
+                               double sqrt_bb, double sqrt_disc) {
+  constexpr double inf = std::numeric_limits<double>::infinity();
+  constexpr double nan = std::numeric_limits<double>::quiet_NaN();
+  const bool rising = tau0 - g0 < 0.0;
+  const bool linear = std::fabs(q.a) <= 1e-14 * (bb + g1 * g1);
+  const bool real = q.disc >= 0.0;
+  const double qq = -(q.b + std::copysign(sqrt_disc, q.b));
+  const double lin = -q.c / (2.0 * q.b), big = qq / q.a, small = q.c / qq;
+  const double r1 = linear ? (q.b != 0.0 ? lin : nan) : (real ? (qq != 0.0 ? big : 0.0) : nan);
+  const double r2 = (!linear & real & (qq != 0.0)) ? small : nan;
+  // A root is kept where g(x) = g0 + g1 x ≥ 0 (the others solve |a+bx| = −g) and on the side
+  // the state lies: x > 0 when CFF(0) < 0, x ≤ 0 otherwise. NaN fails every comparison.
+  const double g_1 = g0 + g1 * r1, g_2 = g0 + g1 * r2;
+  const bool ok1 = (g_1 >= -1e-9 * (std::fabs(g0) + std::fabs(g1 * r1))) & (rising ? r1 > 0.0 : r1 <= 0.0);
+  const bool ok2 = (g_2 >= -1e-9 * (std::fabs(g0) + std::fabs(g1 * r2))) & (rising ? r2 > 0.0 : r2 <= 0.0);
+  double best = rising ? inf : -inf;
+  best = (ok1 & (rising ? r1 < best : r1 > best)) ? r1 : best;
+  best = (ok2 & (rising ? r2 < best : r2 > best)) ? r2 : best;
+  // For large Δp, CFF grows at |b| − g1 = |b| + μ (1 − κ sin²δ) per unit Δp; below 1e-12 the
+  // plane never reaches failure by raising the pressure (κ = 1 on a vertical plane, say).
+  return (rising & (sqrt_bb - g1 <= 1e-12)) ? inf : best;
+}
+
 // Δp_crit along the poroelastic path for the plane with unit normal n (either sign),
 // by critical_pressure_path_root. κ = 0 gives the closed form exactly.
 CriticalPressure critical_pressure_poroelastic(const Eigen::Matrix3d& stress, double p0, const Eigen::Vector3d& n,
                                                const Friction& f, double kappa);
+
+// The pore-pressure increase at which the least effective principal stress of an Andersonian
+// state reaches zero, with the horizontal stresses rising by κ Δp (κ = 0: no stress path):
+// min(Sv − p0, (Shmin − p0)/(1 − κ)). Beyond it tensile opening (hydraulic fracturing) comes
+// before shear failure and the Coulomb screen no longer applies (Hubbert & Willis 1957; common
+// practice). Exact; always finite (Sv − p0 bounds it).
+double opening_pressure(const AndersonianStress& s, double kappa);
 
 // CFF recomputed from scratch after a pressure change Δp with the stress S + ΔS(κ, Δp) and
 // pressure p0 + Δp (the check that Δp_crit is a root).

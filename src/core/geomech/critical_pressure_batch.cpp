@@ -1,5 +1,6 @@
 #include "core/geomech/critical_pressure_batch.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <string>
 
@@ -36,25 +37,77 @@ inline double one(double nx, double ny, double nz, const State& s) {
   return critical_pressure_closed_form(tau, t.sn, s.p0, s.mu, s.c);
 }
 
-// The exact poroelastic root (κ > 0), as critical_pressure_poroelastic computes it.
-inline double one_path(double nx, double ny, double nz, const State& s) {
+// The path inputs of one plane (κ > 0): τ0², a·b, |b|², g0, g1 (see coulomb.hpp).
+struct PathInputs {
+  double tau2, ab, bb, g0, g1;
+};
+
+inline PathInputs path_inputs(double nx, double ny, double nz, const State& s) {
   const Traction t = traction(nx, ny, nz, s);
   const double beta_n = s.kappa * (nx * nx + ny * ny);
   const double bx = s.kappa * nx - beta_n * nx, by = s.kappa * ny - beta_n * ny, bz = -beta_n * nz;
-  const double g0 = s.mu * (t.sn - s.p0) + s.c;
-  const double g1 = s.mu * (beta_n - 1.0);
-  return critical_pressure_path_root(std::sqrt(t.ax * t.ax + t.ay * t.ay + t.az * t.az),
-                                     t.ax * bx + t.ay * by + t.az * bz, bx * bx + by * by + bz * bz, g0, g1);
+  return {t.ax * t.ax + t.ay * t.ay + t.az * t.az, t.ax * bx + t.ay * by + t.az * bz, bx * bx + by * by + bz * bz,
+          s.mu * (t.sn - s.p0) + s.c, s.mu * (beta_n - 1.0)};
 }
 
+// The exact poroelastic root (κ > 0), as critical_pressure_poroelastic computes it.
+inline double one_path(double nx, double ny, double nz, const State& s) {
+  const PathInputs in = path_inputs(nx, ny, nz, s);
+  return critical_pressure_path_root(std::sqrt(in.tau2), in.ab, in.bb, in.g0, in.g1);
+}
+
+// The closed form over one row of planes, in blocks that stay in L1: loop 1 (traction, τ²) and
+// loop 3 (Δp_crit) vectorise in the AVX2 or SSE2 clone; the square roots go through Eigen's
+// array sqrt (packet instructions), because std::sqrt's errno branch stops GCC vectorising a
+// loop unless -fno-math-errno is set for the whole file.
 __attribute__((target_clones("avx2", "default")))
 void row_plain(const double* __restrict nx, const double* __restrict ny, const double* __restrict nz,
                std::size_t m, State s, double* __restrict out) {
-  for (std::size_t i = 0; i < m; ++i) out[i] = one(nx[i], ny[i], nz[i], s);
+  constexpr std::size_t kBlock = 256;
+  alignas(64) double tau[kBlock];
+  alignas(64) double sn_eff[kBlock];
+  for (std::size_t b = 0; b < m; b += kBlock) {
+    const std::size_t n = std::min(kBlock, m - b);
+    for (std::size_t i = 0; i < n; ++i) {
+      const Traction t = traction(nx[b + i], ny[b + i], nz[b + i], s);
+      tau[i] = t.ax * t.ax + t.ay * t.ay + t.az * t.az;
+      sn_eff[i] = t.sn - s.p0;
+    }
+    Eigen::Map<Eigen::ArrayXd> tau_block(tau, static_cast<Eigen::Index>(n));
+    tau_block = tau_block.sqrt();
+    for (std::size_t i = 0; i < n; ++i) out[b + i] = sn_eff[i] - (tau[i] - s.c) / s.mu;  // Hubbert & Rubey (1959)
+  }
 }
 
-void row_path(const double* nx, const double* ny, const double* nz, std::size_t m, State s, double* out) {
-  for (std::size_t i = 0; i < m; ++i) out[i] = one_path(nx[i], ny[i], nz[i], s);
+// The poroelastic path over one row, blocked like row_plain: three Eigen square-root passes
+// (τ0, √|b|², √disc) between branch-free loops.
+__attribute__((target_clones("avx2", "default")))
+void row_path(const double* __restrict nx, const double* __restrict ny, const double* __restrict nz,
+              std::size_t m, State s, double* __restrict out) {
+  constexpr std::size_t kBlock = 256;
+  alignas(64) double tau[kBlock], ab[kBlock], bb[kBlock], g0[kBlock], g1[kBlock], sbb[kBlock], sd[kBlock];
+  for (std::size_t b = 0; b < m; b += kBlock) {
+    const std::size_t n = std::min(kBlock, m - b);
+    const auto en = static_cast<Eigen::Index>(n);
+    for (std::size_t i = 0; i < n; ++i) {
+      const PathInputs in = path_inputs(nx[b + i], ny[b + i], nz[b + i], s);
+      tau[i] = in.tau2;
+      ab[i] = in.ab;
+      bb[i] = in.bb;
+      g0[i] = in.g0;
+      g1[i] = in.g1;
+    }
+    Eigen::Map<Eigen::ArrayXd>(tau, en) = Eigen::Map<Eigen::ArrayXd>(tau, en).sqrt();
+    Eigen::Map<Eigen::ArrayXd>(sbb, en) = Eigen::Map<Eigen::ArrayXd>(bb, en).sqrt();
+    for (std::size_t i = 0; i < n; ++i) {
+      const double d = path_quadratic(tau[i], ab[i], bb[i], g0[i], g1[i]).disc;
+      sd[i] = d > 0.0 ? d : 0.0;
+    }
+    Eigen::Map<Eigen::ArrayXd>(sd, en) = Eigen::Map<Eigen::ArrayXd>(sd, en).sqrt();
+    for (std::size_t i = 0; i < n; ++i)
+      out[b + i] = path_root_select(tau[i], bb[i], g0[i], g1[i], path_quadratic(tau[i], ab[i], bb[i], g0[i], g1[i]),
+                                    sbb[i], sd[i]);
+  }
 }
 
 void check_sizes(const PlaneBatch& p, const StressBatch& s, std::size_t out, std::size_t expected) {

@@ -5,8 +5,10 @@
 // poroelastic root when κ > 0), evaluated on structure-of-arrays inputs with plain loops the
 // compiler vectorises (GCC target_clones: AVX2 where the CPU has it, SSE2 otherwise) and OpenMP
 // across states. Each output element is computed by the same arithmetic whatever the thread
-// count, so results do not depend on it; they agree with the one-plane general code
-// (resolve_normal + critical_pressure) to ~1e-15 × max|S| (the order of operations differs).
+// count, so results do not depend on it. They agree with the one-plane general code
+// (resolve_normal + critical_pressure) to ~1e-15 × max|S| for the closed form, and with
+// critical_pressure_poroelastic to ~1e-12 relative on the path (measured by the benchmark; the
+// order of operations differs).
 //
 // Symbol table: nx, ny, nz = unit normal n (NED); sxx … syz = S (NED, symmetric);
 // p0 = pore pressure; mu = μ; cohesion = c; kappa = α(1−2ν)/(1−ν) (0: no stress path).
@@ -44,6 +46,7 @@ struct StressBatch {
 void critical_pressure_grid(const PlaneBatch& planes, const StressBatch& states, std::span<double> out);
 
 // Element-wise: out[i] = Δp_crit of plane i under state i (per-realization planes and states).
+// Parallel across elements but not blocked for vectorisation.
 void critical_pressure_paired(const PlaneBatch& planes, const StressBatch& states, std::span<double> out);
 
 }  // namespace slipscreen::geomech

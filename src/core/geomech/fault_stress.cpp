@@ -57,6 +57,7 @@ ResolvedStress resolve(const Eigen::Matrix3d& stress, double p, const FaultPlane
     r.slip_direction = -shear_up / r.shear_stress;
     // Aki & Richards (1980): u = cosλ s − sinλ d ⇒ λ = atan2(−u·d, u·s).
     r.rake = std::atan2(-r.slip_direction.dot(plane.dip_vector()), r.slip_direction.dot(plane.strike_vector()));
+    if (r.rake < -std::numbers::pi + 1e-12) r.rake = std::numbers::pi;  // pure right-lateral is +180°
   } else {
     r.slip_direction.setZero();
     r.rake = std::numeric_limits<double>::quiet_NaN();

@@ -54,7 +54,7 @@ struct ResolvedStress {
   double shear_stress;             // τ, Pa
   double effective_normal_stress;  // σn − p, Pa
   Eigen::Vector3d slip_direction;  // unit; zero when τ = 0
-  double rake;                     // rad; NaN when τ = 0
+  double rake;                     // rad in (−π, π]; NaN when τ = 0
   SlipSense sense;
   double slip_tendency;            // τ/(σn − p)
   double dilation_tendency;        // (S1 − σn)/(S1 − S3); NaN for an isotropic stress

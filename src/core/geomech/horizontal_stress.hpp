@@ -7,7 +7,7 @@
 //                                                  (chapter number from memory)
 //   tectonic strain terms (poroelastic horizontal strain model):
 //   Shmin += E/(1−ν²) εh + E ν/(1−ν²) εH,  SHmax = ν/(1−ν)(Sv − αp0) + αp0 + E/(1−ν²) εH + E ν/(1−ν²) εh
-//                                                  Blanton & Olson (1999), SPE Drill. & Compl. 14(1)
+//                                                  Blanton & Olson (1999), SPE Res. Eval. & Eng. 2(1)
 //   (the model's form is recalled from memory; with εh = εH = 0 it is the uniaxial-strain model)
 //
 // Symbol table (code -> literature):

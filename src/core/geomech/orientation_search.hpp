@@ -36,9 +36,11 @@ struct DangerousOrientation {
   double dp_crit;  // Pa
 };
 
-// The minimum of Δp_crit over all strikes and dips: a 2° grid search, then three successively
-// finer grids (to 0.001°) around the best node. Accuracy: the orientation to ~0.002° and Δp_crit
-// to ≲ 1e-6 × max|S| (the minimum is smooth; the error is quadratic in the angle error).
+// The minimum of Δp_crit over all strikes and dips: a 2° grid search, then four successively
+// finer 41 × 41 windows (steps 0.2°, 0.02°, 0.002°, 0.0002°) around the best node. Accuracy:
+// the orientation to ~0.001° and Δp_crit to ≲ 1e-6 × max|S| (the minimum is smooth, so the
+// error is quadratic in the angle error). A grid search: a second, equally low minimum (the
+// conjugate plane) is not reported.
 // With κ > 0 the poroelastic path is used.
 DangerousOrientation most_dangerous_orientation(const Eigen::Matrix3d& stress, double p0, const Friction& f,
                                                 double kappa = 0.0);

@@ -2,18 +2,19 @@
 
 #include <Eigen/Dense>
 #include <algorithm>
-#include <boost/math/special_functions/expint.hpp>
 #include <cmath>
+#include <limits>
 #include <numeric>
-#include <sstream>
 #include <string>
 
 #include "core/errors.hpp"
+#include "core/hydro/well_function.hpp"
+#include "core/util/number_text.hpp"
 
 namespace slipscreen::hydro {
 namespace {
 
-// max|f⁗(s)| ≤ 16 I C max|q| with I = ∫₀^∞ e^{−x} |x³ − 6x² + 7x − 1| dx (see the header), and
+// max|f⁗(s)| ≤ 16 I C max|q| with I = kProfileFourthDerivativeIntegral (see the header), and
 // the cubic Hermite error factor 1/384: |f − H| ≤ kHermiteFactor · h⁴ · C max|q|.
 constexpr double kHermiteFactor = 16.0 * kProfileFourthDerivativeIntegral / 384.0;
 constexpr std::size_t kTile = 16;        // pixels per tile side
@@ -21,92 +22,62 @@ constexpr std::size_t kStepChunk = 256;  // union steps per matrix product in th
 
 using RowMatrix = Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>;
 
-// E1 for a batch of arguments (placeholder until the project's well function is merged).
-void e1_batch(const double* u, double* out, std::size_t n) {
-  for (std::size_t i = 0; i < n; ++i)
-    out[i] = u[i] > 700.0 ? 0.0 : boost::math::expint(1, u[i]);
-}
-double e1(double u) { return u > 700.0 ? 0.0 : boost::math::expint(1, u); }
+using util::number_text;
 
-std::string str(double v) {
-  std::ostringstream s;
-  s.precision(17);
-  s << v;
-  return s.str();
-}
+// One line source seen by the grid: a real well or one of its images.
+struct Source {
+  double x, y;
+  double rw2;     // clamp radius², the well's r_w²
+  double scale;   // image sign × rate factor
+  const std::vector<double>* start;  // step start times, s (strictly increasing)
+  const std::vector<double>* rate;   // rates from each start, m³/s (before `scale`)
+};
 
-void validate_geometry(const GridGeometry& g) {
-  auto finite = [](double v) { return std::isfinite(v); };
-  if (!finite(g.origin_x)) throw InputError("origin_x", str(g.origin_x), "a finite coordinate in m");
-  if (!finite(g.origin_y)) throw InputError("origin_y", str(g.origin_y), "a finite coordinate in m");
-  if (!finite(g.cell_x) || g.cell_x <= 0.0)
-    throw InputError("cell_x", str(g.cell_x), "a finite pixel width > 0 m");
-  if (!finite(g.cell_y) || g.cell_y == 0.0)
-    throw InputError("cell_y", str(g.cell_y), "a finite, non-zero pixel height in m (negative for north-up)");
-  if (g.nx == 0 || g.ny == 0)
-    throw InputError("size", std::to_string(g.nx) + "x" + std::to_string(g.ny), "at least 1x1 pixels");
-}
-
-void validate(const GridFormation& f, std::span<const GridSource> sources, std::span<const double> times) {
-  auto finite = [](double v) { return std::isfinite(v); };
-  if (!finite(f.prefactor) || f.prefactor <= 0.0)
-    throw InputError("prefactor", str(f.prefactor), "a finite μ/(4π k h) > 0 Pa per m³/s");
-  if (!finite(f.diffusivity) || f.diffusivity <= 0.0)
-    throw InputError("diffusivity", str(f.diffusivity), "a finite diffusivity k/(μ φ c_t) > 0 m²/s");
-  if (!finite(f.well_radius) || f.well_radius <= 0.0)
-    throw InputError("well_radius", str(f.well_radius), "a finite well radius > 0 m");
-  for (std::size_t w = 0; w < sources.size(); ++w) {
-    const GridSource& s = sources[w];
-    const std::string tag = "sources[" + std::to_string(w) + "].";
-    if (!finite(s.x) || !finite(s.y))
-      throw InputError(tag + "x/y", str(s.x) + " " + str(s.y), "finite coordinates in m");
-    if (s.start.size() != s.rate.size())
-      throw InputError(tag + "rate", std::to_string(s.rate.size()) + " values",
-                       std::to_string(s.start.size()) + " values, one per step start");
-    for (std::size_t j = 0; j < s.start.size(); ++j) {
-      if (!finite(s.start[j]))
-        throw InputError(tag + "start[" + std::to_string(j) + "]", str(s.start[j]), "a finite time in s");
-      if (!finite(s.rate[j]))
-        throw InputError(tag + "rate[" + std::to_string(j) + "]", str(s.rate[j]), "a finite rate in m³/s");
-      if (j > 0 && !(s.start[j] > s.start[j - 1]))
-        throw InputError(tag + "start[" + std::to_string(j) + "]", str(s.start[j]),
-                         "a start later than the previous step's (" + str(s.start[j - 1]) +
-                             " s): rate steps must be sorted and not overlap");
-    }
+std::vector<Source> collect_sources(const PressureField& field, std::span<const double> factors) {
+  const auto& wells = field.wells();
+  if (!factors.empty() && factors.size() != wells.size())
+    throw InputError("rate_factors", std::to_string(factors.size()) + " factors",
+                     "one factor per well (" + std::to_string(wells.size()) + ")");
+  for (std::size_t i = 0; i < factors.size(); ++i)
+    if (!std::isfinite(factors[i]))
+      throw InputError("rate_factors[" + std::to_string(i) + "]", number_text(factors[i]), "a finite factor");
+  std::vector<Source> out;
+  for (std::size_t w = 0; w < wells.size(); ++w) {
+    const double f = factors.empty() ? 1.0 : factors[w];
+    for (const ImageSource& img : field.sources(w))
+      out.push_back({img.x, img.y, wells[w].well_radius * wells[w].well_radius, img.sign * f,
+                     &wells[w].history.start_times(), &wells[w].history.rates()});
   }
+  return out;
+}
+
+void validate_times(std::span<const double> times) {
   for (std::size_t k = 0; k < times.size(); ++k)
-    if (!finite(times[k])) throw InputError("times[" + std::to_string(k) + "]", str(times[k]), "a finite time in s");
+    if (!std::isfinite(times[k])) throw InputError("times[" + std::to_string(k) + "]", number_text(times[k]), "a finite time (s)");
 }
 
-// Σ_j Δq_j E1(r²/(4 D (t − τ_j))) for one source: the direct superposition in time.
-double source_sum(const GridSource& s, double r2, double d, double t, std::vector<double>& u,
-                  std::vector<double>& e) {
-  std::size_t n = 0;
-  while (n < s.start.size() && s.start[n] < t) ++n;
-  if (n == 0) return 0.0;
-  u.resize(n);
-  e.resize(n);
-  for (std::size_t j = 0; j < n; ++j) u[j] = r2 / (4.0 * d * (t - s.start[j]));
-  e1_batch(u.data(), e.data(), n);
-  double sum = 0.0, prev = 0.0;
-  for (std::size_t j = 0; j < n; ++j) {
-    sum += (s.rate[j] - prev) * e[j];
-    prev = s.rate[j];
-  }
-  return sum;
+// Pixels whose centre is on the wells' side of every boundary (1) or beyond one (0).
+std::vector<char> region_mask(const GridGeometry& g, const PressureField& field) {
+  std::vector<char> inside(g.nx * g.ny, 1);
+  if (field.boundaries().empty() || field.wells().empty()) return inside;
+  const double wx = field.wells()[0].x, wy = field.wells()[0].y;
+  for (std::size_t j = 0; j < g.ny; ++j)
+    for (std::size_t i = 0; i < g.nx; ++i)
+      inside[j * g.nx + i] = same_region(field.boundaries(), wx, wy, g.centre_x(i), g.centre_y(j)) ? 1 : 0;
+  return inside;
 }
 
-// The u at which E1(u) = target (bisection on ln u; E1 is decreasing). Returns 0 when E1 never
-// falls to the target... i.e. target ≥ E1(1e-300), and the underflow end when target ≤ 0.
+// The u at which E1(u) = target (bisection on ln u; E1 is decreasing): E1(result) ≤ target.
+// Returns 0 when even E1(1e-300) ≤ target, and beyond the underflow end when target ≤ 0.
 double e1_inverse(double target) {
   if (target <= 0.0) return 710.0;
   double lo = std::log(1e-300), hi = std::log(705.0);
-  if (e1(std::exp(lo)) <= target) return 0.0;
+  if (well_function(std::exp(lo)) <= target) return 0.0;
   for (int it = 0; it < 200 && hi - lo > 1e-13; ++it) {
     const double mid = 0.5 * (lo + hi);
-    (e1(std::exp(mid)) > target ? lo : hi) = mid;
+    (well_function(std::exp(mid)) > target ? lo : hi) = mid;
   }
-  return std::exp(hi);  // E1(hi) ≤ target
+  return std::exp(hi);
 }
 
 // Per-(tile, source) accumulation: acc[p·nt + k] += Hermite interpolant of the source's
@@ -175,82 +146,90 @@ PressureGrid empty_grid(const GridGeometry& g, std::span<const double> times) {
   return out;
 }
 
+void mask_outside(PressureGrid& out, const std::vector<char>& inside) {
+  const std::size_t np = inside.size();
+  for (std::size_t k = 0; k < out.times.size(); ++k)
+    for (std::size_t p = 0; p < np; ++p)
+      if (!inside[p]) out.values[k * np + p] = std::numeric_limits<double>::quiet_NaN();
+}
+
 }  // namespace
 
-std::vector<double> pressure_direct_at(const GridFormation& formation,
-                                       std::span<const GridSource> sources, double x, double y,
-                                       std::span<const double> times) {
-  validate(formation, sources, times);
-  std::vector<double> out(times.size(), 0.0), u, e;
-  const double r2_min = formation.well_radius * formation.well_radius;
-  for (std::size_t k = 0; k < times.size(); ++k) {
-    double sum = 0.0;
-    for (const GridSource& s : sources) {
-      const double r2 = std::max((x - s.x) * (x - s.x) + (y - s.y) * (y - s.y), r2_min);
-      sum += source_sum(s, r2, formation.diffusivity, times[k], u, e);
-    }
-    out[k] = formation.prefactor * sum;
-  }
-  return out;
+void validate(const GridGeometry& g) {
+  if (!std::isfinite(g.origin_x)) throw InputError("origin_x", number_text(g.origin_x), "a finite coordinate (m)");
+  if (!std::isfinite(g.origin_y)) throw InputError("origin_y", number_text(g.origin_y), "a finite coordinate (m)");
+  if (!std::isfinite(g.cell_x) || g.cell_x <= 0.0)
+    throw InputError("cell_x", number_text(g.cell_x), "a finite pixel width > 0 (m)");
+  if (!std::isfinite(g.cell_y) || g.cell_y == 0.0)
+    throw InputError("cell_y", number_text(g.cell_y), "a finite, non-zero pixel height (m; negative for north-up)");
+  if (g.nx == 0 || g.ny == 0)
+    throw InputError("size", std::to_string(g.nx) + "x" + std::to_string(g.ny), "at least 1x1 pixels");
 }
 
-PressureGrid pressure_grid_direct(const GridGeometry& geometry, const GridFormation& formation,
-                                  std::span<const GridSource> sources, std::span<const double> times) {
-  validate_geometry(geometry);
-  validate(formation, sources, times);
+PressureGrid pressure_grid_direct(const GridGeometry& geometry, const PressureField& field,
+                                  const TheisParameters& params, std::span<const double> times,
+                                  std::span<const double> rate_factors) {
+  validate(geometry);
+  validate(params);
+  validate_times(times);
+  collect_sources(field, rate_factors);  // validates the factors
   PressureGrid out = empty_grid(geometry, times);
-  const std::size_t nx = geometry.nx, ny = geometry.ny;
-#pragma omp parallel for schedule(dynamic)
+  const std::vector<char> inside = region_mask(geometry, field);
+  const std::size_t nx = geometry.nx, ny = geometry.ny, nt = times.size();
+  // Row by row, so that the prepared distances stay small.
   for (std::size_t j = 0; j < ny; ++j) {
-    std::vector<double> u, e;
-    const double r2_min = formation.well_radius * formation.well_radius;
-    for (std::size_t i = 0; i < nx; ++i) {
-      const double x = geometry.centre_x(i), y = geometry.centre_y(j);
-      for (std::size_t k = 0; k < times.size(); ++k) {
-        double sum = 0.0;
-        for (const GridSource& s : sources) {
-          const double r2 = std::max((x - s.x) * (x - s.x) + (y - s.y) * (y - s.y), r2_min);
-          sum += source_sum(s, r2, formation.diffusivity, times[k], u, e);
-        }
-        out.values[(k * ny + j) * nx + i] = formation.prefactor * sum;
+    std::vector<FieldPoint> pts;
+    std::vector<std::size_t> col;
+    for (std::size_t i = 0; i < nx; ++i)
+      if (inside[j * nx + i]) {
+        pts.push_back({geometry.centre_x(i), geometry.centre_y(j)});
+        col.push_back(i);
       }
-    }
+    if (pts.empty()) continue;
+    const PressureResult r = field.evaluate(field.prepare(pts), times, params, rate_factors);
+    for (std::size_t p = 0; p < pts.size(); ++p)
+      for (std::size_t k = 0; k < nt; ++k) out.values[(k * ny + j) * nx + col[p]] = r.at(p, k);
   }
+  mask_outside(out, inside);
   return out;
 }
 
-PressureGrid pressure_grid(const GridGeometry& geometry, const GridFormation& formation,
-                           std::span<const GridSource> sources, std::span<const double> times,
-                           const PressureGridOptions& options) {
-  validate_geometry(geometry);
-  validate(formation, sources, times);
+namespace {
+
+void validate(const PressureGridOptions& options) {
   if (!std::isfinite(options.threshold) || options.threshold <= 0.0)
-    throw InputError("threshold", str(options.threshold), "a finite pressure > 0 Pa");
+    throw InputError("threshold", number_text(options.threshold), "a finite pressure > 0 Pa");
   if (!std::isfinite(options.relative_tolerance) || options.relative_tolerance <= 0.0 ||
       options.relative_tolerance >= 1.0)
-    throw InputError("relative_tolerance", str(options.relative_tolerance), "a number in (0, 1)");
+    throw InputError("relative_tolerance", number_text(options.relative_tolerance), "a number in (0, 1)");
   if (!std::isfinite(options.max_table_bytes) || options.max_table_bytes < 1e6)
-    throw InputError("max_table_bytes", str(options.max_table_bytes), "at least 1e6 bytes");
+    throw InputError("max_table_bytes", number_text(options.max_table_bytes), "at least 1e6 bytes");
+}
 
+// The fast path proper, on validated input; pixels with inside == 0 become NaN.
+PressureGrid fast_grid(const GridGeometry& geometry, double c, double d, const std::vector<Source>& sources,
+                       std::span<const double> times, const PressureGridOptions& options,
+                       const std::vector<char>& inside) {
   PressureGrid out = empty_grid(geometry, times);
   const double eps = options.relative_tolerance * options.threshold;
   out.error_bound = eps;
   const std::size_t nx = geometry.nx, ny = geometry.ny, ns = sources.size();
-  const double c = formation.prefactor, d = formation.diffusivity, rw = formation.well_radius;
 
   // Rate scale per source and in total.
-  std::vector<double> qmax(ns, 0.0);
-  for (std::size_t w = 0; w < ns; ++w)
-    for (double q : sources[w].rate) qmax[w] = std::max(qmax[w], std::abs(q));
+  std::vector<double> qmax(ns, 0.0), first(ns, 0.0);
+  for (std::size_t w = 0; w < ns; ++w) {
+    for (double q : *sources[w].rate) qmax[w] = std::max(qmax[w], std::abs(q * sources[w].scale));
+    if (!sources[w].start->empty()) first[w] = sources[w].start->front();
+  }
   const double qsum = std::accumulate(qmax.begin(), qmax.end(), 0.0);
-  if (qsum == 0.0 || times.empty()) return out;
+  if (qsum == 0.0 || times.empty()) {
+    mask_outside(out, inside);
+    return out;
+  }
 
   // Cut-off: source w is dropped beyond R_w with C max|q_w| E1(R_w²/(4 D θ_w)) = ε/4 · max|q_w|/Σ max|q|,
   // i.e. E1(u*) = ε/(4 C Σ max|q|), the same u* for every source.
   const double u_cut = e1_inverse(0.25 * eps / (c * qsum));
-  std::vector<double> first(ns, 0.0);
-  for (std::size_t w = 0; w < ns; ++w)
-    if (!sources[w].start.empty()) first[w] = sources[w].start.front();
   const double t_last = *std::max_element(times.begin(), times.end());
   // Sources whose cut-off radius at the last time does not reach the raster (pixel centres) are
   // dropped altogether: each stays within its share of ε/4 everywhere on it.
@@ -258,40 +237,45 @@ PressureGrid pressure_grid(const GridGeometry& geometry, const GridFormation& fo
   const double bx1 = std::max(geometry.centre_x(0), geometry.centre_x(nx - 1));
   const double by0 = std::min(geometry.centre_y(0), geometry.centre_y(ny - 1));
   const double by1 = std::max(geometry.centre_y(0), geometry.centre_y(ny - 1));
+  std::vector<std::size_t> kept;
   std::vector<char> reach(ns, 0);
-  double qsum_reach = 0.0;
+  double qsum_reach = 0.0, rw2_min = 0.0;
   for (std::size_t w = 0; w < ns; ++w) {
     const double theta = t_last - first[w];
-    if (qmax[w] == 0.0 || sources[w].start.empty() || theta <= 0.0) continue;
-    const double gx = std::max({bx0 - sources[w].x, 0.0, sources[w].x - bx1});
-    const double gy = std::max({by0 - sources[w].y, 0.0, sources[w].y - by1});
-    if (gx * gx + gy * gy > 4.0 * d * theta * u_cut) continue;
+    if (qmax[w] == 0.0 || sources[w].start->empty() || theta <= 0.0) continue;
+    const Source& s = sources[w];
+    const double gx = std::max({bx0 - s.x, 0.0, s.x - bx1}), gy = std::max({by0 - s.y, 0.0, s.y - by1});
+    const double r2cut = 4.0 * d * theta * u_cut;
+    if (gx * gx + gy * gy > r2cut || r2cut <= s.rw2) continue;
     reach[w] = 1;
+    kept.push_back(w);
     qsum_reach += qmax[w];
+    rw2_min = kept.size() == 1 ? s.rw2 : std::min(rw2_min, s.rw2);
   }
-  if (qsum_reach == 0.0) return out;
+  if (kept.empty()) {
+    mask_outside(out, inside);
+    return out;
+  }
 
-  // Node spacing in ln r: Σ_w kHermiteFactor h⁴ C max|q_w| ≤ ε/2 over the sources kept.
+  // Node spacing in ln r: Σ_w kHermiteFactor h⁴ C max|q_w| ≤ ε/2 over the sources kept; nodes
+  // from the smallest well radius.
   const double h = std::min(0.05, std::pow(0.5 * eps / (kHermiteFactor * c * qsum_reach), 0.25));
   out.node_spacing = h;
-  const double s0 = std::log(rw);
+  const double s0 = 0.5 * std::log(rw2_min);
 
   // Union of the kept sources' step times, and their rate increments on it (row r: kept[r]).
-  std::vector<std::size_t> kept;
-  for (std::size_t w = 0; w < ns; ++w)
-    if (reach[w]) kept.push_back(w);
   std::vector<double> tau;
-  for (std::size_t w : kept) tau.insert(tau.end(), sources[w].start.begin(), sources[w].start.end());
+  for (std::size_t w : kept) tau.insert(tau.end(), sources[w].start->begin(), sources[w].start->end());
   std::sort(tau.begin(), tau.end());
   tau.erase(std::unique(tau.begin(), tau.end()), tau.end());
   Eigen::MatrixXd dq = Eigen::MatrixXd::Zero(Eigen::Index(kept.size()), Eigen::Index(tau.size()));
   for (std::size_t r = 0; r < kept.size(); ++r) {
+    const Source& src = sources[kept[r]];
     double prev = 0.0;
-    const GridSource& s = sources[kept[r]];
-    for (std::size_t j = 0; j < s.start.size(); ++j) {
-      const auto col = std::lower_bound(tau.begin(), tau.end(), s.start[j]) - tau.begin();
-      dq(Eigen::Index(r), col) += s.rate[j] - prev;
-      prev = s.rate[j];
+    for (std::size_t j = 0; j < src.start->size(); ++j) {
+      const auto col = std::lower_bound(tau.begin(), tau.end(), (*src.start)[j]) - tau.begin();
+      dq(Eigen::Index(r), col) += src.scale * ((*src.rate)[j] - prev);
+      prev = (*src.rate)[j];
     }
   }
 
@@ -300,9 +284,9 @@ PressureGrid pressure_grid(const GridGeometry& geometry, const GridFormation& fo
   std::iota(order.begin(), order.end(), std::size_t{0});
   std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return times[a] < times[b]; });
 
-  // Profile nodes of source w for cut-off radius² r2cut (≥ 2 nodes; node K−1 at or beyond R).
+  // Profile nodes for cut-off radius² r2cut (≥ 2 nodes; node K−1 at or beyond R).
   auto nodes_for = [&](double r2cut) {
-    const double smax = 0.5 * std::log(std::max(r2cut, rw * rw));
+    const double smax = 0.5 * std::log(std::max(r2cut, rw2_min));
     return static_cast<std::size_t>(std::floor((smax - s0) / h)) + 2;
   };
   auto cut_radius2 = [&](std::size_t w, double t) {
@@ -311,14 +295,11 @@ PressureGrid pressure_grid(const GridGeometry& geometry, const GridFormation& fo
     return 4.0 * d * theta * u_cut;
   };
   double bytes_per_time = 0.0;
-  for (std::size_t w = 0; w < ns; ++w)
-    if (cut_radius2(w, t_last) >= 0.0) bytes_per_time += 16.0 * double(nodes_for(cut_radius2(w, t_last)));
+  for (std::size_t w : kept) bytes_per_time += 16.0 * double(nodes_for(cut_radius2(w, t_last)));
   const std::size_t block = std::max<std::size_t>(
       1, std::min<std::size_t>(times.size(), std::size_t(options.max_table_bytes / std::max(bytes_per_time, 1.0))));
 
-  // Pixel centres, tile by tile.
   const std::size_t tiles_x = (nx + kTile - 1) / kTile, tiles_y = (ny + kTile - 1) / kTile;
-
   for (std::size_t b0 = 0; b0 < order.size(); b0 += block) {
     const std::size_t nt = std::min(block, order.size() - b0);
     const double t_hi = times[order[b0 + nt - 1]];
@@ -328,7 +309,7 @@ PressureGrid pressure_grid(const GridGeometry& geometry, const GridFormation& fo
     for (std::size_t w = 0; w < ns; ++w) {
       r2cut[w] = cut_radius2(w, t_hi);
       // A source that stays below its share even at the well face contributes nothing here.
-      if (r2cut[w] >= 0.0 && r2cut[w] > rw * rw) nodes[w] = nodes_for(r2cut[w]);
+      if (r2cut[w] > sources[w].rw2) nodes[w] = nodes_for(r2cut[w]);
       k0[w] = 0;
       while (k0[w] < nt && times[order[b0 + k0[w]]] <= first[w]) ++k0[w];
       if (k0[w] == nt) nodes[w] = 0;
@@ -358,7 +339,7 @@ PressureGrid pressure_grid(const GridGeometry& geometry, const GridFormation& fo
           double* er = e.data() + jj * k_max;
           double* gr = g.data() + jj * k_max;
           for (std::size_t n = 0; n < k_max; ++n) gr[n] = r2n[n] * a;  // u
-          e1_batch(gr, er, k_max);
+          well_function(gr, er, k_max);
           for (std::size_t n = 0; n < k_max; ++n) gr[n] = -2.0 * h * std::exp(-gr[n]);  // h · dE1/ds
         }
         const auto block_cols = dq.middleCols(static_cast<Eigen::Index>(c0), static_cast<Eigen::Index>(nc));
@@ -393,10 +374,10 @@ PressureGrid pressure_grid(const GridGeometry& geometry, const GridFormation& fo
       const double ylo = std::min(py.front(), py.back()), yhi = std::max(py.front(), py.back());
       for (std::size_t w = 0; w < ns; ++w) {
         if (nodes[w] == 0) continue;
-        const GridSource& s = sources[w];
+        const Source& s = sources[w];
         const double gx = std::max({xlo - s.x, 0.0, s.x - xhi}), gy = std::max({ylo - s.y, 0.0, s.y - yhi});
         if (gx * gx + gy * gy > r2cut[w]) continue;  // the whole tile is beyond the cut-off
-        accumulate(TileJob{px.data(), py.data(), np, s.x, s.y, rw * rw, r2cut[w], s0, 1.0 / h,
+        accumulate(TileJob{px.data(), py.data(), np, s.x, s.y, s.rw2, r2cut[w], s0, 1.0 / h,
                            nodes[w], table.data() + offset[w], k0[w], nt, acc.data()});
       }
       for (std::size_t kk = 0; kk < nt; ++kk) {
@@ -406,7 +387,57 @@ PressureGrid pressure_grid(const GridGeometry& geometry, const GridFormation& fo
       }
     }
   }
+  mask_outside(out, inside);
   return out;
+}
+
+}  // namespace
+
+PressureGrid pressure_grid(const GridGeometry& geometry, const PressureField& field,
+                           const TheisParameters& params, std::span<const double> times,
+                           std::span<const double> rate_factors, const PressureGridOptions& options) {
+  validate(geometry);
+  validate(params);
+  validate_times(times);
+  validate(options);
+  const std::vector<Source> sources = collect_sources(field, rate_factors);
+  return fast_grid(geometry, params.pressure_per_rate, params.diffusivity, sources, times, options,
+                   region_mask(geometry, field));
+}
+
+PressureGrid pressure_grid(const GridGeometry& geometry, const GridFormation& formation,
+                           std::span<const GridSource> sources, std::span<const double> times,
+                           const PressureGridOptions& options) {
+  validate(geometry);
+  if (!std::isfinite(formation.prefactor) || formation.prefactor <= 0.0)
+    throw InputError("prefactor", number_text(formation.prefactor), "a finite μ/(4π k h) > 0 (Pa per m³/s)");
+  if (!std::isfinite(formation.diffusivity) || formation.diffusivity <= 0.0)
+    throw InputError("diffusivity", number_text(formation.diffusivity), "a finite k/(μ φ c_t) > 0 (m²/s)");
+  if (!std::isfinite(formation.well_radius) || formation.well_radius <= 0.0)
+    throw InputError("well_radius", number_text(formation.well_radius), "a finite well radius > 0 (m)");
+  validate_times(times);
+  validate(options);
+  std::vector<Source> list;
+  const double rw2 = formation.well_radius * formation.well_radius;
+  for (std::size_t w = 0; w < sources.size(); ++w) {
+    const GridSource& s = sources[w];
+    const std::string tag = "sources[" + std::to_string(w) + "].";
+    if (!std::isfinite(s.x) || !std::isfinite(s.y))
+      throw InputError(tag + "x/y", number_text(s.x) + ", " + number_text(s.y), "finite coordinates (m)");
+    if (s.start.size() != s.rate.size())
+      throw InputError(tag + "rate", std::to_string(s.rate.size()) + " values",
+                       std::to_string(s.start.size()) + " values, one per step start");
+    for (std::size_t j = 0; j < s.start.size(); ++j) {
+      if (!std::isfinite(s.start[j]) || (j > 0 && !(s.start[j] > s.start[j - 1])))
+        throw InputError(tag + "start[" + std::to_string(j) + "]", number_text(s.start[j]),
+                         "a finite time after the previous step's (steps sorted, not overlapping)");
+      if (!std::isfinite(s.rate[j]))
+        throw InputError(tag + "rate[" + std::to_string(j) + "]", number_text(s.rate[j]), "a finite rate (m³/s)");
+    }
+    list.push_back({s.x, s.y, rw2, 1.0, &s.start, &s.rate});
+  }
+  return fast_grid(geometry, formation.prefactor, formation.diffusivity, list, times, options,
+                   std::vector<char>(geometry.nx * geometry.ny, 1));
 }
 
 }  // namespace slipscreen::hydro

@@ -5,23 +5,18 @@
 #include <limits>
 #include <numbers>
 #include <numeric>
-#include <sstream>
 #include <string>
 
 #include "core/errors.hpp"
+#include "core/util/number_text.hpp"
 
 namespace slipscreen::hydro {
 namespace {
 
-std::string str(double v) {
-  std::ostringstream s;
-  s.precision(17);
-  s << v;
-  return s.str();
-}
+using util::number_text;
 
 void require_positive(double v, const std::string& field, const std::string& what) {
-  if (!std::isfinite(v) || v <= 0.0) throw InputError(field, str(v), what);
+  if (!std::isfinite(v) || v <= 0.0) throw InputError(field, number_text(v), what);
 }
 
 void validate(const RadialModel& m, std::span<const double> radii, std::span<const double> times,
@@ -38,8 +33,8 @@ void validate(const RadialModel& m, std::span<const double> radii, std::span<con
     require_positive(z.storage, tag + "storage", "a finite storage φ·c_t > 0 1/Pa");
     const bool last = j + 1 == m.zones.size();
     if (std::isnan(z.outer_radius) || z.outer_radius <= inner)
-      throw InputError(tag + "outer_radius", str(z.outer_radius),
-                       "a radius greater than " + str(inner) +
+      throw InputError(tag + "outer_radius", number_text(z.outer_radius),
+                       "a radius greater than " + number_text(inner) +
                            " m (zones innermost first, beyond the well radius)");
     if (std::isinf(z.outer_radius)) {
       if (!last)
@@ -48,41 +43,30 @@ void validate(const RadialModel& m, std::span<const double> radii, std::span<con
         throw InputError(tag + "outer_radius", "inf",
                          "a finite outer radius r_e for a closed or constant-pressure boundary");
     } else if (last && m.outer == OuterBoundary::infinite) {
-      throw InputError(tag + "outer_radius", str(z.outer_radius),
+      throw InputError(tag + "outer_radius", number_text(z.outer_radius),
                        "+infinity for an infinite-acting layer (or choose a closed or "
                        "constant-pressure outer boundary)");
     }
     inner = z.outer_radius;
   }
-  for (std::size_t j = 0; j < m.rates.size(); ++j) {
-    const std::string tag = "rates[" + std::to_string(j) + "].";
-    if (!std::isfinite(m.rates[j].start))
-      throw InputError(tag + "start", str(m.rates[j].start), "a finite start time in s");
-    if (!std::isfinite(m.rates[j].rate))
-      throw InputError(tag + "rate", str(m.rates[j].rate), "a finite rate in m³/s");
-    if (j > 0 && !(m.rates[j].start > m.rates[j - 1].start))
-      throw InputError(tag + "start", str(m.rates[j].start),
-                       "a start later than the previous step's (" + str(m.rates[j - 1].start) +
-                           " s): rate steps must be sorted and not overlap");
-  }
   const double r_e = m.zones.back().outer_radius;
   for (std::size_t i = 0; i < radii.size(); ++i) {
     const double r = radii[i];
     if (std::isnan(r) || r < 0.0 || std::isinf(r))
-      throw InputError("radii[" + std::to_string(i) + "]", str(r), "a finite radius >= 0 m");
+      throw InputError("radii[" + std::to_string(i) + "]", number_text(r), "a finite radius >= 0 m");
     if (r > r_e)
-      throw InputError("radii[" + std::to_string(i) + "]", str(r),
-                       "a radius within the outer radius r_e = " + str(r_e) + " m");
+      throw InputError("radii[" + std::to_string(i) + "]", number_text(r),
+                       "a radius within the outer radius r_e = " + number_text(r_e) + " m");
   }
   for (std::size_t i = 0; i < times.size(); ++i)
     if (!std::isfinite(times[i]))
-      throw InputError("times[" + std::to_string(i) + "]", str(times[i]), "a finite time in s");
+      throw InputError("times[" + std::to_string(i) + "]", number_text(times[i]), "a finite time in s");
   if (!std::isfinite(o.cells_per_decade) || o.cells_per_decade < 5.0 || o.cells_per_decade > 2000.0)
-    throw InputError("cells_per_decade", str(o.cells_per_decade), "a number between 5 and 2000");
+    throw InputError("cells_per_decade", number_text(o.cells_per_decade), "a number between 5 and 2000");
   if (!std::isfinite(o.time_step_growth) || o.time_step_growth <= 1.0 || o.time_step_growth > 2.0)
-    throw InputError("time_step_growth", str(o.time_step_growth), "a ratio > 1 and <= 2");
+    throw InputError("time_step_growth", number_text(o.time_step_growth), "a ratio > 1 and <= 2");
   if (!std::isfinite(o.first_step) || o.first_step < 0.0)
-    throw InputError("first_step", str(o.first_step), "a time step >= 0 s (0 = automatic)");
+    throw InputError("first_step", number_text(o.first_step), "a time step >= 0 s (0 = automatic)");
 }
 
 // The discretised annulus.
@@ -173,7 +157,9 @@ RadialSolution solve_radial_flow(const RadialModel& model, std::span<const doubl
   out.values.assign(radii.size() * times.size(), 0.0);
   out.mean_change.assign(times.size(), 0.0);
 
-  const double t0 = model.rates.empty() ? 0.0 : model.rates.front().start;
+  const std::vector<double>& starts = model.history.start_times();
+  const std::vector<double>& rates = model.history.rates();
+  const double t0 = starts.empty() ? 0.0 : starts.front();
   const double t_max = times.empty() ? t0 : *std::max_element(times.begin(), times.end());
 
   // Outer radius. Infinite-acting: a closed radius far beyond the diffusion length of the whole
@@ -220,22 +206,22 @@ RadialSolution solve_radial_flow(const RadialModel& model, std::span<const doubl
 
   std::size_t next_out = 0;
   // Times before the first rate step (or with no rates at all): Δp = 0.
-  while (next_out < order.size() && (model.rates.empty() || times[order[next_out]] <= t0)) ++next_out;
-  if (model.rates.empty()) return out;
+  while (next_out < order.size() && (starts.empty() || times[order[next_out]] <= t0)) ++next_out;
+  if (starts.empty()) return out;
 
   double t = t0, q = 0.0, dt = dt_first, dt_prev = 0.0;
   bool have_prev = false;  // a previous step within the current constant-rate period (for BDF2)
   std::size_t next_rate = 0;
   while (next_out < order.size()) {
     // Apply every rate change at the current time (restarting the geometric step sequence).
-    while (next_rate < model.rates.size() && model.rates[next_rate].start <= t) {
-      q = model.rates[next_rate].rate;
+    while (next_rate < starts.size() && starts[next_rate] <= t) {
+      q = rates[next_rate];
       dt = dt_first;
       have_prev = false;
       ++next_rate;
     }
     const double t_out = times[order[next_out]];
-    const double t_event = next_rate < model.rates.size() ? std::min(t_out, model.rates[next_rate].start) : t_out;
+    const double t_event = next_rate < starts.size() ? std::min(t_out, starts[next_rate]) : t_out;
     // Land exactly on the next event; when it is less than two steps away, split the remainder
     // into two halves so that no step is much shorter than its predecessor.
     double step = dt;

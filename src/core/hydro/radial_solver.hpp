@@ -39,6 +39,8 @@
 #include <span>
 #include <vector>
 
+#include "core/hydro/rate_history.hpp"
+
 namespace slipscreen::hydro {
 
 // One radial zone of uniform properties. Zones are listed innermost first; zone j spans from the
@@ -55,20 +57,13 @@ enum class OuterBoundary {
   constant_pressure,  // Δp = 0 at r_e (recharge, aquifer support)
 };
 
-// Piecewise-constant rate: `rate` from `start` until the next step's start. Before the first
-// step the rate is zero; a step to rate 0 is a shut-in.
-struct RadialRateStep {
-  double start;  // s
-  double rate;   // m³/s at reservoir conditions, injection positive
-};
-
 struct RadialModel {
   double well_radius = 0.1;   // r_w, m
   double thickness = 10.0;    // h, m
   double viscosity = 1e-3;    // μ, Pa·s
   std::vector<RadialZone> zones;
   OuterBoundary outer = OuterBoundary::infinite;
-  std::vector<RadialRateStep> rates;
+  RateHistory history;  // piecewise-constant rates (rate_history.hpp), injection positive
 };
 
 struct RadialSolverOptions {
@@ -96,8 +91,8 @@ struct RadialSolution {
 // Times and radii may be in any order. Between nodes Δp is reconstructed with the steady radial
 // profile (linear in ln r within a zone). Throws InputError for non-positive or non-finite
 // properties, zone radii not increasing beyond r_w, an outermost zone inconsistent with the
-// boundary type, rate steps not strictly increasing in time, non-finite values, radii beyond a
-// finite r_e, and options out of range.
+// boundary type, non-finite values, radii beyond a finite r_e, and options out of range (the
+// rate history validates itself when it is built).
 RadialSolution solve_radial_flow(const RadialModel& model, std::span<const double> radii,
                                  std::span<const double> times,
                                  const RadialSolverOptions& options = {});

@@ -18,27 +18,49 @@ std::string text(double v) { return std::to_string(v); }
 }  // namespace
 
 QuantileSketch::QuantileSketch(double relative_accuracy, double zero_threshold, std::size_t max_buckets)
-    : alpha_(relative_accuracy), gamma_(0.0), log_gamma_(0.0), zero_threshold_(zero_threshold),
+    : alpha_(relative_accuracy), gamma_(0.0), multiplier_(0.0), zero_threshold_(zero_threshold),
       max_buckets_(max_buckets), min_(std::numeric_limits<double>::infinity()),
       max_(-std::numeric_limits<double>::infinity()) {
   if (!(relative_accuracy > 0.0 && relative_accuracy < 1.0))
     throw InputError("relative accuracy", text(relative_accuracy), "a number between 0 and 1, such as 0.01");
-  if (!(zero_threshold >= 0.0) || !std::isfinite(zero_threshold))
-    throw InputError("zero threshold", text(zero_threshold), "a finite number >= 0");
+  if (!(zero_threshold >= std::numeric_limits<double>::min()) || !std::isfinite(zero_threshold))
+    throw InputError("zero threshold", text(zero_threshold), "a finite number >= 2.2250738585072014e-308 (the smallest normal double)");
   if (max_buckets < 2) throw InputError("max buckets", std::to_string(max_buckets), "at least 2");
-  // γ = (1 + α)/(1 − α) (Masson et al. 2019, §2).
+  // γ = (1 + α)/(1 − α) (Masson et al. 2019, §2); M = 1/(γ − 1) buckets per binade of L.
   gamma_ = (1.0 + alpha_) / (1.0 - alpha_);
-  log_gamma_ = std::log1p(2.0 * alpha_ / (1.0 - alpha_));
+  multiplier_ = (1.0 - alpha_) / (2.0 * alpha_);
 }
 
+namespace {
+// L(x) = e + s for x = 2^e (1 + s), 0 ≤ s < 1: log2 interpolated linearly between powers of two,
+// read from the bits of a normal double (exact: no rounding but that of e + s).
+double linear_log2(double x) {
+  const auto bits = std::bit_cast<std::uint64_t>(x);
+  const auto e = static_cast<int>((bits >> 52) & 0x7FF) - 1023;
+  const double s = static_cast<double>(bits & ((std::uint64_t{1} << 52) - 1)) * 0x1p-52;
+  return static_cast<double>(e) + s;
+}
+// L⁻¹(y) = 2^⌊y⌋ (1 + y − ⌊y⌋).
+double linear_exp2(double y) {
+  const double f = std::floor(y);
+  return std::ldexp(1.0 + (y - f), static_cast<int>(f));
+}
+}  // namespace
+
 std::int64_t QuantileSketch::index_of(double magnitude) const {
-  // i = ⌈log_γ x⌉ (Masson et al. 2019, §2): bucket i holds (γ^(i−1), γ^i].
-  return static_cast<std::int64_t>(std::ceil(std::log(magnitude) / log_gamma_));
+  // i = ⌈M·L(x)⌉: bucket i holds L⁻¹((i−1)/M) < x ≤ L⁻¹(i/M), a ratio of at most 1 + 1/M = γ.
+  // ⌈y⌉ by truncation and one correction (exact; no libm call on baseline x86-64).
+  const double y = linear_log2(magnitude) * multiplier_;
+  const auto i = static_cast<std::int64_t>(y);
+  return static_cast<double>(i) < y ? i + 1 : i;
 }
 
 double QuantileSketch::representative(std::int64_t index) const {
-  // x̃_i = 2γ^i/(γ + 1) (Masson et al. 2019, §2): relative error ≤ α over the bucket.
-  return 2.0 * std::exp(static_cast<double>(index) * log_gamma_) / (gamma_ + 1.0);
+  // x̃ = 2ab/(a + b) for the bucket (a, b]: relative error (b − a)/(a + b) ≤ (γ − 1)/(γ + 1) = α
+  // at both ends (Masson et al. 2019 §2 with the bucket bounds of the linear mapping).
+  const double a = linear_exp2(static_cast<double>(index - 1) / multiplier_);
+  const double b = linear_exp2(static_cast<double>(index) / multiplier_);
+  return 2.0 * a * b / (a + b);
 }
 
 void QuantileSketch::Store::add(std::int64_t index, std::uint64_t n, std::size_t max_buckets) {

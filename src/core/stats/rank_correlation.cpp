@@ -31,13 +31,21 @@ std::vector<double> average_ranks(std::span<const double> values) {
   return ranks;
 }
 
+namespace {
+void check_sizes(std::size_t nx, std::size_t ny) {
+  if (nx != ny) throw InputError("sample sizes", std::to_string(nx) + " and " + std::to_string(ny), "equal lengths");
+  if (nx < 2) throw InputError("sample size", std::to_string(nx), "at least 2 pairs");
+}
+}  // namespace
+
 RankCorrelation spearman(std::span<const double> x, std::span<const double> y) {
-  if (x.size() != y.size())
-    throw InputError("sample sizes", std::to_string(x.size()) + " and " + std::to_string(y.size()), "equal lengths");
-  if (x.size() < 2) throw InputError("sample size", std::to_string(x.size()), "at least 2 pairs");
-  const std::vector<double> rx = average_ranks(x);
-  const std::vector<double> ry = average_ranks(y);
-  const std::size_t n = x.size();
+  check_sizes(x.size(), y.size());
+  return spearman_from_ranks(average_ranks(x), average_ranks(y));
+}
+
+RankCorrelation spearman_from_ranks(std::span<const double> rx, std::span<const double> ry) {
+  check_sizes(rx.size(), ry.size());
+  const std::size_t n = rx.size();
   const double mean = 0.5 * static_cast<double>(n + 1);  // mean rank, with or without ties
   double sxy = 0.0, sxx = 0.0, syy = 0.0;
   for (std::size_t i = 0; i < n; ++i) {

@@ -40,4 +40,8 @@ struct RankCorrelation {
 // accuracy (~1e-15 relative).
 RankCorrelation spearman(std::span<const double> x, std::span<const double> y);
 
+// The same from ranks already computed by average_ranks (so that a sensitivity table ranks
+// each input once and each output once, not once per pair). Equal lengths, at least 2.
+RankCorrelation spearman_from_ranks(std::span<const double> x_ranks, std::span<const double> y_ranks);
+
 }  // namespace slipscreen::stats

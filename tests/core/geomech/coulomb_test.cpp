@@ -177,6 +177,15 @@ TEST_CASE("poroelastic path: 'never' and 'already critical'") {
   CHECK_NEAR(coulomb_failure_function_after(t, 30e6, plane.normal(), {0.5, 0.0}, 0.5, past.dp), 0.0, 20.0);
 }
 
+TEST_CASE("opening pressure: the least effective stress reaches zero") {
+  // Arithmetic: Sv − p0 = 40 MPa, Shmin − p0 = 15 MPa; with κ = 2/3 the horizontal limit is 15/(1/3) = 45 MPa.
+  const AndersonianStress s{70e6, 60e6, 45e6, 0.0, 30e6};
+  CHECK_NEAR(opening_pressure(s, 0.0), 15e6, 1e-6);
+  CHECK_NEAR(opening_pressure(s, 2.0 / 3.0), 40e6, 1e-6);
+  CHECK_NEAR(opening_pressure(s, 0.5), 30e6, 1e-6);
+  CHECK_NEAR(opening_pressure(s, 1.0), 40e6, 1e-6);
+}
+
 TEST_CASE("Coulomb bad input") {
   CHECK_THROWS_WITH_AS(critical_pressure(10e6, 40e6, 20e6, {0.0, 0.0}), doctest::Contains("field 'friction' = '0"), InputError);
   CHECK_THROWS_WITH_AS(critical_pressure(10e6, 40e6, 20e6, {-0.2, 0.0}), doctest::Contains("friction coefficient > 0"), InputError);

@@ -10,6 +10,8 @@
 #include <vector>
 
 #include "core/errors.hpp"
+#include "core/hydro/pressure_field.hpp"
+#include "core/hydro/theis.hpp"
 
 using namespace slipscreen;
 using namespace slipscreen::hydro;
@@ -31,7 +33,7 @@ RadialModel homogeneous(OuterBoundary outer, double r_e) {
   m.viscosity = kMu;
   m.zones = {{r_e, kK, kS}};
   m.outer = outer;
-  m.rates = {{0.0, kQ}};
+  m.history = RateHistory({0.0}, {kQ});
   return m;
 }
 
@@ -44,17 +46,28 @@ double theis(double q, double k, double storage, double r, double t) {
 
 // Superposition in time of the Theis solution over piecewise-constant rates (Theis 1935;
 // superposition of the linear diffusion equation, e.g. Earlougher 1977 §2.5).
-double theis_history(const std::vector<RadialRateStep>& steps, double k, double storage, double r, double t) {
+double theis_history(const RateHistory& h, double k, double storage, double r, double t) {
   double sum = 0.0, prev = 0.0;
-  for (const RadialRateStep& s : steps) {
-    if (s.start >= t) break;
-    sum += theis(s.rate - prev, k, storage, r, t - s.start);
-    prev = s.rate;
+  for (std::size_t j = 0; j < h.start_times().size(); ++j) {
+    if (h.start_times()[j] >= t) break;
+    sum += theis(h.rates()[j] - prev, k, storage, r, t - h.start_times()[j]);
+    prev = h.rates()[j];
   }
   return sum;
 }
 
 double rel(double a, double b) { return std::abs(a - b) / std::abs(b); }
+
+// The project's Theis engine for the same formation (theis.hpp): D = k/(μ φ c_t) with φ c_t = kS.
+TheisParameters project_theis(double k) {
+  Formation f;
+  f.permeability = k;
+  f.thickness = kH;
+  f.viscosity = kMu;
+  f.porosity = 0.1;
+  f.total_compressibility = kS / 0.1;
+  return theis_parameters(f);
+}
 
 }  // namespace
 
@@ -71,6 +84,8 @@ TEST_CASE("homogeneous infinite-acting layer matches Theis (1935)") {
       const double u = r * r / (4.0 * 1.0 * t);
       const double ref = theis(kQ, kK, kS, r, t);
       const double e = rel(s.at(it, ir), ref);
+      // The project's Theis (theis_pressure) agrees with the Boost.Math form to rounding.
+      CHECK(theis_pressure(project_theis(kK), kQ, r, kRw, t) == doctest::Approx(ref).epsilon(1e-12));
       if (u <= 1.0) worst_u1 = std::max(worst_u1, e);
       if (u <= 5.0) {
         worst_u5 = std::max(worst_u5, e);
@@ -106,19 +121,25 @@ TEST_CASE("grid and time-step refinement converge towards Theis") {
 
 TEST_CASE("rate steps and shut-in recovery match Theis superposition") {
   RadialModel m = homogeneous(OuterBoundary::infinite, kInf);
-  m.rates = {{0.0, kQ}, {30 * kDay, 2 * kQ}, {90 * kDay, 0.0}, {200 * kDay, 0.5 * kQ}};
+  m.history = RateHistory({0.0, 30 * kDay, 90 * kDay, 200 * kDay}, {kQ, 2 * kQ, 0.0, 0.5 * kQ});
   const std::vector<double> radii = {kRw, 10.0, 100.0, 1000.0};
   const std::vector<double> times = {20 * kDay, 60 * kDay, 90 * kDay, 91 * kDay, 120 * kDay,
                                      199 * kDay, 250 * kDay};
   const RadialSolution s = solve_radial_flow(m, radii, times);
+  WellSource well;
+  well.well_radius = kRw;
+  well.history = m.history;
+  const PressureField field({well});
   double worst = 0.0;
   for (std::size_t it = 0; it < times.size(); ++it)
     for (std::size_t ir = 0; ir < radii.size(); ++ir) {
-      const double ref = theis_history(m.rates, kK, kS, radii[ir], times[it]);
+      const double ref = theis_history(m.history, kK, kS, radii[ir], times[it]);
       CAPTURE(times[it]);
       CAPTURE(radii[ir]);
       worst = std::max(worst, rel(s.at(it, ir), ref));
       CHECK(rel(s.at(it, ir), ref) <= 1e-3);
+      // Same check against the project's superposition engine (pressure_field.hpp).
+      CHECK(rel(s.at(it, ir), field.pressure_at(project_theis(kK), FieldPoint{radii[ir], 0.0}, times[it])) <= 1e-3);
     }
   MESSAGE("max relative error vs Theis superposition: ", worst);
 }
@@ -228,7 +249,7 @@ TEST_CASE("composite closed annulus conserves mass with per-zone storage") {
   const double big_r = 40.0, r_e = 800.0;
   RadialModel m = homogeneous(OuterBoundary::closed, r_e);
   m.zones = {{big_r, 3 * kK, 2 * kS}, {r_e, kK, kS}};
-  m.rates = {{100.0, kQ}, {1e5, 0.0}};
+  m.history = RateHistory({100.0, 1e5}, {kQ, 0.0});
   const std::vector<double> times = {5e4, 1e5, 3e5};
   const RadialSolution s = solve_radial_flow(m, std::vector<double>{kRw}, times);
   const double pore = kPi * kH * (2 * kS * (big_r * big_r - kRw * kRw) + kS * (r_e * r_e - big_r * big_r));
@@ -240,7 +261,7 @@ TEST_CASE("composite closed annulus conserves mass with per-zone storage") {
 
 TEST_CASE("times before injection give zero; order of times and radii is kept; r < r_w clamps") {
   RadialModel m = homogeneous(OuterBoundary::infinite, kInf);
-  m.rates = {{kDay, kQ}};
+  m.history = RateHistory({kDay}, {kQ});
   const std::vector<double> radii = {10.0, 0.0, kRw};
   const std::vector<double> times = {5 * kDay, -kDay, kDay, 2 * kDay};
   const RadialSolution s = solve_radial_flow(m, radii, times);
@@ -279,9 +300,6 @@ TEST_CASE("bad input is a clear InputError") {
       "beyond the well radius");
   bad([](RadialModel& m, RadialSolverOptions&, V&, V&) { m.zones[0].outer_radius = 1000; }, "+infinity");
   bad([](RadialModel& m, RadialSolverOptions&, V&, V&) { m.outer = OuterBoundary::closed; }, "finite outer radius");
-  bad([](RadialModel& m, RadialSolverOptions&, V&, V&) { m.rates = {{10, kQ}, {10, 0}}; }, "rates[1].start");
-  bad([](RadialModel& m, RadialSolverOptions&, V&, V&) { m.rates = {{10, kQ}, {5, 0}}; }, "sorted and not overlap");
-  bad([](RadialModel& m, RadialSolverOptions&, V&, V&) { m.rates = {{0, std::nan("")}}; }, "rates[0].rate");
   bad([](RadialModel&, RadialSolverOptions&, V& rr, V&) { rr = {-1}; }, "radii[0]");
   bad([](RadialModel& m, RadialSolverOptions&, V& rr, V&) {
         m.outer = OuterBoundary::closed;

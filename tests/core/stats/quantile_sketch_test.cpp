@@ -79,19 +79,23 @@ TEST_CASE("merge equals processing every value in one sketch, bit for bit") {
 }
 
 TEST_CASE("bounded memory: collapsing the smallest magnitudes keeps merges exact") {
-  // 16 buckets per store at α = 0.05 cover a factor γ^15 = 4.5 only: the wide sample collapses.
+  // 40 buckets per store at α = 0.05 (M = 9.5 buckets per power of two) cover about four
+  // powers of two; the sample spans about twelve: the positive store collapses.
+  constexpr std::size_t m = 40;
   const std::vector<double> v = sample(5000, 9);
-  QuantileSketch whole(0.05, 1e-12, 16);
+  QuantileSketch whole(0.05, 1e-12, m);
   for (double x : v) whole.add(x);
-  QuantileSketch a(0.05, 1e-12, 16), b(0.05, 1e-12, 16);
+  QuantileSketch a(0.05, 1e-12, m), b(0.05, 1e-12, m);
   for (std::size_t k = 0; k < v.size(); ++k) (k < 1234 ? b : a).add(v[k]);
   a.merge(b);
   CHECK(a == whole);
-  // The encoding has at most 2m buckets; the top quantiles keep their accuracy.
-  CHECK(whole.encode().size() <= 8 + 2 * (2 + 16));
-  // Values within γ^15 of the largest keep their buckets: there the accuracy α holds.
-  const double gamma = 1.05 / 0.95, kept_from = whole.max() / std::pow(gamma, 15);
-  for (double q : {0.9995, 0.9999}) {
+  const auto words = whole.encode();
+  CHECK(words[9] == m);  // the positive store's bucket count (encoding: 8 header words, offset, size)
+  // Buckets within m − 1 of the top one are kept: magnitudes x with L(x) ≥ L(max) − (m − 2)/M
+  // are, and log2 x − 0.0861 ≤ L(x) ≤ log2 x (quantile_sketch.hpp), so
+  // x ≥ max · 2^−((m − 2)/M − 0.0861) suffices; there the accuracy α holds.
+  const double M = 0.95 / 0.1, kept_from = whole.max() * std::exp2(-((m - 2) / M - 0.0861));
+  for (double q : {0.99, 0.999}) {
     const double x = exact(v, q);
     REQUIRE(x > kept_from);
     CHECK(std::abs(whole.quantile(q) - x) <= 0.05 * std::abs(x) * (1.0 + 1e-12));
@@ -121,7 +125,8 @@ TEST_CASE("encoding round trip and bad use") {
   CHECK_THROWS_AS(QuantileSketch(0.0), InputError);
   CHECK_THROWS_AS(QuantileSketch(1.0), InputError);
   CHECK_THROWS_AS(QuantileSketch(0.01, -1.0), InputError);
-  CHECK_THROWS_AS(QuantileSketch(0.01, 0.0, 1), InputError);
+  CHECK_THROWS_AS(QuantileSketch(0.01, 0.0), InputError);  // below the smallest normal double
+  CHECK_THROWS_AS(QuantileSketch(0.01, 1e-12, 1), InputError);
   CHECK_THROWS_AS(s.add(std::numeric_limits<double>::quiet_NaN()), NumericalError);
   CHECK_THROWS_AS(s.quantile(1.5), InputError);
   CHECK_THROWS_AS(QuantileSketch().quantile(0.5), InputError);
@@ -130,14 +135,24 @@ TEST_CASE("encoding round trip and bad use") {
 }
 
 TEST_CASE("values on bucket boundaries stay within the accuracy") {
-  // x = γ^k lies on the upper edge of bucket k; log rounding may put it in bucket k + 1,
-  // whose representative 2γ^(k+1)/(γ+1) is then exactly α above it (Masson et al. 2019 §2).
-  const double alpha = 0.01, gamma = (1 + alpha) / (1 - alpha);
-  for (int k = -60; k <= 60; k += 7) {
+  // Bucket bounds are L⁻¹(k/M) = 2^⌊y⌋ (1 + y − ⌊y⌋), y = k/M (quantile_sketch.hpp); rounding
+  // may put a value on a bound into the neighbouring bucket, whose representative is then
+  // still within α of it (the bound is shared). Includes powers of two (y integer) and the
+  // bucket just above one, where the ratio of bounds is largest (1 + 1/M = γ).
+  const double alpha = 0.01, M = (1 - alpha) / (2 * alpha);
+  for (int k = -300; k <= 300; k += 1) {
+    const double y = k / M, f = std::floor(y);
+    const double x = std::ldexp(1.0 + (y - f), static_cast<int>(f));
     QuantileSketch s(alpha);
-    const double x = std::pow(gamma, k);
     for (double v : {0.1 * x, x, x, x, 10.0 * x}) s.add(v);  // min and max apart: no clamping
     CAPTURE(k);
+    CHECK(std::abs(s.quantile(0.5) - x) <= alpha * x * (1.0 + 1e-12));
+  }
+  for (int e = -30; e <= 40; ++e) {  // 2^-30 = 9.3e-10, above the zero threshold 1e-12
+    QuantileSketch s(alpha);
+    const double x = std::ldexp(1.0, e);
+    for (double v : {0.1 * x, x, x, x, 10.0 * x}) s.add(v);
+    CAPTURE(e);
     CHECK(std::abs(s.quantile(0.5) - x) <= alpha * x * (1.0 + 1e-12));
   }
 }

@@ -43,6 +43,10 @@ TEST_CASE("Spearman matches scipy.stats.spearmanr on ten pairs with ties") {
   const auto r = spearman(x, y);
   CHECK(relative_error(r.rho, 0.8923457102129049) < 1e-14);
   CHECK(relative_error(r.p_value, 0.0005150690741484771) < 1e-11);
+  // From cached ranks: identical.
+  const auto from_ranks = stats::spearman_from_ranks(stats::average_ranks(x), stats::average_ranks(y));
+  CHECK(from_ranks.rho == r.rho);
+  CHECK(from_ranks.p_value == r.p_value);
   // Symmetric in its arguments, and the sign flips with the order of y.
   CHECK(spearman(y, x).rho == r.rho);
   std::vector<double> neg(y);

@@ -1,0 +1,41 @@
+// `slipscreen demo`: runs the bundled, fictional demo scenario (regions/marrowick) into a run
+// folder (default runs/demo under the current directory) and prints where the outputs are.
+#include <CLI/CLI.hpp>
+#include <filesystem>
+#include <memory>
+
+#include "cli/commands.hpp"
+#include "cli/run_report.hpp"
+#include "core/errors.hpp"
+
+namespace slipscreen::cli {
+namespace {
+
+std::string demo_scenario() {
+  namespace fs = std::filesystem;
+  const fs::path rel = "regions/marrowick/scenario.toml";
+  std::error_code ec;
+  if (fs::is_regular_file(rel, ec)) return rel.generic_string();
+  const fs::path bundled = fs::path(SLIPSCREEN_SOURCE_DIR) / rel;
+  if (fs::is_regular_file(bundled, ec)) return bundled.generic_string();
+  throw IoError("the demo scenario " + rel.generic_string() + " was found neither here nor in " SLIPSCREEN_SOURCE_DIR);
+}
+
+}  // namespace
+
+void register_demo_command(CLI::App& app, Context& ctx) {
+  auto opts = std::make_shared<RunCommandOptions>();
+  CLI::App* sub = app.add_subcommand("demo", "Run the bundled demo (the fictional Marrowick Basin) into runs/demo");
+  sub->add_option("--out", opts->out, "Run folder")->default_val("runs/demo");
+  sub->add_flag("--force", opts->force, "Replace an existing run folder (only once the new run is complete)");
+  sub->add_flag("--reproducible", opts->reproducible, "Byte-identical reruns (no creation time in the manifest)");
+  sub->callback([opts, &ctx] {
+    ctx.action = [opts, &ctx] {
+      RunCommandOptions o = *opts;
+      o.scenario = demo_scenario();
+      return run_and_report(o, ctx);
+    };
+  });
+}
+
+}  // namespace slipscreen::cli

@@ -1,0 +1,75 @@
+#include "cli/run_report.hpp"
+
+#include <cstdio>
+#include <map>
+#include <ostream>
+#include <set>
+
+#include "cli/exit_codes.hpp"
+#include "cli/scenario_summary.hpp"
+#include "io/run.hpp"
+#include "io/scenario.hpp"
+
+namespace slipscreen::cli {
+namespace {
+
+std::string mpa(double pa) {
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%.2f", pa / 1e6);
+  return buf;
+}
+
+std::string pad(std::string s, std::size_t n) {
+  if (s.size() < n) s.append(n - s.size(), ' ');
+  return s;
+}
+
+}  // namespace
+
+int run_and_report(const RunCommandOptions& o, Context& ctx) {
+  const io::ResolvedScenario s = io::load_scenario(o.scenario);
+  io::RunOptions ro;
+  ro.out = o.out;
+  ro.force = o.force;
+  ro.allow_network = o.allow_network;
+  ro.reproducible = o.reproducible;
+  ro.command_line = ctx.command_line;
+  if (ctx.err_is_terminal) {
+    ro.progress = [&ctx](const std::string& stage, double f) {
+      if (f < 0) ctx.err << "\r\033[K" << stage << " ..." << std::flush;
+      else ctx.err << "\r\033[K" << stage << " " << static_cast<int>(f * 100 + 0.5) << "%" << std::flush;
+    };
+  }
+  const io::RunSummary r = io::run_scenario(s, ro);
+  if (ctx.err_is_terminal) ctx.err << "\r\033[K" << std::flush;
+
+  ctx.out << "Deterministic screen of " << s.file << (s.title.empty() ? "" : " (" + s.title + ")") << "\n";
+  ctx.out << "  " << r.fault_count << " faults in " << r.segment_count << " segments, " << r.well_count << " wells, "
+          << s.output.dates.size() << " output times to " << r.last_date << "\n";
+  ctx.out << "  " << r.crossing_count << " segments reach their critical pressure increase by " << r.last_date << "; "
+          << r.already_critical_count << " already critically stressed before injection\n";
+  if (r.radius_clamped) ctx.out << "  note: some check points lie within a well radius; they are evaluated at the radius\n";
+
+  // The faults closest to failure: each fault's segment with the smallest margin.
+  std::set<std::string> listed;
+  ctx.out << "\nFaults closest to failure (margin = dp_crit - peak dp; negative: reached):\n";
+  ctx.out << "  " << pad("fault", 10) << pad("segment", 12) << pad("dp_crit MPa", 13) << pad("peak dp MPa", 13)
+          << pad("margin MPa", 12) << pad("first reached", 15) << "leading well (share)\n";
+  for (const auto& line : r.closest) {
+    if (static_cast<int>(listed.size()) >= o.closest) break;
+    if (!listed.insert(line.fault_id).second) continue;
+    const bool critical = line.status == geomech::CriticalStatus::already_critical;
+    char share[32];
+    std::snprintf(share, sizeof share, "%.0f%%", line.leading_share * 100);
+    ctx.out << "  " << pad(line.fault_id, 10) << pad(line.segment_id, 12) << pad(mpa(line.dp_crit), 13)
+            << pad(mpa(line.peak_dp), 13) << pad(mpa(line.dp_crit - line.peak_dp), 12)
+            << pad(critical ? "before injection" : line.first_crossing.value_or("-"), 15)
+            << (line.leading_well.empty() ? "-" : line.leading_well + " (" + share + ")") << "\n";
+  }
+  ctx.out << "\nOutputs in " << r.folder.generic_string() << "/:\n";
+  for (const auto& f : r.files) ctx.out << "  " << f << "\n";
+  ctx.out << "\nScreening caution: " << io::kScreeningCaution << "\n";
+  return kExitOk;
+}
+
+}  // namespace slipscreen::cli

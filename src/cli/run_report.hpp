@@ -1,0 +1,23 @@
+#pragma once
+// What `run` and `demo` share: running a scenario with progress on a terminal, and the console
+// summary (faults closest to failure, where the outputs are, the screening caution).
+#include <filesystem>
+#include <string>
+
+#include "cli/app.hpp"
+
+namespace slipscreen::cli {
+
+struct RunCommandOptions {
+  std::string scenario;
+  std::string out;
+  bool force = false;
+  bool allow_network = false;
+  bool reproducible = false;
+  int closest = 10;  // faults listed in the summary
+};
+
+// Loads, runs and reports; returns the exit code (typed errors propagate to cli::run).
+int run_and_report(const RunCommandOptions& o, Context& ctx);
+
+}  // namespace slipscreen::cli

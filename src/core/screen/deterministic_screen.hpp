@@ -1,0 +1,95 @@
+#pragma once
+// The deterministic screen: for best-estimate inputs, every fault segment's stress state,
+// critical pore-pressure increase, the pressure change reaching it from every well over time,
+// each well's share of it, and the first time the change reaches the critical value.
+//
+// Methods (sources in the engines this composes):
+//   σn, τ, slip tendency τ/(σn − p0), dilation tendency    geomech/fault_stress.hpp
+//     (Jaeger, Cook & Zimmerman 2007; Morris et al. 1996; Ferrill et al. 1999)
+//   Δp_crit = (σn − p0) − (τ − c)/μ                         geomech/coulomb.hpp (Hubbert & Rubey 1959)
+//   Δp(x, t): Theis line sources superposed in time and space, with image wells
+//                                                           hydro/pressure_field.hpp (Theis 1935)
+//   A segment's Δp is the maximum over its check points (the highest Δp can sit anywhere on it).
+//   First crossing: the earliest time of the tracking grid (tracking_grid.hpp, merged with the
+//   output times) at which that maximum is ≥ Δp_crit; the crossing itself happened in the
+//   interval ending then (at most a month long). No stress change from the pressure (κ = 0).
+//
+// Symbol table: sigma_n σn, tau τ, p0 initial pore pressure, mu μ, cohesion c, dp Δp,
+// dp_crit Δp_crit, strike φs, dip δ (right-hand rule, azimuths in the stress's frame).
+//
+// Accuracy: Δp to the accuracy of hydro::PressureField (≤ 1e-15 relative per term, sums to
+// ~1e-13 relative); stresses to ~1e-15 × max|S|. The first-crossing time is exact on the grid
+// (a month of resolution), not interpolated. Deterministic for any thread count.
+#include <cstddef>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/geomech/coulomb.hpp"
+#include "core/geomech/fault_stress.hpp"
+#include "core/geomech/stress_state.hpp"
+#include "core/geometry/point.hpp"
+#include "core/hydro/image_wells.hpp"
+#include "core/hydro/rate_history.hpp"
+#include "core/hydro/theis.hpp"
+
+namespace slipscreen::screen {
+
+struct ScreenWell {
+  std::string id;
+  double x = 0, y = 0;   // m, working CRS
+  double radius = 0.1;   // m
+  hydro::RateHistory history;
+};
+
+struct ScreenSegment {
+  std::string segment_id;
+  double strike = 0;  // rad, right-hand rule, in the frame of the stress's SHmax azimuth
+  double dip = 0;     // rad
+  std::vector<geometry::Point2> check_points;  // working CRS, at least one
+  std::optional<double> friction;              // the segment's own μ, else the default
+};
+
+struct ScreenInputs {
+  geomech::AndersonianStress stress;  // at the reference depth, with the initial pore pressure
+  geomech::Friction friction;         // default μ and cohesion
+  hydro::TheisParameters formation;
+  std::vector<hydro::Boundary> boundaries;
+  std::vector<ScreenWell> wells;
+  std::vector<ScreenSegment> segments;
+  std::vector<double> output_times;    // s, strictly increasing
+  std::vector<double> tracking_times;  // s, strictly increasing (tracking_grid); may be empty
+};
+
+struct SegmentScreen {
+  double friction = 0;                 // μ used
+  double normal_stress = 0;            // σn, Pa
+  double effective_normal_stress = 0;  // σn − p0, Pa
+  double shear_stress = 0;             // τ, Pa
+  double slip_tendency = 0;            // τ / (σn − p0)
+  double dilation_tendency = 0;        // (S1 − σn)/(S1 − S3)
+  double rake = 0;                     // rad, NaN when τ = 0
+  geomech::SlipSense sense = geomech::SlipSense::none;
+  double dp_crit = 0;                  // Pa; ≤ 0: already critical before injection
+  geomech::CriticalStatus status = geomech::CriticalStatus::below_failure;
+  std::vector<double> dp;              // Pa, per output time: max over check points (0 before injection)
+  std::vector<std::size_t> dp_point;   // per output time: the check point holding the max
+  std::vector<double> well_share;      // [k * wells + w]: well w's fraction of dp[k] (0 if dp = 0)
+  std::optional<double> first_crossing;  // s; empty when never reached or already critical
+  double peak_dp = 0;                  // Pa, max over the tracking grid and output times
+  double peak_time = 0;                // s (0 when no pressure at all)
+};
+
+struct ScreenResult {
+  std::vector<SegmentScreen> segments;   // in input order
+  std::vector<double> tracked_times;     // the grid actually searched (tracking ∪ output times)
+  bool radius_clamped = false;           // some check point lay within a well radius
+};
+
+// Progress callback: fraction done in [0, 1] (called from the calling thread only).
+using Progress = void (*)(double fraction, void* user);
+
+// Throws InputError for invalid inputs (named field), as the engines do.
+ScreenResult deterministic_screen(const ScreenInputs& in, Progress progress = nullptr, void* user = nullptr);
+
+}  // namespace slipscreen::screen

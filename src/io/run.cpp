@@ -1,0 +1,92 @@
+#include "io/run.hpp"
+
+#include <algorithm>
+#include <cmath>
+
+#include "core/errors.hpp"
+#include "core/screen/deterministic_screen.hpp"
+#include "io/manifest.hpp"
+#include "io/run_folder.hpp"
+#include "io/run_inputs.hpp"
+#include "io/run_outputs.hpp"
+
+namespace slipscreen::io {
+
+std::filesystem::path run_folder_of(const ResolvedScenario& s, const RunOptions& o) {
+  if (!o.out.empty()) return o.out;
+  if (s.output.folder.empty())
+    throw RefusedError(s.file + ": no run folder: set [output] folder in the scenario or give --out");
+  return std::filesystem::path(s.output.folder);
+}
+
+namespace {
+
+struct ProgressBridge {
+  const RunOptions* options;
+};
+
+void report(double fraction, void* user) {
+  const auto* b = static_cast<ProgressBridge*>(user);
+  if (b->options->progress) b->options->progress("pressure at fault segments", fraction);
+}
+
+}  // namespace
+
+RunSummary run_scenario(const ResolvedScenario& s, const RunOptions& o) {
+  const std::filesystem::path target = run_folder_of(s, o);
+  const auto stage = [&](const char* name) {
+    if (o.progress) o.progress(name, -1.0);
+  };
+  stage("reading faults and wells");
+  const PreparedRun prepared = prepare_run(s, o.allow_network);
+  // Refuse an existing folder before computing (RunFolder checks again when created).
+  if (!o.force && std::filesystem::exists(target))
+    throw RefusedError("run folder '" + target.generic_string() +
+                       "' exists: choose another folder or give --force to replace it");
+
+  ProgressBridge bridge{&o};
+  const screen::ScreenResult result = screen::deterministic_screen(prepared.inputs, &report, &bridge);
+
+  stage("writing outputs");
+  RunFolder folder(target, RunFolderOptions{o.force});
+  write_run_outputs(folder, s, prepared, result, o);
+  folder.commit();
+
+  RunSummary summary;
+  summary.folder = target;
+  for (const auto& e : std::filesystem::recursive_directory_iterator(target))
+    if (e.is_regular_file()) summary.files.push_back(e.path().lexically_relative(target).generic_string());
+  std::sort(summary.files.begin(), summary.files.end());
+  summary.fault_count = prepared.fault_count;
+  summary.segment_count = prepared.segments.size();
+  summary.well_count = prepared.wells.size();
+  summary.radius_clamped = result.radius_clamped;
+  summary.last_date = util::format_iso_date(s.output.dates.back());
+  const std::size_t W = prepared.wells.size();
+  const std::size_t K = s.output.times.size();
+  for (std::size_t i = 0; i < result.segments.size(); ++i) {
+    const auto& r = result.segments[i];
+    SegmentLine line;
+    line.segment_id = prepared.segments[i].segment_id;
+    line.fault_id = prepared.segments[i].fault_id;
+    line.dp_crit = r.dp_crit;
+    line.peak_dp = r.peak_dp;
+    line.final_dp = r.dp.back();
+    line.status = r.status;
+    if (r.first_crossing) line.first_crossing = util::format_iso_date(util::date_at(*r.first_crossing));
+    for (std::size_t w = 0; w < W; ++w)
+      if (r.well_share[(K - 1) * W + w] > line.leading_share) {
+        line.leading_share = r.well_share[(K - 1) * W + w];
+        line.leading_well = prepared.wells[w].id;
+      }
+    summary.crossing_count += r.first_crossing.has_value();
+    summary.already_critical_count += r.status == geomech::CriticalStatus::already_critical;
+    summary.closest.push_back(line);
+  }
+  std::stable_sort(summary.closest.begin(), summary.closest.end(), [](const SegmentLine& a, const SegmentLine& b) {
+    return a.dp_crit - a.peak_dp < b.dp_crit - b.peak_dp;
+  });
+  return summary;
+}
+
+}  // namespace slipscreen::io

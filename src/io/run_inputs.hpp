@@ -1,0 +1,42 @@
+#pragma once
+// Preparing a run: read the fault map, reproject wells and faults into the working CRS, split
+// faults into segments, resolve the stress at the reference depth and the Theis parameters,
+// and lay out the output grid. Everything that can fail on bad input fails here, before any
+// output folder exists.
+#include <filesystem>
+#include <string>
+#include <vector>
+
+#include "core/geometry/raster_grid.hpp"
+#include "core/screen/deterministic_screen.hpp"
+#include "io/crs.hpp"
+#include "io/manifest.hpp"
+#include "io/scenario.hpp"
+#include "io/vector_faults.hpp"
+
+namespace slipscreen::io {
+
+struct PreparedRun {
+  Crs working;
+  std::vector<FaultSegment> segments;  // geometry in the working CRS (strikes: grid azimuths)
+  std::vector<WellSpec> wells;         // x, y in the working CRS
+  screen::ScreenInputs inputs;         // strikes converted to true-north azimuths
+  geometry::RasterGrid grid;
+  double convergence_rad = 0;          // meridian convergence at the centre of the faults
+  std::vector<ManifestInput> manifest_inputs;
+  std::size_t fault_count = 0;
+};
+
+// Throws InputError / IoError / RefusedError naming the file, feature or key.
+PreparedRun prepare_run(const ResolvedScenario& s, bool allow_network);
+
+// The in-situ stress at the reference depth from the region's description (geomech engines).
+geomech::AndersonianStress stress_at_reference_depth(const RegionSpec& r);
+
+// Theis parameters (D and μ/(4π k h)) of the region's formation.
+hydro::TheisParameters theis_parameters_of(const FormationSpec& f);
+
+// A well's rate history in the pressure engine's form.
+hydro::RateHistory rate_history_of(const WellSpec& w);
+
+}  // namespace slipscreen::io
