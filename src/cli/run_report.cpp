@@ -66,6 +66,50 @@ int run_and_report(const RunCommandOptions& o, Context& ctx) {
             << pad(critical ? "before injection" : line.first_crossing.value_or("-"), 15)
             << (line.leading_well.empty() ? "-" : line.leading_well + " (" + share + ")") << "\n";
   }
+  if (r.probabilistic) {
+    const auto& p = *r.probabilistic;
+    char line[256];
+    ctx.out << "\nProbabilistic screen: " << p.realizations << " realizations (" << p.sampler << ", seed " << s.seed
+            << ")";
+    if (p.rejected > 0) ctx.out << "; " << p.rejected << " rejected as unphysical stress";
+    ctx.out << "\n";
+    std::snprintf(line, sizeof line,
+                  "  Monte Carlo error: the widest %.0f%% interval is +/- %.3f; pressure surrogate error %.1e\n",
+                  p.confidence * 100, p.mc_half_width_max, p.surrogate_error);
+    ctx.out << line;
+    if (p.beyond_frictional_limit > 0)
+      ctx.out << "  " << p.beyond_frictional_limit
+              << " realizations have stress beyond the frictional limit (optimally oriented faults critical)\n";
+    if (p.already_critical_segments > 0)
+      ctx.out << "  " << p.already_critical_segments
+              << " segments are critically stressed before injection in some realizations (reported apart, "
+                 "not counted in P(slip))\n";
+    std::string ths;
+    for (double t : p.thresholds) {
+      std::snprintf(line, sizeof line, "%s%.3g", ths.empty() ? "" : ", ", t);
+      ths += line;
+    }
+    ctx.out << "  Segments whose injection-induced P(slip by " << r.last_date << ") reaches a threshold (" << ths
+            << "): " << p.flagged.size() << "\n";
+    if (!p.flagged.empty()) {
+      ctx.out << "  " << pad("fault", 10) << pad("segment", 12) << pad("P(slip)", 9) << pad("interval", 18)
+              << pad("threshold", 11) << "first reached\n";
+      int shown = 0;
+      for (const auto& f : p.flagged) {
+        if (shown++ >= o.closest) {
+          ctx.out << "  ... " << (p.flagged.size() - static_cast<std::size_t>(o.closest))
+                  << " more in segment_probability_summary.csv\n";
+          break;
+        }
+        char pr[32], ci[48], th[32];
+        std::snprintf(pr, sizeof pr, "%.3f", f.p_final);
+        std::snprintf(ci, sizeof ci, "[%.3f, %.3f]", f.ci_low, f.ci_high);
+        std::snprintf(th, sizeof th, "%.3g", f.threshold);
+        ctx.out << "  " << pad(f.fault_id, 10) << pad(f.segment_id, 12) << pad(pr, 9) << pad(ci, 18) << pad(th, 11)
+                << (f.first_date.empty() ? "-" : f.first_date) << "\n";
+      }
+    }
+  }
   ctx.out << "\nOutputs in " << r.folder.generic_string() << "/:\n";
   for (const auto& f : r.files) ctx.out << "  " << f << "\n";
   ctx.out << "\nScreening caution: " << io::kScreeningCaution << "\n";

@@ -9,6 +9,9 @@
 #include "io/run_folder.hpp"
 #include "io/run_inputs.hpp"
 #include "io/run_outputs.hpp"
+#include "io/probabilistic_run.hpp"
+#include "io/scenario_uncertainty.hpp"
+#include "core/stats/wilson_interval.hpp"
 
 namespace slipscreen::io {
 
@@ -44,12 +47,18 @@ RunSummary run_scenario(const ResolvedScenario& s, const RunOptions& o) {
     throw RefusedError("run folder '" + target.generic_string() +
                        "' exists: choose another folder or give --force to replace it");
 
+  const UncertaintySpec spec = load_uncertainty(s);
   ProgressBridge bridge{&o};
   const screen::ScreenResult result = screen::deterministic_screen(prepared.inputs, &report, &bridge);
+  std::optional<ProbabilisticRun> prob;
+  if (spec.given) {
+    stage("probabilistic screen");
+    prob = run_probabilistic_screen(s, prepared, spec);
+  }
 
   stage("writing outputs");
   RunFolder folder(target, RunFolderOptions{o.force});
-  write_run_outputs(folder, s, prepared, result, o);
+  write_run_outputs(folder, s, prepared, result, o, prob ? &*prob : nullptr);
   folder.commit();
 
   RunSummary summary;
@@ -86,6 +95,40 @@ RunSummary run_scenario(const ResolvedScenario& s, const RunOptions& o) {
   std::stable_sort(summary.closest.begin(), summary.closest.end(), [](const SegmentLine& a, const SegmentLine& b) {
     return a.dp_crit - a.peak_dp < b.dp_crit - b.peak_dp;
   });
+  if (prob) {
+    const auto& pr = prob->result;
+    ProbabilisticSummary ps;
+    ps.realizations = pr.realizations;
+    ps.rejected = pr.rejected;
+    ps.beyond_frictional_limit = pr.beyond_frictional_limit;
+    ps.sampler = std::string(stats::sampling_method_name(pr.sampler.method));
+    ps.confidence = prob->confidence;
+    ps.thresholds = prob->thresholds;
+    ps.mc_half_width_max = prob->mc_half_width_max;
+    ps.surrogate_error = pr.surrogate_error;
+    const double z = stats::z_for_confidence(prob->confidence);
+    for (std::size_t i = 0; i < pr.segments.size(); ++i) {
+      const auto& seg = pr.segments[i];
+      ps.already_critical_segments += seg.already_critical > 0;
+      const auto ci = stats::wilson_interval(seg.slipped_by[K - 1], pr.realizations, z);
+      FlaggedSegment f;
+      for (double th : prob->thresholds)
+        if (ci.estimate >= th) f.threshold = th;
+      if (f.threshold <= 0.0) continue;
+      f.segment_id = prepared.segments[i].segment_id;
+      f.fault_id = prepared.segments[i].fault_id;
+      f.p_final = ci.estimate;
+      f.ci_low = ci.lower;
+      f.ci_high = ci.upper;
+      for (std::size_t k = 0; k < K && f.first_date.empty(); ++k)
+        if (slip_probability(*prob, i, k) >= prob->thresholds.front())
+          f.first_date = util::format_iso_date(s.output.dates[k]);
+      ps.flagged.push_back(std::move(f));
+    }
+    std::stable_sort(ps.flagged.begin(), ps.flagged.end(),
+                     [](const FlaggedSegment& a, const FlaggedSegment& b) { return a.p_final > b.p_final; });
+    summary.probabilistic = std::move(ps);
+  }
   return summary;
 }
 

@@ -52,6 +52,25 @@ struct SegmentLine {
   double leading_share = 0;
 };
 
+// One fault segment of the probabilistic screen that reaches a probability threshold.
+struct FlaggedSegment {
+  std::string segment_id, fault_id;
+  double p_final = 0, ci_low = 0, ci_high = 0;  // P(slip by the last output time) and its interval
+  double threshold = 0;                          // the highest threshold reached
+  std::string first_date;                        // first output date at which it is reached
+};
+
+struct ProbabilisticSummary {
+  std::uint64_t realizations = 0, rejected = 0, beyond_frictional_limit = 0;
+  std::string sampler;
+  double confidence = 0.95;
+  std::vector<double> thresholds;
+  double mc_half_width_max = 0;          // largest half-width of the intervals (Monte Carlo error)
+  double surrogate_error = 0;
+  std::size_t already_critical_segments = 0;  // segments with any realization critical before injection
+  std::vector<FlaggedSegment> flagged;    // sorted by final probability, highest first
+};
+
 struct RunSummary {
   std::filesystem::path folder;
   std::vector<std::string> files;  // relative to the folder, sorted
@@ -60,6 +79,7 @@ struct RunSummary {
   std::vector<SegmentLine> closest;  // segments sorted by Δp_crit − peak Δp (closest first)
   bool radius_clamped = false;
   std::string last_date;
+  std::optional<ProbabilisticSummary> probabilistic;  // when the scenario has [uncertainty]
 };
 
 // Throws the typed errors of the inputs; nothing is left behind when it throws.

@@ -9,7 +9,9 @@
 #include "core/hydro/pressure_grid.hpp"
 #include "core/units/units.hpp"
 #include "io/geotiff_writer.hpp"
+#include "core/stats/wilson_interval.hpp"
 #include "io/manifest.hpp"
+#include "io/probabilistic_run.hpp"
 #include "io/vector_writer.hpp"
 #include "slipscreen/version.hpp"
 
@@ -176,7 +178,7 @@ std::string gpkg_date_field(const util::CivilDate& d) {
 }
 
 void write_layers(const RunFolder& folder, const ResolvedScenario& s, const PreparedRun& p,
-                  const screen::ScreenResult& r, const RunOptions& o) {
+                  const screen::ScreenResult& r, const RunOptions& o, const ProbabilisticRun* prob) {
   std::vector<FieldSpec> fields = {
       {"segment_id", FieldType::string},   {"fault_id", FieldType::string},      {"segment_index", FieldType::integer},
       {"strike_deg", FieldType::real},     {"dip_deg", FieldType::real},         {"friction", FieldType::real},
@@ -184,6 +186,12 @@ void write_layers(const RunFolder& folder, const ResolvedScenario& s, const Prep
       {"dp_crit_MPa", FieldType::real},    {"status", FieldType::string},        {"peak_dp_MPa", FieldType::real},
       {"margin_MPa", FieldType::real},     {"first_crossing", FieldType::date}};
   for (const auto& d : s.output.dates) fields.push_back({"dp_" + gpkg_date_field(d) + "_MPa", FieldType::real});
+  if (prob) {  // probabilistic screen: one probability column per output time, ready to style
+    for (const auto& d : s.output.dates) fields.push_back({"p_slip_" + gpkg_date_field(d), FieldType::real});
+    fields.push_back({"p_slip_final_ci_high", FieldType::real});
+    fields.push_back({"p_already_critical", FieldType::real});
+    fields.push_back({"dp_crit_p50_MPa", FieldType::real});
+  }
   VectorLayer segs("fault_segments", GeometryType::line_string, fields,
                    "Fault segments with the deterministic screen (screening estimate)");
   for (std::size_t i = 0; i < r.segments.size(); ++i) {
@@ -199,6 +207,16 @@ void write_layers(const RunFolder& folder, const ResolvedScenario& s, const Prep
                 std::isinf(g.dp_crit) ? std::numeric_limits<double>::quiet_NaN() : (g.dp_crit - g.peak_dp) / kMPa,
                 g.first_crossing ? FieldValue(date_of(*g.first_crossing)) : FieldValue(std::monostate{})};
     for (double v : g.dp) f.values.emplace_back(v / kMPa);
+    if (prob) {
+      const auto& ps = prob->result.segments[i];
+      const auto n = prob->result.realizations;
+      for (std::size_t k = 0; k < s.output.dates.size(); ++k) f.values.emplace_back(slip_probability(*prob, i, k));
+      f.values.emplace_back(
+          stats::wilson_interval(ps.slipped_by.back(), n, stats::z_for_confidence(prob->confidence)).upper);
+      f.values.emplace_back(static_cast<double>(ps.already_critical) / static_cast<double>(n));
+      f.values.emplace_back(ps.dp_crit.empty() ? std::numeric_limits<double>::quiet_NaN()
+                                               : ps.dp_crit.quantile(0.5) / kMPa);
+    }
     segs.features.push_back(std::move(f));
   }
   const double t_end = s.output.times.back();
@@ -229,10 +247,11 @@ void write_layers(const RunFolder& folder, const ResolvedScenario& s, const Prep
 }  // namespace
 
 void write_run_outputs(const RunFolder& folder, const ResolvedScenario& s, const PreparedRun& p,
-                       const screen::ScreenResult& r, const RunOptions& o) {
+                       const screen::ScreenResult& r, const RunOptions& o, const ProbabilisticRun* probabilistic) {
   if (s.output.tables) write_tables(folder, s, p, r);
   if (s.output.rasters) write_raster(folder, s, p);
-  if (s.output.geopackage) write_layers(folder, s, p, r, o);
+  if (s.output.geopackage) write_layers(folder, s, p, r, o, probabilistic);
+  if (probabilistic) write_probabilistic_outputs(folder, s, p, *probabilistic);
 
   ManifestContent m;
   m.command_line = o.command_line;
@@ -255,6 +274,7 @@ void write_run_outputs(const RunFolder& folder, const ResolvedScenario& s, const
                     {"theis", {{"diffusivity_m2_per_s", p.inputs.formation.diffusivity},
                                {"pressure_per_rate_Pa_s_per_m3", p.inputs.formation.pressure_per_rate}}},
                     {"well_radius_clamped", r.radius_clamped}}}};
+  if (probabilistic) m.parameters["probabilistic"] = probabilistic->manifest;
   write_manifest(folder.output("output.files.manifest", s.output.files.manifest), m, folder.staging());
 }
 

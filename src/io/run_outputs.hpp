@@ -7,8 +7,12 @@
 
 namespace slipscreen::io {
 
+struct ProbabilisticRun;
+// `probabilistic` (may be null) adds the probabilistic tables, rasters, GeoPackage columns and
+// manifest block.
 void write_run_outputs(const RunFolder& folder, const ResolvedScenario& s, const PreparedRun& prepared,
-                       const screen::ScreenResult& result, const RunOptions& options);
+                       const screen::ScreenResult& result, const RunOptions& options,
+                       const ProbabilisticRun* probabilistic = nullptr);
 
 // Number formatting of the tables: fixed decimals, "" for NaN, "inf" for +infinity; the same
 // bytes for the same double on every run.

@@ -189,7 +189,7 @@ UncertaintySpec read_uncertainty(const toml::table* table, const UncertaintyCont
   spec.given = true;
   const Section top({Section::Layer{table, ctx.file, "uncertainty", {}}});
   top.allow({"realizations", "sampler", "confidence", "thresholds", "pore_pressure_gradient", "rate_factor", "stress",
-             "formation", "faults", "fault", "well"});
+             "formation", "faults", "fault", "well", "maps"});
 
   if (const auto n = top.optional_integer("realizations")) {
     if (*n < 1 || *n > stats::RealizationCount::kMax)
@@ -274,6 +274,19 @@ UncertaintySpec read_uncertainty(const toml::table* table, const UncertaintyCont
   }
 
   std::sort(spec.values.begin(), spec.values.end(), [](const UncertainValue& a, const UncertainValue& b) { return a.key < b.key; });
+  // Probability maps for unmapped faults: cell size and an optional orientation.
+  const Section maps = top.child("maps");
+  maps.allow({"cell_size", "strike", "dip"});
+  spec.map_cell_size = maps.quantity_or("cell_size", units::Dimension::length, 0.0);
+  if (spec.map_cell_size < 0.0) maps.fail("cell_size", std::to_string(spec.map_cell_size) + " m", "a cell size > 0");
+  if (maps.has("strike") != maps.has("dip"))
+    maps.fail(maps.has("strike") ? "dip" : "strike", "(missing)", "both the strike and the dip of the map orientation");
+  if (maps.has("strike")) {
+    spec.map_strike = maps.quantity("strike", units::Dimension::angle);
+    spec.map_dip = maps.quantity("dip", units::Dimension::angle);
+    if (!(*spec.map_dip >= 0.0 && *spec.map_dip <= 1.5707963267948966 + 1e-12))
+      maps.fail("dip", std::to_string(*spec.map_dip * 57.29577951308232) + " deg", "a dip from 0 to 90 deg");
+  }
   return spec;
 }
 
@@ -304,6 +317,8 @@ nlohmann::json to_json(const UncertaintySpec& spec) {
           {"stream", std::string(stats::kStreamVersion)},
           {"confidence", spec.confidence},
           {"thresholds", spec.thresholds},
+          {"map_cell_size_m", spec.map_cell_size},
+          {"map_orientation_rad", spec.map_strike ? nlohmann::json{*spec.map_strike, *spec.map_dip} : nlohmann::json()},
           {"inputs", inputs}};
 }
 

@@ -17,6 +17,7 @@
 //                             (every fault; perturbations are added to the mapped orientation)
 //   [uncertainty.fault."F-12"]  friction of one fault (replaces [uncertainty.faults] friction)
 //   [uncertainty.well."MW-01"]  rate_factor of one well (multiplies the global rate_factor)
+//   [uncertainty.maps]        cell_size = "2 km"; strike = "30 deg", dip = "70 deg" (optional)
 //
 // These map one to one onto the fields of the Monte Carlo driver's model
 // (probabilistic::UncertainModel); a key left out keeps the region's or scenario's value.
@@ -24,6 +25,7 @@
 // "formation.permeability", "faults.friction", "fault.F-12.friction", "well.MW-01.rate_factor"
 // (sorted, so the spec does not depend on the order of the lines in the file).
 #include <cstdint>
+#include <optional>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -55,6 +57,10 @@ struct UncertaintySpec {
   std::vector<double> thresholds{0.05};  // increasing, each in (0, 1)
   std::vector<UncertainValue> values;    // sorted by key
   std::vector<std::string> fault_ids;    // ids named under [uncertainty.fault], for check_fault_ids
+  // [uncertainty.maps]: cell size of the probability rasters (0: the output grid's) and an
+  // optional fault orientation for the second raster.
+  double map_cell_size = 0.0;
+  std::optional<double> map_strike, map_dip;  // rad
 
   // The value for `key`, or null.
   const UncertainValue* find(std::string_view key) const;

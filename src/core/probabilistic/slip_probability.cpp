@@ -79,26 +79,6 @@ struct Realization {
   double diffusivity = 0.0, prefactor = 0.0;
 };
 
-// Pearson correlation of two rank vectors (Spearman's ρ when both are average ranks).
-double rank_pearson(const std::vector<double>& a, const std::vector<double>& b) {
-  const auto n = static_cast<double>(a.size());
-  double ma = 0.0, mb = 0.0;
-  for (std::size_t i = 0; i < a.size(); ++i) {
-    ma += a[i];
-    mb += b[i];
-  }
-  ma /= n;
-  mb /= n;
-  double sab = 0.0, saa = 0.0, sbb = 0.0;
-  for (std::size_t i = 0; i < a.size(); ++i) {
-    sab += (a[i] - ma) * (b[i] - mb);
-    saa += (a[i] - ma) * (a[i] - ma);
-    sbb += (b[i] - mb) * (b[i] - mb);
-  }
-  if (saa <= 0.0 || sbb <= 0.0) return std::numeric_limits<double>::quiet_NaN();
-  return sab / std::sqrt(saa * sbb);
-}
-
 }  // namespace
 
 std::vector<std::string> sampled_input_names(const UncertainModel& model, const std::vector<WellInput>& wells,
@@ -383,13 +363,13 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
     }
     const auto margin_ranks = stats::average_ranks(margin);
     res.sensitivity.resize(n_inputs + 2);
-    for (std::size_t j = 0; j < n_inputs; ++j) res.sensitivity[j] = rank_pearson(input_ranks[j], margin_ranks);
+    for (std::size_t j = 0; j < n_inputs; ++j) res.sensitivity[j] = stats::spearman_from_ranks(input_ranks[j], margin_ranks).rho;
     const std::size_t f = segments[o.segment].fault;
     for (std::size_t a = 0; a < 2; ++a) {
       std::vector<double> pert(keep.size());
       for (std::size_t c = 0; c < keep.size(); ++c)
         pert[c] = pv(static_cast<Eigen::Index>(2 * f + a), static_cast<Eigen::Index>(c));
-      res.sensitivity[n_inputs + a] = rank_pearson(stats::average_ranks(pert), margin_ranks);
+      res.sensitivity[n_inputs + a] = stats::spearman_from_ranks(stats::average_ranks(pert), margin_ranks).rho;
     }
     out.segments[o.segment] = std::move(res);
   });
