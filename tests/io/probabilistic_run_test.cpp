@@ -1,0 +1,128 @@
+// End-to-end probabilistic runs of the tiny scenario (tests/data/scenario/tiny) with an
+// [uncertainty] table: the extra outputs, their consistency with the deterministic screen,
+// byte-identical reruns for 1 and 2 threads, and the GeoPackage probability columns.
+#include "io/probabilistic_run.hpp"
+
+#include <doctest/doctest.h>
+
+#include <gdal_priv.h>
+#include <omp.h>
+#include <ogrsf_frmts.h>
+
+#include <filesystem>
+
+#include "io/csv.hpp"
+#include "io/run.hpp"
+#include "io/scenario.hpp"
+#include "scenario_fixture.hpp"
+
+namespace fs = std::filesystem;
+using namespace slipscreen;
+using namespace slipscreen::io;
+using slipscreen::test::slurp;
+using slipscreen::test::TinyScenario;
+
+namespace {
+
+RunOptions into(const fs::path& out) {
+  RunOptions o;
+  o.out = out;
+  o.reproducible = true;
+  o.command_line = {"slipscreen", "run", "scenario.toml"};
+  return o;
+}
+
+const char* kUncertainty =
+    "\n[uncertainty]\nrealizations = 300\nsampler = \"latin-hypercube\"\nthresholds = [0.05, 0.5]\n"
+    "[uncertainty.formation]\npermeability = \"lognormal(median=200 mD, sigma_ln=0.4)\"\n"
+    "[uncertainty.faults]\nfriction = \"truncnormal(mean=0.6, sd=0.05, min=0.4, max=0.8)\"\n"
+    "[uncertainty.maps]\nstrike = \"30 deg\"\ndip = \"70 deg\"\n";
+
+}  // namespace
+
+TEST_CASE("a scenario with [uncertainty] adds the probabilistic outputs") {
+  TinyScenario t;
+  t.append("scenario.toml", kUncertainty);
+  const ResolvedScenario s = load_scenario(t.scenario());
+  const fs::path out = t.dir() / "runs" / "p";
+  const RunSummary r = run_scenario(s, into(out));
+  REQUIRE(r.probabilistic.has_value());
+  CHECK(r.probabilistic->realizations + r.probabilistic->rejected == 300);
+  for (const char* f : {"segment_probability.csv", "segment_probability_summary.csv", "sensitivity.csv",
+                        "slip_probability_dangerous.tif", "slip_probability_oriented.tif"}) {
+    CAPTURE(f);
+    CHECK(std::find(r.files.begin(), r.files.end(), f) != r.files.end());
+  }
+  // One row per segment and output time; P non-decreasing in time and inside its interval.
+  const CsvTable tidy = read_csv(out / "segment_probability.csv", "segment_probability.csv");
+  CHECK(tidy.rows.size() == r.segment_count * s.output.times.size());
+  const auto col = [&](const char* name) {
+    const auto c = tidy.column(name);
+    REQUIRE(c.has_value());
+    return *c;
+  };
+  const std::size_t cp = col("p_slip"), lo = col("p_slip_ci_low"), hi = col("p_slip_ci_high"), sid = col("segment_id");
+  for (std::size_t i = 0; i < tidy.rows.size(); ++i) {
+    const double p = std::stod(tidy.rows[i].fields[cp]);
+    CHECK(std::stod(tidy.rows[i].fields[lo]) <= p);
+    CHECK(p <= std::stod(tidy.rows[i].fields[hi]));
+    if (i > 0 && tidy.rows[i].fields[sid] == tidy.rows[i - 1].fields[sid]) CHECK(p >= std::stod(tidy.rows[i - 1].fields[cp]));
+  }
+  // The GeoPackage fault layer carries one probability column per output time.
+  GDALAllRegister();
+  auto* ds = static_cast<GDALDataset*>(GDALOpenEx((out / "screen.gpkg").c_str(), GDAL_OF_VECTOR, nullptr, nullptr, nullptr));
+  REQUIRE(ds != nullptr);
+  OGRLayer* segs = ds->GetLayerByName("fault_segments");
+  REQUIRE(segs != nullptr);
+  CHECK(segs->GetLayerDefn()->GetFieldIndex("p_slip_2023_01_01") >= 0);
+  CHECK(segs->GetLayerDefn()->GetFieldIndex("p_already_critical") >= 0);
+  GDALClose(ds);
+  // The probability rasters have one band per output time, named by date.
+  auto* tif = static_cast<GDALDataset*>(GDALOpen((out / "slip_probability_dangerous.tif").c_str(), GA_ReadOnly));
+  REQUIRE(tif != nullptr);
+  CHECK(tif->GetRasterCount() == static_cast<int>(s.output.times.size()));
+  CHECK(std::string(tif->GetRasterBand(1)->GetDescription()) == "2021-01-01");
+  GDALClose(tif);
+}
+
+TEST_CASE("probabilistic outputs are byte-identical for reruns with 1 and 2 threads") {
+  TinyScenario t;
+  t.append("scenario.toml", kUncertainty);
+  const ResolvedScenario s = load_scenario(t.scenario());
+  const int before = omp_get_max_threads();
+  omp_set_num_threads(1);
+  run_scenario(s, into(t.dir() / "one"));
+  omp_set_num_threads(2);
+  run_scenario(s, into(t.dir() / "two"));
+  omp_set_num_threads(before);
+  for (const char* f : {"segment_probability.csv", "segment_probability_summary.csv", "sensitivity.csv",
+                        "slip_probability_dangerous.tif", "screen.gpkg", "manifest.json"}) {
+    CAPTURE(f);
+    CHECK(slurp(t.dir() / "one" / f) == slurp(t.dir() / "two" / f));
+  }
+}
+
+TEST_CASE("all inputs fixed: the probabilistic screen agrees with the deterministic one") {
+  TinyScenario t;
+  t.append("scenario.toml", "\n[uncertainty]\nrealizations = 20\n");
+  const ResolvedScenario s = load_scenario(t.scenario());
+  const fs::path out = t.dir() / "fixed";
+  run_scenario(s, into(out));
+  const CsvTable det = read_csv(out / "segments.csv", "segments.csv");
+  const CsvTable pro = read_csv(out / "segment_probability_summary.csv", "segment_probability_summary.csv");
+  REQUIRE(det.rows.size() == pro.rows.size());
+  const auto at = [](const CsvTable& tb, const char* name) {
+    const auto c = tb.column(name);
+    REQUIRE(c.has_value());
+    return *c;
+  };
+  const std::size_t first = at(det, "first_crossing_date"), p = at(pro, "p_slip_final"),
+                    crit = at(pro, "p_already_critical");
+  for (std::size_t i = 0; i < det.rows.size(); ++i) {
+    CAPTURE(i);
+    const double pf = std::stod(pro.rows[i].fields[p]) + std::stod(pro.rows[i].fields[crit]);
+    CHECK((pf == 0.0 || pf == 1.0));  // degenerate distributions: every realization is the same
+    // Reached by the last output time in the deterministic screen <=> P = 1 (or already critical).
+    CHECK((det.rows[i].fields[first].empty() ? 0.0 : 1.0) == std::stod(pro.rows[i].fields[p]));
+  }
+}
