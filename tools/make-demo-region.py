@@ -271,6 +271,34 @@ extent = "auto"                    # around wells and faults; or [xmin, ymin, xm
 margin = "5 km"
 cell_size = "1 km"
 # crs = "EPSG:32708"               # default: the region's working CRS
+
+# The probabilistic screen (docs/uncertainty.md): inputs not named keep the region's value.
+[uncertainty]
+realizations = 2000                # Latin hypercube sample of the inputs below
+sampler = "latin-hypercube"
+thresholds = [0.05, 0.2]           # probabilities of slip that flag a fault segment
+pore_pressure_gradient = "normal(0.44 psi/ft, 0.01 psi/ft)"
+rate_factor = "truncnormal(mean=1, sd=0.1, min=0.5, max=1.5)"   # reported volumes, all wells
+
+[uncertainty.formation]
+permeability = "lognormal(median=30 mD, sigma_ln=0.5)"
+porosity = "uniform(0.06, 0.10)"
+
+[uncertainty.stress]
+shmax_azimuth = "normal(75 deg, 8 deg)"
+
+[uncertainty.faults]
+friction = "truncnormal(mean=0.6, sd=0.08, min=0.3, max=0.9)"
+strike_perturbation = "normal(0 deg, 5 deg)"   # around each mapped strike
+dip_perturbation = "normal(0 deg, 3 deg)"
+
+[uncertainty.well."MW-P1"]
+rate_factor = "uniform(0.8, 1.2)"  # the planned well may inject more or less than planned
+
+[uncertainty.maps]                 # probability rasters for unmapped faults
+cell_size = "2 km"
+strike = "345 deg"                 # a second raster for faults of this orientation
+dip = "85 deg"
 """
 
 README_MD = """\
