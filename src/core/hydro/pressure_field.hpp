@@ -13,7 +13,7 @@
 // points to every source. Neither depends on the hydrogeology, which enters evaluate() only
 // through TheisParameters (D and μ/(4π k h)) and optional per-well rate factors.
 //
-// Accuracy: each term is E1 to ≤ 1e-15 relative; the sum adds rounding of order (number of
+// Accuracy: each term is E1 to ≤ 2e-15 relative; the sum adds rounding of order (number of
 // terms) · 1e-16 relative to the sum of term magnitudes. Image truncation: see image_wells.hpp.
 #include <cstddef>
 #include <cstdint>

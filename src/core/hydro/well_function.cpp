@@ -172,29 +172,34 @@ struct LogReduced {
 
 // Both pieces at once for a vector of mixed arguments: each is computed on clamped arguments
 // and one is selected per lane; a single division serves both.
+template <bool kRegular>
 [[gnu::always_inline]] inline double both_pieces(double u) {
+  // kRegular: the caller guarantees 2^-1000 ≤ u ≤ kWellFunctionUnderflow (no special values)
   const bool is_small = u < 1.0;
   // small piece on us in (0, 1]: −γ − ln u + u S(u)
   const double us = is_small ? u : 1.0;
-  const bool subnormal = us < 0x1p-1000;  // scale tiny and subnormal arguments before ln
-  const double uscaled = us * (subnormal ? 0x1p200 : 1.0);  // us = 0 gives a finite dummy
+  const bool subnormal = !kRegular && us < 0x1p-1000;  // scale tiny and subnormal u before ln
+  const double uscaled = kRegular ? us : us * (subnormal ? 0x1p200 : 1.0);  // 0 -> finite dummy
   const LogReduced lr = log_reduce(uscaled);
   const double series = us * poly(kSmallLo, us);
   // large piece on ul in [1, 705]: e^(−u) P(u) / (u Q(u))
   const double ul0 = u > 1.0 ? u : 1.0;
-  const double ul = ul0 < 705.0 ? ul0 : 705.0;
+  const double ul = kRegular ? ul0 : (ul0 < 705.0 ? ul0 : 705.0);
   const double pl = poly(kLargePLo, ul);
   const double ql = ul * poly(kLargeQLo, ul);
   const double ex = exp_neg(ul);
   // One division serves whichever piece the lane needs: f/(2+f) for ln, or P/(uQ).
   const double ratio = (is_small ? lr.f : pl) / (is_small ? 2.0 + lr.f : ql);
-  const double lnu = log_finish(lr.e, ratio) - (subnormal ? 200.0 * kLn2Hi + 200.0 * kLn2Lo : 0.0);
+  double lnu = log_finish(lr.e, ratio);
+  if constexpr (!kRegular) lnu -= subnormal ? 200.0 * kLn2Hi + 200.0 * kLn2Lo : 0.0;
   const double small = (-kEulerGamma - lnu) + series;
   const double large = ex * ratio;
-  double w = u < 1.0 ? small : large;
-  w = u > kWellFunctionUnderflow ? 0.0 : w;
-  w = u == 0.0 ? std::numeric_limits<double>::infinity() : w;
-  w = ((u < 0.0) | (u != u)) ? std::numeric_limits<double>::quiet_NaN() : w;
+  double w = is_small ? small : large;
+  if constexpr (!kRegular) {
+    w = u > kWellFunctionUnderflow ? 0.0 : w;
+    w = u == 0.0 ? std::numeric_limits<double>::infinity() : w;
+    w = ((u < 0.0) | (u != u)) ? std::numeric_limits<double>::quiet_NaN() : w;
+  }
   return w;
 }
 
@@ -212,14 +217,19 @@ double well_function(double u) { return u < 1.0 ? small_piece(u) : large_piece(u
     const std::size_t m = n - b0 < kBlock ? n - b0 : kBlock;                               \
     const double* ub = u + b0;                                                             \
     double* ob = out + b0;                                                                 \
-    std::size_t ns = 0;                                                                    \
-    _Pragma("omp simd reduction(+ : ns)") for (std::size_t i = 0; i < m; ++i) ns += ub[i] < 1.0; \
+    std::size_t ns = 0, nr = 0;                                                            \
+    _Pragma("omp simd reduction(+ : ns, nr)") for (std::size_t i = 0; i < m; ++i) {        \
+      ns += ub[i] < 1.0;                                                                   \
+      nr += (ub[i] >= 0x1p-1000) & (ub[i] <= kWellFunctionUnderflow);                      \
+    }                                                                                      \
     if (ns == m) {                                                                         \
       _Pragma("omp simd") for (std::size_t i = 0; i < m; ++i) ob[i] = small_piece(ub[i]);  \
     } else if (ns == 0) {                                                                  \
       _Pragma("omp simd") for (std::size_t i = 0; i < m; ++i) ob[i] = large_piece(ub[i]);  \
+    } else if (nr == m) {                                                                  \
+      _Pragma("omp simd") for (std::size_t i = 0; i < m; ++i) ob[i] = both_pieces<true>(ub[i]); \
     } else {                                                                               \
-      _Pragma("omp simd") for (std::size_t i = 0; i < m; ++i) ob[i] = both_pieces(ub[i]);  \
+      _Pragma("omp simd") for (std::size_t i = 0; i < m; ++i) ob[i] = both_pieces<false>(ub[i]); \
     }                                                                                      \
   }
 

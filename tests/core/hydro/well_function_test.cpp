@@ -71,9 +71,17 @@ TEST_CASE("well function agrees with Boost.Math expint to 1e-13 over 1e-12 <= u 
   MESSAGE("max relative error vs Boost.Math: scalar " << worst_scalar << ", batched " << worst_batched);
   CHECK(worst_scalar <= 1e-13);
   CHECK(worst_batched <= 1e-13);
-  // The stated accuracy in well_function.hpp (1e-15) holds too.
-  CHECK(worst_scalar <= 1e-15);
-  CHECK(worst_batched <= 1e-15);
+  // The stated accuracy in well_function.hpp (2e-15) holds too.
+  CHECK(worst_scalar <= 2e-15);
+  CHECK(worst_batched <= 2e-15);
+  // ... and down to u = 1e-300 (Boost.Math again).
+  const auto tiny = sweep(1e-300, 1e-12, 3000);
+  std::vector<double> tiny_out(tiny.size());
+  well_function(tiny.data(), tiny_out.data(), tiny.size());
+  for (std::size_t i = 0; i < tiny.size(); ++i) {
+    CHECK(rel_err(tiny_out[i], boost_e1(tiny[i])) <= 2e-15);
+    CHECK(rel_err(well_function(tiny[i]), boost_e1(tiny[i])) <= 2e-15);
+  }
 }
 
 TEST_CASE("batched and scalar forms agree, including in place and odd lengths") {
@@ -82,7 +90,7 @@ TEST_CASE("batched and scalar forms agree, including in place and odd lengths") 
     std::vector<double> out(u.size());
     well_function(u.data(), out.data(), u.size());
     for (std::size_t i = 0; i < u.size(); ++i)
-      CHECK(rel_err(out[i], well_function(u[i])) <= 1e-15);
+      CHECK(rel_err(out[i], well_function(u[i])) <= 2e-15);
     std::vector<double> copy = u;
     well_function(copy.data(), copy.data(), copy.size());  // in place
     CHECK(copy == out);
