@@ -2,18 +2,21 @@
 // vectorise. Two pieces, coefficients fitted by tools/fit_e1.py (mpmath, 60 digits):
 //
 //   0 < u < 1:  E1(u) = −γ − ln u + u·S(u)            (Abramowitz & Stegun 1964, eq. 5.1.11)
-//               S(u) = Σ_{k≥1} (−1)^(k+1) u^(k−1)/(k·k!), as a degree-12 Chebyshev-economised
-//               polynomial (fit error 1.6e-20 absolute on [0, 1]).
+//               S(u) = Σ_{k≥1} (−1)^(k+1) u^(k−1)/(k·k!), as a degree-11 Chebyshev-economised
+//               polynomial (fit error 9.9e-19 absolute on [0, 1]).
 //   u ≥ 1:      E1(u) = e^(−u)/u · g(u), g(u) = u e^u E1(u) ∈ (0.59, 1]  (A&S 1964, eq. 5.1.51
 //               gives the same form as a bound); g = P(u)/Q(u), a degree-10/10 rational in 1/u
 //               written with reversed coefficients as a rational in u (fit error 1.5e-17
-//               relative on [1, ∞); all coefficients positive, so Horner evaluation is stable).
+//               relative on [1, ∞); all coefficients positive, so the evaluation is stable).
 //
 // ln and exp are the project's own (argument reduction by powers of two, Cody & Waite 1980
-// two-constant reduction of x − n ln 2, Taylor / atanh series), written with plain arithmetic
-// and bit casts so the compiler vectorises them.
+// two-constant reduction of x − n ln 2, economised atanh and exponential series), written with
+// plain arithmetic and bit casts so the compiler vectorises them. Polynomials use Estrin's
+// scheme (short dependency chains).
 //
-// Symbols: u -> u, kEulerGamma -> γ (Euler–Mascheroni), small_series -> S(u), g -> g(u).
+// Symbols: u -> u, kEulerGamma -> γ (Euler–Mascheroni), kSmall -> S(u), kLargeP/kLargeQ -> P, Q
+// with g(u) = P(u)/Q(u).
+//
 // The kernel below is branch-free only if the compiler may evaluate both arms of each select
 // without regard to floating-point traps (slipscreen never enables FP exceptions). Without this
 // GCC keeps the branches and the batched loop does not vectorise.
@@ -25,7 +28,6 @@
 #include <cstdint>
 #include <limits>
 
-
 namespace slipscreen::hydro {
 namespace {
 
@@ -33,7 +35,6 @@ constexpr double kEulerGamma = 0.57721566490153286060651209008240243;
 constexpr double kLn2Hi = 6.93147180369123816490e-01;  // high part of ln 2 (trailing bits zero)
 constexpr double kLn2Lo = 1.90821492927058770002e-10;  // ln 2 − kLn2Hi
 constexpr double kLog2e = 1.44269504088896338700e+00;
-constexpr double kSqrt2 = 1.41421356237309504880;
 
 // S(u), highest degree first (tools/fit_e1.py, degree 11, fit error 9.9e-19 absolute).
 constexpr double kSmall[] = {
@@ -115,14 +116,14 @@ struct LogReduced {
 };
 
 [[gnu::always_inline]] inline LogReduced log_reduce(double x) {
+  // Adding 2^52·(2 − √2)·... to the bits moves the exponent boundary from 1 to √(1/2): the
+  // exponent field of t is e + 1023 with m in [√(1/2), √2), without compares or selects.
+  constexpr std::uint64_t kSqrtHalfBits = 0x3fe6a09e667f3bcdULL;  // bits of √(1/2)
   const std::uint64_t bits = std::bit_cast<std::uint64_t>(x);
-  // exponent field as a double without an int->double conversion (not in AVX2): 2^52 + e − 2^52
-  const double efield = std::bit_cast<double>(0x4330000000000000ULL | (bits >> 52)) - 0x1p52;
-  double m = std::bit_cast<double>((bits & 0x000fffffffffffffULL) | 0x3ff0000000000000ULL);
-  double e = efield - 1023.0;
-  const bool big = m > kSqrt2;  // m in [1, 2) -> [sqrt(1/2), sqrt(2))
-  m *= big ? 0.5 : 1.0;
-  e += big ? 1.0 : 0.0;
+  const std::uint64_t t = bits + (0x3ff0000000000000ULL - kSqrtHalfBits);
+  // exponent as a double without an int->double conversion (not in AVX2): 2^52 + field − 2^52
+  const double e = std::bit_cast<double>(0x4330000000000000ULL | (t >> 52)) - (0x1p52 + 1023.0);
+  const double m = std::bit_cast<double>((t & 0x000fffffffffffffULL) + kSqrtHalfBits);
   return {e, m - 1.0};  // m − 1 is exact (Sterbenz)
 }
 
