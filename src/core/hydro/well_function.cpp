@@ -27,6 +27,7 @@
 #include <bit>
 #include <cstdint>
 #include <limits>
+#include <stdexcept>
 
 namespace slipscreen::hydro {
 namespace {
@@ -265,6 +266,29 @@ BatchFn pick_batch() {
 void well_function(const double* u, double* out, std::size_t n) {
   static const BatchFn batch = pick_batch();
   batch(u, out, n);
+}
+
+bool well_function_build_available(WellFunctionBuild build) {
+  __builtin_cpu_init();
+  switch (build) {
+    case WellFunctionBuild::portable: return true;
+    case WellFunctionBuild::avx2_fma:
+      return __builtin_cpu_supports("avx2") && __builtin_cpu_supports("fma");
+    case WellFunctionBuild::avx512:
+      return __builtin_cpu_supports("avx512f") && __builtin_cpu_supports("avx512dq") &&
+             __builtin_cpu_supports("avx512vl");
+  }
+  return false;
+}
+
+void well_function_with(WellFunctionBuild build, const double* u, double* out, std::size_t n) {
+  if (!well_function_build_available(build))
+    throw std::invalid_argument("well_function_with: this CPU cannot run the requested build");
+  switch (build) {
+    case WellFunctionBuild::portable: well_function_portable(u, out, n); return;
+    case WellFunctionBuild::avx2_fma: well_function_avx2(u, out, n); return;
+    case WellFunctionBuild::avx512: well_function_avx512(u, out, n); return;
+  }
 }
 
 }  // namespace slipscreen::hydro

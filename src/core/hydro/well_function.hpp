@@ -32,6 +32,13 @@ double well_function(double u);
 // CPU has it). `u` and `out` may be the same array; otherwise they must not overlap.
 void well_function(const double* u, double* out, std::size_t n);
 
+// The instruction-set builds of the batched form (chosen automatically by well_function); named
+// here so the tests can check every build the machine can run against the same reference.
+enum class WellFunctionBuild { portable, avx2_fma, avx512 };
+bool well_function_build_available(WellFunctionBuild build);
+// Throws std::invalid_argument when the CPU cannot run `build`.
+void well_function_with(WellFunctionBuild build, const double* u, double* out, std::size_t n);
+
 inline void well_function(std::span<const double> u, std::span<double> out) {
   well_function(u.data(), out.data(), u.size() < out.size() ? u.size() : out.size());
 }
