@@ -3,7 +3,7 @@
 // uniform thickness, infinite in extent, injecting (q > 0) or producing (q < 0) at a constant rate
 // from t = 0:
 //   Δp(r, t) = q μ / (4π k h) · E1(u),  u = r² / (4 D t),  D = k / (μ φ c_t)
-//                                                            (Theis 1935; Earlougher 1977, eq. 2.2)
+//                                                            (Theis 1935; Earlougher 1977, ch. 2)
 //   hydrogeologists' form: s = Q / (4π T) · W(u), u = r² S / (4 T t), Δp = ρ g s  (Theis 1935)
 // The two forms are the same with T = k ρ g h / μ and S = ρ g φ c_t h.
 //

@@ -117,8 +117,9 @@ struct LogReduced {
 };
 
 [[gnu::always_inline]] inline LogReduced log_reduce(double x) {
-  // Adding 2^52·(2 − √2)·... to the bits moves the exponent boundary from 1 to √(1/2): the
-  // exponent field of t is e + 1023 with m in [√(1/2), √2), without compares or selects.
+  // Adding (bits of 1) − (bits of √(1/2)) to the bits of x moves the exponent boundary from
+  // mantissa 1 to √2: the exponent field of t is e + 1023 with x = 2^e m, m in [√(1/2), √2),
+  // without compares or selects.
   constexpr std::uint64_t kSqrtHalfBits = 0x3fe6a09e667f3bcdULL;  // bits of √(1/2)
   const std::uint64_t bits = std::bit_cast<std::uint64_t>(x);
   const std::uint64_t t = bits + (0x3ff0000000000000ULL - kSqrtHalfBits);
@@ -131,7 +132,8 @@ struct LogReduced {
 // s = f / (2 + f) from log_reduce.
 [[gnu::always_inline]] inline double log_finish(double e, double s) {
   const double z = s * s;
-  // ln m = 2 atanh s = 2s + s R(s²), |s| ≤ 0.1716 (A&S 1964, eq. 4.1.28 series, economised)
+  // ln m = 2 atanh s = 2s + s R(s²), |s| ≤ 0.1716: the series of ln((1+s)/(1−s))
+  // (A&S 1964, ch. 4), economised.
   const double lnm = 2.0 * s + s * poly(kLogRLo, z);
   return e * kLn2Hi + (lnm + e * kLn2Lo);
 }
