@@ -161,6 +161,14 @@ struct Problem {
   std::vector<std::string> time_labels;
 };
 
+// A core validation error restated with the option's name and the text the user wrote.
+[[noreturn]] void rethrow_as_option(
+    const InputError& e, const std::map<std::string, std::pair<std::string, std::string>>& as_given) {
+  const auto it = as_given.find(e.field());
+  if (it == as_given.end()) throw e;
+  throw InputError(it->second.first, it->second.second, e.expected());
+}
+
 hydro::TheisParameters formation_from(const PressureOptions& o, std::string& text) {
   const bool hydro_set = !o.transmissivity.empty() || !o.storativity.empty();
   const bool petro_set = !o.permeability.empty() || !o.thickness.empty() || !o.viscosity.empty() ||
@@ -182,14 +190,10 @@ hydro::TheisParameters formation_from(const PressureOptions& o, std::string& tex
     text = "T = " + o.transmissivity + ", S = " + o.storativity + ", rho = " + o.density;
     try {
       return hydro::theis_parameters(a);
-    } catch (const InputError& e) {  // name the option and the text the user wrote
-      const std::map<std::string, std::pair<std::string, std::string>> as_given = {
-          {"transmissivity", {"--transmissivity", o.transmissivity}},
-          {"storativity", {"--storativity", o.storativity}},
-          {"fluid_density", {"--density", o.density}}};
-      const auto it = as_given.find(e.field());
-      if (it == as_given.end()) throw;
-      throw InputError(it->second.first, it->second.second, e.expected());
+    } catch (const InputError& e) {
+      rethrow_as_option(e, {{"transmissivity", {"--transmissivity", o.transmissivity}},
+                            {"storativity", {"--storativity", o.storativity}},
+                            {"fluid_density", {"--density", o.density}}});
     }
   }
   need(o.permeability, "--permeability", "10 mD");
@@ -207,16 +211,12 @@ hydro::TheisParameters formation_from(const PressureOptions& o, std::string& tex
          ", phi = " + o.porosity + ", c_t = " + o.compressibility;
   try {
     return hydro::theis_parameters(f);
-  } catch (const InputError& e) {  // name the option and the text the user wrote
-    const std::map<std::string, std::pair<std::string, std::string>> as_given = {
-        {"permeability", {"--permeability", o.permeability}},
-        {"thickness", {"--thickness", o.thickness}},
-        {"viscosity", {"--viscosity", o.viscosity}},
-        {"porosity", {"--porosity", o.porosity}},
-        {"total_compressibility", {"--compressibility", o.compressibility}}};
-    const auto it = as_given.find(e.field());
-    if (it == as_given.end()) throw;
-    throw InputError(it->second.first, it->second.second, e.expected());
+  } catch (const InputError& e) {
+    rethrow_as_option(e, {{"permeability", {"--permeability", o.permeability}},
+                          {"thickness", {"--thickness", o.thickness}},
+                          {"viscosity", {"--viscosity", o.viscosity}},
+                          {"porosity", {"--porosity", o.porosity}},
+                          {"total_compressibility", {"--compressibility", o.compressibility}}});
   }
 }
 

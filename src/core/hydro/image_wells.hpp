@@ -1,6 +1,6 @@
 #pragma once
 // Straight boundaries by the method of images (Ferris et al. 1962, USGS Water-Supply Paper
-// 1536-E; Earlougher 1977, ch. 10.2): a real well near a straight boundary is replaced by the
+// 1536-E; Earlougher 1977, ch. 10): a real well near a straight boundary is replaced by the
 // well plus its mirror image across the line in an infinite formation.
 //   no-flow boundary (sealing fault, pinch-out):        image of the same sign (image injector)
 //   constant-pressure boundary (outcrop, recharge):     image of opposite sign (image producer)

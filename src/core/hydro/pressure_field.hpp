@@ -3,7 +3,7 @@
 // each well's rate history (rate_history.hpp) and in space over all wells and their images
 // across straight boundaries (image_wells.hpp). The diffusion equation is linear, so
 //   Δp(x, t) = Σ_wells f_w Σ_sources sign_s Σ_{t_j < t} Δq_j · μ/(4π k h) · E1(r_s² / (4 D (t − t_j)))
-//                                                     (Theis 1935; Earlougher 1977, eqs. 2.23, 10.1)
+//                                                     (Theis 1935; Earlougher 1977, ch. 2 and ch. 10)
 // Symbols: f_w rate factor of well w [-], sign_s ±1 image sign, Δq_j rate change [m³/s] at t_j
 // [s], r_s distance to source s clamped to the well radius r_w [m], D diffusivity [m²/s],
 // μ/(4π k h) pressure_per_rate [Pa per m³/s].
@@ -13,7 +13,7 @@
 // points to every source. Neither depends on the hydrogeology, which enters evaluate() only
 // through TheisParameters (D and μ/(4π k h)) and optional per-well rate factors.
 //
-// Accuracy: each term is E1 to ≤ 1e-15 relative; the sum adds rounding of order (number of
+// Accuracy: each term is E1 to ≤ 2e-15 relative; the sum adds rounding of order (number of
 // terms) · 1e-16 relative to the sum of term magnitudes. Image truncation: see image_wells.hpp.
 #include <cstddef>
 #include <cstdint>

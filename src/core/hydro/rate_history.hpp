@@ -1,7 +1,7 @@
 #pragma once
 // Piecewise-constant injection rate histories and superposition in time.
 //
-// Superposition in time (linearity of the diffusion equation; Earlougher 1977, eq. 2.23):
+// Superposition in time (linearity of the diffusion equation; Earlougher 1977, ch. 2):
 //   Δp(t) = Σ_j (q_j − q_{j−1}) F(t − t_j)   over the steps with t_j < t,  q_{−1} = 0,
 // where F(τ) is the response to a unit rate switched on at τ = 0. A shut-in is a step to rate 0;
 // the pressure then decays (Theis recovery: Δp = q/(4π T)·[W(u) − W(u')] after a single

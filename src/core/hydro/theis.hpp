@@ -3,7 +3,7 @@
 // uniform thickness, infinite in extent, injecting (q > 0) or producing (q < 0) at a constant rate
 // from t = 0:
 //   Δp(r, t) = q μ / (4π k h) · E1(u),  u = r² / (4 D t),  D = k / (μ φ c_t)
-//                                                            (Theis 1935; Earlougher 1977, eq. 2.2)
+//                                                            (Theis 1935; Earlougher 1977, ch. 2)
 //   hydrogeologists' form: s = Q / (4π T) · W(u), u = r² S / (4 T t), Δp = ρ g s  (Theis 1935)
 // The two forms are the same with T = k ρ g h / μ and S = ρ g φ c_t h.
 //
@@ -67,7 +67,7 @@ double theis_argument(const TheisParameters& p, double r, double t);
 // Unit-rate response F(r, t) = μ/(4π k h) · E1(r²/(4 D t)) [Pa per m³/s] at distance r (already
 // clamped by the caller) and time t since the rate started. F = 0 for t ≤ 0 (documented value:
 // before the rate starts there is no pressure change). Accuracy: that of well_function
-// (≤ 1e-15 relative) times the rounding of the inputs.
+// (≤ 2e-15 relative) times the rounding of the inputs.
 double theis_unit_response(const TheisParameters& p, double r, double t);
 
 // Δp for a constant rate q [m³/s] from t = 0, at r clamped to r_w (Theis 1935). 0 for t ≤ 0.

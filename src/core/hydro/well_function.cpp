@@ -2,18 +2,21 @@
 // vectorise. Two pieces, coefficients fitted by tools/fit_e1.py (mpmath, 60 digits):
 //
 //   0 < u < 1:  E1(u) = −γ − ln u + u·S(u)            (Abramowitz & Stegun 1964, eq. 5.1.11)
-//               S(u) = Σ_{k≥1} (−1)^(k+1) u^(k−1)/(k·k!), as a degree-12 Chebyshev-economised
-//               polynomial (fit error 1.6e-20 absolute on [0, 1]).
+//               S(u) = Σ_{k≥1} (−1)^(k+1) u^(k−1)/(k·k!), as a degree-11 Chebyshev-economised
+//               polynomial (fit error 9.9e-19 absolute on [0, 1]).
 //   u ≥ 1:      E1(u) = e^(−u)/u · g(u), g(u) = u e^u E1(u) ∈ (0.59, 1]  (A&S 1964, eq. 5.1.51
 //               gives the same form as a bound); g = P(u)/Q(u), a degree-10/10 rational in 1/u
 //               written with reversed coefficients as a rational in u (fit error 1.5e-17
-//               relative on [1, ∞); all coefficients positive, so Horner evaluation is stable).
+//               relative on [1, ∞); all coefficients positive, so the evaluation is stable).
 //
 // ln and exp are the project's own (argument reduction by powers of two, Cody & Waite 1980
-// two-constant reduction of x − n ln 2, Taylor / atanh series), written with plain arithmetic
-// and bit casts so the compiler vectorises them.
+// two-constant reduction of x − n ln 2, economised atanh and exponential series), written with
+// plain arithmetic and bit casts so the compiler vectorises them. Polynomials use Estrin's
+// scheme (short dependency chains).
 //
-// Symbols: u -> u, kEulerGamma -> γ (Euler–Mascheroni), small_series -> S(u), g -> g(u).
+// Symbols: u -> u, kEulerGamma -> γ (Euler–Mascheroni), kSmall -> S(u), kLargeP/kLargeQ -> P, Q
+// with g(u) = P(u)/Q(u).
+//
 // The kernel below is branch-free only if the compiler may evaluate both arms of each select
 // without regard to floating-point traps (slipscreen never enables FP exceptions). Without this
 // GCC keeps the branches and the batched loop does not vectorise.
@@ -24,7 +27,7 @@
 #include <bit>
 #include <cstdint>
 #include <limits>
-
+#include <stdexcept>
 
 namespace slipscreen::hydro {
 namespace {
@@ -33,7 +36,6 @@ constexpr double kEulerGamma = 0.57721566490153286060651209008240243;
 constexpr double kLn2Hi = 6.93147180369123816490e-01;  // high part of ln 2 (trailing bits zero)
 constexpr double kLn2Lo = 1.90821492927058770002e-10;  // ln 2 − kLn2Hi
 constexpr double kLog2e = 1.44269504088896338700e+00;
-constexpr double kSqrt2 = 1.41421356237309504880;
 
 // S(u), highest degree first (tools/fit_e1.py, degree 11, fit error 9.9e-19 absolute).
 constexpr double kSmall[] = {
@@ -115,21 +117,23 @@ struct LogReduced {
 };
 
 [[gnu::always_inline]] inline LogReduced log_reduce(double x) {
+  // Adding (bits of 1) − (bits of √(1/2)) to the bits of x moves the exponent boundary from
+  // mantissa 1 to √2: the exponent field of t is e + 1023 with x = 2^e m, m in [√(1/2), √2),
+  // without compares or selects.
+  constexpr std::uint64_t kSqrtHalfBits = 0x3fe6a09e667f3bcdULL;  // bits of √(1/2)
   const std::uint64_t bits = std::bit_cast<std::uint64_t>(x);
-  // exponent field as a double without an int->double conversion (not in AVX2): 2^52 + e − 2^52
-  const double efield = std::bit_cast<double>(0x4330000000000000ULL | (bits >> 52)) - 0x1p52;
-  double m = std::bit_cast<double>((bits & 0x000fffffffffffffULL) | 0x3ff0000000000000ULL);
-  double e = efield - 1023.0;
-  const bool big = m > kSqrt2;  // m in [1, 2) -> [sqrt(1/2), sqrt(2))
-  m *= big ? 0.5 : 1.0;
-  e += big ? 1.0 : 0.0;
+  const std::uint64_t t = bits + (0x3ff0000000000000ULL - kSqrtHalfBits);
+  // exponent as a double without an int->double conversion (not in AVX2): 2^52 + field − 2^52
+  const double e = std::bit_cast<double>(0x4330000000000000ULL | (t >> 52)) - (0x1p52 + 1023.0);
+  const double m = std::bit_cast<double>((t & 0x000fffffffffffffULL) + kSqrtHalfBits);
   return {e, m - 1.0};  // m − 1 is exact (Sterbenz)
 }
 
 // s = f / (2 + f) from log_reduce.
 [[gnu::always_inline]] inline double log_finish(double e, double s) {
   const double z = s * s;
-  // ln m = 2 atanh s = 2s + s R(s²), |s| ≤ 0.1716 (A&S 1964, eq. 4.1.28 series, economised)
+  // ln m = 2 atanh s = 2s + s R(s²), |s| ≤ 0.1716: the series of ln((1+s)/(1−s))
+  // (A&S 1964, ch. 4), economised.
   const double lnm = 2.0 * s + s * poly(kLogRLo, z);
   return e * kLn2Hi + (lnm + e * kLn2Lo);
 }
@@ -172,29 +176,34 @@ struct LogReduced {
 
 // Both pieces at once for a vector of mixed arguments: each is computed on clamped arguments
 // and one is selected per lane; a single division serves both.
+template <bool kRegular>
 [[gnu::always_inline]] inline double both_pieces(double u) {
+  // kRegular: the caller guarantees 2^-1000 ≤ u ≤ kWellFunctionUnderflow (no special values)
   const bool is_small = u < 1.0;
   // small piece on us in (0, 1]: −γ − ln u + u S(u)
   const double us = is_small ? u : 1.0;
-  const bool subnormal = us < 0x1p-1000;  // scale tiny and subnormal arguments before ln
-  const double uscaled = us * (subnormal ? 0x1p200 : 1.0);  // us = 0 gives a finite dummy
+  const bool subnormal = !kRegular && us < 0x1p-1000;  // scale tiny and subnormal u before ln
+  const double uscaled = kRegular ? us : us * (subnormal ? 0x1p200 : 1.0);  // 0 -> finite dummy
   const LogReduced lr = log_reduce(uscaled);
   const double series = us * poly(kSmallLo, us);
   // large piece on ul in [1, 705]: e^(−u) P(u) / (u Q(u))
   const double ul0 = u > 1.0 ? u : 1.0;
-  const double ul = ul0 < 705.0 ? ul0 : 705.0;
+  const double ul = kRegular ? ul0 : (ul0 < 705.0 ? ul0 : 705.0);
   const double pl = poly(kLargePLo, ul);
   const double ql = ul * poly(kLargeQLo, ul);
   const double ex = exp_neg(ul);
   // One division serves whichever piece the lane needs: f/(2+f) for ln, or P/(uQ).
   const double ratio = (is_small ? lr.f : pl) / (is_small ? 2.0 + lr.f : ql);
-  const double lnu = log_finish(lr.e, ratio) - (subnormal ? 200.0 * kLn2Hi + 200.0 * kLn2Lo : 0.0);
+  double lnu = log_finish(lr.e, ratio);
+  if constexpr (!kRegular) lnu -= subnormal ? 200.0 * kLn2Hi + 200.0 * kLn2Lo : 0.0;
   const double small = (-kEulerGamma - lnu) + series;
   const double large = ex * ratio;
-  double w = u < 1.0 ? small : large;
-  w = u > kWellFunctionUnderflow ? 0.0 : w;
-  w = u == 0.0 ? std::numeric_limits<double>::infinity() : w;
-  w = ((u < 0.0) | (u != u)) ? std::numeric_limits<double>::quiet_NaN() : w;
+  double w = is_small ? small : large;
+  if constexpr (!kRegular) {
+    w = u > kWellFunctionUnderflow ? 0.0 : w;
+    w = u == 0.0 ? std::numeric_limits<double>::infinity() : w;
+    w = ((u < 0.0) | (u != u)) ? std::numeric_limits<double>::quiet_NaN() : w;
+  }
   return w;
 }
 
@@ -212,14 +221,19 @@ double well_function(double u) { return u < 1.0 ? small_piece(u) : large_piece(u
     const std::size_t m = n - b0 < kBlock ? n - b0 : kBlock;                               \
     const double* ub = u + b0;                                                             \
     double* ob = out + b0;                                                                 \
-    std::size_t ns = 0;                                                                    \
-    _Pragma("omp simd reduction(+ : ns)") for (std::size_t i = 0; i < m; ++i) ns += ub[i] < 1.0; \
+    std::size_t ns = 0, nr = 0;                                                            \
+    _Pragma("omp simd reduction(+ : ns, nr)") for (std::size_t i = 0; i < m; ++i) {        \
+      ns += ub[i] < 1.0;                                                                   \
+      nr += (ub[i] >= 0x1p-1000) & (ub[i] <= kWellFunctionUnderflow);                      \
+    }                                                                                      \
     if (ns == m) {                                                                         \
       _Pragma("omp simd") for (std::size_t i = 0; i < m; ++i) ob[i] = small_piece(ub[i]);  \
     } else if (ns == 0) {                                                                  \
       _Pragma("omp simd") for (std::size_t i = 0; i < m; ++i) ob[i] = large_piece(ub[i]);  \
+    } else if (nr == m) {                                                                  \
+      _Pragma("omp simd") for (std::size_t i = 0; i < m; ++i) ob[i] = both_pieces<true>(ub[i]); \
     } else {                                                                               \
-      _Pragma("omp simd") for (std::size_t i = 0; i < m; ++i) ob[i] = both_pieces(ub[i]);  \
+      _Pragma("omp simd") for (std::size_t i = 0; i < m; ++i) ob[i] = both_pieces<false>(ub[i]); \
     }                                                                                      \
   }
 
@@ -254,6 +268,29 @@ BatchFn pick_batch() {
 void well_function(const double* u, double* out, std::size_t n) {
   static const BatchFn batch = pick_batch();
   batch(u, out, n);
+}
+
+bool well_function_build_available(WellFunctionBuild build) {
+  __builtin_cpu_init();
+  switch (build) {
+    case WellFunctionBuild::portable: return true;
+    case WellFunctionBuild::avx2_fma:
+      return __builtin_cpu_supports("avx2") && __builtin_cpu_supports("fma");
+    case WellFunctionBuild::avx512:
+      return __builtin_cpu_supports("avx512f") && __builtin_cpu_supports("avx512dq") &&
+             __builtin_cpu_supports("avx512vl");
+  }
+  return false;
+}
+
+void well_function_with(WellFunctionBuild build, const double* u, double* out, std::size_t n) {
+  if (!well_function_build_available(build))
+    throw std::invalid_argument("well_function_with: this CPU cannot run the requested build");
+  switch (build) {
+    case WellFunctionBuild::portable: well_function_portable(u, out, n); return;
+    case WellFunctionBuild::avx2_fma: well_function_avx2(u, out, n); return;
+    case WellFunctionBuild::avx512: well_function_avx512(u, out, n); return;
+  }
 }
 
 }  // namespace slipscreen::hydro

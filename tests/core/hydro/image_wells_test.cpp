@@ -35,7 +35,7 @@ double dp(const PressureField& f, const TheisParameters& p, double x, double y, 
 }  // namespace
 
 TEST_CASE("one boundary: mirror image, same sign for no-flow, opposite for constant pressure") {
-  // Method of images (Ferris et al. 1962; Earlougher 1977 ch. 10.2).
+  // Method of images (Ferris et al. 1962; Earlougher 1977, ch. 10).
   const Boundary nf[] = {{BoundaryKind::no_flow, 500, 0, 0, 1}};  // the line x = 500
   const auto s = image_wells(100, 40, nf);
   REQUIRE(s.size() == 2);

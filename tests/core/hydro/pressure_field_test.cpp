@@ -36,7 +36,7 @@ constexpr double kDay = 86400.0;
 }  // namespace
 
 TEST_CASE("a constant rate split into two equal halves gives the same pressure") {
-  // Linearity of the diffusion equation (superposition; Earlougher 1977, ch. 2.5).
+  // Linearity of the diffusion equation (superposition; Earlougher 1977, ch. 2).
   const TheisParameters p = example_params();
   const PressureField one({well("A", 0, 0, RateHistory({0.0}, {0.03}))});
   const PressureField halves({well("A1", 0, 0, RateHistory({0.0}, {0.015})),

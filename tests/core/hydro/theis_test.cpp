@@ -33,7 +33,7 @@ Formation example_formation() {
 TEST_CASE("D and the prefactor follow from (k, h, mu, phi, c_t)") {
   const Formation f = example_formation();
   const TheisParameters p = theis_parameters(f);
-  // Definitions (Theis 1935 in the petroleum form, Earlougher 1977 eq. 2.2), by arithmetic.
+  // Definitions (Theis 1935 in the petroleum form, Earlougher 1977 ch. 2), by arithmetic.
   CHECK(rel_err(p.diffusivity, f.permeability / (f.viscosity * f.porosity * f.total_compressibility)) <= 1e-15);
   CHECK(rel_err(p.pressure_per_rate, f.viscosity / (4 * std::numbers::pi * f.permeability * f.thickness)) <= 1e-15);
 }
