@@ -5,6 +5,8 @@ namespace slipscreen::cli {
 const std::vector<Registrar>& registrars() {
   static const std::vector<Registrar> list = {
       &register_units_command,
+      &register_catalog_command,
+      &register_validate_command,
       &register_fault_stress_command,
   };
   return list;

@@ -10,6 +10,8 @@ namespace slipscreen::cli {
 const std::vector<Registrar>& registrars();
 
 void register_units_command(CLI::App& app, Context& ctx);
+void register_catalog_command(CLI::App& app, Context& ctx);
+void register_validate_command(CLI::App& app, Context& ctx);
 void register_fault_stress_command(CLI::App& app, Context& ctx);
 
 }  // namespace slipscreen::cli

@@ -1,0 +1,415 @@
+// `slipscreen catalog`: the earthquake-catalog review on its own. Reads a CSV (with a column
+// mapping) or QuakeML catalog, applies filters, and reports Mc, b-value, counts, unusable rows,
+// bounds on the largest magnitude, the seismogenic index and forecasts — as a readable summary
+// or JSON — and optionally writes a folder with the summary, the kept events and an r-t table
+// around a chosen well.
+#include <CLI/CLI.hpp>
+#include <cmath>
+#include <cstdio>
+#include <filesystem>
+#include <fstream>
+#include <memory>
+#include <ostream>
+#include <random>
+#include <sstream>
+
+#include "cli/commands.hpp"
+#include "cli/exit_codes.hpp"
+#include "core/errors.hpp"
+#include "core/seismo/catalog_filter.hpp"
+#include "core/seismo/catalog_summary.hpp"
+#include "core/seismo/epicentral_distance.hpp"
+#include "core/seismo/triggering_front.hpp"
+#include "core/units/units.hpp"
+#include "io/catalog_file.hpp"
+#include "io/catalog_summary_json.hpp"
+#include "io/csv_fields.hpp"
+#include "io/iso_time.hpp"
+#include "io/volume_history_csv.hpp"
+
+namespace slipscreen::cli {
+namespace {
+
+namespace fs = std::filesystem;
+using units::Dimension;
+
+struct CatalogOptions {
+  std::string file, format = "auto", columns;
+  bool strict = false, json = false, force = false;
+  std::string from, to, polygon, radius = "10 km", depth_min, depth_max;
+  std::vector<std::string> near, magnitude_types, faults, diffusivities, forecast_magnitudes;
+  double bin = 0.1, mc_correction = 0.0, confidence = 0.95;
+  std::string mc;
+  std::size_t bootstrap = 0;
+  std::uint64_t seed = 1;
+  std::string net_volume, shear_modulus = "30 GPa", volume_history, planned_volume;
+  std::string length_regression = "surface";
+  std::string out, well, start;
+};
+
+std::string g(double v, int digits = 4) {
+  char buf[48];
+  std::snprintf(buf, sizeof buf, "%.*g", digits, v);
+  return buf;
+}
+
+std::string fixed(double v, int decimals) {
+  char buf[48];
+  std::snprintf(buf, sizeof buf, "%.*f", decimals, v);
+  return buf;
+}
+
+double parse_plain_number(const std::string& text, const std::string& field, const std::string& expected) {
+  try {
+    std::size_t used = 0;
+    const double v = std::stod(text, &used);
+    if (used == text.size() && std::isfinite(v)) return v;
+  } catch (const std::exception&) {
+  }
+  throw InputError(field, text, expected);
+}
+
+// "x,y" or "x y" in the catalog's coordinates.
+std::array<double, 2> parse_point(const std::string& text, const std::string& field) {
+  std::string t = text;
+  for (auto& c : t)
+    if (c == ',') c = ' ';
+  std::istringstream in(t);
+  double x = 0, y = 0;
+  std::string rest;
+  if (!(in >> x >> y) || (in >> rest))
+    throw InputError(field, text, "two coordinates 'x,y' (longitude,latitude for a geographic catalog)");
+  return {x, y};
+}
+
+std::vector<std::array<double, 2>> parse_polygon(const std::string& text) {
+  std::vector<std::array<double, 2>> ring;
+  std::size_t pos = 0;
+  while (pos <= text.size()) {
+    const auto next = text.find(';', pos);
+    const std::string v = text.substr(pos, next == std::string::npos ? std::string::npos : next - pos);
+    pos = next == std::string::npos ? text.size() + 1 : next + 1;
+    if (v.find_first_not_of(" \t") == std::string::npos) continue;
+    ring.push_back(parse_point(v, "--polygon vertex"));
+  }
+  if (ring.size() < 3) throw InputError("--polygon", text, "at least 3 vertices 'x y; x y; x y'");
+  return ring;
+}
+
+std::vector<std::string> split_list(const std::vector<std::string>& items) {
+  std::vector<std::string> out;
+  for (const auto& it : items)
+    for (auto& f : io::split_csv_record(it))
+      if (!f.empty()) out.push_back(f);
+  return out;
+}
+
+seismo::CatalogFilter build_filter(const CatalogOptions& o) {
+  seismo::CatalogFilter f;
+  if (!o.from.empty()) f.start = io::parse_iso8601_utc(o.from, "--from");
+  if (!o.to.empty()) f.end = io::parse_iso8601_utc(o.to, "--to");
+  if (!o.polygon.empty()) f.polygon = parse_polygon(o.polygon);
+  for (const auto& p : o.near) f.buffer_points.push_back(parse_point(p, "--near"));
+  if (!f.buffer_points.empty()) f.buffer_radius = units::parse(o.radius, Dimension::length, "--radius");
+  if (!o.depth_min.empty()) f.depth_min = units::parse(o.depth_min, Dimension::length, "--depth-min");
+  if (!o.depth_max.empty()) f.depth_max = units::parse(o.depth_max, Dimension::length, "--depth-max");
+  f.magnitude_types = split_list(o.magnitude_types);
+  f.strict = o.strict;
+  return f;
+}
+
+seismo::SummaryOptions build_summary_options(const CatalogOptions& o) {
+  seismo::SummaryOptions s;
+  s.bin_width = o.bin;
+  s.mc_correction = o.mc_correction;
+  if (!o.mc.empty()) s.fixed_mc = parse_plain_number(o.mc, "--mc", "a magnitude such as 1.5");
+  s.bootstrap_resamples = o.bootstrap;
+  s.bootstrap_confidence = o.confidence;
+  s.seed = o.seed;
+  if (!o.net_volume.empty()) s.net_volume = units::parse(o.net_volume, Dimension::volume, "--net-volume");
+  s.shear_modulus = units::parse(o.shear_modulus, Dimension::pressure, "--shear-modulus");
+  if (!o.volume_history.empty()) s.volume_history = io::read_volume_history_csv(o.volume_history);
+  if (!o.planned_volume.empty()) s.planned_volume = units::parse(o.planned_volume, Dimension::volume, "--planned-volume");
+  if (!o.forecast_magnitudes.empty()) {
+    s.forecast_magnitudes.clear();
+    for (const auto& m : split_list(o.forecast_magnitudes))
+      s.forecast_magnitudes.push_back(parse_plain_number(m, "--forecast-magnitude", "a magnitude such as 3.0"));
+  }
+  for (const auto& f : o.faults) {
+    const auto eq = f.find('=');
+    if (eq == std::string::npos || eq == 0) throw InputError("--fault", f, "NAME=LENGTH such as 'Fault A=4.5 km'");
+    s.faults.push_back({f.substr(0, eq), units::parse(f.substr(eq + 1), Dimension::length, "--fault " + f.substr(0, eq))});
+  }
+  if (o.length_regression == "surface") s.regression = seismo::LengthRegression::surface_rupture_length_all;
+  else if (o.length_regression == "subsurface") s.regression = seismo::LengthRegression::subsurface_rupture_length_all;
+  else throw InputError("--length-regression", o.length_regression, "'surface' or 'subsurface'");
+  return s;
+}
+
+// r-t view around a well.
+struct RtView {
+  std::array<double, 2> well{};
+  double start = 0.0;
+  std::vector<double> diffusivities;
+  std::vector<seismo::RtPoint> points;
+  std::vector<double> fraction_inside;
+};
+
+std::optional<RtView> build_rt(const CatalogOptions& o, const seismo::Catalog& c, const seismo::SummaryOptions& so) {
+  if (o.well.empty()) return std::nullopt;
+  RtView v;
+  v.well = parse_point(o.well, "--well");
+  if (!o.start.empty()) v.start = io::parse_iso8601_utc(o.start, "--start");
+  else if (so.volume_history) v.start = so.volume_history->time.front();
+  else throw InputError("--start", "", "the injection start time (ISO 8601) for the r-t view, or --volume-history");
+  const auto ds = split_list(o.diffusivities);
+  if (ds.empty()) v.diffusivities = {0.01, 0.1, 1.0};
+  for (const auto& d : ds) v.diffusivities.push_back(units::parse(d, Dimension::diffusivity, "--diffusivity"));
+  std::vector<double> r;
+  for (const auto& e : c.events) r.push_back(seismo::epicentral_distance(c.kind, v.well[0], v.well[1], e.x, e.y));
+  v.points = seismo::rt_points(seismo::times(c), r, v.start);
+  for (double d : v.diffusivities) v.fraction_inside.push_back(seismo::fraction_inside_front(v.points, d));
+  return v;
+}
+
+nlohmann::json rt_json(const RtView& v) {
+  nlohmann::json j = {{"method", "triggering front r = sqrt(4 pi D t) (Shapiro et al. 1997)"},
+                      {"well", {v.well[0], v.well[1]}},
+                      {"start", io::format_iso8601_utc(v.start)},
+                      {"events_after_start", v.points.size()}};
+  nlohmann::json fr = nlohmann::json::array();
+  for (std::size_t i = 0; i < v.diffusivities.size(); ++i)
+    fr.push_back({{"diffusivity_m2_s", v.diffusivities[i]}, {"fraction_inside", v.fraction_inside[i]}});
+  j["fronts"] = fr;
+  return j;
+}
+
+void print_summary(std::ostream& out, const io::CatalogReadResult& read, const seismo::FilterCounts& c,
+                   const seismo::CatalogSummary& s, const std::optional<RtView>& rt) {
+  out << "Catalog review: " << read.path << " (" << read.format << ")\n";
+  out << io::kScreeningCaution << "\n";
+  if (!read.catalog.description.empty()) out << "File says: " << read.catalog.description << "\n";
+  out << "\nRecords: " << read.records << " read, " << read.catalog.events.size() << " usable, " << read.rejected.size()
+      << " unusable\n";
+  const std::size_t shown = std::min<std::size_t>(read.rejected.size(), 20);
+  for (std::size_t i = 0; i < shown; ++i)
+    out << "  unusable line " << read.rejected[i].line << ": " << read.rejected[i].reason << "\n";
+  if (read.rejected.size() > shown) out << "  ... and " << read.rejected.size() - shown << " more (all listed in --json)\n";
+  for (const auto& w : read.warnings) out << "  warning: " << w << "\n";
+  out << "Filters: " << c.kept << " of " << c.input << " events kept";
+  const std::pair<const char*, std::size_t> reasons[] = {
+      {"outside the time window", c.outside_time},     {"outside the polygon", c.outside_polygon},
+      {"outside the well buffer", c.outside_buffer},   {"outside the depth range", c.outside_depth},
+      {"without depth", c.missing_depth},              {"of another magnitude type", c.other_magnitude_type},
+      {"of an unknown magnitude type", c.unknown_magnitude_type}, {"below the minimum magnitude", c.below_magnitude}};
+  for (const auto& [what, n] : reasons)
+    if (n > 0) out << "; " << n << " " << what;
+  out << "\n";
+  if (s.events > 0)
+    out << "Events: " << s.events << " from " << io::format_iso8601_utc(*s.first_time) << " to "
+        << io::format_iso8601_utc(*s.last_time) << ", M " << fixed(*s.min_magnitude, 1) << " to "
+        << fixed(*s.max_magnitude, 1) << "\n";
+  else
+    out << "Events: none after filtering\n";
+
+  out << "\nMagnitude of completeness: ";
+  if (!s.has_mc) out << "not estimated (" << s.mc_note << ")\n";
+  else if (s.mc_given) out << "Mc = " << fixed(s.mc, 2) << " (given)";
+  else {
+    out << "Mc = " << fixed(s.mc, 2) << " (maximum curvature, Wiemer & Wyss 2000";
+    if (s.completeness->correction != 0.0) out << ", " << fixed(s.completeness->mc_curvature, 2) << " + " << g(s.completeness->correction) << " correction";
+    out << ")";
+  }
+  if (s.has_mc) out << ", " << s.events_at_or_above_mc << " events at or above\n";
+  out << "b-value: ";
+  if (s.b) {
+    out << fixed(s.b->b, 2) << " ± " << fixed(s.b->sigma, 2) << " (Aki 1965 with Utsu's correction, σ Shi & Bolt 1982; n = "
+        << s.b->n << ", a = " << fixed(s.b->a, 2) << ")\n";
+    if (s.bootstrap)
+      out << "  bootstrap " << g(100 * s.bootstrap->confidence, 3) << " % interval: " << fixed(s.bootstrap->lower, 2) << " to "
+          << fixed(s.bootstrap->upper, 2) << " (" << s.bootstrap->resamples << " resamples, seed " << s.bootstrap->seed << ")\n";
+    if (!s.b_note.empty()) out << "  note: " << s.b_note << "\n";
+  } else {
+    out << "not estimated (" << s.b_note << ")\n";
+  }
+
+  out << "\nLargest-magnitude bounds\n";
+  if (s.mcgarr_moment) {
+    out << "  McGarr (2014), net volume " << g(s.net_volume) << " m3, G = " << g(s.shear_modulus / 1e9, 3)
+        << " GPa: M0 <= " << g(*s.mcgarr_moment) << " N·m";
+    if (s.mcgarr_mw) out << ", Mw <= " << fixed(*s.mcgarr_mw, 2) << " (IASPEI 2013)";
+    out << "\n";
+  } else {
+    out << "  McGarr (2014): not computed (give --net-volume)\n";
+  }
+  for (const auto& f : s.fault_bounds)
+    out << "  " << f.name << ", " << g(f.length / 1000.0, 3) << " km: M " << fixed(f.estimate.magnitude, 2) << " ± "
+        << fixed(f.estimate.sd, 2) << (f.estimate.extrapolated ? " (length outside the regression's data, extrapolated)" : "")
+        << "\n";
+  if (!s.fault_bounds.empty()) out << "  (" << s.regression << "; rupture of the whole fault)\n";
+
+  out << "\nSeismogenic index (Shapiro et al. 2010): ";
+  if (s.seismogenic_index) {
+    const auto& f = *s.seismogenic_index;
+    out << "Σ = " << fixed(f.sigma, 2) << " ± " << fixed(f.sigma_count_se, 2) << " (count) ± " << fixed(f.sigma_b_se, 2)
+        << " (b), from " << f.events << " events >= Mc while " << g(f.volume) << " m3 were injected ("
+        << io::format_iso8601_utc(f.window_start) << " to " << io::format_iso8601_utc(f.window_end) << ")\n";
+  } else {
+    out << "not fitted (" << s.seismogenic_index_note << ")\n";
+  }
+  if (!s.forecasts.empty()) {
+    out << "Forecast for a further " << g(s.forecasts.front().planned_volume) << " m3 injected:\n";
+    for (const auto& f : s.forecasts)
+      out << "  M >= " << fixed(f.magnitude, 1) << ": expected " << g(f.expected, 3) << " events, P(at least one) = "
+          << g(100.0 * f.probability, 3) << " %\n";
+    out << "  (Poisson, same Σ and b as observed; uncertainty of Σ and b not included)\n";
+  } else {
+    out << "Forecast: " << s.forecast_note << "\n";
+  }
+
+  if (rt) {
+    out << "\nr-t view around the well at (" << g(rt->well[0], 8) << ", " << g(rt->well[1], 8) << ") from "
+        << io::format_iso8601_utc(rt->start) << ": " << rt->points.size() << " events after the start\n";
+    for (std::size_t i = 0; i < rt->diffusivities.size(); ++i)
+      out << "  inside the triggering front for D = " << g(rt->diffusivities[i], 3)
+          << " m2/s: " << g(100.0 * rt->fraction_inside[i], 3) << " %\n";
+    out << "  (r = sqrt(4 pi D t), Shapiro et al. 1997)\n";
+  }
+  out << "\nAssumptions:\n";
+  for (const auto& a : s.assumptions) out << "  - " << a << "\n";
+}
+
+void write_text(const fs::path& p, const std::string& text) {
+  std::ofstream f(p, std::ios::binary);
+  f << text;
+  if (!f) throw IoError("cannot write '" + p.string() + "'");
+}
+
+std::string csv_quote(const std::string& s) {
+  if (s.find_first_of(",\"\n") == std::string::npos) return s;
+  std::string q = "\"";
+  for (char c : s) q += c == '"' ? std::string("\"\"") : std::string(1, c);
+  return q + "\"";
+}
+
+// Writes the output folder through a temporary sibling renamed into place at the end.
+void write_folder(const CatalogOptions& o, const nlohmann::json& summary, const seismo::Catalog& c,
+                  const std::optional<RtView>& rt) {
+  const fs::path target = fs::absolute(o.out);
+  if (fs::exists(target) && !o.force)
+    throw RefusedError("output folder '" + o.out + "' exists; choose another or add --force to replace it");
+  std::random_device rd;
+  const fs::path tmp = target.parent_path() / (target.filename().string() + ".tmp-" + std::to_string(rd() % 1000000));
+  std::error_code ec;
+  fs::create_directories(tmp, ec);
+  if (ec) throw IoError("cannot create '" + tmp.string() + "': " + ec.message());
+  try {
+    write_text(tmp / "catalog_summary.json", summary.dump(2) + "\n");
+    std::ostringstream ev;
+    ev << "# " << io::kScreeningCaution << "\n";
+    ev << "event_id,time,x,y,depth_m,magnitude,magnitude_type\n";
+    for (const auto& e : c.events)
+      ev << csv_quote(e.id) << "," << io::format_iso8601_utc(e.time) << "," << g(e.x, 10) << "," << g(e.y, 10) << ","
+         << (e.depth ? g(*e.depth, 8) : "") << "," << g(e.magnitude, 4) << "," << csv_quote(e.magnitude_type) << "\n";
+    write_text(tmp / "catalog_events.csv", ev.str());
+    if (rt) {
+      std::ostringstream t;
+      t << "# r-t view: distance from the well at (" << g(rt->well[0], 10) << ", " << g(rt->well[1], 10)
+        << ") against time since " << io::format_iso8601_utc(rt->start) << ". " << io::kScreeningCaution << "\n";
+      t << "event_id,time,days_since_start,distance_m,magnitude,diffusivity_through_point_m2_s\n";
+      double t_max = 0.0;
+      for (const auto& p : rt->points) {
+        const auto& e = c.events[p.event];
+        t << csv_quote(e.id) << "," << io::format_iso8601_utc(e.time) << "," << fixed(p.t / units::kDay, 4) << ","
+          << fixed(p.r, 1) << "," << g(e.magnitude, 4) << "," << g(p.d_fit, 6) << "\n";
+        t_max = std::max(t_max, p.t);
+      }
+      write_text(tmp / "rt_events.csv", t.str());
+      std::ostringstream fc;
+      fc << "# Triggering fronts r = sqrt(4 pi D t) (Shapiro et al. 1997). " << io::kScreeningCaution << "\n";
+      fc << "days_since_start";
+      for (double d : rt->diffusivities) fc << ",front_m_D_" << g(d, 4) << "_m2_s";
+      fc << "\n";
+      if (t_max <= 0.0) t_max = 365.25 * units::kDay;
+      const int n = 200;
+      for (int k = 0; k <= n; ++k) {
+        const double tt = t_max * k / n;
+        fc << fixed(tt / units::kDay, 4);
+        for (double d : rt->diffusivities) fc << "," << fixed(seismo::front_radius(d, tt), 1);
+        fc << "\n";
+      }
+      write_text(tmp / "rt_fronts.csv", fc.str());
+    }
+    if (fs::exists(target)) fs::remove_all(target);
+    fs::rename(tmp, target);
+  } catch (...) {
+    fs::remove_all(tmp, ec);
+    throw;
+  }
+}
+
+int run_catalog(const CatalogOptions& o, Context& ctx) {
+  io::CatalogFormat fmt = io::CatalogFormat::automatic;
+  if (o.format == "csv") fmt = io::CatalogFormat::csv;
+  else if (o.format == "quakeml") fmt = io::CatalogFormat::quakeml;
+  else if (o.format != "auto") throw InputError("--format", o.format, "auto, csv or quakeml");
+  const auto columns = o.columns.empty() ? io::CatalogColumns{} : io::parse_catalog_columns(o.columns);
+  const auto filter = build_filter(o);
+  auto so = build_summary_options(o);
+  const auto read = io::read_catalog(o.file, fmt, columns, o.strict);
+  auto filtered = seismo::apply_filter(read.catalog, filter);
+  const auto summary = seismo::summarize_catalog(filtered.catalog, so);
+  const auto rt = build_rt(o, filtered.catalog, so);
+  auto j = io::catalog_summary_json(read, filtered.counts, summary);
+  j["rt_view"] = rt ? rt_json(*rt) : nlohmann::json(nullptr);
+  if (o.json) ctx.out << j.dump(2) << "\n";
+  else print_summary(ctx.out, read, filtered.counts, summary, rt);
+  if (!o.out.empty()) {
+    write_folder(o, j, filtered.catalog, rt);
+    if (!o.json) ctx.out << "\nWrote " << o.out << "/ (catalog_summary.json, catalog_events.csv"
+                         << (rt ? ", rt_events.csv, rt_fronts.csv" : "") << ")\n";
+  }
+  return kExitOk;
+}
+
+}  // namespace
+
+void register_catalog_command(CLI::App& app, Context& ctx) {
+  auto o = std::make_shared<CatalogOptions>();
+  CLI::App* sub = app.add_subcommand("catalog", "Review an earthquake catalog: completeness, b-value, bounds, seismogenic index, forecasts");
+  sub->add_option("file", o->file, "Catalog file: CSV or QuakeML 1.2")->required();
+  sub->add_option("--format", o->format, "auto (by extension), csv or quakeml")->default_val("auto");
+  sub->add_option("--columns", o->columns, "CSV column mapping, e.g. 'time=origin_time;depth=z;depth_unit=m' (docs/catalogs.md)");
+  sub->add_flag("--strict", o->strict, "Unusable rows and unknown magnitude types (with --magnitude-type) are errors");
+  sub->add_option("--from", o->from, "Keep events at or after this ISO 8601 UTC time");
+  sub->add_option("--to", o->to, "Keep events before this ISO 8601 UTC time");
+  sub->add_option("--polygon", o->polygon, "Region polygon 'x y; x y; x y; ...' in the catalog's coordinates");
+  sub->add_option("--near", o->near, "Keep events within --radius of this point 'x,y' (repeatable: wells)");
+  sub->add_option("--radius", o->radius, "Buffer radius around --near points")->default_val("10 km");
+  sub->add_option("--depth-min", o->depth_min, "Minimum depth, e.g. '1 km'");
+  sub->add_option("--depth-max", o->depth_max, "Maximum depth, e.g. '8 km'");
+  sub->add_option("--magnitude-type", o->magnitude_types, "Keep these magnitude types (repeatable or comma list)");
+  sub->add_option("--bin", o->bin, "Magnitude bin width")->default_val(0.1);
+  sub->add_option("--mc-correction", o->mc_correction, "Added to the maximum-curvature Mc (usual: 0.2)")->default_val(0.0);
+  sub->add_option("--mc", o->mc, "Use this magnitude of completeness instead of estimating it");
+  sub->add_option("--bootstrap", o->bootstrap, "Bootstrap resamples for a b-value interval (0: none)")->default_val(0);
+  sub->add_option("--confidence", o->confidence, "Bootstrap interval confidence")->default_val(0.95);
+  sub->add_option("--seed", o->seed, "Seed of the bootstrap")->default_val(1);
+  sub->add_option("--net-volume", o->net_volume, "Net injected volume for the McGarr bound, e.g. '1e6 m3'");
+  sub->add_option("--shear-modulus", o->shear_modulus, "Shear modulus for the McGarr bound")->default_val("30 GPa");
+  sub->add_option("--volume-history", o->volume_history, "CSV of time,cumulative_volume for the seismogenic index");
+  sub->add_option("--planned-volume", o->planned_volume, "Further planned injected volume for forecasts, e.g. '5e5 m3'");
+  sub->add_option("--forecast-magnitude", o->forecast_magnitudes, "Magnitudes to forecast (default 3.0 and 4.0)");
+  sub->add_option("--fault", o->faults, "Mapped fault NAME=LENGTH for a length-magnitude bound (repeatable)");
+  sub->add_option("--length-regression", o->length_regression,
+                  "Wells & Coppersmith (1994) all-slip regression: surface or subsurface rupture length")->default_val("surface");
+  sub->add_option("--well", o->well, "Well location 'x,y' for the r-t view (catalog coordinates)");
+  sub->add_option("--start", o->start, "Injection start time for the r-t view (default: first volume sample)");
+  sub->add_option("--diffusivity", o->diffusivities, "Diffusivities for the front curves (default 0.01, 0.1, 1 m2/s)");
+  sub->add_flag("--json", o->json, "Print the summary as JSON");
+  sub->add_option("--out", o->out, "Write a folder with the summary, kept events and r-t tables");
+  sub->add_flag("--force", o->force, "Replace an existing --out folder");
+  sub->callback([o, &ctx] { ctx.action = [o, &ctx] { return run_catalog(*o, ctx); }; });
+}
+
+}  // namespace slipscreen::cli

@@ -1,0 +1,77 @@
+#include "cli/scenario_summary.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <iomanip>
+#include <limits>
+#include <ostream>
+#include <sstream>
+
+#include "core/units/units.hpp"
+
+namespace slipscreen::cli {
+namespace {
+
+std::string fixed(double v, int digits) {
+  std::ostringstream os;
+  os << std::fixed << std::setprecision(digits) << v;
+  return os.str();
+}
+
+const char* model_name(io::StressModel m) {
+  switch (m) {
+    case io::StressModel::gradients: return "gradients";
+    case io::StressModel::uniaxial_strain: return "uniaxial strain";
+    case io::StressModel::a_phi: return "A_phi";
+  }
+  return "?";
+}
+
+}  // namespace
+
+void print_scenario_summary(const io::ResolvedScenario& s, std::ostream& out) {
+  const auto& r = s.region;
+  out << "Scenario   " << s.file << (s.title.empty() ? "" : "  (" + s.title + ")") << "\n";
+  out << "Region     " << r.name << "  [" << r.file << "]\n";
+  out << "  working CRS " << r.crs << ", reference depth " << fixed(r.reference_depth, 0) << " m, pore-pressure gradient "
+      << fixed(r.pore_pressure_gradient / 1000, 2) << " MPa/km\n";
+  out << "  stress: " << model_name(r.stress.model);
+  if (r.stress.model == io::StressModel::a_phi) out << " = " << fixed(r.stress.a_phi, 2);
+  out << ", SHmax azimuth " << fixed(r.stress.shmax_azimuth * 180 / 3.14159265358979323846, 1) << " deg\n";
+  out << "  faults: " << io::display_name(r.faults.path) << ", friction " << fixed(r.faults.friction, 2) << ", cohesion "
+      << fixed(r.faults.cohesion / 1e6, 2) << " MPa, segments <= " << fixed(r.faults.segment_length, 0) << " m, "
+      << r.faults.check_points << " check points each\n";
+  const auto& f = r.formation;
+  out << "  formation: " << (f.name.empty() ? "(unnamed)" : f.name) << ", diffusivity " << std::setprecision(3)
+      << f.diffusivity() << " m2/s\n";
+
+  int existing = 0, proposed = 0, shut = 0;
+  double first = std::numeric_limits<double>::infinity(), last = -first, volume = 0;
+  for (const auto& w : s.wells) {
+    (w.proposed ? proposed : existing)++;
+    shut += w.status == io::WellStatus::shut_in;
+    for (const auto& p : w.periods) {
+      first = std::min(first, p.start);
+      last = std::max(last, p.end);
+      volume += p.rate * (p.end - p.start);
+    }
+  }
+  out << "Wells      " << existing << " existing (" << shut << " shut in), " << proposed << " proposed\n";
+  if (std::isfinite(first))
+    out << "  injection from " << util::format_iso_date(util::date_at(first)) << " to "
+        << util::format_iso_date(util::date_at(last)) << ", " << std::setprecision(4)
+        << volume / units::kBarrel / 1e6 << " million bbl in total (histories and plans)\n";
+  const auto& o = s.output;
+  out << "Output     " << o.dates.size() << (o.dates.size() == 1 ? " time from " : " times from ") << util::format_iso_date(o.dates.front()) << " to "
+      << util::format_iso_date(o.dates.back()) << "\n";
+  out << "  grid: " << (o.grid.automatic_extent ? "automatic extent (margin " + fixed(o.grid.margin, 0) + " m)"
+                                                 : "extent [" + fixed(o.grid.xmin, 0) + ", " + fixed(o.grid.ymin, 0) +
+                                                       ", " + fixed(o.grid.xmax, 0) + ", " + fixed(o.grid.ymax, 0) + "]")
+      << ", cell " << fixed(o.grid.cell_size, 0) << " m, CRS " << (o.grid.crs.empty() ? r.crs : o.grid.crs) << "\n";
+  out << "  writes:" << (o.tables ? " tables" : "") << (o.rasters ? (o.cog ? " raster (COG)" : " raster") : "")
+      << (o.geopackage ? " geopackage" : "") << " manifest, into " << (o.folder.empty() ? "(--out)" : o.folder) << "\n";
+  out << "  seed " << s.seed << (s.uncertainty ? ", [uncertainty] given" : ", no [uncertainty] (deterministic screen)")
+      << "\n";
+}
+
+}  // namespace slipscreen::cli

@@ -1,0 +1,147 @@
+#include "core/probabilistic/pressure_surrogate.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <numbers>
+#include <numeric>
+#include <string>
+
+#include "core/errors.hpp"
+
+namespace slipscreen::probabilistic {
+namespace {
+constexpr std::size_t kBlock = 32;       // points per build block (spatially close)
+constexpr double kBlockCell = 5000.0;    // m: cell size used to order points spatially
+}  // namespace
+
+PressureSurrogate::PressureSurrogate(const std::vector<SimilarityTable>& tables,
+                                     std::span<const PressureSource> sources,
+                                     std::span<const ObservationPoint> points, std::size_t group_count,
+                                     double d_min, double d_max, std::size_t nodes)
+    : n_points_(points.size()), n_groups_(group_count) {
+  if (tables.empty()) throw InputError("wells", "(none)", "at least one well with a rate history");
+  if (!(d_min > 0.0) || !(d_max >= d_min) || !std::isfinite(d_max))
+    throw InputError("diffusivity range", std::to_string(d_min) + ".." + std::to_string(d_max),
+                     "0 < D_min <= D_max (m2/s)");
+  if (group_count == 0) throw InputError("rate groups", "0", "at least one rate group");
+  for (const auto& s : sources) {
+    if (s.table >= tables.size()) throw InputError("source table", std::to_string(s.table), "an existing well table");
+    if (s.group >= group_count) throw InputError("source group", std::to_string(s.group), "an existing rate group");
+  }
+  n_times_ = tables.front().time_count();
+
+  // Chebyshev–Lobatto nodes in ln D and their barycentric weights (−1)^d, halved at the ends.
+  const double lo = std::log(d_min), hi = std::log(d_max);
+  const std::size_t n = (hi - lo < 1e-12) ? 1 : std::max<std::size_t>(nodes, 2);
+  ln_nodes_.resize(n);
+  bary_.resize(n);
+  std::vector<double> inv4d(n);
+  for (std::size_t d = 0; d < n; ++d) {
+    ln_nodes_[d] = n == 1 ? lo
+                          : 0.5 * (lo + hi) + 0.5 * (hi - lo) *
+                                std::cos(std::numbers::pi * static_cast<double>(d) / static_cast<double>(n - 1));
+    bary_[d] = ((d % 2) ? -1.0 : 1.0) * ((d == 0 || d == n - 1) ? 0.5 : 1.0);
+    inv4d[d] = 0.25 / std::exp(ln_nodes_[d]);
+  }
+
+  const auto rows = static_cast<Eigen::Index>(n_times_), cols = static_cast<Eigen::Index>(n);
+  g_.assign(n_points_ * n_groups_, Eigen::MatrixXf::Zero(rows, cols));
+
+  // Points in spatial order, built in blocks: a block's points are close together, so for each
+  // source they read neighbouring rows of its similarity table (cache reuse).
+  std::vector<std::size_t> order(n_points_);
+  std::iota(order.begin(), order.end(), std::size_t{0});
+  std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
+    const auto ka = std::make_pair(std::floor(points[a].y / kBlockCell), std::floor(points[a].x / kBlockCell));
+    const auto kb = std::make_pair(std::floor(points[b].y / kBlockCell), std::floor(points[b].x / kBlockCell));
+    return ka < kb;
+  });
+  const std::size_t n_blocks = (n_points_ + kBlock - 1) / kBlock;
+#pragma omp parallel for schedule(dynamic, 1)
+  for (std::size_t b = 0; b < n_blocks; ++b) {
+    const std::size_t end = std::min(n_points_, (b + 1) * kBlock);
+    for (const auto& s : sources) {
+      const auto& table = tables[s.table];
+      const auto sign = static_cast<float>(s.sign);
+      for (std::size_t i = b * kBlock; i < end; ++i) {
+        const std::size_t p = order[i];
+        const double dx = points[p].x - s.x, dy = points[p].y - s.y;
+        const double r2 = std::max(dx * dx + dy * dy, s.radius * s.radius);
+        auto& m = g_[p * n_groups_ + s.group];
+        for (std::size_t d = 0; d < n; ++d)
+          table.accumulate(table.tap(r2 * inv4d[d]), sign, m.col(static_cast<Eigen::Index>(d)).data());
+      }
+    }
+  }
+
+  col_max_.resize(n_points_ * n_groups_ * n);
+  for (std::size_t pg = 0; pg < n_points_ * n_groups_; ++pg)
+    for (std::size_t d = 0; d < n; ++d)
+      col_max_[pg * n + d] = g_[pg].col(static_cast<Eigen::Index>(d)).cwiseAbs().maxCoeff();
+
+  // Error estimate at the midpoints (in ln D) between neighbouring nodes, on a sample of about
+  // 64 points spread through the list (per point it costs as much as the table itself).
+  double worst = 0.0;
+  const std::size_t stride = std::max<std::size_t>(1, n_points_ / 64);
+#pragma omp parallel for schedule(dynamic, 1) reduction(max : worst)
+  for (std::size_t p = 0; p < n_points_; p += stride) {
+    std::vector<std::vector<float>> exact(n_groups_, std::vector<float>(n_times_));
+    std::vector<float> ell(n);
+    for (std::size_t d = 0; d + 1 < n; ++d) {
+      const double mid = std::exp(0.5 * (ln_nodes_[d] + ln_nodes_[d + 1]));
+      for (auto& c : exact) std::fill(c.begin(), c.end(), 0.0f);
+      for (const auto& s : sources) {
+        const double dx = points[p].x - s.x, dy = points[p].y - s.y;
+        const double r2 = std::max(dx * dx + dy * dy, s.radius * s.radius);
+        const auto& table = tables[s.table];
+        table.accumulate(table.tap(r2 * 0.25 / mid), static_cast<float>(s.sign), exact[s.group].data());
+      }
+      basis(mid, ell.data());
+      for (std::size_t g = 0; g < n_groups_; ++g) {
+        const auto& m = g_[p * n_groups_ + g];
+        double scale = 0.0, err = 0.0;
+        for (std::size_t k = 0; k < n_times_; ++k) {
+          double v = 0.0;
+          for (std::size_t e = 0; e < n; ++e) v += ell[e] * m(static_cast<Eigen::Index>(k), static_cast<Eigen::Index>(e));
+          scale = std::max(scale, std::abs(double(exact[g][k])));
+          err = std::max(err, std::abs(v - exact[g][k]));
+        }
+        if (scale > 0.0) worst = std::max(worst, err / scale);
+      }
+    }
+  }
+  max_error_ = worst;
+}
+
+void PressureSurrogate::basis(double diffusivity, float* out) const {
+  const std::size_t n = ln_nodes_.size();
+  if (n == 1) {
+    out[0] = 1.0f;
+    return;
+  }
+  const double s = std::log(diffusivity);
+  double denom = 0.0;
+  for (std::size_t d = 0; d < n; ++d) {
+    if (s == ln_nodes_[d]) {  // exactly on a node: the interpolant is that node's value
+      for (std::size_t e = 0; e < n; ++e) out[e] = e == d ? 1.0f : 0.0f;
+      return;
+    }
+    denom += bary_[d] / (s - ln_nodes_[d]);
+  }
+  for (std::size_t d = 0; d < n; ++d) out[d] = static_cast<float>(bary_[d] / (s - ln_nodes_[d]) / denom);
+}
+
+void PressureSurrogate::evaluate(std::size_t point, const Eigen::MatrixXf& basis_block,
+                                 const Eigen::MatrixXf& scale, Eigen::MatrixXf& out) const {
+  if (n_groups_ == 1) {
+    out.noalias() = table(point, 0) * basis_block;
+    out.array().rowwise() *= scale.row(0).array();
+    return;
+  }
+  out.setZero(static_cast<Eigen::Index>(n_times_), basis_block.cols());
+  for (std::size_t g = 0; g < n_groups_; ++g)
+    out.noalias() += table(point, g) *
+                     (basis_block.array().rowwise() * scale.row(static_cast<Eigen::Index>(g)).array()).matrix();
+}
+
+}  // namespace slipscreen::probabilistic

@@ -1,0 +1,189 @@
+#include "core/probabilistic/similarity_table.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <exception>
+#include <string>
+
+#include "core/errors.hpp"
+#include "core/hydro/well_function.hpp"
+
+namespace slipscreen::probabilistic {
+namespace {
+
+constexpr double kUnderflow = 745.0;  // E1(u) == 0 in double precision beyond this u
+constexpr double kDay = 86400.0;
+
+// Number of nodes with u = x_i / lag below the underflow limit.
+std::size_t live_nodes(const SimilarityGrid& g, std::size_t n_nodes, double lag) {
+  const double last = (std::log(kUnderflow * lag) - g.ln_x(0)) / g.step;
+  if (last < 0.0) return 0;
+  return std::min(n_nodes, static_cast<std::size_t>(last) + 1);
+}
+
+bool whole_quanta(double t, double quantum) {
+  const double q = t / quantum;
+  return std::abs(q - std::round(q)) <= 1e-9 * std::max(1.0, std::abs(q));
+}
+
+}  // namespace
+
+std::size_t SimilarityGrid::node_count() const {
+  // One node below and two above the range so every interior point has 4 Lagrange nodes.
+  return static_cast<std::size_t>(std::ceil((ln_x_max - ln_x_min) / step)) + 4;
+}
+
+LagKernel::LagKernel(const SimilarityGrid& grid, double quantum, std::size_t max_lag)
+    : n_nodes_(grid.node_count()), max_lag_(max_lag), quantum_(quantum) {
+  values_.assign((max_lag + 1) * n_nodes_, 0.0f);
+  std::vector<double> x(n_nodes_);
+  for (std::size_t i = 0; i < n_nodes_; ++i) x[i] = std::exp(grid.ln_x(i));
+#pragma omp parallel
+  {
+    std::vector<double> u(n_nodes_), w(n_nodes_);
+#pragma omp for schedule(static)
+    for (std::size_t lag = 1; lag <= max_lag; ++lag) {
+      const double dt = static_cast<double>(lag) * quantum;
+      const std::size_t n = live_nodes(grid, n_nodes_, dt);
+      for (std::size_t i = 0; i < n; ++i) u[i] = x[i] / dt;
+      hydro::well_function(u.data(), w.data(), n);
+      for (std::size_t i = 0; i < n; ++i) values_[lag * n_nodes_ + i] = static_cast<float>(w[i]);
+    }
+  }
+}
+
+void SimilarityTable::check(const RateSteps& steps, std::span<const double> tracking_times) const {
+  if (tracking_times.empty())
+    throw InputError("tracking times", "(none)", "at least one tracking time");
+  if (!std::is_sorted(tracking_times.begin(), tracking_times.end()))
+    throw InputError("tracking times", "unsorted", "increasing times");
+  if (!(grid_.ln_x_max > grid_.ln_x_min) || !(grid_.step > 0.0) || !std::isfinite(grid_.ln_x_max - grid_.ln_x_min))
+    throw InputError("similarity range", std::to_string(grid_.ln_x_min) + ".." + std::to_string(grid_.ln_x_max),
+                     "a finite increasing range of ln x with a positive step");
+  if (steps.time.size() != steps.delta_rate.size())
+    throw InputError("rate steps", std::to_string(steps.time.size()), "one rate increment per step time");
+}
+
+SimilarityTable::SimilarityTable(const RateSteps& steps, std::span<const double> tracking_times,
+                                 const SimilarityGrid& grid)
+    : n_times_(tracking_times.size()), grid_(grid) {
+  check(steps, tracking_times);
+  n_nodes_ = grid.node_count();
+  values_.assign(n_nodes_ * n_times_, 0.0f);
+  std::vector<double> x(n_nodes_), u(n_nodes_), w(n_nodes_), column(n_nodes_);
+  for (std::size_t i = 0; i < n_nodes_; ++i) x[i] = std::exp(grid.ln_x(i));
+  for (std::size_t k = 0; k < n_times_; ++k) {
+    const double t = tracking_times[k];
+    std::fill(column.begin(), column.end(), 0.0);
+    for (std::size_t j = 0; j < steps.time.size() && steps.time[j] < t; ++j) {
+      const double dt = t - steps.time[j];
+      const std::size_t n = live_nodes(grid_, n_nodes_, dt);
+      for (std::size_t i = 0; i < n; ++i) u[i] = x[i] / dt;
+      hydro::well_function(u.data(), w.data(), n);
+      const double dq = steps.delta_rate[j];
+      for (std::size_t i = 0; i < n; ++i) column[i] += dq * w[i];
+    }
+    for (std::size_t i = 0; i < n_nodes_; ++i) values_[i * n_times_ + k] = static_cast<float>(column[i]);
+  }
+}
+
+SimilarityTable::SimilarityTable(const RateSteps& steps, std::span<const double> tracking_times,
+                                 const SimilarityGrid& grid, const LagKernel& kernel)
+    : n_times_(tracking_times.size()), grid_(grid) {
+  check(steps, tracking_times);
+  n_nodes_ = grid.node_count();
+  values_.assign(n_nodes_ * n_times_, 0.0f);
+  const double q = kernel.quantum();
+  for (double t : steps.time)
+    if (!whole_quanta(t, q)) throw InputError("step time", std::to_string(t), "a whole number of lattice quanta");
+  std::vector<double> column(n_nodes_);
+  for (std::size_t k = 0; k < n_times_; ++k) {
+    const double t = tracking_times[k];
+    if (!whole_quanta(t, q)) throw InputError("tracking time", std::to_string(t), "a whole number of lattice quanta");
+    std::fill(column.begin(), column.end(), 0.0);
+    for (std::size_t j = 0; j < steps.time.size() && steps.time[j] < t; ++j) {
+      const auto lag = static_cast<std::size_t>(std::llround((t - steps.time[j]) / q));
+      if (lag > kernel.max_lag()) throw InputError("lag", std::to_string(lag), "a lag within the kernel");
+      const float* e = kernel.row(lag);
+      const double dq = steps.delta_rate[j];
+      for (std::size_t i = 0; i < n_nodes_; ++i) column[i] += dq * e[i];
+    }
+    for (std::size_t i = 0; i < n_nodes_; ++i) values_[i * n_times_ + k] = static_cast<float>(column[i]);
+  }
+}
+
+SimilarityTap SimilarityTable::tap(double x) const {
+  SimilarityTap t;
+  const double s = (std::log(x) - grid_.ln_x(0)) / grid_.step;  // fractional node position
+  const double s_max = static_cast<double>(n_nodes_ - 3);
+  if (!(s < s_max)) return t;                 // past the table: every term has underflowed
+  const double sc = std::max(s, 1.0);         // clamp below (x smaller than the well radius allows)
+  const auto i1 = static_cast<std::size_t>(sc);
+  const double f = sc - static_cast<double>(i1);  // position between node i1 and i1+1
+  t.first = i1 - 1;
+  // Cubic Lagrange weights on nodes -1, 0, 1, 2 relative to i1.
+  t.weight[0] = static_cast<float>(-f * (f - 1.0) * (f - 2.0) / 6.0);
+  t.weight[1] = static_cast<float>((f + 1.0) * (f - 1.0) * (f - 2.0) / 2.0);
+  t.weight[2] = static_cast<float>(-(f + 1.0) * f * (f - 2.0) / 2.0);
+  t.weight[3] = static_cast<float>((f + 1.0) * f * (f - 1.0) / 6.0);
+  return t;
+}
+
+void SimilarityTable::accumulate(const SimilarityTap& t, float scale, float* __restrict out) const {
+  const float w0 = scale * t.weight[0], w1 = scale * t.weight[1];
+  const float w2 = scale * t.weight[2], w3 = scale * t.weight[3];
+  if (w0 == 0.0f && w1 == 0.0f && w2 == 0.0f && w3 == 0.0f) return;
+  const float* __restrict r0 = &values_[t.first * n_times_];
+  const float* __restrict r1 = r0 + n_times_;
+  const float* __restrict r2 = r1 + n_times_;
+  const float* __restrict r3 = r2 + n_times_;
+  for (std::size_t k = 0; k < n_times_; ++k) out[k] += w0 * r0[k] + w1 * r1[k] + w2 * r2[k] + w3 * r3[k];
+}
+
+double SimilarityTable::direct(const RateSteps& steps, double x, double t) {
+  double h = 0.0;
+  for (std::size_t j = 0; j < steps.time.size() && steps.time[j] < t; ++j)
+    h += steps.delta_rate[j] * hydro::well_function(x / (t - steps.time[j]));
+  return h;
+}
+
+std::vector<SimilarityTable> build_tables(const std::vector<RateSteps>& steps,
+                                          std::span<const double> tracking_times, const SimilarityGrid& grid) {
+  bool lattice = !tracking_times.empty();
+  double first = tracking_times.empty() ? 0.0 : tracking_times.back();
+  for (double t : tracking_times) lattice = lattice && whole_quanta(t, kDay);
+  for (const auto& s : steps)
+    for (double t : s.time) {
+      lattice = lattice && whole_quanta(t, kDay);
+      first = std::min(first, t);
+    }
+  std::vector<SimilarityTable> tables(steps.size());
+  std::exception_ptr failure;  // an exception must not leave an OpenMP region
+  if (lattice && !tracking_times.empty()) {
+    const auto max_lag = static_cast<std::size_t>(std::llround((tracking_times.back() - first) / kDay)) + 1;
+    const LagKernel kernel(grid, kDay, max_lag);
+#pragma omp parallel for schedule(dynamic, 1)
+    for (std::size_t w = 0; w < steps.size(); ++w) {
+      try {
+        tables[w] = SimilarityTable(steps[w], tracking_times, grid, kernel);
+      } catch (...) {
+#pragma omp critical(similarity_failure)
+        if (!failure) failure = std::current_exception();
+      }
+    }
+  } else {
+#pragma omp parallel for schedule(dynamic, 1)
+    for (std::size_t w = 0; w < steps.size(); ++w) {
+      try {
+        tables[w] = SimilarityTable(steps[w], tracking_times, grid);
+      } catch (...) {
+#pragma omp critical(similarity_failure)
+        if (!failure) failure = std::current_exception();
+      }
+    }
+  }
+  if (failure) std::rethrow_exception(failure);
+  return tables;
+}
+
+}  // namespace slipscreen::probabilistic

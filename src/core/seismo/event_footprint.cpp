@@ -1,0 +1,48 @@
+#include "core/seismo/event_footprint.hpp"
+
+#include <boost/math/distributions/binomial.hpp>
+#include <cmath>
+#include <string>
+
+#include "core/errors.hpp"
+#include "core/seismo/number_text.hpp"
+
+namespace slipscreen::seismo {
+
+// One-sided binomial test: P(X >= k), X ~ Binomial(n, f).
+FootprintCount footprint_count(std::span<const double> dp, double threshold, double area_fraction) {
+  if (!(area_fraction >= 0.0 && area_fraction <= 1.0))
+    throw InputError("footprint area fraction", number_text(area_fraction), "a fraction between 0 and 1");
+  if (!std::isfinite(threshold)) throw InputError("pressure threshold", number_text(threshold), "a finite pressure");
+  FootprintCount c;
+  c.events = dp.size();
+  c.area_fraction = area_fraction;
+  c.threshold = threshold;
+  for (std::size_t i = 0; i < dp.size(); ++i) {
+    if (!std::isfinite(dp[i]))
+      throw InputError("modelled pressure change at event " + std::to_string(i + 1), number_text(dp[i]), "a finite value");
+    if (dp[i] >= threshold) ++c.inside;
+  }
+  c.expected = static_cast<double>(c.events) * area_fraction;
+  if (c.inside == 0 || c.events == 0) {
+    c.p_value = 1.0;
+  } else if (area_fraction == 0.0) {
+    c.p_value = 0.0;  // any event inside a zero-area footprint is impossible by chance
+  } else if (area_fraction == 1.0) {
+    c.p_value = 1.0;
+  } else {
+    const boost::math::binomial_distribution<double> bin(static_cast<double>(c.events), area_fraction);
+    c.p_value = boost::math::cdf(boost::math::complement(bin, static_cast<double>(c.inside) - 1.0));
+  }
+  return c;
+}
+
+FootprintCount footprint_count(const Catalog& catalog, const PressureAtEvent& pressure, double threshold,
+                               double area_fraction) {
+  std::vector<double> dp;
+  dp.reserve(catalog.events.size());
+  for (const auto& e : catalog.events) dp.push_back(pressure(e));
+  return footprint_count(dp, threshold, area_fraction);
+}
+
+}  // namespace slipscreen::seismo

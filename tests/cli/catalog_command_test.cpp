@@ -1,0 +1,54 @@
+// The catalog command's output folder (written through a temporary folder, refused when it
+// exists unless --force) and its r-t tables.
+#include <doctest/doctest.h>
+
+#include <cmath>
+#include <filesystem>
+#include <fstream>
+#include <nlohmann/json.hpp>
+#include <sstream>
+
+#include "cli/app.hpp"
+
+namespace fs = std::filesystem;
+
+namespace {
+std::string slurp(const fs::path& p) {
+  std::ifstream in(p);
+  std::stringstream ss;
+  ss << in.rdbuf();
+  return ss.str();
+}
+}  // namespace
+
+TEST_CASE("catalog --out writes the summary, events and r-t tables") {
+  const fs::path dir = fs::temp_directory_path() / "slipscreen_catalog_out_test";
+  fs::remove_all(dir);
+  const std::string fixture = std::string(SLIPSCREEN_SOURCE_DIR) + "/tests/data/catalog/fixture_catalog.xml";
+  std::ostringstream out, err;
+  const std::vector<std::string> args = {"catalog", fixture, "--well", "-98.2031,35.5012", "--start",
+                                         "2024-01-01T00:00:00Z", "--diffusivity", "0.1 m2/s,1 m2/s", "--out", dir.string()};
+  REQUIRE(slipscreen::cli::run(args, out, err) == 0);
+  CAPTURE(err.str());
+  for (const char* f : {"catalog_summary.json", "catalog_events.csv", "rt_events.csv", "rt_fronts.csv"})
+    CHECK(fs::exists(dir / f));
+  const auto j = nlohmann::json::parse(slurp(dir / "catalog_summary.json"));
+  CHECK(j["events"] == 12);
+  CHECK(j["rt_view"]["events_after_start"] == 12);
+  const std::string rt = slurp(dir / "rt_events.csv");
+  // ev01 is at the well itself: distance 0 m, 2 days 4 h 12 min 9.25 s = 2.1751 days after the start.
+  CHECK(rt.find("smi:slipscreen.test/ev01,2024-01-03T04:12:09.250Z,2.1751,0.0,1.2,0") != std::string::npos);
+  const std::string fronts = slurp(dir / "rt_fronts.csv");
+  CHECK(fronts.find("days_since_start,front_m_D_0.1_m2_s,front_m_D_1_m2_s") != std::string::npos);
+  CHECK(fronts.find("Screening estimate") != std::string::npos);
+  // A second run into the same folder is refused, then allowed with --force; no temporary
+  // folders are left behind.
+  std::ostringstream out2, err2;
+  CHECK(slipscreen::cli::run(args, out2, err2) == 5);
+  auto forced = args;
+  forced.push_back("--force");
+  CHECK(slipscreen::cli::run(forced, out2, err2) == 0);
+  for (const auto& e : fs::directory_iterator(dir.parent_path()))
+    CHECK(e.path().filename().string().find("slipscreen_catalog_out_test.tmp-") == std::string::npos);
+  fs::remove_all(dir);
+}

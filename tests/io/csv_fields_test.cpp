@@ -1,0 +1,17 @@
+#include "io/csv_fields.hpp"
+
+#include <doctest/doctest.h>
+
+#include "core/errors.hpp"
+
+using namespace slipscreen;
+
+TEST_CASE("CSV records split with RFC 4180 quoting") {
+  using V = std::vector<std::string>;
+  CHECK(io::split_csv_record("a,b,c") == V{"a", "b", "c"});
+  CHECK(io::split_csv_record(" a , b ,") == V{"a", "b", ""});
+  CHECK(io::split_csv_record("\"x, y\",\"say \"\"hi\"\"\",z") == V{"x, y", "say \"hi\"", "z"});
+  CHECK(io::split_csv_record("a;b", ';') == V{"a", "b"});
+  CHECK(io::split_csv_record("") == V{""});
+  CHECK_THROWS_AS(io::split_csv_record("\"open,b"), InputError);
+}
