@@ -97,7 +97,7 @@ TEST_CASE("a crossing after shut-in between two output times is caught on the tr
     return q * 2e5 * (e1(u / t) - (t > 0.25 * kYear ? e1(u / (t - 0.25 * kYear)) : 0.0));
   };
   ScreenResult r = deterministic_screen(in);
-  const auto& s = r.segments[0];
+  const SegmentScreen s = r.segments[0];  // a copy: r is reassigned below
   CHECK(s.peak_time > 0.25 * kYear);  // the peak at 4 km comes after the shut-in
   CHECK(std::abs(s.peak_dp - dp(s.peak_time)) < 1e-9 * s.peak_dp);
   CHECK(s.dp[0] < 0.5 * s.peak_dp);
