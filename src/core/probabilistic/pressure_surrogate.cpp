@@ -97,17 +97,19 @@ PressureSurrogate::PressureSurrogate(const std::vector<SimilarityTable>& tables,
         table.accumulate(table.tap(r2 * 0.25 / mid), s.sign, exact[s.group].data());
       }
       basis(mid, ell.data());
+      // Error relative to the point's largest |Δp| over all rate groups (a group that barely
+      // reaches the point must not inflate the estimate).
+      double scale = 0.0, err = 0.0;
       for (std::size_t g = 0; g < n_groups_; ++g) {
         const auto& m = g_[p * n_groups_ + g];
-        double scale = 0.0, err = 0.0;
         for (std::size_t k = 0; k < n_times_; ++k) {
           double v = 0.0;
           for (std::size_t e = 0; e < n; ++e) v += ell[e] * m(static_cast<Eigen::Index>(k), static_cast<Eigen::Index>(e));
-          scale = std::max(scale, std::abs(double(exact[g][k])));
+          scale = std::max(scale, std::abs(exact[g][k]));
           err = std::max(err, std::abs(v - exact[g][k]));
         }
-        if (scale > 0.0) worst = std::max(worst, err / scale);
       }
+      if (scale > 0.0) worst = std::max(worst, err / scale);
     }
   }
   max_error_ = worst;
