@@ -129,7 +129,9 @@ probabilistic::UncertainModel uncertain_model(const ResolvedScenario& s, const P
 }
 
 ProbabilisticRun run_probabilistic_screen(const ResolvedScenario& s, const PreparedRun& p,
-                                          const UncertaintySpec& spec) {
+                                          const UncertaintySpec& spec,
+                                          std::vector<std::uint64_t> audit_realizations,
+                                          std::vector<std::size_t> audit_segments) {
   ProbabilisticRun run;
   const auto model = uncertain_model(s, p, spec, run.fault_ids, run.segment_fault);
   run.confidence = spec.confidence;
@@ -195,7 +197,12 @@ ProbabilisticRun run_probabilistic_screen(const ResolvedScenario& s, const Prepa
     set.map_dip = spec.map_dip;
   }
 
+  set.audit_realizations = std::move(audit_realizations);
+  set.audit_segments = std::move(audit_segments);
   run.result = probabilistic::run_probabilistic(model, wells, segments, set);
+  run.wells = std::move(wells);
+  run.segments = std::move(segments);
+  run.settings = std::move(set);
   const double z = stats::z_for_confidence(run.confidence);
   for (const auto& seg : run.result.segments)
     for (auto n : seg.slipped_by) {

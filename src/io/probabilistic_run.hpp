@@ -38,12 +38,20 @@ struct ProbabilisticRun {
   std::optional<double> map_strike, map_dip;  // rad
   double mc_half_width_max = 0.0;           // largest half-width of the Wilson intervals
   nlohmann::json manifest;                  // probabilistic_manifest(), filled by the run
+  // The engine's inputs as run (for audits against the plain method).
+  std::vector<probabilistic::WellInput> wells;
+  std::vector<probabilistic::SegmentInput> segments;
+  probabilistic::RunSettings settings;
 };
 
 // Builds the model (best estimates from the region, distributions from `spec`) and runs it.
 // Probability maps cover the output grid, coarsened to at most kMapCells cells.
+// `audit_realizations` × `audit_segments` keep the fast path's per-realization results
+// (ProbabilisticResult::audit) for checks against probabilistic::plain_slip_check.
 ProbabilisticRun run_probabilistic_screen(const ResolvedScenario& s, const PreparedRun& p,
-                                          const UncertaintySpec& spec);
+                                          const UncertaintySpec& spec,
+                                          std::vector<std::uint64_t> audit_realizations = {},
+                                          std::vector<std::size_t> audit_segments = {});
 inline constexpr std::size_t kMapCells = 6400;
 
 // The base model: every input at its best estimate (region with scenario overrides), as fixed

@@ -10,6 +10,7 @@
 //   pressure_change.tif   Δp (MPa), one Float32 band per output time, band descriptions = dates
 //   screen.gpkg           layers fault_segments and wells
 //   manifest.json         version, command line, resolved parameters, SHA-256 of every input
+#include "core/caution.hpp"
 #include <filesystem>
 #include <functional>
 #include <optional>
@@ -22,10 +23,7 @@
 namespace slipscreen::io {
 
 // The screening caution repeated in every output and console summary.
-inline constexpr const char* kScreeningCaution =
-    "Screening estimate from simplified physics and uncertain inputs. It does not replace a "
-    "site-specific study, monitoring, or the judgement of a licensed professional geoscientist or "
-    "engineer; local regulations and the permitting authority govern.";
+using slipscreen::kScreeningCaution;  // core/caution.hpp
 
 // The statement of the time grid searched for first crossings.
 inline constexpr const char* kTrackingGridStatement =

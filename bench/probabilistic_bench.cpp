@@ -1,0 +1,109 @@
+// Regional benchmark of the probabilistic screen (issue 5), on the FICTIONAL scenario written by
+// tools/make-bench-scenario.py: 200 wells with 20 years of monthly volumes, ~1,000 fault
+// segments, 40 output times, a monthly tracking grid and 10,000 Latin hypercube realizations
+// with hydrogeology, stress and friction uncertain.
+//
+// Prints: the wall time of the whole run (slipscreen run, all outputs) and its peak memory; the
+// time of the probabilistic screen alone; and, against the plain method on a subsample (every E1
+// term of every well and rate step evaluated directly for each audited realization and
+// segment), the speed ratio per realization, the largest difference in P(slip by t) and the
+// largest relative difference in Δp where Δp > 1 kPa.
+//   probabilistic_bench [SCENARIO_DIR]   (default: generated into a temporary folder)
+#include <sys/resource.h>
+
+#include <chrono>
+#include <cmath>
+#include <cstdio>
+#include <cstdlib>
+#include <filesystem>
+#include <map>
+#include <string>
+
+#include "io/probabilistic_run.hpp"
+#include "io/run.hpp"
+#include "io/run_inputs.hpp"
+#include "io/scenario.hpp"
+#include "io/scenario_uncertainty.hpp"
+
+namespace fs = std::filesystem;
+using Clock = std::chrono::steady_clock;
+using namespace slipscreen;
+
+static double since(Clock::time_point t0) { return std::chrono::duration<double>(Clock::now() - t0).count(); }
+
+int main(int argc, char** argv) {
+  fs::path dir = argc > 1 ? fs::path(argv[1]) : fs::temp_directory_path() / "slipscreen-bench-scenario";
+  if (argc <= 1) {
+    const std::string cmd = std::string("python3 '") + SLIPSCREEN_SOURCE_DIR + "/tools/make-bench-scenario.py' '" +
+                            dir.string() + "'";
+    if (std::system(cmd.c_str()) != 0) {
+      std::fprintf(stderr, "probabilistic_bench: could not run %s\n", cmd.c_str());
+      return 1;
+    }
+  }
+  const io::ResolvedScenario s = io::load_scenario(dir / "scenario.toml");
+
+  // 1. The whole run, as `slipscreen run --force` does it.
+  io::RunOptions o;
+  o.out = dir / "bench-run";
+  o.force = true;
+  o.command_line = {"probabilistic_bench"};
+  auto t0 = Clock::now();
+  const io::RunSummary summary = io::run_scenario(s, o);
+  const double t_run = since(t0);
+  rusage ru{};
+  getrusage(RUSAGE_SELF, &ru);
+  const double peak_gib = static_cast<double>(ru.ru_maxrss) / (1024.0 * 1024.0);
+
+  // 2. The probabilistic screen alone, auditing a subsample against the plain method.
+  const io::PreparedRun p = io::prepare_run(s, false);
+  const io::UncertaintySpec spec = io::load_uncertainty(s);
+  std::vector<std::uint64_t> audit_r;
+  for (std::uint64_t i = 0; i < 8; ++i) audit_r.push_back(i * 1249);
+  std::vector<std::size_t> audit_s;
+  for (std::size_t i = 0; i < p.segments.size(); i += p.segments.size() / 12) audit_s.push_back(i);
+  t0 = Clock::now();
+  const io::ProbabilisticRun run = io::run_probabilistic_screen(s, p, spec, audit_r, audit_s);
+  const double t_prob = since(t0);
+
+  t0 = Clock::now();
+  double worst_dp = 0.0;
+  std::size_t mismatched = 0;
+  std::map<std::pair<std::size_t, std::size_t>, long> diff;  // (segment, output) -> fast − plain slips
+  for (const auto& fast : run.result.audit) {
+    const auto plain = probabilistic::plain_slip_check(fast, run.wells, run.segments, run.settings);
+    mismatched += fast.first_crossing != plain.first_crossing;
+    for (std::size_t k = 0; k < run.settings.output_index.size(); ++k) {
+      const auto idx = static_cast<int>(run.settings.output_index[k]);
+      const int a = fast.first_crossing >= 0 && fast.first_crossing <= idx;
+      const int b = plain.first_crossing >= 0 && plain.first_crossing <= idx;
+      diff[{fast.segment, k}] += a - b;
+      if (plain.dp_at_output[k] > 1000.0)
+        worst_dp = std::max(worst_dp, std::abs(fast.dp_at_output[k] - plain.dp_at_output[k]) / plain.dp_at_output[k]);
+    }
+  }
+  const double t_plain = since(t0);
+  double worst_p = 0.0;
+  for (const auto& [key, d] : diff) worst_p = std::max(worst_p, std::abs(static_cast<double>(d)) / audit_r.size());
+  const double pairs = static_cast<double>(run.result.audit.size());
+  const double plain_per_real = t_plain / pairs * static_cast<double>(p.segments.size());
+  const double fast_per_real = t_prob / static_cast<double>(run.result.realizations);
+
+  std::printf("probabilistic screen benchmark (fictional regional scenario, %s)\n", dir.string().c_str());
+  std::printf("  %zu wells, %zu fault segments x %zu check points, %zu output times, %zu tracking times, %llu "
+              "realizations (%s)\n",
+              p.wells.size(), p.segments.size(), run.segments.front().check_points.size(), s.output.times.size(),
+              run.tracked_times.size(), static_cast<unsigned long long>(run.result.realizations),
+              summary.probabilistic ? summary.probabilistic->sampler.c_str() : "?");
+  std::printf("  whole run (all outputs):     %7.1f s   (target < 60 s)   peak memory %.2f GiB (target < 4)\n", t_run,
+              peak_gib);
+  std::printf("  probabilistic screen alone:  %7.1f s   = %.2f ms per realization\n", t_prob, 1e3 * fast_per_real);
+  std::printf("  plain method, %0.f audited (realization, segment) pairs: %.1f s = %.1f s per realization\n", pairs,
+              t_plain, plain_per_real);
+  std::printf("  ratio plain / fast per realization: %.0fx   (target >= 100x)\n", plain_per_real / fast_per_real);
+  std::printf("  largest difference in P(slip by t) on the subsample: %.4f (%zu of %.0f first-crossing times "
+              "differ)   (target < 0.002)\n",
+              worst_p, mismatched, pairs);
+  std::printf("  largest relative difference in dp where dp > 1 kPa: %.2e   (target < 1e-4)\n", worst_dp);
+  return 0;
+}
