@@ -55,12 +55,7 @@ probabilistic::UncertainModel uncertain_model(const ResolvedScenario& s, const P
     case StressModel::uniaxial_strain:
       m.model = probabilistic::HorizontalStressModel::uniaxial_strain;
       m.poisson_ratio = fixed(st.poisson_ratio, "poisson_ratio");
-      m.uniaxial.biot = st.biot;
-      m.uniaxial.young = st.young_modulus;
-      m.uniaxial.strain_h = st.strain_shmin;
-      m.uniaxial.strain_H = st.strain_shmax;
-      m.uniaxial.tectonic_h = st.tectonic_shmin;
-      m.uniaxial.tectonic_H = st.tectonic_shmax;
+      m.uniaxial = uniaxial_strain_model_of(st);
       break;
     case StressModel::a_phi:
       m.model = probabilistic::HorizontalStressModel::a_phi;

@@ -15,6 +15,18 @@
 
 namespace slipscreen::io {
 
+geomech::UniaxialStrainModel uniaxial_strain_model_of(const StressSpec& st) {
+  geomech::UniaxialStrainModel m;
+  m.poisson = st.poisson_ratio;
+  m.biot = st.biot;
+  m.young = st.young_modulus;
+  m.strain_h = st.strain_shmin;
+  m.strain_H = st.strain_shmax;
+  m.tectonic_h = st.tectonic_shmin;
+  m.tectonic_H = st.tectonic_shmax;
+  return m;
+}
+
 geomech::AndersonianStress stress_at_reference_depth(const RegionSpec& r) {
   const StressSpec& st = r.stress;
   const double z = r.reference_depth;
@@ -34,14 +46,7 @@ geomech::AndersonianStress stress_at_reference_depth(const RegionSpec& r) {
         h = geomech::horizontal_stresses_from_gradients(st.shmax_gradient, st.shmin_gradient, z);
         break;
       case StressModel::uniaxial_strain: {
-        geomech::UniaxialStrainModel m;
-        m.poisson = st.poisson_ratio;
-        m.biot = st.biot;
-        m.young = st.young_modulus;
-        m.strain_h = st.strain_shmin;
-        m.strain_H = st.strain_shmax;
-        m.tectonic_h = st.tectonic_shmin;
-        m.tectonic_H = st.tectonic_shmax;
+        const geomech::UniaxialStrainModel m = uniaxial_strain_model_of(st);
         geomech::check(m);
         h = geomech::horizontal_stresses_uniaxial_strain(m, sv, p0);
         break;

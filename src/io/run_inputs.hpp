@@ -3,6 +3,7 @@
 // faults into segments, resolve the stress at the reference depth and the Theis parameters,
 // and lay out the output grid. Everything that can fail on bad input fails here, before any
 // output folder exists.
+#include "core/geomech/horizontal_stress.hpp"
 #include <filesystem>
 #include <string>
 #include <vector>
@@ -31,6 +32,9 @@ struct PreparedRun {
 PreparedRun prepare_run(const ResolvedScenario& s, bool allow_network);
 
 // The in-situ stress at the reference depth from the region's description (geomech engines).
+// The uniaxial-strain model's parameters of a stress description (not checked).
+geomech::UniaxialStrainModel uniaxial_strain_model_of(const StressSpec& st);
+
 geomech::AndersonianStress stress_at_reference_depth(const RegionSpec& r);
 
 // Theis parameters (D and μ/(4π k h)) of the region's formation.
