@@ -14,6 +14,7 @@
 #include "io/csv.hpp"
 #include "io/run.hpp"
 #include "io/scenario.hpp"
+#include "run_options_fixture.hpp"
 #include "scenario_fixture.hpp"
 
 namespace fs = std::filesystem;
@@ -21,16 +22,9 @@ using namespace slipscreen;
 using namespace slipscreen::io;
 using slipscreen::test::slurp;
 using slipscreen::test::TinyScenario;
+constexpr auto into = slipscreen::test::options_into;
 
 namespace {
-
-RunOptions into(const fs::path& out) {
-  RunOptions o;
-  o.out = out;
-  o.reproducible = true;
-  o.command_line = {"slipscreen", "run", "scenario.toml"};
-  return o;
-}
 
 const char* kUncertainty =
     "\n[uncertainty]\nrealizations = 300\nsampler = \"latin-hypercube\"\nthresholds = [0.05, 0.5]\n"

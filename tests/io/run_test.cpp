@@ -15,23 +15,17 @@
 #include "core/errors.hpp"
 #include "io/csv.hpp"
 #include "io/scenario.hpp"
+#include "run_options_fixture.hpp"
 #include "scenario_fixture.hpp"
 
 namespace fs = std::filesystem;
 using namespace slipscreen;
 using namespace slipscreen::io;
 using slipscreen::test::slurp;
+using slipscreen::test::options_into;
 using slipscreen::test::TinyScenario;
 
 namespace {
-
-RunOptions options_into(const fs::path& out) {
-  RunOptions o;
-  o.out = out;
-  o.reproducible = true;
-  o.command_line = {"slipscreen", "run", "scenario.toml"};
-  return o;
-}
 
 // The parent of `out` holds nothing but what was there before (no run folder, no staging).
 std::size_t entries(const fs::path& dir) {
