@@ -1,5 +1,6 @@
 #include "core/geometry/raster_grid.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <limits>
 #include <string>
@@ -32,6 +33,19 @@ RasterGrid grid_from_extent(double x_min, double y_min, double x_max, double y_m
   g.columns = cells_along(x_max - x_min, cell_size, "extent");
   g.rows = cells_along(y_max - y_min, cell_size, "extent");
   return g;
+}
+
+RasterGrid coarsened(const RasterGrid& g, double wanted_cell, std::size_t max_cells) {
+  int factor = std::max(1, static_cast<int>(std::round(wanted_cell / g.cell_size)));
+  const auto cells = [&](int f) {
+    return static_cast<std::size_t>((g.columns + f - 1) / f) * static_cast<std::size_t>((g.rows + f - 1) / f);
+  };
+  while (cells(factor) > std::max<std::size_t>(max_cells, 1)) ++factor;
+  RasterGrid c = g;
+  c.cell_size = g.cell_size * factor;
+  c.columns = (g.columns + factor - 1) / factor;
+  c.rows = (g.rows + factor - 1) / factor;
+  return c;
 }
 
 }  // namespace slipscreen::geometry

@@ -43,4 +43,9 @@ struct RasterGrid {
 // or inverted extent, or more than 2^31−1 cells per side.
 RasterGrid grid_from_extent(double x_min, double y_min, double x_max, double y_max, double cell_size);
 
+// The grid with the same north-west corner and cells a whole factor larger: the factor nearest
+// wanted_cell / cell_size (at least 1), raised until the grid has at most max_cells cells. The
+// coarse grid covers the fine one (its last column/row may reach past it).
+RasterGrid coarsened(const RasterGrid& g, double wanted_cell, std::size_t max_cells);
+
 }  // namespace slipscreen::geometry

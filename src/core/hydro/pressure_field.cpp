@@ -139,6 +139,38 @@ PressureResult PressureField::evaluate(const PreparedPoints& pts, std::span<cons
   return res;
 }
 
+std::vector<double> PressureField::evaluate_each(const PreparedPoints& pts, std::span<const double> times,
+                                                 const TheisParameters& params) const {
+  if (times.size() != pts.point_count)
+    throw InputError("times", std::to_string(times.size()) + " times",
+                     "one time per point (" + std::to_string(pts.point_count) + ")");
+  validate(params);
+  for (std::size_t i = 0; i < times.size(); ++i)
+    if (!std::isfinite(times[i]))
+      throw InputError("time[" + std::to_string(i) + "]", util::number_text(times[i]), "a finite time (s)");
+  std::vector<double> out(pts.point_count, 0.0);
+  // Inputs are checked above, so nothing inside the parallel loop throws on them.
+  // Points with equal times share nothing, so each is one evaluate() of a single point; the
+  // work is spread over threads here instead of inside each call.
+#pragma omp parallel for schedule(dynamic, 8)
+  for (std::size_t p = 0; p < pts.point_count; ++p) {
+    PreparedPoints one;
+    one.point_count = 1;
+    one.well_count = pts.well_count;
+    const std::size_t W = pts.well_count;
+    const std::size_t b = pts.offset[p * W];
+    one.offset.push_back(0);
+    for (std::size_t w = 0; w < W; ++w) one.offset.push_back(pts.offset[p * W + w + 1] - b);
+    one.r2.assign(pts.r2.begin() + static_cast<std::ptrdiff_t>(b),
+                  pts.r2.begin() + static_cast<std::ptrdiff_t>(pts.offset[p * W + W]));
+    one.sign.assign(pts.sign.begin() + static_cast<std::ptrdiff_t>(b),
+                    pts.sign.begin() + static_cast<std::ptrdiff_t>(pts.offset[p * W + W]));
+    one.clamped.assign(W, 0);
+    out[p] = evaluate(one, times.subspan(p, 1), params).total[0];
+  }
+  return out;
+}
+
 double PressureField::pressure_at(const TheisParameters& params, FieldPoint point, double t) const {
   const FieldPoint pts[1] = {point};
   const double ts[1] = {t};

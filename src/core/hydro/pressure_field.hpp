@@ -88,6 +88,11 @@ class PressureField {
                           const TheisParameters& params, std::span<const double> rate_factors = {},
                           bool per_well = false) const;
 
+  // Δp at point i at times[i] (one time per point, e.g. earthquakes at their origin times);
+  // the same sums as evaluate(). Throws InputError unless there is one time per point.
+  std::vector<double> evaluate_each(const PreparedPoints& points, std::span<const double> times,
+                                    const TheisParameters& params) const;
+
   // Δp at one point and time (convenience; prepares the point each call).
   double pressure_at(const TheisParameters& params, FieldPoint point, double t) const;
 

@@ -71,6 +71,7 @@ ScreenResult deterministic_screen(const ScreenInputs& in, Progress progress, voi
   for (auto& out : result.segments) {
     out.dp.assign(K, 0.0);
     out.dp_point.assign(K, 0);
+    out.tracked_dp.assign(G, 0.0);
     out.well_share.assign(K * W, 0.0);
   }
   if (W == 0 || in.segments.empty()) return result;
@@ -95,6 +96,7 @@ ScreenResult deterministic_screen(const ScreenInputs& in, Progress progress, voi
       for (std::size_t g = 0; g < G; ++g) {
         double m = 0.0;
         for (std::size_t p = pa; p < pb; ++p) m = std::max(m, tracked.at(p, g));
+        out.tracked_dp[g] = m;
         if (m > out.peak_dp) {
           out.peak_dp = m;
           out.peak_time = result.tracked_times[g];

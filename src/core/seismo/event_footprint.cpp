@@ -1,6 +1,7 @@
 #include "core/seismo/event_footprint.hpp"
 
 #include <boost/math/distributions/binomial.hpp>
+#include <algorithm>
 #include <cmath>
 #include <string>
 
@@ -8,6 +9,31 @@
 #include "core/seismo/number_text.hpp"
 
 namespace slipscreen::seismo {
+
+double footprint_fraction_at(std::span<const double> times, std::span<const double> fractions, double start,
+                             double t) {
+  if (times.size() != fractions.size() || times.empty())
+    throw InputError("footprint fractions", std::to_string(fractions.size()), "one fraction per time, at least one");
+  for (std::size_t k = 0; k < times.size(); ++k) {
+    if (!(fractions[k] >= 0.0 && fractions[k] <= 1.0))
+      throw InputError("footprint fraction", number_text(fractions[k]), "a fraction between 0 and 1");
+    if (k > 0 && !(times[k] > times[k - 1]))
+      throw InputError("footprint times", number_text(times[k]), "strictly increasing times");
+  }
+  if (t <= start) return 0.0;
+  if (t >= times.back()) return fractions.back();
+  double t0 = start, f0 = 0.0;
+  for (std::size_t k = 0; k < times.size(); ++k) {
+    if (times[k] <= start) {  // samples before the first injection carry no footprint
+      t0 = std::max(t0, times[k]);
+      continue;
+    }
+    if (t <= times[k]) return f0 + (fractions[k] - f0) * (t - t0) / (times[k] - t0);
+    t0 = times[k];
+    f0 = fractions[k];
+  }
+  return fractions.back();
+}
 
 // One-sided binomial test: P(X >= k), X ~ Binomial(n, f).
 FootprintCount footprint_count(std::span<const double> dp, double threshold, double area_fraction) {

@@ -38,6 +38,13 @@ struct FootprintCount {
 FootprintCount footprint_count(std::span<const double> event_pressure_change, double threshold,
                                double area_fraction);
 
+// Footprint area fraction at time t from fractions known at increasing times: 0 up to `start`
+// (the first injection), linear from (start, 0) to the first sample and between samples, the
+// last value after the last sample. Exact for the piecewise-linear curve; InputError for
+// unsorted times or fractions outside [0, 1].
+double footprint_fraction_at(std::span<const double> times, std::span<const double> fractions, double start,
+                             double t);
+
 // Δp (Pa) at an event's epicentre, depth and origin time, supplied by the run.
 using PressureAtEvent = std::function<double(const Event&)>;
 

@@ -145,3 +145,21 @@ TEST_CASE("results do not depend on the thread count") {
   CHECK(r1.total == r2.total);
   CHECK(r1.by_well == r2.by_well);
 }
+
+TEST_CASE("evaluate_each gives each point's own time, as evaluate does") {
+  // Reference: the full point x time evaluation of the same field (same sums, so equal to
+  // rounding); one time per point is required.
+  const hydro::RateHistory h({0.0, 86400.0 * 30}, {0.01, 0.02});
+  const hydro::PressureField field({{"A", 0.0, 0.0, 0.1, h}, {"B", 800.0, 300.0, 0.1, h}});
+  const hydro::TheisParameters params{0.5, 2.0e8};
+  const std::vector<hydro::FieldPoint> pts{{100.0, 50.0}, {-400.0, 900.0}, {1500.0, -200.0}};
+  const std::vector<double> times{86400.0 * 10, 86400.0 * 45, 86400.0 * 400};
+  const auto prepared = field.prepare(pts);
+  const auto each = field.evaluate_each(prepared, times, params);
+  const auto all = field.evaluate(prepared, times, params);
+  REQUIRE(each.size() == 3);
+  for (std::size_t i = 0; i < 3; ++i) CHECK(each[i] == doctest::Approx(all.at(i, i)).epsilon(1e-14));
+  CHECK(each[0] > 0.0);
+  const std::vector<double> two{1.0, 2.0};
+  CHECK_THROWS_AS(field.evaluate_each(prepared, two, params), InputError);
+}

@@ -37,3 +37,24 @@ TEST_CASE("footprint edge cases") {
   const std::vector<double> bad = {1.0, std::nan("")};
   CHECK_THROWS_WITH_AS(footprint_count(bad, 1.0, 0.5), doctest::Contains("event 2"), InputError);
 }
+
+TEST_CASE("footprint area fraction between output times") {
+  // Piecewise-linear interpolation (exact reasoning): 0 up to the first injection at t = 100,
+  // linear to the first sample, linear between samples, constant after the last.
+  const std::vector<double> t{200.0, 400.0, 600.0};
+  const std::vector<double> f{0.2, 0.6, 0.4};
+  CHECK(footprint_fraction_at(t, f, 100.0, 50.0) == 0.0);
+  CHECK(footprint_fraction_at(t, f, 100.0, 100.0) == 0.0);
+  CHECK(footprint_fraction_at(t, f, 100.0, 150.0) == doctest::Approx(0.1).epsilon(1e-15));
+  CHECK(footprint_fraction_at(t, f, 100.0, 200.0) == doctest::Approx(0.2).epsilon(1e-15));
+  CHECK(footprint_fraction_at(t, f, 100.0, 300.0) == doctest::Approx(0.4).epsilon(1e-15));
+  CHECK(footprint_fraction_at(t, f, 100.0, 500.0) == doctest::Approx(0.5).epsilon(1e-15));
+  CHECK(footprint_fraction_at(t, f, 100.0, 900.0) == 0.4);
+  // Samples at or before the first injection carry no footprint: start at 400 -> linear from
+  // (400, 0) to (600, 0.4).
+  CHECK(footprint_fraction_at(t, f, 400.0, 500.0) == doctest::Approx(0.2).epsilon(1e-15));
+  const std::vector<double> bad{0.2, 1.5, 0.4};
+  CHECK_THROWS_AS(footprint_fraction_at(t, bad, 100.0, 300.0), InputError);
+  const std::vector<double> unsorted{200.0, 200.0, 600.0};
+  CHECK_THROWS_AS(footprint_fraction_at(unsorted, f, 100.0, 300.0), InputError);
+}
