@@ -299,6 +299,21 @@ rate_factor = "uniform(0.8, 1.2)"  # the planned well may inject more or less th
 cell_size = "2 km"
 strike = "345 deg"                 # a second raster for faults of this orientation
 dip = "85 deg"
+
+# The earthquake catalog reviewed with the run (docs/catalogs.md). SYNTHETIC events drawn by
+# tools/make-demo-catalog.py for this fictional region; the CSV form holds the same events.
+[catalog]
+file = "../../catalogs/demo/demo_catalog.xml"   # QuakeML 1.2
+mc_correction = 0.2                # added to the maximum-curvature Mc (Wiemer & Wyss 2000)
+bootstrap = 500                    # resamples for a bootstrap interval of the b-value
+forecast_magnitudes = [2.5, 3.5]   # forecasts of events at or above these magnitudes
+footprint_threshold = "0.1 MPa"    # the modelled dp that defines the pressure footprint
+# rt_well = "MW-05"                # default: the well with the most volume by the catalog's end
+
+[catalog.rate_state]               # seismicity-rate response (Dieterich 1994), assumed values
+background_rate_per_km = "0.002 1/yr"  # background events (at or above Mc) per km of fault trace
+a_sigma = "0.05 MPa"               # constitutive parameter A times effective normal stress
+aftershock_duration = "100 yr"     # t_a = A sigma / background stressing rate
 """
 
 README_MD = """\

@@ -21,7 +21,10 @@
 #include "core/seismo/epicentral_distance.hpp"
 #include "core/seismo/triggering_front.hpp"
 #include "core/units/units.hpp"
+#include "cli/catalog_report.hpp"
 #include "io/catalog_file.hpp"
+#include "io/catalog_outputs.hpp"
+#include "io/run_outputs.hpp"
 #include "io/catalog_summary_json.hpp"
 #include "io/csv_fields.hpp"
 #include "io/iso_time.hpp"
@@ -50,12 +53,6 @@ struct CatalogOptions {
 std::string g(double v, int digits = 4) {
   char buf[48];
   std::snprintf(buf, sizeof buf, "%.*g", digits, v);
-  return buf;
-}
-
-std::string fixed(double v, int decimals) {
-  char buf[48];
-  std::snprintf(buf, sizeof buf, "%.*f", decimals, v);
   return buf;
 }
 
@@ -146,35 +143,23 @@ seismo::SummaryOptions build_summary_options(const CatalogOptions& o) {
   return s;
 }
 
-// r-t view around a well.
-struct RtView {
-  std::array<double, 2> well{};
-  double start = 0.0;
-  std::vector<double> diffusivities;
-  std::vector<seismo::RtPoint> points;
-  std::vector<double> fraction_inside;
-};
-
-std::optional<RtView> build_rt(const CatalogOptions& o, const seismo::Catalog& c, const seismo::SummaryOptions& so) {
+// r-t view around a point (a well).
+std::optional<io::RtView> build_rt(const CatalogOptions& o, const seismo::Catalog& c, const seismo::SummaryOptions& so) {
   if (o.well.empty()) return std::nullopt;
-  RtView v;
-  v.well = parse_point(o.well, "--well");
-  if (!o.start.empty()) v.start = io::parse_iso8601_utc(o.start, "--start");
-  else if (so.volume_history) v.start = so.volume_history->time.front();
+  const auto well = parse_point(o.well, "--well");
+  double start = 0.0;
+  if (!o.start.empty()) start = io::parse_iso8601_utc(o.start, "--start");
+  else if (so.volume_history) start = so.volume_history->time.front();
   else throw InputError("--start", "", "the injection start time (ISO 8601) for the r-t view, or --volume-history");
-  const auto ds = split_list(o.diffusivities);
-  if (ds.empty()) v.diffusivities = {0.01, 0.1, 1.0};
-  for (const auto& d : ds) v.diffusivities.push_back(units::parse(d, Dimension::diffusivity, "--diffusivity"));
-  std::vector<double> r;
-  for (const auto& e : c.events) r.push_back(seismo::epicentral_distance(c.kind, v.well[0], v.well[1], e.x, e.y));
-  v.points = seismo::rt_points(seismo::times(c), r, v.start);
-  for (double d : v.diffusivities) v.fraction_inside.push_back(seismo::fraction_inside_front(v.points, d));
-  return v;
+  std::vector<double> d;
+  for (const auto& t : split_list(o.diffusivities)) d.push_back(units::parse(t, Dimension::diffusivity, "--diffusivity"));
+  if (d.empty()) d = {0.01, 0.1, 1.0};
+  return io::make_rt_view(c, well, start, d);
 }
 
-nlohmann::json rt_json(const RtView& v) {
+nlohmann::json rt_json(const io::RtView& v) {
   nlohmann::json j = {{"method", "triggering front r = sqrt(4 pi D t) (Shapiro et al. 1997)"},
-                      {"well", {v.well[0], v.well[1]}},
+                      {"well", {v.position[0], v.position[1]}},
                       {"start", io::format_iso8601_utc(v.start)},
                       {"events_after_start", v.points.size()}};
   nlohmann::json fr = nlohmann::json::array();
@@ -184,117 +169,15 @@ nlohmann::json rt_json(const RtView& v) {
   return j;
 }
 
-void print_summary(std::ostream& out, const io::CatalogReadResult& read, const seismo::FilterCounts& c,
-                   const seismo::CatalogSummary& s, const std::optional<RtView>& rt) {
-  out << "Catalog review: " << read.path << " (" << read.format << ")\n";
-  out << io::kScreeningCaution << "\n";
-  if (!read.catalog.description.empty()) out << "File says: " << read.catalog.description << "\n";
-  out << "\nRecords: " << read.records << " read, " << read.catalog.events.size() << " usable, " << read.rejected.size()
-      << " unusable\n";
-  const std::size_t shown = std::min<std::size_t>(read.rejected.size(), 20);
-  for (std::size_t i = 0; i < shown; ++i)
-    out << "  unusable line " << read.rejected[i].line << ": " << read.rejected[i].reason << "\n";
-  if (read.rejected.size() > shown) out << "  ... and " << read.rejected.size() - shown << " more (all listed in --json)\n";
-  for (const auto& w : read.warnings) out << "  warning: " << w << "\n";
-  out << "Filters: " << c.kept << " of " << c.input << " events kept";
-  const std::pair<const char*, std::size_t> reasons[] = {
-      {"outside the time window", c.outside_time},     {"outside the polygon", c.outside_polygon},
-      {"outside the well buffer", c.outside_buffer},   {"outside the depth range", c.outside_depth},
-      {"without depth", c.missing_depth},              {"of another magnitude type", c.other_magnitude_type},
-      {"of an unknown magnitude type", c.unknown_magnitude_type}, {"below the minimum magnitude", c.below_magnitude}};
-  for (const auto& [what, n] : reasons)
-    if (n > 0) out << "; " << n << " " << what;
-  out << "\n";
-  if (s.events > 0)
-    out << "Events: " << s.events << " from " << io::format_iso8601_utc(*s.first_time) << " to "
-        << io::format_iso8601_utc(*s.last_time) << ", M " << fixed(*s.min_magnitude, 1) << " to "
-        << fixed(*s.max_magnitude, 1) << "\n";
-  else
-    out << "Events: none after filtering\n";
-
-  out << "\nMagnitude of completeness: ";
-  if (!s.has_mc) out << "not estimated (" << s.mc_note << ")\n";
-  else if (s.mc_given) out << "Mc = " << fixed(s.mc, 2) << " (given)";
-  else {
-    out << "Mc = " << fixed(s.mc, 2) << " (maximum curvature, Wiemer & Wyss 2000";
-    if (s.completeness->correction != 0.0) out << ", " << fixed(s.completeness->mc_curvature, 2) << " + " << g(s.completeness->correction) << " correction";
-    out << ")";
-  }
-  if (s.has_mc) out << ", " << s.events_at_or_above_mc << " events at or above\n";
-  out << "b-value: ";
-  if (s.b) {
-    out << fixed(s.b->b, 2) << " ± " << fixed(s.b->sigma, 2) << " (Aki 1965 with Utsu's correction, σ Shi & Bolt 1982; n = "
-        << s.b->n << ", a = " << fixed(s.b->a, 2) << ")\n";
-    if (s.bootstrap)
-      out << "  bootstrap " << g(100 * s.bootstrap->confidence, 3) << " % interval: " << fixed(s.bootstrap->lower, 2) << " to "
-          << fixed(s.bootstrap->upper, 2) << " (" << s.bootstrap->resamples << " resamples, seed " << s.bootstrap->seed << ")\n";
-    if (!s.b_note.empty()) out << "  note: " << s.b_note << "\n";
-  } else {
-    out << "not estimated (" << s.b_note << ")\n";
-  }
-
-  out << "\nLargest-magnitude bounds\n";
-  if (s.mcgarr_moment) {
-    out << "  McGarr (2014), net volume " << g(s.net_volume) << " m3, G = " << g(s.shear_modulus / 1e9, 3)
-        << " GPa: M0 <= " << g(*s.mcgarr_moment) << " N·m";
-    if (s.mcgarr_mw) out << ", Mw <= " << fixed(*s.mcgarr_mw, 2) << " (IASPEI 2013)";
-    out << "\n";
-  } else {
-    out << "  McGarr (2014): not computed (give --net-volume)\n";
-  }
-  for (const auto& f : s.fault_bounds)
-    out << "  " << f.name << ", " << g(f.length / 1000.0, 3) << " km: M " << fixed(f.estimate.magnitude, 2) << " ± "
-        << fixed(f.estimate.sd, 2) << (f.estimate.extrapolated ? " (length outside the regression's data, extrapolated)" : "")
-        << "\n";
-  if (!s.fault_bounds.empty()) out << "  (" << s.regression << "; rupture of the whole fault)\n";
-
-  out << "\nSeismogenic index (Shapiro et al. 2010): ";
-  if (s.seismogenic_index) {
-    const auto& f = *s.seismogenic_index;
-    out << "Σ = " << fixed(f.sigma, 2) << " ± " << fixed(f.sigma_count_se, 2) << " (count) ± " << fixed(f.sigma_b_se, 2)
-        << " (b), from " << f.events << " events >= Mc while " << g(f.volume) << " m3 were injected ("
-        << io::format_iso8601_utc(f.window_start) << " to " << io::format_iso8601_utc(f.window_end) << ")\n";
-  } else {
-    out << "not fitted (" << s.seismogenic_index_note << ")\n";
-  }
-  if (!s.forecasts.empty()) {
-    out << "Forecast for a further " << g(s.forecasts.front().planned_volume) << " m3 injected:\n";
-    for (const auto& f : s.forecasts)
-      out << "  M >= " << fixed(f.magnitude, 1) << ": expected " << g(f.expected, 3) << " events, P(at least one) = "
-          << g(100.0 * f.probability, 3) << " %\n";
-    out << "  (Poisson, same Σ and b as observed; uncertainty of Σ and b not included)\n";
-  } else {
-    out << "Forecast: " << s.forecast_note << "\n";
-  }
-
-  if (rt) {
-    out << "\nr-t view around the well at (" << g(rt->well[0], 8) << ", " << g(rt->well[1], 8) << ") from "
-        << io::format_iso8601_utc(rt->start) << ": " << rt->points.size() << " events after the start\n";
-    for (std::size_t i = 0; i < rt->diffusivities.size(); ++i)
-      out << "  inside the triggering front for D = " << g(rt->diffusivities[i], 3)
-          << " m2/s: " << g(100.0 * rt->fraction_inside[i], 3) << " %\n";
-    out << "  (r = sqrt(4 pi D t), Shapiro et al. 1997)\n";
-  }
-  out << "\nAssumptions:\n";
-  for (const auto& a : s.assumptions) out << "  - " << a << "\n";
-}
-
 void write_text(const fs::path& p, const std::string& text) {
   std::ofstream f(p, std::ios::binary);
   f << text;
   if (!f) throw IoError("cannot write '" + p.string() + "'");
 }
 
-std::string csv_quote(const std::string& s) {
-  if (s.find_first_of(",\"\n") == std::string::npos) return s;
-  std::string q = "\"";
-  for (char c : s) q += c == '"' ? std::string("\"\"") : std::string(1, c);
-  return q + "\"";
-}
-
 // Writes the output folder through a temporary sibling renamed into place at the end.
 void write_folder(const CatalogOptions& o, const nlohmann::json& summary, const seismo::Catalog& c,
-                  const std::optional<RtView>& rt) {
+                  const std::optional<io::RtView>& rt) {
   const fs::path target = fs::absolute(o.out);
   if (fs::exists(target) && !o.force)
     throw RefusedError("output folder '" + o.out + "' exists; choose another or add --force to replace it");
@@ -309,36 +192,12 @@ void write_folder(const CatalogOptions& o, const nlohmann::json& summary, const 
     ev << "# " << io::kScreeningCaution << "\n";
     ev << "event_id,time,x,y,depth_m,magnitude,magnitude_type\n";
     for (const auto& e : c.events)
-      ev << csv_quote(e.id) << "," << io::format_iso8601_utc(e.time) << "," << g(e.x, 10) << "," << g(e.y, 10) << ","
-         << (e.depth ? g(*e.depth, 8) : "") << "," << g(e.magnitude, 4) << "," << csv_quote(e.magnitude_type) << "\n";
+      ev << io::csv_field(e.id) << "," << io::format_iso8601_utc(e.time) << "," << g(e.x, 10) << "," << g(e.y, 10) << ","
+         << (e.depth ? g(*e.depth, 8) : "") << "," << g(e.magnitude, 4) << "," << io::csv_field(e.magnitude_type) << "\n";
     write_text(tmp / "catalog_events.csv", ev.str());
     if (rt) {
-      std::ostringstream t;
-      t << "# r-t view: distance from the well at (" << g(rt->well[0], 10) << ", " << g(rt->well[1], 10)
-        << ") against time since " << io::format_iso8601_utc(rt->start) << ". " << io::kScreeningCaution << "\n";
-      t << "event_id,time,days_since_start,distance_m,magnitude,diffusivity_through_point_m2_s\n";
-      double t_max = 0.0;
-      for (const auto& p : rt->points) {
-        const auto& e = c.events[p.event];
-        t << csv_quote(e.id) << "," << io::format_iso8601_utc(e.time) << "," << fixed(p.t / units::kDay, 4) << ","
-          << fixed(p.r, 1) << "," << g(e.magnitude, 4) << "," << g(p.d_fit, 6) << "\n";
-        t_max = std::max(t_max, p.t);
-      }
-      write_text(tmp / "rt_events.csv", t.str());
-      std::ostringstream fc;
-      fc << "# Triggering fronts r = sqrt(4 pi D t) (Shapiro et al. 1997). " << io::kScreeningCaution << "\n";
-      fc << "days_since_start";
-      for (double d : rt->diffusivities) fc << ",front_m_D_" << g(d, 4) << "_m2_s";
-      fc << "\n";
-      if (t_max <= 0.0) t_max = 365.25 * units::kDay;
-      const int n = 200;
-      for (int k = 0; k <= n; ++k) {
-        const double tt = t_max * k / n;
-        fc << fixed(tt / units::kDay, 4);
-        for (double d : rt->diffusivities) fc << "," << fixed(seismo::front_radius(d, tt), 1);
-        fc << "\n";
-      }
-      write_text(tmp / "rt_fronts.csv", fc.str());
+      write_text(tmp / "rt_events.csv", io::rt_events_csv(c, *rt));
+      write_text(tmp / "rt_fronts.csv", io::rt_fronts_csv(*rt));
     }
     if (fs::exists(target)) fs::remove_all(target);
     fs::rename(tmp, target);
@@ -363,7 +222,7 @@ int run_catalog(const CatalogOptions& o, Context& ctx) {
   auto j = io::catalog_summary_json(read, filtered.counts, summary);
   j["rt_view"] = rt ? rt_json(*rt) : nlohmann::json(nullptr);
   if (o.json) ctx.out << j.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) << "\n";
-  else print_summary(ctx.out, read, filtered.counts, summary, rt);
+  else print_catalog_summary(ctx.out, read, filtered.counts, summary, rt);
   if (!o.out.empty()) {
     write_folder(o, j, filtered.catalog, rt);
     if (!o.json) ctx.out << "\nWrote " << o.out << "/ (catalog_summary.json, catalog_events.csv"

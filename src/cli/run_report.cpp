@@ -3,10 +3,14 @@
 #include <cstdio>
 #include <map>
 #include <ostream>
+#include <algorithm>
 #include <set>
 
+#include "cli/catalog_report.hpp"
 #include "cli/exit_codes.hpp"
 #include "cli/scenario_summary.hpp"
+#include "io/catalog_review.hpp"
+#include "io/iso_time.hpp"
 #include "io/run.hpp"
 #include "io/scenario.hpp"
 
@@ -22,6 +26,72 @@ std::string mpa(double pa) {
 std::string pad(std::string s, std::size_t n) {
   if (s.size() < n) s.append(n - s.size(), ' ');
   return s;
+}
+
+// The catalog review of a run: the catalog's own summary, then the events against the model.
+void print_review_against_model(std::ostream& out, const io::ResolvedScenario& s, const io::CatalogReview& v,
+                                int shown_max) {
+  out << "\n";
+  print_catalog_summary(out, v.read, v.counts, v.summary, v.rt, static_cast<std::size_t>(std::max(shown_max, 1)));
+  char line[320];
+  out << "\nEvents against the model (" << v.events.size() << " events kept):\n";
+  const auto& f = v.footprint;
+  std::snprintf(line, sizeof line,
+                "  %zu of %zu events in the study area had modelled dp >= %.3g MPa at their place and time; "
+                "%.1f expected by chance (mean area fraction %.3f), one-sided p = %.2g\n",
+                f.inside, f.events, v.spec.footprint_threshold / 1e6, v.footprint_expected, f.area_fraction, f.p_value);
+  out << line;
+  std::size_t reached = 0;
+  for (const auto& e : v.events) reached += e.segment_reached;
+  out << "  " << reached << " events lie nearest to a segment that the deterministic screen has at its critical "
+      << "pressure increase by the event time\n";
+  // The largest events with their nearest segment.
+  std::vector<std::size_t> idx(v.events.size());
+  for (std::size_t i = 0; i < idx.size(); ++i) idx[i] = i;
+  std::stable_sort(idx.begin(), idx.end(), [&](std::size_t a, std::size_t b) {
+    return v.catalog.events[a].magnitude > v.catalog.events[b].magnitude;
+  });
+  if (!idx.empty()) {
+    out << "  Largest events:\n  " << pad("date", 12) << pad("M", 6) << pad("dp MPa", 9) << pad("nearest segment", 17)
+        << pad("distance km", 13) << "P(slip) by then\n";
+    for (std::size_t n = 0; n < idx.size() && static_cast<int>(n) < shown_max; ++n) {
+      const auto& e = v.catalog.events[idx[n]];
+      const auto& m = v.events[idx[n]];
+      char mag[16], dist[24], p[64];
+      std::snprintf(mag, sizeof mag, "%.1f", e.magnitude);
+      std::snprintf(dist, sizeof dist, "%.2f", m.distance / 1000.0);
+      if (m.probability_time) std::snprintf(p, sizeof p, "%.3f [%.3f, %.3f]", m.p_slip, m.p_low, m.p_high);
+      else std::snprintf(p, sizeof p, "-");
+      out << "  " << pad(io::format_iso8601_utc(e.time).substr(0, 10), 12) << pad(mag, 6) << pad(mpa(m.dp), 9)
+          << pad(v.segment_ids.empty() ? "-" : v.segment_ids[m.segment], 17) << pad(dist, 13) << p
+          << "\n";
+    }
+  }
+  if (v.rt) {
+    out << "  r-t view around " << v.rt->well << ": " << v.rt->points.size() << " events after its first injection"
+        << " (rt_events.csv, rt_fronts.csv)\n";
+  }
+  if (v.spec.rate_state) {
+    // Faults with the highest modelled rate increase at the last output time.
+    std::map<std::string, std::pair<double, double>> by_fault;  // fault -> (rate, background)
+    for (std::size_t i = 0; i < v.rates.size(); ++i) {
+      if (v.rates[i].samples.empty()) continue;
+      auto& a = by_fault[v.segment_faults[i]];
+      a.first += v.rates[i].samples.back().rate;
+      a.second += v.rates[i].background_rate;
+    }
+    std::vector<std::pair<double, std::string>> ratio;
+    for (const auto& [id, a] : by_fault)
+      if (a.second > 0) ratio.emplace_back(a.first / a.second, id);
+    std::stable_sort(ratio.begin(), ratio.end(), [](const auto& a, const auto& b) { return a.first > b.first; });
+    out << "  Seismicity-rate response (Dieterich 1994) by " << util::format_iso_date(s.output.dates.back())
+        << ", rate over background:";
+    for (std::size_t n = 0; n < ratio.size() && static_cast<int>(n) < shown_max; ++n) {
+      std::snprintf(line, sizeof line, "%s %s %.3g", n ? "," : "", ratio[n].second.c_str(), ratio[n].first);
+      out << line;
+    }
+    out << " (seismicity_rate_faults.csv)\n";
+  }
 }
 
 }  // namespace
@@ -110,6 +180,7 @@ int run_and_report(const RunCommandOptions& o, Context& ctx) {
       }
     }
   }
+  if (r.catalog) print_review_against_model(ctx.out, s, *r.catalog, o.closest);
   ctx.out << "\nOutputs in " << r.folder.generic_string() << "/:\n";
   for (const auto& f : r.files) ctx.out << "  " << f << "\n";
   ctx.out << "\nScreening caution: " << io::kScreeningCaution << "\n";

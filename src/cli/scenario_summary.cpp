@@ -72,6 +72,10 @@ void print_scenario_summary(const io::ResolvedScenario& s, std::ostream& out) {
       << (o.geopackage ? " geopackage" : "") << " manifest, into " << (o.folder.empty() ? "(--out)" : o.folder) << "\n";
   out << "  seed " << s.seed << (s.uncertainty ? ", [uncertainty] given" : ", no [uncertainty] (deterministic screen)")
       << "\n";
+  if (s.catalog)
+    out << "Catalog    " << s.catalog->file << " (reviewed with the run; footprint threshold "
+        << fixed(s.catalog->footprint_threshold / 1e6, 3) << " MPa"
+        << (s.catalog->rate_state ? ", seismicity-rate response" : "") << ")\n";
 }
 
 }  // namespace slipscreen::cli

@@ -171,15 +171,8 @@ ProbabilisticRun run_probabilistic_screen(const ResolvedScenario& s, const Prepa
   }
 
   // Probability maps: the output grid, coarsened by a whole factor to at most kMapCells cells.
-  run.map_grid = p.grid;
-  const double wanted = spec.map_cell_size > 0.0 ? spec.map_cell_size : p.grid.cell_size;
-  int factor = std::max(1, static_cast<int>(std::round(wanted / p.grid.cell_size)));
-  while (static_cast<std::size_t>((p.grid.columns + factor - 1) / factor) *
-             static_cast<std::size_t>((p.grid.rows + factor - 1) / factor) > kMapCells)
-    ++factor;
-  run.map_grid.cell_size = p.grid.cell_size * factor;
-  run.map_grid.columns = (p.grid.columns + factor - 1) / factor;
-  run.map_grid.rows = (p.grid.rows + factor - 1) / factor;
+  run.map_grid = geometry::coarsened(p.grid, spec.map_cell_size > 0.0 ? spec.map_cell_size : p.grid.cell_size,
+                                     kMapCells);
   for (int j = 0; j < run.map_grid.rows; ++j)
     for (int i = 0; i < run.map_grid.columns; ++i) {
       const auto c = run.map_grid.cell_centre(i, j);

@@ -5,6 +5,7 @@
 
 #include "core/errors.hpp"
 #include "core/screen/deterministic_screen.hpp"
+#include "io/catalog_review.hpp"
 #include "io/manifest.hpp"
 #include "io/run_folder.hpp"
 #include "io/run_inputs.hpp"
@@ -56,9 +57,15 @@ RunSummary run_scenario(const ResolvedScenario& s, const RunOptions& o) {
     prob = run_probabilistic_screen(s, prepared, spec);
   }
 
+  std::optional<CatalogReview> review;
+  if (s.catalog) {
+    stage("catalog review");
+    review = review_catalog(s, prepared, result, prob ? &*prob : nullptr);
+  }
+
   stage("writing outputs");
   RunFolder folder(target, RunFolderOptions{o.force});
-  write_run_outputs(folder, s, prepared, result, o, prob ? &*prob : nullptr);
+  write_run_outputs(folder, s, prepared, result, o, prob ? &*prob : nullptr, review ? &*review : nullptr);
   folder.commit();
 
   RunSummary summary;
@@ -129,6 +136,7 @@ RunSummary run_scenario(const ResolvedScenario& s, const RunOptions& o) {
                      [](const FlaggedSegment& a, const FlaggedSegment& b) { return a.p_final > b.p_final; });
     summary.probabilistic = std::move(ps);
   }
+  if (review) summary.catalog = std::make_shared<const CatalogReview>(std::move(*review));
   return summary;
 }
 

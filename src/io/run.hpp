@@ -13,6 +13,7 @@
 #include "core/caution.hpp"
 #include <filesystem>
 #include <functional>
+#include <memory>
 #include <optional>
 #include <string>
 #include <vector>
@@ -21,6 +22,8 @@
 #include "io/scenario.hpp"
 
 namespace slipscreen::io {
+
+struct CatalogReview;  // catalog_review.hpp
 
 // The screening caution repeated in every output and console summary.
 using slipscreen::kScreeningCaution;  // core/caution.hpp
@@ -78,6 +81,7 @@ struct RunSummary {
   bool radius_clamped = false;
   std::string last_date;
   std::optional<ProbabilisticSummary> probabilistic;  // when the scenario has [uncertainty]
+  std::shared_ptr<const CatalogReview> catalog;       // when the scenario has [catalog]
 };
 
 // Throws the typed errors of the inputs; nothing is left behind when it throws.

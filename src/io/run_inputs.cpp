@@ -1,5 +1,7 @@
 #include "io/run_inputs.hpp"
 
+#include "core/hydro/image_wells.hpp"
+
 #include <algorithm>
 #include <cmath>
 #include <limits>
@@ -208,7 +210,27 @@ PreparedRun prepare_run(const ResolvedScenario& s, bool allow_network) {
   if (!s.wells_file.empty()) run.manifest_inputs.push_back({"wells", s.wells_path, s.wells_file});
   if (!s.histories_file.empty()) run.manifest_inputs.push_back({"histories", s.histories_path, s.histories_file});
   run.manifest_inputs.push_back({"fault map", r.faults.path, display_name(r.faults.path)});
+  if (s.catalog) run.manifest_inputs.push_back({"catalog", s.catalog->path, s.catalog->file});
   return run;
+}
+
+std::vector<hydro::GridSource> grid_sources(const PreparedRun& p) {
+  std::vector<hydro::GridSource> sources;
+  for (const auto& w : p.inputs.wells) {
+    if (w.history.empty()) continue;
+    for (const auto& img : hydro::image_wells(w.x, w.y, p.inputs.boundaries)) {
+      hydro::GridSource src{img.x, img.y, w.history.start_times(), w.history.rates()};
+      for (double& q : src.rate) q *= img.sign;
+      sources.push_back(std::move(src));
+    }
+  }
+  return sources;
+}
+
+hydro::GridFormation grid_formation(const PreparedRun& p) {
+  double radius = 1.0;
+  for (const auto& w : p.wells) radius = std::min(radius, w.radius);
+  return {p.inputs.formation.pressure_per_rate, p.inputs.formation.diffusivity, radius};
 }
 
 }  // namespace slipscreen::io

@@ -9,6 +9,7 @@
 #include <vector>
 
 #include "core/geometry/raster_grid.hpp"
+#include "core/hydro/pressure_grid.hpp"
 #include "core/screen/deterministic_screen.hpp"
 #include "io/crs.hpp"
 #include "io/manifest.hpp"
@@ -39,6 +40,11 @@ geomech::AndersonianStress stress_at_reference_depth(const RegionSpec& r);
 
 // Theis parameters (D and μ/(4π k h)) of the region's formation.
 hydro::TheisParameters theis_parameters_of(const FormationSpec& f);
+
+// The pressure-grid engine's sources (every well with its image wells, signed rates) and
+// formation (smallest well radius) of a prepared run.
+std::vector<hydro::GridSource> grid_sources(const PreparedRun& p);
+hydro::GridFormation grid_formation(const PreparedRun& p);
 
 // A well's rate history in the pressure engine's form.
 hydro::RateHistory rate_history_of(const WellSpec& w);

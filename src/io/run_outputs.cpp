@@ -5,10 +5,11 @@
 #include <fstream>
 
 #include "core/errors.hpp"
-#include "core/hydro/image_wells.hpp"
 #include "core/hydro/pressure_grid.hpp"
 #include "core/units/units.hpp"
+#include "io/catalog_review.hpp"
 #include "io/geotiff_writer.hpp"
+#include "io/iso_time.hpp"
 #include "core/stats/wilson_interval.hpp"
 #include "io/manifest.hpp"
 #include "io/probabilistic_run.hpp"
@@ -135,18 +136,8 @@ void write_raster(const RunFolder& folder, const ResolvedScenario& s, const Prep
   const auto& g = p.grid;
   hydro::GridGeometry geo{g.x_origin, g.y_origin, g.cell_size, -g.cell_size, static_cast<std::size_t>(g.columns),
                           static_cast<std::size_t>(g.rows)};
-  double radius = 1.0;
-  for (const auto& w : p.wells) radius = std::min(radius, w.radius);
-  const hydro::GridFormation formation{p.inputs.formation.pressure_per_rate, p.inputs.formation.diffusivity, radius};
-  std::vector<hydro::GridSource> sources;
-  for (const auto& w : p.inputs.wells) {
-    if (w.history.empty()) continue;
-    for (const auto& img : hydro::image_wells(w.x, w.y, p.inputs.boundaries)) {
-      hydro::GridSource src{img.x, img.y, w.history.start_times(), w.history.rates()};
-      for (double& q : src.rate) q *= img.sign;
-      sources.push_back(std::move(src));
-    }
-  }
+  const hydro::GridFormation formation = grid_formation(p);
+  const std::vector<hydro::GridSource> sources = grid_sources(p);
   std::vector<RasterBand> bands(s.output.times.size());
   if (sources.empty()) {
     for (std::size_t k = 0; k < bands.size(); ++k) bands[k] = {util::format_iso_date(s.output.dates[k]), std::vector<float>(g.cell_count(), 0.0f)};
@@ -177,8 +168,49 @@ std::string gpkg_date_field(const util::CivilDate& d) {
   return s;
 }
 
+// The reviewed catalog's events with their attributes against the model (catalog_review.hpp).
+VectorLayer earthquake_layer(const ResolvedScenario& s, const PreparedRun& p, const CatalogReview& v) {
+  VectorLayer layer("earthquakes", GeometryType::point,
+                    {{"event_id", FieldType::string},        {"time_utc", FieldType::string},
+                     {"depth_m", FieldType::real},           {"magnitude", FieldType::real},
+                     {"magnitude_type", FieldType::string},  {"in_study_area", FieldType::integer},
+                     {"dp_MPa", FieldType::real},            {"in_footprint", FieldType::integer},
+                     {"nearest_segment", FieldType::string}, {"nearest_fault", FieldType::string},
+                     {"distance_m", FieldType::real},        {"segment_dp_MPa", FieldType::real},
+                     {"segment_dp_crit_MPa", FieldType::real}, {"segment_reached", FieldType::integer},
+                     {"footprint_area_fraction", FieldType::real}, {"p_slip", FieldType::real},
+                     {"p_slip_low", FieldType::real},        {"p_slip_high", FieldType::real},
+                     {"p_slip_date", FieldType::date},       {"rt_days_since_start", FieldType::real},
+                     {"rt_distance_m", FieldType::real}},
+                    "Earthquakes of the reviewed catalog against the model (screening estimate)");
+  const FieldValue none = std::monostate{};
+  for (std::size_t i = 0; i < v.events.size(); ++i) {
+    const auto& e = v.catalog.events[i];
+    const auto& m = v.events[i];
+    const bool seg = !p.segments.empty();
+    VectorFeature f;
+    f.geometry = {{m.x, m.y}};
+    f.values = {e.id, format_iso8601_utc(e.time), e.depth ? FieldValue(*e.depth) : none, e.magnitude,
+                e.magnitude_type, static_cast<std::int64_t>(m.in_study_area), m.dp / kMPa,
+                static_cast<std::int64_t>(m.dp >= v.spec.footprint_threshold),
+                seg ? FieldValue(p.segments[m.segment].segment_id) : none,
+                seg ? FieldValue(p.segments[m.segment].fault_id) : none, seg ? FieldValue(m.distance) : none,
+                seg ? FieldValue(m.segment_dp / kMPa) : none,
+                seg && std::isfinite(m.segment_dp_crit) ? FieldValue(m.segment_dp_crit / kMPa) : none,
+                static_cast<std::int64_t>(m.segment_reached), m.footprint_fraction,
+                m.probability_time ? FieldValue(m.p_slip) : none, m.probability_time ? FieldValue(m.p_low) : none,
+                m.probability_time ? FieldValue(m.p_high) : none,
+                m.probability_time ? FieldValue(util::format_iso_date(s.output.dates[*m.probability_time])) : none,
+                m.rt_time ? FieldValue(*m.rt_time / units::kDay) : none,
+                m.rt_distance ? FieldValue(*m.rt_distance) : none};
+    layer.features.push_back(std::move(f));
+  }
+  return layer;
+}
+
 void write_layers(const RunFolder& folder, const ResolvedScenario& s, const PreparedRun& p,
-                  const screen::ScreenResult& r, const RunOptions& o, const ProbabilisticRun* prob) {
+                  const screen::ScreenResult& r, const RunOptions& o, const ProbabilisticRun* prob,
+                  const CatalogReview* review) {
   std::vector<FieldSpec> fields = {
       {"segment_id", FieldType::string},   {"fault_id", FieldType::string},      {"segment_index", FieldType::integer},
       {"strike_deg", FieldType::real},     {"dip_deg", FieldType::real},         {"friction", FieldType::real},
@@ -241,17 +273,21 @@ void write_layers(const RunFolder& folder, const ResolvedScenario& s, const Prep
   }
   GeoPackageOptions go;
   if (o.reproducible) go.timestamp = util::format_iso_date(s.output.dates.back()) + "T00:00:00Z";
-  write_geopackage(folder.output("output.files.geopackage", s.output.files.geopackage), p.working, {segs, wells}, go);
+  std::vector<VectorLayer> layers{std::move(segs), std::move(wells)};
+  if (review) layers.push_back(earthquake_layer(s, p, *review));
+  write_geopackage(folder.output("output.files.geopackage", s.output.files.geopackage), p.working, layers, go);
 }
 
 }  // namespace
 
 void write_run_outputs(const RunFolder& folder, const ResolvedScenario& s, const PreparedRun& p,
-                       const screen::ScreenResult& r, const RunOptions& o, const ProbabilisticRun* probabilistic) {
+                       const screen::ScreenResult& r, const RunOptions& o, const ProbabilisticRun* probabilistic,
+                       const CatalogReview* review) {
   if (s.output.tables) write_tables(folder, s, p, r);
   if (s.output.rasters) write_raster(folder, s, p);
-  if (s.output.geopackage) write_layers(folder, s, p, r, o, probabilistic);
+  if (s.output.geopackage) write_layers(folder, s, p, r, o, probabilistic, review);
   if (probabilistic) write_probabilistic_outputs(folder, s, p, *probabilistic);
+  if (review) write_catalog_review(folder, s, p, *review);
 
   ManifestContent m;
   m.command_line = o.command_line;
@@ -275,6 +311,7 @@ void write_run_outputs(const RunFolder& folder, const ResolvedScenario& s, const
                                {"pressure_per_rate_Pa_s_per_m3", p.inputs.formation.pressure_per_rate}}},
                     {"well_radius_clamped", r.radius_clamped}}}};
   if (probabilistic) m.parameters["probabilistic"] = probabilistic->manifest;
+  if (review) m.parameters["catalog"] = catalog_manifest(*review);
   write_manifest(folder.output("output.files.manifest", s.output.files.manifest), m, folder.staging());
 }
 

@@ -8,11 +8,12 @@
 namespace slipscreen::io {
 
 struct ProbabilisticRun;
+struct CatalogReview;
 // `probabilistic` (may be null) adds the probabilistic tables, rasters, GeoPackage columns and
-// manifest block.
+// manifest block; `review` (may be null) the catalog review's tables and the earthquakes layer.
 void write_run_outputs(const RunFolder& folder, const ResolvedScenario& s, const PreparedRun& prepared,
                        const screen::ScreenResult& result, const RunOptions& options,
-                       const ProbabilisticRun* probabilistic = nullptr);
+                       const ProbabilisticRun* probabilistic = nullptr, const CatalogReview* review = nullptr);
 
 // Number formatting of the tables: fixed decimals, "" for NaN, "inf" for +infinity; the same
 // bytes for the same double on every run.

@@ -201,7 +201,8 @@ ResolvedScenario load_scenario(const fs::path& path) {
   sc.inputs.push_back(path);
   const fs::path dir = path.parent_path();
   const Section top({{doc.root.get(), sc.file, "", dir}});
-  top.allow({"title", "seed", "region", "wells", "histories", "proposed_well", "output", "uncertainty"});
+  top.allow({"title", "seed", "region", "wells", "histories", "proposed_well", "output", "uncertainty",
+             "catalog"});
   sc.title = top.optional_string("title").value_or("");
   if (auto seed = top.optional_integer("seed")) {
     if (*seed < 0) top.fail("seed", std::to_string(*seed), "a seed >= 0");
@@ -262,6 +263,11 @@ ResolvedScenario load_scenario(const fs::path& path) {
     throw Error(ErrorCategory::input, sc.file + ": no wells: expected a [wells] file or a [[proposed_well]]");
 
   sc.output = read_output(top.child("output"));
+
+  if (top.has("catalog")) {
+    sc.catalog = read_catalog_spec(top.child("catalog"), sc.wells);
+    sc.inputs.push_back(sc.catalog->path);
+  }
 
   if (auto u = top.find("uncertainty")) {
     if (!u->node->is_table()) top.fail("uncertainty", toml_value_text(*u->node), "a table [uncertainty]");

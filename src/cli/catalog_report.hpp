@@ -1,0 +1,18 @@
+#pragma once
+// The readable catalog-review summary (console), shared by `slipscreen catalog` and `run`.
+// `max_fault_bounds` limits the per-fault magnitude bounds shown (the largest first).
+#include <optional>
+#include <ostream>
+
+#include "core/seismo/catalog_filter.hpp"
+#include "core/seismo/catalog_summary.hpp"
+#include "io/catalog_file.hpp"
+#include "io/catalog_outputs.hpp"
+
+namespace slipscreen::cli {
+
+void print_catalog_summary(std::ostream& out, const io::CatalogReadResult& read, const seismo::FilterCounts& c,
+                           const seismo::CatalogSummary& s, const std::optional<io::RtView>& rt,
+                           std::size_t max_fault_bounds = static_cast<std::size_t>(-1));
+
+}  // namespace slipscreen::cli
