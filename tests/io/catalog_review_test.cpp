@@ -195,3 +195,23 @@ TEST_CASE("bad [catalog] tables are refused with the key, value and place") {
     CHECK_FALSE(fs::exists(out));
   }
 }
+
+TEST_CASE("an empty catalog gives a documented result: notes, no NaN, no events layer rows") {
+  TinyScenario t;
+  t.write("catalog.csv", "id,time,x,y,depth,magnitude,magnitude_type\n");
+  t.append("scenario.toml", kCatalogTable);
+  const ResolvedScenario s = load_scenario(t.scenario());
+  const fs::path out = t.dir() / "runs" / "empty";
+  const RunSummary r = run_scenario(s, options_into(out));
+  REQUIRE(r.catalog);
+  CHECK(r.catalog->events.empty());
+  CHECK(r.catalog->footprint.events == 0);
+  CHECK(r.catalog->footprint.p_value == 1.0);
+  CHECK_FALSE(r.catalog->summary.b.has_value());
+  CHECK_FALSE(r.catalog->summary.b_note.empty());  // why there is no b-value
+  const std::string json = slurp(out / "catalog_summary.json");
+  CHECK(json.find("NaN") == std::string::npos);
+  CHECK(nlohmann::json::parse(json)["b_value"]["b"].is_null());
+  const CsvTable ev = read_csv(out / "catalog_events.csv", "catalog_events.csv");
+  CHECK(ev.rows.empty());
+}
