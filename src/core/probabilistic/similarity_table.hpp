@@ -86,6 +86,8 @@ class SimilarityTable {
 
   std::size_t time_count() const { return n_times_; }
   std::size_t node_count() const { return n_nodes_; }
+  // max_i |H(x_i, t_k)| over the nodes: the scale of the stated accuracy at tracking time k.
+  double scale(std::size_t k) const;
 
   // H summed directly (no table): the reference the table is checked against.
   static double direct(const RateSteps& steps, double x, double t);
