@@ -7,6 +7,9 @@
 #include "core/errors.hpp"
 
 namespace slipscreen::probabilistic {
+namespace {
+constexpr std::size_t kBlock = 256;  // realizations per matrix product
+}  // namespace
 
 PressureDraws make_pressure_draws(const PressureSurrogate& surrogate, std::span<const double> diffusivity,
                                   std::span<const double> prefactor, const Eigen::MatrixXd& rate_factor) {
@@ -46,53 +49,78 @@ void track_slip(const PressureSurrogate& surrogate, const std::vector<std::vecto
 
 #pragma omp parallel
   {
-    Eigen::MatrixXd g_out, dp_out, series;
-    Eigen::VectorXd bound, col, best;
+    std::vector<Eigen::MatrixXd> g_out, block;  // per (point, group): output rows; per group: basis × scale
+    Eigen::MatrixXd series, best;
+    Eigen::VectorXd bound;
+    std::vector<Eigen::Index> full, outputs_only;
 #pragma omp for schedule(dynamic, 1)
     for (std::size_t s = 0; s < n_seg; ++s) {
       SegmentOutcome res;
       res.segment = s;
       res.first_crossing.assign(static_cast<std::size_t>(n_real), -1);
       res.dp_at_output.setZero(static_cast<Eigen::Index>(output_index.size()), n_real);
-      bound.setZero(n_real);
       const auto& pts = segment_points[s];
-      // Δp at output times for all realizations, and the bound on Δp over all tracking times.
+      const auto crit_of = [&](Eigen::Index r) {
+        return double(dp_crit(dp_crit.rows() == 1 ? 0 : static_cast<Eigen::Index>(s), r));
+      };
+      // The bound on Δp over all tracking times, per realization (max over check points).
       for (std::size_t i = 0; i < pts.size(); ++i) {
-        dp_out.setZero(static_cast<Eigen::Index>(output_index.size()), n_real);
         Eigen::VectorXd b = Eigen::VectorXd::Zero(n_real);
         for (std::size_t g = 0; g < n_groups; ++g) {
-          g_out = surrogate.table(pts[i], g)(out_rows, Eigen::all);
-          const Eigen::RowVectorXd scale = draws.scale.row(static_cast<Eigen::Index>(g));
-          series.noalias() = g_out * draws.basis;
-          series.array().rowwise() *= scale.array();
-          dp_out += series;
           const Eigen::Map<const Eigen::RowVectorXd> cmax(surrogate.column_max(pts[i], g), n_nodes);
           const Eigen::RowVectorXd bg = cmax * abs_basis;
-          b += (bg.array() * scale.array().abs()).matrix().transpose();
+          b += (bg.array() * draws.scale.row(static_cast<Eigen::Index>(g)).array().abs()).matrix().transpose();
         }
-        res.dp_at_output = i == 0 ? dp_out : res.dp_at_output.cwiseMax(dp_out);
         bound = i == 0 ? b : bound.cwiseMax(b);
       }
-      // Full tracking series only where the threshold can be reached.
+      // Full tracking series only where the threshold can be reached; Δp at the output times
+      // for every realization.
+      full.clear();
+      outputs_only.clear();
       for (Eigen::Index r = 0; r < n_real; ++r) {
-        const double crit = dp_crit(dp_crit.rows() == 1 ? 0 : static_cast<Eigen::Index>(s), r);
-        if (crit <= 0.0) {  // already critical before any injection
-          res.first_crossing[static_cast<std::size_t>(r)] = 0;
-          continue;
-        }
-        if (bound(r) < crit) continue;
-        best.setZero(static_cast<Eigen::Index>(n_times));
-        for (std::size_t i = 0; i < pts.size(); ++i) {
-          col.setZero(static_cast<Eigen::Index>(n_times));
-          for (std::size_t g = 0; g < n_groups; ++g)
-            col.noalias() += surrogate.table(pts[i], g) * draws.basis.col(r) * draws.scale(static_cast<Eigen::Index>(g), r);
-          best = i == 0 ? col : best.cwiseMax(col);
-        }
-        for (std::size_t k = 0; k < n_times; ++k)
-          if (best(static_cast<Eigen::Index>(k)) >= crit) {
-            res.first_crossing[static_cast<std::size_t>(r)] = static_cast<int>(k);
-            break;
+        const double crit = crit_of(r);
+        if (crit <= 0.0) res.first_crossing[static_cast<std::size_t>(r)] = 0;  // critical before injection
+        (crit > 0.0 && bound(r) >= crit ? full : outputs_only).push_back(r);
+      }
+      g_out.resize(pts.size() * n_groups);
+      for (std::size_t i = 0; i < pts.size(); ++i)
+        for (std::size_t g = 0; g < n_groups; ++g) g_out[i * n_groups + g] = surrogate.table(pts[i], g)(out_rows, Eigen::all);
+      block.resize(n_groups);
+      for (const bool whole : {false, true}) {
+        const auto& list = whole ? full : outputs_only;
+        for (std::size_t c0 = 0; c0 < list.size(); c0 += kBlock) {
+          const auto nb = static_cast<Eigen::Index>(std::min(kBlock, list.size() - c0));
+          for (std::size_t g = 0; g < n_groups; ++g) {
+            block[g].resize(n_nodes, nb);
+            for (Eigen::Index c = 0; c < nb; ++c) {
+              const Eigen::Index r = list[c0 + static_cast<std::size_t>(c)];
+              block[g].col(c) = draws.basis.col(r) * draws.scale(static_cast<Eigen::Index>(g), r);
+            }
           }
+          for (std::size_t i = 0; i < pts.size(); ++i) {
+            for (std::size_t g = 0; g < n_groups; ++g) {
+              const Eigen::MatrixXd& t = whole ? surrogate.table(pts[i], g) : g_out[i * n_groups + g];
+              if (g == 0) series.noalias() = t * block[g];
+              else series.noalias() += t * block[g];
+            }
+            if (i == 0) best = series;
+            else best = best.cwiseMax(series);
+          }
+          for (Eigen::Index c = 0; c < nb; ++c) {
+            const Eigen::Index r = list[c0 + static_cast<std::size_t>(c)];
+            if (!whole) {
+              res.dp_at_output.col(r) = best.col(c);
+              continue;
+            }
+            res.dp_at_output.col(r) = best(out_rows, c);
+            const double crit = crit_of(r);
+            for (std::size_t k = 0; k < n_times; ++k)
+              if (best(static_cast<Eigen::Index>(k), c) >= crit) {
+                res.first_crossing[static_cast<std::size_t>(r)] = static_cast<int>(k);
+                break;
+              }
+          }
+        }
       }
       visit(res);
     }
