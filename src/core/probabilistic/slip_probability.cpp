@@ -81,6 +81,12 @@ struct Realization {
 
 }  // namespace
 
+double MedianAttribution::share(std::size_t w) const {
+  double total = 0.0;
+  for (double v : well_dp) total += v;
+  return total > 0.0 ? well_dp.at(w) / total : 0.0;
+}
+
 std::vector<std::string> sampled_input_names(const UncertainModel& model, const std::vector<WellInput>& wells,
                                              std::size_t fault_count) {
   std::vector<std::string> names;
@@ -264,12 +270,15 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
   for (std::size_t w = 0; w < wells.size(); ++w)
     if (list.well_rate[w] != InputList::npos) group_of[w] = groups++;
   std::vector<PressureSource> sources;
+  std::vector<std::size_t> first_source(wells.size() + 1, 0);  // sources of well w: [first[w], first[w+1])
   double rw_min = std::numeric_limits<double>::infinity();
   for (std::size_t w = 0; w < wells.size(); ++w) {
     rw_min = std::min(rw_min, wells[w].radius);
+    first_source[w] = sources.size();
     for (const auto& im : hydro::image_wells(wells[w].x, wells[w].y, settings.boundaries))
       sources.push_back({im.x, im.y, wells[w].radius, w, im.sign, group_of[w]});
   }
+  first_source[wells.size()] = sources.size();
   std::vector<ObservationPoint> points;
   std::vector<std::vector<std::size_t>> seg_points(n_seg);
   double r2_max = 0.0;
@@ -364,6 +373,46 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
     const auto margin_ranks = stats::average_ranks(margin);
     res.sensitivity.resize(n_inputs + 2);
     for (std::size_t j = 0; j < n_inputs; ++j) res.sensitivity[j] = stats::spearman_from_ranks(input_ranks[j], margin_ranks).rho;
+    if (settings.attribute_median) {
+      std::vector<std::pair<double, Eigen::Index>> order(keep.size());
+      const std::size_t rank = (keep.size() - 1) / 2;
+      const auto& cps = segments[o.segment].check_points;
+      res.median.resize(n_out);
+      for (std::size_t t = 0; t < n_out; ++t) {
+        for (std::size_t c = 0; c < keep.size(); ++c) {
+          const auto ci = static_cast<Eigen::Index>(c);
+          order[c] = {o.dp_at_output(static_cast<Eigen::Index>(t), ci), ci};
+        }
+        std::nth_element(order.begin(), order.begin() + static_cast<std::ptrdiff_t>(rank), order.end());
+        const Eigen::Index c = order[rank].second;
+        MedianAttribution& m = res.median[t];
+        m.realization = static_cast<std::uint64_t>(keep[static_cast<std::size_t>(c)]);
+        m.dp = order[rank].first;
+        const double inv4d = 0.25 / d[static_cast<std::size_t>(c)];
+        const std::size_t k = settings.output_index[t];
+        std::vector<double> at_point(wells.size());
+        double best_total = -std::numeric_limits<double>::infinity();
+        for (std::size_t p = 0; p < cps.size(); ++p) {
+          double total = 0.0;
+          for (std::size_t w = 0; w < wells.size(); ++w) {
+            double h = 0.0;
+            for (std::size_t j = first_source[w]; j < first_source[w + 1]; ++j) {
+              const auto& src = sources[j];
+              const double dx = cps[p].x - src.x, dy = cps[p].y - src.y;
+              const double r2 = std::max(dx * dx + dy * dy, src.radius * src.radius);
+              h += src.sign * tables[w].value(tables[w].tap(r2 * inv4d), k);
+            }
+            at_point[w] = pre[static_cast<std::size_t>(c)] * factor(static_cast<Eigen::Index>(group_of[w]), c) * h;
+            total += at_point[w];
+          }
+          if (total > best_total) {  // the first check point holding the maximum wins ties
+            best_total = total;
+            m.check_point = p;
+            m.well_dp = at_point;
+          }
+        }
+      }
+    }
     const std::size_t f = segments[o.segment].fault;
     for (std::size_t a = 0; a < 2; ++a) {
       std::vector<double> pert(keep.size());
