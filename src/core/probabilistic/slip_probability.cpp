@@ -319,6 +319,11 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
 
   // ---- tracking and accumulation, one segment at a time ----
   const std::size_t n_out = settings.output_index.size();
+  // For the median attribution: every table's nodes at every output time [t * wells + w].
+  std::vector<std::vector<float>> median_nodes;
+  if (settings.attribute_median)
+    for (std::size_t t = 0; t < n_out; ++t)
+      for (std::size_t w = 0; w < wells.size(); ++w) median_nodes.push_back(tables[w].nodes_at(settings.output_index[t]));
   out.segments.resize(n_seg);
   // Audited pairs: kept columns of the audited realizations.
   std::vector<std::pair<std::uint64_t, Eigen::Index>> audit_cols;
@@ -388,28 +393,33 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
         MedianAttribution& m = res.median[t];
         m.realization = static_cast<std::uint64_t>(keep[static_cast<std::size_t>(c)]);
         m.dp = order[rank].first;
-        const double inv4d = 0.25 / d[static_cast<std::size_t>(c)];
+        // The check point holding the maximum (fast path; the first one on ties).
         const std::size_t k = settings.output_index[t];
-        std::vector<double> at_point(wells.size());
-        double best_total = -std::numeric_limits<double>::infinity();
+        double best = -std::numeric_limits<double>::infinity();
         for (std::size_t p = 0; p < cps.size(); ++p) {
-          double total = 0.0;
-          for (std::size_t w = 0; w < wells.size(); ++w) {
-            double h = 0.0;
-            for (std::size_t j = first_source[w]; j < first_source[w + 1]; ++j) {
-              const auto& src = sources[j];
-              const double dx = cps[p].x - src.x, dy = cps[p].y - src.y;
-              const double r2 = std::max(dx * dx + dy * dy, src.radius * src.radius);
-              h += src.sign * tables[w].value(tables[w].tap(r2 * inv4d), k);
-            }
-            at_point[w] = pre[static_cast<std::size_t>(c)] * factor(static_cast<Eigen::Index>(group_of[w]), c) * h;
-            total += at_point[w];
-          }
-          if (total > best_total) {  // the first check point holding the maximum wins ties
-            best_total = total;
+          double v = 0.0;
+          for (std::size_t g = 0; g < groups; ++g)
+            v += surrogate.table(seg_points[o.segment][p], g).row(static_cast<Eigen::Index>(k)).dot(draws.basis.col(c)) *
+                 draws.scale(static_cast<Eigen::Index>(g), c);
+          if (v > best) {
+            best = v;
             m.check_point = p;
-            m.well_dp = at_point;
           }
+        }
+        // Each well's contribution there, from its table's nodes at that time.
+        const auto& cp = cps[m.check_point];
+        const double inv4d = 0.25 / d[static_cast<std::size_t>(c)];
+        m.well_dp.assign(wells.size(), 0.0);
+        for (std::size_t w = 0; w < wells.size(); ++w) {
+          const float* nodes = median_nodes[t * wells.size() + w].data();
+          double h = 0.0;
+          for (std::size_t j = first_source[w]; j < first_source[w + 1]; ++j) {
+            const auto& src = sources[j];
+            const double dx = cp.x - src.x, dy = cp.y - src.y;
+            const double r2 = std::max(dx * dx + dy * dy, src.radius * src.radius);
+            h += src.sign * SimilarityTable::value_from_nodes(tables[w].tap(r2 * inv4d), nodes);
+          }
+          m.well_dp[w] = pre[static_cast<std::size_t>(c)] * factor(static_cast<Eigen::Index>(group_of[w]), c) * h;
         }
       }
     }

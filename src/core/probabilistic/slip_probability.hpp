@@ -127,14 +127,14 @@ struct AuditEntry {
 // valid realization of rank ⌊(n − 1)/2⌋ (0-based, the sketches' rank convention) when the n
 // valid realizations are ordered by their Δp at the segment at that time (fast path, max over
 // check points), ties by realization index. Its inputs are reproducible from its stream
-// (seed, realization). Each well's contribution is evaluated there from the similarity tables
-// (every source of the well, with its sign, the realization's D, μ/(4π k h) and rate factors)
-// at every check point; the check point with the largest sum is kept. Σ well_dp equals `dp` to
-// the surrogate's accuracy (max_relative_error()); shares are well_dp / Σ well_dp.
+// (seed, realization). At the check point holding that maximum (the first one on ties), each
+// well's contribution is evaluated from its similarity table (every source of the well, with
+// its sign, the realization's D, μ/(4π k h) and rate factors). Σ well_dp equals `dp` to the
+// surrogate's accuracy (max_relative_error()); shares are well_dp / Σ well_dp.
 struct MedianAttribution {
   std::uint64_t realization = 0;  // realization index i (not the rank among valid ones)
   double dp = 0.0;                // Pa, the median realization's Δp at the segment (fast path)
-  std::size_t check_point = 0;    // index in the segment's check points
+  std::size_t check_point = 0;    // index in the segment's check points (holding the maximum)
   std::vector<double> well_dp;    // Pa, per well
   // Well w's share of Σ well_dp (0 when the sum is ≤ 0).
   double share(std::size_t w) const;
