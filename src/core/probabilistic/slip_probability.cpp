@@ -355,10 +355,14 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
     res.dp.assign(n_out, stats::QuantileSketch());
     const auto s = static_cast<Eigen::Index>(o.segment);
     std::vector<double> margin(keep.size());
+    // Δp by output time, each time's realizations contiguous (column t).
+    const Eigen::MatrixXd by_time = o.dp_at_output.transpose();
+    for (std::size_t t = 0; t < n_out; ++t)  // one sketch at a time (its buckets stay in cache)
+      for (std::size_t c = 0; c < keep.size(); ++c)
+        res.dp[t].add(by_time(static_cast<Eigen::Index>(c), static_cast<Eigen::Index>(t)));
     for (std::size_t c = 0; c < keep.size(); ++c) {
       const auto ci = static_cast<Eigen::Index>(c);
       const double dc = crit(s, ci);
-      for (std::size_t t = 0; t < n_out; ++t) res.dp[t].add(o.dp_at_output(static_cast<Eigen::Index>(t), ci));
       margin[c] = dc - o.dp_at_output(static_cast<Eigen::Index>(n_out - 1), ci);
       if (std::isinf(dc)) {
         ++res.never_critical;
@@ -379,20 +383,41 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
     res.sensitivity.resize(n_inputs + 2);
     for (std::size_t j = 0; j < n_inputs; ++j) res.sensitivity[j] = stats::spearman_from_ranks(input_ranks[j], margin_ranks).rho;
     if (settings.attribute_median) {
-      std::vector<std::pair<double, Eigen::Index>> order(keep.size());
+      std::vector<double> sorted;
+      sorted.reserve(keep.size());
       const std::size_t rank = (keep.size() - 1) / 2;
       const auto& cps = segments[o.segment].check_points;
       res.median.resize(n_out);
       for (std::size_t t = 0; t < n_out; ++t) {
-        for (std::size_t c = 0; c < keep.size(); ++c) {
-          const auto ci = static_cast<Eigen::Index>(c);
-          order[c] = {o.dp_at_output(static_cast<Eigen::Index>(t), ci), ci};
+        // The value of rank `rank`: the sketch's estimate bounds it (relative accuracy α), so
+        // only the values in that window need ordering (all of them if the window misses).
+        // Then the realization holding it (ties by index: the (rank − #smaller)-th equal one).
+        const double* v = by_time.col(static_cast<Eigen::Index>(t)).data();
+        const double est = res.dp[t].quantile(0.5);
+        const double half = 2.0 * res.dp[t].relative_accuracy() * std::abs(est) + res.dp[t].zero_threshold();
+        const double lo = est - half, hi = est + half;
+        std::size_t below = 0;
+        sorted.clear();
+        for (std::size_t j = 0; j < keep.size(); ++j) {
+          if (v[j] < lo) ++below;
+          else if (v[j] <= hi) sorted.push_back(v[j]);
         }
-        std::nth_element(order.begin(), order.begin() + static_cast<std::ptrdiff_t>(rank), order.end());
-        const Eigen::Index c = order[rank].second;
+        if (!(below <= rank && rank < below + sorted.size())) {  // not in the window: order all
+          sorted.assign(v, v + keep.size());
+          below = 0;
+        }
+        std::nth_element(sorted.begin(), sorted.begin() + static_cast<std::ptrdiff_t>(rank - below), sorted.end());
+        const double median = sorted[rank - below];
+        std::size_t tie = rank - static_cast<std::size_t>(std::count_if(v, v + keep.size(), [&](double x) { return x < median; }));
+        Eigen::Index c = 0;
+        for (std::size_t j = 0; j < keep.size(); ++j)
+          if (v[j] == median && tie-- == 0) {
+            c = static_cast<Eigen::Index>(j);
+            break;
+          }
         MedianAttribution& m = res.median[t];
         m.realization = static_cast<std::uint64_t>(keep[static_cast<std::size_t>(c)]);
-        m.dp = order[rank].first;
+        m.dp = median;
         // The check point holding the maximum (fast path; the first one on ties).
         const std::size_t k = settings.output_index[t];
         double best = -std::numeric_limits<double>::infinity();
