@@ -34,6 +34,20 @@ const char* kUncertainty =
     "[uncertainty.faults]\nfriction = \"truncnormal(mean=0.6, sd=0.05, min=0.4, max=0.8)\"\n"
     "[uncertainty.maps]\nstrike = \"30 deg\"\ndip = \"70 deg\"\n";
 
+// The tiny scenario with every input fixed (20 identical realizations), run into <dir>/fixed.
+fs::path run_all_fixed(TinyScenario& t) {
+  t.append("scenario.toml", "\n[uncertainty]\nrealizations = 20\n");
+  const fs::path out = t.dir() / "fixed";
+  run_scenario(load_scenario(t.scenario()), into(out));
+  return out;
+}
+
+std::size_t column_of(const CsvTable& tb, const char* name) {
+  const auto c = tb.column(name);
+  REQUIRE(c.has_value());
+  return *c;
+}
+
 }  // namespace
 
 TEST_CASE("a scenario with [uncertainty] adds the probabilistic outputs") {
@@ -68,8 +82,8 @@ TEST_CASE("a scenario with [uncertainty] adds the probabilistic outputs") {
   // per row), and every group names the same median realization on all its rows.
   const CsvTable med = read_csv(out / "median_well_shares.csv", "median_well_shares.csv");
   REQUIRE(!med.rows.empty());
-  const std::size_t ms = *med.column("segment_id"), md = *med.column("date"), msh = *med.column("share"),
-                    mr = *med.column("median_realization");
+  const std::size_t ms = column_of(med, "segment_id"), md = column_of(med, "date"), msh = column_of(med, "share"),
+                    mr = column_of(med, "median_realization");
   std::map<std::pair<std::string, std::string>, std::pair<double, std::size_t>> groups;
   std::map<std::pair<std::string, std::string>, std::string> realization;
   for (const auto& row : med.rows) {
@@ -120,20 +134,12 @@ TEST_CASE("probabilistic outputs are byte-identical for reruns with 1 and 2 thre
 
 TEST_CASE("all inputs fixed: the probabilistic screen agrees with the deterministic one") {
   TinyScenario t;
-  t.append("scenario.toml", "\n[uncertainty]\nrealizations = 20\n");
-  const ResolvedScenario s = load_scenario(t.scenario());
-  const fs::path out = t.dir() / "fixed";
-  run_scenario(s, into(out));
+  const fs::path out = run_all_fixed(t);
   const CsvTable det = read_csv(out / "segments.csv", "segments.csv");
   const CsvTable pro = read_csv(out / "segment_probability_summary.csv", "segment_probability_summary.csv");
   REQUIRE(det.rows.size() == pro.rows.size());
-  const auto at = [](const CsvTable& tb, const char* name) {
-    const auto c = tb.column(name);
-    REQUIRE(c.has_value());
-    return *c;
-  };
-  const std::size_t first = at(det, "first_crossing_date"), p = at(pro, "p_slip_final"),
-                    crit = at(pro, "p_already_critical");
+  const std::size_t first = column_of(det, "first_crossing_date"), p = column_of(pro, "p_slip_final"),
+                    crit = column_of(pro, "p_already_critical");
   for (std::size_t i = 0; i < det.rows.size(); ++i) {
     CAPTURE(i);
     const double pf = std::stod(pro.rows[i].fields[p]) + std::stod(pro.rows[i].fields[crit]);
@@ -145,18 +151,11 @@ TEST_CASE("all inputs fixed: the probabilistic screen agrees with the determinis
 
 TEST_CASE("all inputs fixed: the median well attribution is the deterministic well attribution") {
   TinyScenario t;
-  t.append("scenario.toml", "\n[uncertainty]\nrealizations = 20\n");
-  const ResolvedScenario s = load_scenario(t.scenario());
-  const fs::path out = t.dir() / "fixed";
-  run_scenario(s, into(out));
+  const fs::path out = run_all_fixed(t);
   const CsvTable det = read_csv(out / "well_shares.csv", "well_shares.csv");
   const CsvTable times = read_csv(out / "segment_times.csv", "segment_times.csv");
   const CsvTable med = read_csv(out / "median_well_shares.csv", "median_well_shares.csv");
-  const auto col = [](const CsvTable& tb, const char* name) {
-    const auto c = tb.column(name);
-    REQUIRE(c.has_value());
-    return *c;
-  };
+  const auto col = column_of;
   using Key = std::tuple<std::string, std::string, std::string>;  // segment, date, well
   std::map<Key, double> det_share;
   for (const auto& r : det.rows)

@@ -392,26 +392,26 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
         // The value of rank `rank`: the sketch's estimate bounds it (relative accuracy α), so
         // only the values in that window need ordering (all of them if the window misses).
         // Then the realization holding it (ties by index: the (rank − #smaller)-th equal one).
-        const double* v = by_time.col(static_cast<Eigen::Index>(t)).data();
+        const double* vals = by_time.col(static_cast<Eigen::Index>(t)).data();
         const double est = res.dp[t].quantile(0.5);
         const double half = 2.0 * res.dp[t].relative_accuracy() * std::abs(est) + res.dp[t].zero_threshold();
         const double lo = est - half, hi = est + half;
         std::size_t below = 0;
         sorted.clear();
         for (std::size_t j = 0; j < keep.size(); ++j) {
-          if (v[j] < lo) ++below;
-          else if (v[j] <= hi) sorted.push_back(v[j]);
+          if (vals[j] < lo) ++below;
+          else if (vals[j] <= hi) sorted.push_back(vals[j]);
         }
         if (!(below <= rank && rank < below + sorted.size())) {  // not in the window: order all
-          sorted.assign(v, v + keep.size());
+          sorted.assign(vals, vals + keep.size());
           below = 0;
         }
         std::nth_element(sorted.begin(), sorted.begin() + static_cast<std::ptrdiff_t>(rank - below), sorted.end());
         const double median = sorted[rank - below];
-        std::size_t tie = rank - static_cast<std::size_t>(std::count_if(v, v + keep.size(), [&](double x) { return x < median; }));
+        std::size_t tie = rank - static_cast<std::size_t>(std::count_if(vals, vals + keep.size(), [&](double y) { return y < median; }));
         Eigen::Index c = 0;
         for (std::size_t j = 0; j < keep.size(); ++j)
-          if (v[j] == median && tie-- == 0) {
+          if (vals[j] == median && tie-- == 0) {
             c = static_cast<Eigen::Index>(j);
             break;
           }
@@ -436,13 +436,13 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
         const double inv4d = 0.25 / d[static_cast<std::size_t>(c)];
         m.well_dp.assign(wells.size(), 0.0);
         for (std::size_t w = 0; w < wells.size(); ++w) {
-          const float* nodes = median_nodes[t * wells.size() + w].data();
+          const float* h_nodes = median_nodes[t * wells.size() + w].data();
           double h = 0.0;
           for (std::size_t j = first_source[w]; j < first_source[w + 1]; ++j) {
             const auto& src = sources[j];
             const double dx = cp.x - src.x, dy = cp.y - src.y;
             const double r2 = std::max(dx * dx + dy * dy, src.radius * src.radius);
-            h += src.sign * SimilarityTable::value_from_nodes(tables[w].tap(r2 * inv4d), nodes);
+            h += src.sign * SimilarityTable::value_from_nodes(tables[w].tap(r2 * inv4d), h_nodes);
           }
           m.well_dp[w] = pre[static_cast<std::size_t>(c)] * factor(static_cast<Eigen::Index>(group_of[w]), c) * h;
         }

@@ -246,7 +246,7 @@ Case three_wells() {
   const double wx[3] = {0.0, 2500.0, -1500.0}, wy[3] = {0.0, 1500.0, 2500.0};
   for (int w = 0; w < 3; ++w) {
     WellInput in;
-    in.id = "W" + std::to_string(w + 1);
+    in.id = std::string("W").append(std::to_string(w + 1));
     in.x = wx[w];
     in.y = wy[w];
     double q_prev = 0.0;
@@ -288,7 +288,7 @@ TEST_CASE("median well attribution, all inputs fixed: the deterministic screen's
   for (std::size_t s = 0; s < c.segments.size(); ++s) {
     std::vector<geometry::Point2> pts;
     for (const auto& p : c.segments[s].check_points) pts.push_back({p.x, p.y});
-    in.segments.push_back({"S" + std::to_string(s), c.segments[s].strike, c.segments[s].dip, pts, std::nullopt});
+    in.segments.push_back({std::string("S").append(std::to_string(s)), c.segments[s].strike, c.segments[s].dip, pts, std::nullopt});
   }
   for (std::size_t o : c.settings.output_index) in.output_times.push_back(c.settings.tracking_times[o]);
   in.tracking_times = c.settings.tracking_times;

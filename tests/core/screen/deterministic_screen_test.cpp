@@ -134,13 +134,13 @@ TEST_CASE("tracking from similarity tables agrees with the exact pressure field 
       rates.push_back(q);
     }
     in.wells.push_back(well_at(wx[w], wy[w], starts, rates));
-    in.wells.back().id = "W" + std::to_string(w);
+    in.wells.back().id = std::string("W").append(std::to_string(w));
   }
   in.boundaries = {{hydro::BoundaryKind::no_flow, 10000, 0, 0, 1},
                    {hydro::BoundaryKind::constant_pressure, 0, -8000, 1, 0}};
   const double sx[5] = {1200, 5000, -6000, 8000, 0}, sy[5] = {-900, 5000, -3000, 20000, -7000};
   for (int i = 0; i < 5; ++i)
-    in.segments.push_back({"F:" + std::to_string(i), 50.0 * kPi / 180, 85.0 * kPi / 180,
+    in.segments.push_back({std::string("F:").append(std::to_string(i)), 50.0 * kPi / 180, 85.0 * kPi / 180,
                            {{sx[i] - 600, sy[i]}, {sx[i], sy[i] + 100}, {sx[i] + 600, sy[i]}}, std::nullopt});
   for (int m = 1; m <= 84; ++m) in.tracking_times.push_back(t0 + m * 30 * day + 3 * day);
   for (int y = 1; y <= 7; ++y) in.output_times.push_back(t0 + y * 365 * day);
