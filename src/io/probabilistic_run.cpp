@@ -185,6 +185,7 @@ ProbabilisticRun run_probabilistic_screen(const ResolvedScenario& s, const Prepa
     set.map_dip = spec.map_dip;
   }
 
+  set.attribute_median = s.output.tables;  // written to median_well_shares.csv
   set.audit_realizations = std::move(audit_realizations);
   set.audit_segments = std::move(audit_segments);
   run.result = probabilistic::run_probabilistic(model, wells, segments, set);
@@ -288,6 +289,41 @@ void write_probabilistic_outputs(const RunFolder& folder, const ResolvedScenario
           << fixed_decimals(sens[order[r]], 3) << ',' << (r + 1) << '\n';
     }
     std::ofstream(folder.output("output.files.sensitivity", "sensitivity.csv"), std::ios::binary) << v.str();
+
+    // Well attribution of the median Δp: per segment and output time, the wells with a share of
+    // at least kMedianShareMin (largest first, ties in file order), then one row for the rest.
+    std::string m;
+    m = "segment_id,fault_id,date,median_realization,dp_MPa,check_point,well_id,wells,well_dp_MPa,share\n";
+    for (std::size_t i = 0; i < res.segments.size(); ++i)
+      for (std::size_t k = 0; k < res.segments[i].median.size(); ++k) {
+        const auto& a = res.segments[i].median[k];
+        double total = 0.0;
+        for (double v : a.well_dp) total += v;
+        if (!(total > 0.0)) continue;  // no pressure at the median yet
+        std::vector<std::size_t> order(a.well_dp.size());
+        for (std::size_t w = 0; w < order.size(); ++w) order[w] = w;
+        std::stable_sort(order.begin(), order.end(),
+                         [&](std::size_t x, std::size_t y) { return a.well_dp[x] > a.well_dp[y]; });
+        const std::string head = csv_field(p.segments[i].segment_id) + ',' + csv_field(p.segments[i].fault_id) + ',' +
+                                 util::format_iso_date(s.output.dates[k]) + ',' + std::to_string(a.realization) + ',' +
+                                 fixed_decimals(a.dp / kMPa, 6) + ',' + std::to_string(a.check_point) + ',';
+        double rest = 0.0;
+        std::size_t rest_count = 0;
+        for (std::size_t w : order) {
+          const double share = a.well_dp[w] / total;
+          if (std::abs(share) < kMedianShareMin) {
+            rest += a.well_dp[w];
+            ++rest_count;
+            continue;
+          }
+          m += head + csv_field(p.wells[w].id) + ",1," + fixed_decimals(a.well_dp[w] / kMPa, 6) + ',' +
+               fixed_decimals(share, 6) + '\n';
+        }
+        if (rest_count > 0)
+          m += head + ',' + std::to_string(rest_count) + ',' + fixed_decimals(rest / kMPa, 6) + ',' +
+               fixed_decimals(rest / total, 6) + '\n';
+      }
+    std::ofstream(folder.output("output.files.median_well_shares", "median_well_shares.csv"), std::ios::binary) << m;
   }
 
   if (s.output.rasters && !res.map_dangerous.empty()) {

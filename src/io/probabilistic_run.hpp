@@ -10,6 +10,10 @@
 //                                    each probability threshold is reached
 //   sensitivity.csv                  per fault (its most probable segment): Spearman ρ of every
 //                                    sampled input with the final slip margin, ranked
+//   median_well_shares.csv           per segment × output time: the median realization (rank
+//                                    ⌊(n−1)/2⌋ by Δp at the segment) and each well's contribution
+//                                    and share there (probabilistic::MedianAttribution); rows for
+//                                    wells with a share ≥ kMedianShareMin, then one row for the rest
 //   slip_probability_dangerous.tif   P(slip by t) of a fault of the most dangerous orientation
 //   slip_probability_oriented.tif    the same for the [uncertainty.maps] orientation (if given)
 #include <optional>
@@ -53,6 +57,8 @@ ProbabilisticRun run_probabilistic_screen(const ResolvedScenario& s, const Prepa
                                           std::vector<std::uint64_t> audit_realizations = {},
                                           std::vector<std::size_t> audit_segments = {});
 inline constexpr std::size_t kMapCells = 6400;
+// Wells below this share of the median Δp are summed in one row of median_well_shares.csv.
+inline constexpr double kMedianShareMin = 0.01;
 
 // The base model: every input at its best estimate (region with scenario overrides), as fixed
 // distributions; `spec` then replaces what it names.

@@ -50,6 +50,7 @@ RunSummary run_scenario(const ResolvedScenario& s, const RunOptions& o) {
 
   const UncertaintySpec spec = load_uncertainty(s);
   ProgressBridge bridge{&o};
+  stage("pressure at fault segments");
   const screen::ScreenResult result = screen::deterministic_screen(prepared.inputs, &report, &bridge);
   std::optional<ProbabilisticRun> prob;
   if (spec.given) {

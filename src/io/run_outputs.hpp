@@ -18,6 +18,8 @@ void write_run_outputs(const RunFolder& folder, const ResolvedScenario& s, const
 // Number formatting of the tables: fixed decimals, "" for NaN, "inf" for +infinity; the same
 // bytes for the same double on every run.
 std::string fixed_decimals(double v, int decimals);
+// The same, appended to `out` (for large tables).
+void append_fixed(std::string& out, double v, int decimals);
 
 // A CSV field, quoted (RFC 4180) when it holds a comma, quote or line break.
 std::string csv_field(const std::string& s);

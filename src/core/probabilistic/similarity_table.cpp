@@ -141,6 +141,18 @@ void SimilarityTable::accumulate(const SimilarityTap& t, double scale, double* _
     out[k] += w0 * double(r0[k]) + w1 * double(r1[k]) + w2 * double(r2[k]) + w3 * double(r3[k]);
 }
 
+std::vector<float> SimilarityTable::nodes_at(std::size_t k) const {
+  std::vector<float> v(n_nodes_);
+  for (std::size_t i = 0; i < n_nodes_; ++i) v[i] = values_[i * n_times_ + k];
+  return v;
+}
+
+double SimilarityTable::scale(std::size_t k) const {
+  float m = 0.0f;
+  for (std::size_t i = 0; i < n_nodes_; ++i) m = std::max(m, std::abs(values_[i * n_times_ + k]));
+  return m;
+}
+
 double SimilarityTable::direct(const RateSteps& steps, double x, double t) {
   double h = 0.0;
   for (std::size_t j = 0; j < steps.time.size() && steps.time[j] < t; ++j)

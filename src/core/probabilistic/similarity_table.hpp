@@ -81,11 +81,22 @@ class SimilarityTable {
            double(t.weight[2]) * row[k + 2 * n_times_] + double(t.weight[3]) * row[k + 3 * n_times_];
   }
 
+  // H at every node for tracking time k (node order), and the interpolated H from such a
+  // column: the same value as value(t, k), for many taps at one time (contiguous nodes).
+  std::vector<float> nodes_at(std::size_t k) const;
+  static double value_from_nodes(const SimilarityTap& t, const float* nodes) {
+    const float* n = nodes + t.first;
+    return double(t.weight[0]) * n[0] + double(t.weight[1]) * n[1] + double(t.weight[2]) * n[2] +
+           double(t.weight[3]) * n[3];
+  }
+
   // Adds scale · H(x, t_k) for every tracking time k to out[k] (the hot loop of table builds).
   void accumulate(const SimilarityTap& t, double scale, double* out) const;
 
   std::size_t time_count() const { return n_times_; }
   std::size_t node_count() const { return n_nodes_; }
+  // max_i |H(x_i, t_k)| over the nodes: the scale of the stated accuracy at tracking time k.
+  double scale(std::size_t k) const;
 
   // H summed directly (no table): the reference the table is checked against.
   static double direct(const RateSteps& steps, double x, double t);

@@ -81,6 +81,12 @@ struct Realization {
 
 }  // namespace
 
+double MedianAttribution::share(std::size_t w) const {
+  double total = 0.0;
+  for (double v : well_dp) total += v;
+  return total > 0.0 ? well_dp.at(w) / total : 0.0;
+}
+
 std::vector<std::string> sampled_input_names(const UncertainModel& model, const std::vector<WellInput>& wells,
                                              std::size_t fault_count) {
   std::vector<std::string> names;
@@ -264,12 +270,15 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
   for (std::size_t w = 0; w < wells.size(); ++w)
     if (list.well_rate[w] != InputList::npos) group_of[w] = groups++;
   std::vector<PressureSource> sources;
+  std::vector<std::size_t> first_source(wells.size() + 1, 0);  // sources of well w: [first[w], first[w+1])
   double rw_min = std::numeric_limits<double>::infinity();
   for (std::size_t w = 0; w < wells.size(); ++w) {
     rw_min = std::min(rw_min, wells[w].radius);
+    first_source[w] = sources.size();
     for (const auto& im : hydro::image_wells(wells[w].x, wells[w].y, settings.boundaries))
       sources.push_back({im.x, im.y, wells[w].radius, w, im.sign, group_of[w]});
   }
+  first_source[wells.size()] = sources.size();
   std::vector<ObservationPoint> points;
   std::vector<std::vector<std::size_t>> seg_points(n_seg);
   double r2_max = 0.0;
@@ -310,6 +319,11 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
 
   // ---- tracking and accumulation, one segment at a time ----
   const std::size_t n_out = settings.output_index.size();
+  // For the median attribution: every table's nodes at every output time [t * wells + w].
+  std::vector<std::vector<float>> median_nodes;
+  if (settings.attribute_median)
+    for (std::size_t t = 0; t < n_out; ++t)
+      for (std::size_t w = 0; w < wells.size(); ++w) median_nodes.push_back(tables[w].nodes_at(settings.output_index[t]));
   out.segments.resize(n_seg);
   // Audited pairs: kept columns of the audited realizations.
   std::vector<std::pair<std::uint64_t, Eigen::Index>> audit_cols;
@@ -341,10 +355,14 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
     res.dp.assign(n_out, stats::QuantileSketch());
     const auto s = static_cast<Eigen::Index>(o.segment);
     std::vector<double> margin(keep.size());
+    // Δp by output time, each time's realizations contiguous (column t).
+    const Eigen::MatrixXd by_time = o.dp_at_output.transpose();
+    for (std::size_t t = 0; t < n_out; ++t)  // one sketch at a time (its buckets stay in cache)
+      for (std::size_t c = 0; c < keep.size(); ++c)
+        res.dp[t].add(by_time(static_cast<Eigen::Index>(c), static_cast<Eigen::Index>(t)));
     for (std::size_t c = 0; c < keep.size(); ++c) {
       const auto ci = static_cast<Eigen::Index>(c);
       const double dc = crit(s, ci);
-      for (std::size_t t = 0; t < n_out; ++t) res.dp[t].add(o.dp_at_output(static_cast<Eigen::Index>(t), ci));
       margin[c] = dc - o.dp_at_output(static_cast<Eigen::Index>(n_out - 1), ci);
       if (std::isinf(dc)) {
         ++res.never_critical;
@@ -364,6 +382,72 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
     const auto margin_ranks = stats::average_ranks(margin);
     res.sensitivity.resize(n_inputs + 2);
     for (std::size_t j = 0; j < n_inputs; ++j) res.sensitivity[j] = stats::spearman_from_ranks(input_ranks[j], margin_ranks).rho;
+    if (settings.attribute_median) {
+      std::vector<double> sorted;
+      sorted.reserve(keep.size());
+      const std::size_t rank = (keep.size() - 1) / 2;
+      const auto& cps = segments[o.segment].check_points;
+      res.median.resize(n_out);
+      for (std::size_t t = 0; t < n_out; ++t) {
+        // The value of rank `rank`: the sketch's estimate bounds it (relative accuracy α), so
+        // only the values in that window need ordering (all of them if the window misses).
+        // Then the realization holding it (ties by index: the (rank − #smaller)-th equal one).
+        const double* vals = by_time.col(static_cast<Eigen::Index>(t)).data();
+        const double est = res.dp[t].quantile(0.5);
+        const double half = 2.0 * res.dp[t].relative_accuracy() * std::abs(est) + res.dp[t].zero_threshold();
+        const double lo = est - half, hi = est + half;
+        std::size_t below = 0;
+        sorted.clear();
+        for (std::size_t j = 0; j < keep.size(); ++j) {
+          if (vals[j] < lo) ++below;
+          else if (vals[j] <= hi) sorted.push_back(vals[j]);
+        }
+        if (!(below <= rank && rank < below + sorted.size())) {  // not in the window: order all
+          sorted.assign(vals, vals + keep.size());
+          below = 0;
+        }
+        std::nth_element(sorted.begin(), sorted.begin() + static_cast<std::ptrdiff_t>(rank - below), sorted.end());
+        const double median = sorted[rank - below];
+        std::size_t tie = rank - static_cast<std::size_t>(std::count_if(vals, vals + keep.size(), [&](double y) { return y < median; }));
+        Eigen::Index c = 0;
+        for (std::size_t j = 0; j < keep.size(); ++j)
+          if (vals[j] == median && tie-- == 0) {
+            c = static_cast<Eigen::Index>(j);
+            break;
+          }
+        MedianAttribution& m = res.median[t];
+        m.realization = static_cast<std::uint64_t>(keep[static_cast<std::size_t>(c)]);
+        m.dp = median;
+        // The check point holding the maximum (fast path; the first one on ties).
+        const std::size_t k = settings.output_index[t];
+        double best = -std::numeric_limits<double>::infinity();
+        for (std::size_t p = 0; p < cps.size(); ++p) {
+          double v = 0.0;
+          for (std::size_t g = 0; g < groups; ++g)
+            v += surrogate.table(seg_points[o.segment][p], g).row(static_cast<Eigen::Index>(k)).dot(draws.basis.col(c)) *
+                 draws.scale(static_cast<Eigen::Index>(g), c);
+          if (v > best) {
+            best = v;
+            m.check_point = p;
+          }
+        }
+        // Each well's contribution there, from its table's nodes at that time.
+        const auto& cp = cps[m.check_point];
+        const double inv4d = 0.25 / d[static_cast<std::size_t>(c)];
+        m.well_dp.assign(wells.size(), 0.0);
+        for (std::size_t w = 0; w < wells.size(); ++w) {
+          const float* h_nodes = median_nodes[t * wells.size() + w].data();
+          double h = 0.0;
+          for (std::size_t j = first_source[w]; j < first_source[w + 1]; ++j) {
+            const auto& src = sources[j];
+            const double dx = cp.x - src.x, dy = cp.y - src.y;
+            const double r2 = std::max(dx * dx + dy * dy, src.radius * src.radius);
+            h += src.sign * SimilarityTable::value_from_nodes(tables[w].tap(r2 * inv4d), h_nodes);
+          }
+          m.well_dp[w] = pre[static_cast<std::size_t>(c)] * factor(static_cast<Eigen::Index>(group_of[w]), c) * h;
+        }
+      }
+    }
     const std::size_t f = segments[o.segment].fault;
     for (std::size_t a = 0; a < 2; ++a) {
       std::vector<double> pert(keep.size());

@@ -2,14 +2,22 @@
 
 #include <algorithm>
 #include <cmath>
+#include <exception>
+#include <limits>
+#include <span>
 
 #include "core/errors.hpp"
 #include "core/geomech/fault_plane.hpp"
 #include "core/hydro/pressure_field.hpp"
+#include "core/probabilistic/similarity_table.hpp"
 
 namespace slipscreen::screen {
 
 namespace {
+
+constexpr double kTableStep = 0.025;       // ln x step of the similarity tables
+constexpr double kTableAccuracy = 1e-6;    // stated table accuracy (similarity_table.hpp)
+constexpr double kCandidateMargin = 2.0;   // safety factor on that bound when choosing check points
 
 void check_times(const std::vector<double>& t, const char* field) {
   for (std::size_t i = 0; i < t.size(); ++i) {
@@ -71,50 +79,123 @@ ScreenResult deterministic_screen(const ScreenInputs& in, Progress progress, voi
   for (auto& out : result.segments) {
     out.dp.assign(K, 0.0);
     out.dp_point.assign(K, 0);
-    out.tracked_dp.assign(G, 0.0);
     out.well_share.assign(K * W, 0.0);
+    out.tracked_dp.assign(G, 0.0);
   }
   if (W == 0 || in.segments.empty()) return result;
 
   std::vector<hydro::WellSource> sources;
   for (const auto& w : in.wells) sources.push_back({w.id, w.x, w.y, w.radius, w.history});
   const hydro::PressureField field(std::move(sources), in.boundaries);
+  hydro::validate(in.formation);
+
+  // Similarity tables of every well over the tracked times (one grid for all wells, spanning
+  // x = r²/(4D) from the smallest well radius to the farthest source of any check point).
+  const double inv4d = 1.0 / (4.0 * in.formation.diffusivity);
+  double rw_min = std::numeric_limits<double>::infinity(), r2_max = 1.0;
+  std::vector<probabilistic::RateSteps> steps(W);
+  for (std::size_t w = 0; w < W; ++w) {
+    rw_min = std::min(rw_min, in.wells[w].radius);
+    for (const auto& c : in.wells[w].history.changes()) {
+      steps[w].time.push_back(c.time);
+      steps[w].delta_rate.push_back(c.delta);
+    }
+    for (const auto& src : field.sources(w))
+      for (const auto& p : points)
+        r2_max = std::max(r2_max, (p.x - src.x) * (p.x - src.x) + (p.y - src.y) * (p.y - src.y));
+  }
+  const probabilistic::SimilarityGrid grid{std::log(rw_min * rw_min * inv4d) - 0.1, std::log(r2_max * inv4d) + 0.1,
+                                           kTableStep};
+  const auto tables = probabilistic::build_tables(steps, result.tracked_times, grid);
+
+  // Bound on the table error of any point's Δp at tracked time g: the stated accuracy of each
+  // source's table, summed over sources.
+  std::vector<double> table_error(G, 0.0);
+  for (std::size_t w = 0; w < W; ++w)
+    for (std::size_t g = 0; g < G; ++g)
+      table_error[g] += kTableAccuracy * in.formation.pressure_per_rate *
+                        static_cast<double>(field.sources(w).size()) * tables[w].scale(g);
+  std::vector<std::size_t> out_index(K);  // tracked index of each output time
+  for (std::size_t k = 0; k < K; ++k)
+    out_index[k] = static_cast<std::size_t>(
+        std::lower_bound(result.tracked_times.begin(), result.tracked_times.end(), in.output_times[k]) -
+        result.tracked_times.begin());
 
   // Segments in blocks, so that progress can be reported and memory stays bounded; each block
   // is computed exactly as a whole run would be (results do not depend on the blocking).
-  const std::size_t block = 32;
+  const std::size_t block = 64;
+  std::vector<double> series;  // [local point * G + g]: Δp from the tables
   for (std::size_t s0 = 0; s0 < in.segments.size(); s0 += block) {
     const std::size_t s1 = std::min(in.segments.size(), s0 + block);
-    const std::span<const hydro::FieldPoint> pts(points.data() + first_point[s0], first_point[s1] - first_point[s0]);
+    const std::size_t first = first_point[s0], n_pts = first_point[s1] - first;
+    const std::span<const hydro::FieldPoint> pts(points.data() + first, n_pts);
     const hydro::PreparedPoints prepared = field.prepare(pts);
     result.radius_clamped = result.radius_clamped || prepared.any_clamped();
-    const hydro::PressureResult tracked = field.evaluate(prepared, result.tracked_times, in.formation);
-    const hydro::PressureResult at_out = field.evaluate(prepared, in.output_times, in.formation, {}, true);
+    series.assign(n_pts * G, 0.0);
+#pragma omp parallel for schedule(dynamic, 4)
+    for (std::size_t p = 0; p < n_pts; ++p) {
+      double* row = &series[p * G];
+      for (std::size_t w = 0; w < W; ++w)
+        for (std::size_t j = prepared.offset[p * W + w]; j < prepared.offset[p * W + w + 1]; ++j)
+          tables[w].accumulate(tables[w].tap(prepared.r2[j] * inv4d), prepared.sign[j], row);
+      for (std::size_t g = 0; g < G; ++g) row[g] *= in.formation.pressure_per_rate;
+    }
+
+    std::exception_ptr failure;  // an exception must not leave an OpenMP region
+#pragma omp parallel for schedule(dynamic, 1)
     for (std::size_t s = s0; s < s1; ++s) {
-      SegmentScreen& out = result.segments[s];
-      const std::size_t pa = first_point[s] - first_point[s0], pb = first_point[s + 1] - first_point[s0];
-      for (std::size_t g = 0; g < G; ++g) {
-        double m = 0.0;
-        for (std::size_t p = pa; p < pb; ++p) m = std::max(m, tracked.at(p, g));
-        out.tracked_dp[g] = m;
-        if (m > out.peak_dp) {
-          out.peak_dp = m;
-          out.peak_time = result.tracked_times[g];
+      try {
+        SegmentScreen& out = result.segments[s];
+        const std::size_t pa = first_point[s] - first, pb = first_point[s + 1] - first;
+        // Exact Δp at the output times, at the check points that can hold the maximum: those
+        // within twice the table error of the highest table value (the exact maximum is among them).
+        std::vector<std::vector<std::size_t>> cand_times(pb - pa);  // per point: output indices
+        for (std::size_t k = 0; k < K; ++k) {
+          const std::size_t g = out_index[k];
+          double m = -std::numeric_limits<double>::infinity();
+          for (std::size_t p = pa; p < pb; ++p) m = std::max(m, series[p * G + g]);
+          for (std::size_t p = pa; p < pb; ++p)
+            if (series[p * G + g] >= m - 2.0 * kCandidateMargin * table_error[g]) cand_times[p - pa].push_back(k);
         }
-        if (!out.first_crossing && out.status == geomech::CriticalStatus::below_failure && m >= out.dp_crit)
-          out.first_crossing = result.tracked_times[g];
-      }
-      for (std::size_t k = 0; k < K; ++k) {
-        std::size_t best = pa;
+        std::vector<double> best(K, -std::numeric_limits<double>::infinity());
+        for (std::size_t p = pa; p < pb; ++p) {
+          const auto& ks = cand_times[p - pa];
+          if (ks.empty()) continue;
+          std::vector<double> ts;
+          for (std::size_t k : ks) ts.push_back(in.output_times[k]);
+          const hydro::PreparedPoints one = field.prepare(pts.subspan(p, 1));
+          const hydro::PressureResult exact = field.evaluate(one, ts, in.formation, {}, true);
+          for (std::size_t i = 0; i < ks.size(); ++i) {
+            const std::size_t k = ks[i];
+            const double total = exact.at(0, i);
+            if (!(total > best[k])) continue;  // the first point holding the maximum wins ties
+            best[k] = total;
+            out.dp[k] = total;
+            out.dp_point[k] = p - pa;
+            for (std::size_t w = 0; w < W; ++w)
+              out.well_share[k * W + w] = total > 0 ? exact.contribution(0, i, w) / total : 0.0;
+          }
+        }
+        // Peak and first crossing on the tracked times: table values, exact at the output times.
+        std::vector<double> m(G, -std::numeric_limits<double>::infinity());
         for (std::size_t p = pa; p < pb; ++p)
-          if (at_out.at(p, k) > at_out.at(best, k)) best = p;
-        const double total = at_out.at(best, k);
-        out.dp[k] = total;
-        out.dp_point[k] = best - pa;
-        if (total > 0)
-          for (std::size_t w = 0; w < W; ++w) out.well_share[k * W + w] = at_out.contribution(best, k, w) / total;
+          for (std::size_t g = 0; g < G; ++g) m[g] = std::max(m[g], series[p * G + g]);
+        for (std::size_t k = 0; k < K; ++k) m[out_index[k]] = out.dp[k];
+        for (std::size_t g = 0; g < G; ++g) {
+          out.tracked_dp[g] = std::max(0.0, m[g]);
+          if (m[g] > out.peak_dp) {
+            out.peak_dp = m[g];
+            out.peak_time = result.tracked_times[g];
+          }
+          if (!out.first_crossing && out.status == geomech::CriticalStatus::below_failure && m[g] >= out.dp_crit)
+            out.first_crossing = result.tracked_times[g];
+        }
+      } catch (...) {
+#pragma omp critical(screen_failure)
+        if (!failure) failure = std::current_exception();
       }
     }
+    if (failure) std::rethrow_exception(failure);
     if (progress) progress(double(s1) / double(in.segments.size()), user);
   }
   return result;

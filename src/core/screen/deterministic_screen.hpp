@@ -17,9 +17,24 @@
 // Symbol table: sigma_n σn, tau τ, p0 initial pore pressure, mu μ, cohesion c, dp Δp,
 // dp_crit Δp_crit, strike φs, dip δ (right-hand rule, azimuths in the stress's frame).
 //
-// Accuracy: Δp to the accuracy of hydro::PressureField (≤ 1e-15 relative per term, sums to
-// ~1e-13 relative); stresses to ~1e-15 × max|S|. The first-crossing time is exact on the grid
-// (a month of resolution), not interpolated. Deterministic for any thread count.
+// How Δp is computed (speed: a regional screen has ~1e3 segments × 3 check points × 200 wells ×
+// ~250 tracked times × ~100 rate steps, too many E1 terms to sum one by one):
+//   - on the tracked times (peak Δp, peak time, first crossing): similarity tables of each well
+//     (probabilistic/similarity_table.hpp), tapped at x = r²/(4D) for every check point and
+//     source (real well and images, with their signs, r clamped to r_w as in PressureField) and
+//     scaled by μ/(4π k h); at the output times the exact values below replace the table values;
+//   - at the output times (dp, dp_point, well_share): the exact sum of hydro::PressureField at
+//     every check point that can hold the segment's maximum, i.e. whose table value is within
+//     twice the table error bound (with a safety factor 2) of the highest; the others cannot.
+//
+// Accuracy: dp, dp_point and well_share are those of hydro::PressureField (≤ 1e-15 relative per
+// term, sums to ~1e-13 relative). On the other tracked times Δp carries the table error: ≤ 1e-6
+// of max_x |H_w(x, t)| per source (similarity_table.hpp; H_w is well w's similarity sum, so the
+// bound is 1e-6 of the largest Δp each well makes anywhere at that time, near its own radius),
+// summed over sources. peak_dp and first_crossing are therefore within that bound of the exact
+// values (a crossing can move by one grid time when Δp_crit lies within it of a tracked Δp).
+// Stresses to ~1e-15 × max|S|. The first-crossing time is on the grid (a month of resolution),
+// not interpolated. Deterministic for any thread count.
 #include <cstddef>
 #include <optional>
 #include <string>
@@ -77,6 +92,7 @@ struct SegmentScreen {
   std::vector<double> well_share;      // [k * wells + w]: well w's fraction of dp[k] (0 if dp = 0)
   std::optional<double> first_crossing;  // s; empty when never reached or already critical
   std::vector<double> tracked_dp;      // Pa, per tracked time (ScreenResult::tracked_times): max over check points
+                                       // (similarity-table values, exact at the output times)
   double peak_dp = 0;                  // Pa, max over the tracking grid and output times
   double peak_time = 0;                // s (0 when no pressure at all)
 };

@@ -89,3 +89,18 @@ TEST_CASE("lattice build over whole days equals the direct build") {
   // Same sums in a different order, E1 rounded to float in the kernel: ~1e-7 of the rate scale.
   CHECK(worst < 1e-7 * 0.03 * 40);
 }
+
+TEST_CASE("similarity table: interpolation from one time's nodes equals the table's value") {
+  const RateSteps steps = test_history();
+  std::vector<double> times;
+  for (int k = 1; k <= 12; ++k) times.push_back(k * 90.0 * kDay);
+  const SimilarityTable table(steps, times, SimilarityGrid{std::log(1e-3), std::log(1e9), 0.05});
+  for (std::size_t k = 0; k < times.size(); ++k) {
+    const std::vector<float> nodes = table.nodes_at(k);
+    REQUIRE(nodes.size() == table.node_count());
+    for (double x = 1e-4; x < 1e10; x *= 3.7) {
+      const auto tap = table.tap(x);
+      CHECK(SimilarityTable::value_from_nodes(tap, nodes.data()) == table.value(tap, k));  // same sum
+    }
+  }
+}

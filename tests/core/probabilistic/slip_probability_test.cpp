@@ -12,6 +12,8 @@
 #include "core/geomech/fault_plane.hpp"
 #include "core/geomech/fault_stress.hpp"
 #include "core/geomech/stress_state.hpp"
+#include "core/screen/deterministic_screen.hpp"
+#include "core/stats/sampler.hpp"
 #include "core/stats/wilson_interval.hpp"
 
 using namespace slipscreen;
@@ -233,4 +235,132 @@ TEST_CASE("audit: the fast path agrees with the plain method (every E1 term eval
   MESSAGE("fast vs plain: worst relative Δp difference " << worst << ", crossing mismatches " << mismatched);
   CHECK(worst < 1e-4);  // the engine's stated accuracy (pressure_surrogate.hpp)
   CHECK(mismatched == 0);
+}
+
+namespace {
+// Fictional case for the well attribution: three wells with different histories (whole days),
+// two segments; everything fixed unless a test changes it.
+Case three_wells() {
+  Case c;
+  c.wells.clear();
+  const double wx[3] = {0.0, 2500.0, -1500.0}, wy[3] = {0.0, 1500.0, 2500.0};
+  for (int w = 0; w < 3; ++w) {
+    WellInput in;
+    in.id = std::string("W").append(std::to_string(w + 1));
+    in.x = wx[w];
+    in.y = wy[w];
+    double q_prev = 0.0;
+    for (int m = 0; m < 48; ++m) {
+      double q = 0.01 * (w + 1) + 0.005 * std::sin(0.3 * m + w);
+      if (w == 2 && m >= 30) q = 0.0;  // injection ends
+      in.steps.time.push_back(m * 30 * kDay);
+      in.steps.delta_rate.push_back(q - q_prev);
+      q_prev = q;
+    }
+    c.wells.push_back(in);
+  }
+  c.segments.resize(2);
+  c.segments[1].check_points = {{6000.0, 4000.0}, {6300.0, 4400.0}, {6600.0, 4800.0}};
+  return c;
+}
+}  // namespace
+
+TEST_CASE("median well attribution, all inputs fixed: the deterministic screen's well shares") {
+  Case c = three_wells();
+  c.settings.realizations = 5;
+  const auto res = run_probabilistic(c.model, c.wells, c.segments, c.settings);
+  // The same wells, points and times through the deterministic screen (exact Theis sums).
+  screen::ScreenInputs in;
+  in.stress = {75e6, 90e6, 51e6, 45 * kDeg, 30e6};
+  in.friction = {0.6, 0.0};
+  const double k = 2e-14, h = 50.0, phi = 0.12, ct = 1.5e-9, mu = 4e-4;
+  in.formation = {k / (mu * phi * ct), mu / (4 * std::numbers::pi * k * h)};
+  for (const auto& w : c.wells) {
+    std::vector<double> starts, rates;
+    double q = 0.0;
+    for (std::size_t j = 0; j < w.steps.time.size(); ++j) {
+      q += w.steps.delta_rate[j];
+      starts.push_back(w.steps.time[j]);
+      rates.push_back(q);
+    }
+    in.wells.push_back({w.id, w.x, w.y, w.radius, hydro::RateHistory(starts, rates)});
+  }
+  for (std::size_t s = 0; s < c.segments.size(); ++s) {
+    std::vector<geometry::Point2> pts;
+    for (const auto& p : c.segments[s].check_points) pts.push_back({p.x, p.y});
+    in.segments.push_back({std::string("S").append(std::to_string(s)), c.segments[s].strike, c.segments[s].dip, pts, std::nullopt});
+  }
+  for (std::size_t o : c.settings.output_index) in.output_times.push_back(c.settings.tracking_times[o]);
+  in.tracking_times = c.settings.tracking_times;
+  const auto det = screen::deterministic_screen(in);
+  double worst = 0.0;
+  for (std::size_t s = 0; s < c.segments.size(); ++s) {
+    REQUIRE(res.segments[s].median.size() == c.settings.output_index.size());
+    for (std::size_t t = 0; t < c.settings.output_index.size(); ++t) {
+      CAPTURE(s);
+      CAPTURE(t);
+      const auto& m = res.segments[s].median[t];
+      CHECK(m.realization == 2);  // identical realizations: rank ⌊(5 − 1)/2⌋ = 2, ties by index
+      CHECK(m.check_point == det.segments[s].dp_point[t]);
+      double sum = 0.0;
+      for (std::size_t w = 0; w < 3; ++w) {
+        sum += m.share(w);
+        worst = std::max(worst, std::abs(m.share(w) - det.segments[s].well_share[t * 3 + w]));
+      }
+      CHECK(std::abs(sum - 1.0) < 1e-12);
+      // Σ well_dp (tables) against the fast path's Δp: within the surrogate's accuracy.
+      double total = 0.0;
+      for (double v : m.well_dp) total += v;
+      CHECK(std::abs(total - m.dp) <= 1e-4 * m.dp);
+      CHECK(std::abs(total - det.segments[s].dp[t]) <= 1e-5 * det.segments[s].dp[t]);
+    }
+  }
+  MESSAGE("median shares vs deterministic shares: worst difference " << worst);
+  // Table against exact sums: 1e-6 of the wells' near-field scale (similarity_table.hpp), here
+  // well below 1e-5 of the segment's Δp.
+  CHECK(worst < 1e-5);
+}
+
+TEST_CASE("median well attribution: the median realization reproduced from the sampler's streams") {
+  // Two wells with the same history at the same distance from a one-point segment; only the
+  // first well's rate factor is uncertain. Δp = P·H·(f1 + 1) increases with f1, so the median
+  // realization is the one with the median f1, and the first well's share there is f1/(f1 + 1).
+  Case c;
+  c.wells.push_back(c.wells[0]);
+  c.wells[0].x = -3000.0;
+  c.wells[1].x = 3000.0;
+  c.wells[1].id = "W2";
+  c.segments = {c.segments[0]};
+  c.segments[0].check_points = {{0.0, 2000.0}};
+  c.model.well_rate_factor = {Distribution::uniform(0.5, 1.5), std::nullopt};
+  c.settings.realizations = 101;
+  c.settings.method = stats::SamplingMethod::latin_hypercube;
+  c.settings.seed = 11;
+  const auto res = run_probabilistic(c.model, c.wells, c.segments, c.settings);
+  REQUIRE(res.realizations == 101);
+  // The sampler's inputs: the run's names with the rate factor's distribution in its slot (an
+  // input's draws depend only on (seed, its slot, N) and its own distribution).
+  const auto names = sampled_input_names(c.model, c.wells, 1);
+  std::vector<stats::UncertainInput> inputs;
+  std::size_t slot = names.size();
+  for (std::size_t j = 0; j + 2 < names.size(); ++j) {
+    if (names[j] == "rate_factor[W1]") slot = j;
+    inputs.push_back({names[j], names[j] == "rate_factor[W1]" ? Distribution::uniform(0.5, 1.5) : Distribution::fixed(1.0)});
+  }
+  REQUIRE(slot < inputs.size());
+  const stats::Sampler sampler(inputs, c.settings.method, c.settings.seed, stats::RealizationCount(101));
+  std::vector<double> f1(101);
+  for (std::uint64_t i = 0; i < 101; ++i) f1[i] = sampler.draw(i)[slot];
+  for (std::size_t t = 0; t < c.settings.output_index.size(); ++t) {
+    CAPTURE(t);
+    const auto& m = res.segments[0].median[t];
+    REQUIRE(m.realization < 101);
+    const double f = f1[m.realization];
+    // Rank ⌊(101 − 1)/2⌋ = 50: exactly 50 realizations have a smaller rate factor.
+    CHECK(std::count_if(f1.begin(), f1.end(), [&](double v) { return v < f; }) == 50);
+    CHECK(std::abs(m.share(0) - f / (f + 1.0)) < 1e-6);
+    CHECK(std::abs(m.share(0) + m.share(1) - 1.0) < 1e-12);
+    // Its Δp is the median the quantile sketch reports, within the sketch's 1 % accuracy.
+    CHECK(std::abs(m.dp - res.segments[0].dp[t].quantile(0.5)) <= 0.0101 * m.dp);
+  }
 }
