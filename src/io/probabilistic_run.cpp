@@ -298,7 +298,7 @@ void write_probabilistic_outputs(const RunFolder& folder, const ResolvedScenario
       for (std::size_t k = 0; k < res.segments[i].median.size(); ++k) {
         const auto& a = res.segments[i].median[k];
         double total = 0.0;
-        for (double v : a.well_dp) total += v;
+        for (double dp : a.well_dp) total += dp;
         if (!(total > 0.0)) continue;  // no pressure at the median yet
         std::vector<std::size_t> order(a.well_dp.size());
         for (std::size_t w = 0; w < order.size(); ++w) order[w] = w;
