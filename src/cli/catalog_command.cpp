@@ -169,12 +169,6 @@ nlohmann::json rt_json(const io::RtView& v) {
   return j;
 }
 
-void write_text(const fs::path& p, const std::string& text) {
-  std::ofstream f(p, std::ios::binary);
-  f << text;
-  if (!f) throw IoError("cannot write '" + p.string() + "'");
-}
-
 // Writes the output folder through a temporary sibling renamed into place at the end.
 void write_folder(const CatalogOptions& o, const nlohmann::json& summary, const seismo::Catalog& c,
                   const std::optional<io::RtView>& rt) {
@@ -187,17 +181,17 @@ void write_folder(const CatalogOptions& o, const nlohmann::json& summary, const 
   fs::create_directories(tmp, ec);
   if (ec) throw IoError("cannot create '" + tmp.string() + "': " + ec.message());
   try {
-    write_text(tmp / "catalog_summary.json", summary.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) + "\n");
+    io::write_text_file(tmp / "catalog_summary.json", summary.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) + "\n");
     std::ostringstream ev;
     ev << "# " << io::kScreeningCaution << "\n";
     ev << "event_id,time,x,y,depth_m,magnitude,magnitude_type\n";
     for (const auto& e : c.events)
       ev << io::csv_field(e.id) << "," << io::format_iso8601_utc(e.time) << "," << g(e.x, 10) << "," << g(e.y, 10) << ","
          << (e.depth ? g(*e.depth, 8) : "") << "," << g(e.magnitude, 4) << "," << io::csv_field(e.magnitude_type) << "\n";
-    write_text(tmp / "catalog_events.csv", ev.str());
+    io::write_text_file(tmp / "catalog_events.csv", ev.str());
     if (rt) {
-      write_text(tmp / "rt_events.csv", io::rt_events_csv(c, *rt));
-      write_text(tmp / "rt_fronts.csv", io::rt_fronts_csv(*rt));
+      io::write_text_file(tmp / "rt_events.csv", io::rt_events_csv(c, *rt));
+      io::write_text_file(tmp / "rt_fronts.csv", io::rt_fronts_csv(*rt));
     }
     if (fs::exists(target)) fs::remove_all(target);
     fs::rename(tmp, target);

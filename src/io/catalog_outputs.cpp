@@ -2,9 +2,11 @@
 
 #include <algorithm>
 #include <cstdio>
+#include <fstream>
 #include <sstream>
 
 #include "core/caution.hpp"
+#include "core/errors.hpp"
 #include "core/seismo/epicentral_distance.hpp"
 #include "core/units/units.hpp"
 #include "io/iso_time.hpp"
@@ -21,6 +23,13 @@ std::string g(double v, int digits) {
 }
 
 }  // namespace
+
+void write_text_file(const std::filesystem::path& path, const std::string& text) {
+  std::ofstream f(path, std::ios::binary);
+  f << text;
+  f.close();
+  if (!f) throw IoError("cannot write '" + path.string() + "'");
+}
 
 RtView make_rt_view(const seismo::Catalog& c, std::array<double, 2> position, double start,
                     std::vector<double> diffusivities, std::string well) {

@@ -6,6 +6,7 @@
 // Source of the fronts: Shapiro, Huenges & Borm (1997), r = sqrt(4 π D t) (triggering front of
 // pore-pressure diffusion; core/seismo/triggering_front.hpp).
 #include <array>
+#include <filesystem>
 #include <string>
 #include <vector>
 
@@ -26,6 +27,9 @@ struct RtView {
 // Builds the view for the events of `c` (geographic: geodesic distance; projected: planar).
 RtView make_rt_view(const seismo::Catalog& c, std::array<double, 2> position, double start,
                     std::vector<double> diffusivities, std::string well = "");
+
+// Writes `text` to `path` (binary). Throws IoError naming the path on failure.
+void write_text_file(const std::filesystem::path& path, const std::string& text);
 
 // CSV texts (RFC 4180; the first line a '#' comment naming the method and the caution).
 std::string rt_events_csv(const seismo::Catalog& c, const RtView& v);

@@ -2,7 +2,6 @@
 
 #include <algorithm>
 #include <cmath>
-#include <fstream>
 #include <map>
 #include <set>
 #include <sstream>
@@ -25,6 +24,12 @@ namespace {
 
 constexpr double kMPa = 1e6;
 
+double total_volume(const std::vector<WellSpec>& wells, double t) {
+  double v = 0.0;
+  for (const auto& w : wells) v += w.volume_until(t);
+  return v;
+}
+
 // Summed cumulative volume of every scenario well, sampled at every rate change up to t_end
 // (exact: rates are constant between changes, so the curve is piecewise linear).
 std::optional<seismo::VolumeHistory> volume_history(const std::vector<WellSpec>& wells, double t_end) {
@@ -37,19 +42,11 @@ std::optional<seismo::VolumeHistory> volume_history(const std::vector<WellSpec>&
   times.insert(t_end);
   seismo::VolumeHistory h;
   for (double t : times) {
-    double v = 0.0;
-    for (const auto& w : wells) v += w.volume_until(t);
     h.time.push_back(t);
-    h.volume.push_back(v);
+    h.volume.push_back(total_volume(wells, t));
   }
   if (h.time.size() < 2 || !(h.volume.back() > 0.0)) return std::nullopt;
   return h;
-}
-
-double total_volume(const std::vector<WellSpec>& wells, double t) {
-  double v = 0.0;
-  for (const auto& w : wells) v += w.volume_until(t);
-  return v;
 }
 
 // The r-t well: the one named, else the well that injected most by the end of the catalog.
@@ -95,9 +92,7 @@ void review_events(CatalogReview& v, const ResolvedScenario& s, const PreparedRu
   const std::vector<hydro::GridSource> gs = grid_sources(p);
   v.footprint_fractions.assign(s.output.times.size(), 0.0);
   if (!gs.empty() && fg.cell_count() > 0) {
-    const hydro::GridGeometry geo{fg.x_origin, fg.y_origin, fg.cell_size, -fg.cell_size,
-                                  static_cast<std::size_t>(fg.columns), static_cast<std::size_t>(fg.rows)};
-    const hydro::PressureGrid pg = hydro::pressure_grid(geo, grid_formation(p), gs, s.output.times);
+    const hydro::PressureGrid pg = hydro::pressure_grid(grid_geometry(fg), grid_formation(p), gs, s.output.times);
     for (std::size_t k = 0; k < s.output.times.size(); ++k) {
       std::size_t inside = 0, cells = 0;
       for (int j = 0; j < fg.rows; ++j)
@@ -381,20 +376,13 @@ nlohmann::json catalog_manifest(const CatalogReview& v) {
 
 namespace {
 
-void write_text(const std::filesystem::path& path, const std::string& text) {
-  std::ofstream f(path, std::ios::binary);
-  f << text;
-  f.close();
-  if (!f) throw IoError(path.string() + ": write error");
-}
-
 std::string yes_no(bool b) { return b ? "yes" : "no"; }
 
 }  // namespace
 
 void write_catalog_review(const RunFolder& folder, const ResolvedScenario& s, const PreparedRun& p,
                           const CatalogReview& v) {
-  write_text(folder.output("catalog", "catalog_summary.json"),
+  write_text_file(folder.output("catalog", "catalog_summary.json"),
              catalog_review_json(s, p, v).dump(2, ' ', false, nlohmann::json::error_handler_t::replace) + "\n");
   const bool seg = !p.segments.empty();
   std::ostringstream ev;
@@ -423,10 +411,10 @@ void write_catalog_review(const RunFolder& folder, const ResolvedScenario& s, co
     ev << (m.rt_time ? fixed_decimals(*m.rt_time / units::kDay, 4) : "") << ","
        << (m.rt_distance ? fixed_decimals(*m.rt_distance, 1) : "") << "," << csv_field(e.source) << "\n";
   }
-  write_text(folder.output("catalog", "catalog_events.csv"), ev.str());
+  write_text_file(folder.output("catalog", "catalog_events.csv"), ev.str());
   if (v.rt) {
-    write_text(folder.output("catalog", "rt_events.csv"), rt_events_csv(v.catalog, *v.rt));
-    write_text(folder.output("catalog", "rt_fronts.csv"), rt_fronts_csv(*v.rt));
+    write_text_file(folder.output("catalog", "rt_events.csv"), rt_events_csv(v.catalog, *v.rt));
+    write_text_file(folder.output("catalog", "rt_fronts.csv"), rt_fronts_csv(*v.rt));
   }
   if (!v.rates.empty()) {
     const double yr = units::kYear;
@@ -462,7 +450,7 @@ void write_catalog_review(const RunFolder& folder, const ResolvedScenario& s, co
         a[4] += bg;
       }
     }
-    write_text(folder.output("catalog", "seismicity_rate.csv"), t.str());
+    write_text_file(folder.output("catalog", "seismicity_rate.csv"), t.str());
     std::ostringstream ft;
     ft << "fault_id,date,max_dcff_MPa,background_rate_per_year,rate_per_year,rate_ratio,expected_events,"
           "background_expected_events\n";
@@ -474,7 +462,7 @@ void write_catalog_review(const RunFolder& folder, const ResolvedScenario& s, co
            << (a[1] > 0 ? fixed_decimals(a[2] / a[1], 6) : "") << "," << fixed_decimals(a[3], 6) << ","
            << fixed_decimals(a[4], 6) << "\n";
       }
-    write_text(folder.output("catalog", "seismicity_rate_faults.csv"), ft.str());
+    write_text_file(folder.output("catalog", "seismicity_rate_faults.csv"), ft.str());
   }
 }
 

@@ -227,6 +227,11 @@ std::vector<hydro::GridSource> grid_sources(const PreparedRun& p) {
   return sources;
 }
 
+hydro::GridGeometry grid_geometry(const geometry::RasterGrid& g) {
+  return {g.x_origin, g.y_origin, g.cell_size, -g.cell_size, static_cast<std::size_t>(g.columns),
+          static_cast<std::size_t>(g.rows)};
+}
+
 hydro::GridFormation grid_formation(const PreparedRun& p) {
   double radius = 1.0;
   for (const auto& w : p.wells) radius = std::min(radius, w.radius);

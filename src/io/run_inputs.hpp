@@ -45,6 +45,8 @@ hydro::TheisParameters theis_parameters_of(const FormationSpec& f);
 // formation (smallest well radius) of a prepared run.
 std::vector<hydro::GridSource> grid_sources(const PreparedRun& p);
 hydro::GridFormation grid_formation(const PreparedRun& p);
+// The pressure-grid engine's geometry of a raster grid (north-up: negative row step).
+hydro::GridGeometry grid_geometry(const geometry::RasterGrid& g);
 
 // A well's rate history in the pressure engine's form.
 hydro::RateHistory rate_history_of(const WellSpec& w);

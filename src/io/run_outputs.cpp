@@ -161,8 +161,7 @@ void write_tables(const RunFolder& folder, const ResolvedScenario& s, const Prep
 
 void write_raster(const RunFolder& folder, const ResolvedScenario& s, const PreparedRun& p) {
   const auto& g = p.grid;
-  hydro::GridGeometry geo{g.x_origin, g.y_origin, g.cell_size, -g.cell_size, static_cast<std::size_t>(g.columns),
-                          static_cast<std::size_t>(g.rows)};
+  const hydro::GridGeometry geo = grid_geometry(g);
   const hydro::GridFormation formation = grid_formation(p);
   const std::vector<hydro::GridSource> sources = grid_sources(p);
   std::vector<RasterBand> bands(s.output.times.size());

@@ -31,9 +31,7 @@ std::vector<double> number_list(const Section& s, std::string_view key, double l
   const auto f = s.find(key);
   std::vector<double> out;
   const auto take = [&](const toml::node& n, const std::string& path) {
-    std::optional<double> v;
-    if (auto i = n.as_integer()) v = static_cast<double>(i->get());
-    if (auto x = n.as_floating_point()) v = x->get();
+    const std::optional<double> v = toml_number(n);
     if (!v || !(*v >= lo && *v <= hi))
       throw InputError(path, toml_value_text(n), what, toml_where(f->layer->file, n.source()));
     out.push_back(*v);
@@ -90,11 +88,9 @@ CatalogSpec read_catalog_spec(const Section& s, const std::vector<WellSpec>& wel
       std::array<double, 2> v{};
       bool ok = xy && xy->size() == 2;
       for (std::size_t k = 0; ok && k < 2; ++k) {
-        const toml::node& n = *xy->get(k);
-        if (auto a = n.as_integer()) v[k] = static_cast<double>(a->get());
-        else if (auto b = n.as_floating_point()) v[k] = b->get();
-        else ok = false;
-        ok = ok && std::isfinite(v[k]);
+        const std::optional<double> x = toml_number(*xy->get(k));
+        ok = x && std::isfinite(*x);
+        if (ok) v[k] = *x;
       }
       if (!ok)
         throw InputError(path + "[" + std::to_string(i) + "]", toml_value_text(*arr->get(i)), "[x, y] in metres",

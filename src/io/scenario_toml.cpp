@@ -169,10 +169,15 @@ std::optional<std::int64_t> Section::optional_integer(std::string_view key) cons
   return integer(key);
 }
 
+std::optional<double> toml_number(const toml::node& n) {
+  if (auto i = n.as_integer()) return static_cast<double>(i->get());
+  if (auto x = n.as_floating_point()) return x->get();
+  return std::nullopt;
+}
+
 double Section::number(std::string_view key) const {
   const Found f = require(key, "a number");
-  if (auto i = f.node->as_integer()) return static_cast<double>(i->get());
-  if (auto x = f.node->as_floating_point()) return x->get();
+  if (const auto v = toml_number(*f.node)) return *v;
   throw InputError(key_path(f, key), toml_value_text(*f.node), "a number (without quotes)", where(f));
 }
 

@@ -97,4 +97,7 @@ class Section {
 // The text of a scalar TOML value for messages.
 std::string toml_value_text(const toml::node& n);
 
+// A TOML integer or float as a double; empty for any other node.
+std::optional<double> toml_number(const toml::node& n);
+
 }  // namespace slipscreen::io

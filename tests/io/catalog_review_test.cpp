@@ -137,7 +137,17 @@ TEST_CASE("a scenario naming a catalog runs the review into the run folder") {
   CHECK(rate.rows.size() == r.segment_count * 3);
   for (std::size_t i = 0; i < rate.rows.size(); ++i)
     CHECK(std::abs(std::stod(field(rate, i, "rate_ratio")) - 1.0) < 1e-5);
-  // Background expectation: r (per km × length) × time since the history's start.
+  // Background expectation: r (per km × length) × time since the history's start, so from the
+  // 2021-01-01 row to the 2022-01-01 row of a segment it grows by r × 365 d (definition).
+  const double r_year = std::stod(field(rate, 0, "background_rate_per_year"));
+  const CsvTable segs = read_csv(out / "segments.csv", "segments.csv");
+  REQUIRE(field(segs, 0, "segment_id") == field(rate, 0, "segment_id"));
+  // 0.01 events/yr per km (the scenario above) × the segment's trace length (length_m has 1
+  // decimal, rates 6: rounding below 1e-6).
+  CHECK(std::abs(r_year - 0.01 * std::stod(field(segs, 0, "length_m")) / 1000.0) <= 1e-6);
+  const double grown = std::stod(field(rate, 1, "background_expected_events")) -
+                       std::stod(field(rate, 0, "background_expected_events"));
+  CHECK(std::abs(grown - r_year * 365.0 / 365.25) <= 2e-6);  // three values rounded to 1e-6
   const CsvTable faults = read_csv(out / "seismicity_rate_faults.csv", "seismicity_rate_faults.csv");
   CHECK(faults.rows.size() == 2 * 3);
 
