@@ -29,11 +29,11 @@
 #include <vector>
 
 #include "core/hydro/pressure_field.hpp"
-#include "io/probabilistic_run.hpp"
-#include "io/run.hpp"
-#include "io/run_inputs.hpp"
-#include "io/scenario.hpp"
-#include "io/scenario_uncertainty.hpp"
+#include "screening/probabilistic_screen.hpp"
+#include "run/run_scenario.hpp"
+#include "screening/prepare.hpp"
+#include "scenario/scenario.hpp"
+#include "scenario/uncertainty.hpp"
 
 namespace fs = std::filesystem;
 using Clock = std::chrono::steady_clock;
@@ -58,10 +58,10 @@ int main(int argc, char** argv) {
       return 1;
     }
   }
-  const io::ResolvedScenario s = io::load_scenario(dir / "scenario.toml");
+  const scenario::ResolvedScenario s = scenario::load_scenario(dir / "scenario.toml");
 
   // 1. The whole run, as `slipscreen run --force` does it.
-  io::RunOptions o;
+  run::RunOptions o;
   o.out = dir / "bench-run";
   o.force = true;
   o.command_line = {"probabilistic_bench"};
@@ -72,14 +72,14 @@ int main(int argc, char** argv) {
   };
   const std::string load_before = load_average();
   auto t0 = Clock::now();
-  const io::RunSummary summary = io::run_scenario(s, o);
+  const screening::RunSummary summary = run::run_scenario(s, o);
   const double t_run = since(t0);
   const auto t_end = Clock::now();
   rusage ru{};
   getrusage(RUSAGE_SELF, &ru);
   const double peak_gib = static_cast<double>(ru.ru_maxrss) / (1024.0 * 1024.0);
 
-  const io::PreparedRun p = io::prepare_run(s, false);
+  const screening::PreparedRun p = screening::prepare_run(s, false);
 
   // 2. The deterministic screen's tracking against the exact PressureField sum at every tracked
   // time (the method it replaced) on every 80th segment.
@@ -122,13 +122,13 @@ int main(int argc, char** argv) {
   const std::string load_after = load_average();
 
   // 3. The probabilistic screen alone, auditing a subsample against the plain method.
-  const io::UncertaintySpec spec = io::load_uncertainty(s);
+  const scenario::UncertaintySpec spec = scenario::load_uncertainty(s);
   std::vector<std::uint64_t> audit_r;
   for (std::uint64_t i = 0; i < 8; ++i) audit_r.push_back(i * 1249);
   std::vector<std::size_t> audit_s;
   for (std::size_t i = 0; i < p.segments.size(); i += p.segments.size() / 12) audit_s.push_back(i);
   t0 = Clock::now();
-  const io::ProbabilisticRun run = io::run_probabilistic_screen(s, p, spec, audit_r, audit_s);
+  const screening::ProbabilisticRun run = screening::run_probabilistic_screen(s, p, spec, audit_r, audit_s);
   const double t_prob = since(t0);
 
   t0 = Clock::now();

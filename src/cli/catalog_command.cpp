@@ -5,12 +5,9 @@
 // around a chosen well.
 #include <CLI/CLI.hpp>
 #include <cmath>
-#include <cstdio>
 #include <filesystem>
-#include <fstream>
 #include <memory>
 #include <ostream>
-#include <random>
 #include <sstream>
 
 #include "cli/commands.hpp"
@@ -18,17 +15,12 @@
 #include "core/errors.hpp"
 #include "core/seismo/catalog_filter.hpp"
 #include "core/seismo/catalog_summary.hpp"
-#include "core/seismo/epicentral_distance.hpp"
-#include "core/seismo/triggering_front.hpp"
 #include "core/units/units.hpp"
 #include "cli/catalog_report.hpp"
-#include "io/catalog_file.hpp"
-#include "io/catalog_outputs.hpp"
-#include "io/run_outputs.hpp"
-#include "io/catalog_summary_json.hpp"
-#include "io/csv_fields.hpp"
-#include "io/iso_time.hpp"
-#include "io/volume_history_csv.hpp"
+#include "formats/catalog/catalog_csv.hpp"
+#include "formats/table/csv_fields.hpp"
+#include "formats/table/iso_time.hpp"
+#include "run/catalog_job.hpp"
 
 namespace slipscreen::cli {
 namespace {
@@ -49,12 +41,6 @@ struct CatalogOptions {
   std::string length_regression = "surface";
   std::string out, well, start;
 };
-
-std::string g(double v, int digits = 4) {
-  char buf[48];
-  std::snprintf(buf, sizeof buf, "%.*g", digits, v);
-  return buf;
-}
 
 double parse_plain_number(const std::string& text, const std::string& field, const std::string& expected) {
   try {
@@ -96,15 +82,15 @@ std::vector<std::array<double, 2>> parse_polygon(const std::string& text) {
 std::vector<std::string> split_list(const std::vector<std::string>& items) {
   std::vector<std::string> out;
   for (const auto& it : items)
-    for (auto& f : io::split_csv_record(it))
+    for (auto& f : formats::split_csv_record(it))
       if (!f.empty()) out.push_back(f);
   return out;
 }
 
 seismo::CatalogFilter build_filter(const CatalogOptions& o) {
   seismo::CatalogFilter f;
-  if (!o.from.empty()) f.start = io::parse_iso8601_utc(o.from, "--from");
-  if (!o.to.empty()) f.end = io::parse_iso8601_utc(o.to, "--to");
+  if (!o.from.empty()) f.start = formats::parse_iso8601_utc(o.from, "--from");
+  if (!o.to.empty()) f.end = formats::parse_iso8601_utc(o.to, "--to");
   if (!o.polygon.empty()) f.polygon = parse_polygon(o.polygon);
   for (const auto& p : o.near) f.buffer_points.push_back(parse_point(p, "--near"));
   if (!f.buffer_points.empty()) f.buffer_radius = units::parse(o.radius, Dimension::length, "--radius");
@@ -125,7 +111,6 @@ seismo::SummaryOptions build_summary_options(const CatalogOptions& o) {
   s.seed = o.seed;
   if (!o.net_volume.empty()) s.net_volume = units::parse(o.net_volume, Dimension::volume, "--net-volume");
   s.shear_modulus = units::parse(o.shear_modulus, Dimension::pressure, "--shear-modulus");
-  if (!o.volume_history.empty()) s.volume_history = io::read_volume_history_csv(o.volume_history);
   if (!o.planned_volume.empty()) s.planned_volume = units::parse(o.planned_volume, Dimension::volume, "--planned-volume");
   if (!o.forecast_magnitudes.empty()) {
     s.forecast_magnitudes.clear();
@@ -144,84 +129,36 @@ seismo::SummaryOptions build_summary_options(const CatalogOptions& o) {
 }
 
 // r-t view around a point (a well).
-std::optional<io::RtView> build_rt(const CatalogOptions& o, const seismo::Catalog& c, const seismo::SummaryOptions& so) {
+std::optional<run::RtRequest> build_rt(const CatalogOptions& o) {
   if (o.well.empty()) return std::nullopt;
-  const auto well = parse_point(o.well, "--well");
-  double start = 0.0;
-  if (!o.start.empty()) start = io::parse_iso8601_utc(o.start, "--start");
-  else if (so.volume_history) start = so.volume_history->time.front();
-  else throw InputError("--start", "", "the injection start time (ISO 8601) for the r-t view, or --volume-history");
-  std::vector<double> d;
-  for (const auto& t : split_list(o.diffusivities)) d.push_back(units::parse(t, Dimension::diffusivity, "--diffusivity"));
-  if (d.empty()) d = {0.01, 0.1, 1.0};
-  return io::make_rt_view(c, well, start, d);
-}
-
-nlohmann::json rt_json(const io::RtView& v) {
-  nlohmann::json j = {{"method", "triggering front r = sqrt(4 pi D t) (Shapiro et al. 1997)"},
-                      {"well", {v.position[0], v.position[1]}},
-                      {"start", io::format_iso8601_utc(v.start)},
-                      {"events_after_start", v.points.size()}};
-  nlohmann::json fr = nlohmann::json::array();
-  for (std::size_t i = 0; i < v.diffusivities.size(); ++i)
-    fr.push_back({{"diffusivity_m2_s", v.diffusivities[i]}, {"fraction_inside", v.fraction_inside[i]}});
-  j["fronts"] = fr;
-  return j;
-}
-
-// Writes the output folder through a temporary sibling renamed into place at the end.
-void write_folder(const CatalogOptions& o, const nlohmann::json& summary, const seismo::Catalog& c,
-                  const std::optional<io::RtView>& rt) {
-  const fs::path target = fs::absolute(o.out);
-  if (fs::exists(target) && !o.force)
-    throw RefusedError("output folder '" + o.out + "' exists; choose another or add --force to replace it");
-  std::random_device rd;
-  const fs::path tmp = target.parent_path() / (target.filename().string() + ".tmp-" + std::to_string(rd() % 1000000));
-  std::error_code ec;
-  fs::create_directories(tmp, ec);
-  if (ec) throw IoError("cannot create '" + tmp.string() + "': " + ec.message());
-  try {
-    io::write_text_file(tmp / "catalog_summary.json", summary.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) + "\n");
-    std::ostringstream ev;
-    ev << "# " << io::kScreeningCaution << "\n";
-    ev << "event_id,time,x,y,depth_m,magnitude,magnitude_type\n";
-    for (const auto& e : c.events)
-      ev << io::csv_field(e.id) << "," << io::format_iso8601_utc(e.time) << "," << g(e.x, 10) << "," << g(e.y, 10) << ","
-         << (e.depth ? g(*e.depth, 8) : "") << "," << g(e.magnitude, 4) << "," << io::csv_field(e.magnitude_type) << "\n";
-    io::write_text_file(tmp / "catalog_events.csv", ev.str());
-    if (rt) {
-      io::write_text_file(tmp / "rt_events.csv", io::rt_events_csv(c, *rt));
-      io::write_text_file(tmp / "rt_fronts.csv", io::rt_fronts_csv(*rt));
-    }
-    if (fs::exists(target)) fs::remove_all(target);
-    fs::rename(tmp, target);
-  } catch (...) {
-    fs::remove_all(tmp, ec);
-    throw;
-  }
+  run::RtRequest r;
+  r.well = parse_point(o.well, "--well");
+  if (!o.start.empty()) r.start = formats::parse_iso8601_utc(o.start, "--start");
+  for (const auto& t : split_list(o.diffusivities)) r.diffusivities.push_back(units::parse(t, Dimension::diffusivity, "--diffusivity"));
+  if (r.diffusivities.empty()) r.diffusivities = {0.01, 0.1, 1.0};
+  return r;
 }
 
 int run_catalog(const CatalogOptions& o, Context& ctx) {
-  io::CatalogFormat fmt = io::CatalogFormat::automatic;
-  if (o.format == "csv") fmt = io::CatalogFormat::csv;
-  else if (o.format == "quakeml") fmt = io::CatalogFormat::quakeml;
+  run::CatalogJob job;
+  job.file = o.file;
+  if (o.format == "csv") job.format = formats::CatalogFormat::csv;
+  else if (o.format == "quakeml") job.format = formats::CatalogFormat::quakeml;
   else if (o.format != "auto") throw InputError("--format", o.format, "auto, csv or quakeml");
-  const auto columns = o.columns.empty() ? io::CatalogColumns{} : io::parse_catalog_columns(o.columns);
-  const auto filter = build_filter(o);
-  auto so = build_summary_options(o);
-  const auto read = io::read_catalog(o.file, fmt, columns, o.strict);
-  auto filtered = seismo::apply_filter(read.catalog, filter);
-  const auto summary = seismo::summarize_catalog(filtered.catalog, so);
-  const auto rt = build_rt(o, filtered.catalog, so);
-  auto j = io::catalog_summary_json(read, filtered.counts, summary);
-  j["rt_view"] = rt ? rt_json(*rt) : nlohmann::json(nullptr);
-  if (o.json) ctx.out << j.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) << "\n";
-  else print_catalog_summary(ctx.out, read, filtered.counts, summary, rt);
-  if (!o.out.empty()) {
-    write_folder(o, j, filtered.catalog, rt);
-    if (!o.json) ctx.out << "\nWrote " << o.out << "/ (catalog_summary.json, catalog_events.csv"
-                         << (rt ? ", rt_events.csv, rt_fronts.csv" : "") << ")\n";
-  }
+  if (!o.columns.empty()) job.columns = formats::parse_catalog_columns(o.columns);
+  job.strict = o.strict;
+  job.filter = build_filter(o);
+  job.summary = build_summary_options(o);
+  job.volume_history = o.volume_history;
+  job.rt = build_rt(o);
+  job.out = o.out;
+  job.force = o.force;
+  const run::CatalogJobResult r = run::run_catalog_job(job);
+  if (o.json) ctx.out << r.json.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) << "\n";
+  else print_catalog_summary(ctx.out, r.read, r.filtered.counts, r.summary, r.rt);
+  if (!o.out.empty() && !o.json)
+    ctx.out << "\nWrote " << o.out << "/ (catalog_summary.json, catalog_events.csv"
+            << (r.rt ? ", rt_events.csv, rt_fronts.csv" : "") << ")\n";
   return kExitOk;
 }
 

@@ -6,7 +6,7 @@
 #include <vector>
 
 #include "core/caution.hpp"
-#include "io/iso_time.hpp"
+#include "formats/table/iso_time.hpp"
 
 namespace slipscreen::cli {
 namespace {
@@ -25,8 +25,8 @@ std::string fixed(double v, int decimals) {
 
 }  // namespace
 
-void print_catalog_summary(std::ostream& out, const io::CatalogReadResult& read, const seismo::FilterCounts& c,
-                   const seismo::CatalogSummary& s, const std::optional<io::RtView>& rt,
+void print_catalog_summary(std::ostream& out, const formats::CatalogReadResult& read, const seismo::FilterCounts& c,
+                   const seismo::CatalogSummary& s, const std::optional<screening::RtView>& rt,
                            std::size_t max_fault_bounds) {
   out << "Catalog review: " << read.path << " (" << read.format << ")\n";
   out << kScreeningCaution << "\n";
@@ -48,8 +48,8 @@ void print_catalog_summary(std::ostream& out, const io::CatalogReadResult& read,
     if (n > 0) out << "; " << n << " " << what;
   out << "\n";
   if (s.events > 0)
-    out << "Events: " << s.events << " from " << io::format_iso8601_utc(*s.first_time) << " to "
-        << io::format_iso8601_utc(*s.last_time) << ", M " << fixed(*s.min_magnitude, 1) << " to "
+    out << "Events: " << s.events << " from " << formats::format_iso8601_utc(*s.first_time) << " to "
+        << formats::format_iso8601_utc(*s.last_time) << ", M " << fixed(*s.min_magnitude, 1) << " to "
         << fixed(*s.max_magnitude, 1) << "\n";
   else
     out << "Events: none after filtering\n";
@@ -107,7 +107,7 @@ void print_catalog_summary(std::ostream& out, const io::CatalogReadResult& read,
     const auto& f = *s.seismogenic_index;
     out << "Σ = " << fixed(f.sigma, 2) << " ± " << fixed(f.sigma_count_se, 2) << " (count) ± " << fixed(f.sigma_b_se, 2)
         << " (b), from " << f.events << " events >= Mc while " << g(f.volume) << " m3 were injected ("
-        << io::format_iso8601_utc(f.window_start) << " to " << io::format_iso8601_utc(f.window_end) << ")\n";
+        << formats::format_iso8601_utc(f.window_start) << " to " << formats::format_iso8601_utc(f.window_end) << ")\n";
   } else {
     out << "not fitted (" << s.seismogenic_index_note << ")\n";
   }
@@ -124,7 +124,7 @@ void print_catalog_summary(std::ostream& out, const io::CatalogReadResult& read,
   if (rt) {
     out << "\nr-t view around " << (rt->well.empty() ? "the well" : "well " + rt->well) << " at (" << g(rt->position[0], 8)
         << ", " << g(rt->position[1], 8) << ") from "
-        << io::format_iso8601_utc(rt->start) << ": " << rt->points.size() << " events after the start\n";
+        << formats::format_iso8601_utc(rt->start) << ": " << rt->points.size() << " events after the start\n";
     for (std::size_t i = 0; i < rt->diffusivities.size(); ++i)
       out << "  inside the triggering front for D = " << g(rt->diffusivities[i], 3)
           << " m2/s: " << g(100.0 * rt->fraction_inside[i], 3) << " %\n";

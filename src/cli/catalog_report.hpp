@@ -6,13 +6,13 @@
 
 #include "core/seismo/catalog_filter.hpp"
 #include "core/seismo/catalog_summary.hpp"
-#include "io/catalog_file.hpp"
-#include "io/catalog_outputs.hpp"
+#include "formats/catalog/catalog_file.hpp"
+#include "screening/rt_view.hpp"
 
 namespace slipscreen::cli {
 
-void print_catalog_summary(std::ostream& out, const io::CatalogReadResult& read, const seismo::FilterCounts& c,
-                           const seismo::CatalogSummary& s, const std::optional<io::RtView>& rt,
+void print_catalog_summary(std::ostream& out, const formats::CatalogReadResult& read, const seismo::FilterCounts& c,
+                           const seismo::CatalogSummary& s, const std::optional<screening::RtView>& rt,
                            std::size_t max_fault_bounds = static_cast<std::size_t>(-1));
 
 }  // namespace slipscreen::cli

@@ -3,7 +3,7 @@
 // registrar; add a line here and in commands.cpp when adding a command.
 #include <vector>
 
-#include "cli/app.hpp"
+#include "cli/context.hpp"
 
 namespace slipscreen::cli {
 

@@ -8,11 +8,12 @@
 
 #include "cli/catalog_report.hpp"
 #include "cli/exit_codes.hpp"
+#include "core/caution.hpp"
 #include "cli/scenario_summary.hpp"
-#include "io/catalog_review.hpp"
-#include "io/iso_time.hpp"
-#include "io/run.hpp"
-#include "io/scenario.hpp"
+#include "screening/catalog_review.hpp"
+#include "formats/table/iso_time.hpp"
+#include "run/run_scenario.hpp"
+#include "scenario/scenario.hpp"
 
 namespace slipscreen::cli {
 namespace {
@@ -29,7 +30,7 @@ std::string pad(std::string s, std::size_t n) {
 }
 
 // The catalog review of a run: the catalog's own summary, then the events against the model.
-void print_review_against_model(std::ostream& out, const io::ResolvedScenario& s, const io::CatalogReview& v,
+void print_review_against_model(std::ostream& out, const scenario::ResolvedScenario& s, const screening::CatalogReview& v,
                                 int shown_max) {
   out << "\n";
   print_catalog_summary(out, v.read, v.counts, v.summary, v.rt, static_cast<std::size_t>(std::max(shown_max, 1)));
@@ -62,7 +63,7 @@ void print_review_against_model(std::ostream& out, const io::ResolvedScenario& s
       std::snprintf(dist, sizeof dist, "%.2f", m.distance / 1000.0);
       if (m.probability_time) std::snprintf(p, sizeof p, "%.3f [%.3f, %.3f]", m.p_slip, m.p_low, m.p_high);
       else std::snprintf(p, sizeof p, "-");
-      out << "  " << pad(io::format_iso8601_utc(e.time).substr(0, 10), 12) << pad(mag, 6) << pad(mpa(m.dp), 9)
+      out << "  " << pad(formats::format_iso8601_utc(e.time).substr(0, 10), 12) << pad(mag, 6) << pad(mpa(m.dp), 9)
           << pad(v.segment_ids.empty() ? "-" : v.segment_ids[m.segment], 17) << pad(dist, 13) << p
           << "\n";
     }
@@ -97,8 +98,8 @@ void print_review_against_model(std::ostream& out, const io::ResolvedScenario& s
 }  // namespace
 
 int run_and_report(const RunCommandOptions& o, Context& ctx) {
-  const io::ResolvedScenario s = io::load_scenario(o.scenario);
-  io::RunOptions ro;
+  const scenario::ResolvedScenario s = scenario::load_scenario(o.scenario);
+  run::RunOptions ro;
   ro.out = o.out;
   ro.force = o.force;
   ro.allow_network = o.allow_network;
@@ -110,7 +111,7 @@ int run_and_report(const RunCommandOptions& o, Context& ctx) {
       else ctx.err << "\r\033[K" << stage << " " << static_cast<int>(f * 100 + 0.5) << "%" << std::flush;
     };
   }
-  const io::RunSummary r = io::run_scenario(s, ro);
+  const screening::RunSummary r = run::run_scenario(s, ro);
   if (ctx.err_is_terminal) ctx.err << "\r\033[K" << std::flush;
 
   ctx.out << "Deterministic screen of " << s.file << (s.title.empty() ? "" : " (" + s.title + ")") << "\n";
@@ -183,7 +184,7 @@ int run_and_report(const RunCommandOptions& o, Context& ctx) {
   if (r.catalog) print_review_against_model(ctx.out, s, *r.catalog, o.closest);
   ctx.out << "\nOutputs in " << r.folder.generic_string() << "/:\n";
   for (const auto& f : r.files) ctx.out << "  " << f << "\n";
-  ctx.out << "\nScreening caution: " << io::kScreeningCaution << "\n";
+  ctx.out << "\nScreening caution: " << kScreeningCaution << "\n";
   return kExitOk;
 }
 

@@ -4,7 +4,7 @@
 #include <filesystem>
 #include <string>
 
-#include "cli/app.hpp"
+#include "cli/context.hpp"
 
 namespace slipscreen::cli {
 

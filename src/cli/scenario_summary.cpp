@@ -8,6 +8,7 @@
 #include <sstream>
 
 #include "core/units/units.hpp"
+#include "formats/files/path_policy.hpp"
 
 namespace slipscreen::cli {
 namespace {
@@ -18,27 +19,27 @@ std::string fixed(double v, int digits) {
   return os.str();
 }
 
-const char* model_name(io::StressModel m) {
+const char* model_name(scenario::StressModel m) {
   switch (m) {
-    case io::StressModel::gradients: return "gradients";
-    case io::StressModel::uniaxial_strain: return "uniaxial strain";
-    case io::StressModel::a_phi: return "A_phi";
+    case scenario::StressModel::gradients: return "gradients";
+    case scenario::StressModel::uniaxial_strain: return "uniaxial strain";
+    case scenario::StressModel::a_phi: return "A_phi";
   }
   return "?";
 }
 
 }  // namespace
 
-void print_scenario_summary(const io::ResolvedScenario& s, std::ostream& out) {
+void print_scenario_summary(const scenario::ResolvedScenario& s, std::ostream& out) {
   const auto& r = s.region;
   out << "Scenario   " << s.file << (s.title.empty() ? "" : "  (" + s.title + ")") << "\n";
   out << "Region     " << r.name << "  [" << r.file << "]\n";
   out << "  working CRS " << r.crs << ", reference depth " << fixed(r.reference_depth, 0) << " m, pore-pressure gradient "
       << fixed(r.pore_pressure_gradient / 1000, 2) << " MPa/km\n";
   out << "  stress: " << model_name(r.stress.model);
-  if (r.stress.model == io::StressModel::a_phi) out << " = " << fixed(r.stress.a_phi, 2);
+  if (r.stress.model == scenario::StressModel::a_phi) out << " = " << fixed(r.stress.a_phi, 2);
   out << ", SHmax azimuth " << fixed(r.stress.shmax_azimuth * 180 / 3.14159265358979323846, 1) << " deg\n";
-  out << "  faults: " << io::display_name(r.faults.path) << ", friction " << fixed(r.faults.friction, 2) << ", cohesion "
+  out << "  faults: " << formats::display_name(r.faults.path) << ", friction " << fixed(r.faults.friction, 2) << ", cohesion "
       << fixed(r.faults.cohesion / 1e6, 2) << " MPa, segments <= " << fixed(r.faults.segment_length, 0) << " m, "
       << r.faults.check_points << " check points each\n";
   const auto& f = r.formation;
@@ -49,7 +50,7 @@ void print_scenario_summary(const io::ResolvedScenario& s, std::ostream& out) {
   double first = std::numeric_limits<double>::infinity(), last = -first, volume = 0;
   for (const auto& w : s.wells) {
     (w.proposed ? proposed : existing)++;
-    shut += w.status == io::WellStatus::shut_in;
+    shut += w.status == scenario::WellStatus::shut_in;
     for (const auto& p : w.periods) {
       first = std::min(first, p.start);
       last = std::max(last, p.end);

@@ -11,8 +11,8 @@
 #include <algorithm>
 
 #include "core/geomech/frictional_limit.hpp"
-#include "io/run_inputs.hpp"
-#include "io/scenario.hpp"
+#include "screening/prepare.hpp"
+#include "scenario/scenario.hpp"
 
 namespace slipscreen::cli {
 namespace {
@@ -23,9 +23,9 @@ struct ValidateOptions {
 };
 
 int run_validate(const ValidateOptions& o, Context& ctx) {
-  const io::ResolvedScenario s = io::load_scenario(o.scenario);
+  const scenario::ResolvedScenario s = scenario::load_scenario(o.scenario);
   // Everything a run checks before computing: CRSs, the fault map, stresses, formation, grid.
-  const io::PreparedRun p = io::prepare_run(s, o.allow_network);
+  const screening::PreparedRun p = screening::prepare_run(s, o.allow_network);
   print_scenario_summary(s, ctx.out);
   ctx.out << "Faults     " << p.fault_count << " faults in " << p.segments.size() << " segments (working CRS "
           << p.working.name() << "); " << p.inputs.tracking_times.size() << " tracking times\n";

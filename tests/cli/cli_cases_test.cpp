@@ -15,6 +15,7 @@
 #include <vector>
 
 #include "cli/app.hpp"
+#include "cli/context.hpp"
 
 namespace fs = std::filesystem;
 

@@ -7,6 +7,7 @@
 #include <sstream>
 
 #include "cli/app.hpp"
+#include "cli/context.hpp"
 
 namespace fs = std::filesystem;
 

@@ -1,0 +1,60 @@
+#pragma once
+// The run manifest (manifest.json in the run folder): what was run, on what, by which version.
+//
+// Content (keys sorted; nlohmann::json objects are ordered maps):
+//   {
+//     "caution":      the screening caution, as given by the caller,
+//     "command_line": ["slipscreen", "run", "scenario.toml", ...]   (argv as given),
+//     "created_utc":  "2031-01-01T12:00:00Z"   (omitted when include_timestamp is false),
+//     "inputs":       [{"role": "fault map", "path": "faults.gpkg", "bytes": 12345,
+//                       "sha256": "<64 hex>"}, ...]                    (in the order given),
+//     "outputs":      [{"path": "tables/summary.csv", "bytes": ..., "sha256": ...}, ...]
+//                                                                       (sorted by path; optional),
+//     "parameters":   the resolved parameters, as given by the caller (any JSON object),
+//     "seed":         the random seed (omitted when none),
+//     "tool":         {"name": "slipscreen", "version": kVersion}
+//   }
+// Written as 2-space indented JSON with a final newline. Given the same inputs, a rerun differs
+// only in "created_utc"; with include_timestamp = false the file is byte-identical.
+#include <chrono>
+#include <cstdint>
+#include <filesystem>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include <nlohmann/json.hpp>
+
+namespace slipscreen::formats {
+
+struct ManifestInput {
+  std::string role;              // e.g. "scenario", "wells", "fault map"
+  std::filesystem::path path;    // where to read it to hash it
+  std::string shown;             // how to name it in the manifest; "" = path as given (generic form)
+};
+
+struct ManifestContent {
+  std::vector<std::string> command_line;
+  nlohmann::json parameters = nlohmann::json::object();
+  std::optional<std::uint64_t> seed;
+  std::vector<ManifestInput> inputs;
+  std::string caution;           // the screening caution (required, non-empty)
+  bool include_timestamp = true;
+};
+
+// "YYYY-MM-DDTHH:MM:SSZ" (UTC, whole seconds).
+std::string utc_iso_time(std::chrono::system_clock::time_point t);
+
+// The manifest as JSON. Hashes every input (IoError naming the file when one cannot be read)
+// and, when `outputs_root` is given, every regular file under it except manifest.json itself.
+// Throws InputError when the caution is empty or parameters is not an object.
+nlohmann::json manifest_json(const ManifestContent& content,
+                             std::chrono::system_clock::time_point now = std::chrono::system_clock::now(),
+                             const std::optional<std::filesystem::path>& outputs_root = std::nullopt);
+
+// Writes manifest_json(...) to `path` (IoError on failure). Call it last, after every other
+// output, and pass the run folder's staging path as outputs_root to list the outputs.
+void write_manifest(const std::filesystem::path& path, const ManifestContent& content,
+                    const std::optional<std::filesystem::path>& outputs_root = std::nullopt);
+
+}  // namespace slipscreen::formats

@@ -1,0 +1,240 @@
+#include "formats/gis/geopackage.hpp"
+
+#include <gdal_priv.h>
+#include <ogrsf_frmts.h>
+
+#include <cctype>
+#include <cmath>
+#include <set>
+
+#include "core/errors.hpp"
+#include "formats/gis/gdal_errors.hpp"
+
+namespace slipscreen::formats {
+
+namespace fs = std::filesystem;
+
+namespace {
+
+// Sets a thread-local GDAL configuration option for a scope and restores the previous value.
+class ScopedConfig {
+ public:
+  ScopedConfig(const char* key, const std::optional<std::string>& value) : key_(key) {
+    if (!value) return;
+    active_ = true;
+    if (const char* old = CPLGetThreadLocalConfigOption(key, nullptr)) old_ = old;
+    CPLSetThreadLocalConfigOption(key, value->c_str());
+  }
+  ~ScopedConfig() {
+    if (active_) CPLSetThreadLocalConfigOption(key_, old_ ? old_->c_str() : nullptr);
+  }
+  ScopedConfig(const ScopedConfig&) = delete;
+  ScopedConfig& operator=(const ScopedConfig&) = delete;
+
+ private:
+  const char* key_;
+  bool active_ = false;
+  std::optional<std::string> old_;
+};
+
+std::string lower(std::string s) {
+  for (auto& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+  return s;
+}
+
+const char* type_name(FieldType t) {
+  switch (t) {
+    case FieldType::integer: return "integer";
+    case FieldType::real: return "real";
+    case FieldType::string: return "string";
+    case FieldType::date: return "date (YYYY-MM-DD)";
+  }
+  return "?";
+}
+
+OGRFieldType ogr_type(FieldType t) {
+  switch (t) {
+    case FieldType::integer: return OFTInteger64;
+    case FieldType::real: return OFTReal;
+    case FieldType::string: return OFTString;
+    case FieldType::date: return OFTDate;
+  }
+  return OFTString;
+}
+
+OGRwkbGeometryType ogr_geometry(GeometryType g) {
+  switch (g) {
+    case GeometryType::point: return wkbPoint;
+    case GeometryType::line_string: return wkbLineString;
+    case GeometryType::polygon: return wkbPolygon;
+  }
+  return wkbUnknown;
+}
+
+// "YYYY-MM-DD" with a valid month and day (proleptic Gregorian).
+bool parse_date(const std::string& s, int& y, int& m, int& d) {
+  if (s.size() != 10 || s[4] != '-' || s[7] != '-') return false;
+  for (int i : {0, 1, 2, 3, 5, 6, 8, 9})
+    if (!std::isdigit(static_cast<unsigned char>(s[static_cast<std::size_t>(i)]))) return false;
+  y = std::stoi(s.substr(0, 4));
+  m = std::stoi(s.substr(5, 2));
+  d = std::stoi(s.substr(8, 2));
+  static constexpr int kDays[] = {31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31};
+  if (m < 1 || m > 12) return false;
+  const bool leap = (y % 4 == 0 && y % 100 != 0) || y % 400 == 0;
+  const int dim = kDays[m - 1] + (m == 2 && leap ? 1 : 0);
+  return d >= 1 && d <= dim;
+}
+
+std::unique_ptr<OGRGeometry> make_geometry(GeometryType type, const std::vector<geometry::Point2>& v,
+                                           const std::string& where) {
+  for (const auto& p : v)
+    if (!std::isfinite(p.x) || !std::isfinite(p.y))
+      throw InputError("geometry", "a non-finite coordinate", "finite x and y", where);
+  switch (type) {
+    case GeometryType::point: {
+      if (v.size() != 1) throw InputError("geometry", std::to_string(v.size()) + " vertices", "one point", where);
+      return std::make_unique<OGRPoint>(v[0].x, v[0].y);
+    }
+    case GeometryType::line_string: {
+      if (v.size() < 2)
+        throw InputError("geometry", std::to_string(v.size()) + " vertices", "a line of at least 2 vertices", where);
+      auto line = std::make_unique<OGRLineString>();
+      for (const auto& p : v) line->addPoint(p.x, p.y);
+      return line;
+    }
+    case GeometryType::polygon: {
+      if (v.size() < 3)
+        throw InputError("geometry", std::to_string(v.size()) + " vertices", "a ring of at least 3 vertices", where);
+      auto ring = std::make_unique<OGRLinearRing>();
+      for (const auto& p : v) ring->addPoint(p.x, p.y);
+      if (!(v.front() == v.back())) ring->addPoint(v.front().x, v.front().y);
+      auto poly = std::make_unique<OGRPolygon>();
+      poly->addRingDirectly(ring.release());
+      return poly;
+    }
+  }
+  return nullptr;
+}
+
+void set_value(OGRFeature& f, int idx, const FieldSpec& spec, const FieldValue& value, const std::string& where) {
+  if (std::holds_alternative<std::monostate>(value)) {
+    f.SetFieldNull(idx);
+    return;
+  }
+  auto wrong = [&](const char* got) {
+    throw InputError(spec.name, std::string("a value of type ") + got, std::string("a value of type ") + type_name(spec.type),
+                     where);
+  };
+  switch (spec.type) {
+    case FieldType::integer:
+      if (const auto* i = std::get_if<std::int64_t>(&value)) return f.SetField(idx, static_cast<GIntBig>(*i));
+      return wrong(std::holds_alternative<double>(value) ? "real" : "string");
+    case FieldType::real:
+      if (const auto* d = std::get_if<double>(&value)) {
+        if (std::isnan(*d)) return f.SetFieldNull(idx);
+        return f.SetField(idx, *d);
+      }
+      if (const auto* i = std::get_if<std::int64_t>(&value)) return f.SetField(idx, static_cast<double>(*i));
+      return wrong("string");
+    case FieldType::string:
+      if (const auto* s = std::get_if<std::string>(&value)) return f.SetField(idx, s->c_str());
+      return wrong(std::holds_alternative<double>(value) ? "real" : "integer");
+    case FieldType::date: {
+      const auto* s = std::get_if<std::string>(&value);
+      if (!s) return wrong(std::holds_alternative<double>(value) ? "real" : "integer");
+      int y = 0, m = 0, d = 0;
+      if (!parse_date(*s, y, m, d)) throw InputError(spec.name, *s, "a date as YYYY-MM-DD", where);
+      return f.SetField(idx, y, m, d);
+    }
+  }
+}
+
+}  // namespace
+
+void GeoPackageWriter::Deleter::operator()(GDALDataset* ds) const { GDALClose(GDALDataset::ToHandle(ds)); }
+
+GeoPackageWriter::GeoPackageWriter(const fs::path& path, const Crs& crs, GeoPackageOptions options)
+    : path_(path), crs_(crs), options_(std::move(options)) {
+  GdalErrorScope errors(path_.string());
+  std::error_code ec;
+  if (fs::exists(path_, ec)) errors.throw_io("the GeoPackage already exists (outputs are written to a new run folder)");
+  GDALDriver* gpkg = GetGDALDriverManager()->GetDriverByName("GPKG");
+  if (!gpkg) errors.throw_io("GDAL has no GPKG driver");
+  ScopedConfig date("OGR_CURRENT_DATE", options_.timestamp);
+  ds_.reset(gpkg->Create(path_.string().c_str(), 0, 0, 0, GDT_Unknown, nullptr));
+  if (!ds_) errors.throw_io("cannot create the GeoPackage");
+}
+
+GeoPackageWriter::~GeoPackageWriter() {
+  if (!ds_) return;
+  GdalErrorScope errors(path_.string());  // keep GDAL quiet; nothing can be reported here
+  ScopedConfig date("OGR_CURRENT_DATE", options_.timestamp);
+  ds_.reset();
+}
+
+void GeoPackageWriter::add_layer(const VectorLayer& layer) {
+  const std::string where_layer = path_.string() + " layer '" + layer.name + "'";
+  if (!ds_) throw IoError(where_layer + ": the GeoPackage is already closed");
+  if (layer.name.empty()) throw InputError("layer name", "", "a non-empty layer name", path_.string());
+  if (ds_->GetLayerByName(layer.name.c_str()))
+    throw InputError("layer name", layer.name, "a layer name not used before in this file", path_.string());
+  std::set<std::string> names{"fid", "geom"};
+  for (const auto& f : layer.fields)
+    if (f.name.empty() || !names.insert(lower(f.name)).second)
+      throw InputError("field name", f.name, "a non-empty field name, unique in the layer and not 'fid' or 'geom'",
+                       where_layer);
+
+  GdalErrorScope errors(where_layer);
+  ScopedConfig date("OGR_CURRENT_DATE", options_.timestamp);
+  std::string description_option = "DESCRIPTION=" + layer.description;
+  const char* const create_options[] = {"GEOMETRY_NAME=geom", "FID=fid", "SPATIAL_INDEX=YES",
+                                        layer.description.empty() ? nullptr : description_option.c_str(), nullptr};
+  // GDAL 3.6 takes a non-const CRS; hand it a copy of ours (the layer keeps its own reference).
+  std::unique_ptr<OGRSpatialReference, void (*)(OGRSpatialReference*)> srs(
+      crs_.osr().Clone(), [](OGRSpatialReference* s) { s->Release(); });
+  OGRLayer* out = ds_->CreateLayer(layer.name.c_str(), srs.get(), ogr_geometry(layer.geometry),
+                                   const_cast<char**>(create_options));
+  if (!out) errors.throw_io("cannot create the layer");
+  for (const auto& spec : layer.fields) {
+    OGRFieldDefn defn(spec.name.c_str(), ogr_type(spec.type));
+    if (out->CreateField(&defn) != OGRERR_NONE) errors.throw_io("cannot create field '" + spec.name + "'");
+  }
+  if (ds_->StartTransaction() != OGRERR_NONE) errors.throw_io("cannot start a transaction");
+  try {
+    for (std::size_t i = 0; i < layer.features.size(); ++i) {
+      const VectorFeature& vf = layer.features[i];
+      const std::string where = where_layer + " feature " + std::to_string(i);
+      if (vf.values.size() != layer.fields.size())
+        throw InputError("values", std::to_string(vf.values.size()),
+                         std::to_string(layer.fields.size()) + " values (one per field)", where);
+      OGRFeature feature(out->GetLayerDefn());
+      feature.SetGeometryDirectly(make_geometry(layer.geometry, vf.geometry, where).release());
+      for (std::size_t k = 0; k < layer.fields.size(); ++k)
+        set_value(feature, static_cast<int>(k), layer.fields[k], vf.values[k], where);
+      if (out->CreateFeature(&feature) != OGRERR_NONE) errors.throw_io("cannot write feature " + std::to_string(i));
+    }
+    if (ds_->CommitTransaction() != OGRERR_NONE) errors.throw_io("cannot commit the layer's features");
+  } catch (...) {
+    ds_->RollbackTransaction();
+    throw;
+  }
+  errors.throw_if_error("error while writing the layer");
+}
+
+void GeoPackageWriter::close() {
+  if (!ds_) return;
+  GdalErrorScope errors(path_.string());
+  ScopedConfig date("OGR_CURRENT_DATE", options_.timestamp);
+  ds_.reset();
+  errors.throw_if_error("could not finish writing the GeoPackage");
+}
+
+void write_geopackage(const fs::path& path, const Crs& crs, const std::vector<VectorLayer>& layers,
+                      const GeoPackageOptions& options) {
+  GeoPackageWriter writer(path, crs, options);
+  for (const auto& layer : layers) writer.add_layer(layer);
+  writer.close();
+}
+
+}  // namespace slipscreen::formats

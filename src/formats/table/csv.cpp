@@ -1,0 +1,191 @@
+#include "formats/table/csv.hpp"
+
+#include <algorithm>
+#include <charconv>
+#include <cmath>
+#include <fstream>
+#include <sstream>
+
+#include "core/errors.hpp"
+
+namespace slipscreen::formats {
+
+std::string trim(std::string_view s) {
+  const auto is_space = [](char c) { return c == ' ' || c == '\t' || c == '\r' || c == '\n'; };
+  std::size_t b = 0, e = s.size();
+  while (b < e && is_space(s[b])) ++b;
+  while (e > b && is_space(s[e - 1])) --e;
+  return std::string(s.substr(b, e - b));
+}
+
+namespace {
+
+std::string lower(std::string_view s) {
+  std::string out(s);
+  std::transform(out.begin(), out.end(), out.begin(),
+                 [](unsigned char c) { return static_cast<char>(c >= 'A' && c <= 'Z' ? c + 32 : c); });
+  return out;
+}
+
+InputError csv_error(const std::string& file, std::size_t line, const std::string& field,
+                     const std::string& value, const std::string& expected) {
+  return InputError(field, value, expected, file + " line " + std::to_string(line));
+}
+
+}  // namespace
+
+std::optional<std::size_t> CsvTable::column(std::string_view name) const {
+  const std::string want = lower(trim(name));
+  for (std::size_t i = 0; i < header.size(); ++i)
+    if (lower(split_header_unit(header[i]).name) == want) return i;
+  return std::nullopt;
+}
+
+std::string CsvTable::where(const CsvRow& row, std::size_t col) const {
+  std::string w = file + " line " + std::to_string(row.line) + ", column " + std::to_string(col + 1);
+  if (col < header.size()) w += " ('" + trim(header[col]) + "')";
+  return w;
+}
+
+std::string CsvTable::where(const CsvRow& row) const { return file + " line " + std::to_string(row.line); }
+
+std::optional<std::string> CsvTable::comment_value(std::string_view key) const {
+  const std::string want = lower(key);
+  for (const auto& c : comments) {
+    const auto sep = c.find_first_of(":=");
+    if (sep == std::string::npos) continue;
+    if (lower(trim(c.substr(0, sep))) == want) return trim(c.substr(sep + 1));
+  }
+  return std::nullopt;
+}
+
+HeaderName split_header_unit(std::string_view cell) {
+  const std::string t = trim(cell);
+  for (const auto& [open, close] : {std::pair{'[', ']'}, std::pair{'(', ')'}}) {
+    const auto b = t.find(open);
+    if (b != std::string::npos && !t.empty() && t.back() == close && b > 0)
+      return {trim(std::string_view(t).substr(0, b)), trim(std::string_view(t).substr(b + 1, t.size() - b - 2))};
+  }
+  return {t, ""};
+}
+
+CsvTable parse_csv(std::string_view text, const std::string& file) {
+  CsvTable table;
+  table.file = file;
+  if (text.size() >= 3 && text.substr(0, 3) == "\xEF\xBB\xBF") text.remove_prefix(3);
+
+  std::size_t i = 0, line = 1;
+  bool have_header = false;
+  while (i < text.size()) {
+    // Start of a record: blank lines and comments.
+    if (text[i] == '\n' || (text[i] == '\r' && i + 1 < text.size() && text[i + 1] == '\n')) {
+      i += text[i] == '\r' ? 2 : 1;
+      ++line;
+      continue;
+    }
+    if (text[i] == '#') {
+      const auto end = text.find('\n', i);
+      table.comments.push_back(trim(text.substr(i + 1, (end == std::string_view::npos ? text.size() : end) - i - 1)));
+      if (end == std::string_view::npos) break;
+      i = end + 1;
+      ++line;
+      continue;
+    }
+    CsvRow row;
+    row.line = line;
+    std::string field;
+    bool done = false;
+    while (!done) {
+      if (i < text.size() && text[i] == '"') {
+        const std::size_t open_line = line;
+        ++i;
+        for (;;) {
+          if (i >= text.size())
+            throw csv_error(file, open_line, "quoted field", field.substr(0, 20), "a closing '\"'");
+          if (text[i] == '"') {
+            if (i + 1 < text.size() && text[i + 1] == '"') {
+              field += '"';
+              i += 2;
+              continue;
+            }
+            ++i;
+            break;
+          }
+          if (text[i] == '\n') ++line;
+          field += text[i++];
+        }
+        if (i < text.size() && text[i] != ',' && text[i] != '\n' && text[i] != '\r')
+          throw csv_error(file, line, "quoted field", field, "',' or the end of the line after the closing quote");
+      } else {
+        while (i < text.size() && text[i] != ',' && text[i] != '\n' && text[i] != '\r') field += text[i++];
+      }
+      row.fields.push_back(std::move(field));
+      field.clear();
+      if (i < text.size() && text[i] == ',') {
+        ++i;
+      } else {
+        if (i < text.size() && text[i] == '\r') ++i;
+        if (i < text.size() && text[i] == '\n') ++i;
+        ++line;
+        done = true;
+      }
+    }
+    if (!have_header) {
+      for (std::size_t c = 0; c < row.fields.size(); ++c) {
+        const std::string name = split_header_unit(row.fields[c]).name;
+        if (name.empty())
+          throw csv_error(file, row.line, "header column " + std::to_string(c + 1), row.fields[c], "a column name");
+        for (std::size_t p = 0; p < c; ++p)
+          if (lower(split_header_unit(row.fields[p]).name) == lower(name))
+            throw csv_error(file, row.line, "header column " + std::to_string(c + 1), row.fields[c],
+                            "a column name not used before");
+      }
+      table.header = std::move(row.fields);
+      table.header_line = row.line;
+      have_header = true;
+    } else {
+      if (row.fields.size() != table.header.size())
+        throw csv_error(file, row.line, "row", std::to_string(row.fields.size()) + " fields",
+                        std::to_string(table.header.size()) + " fields, as in the header");
+      table.rows.push_back(std::move(row));
+    }
+  }
+  if (!have_header) throw csv_error(file, line, "header", "", "a header line naming the columns");
+  return table;
+}
+
+CsvTable read_csv(const std::filesystem::path& path, const std::string& file) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw IoError(file + ": cannot open the file for reading");
+  std::ostringstream ss;
+  ss << in.rdbuf();
+  if (in.bad()) throw IoError(file + ": read error");
+  return parse_csv(ss.str(), file);
+}
+
+std::string csv_field(const std::string& s) {
+  if (s.find_first_of(",\"\n\r") == std::string::npos) return s;
+  std::string q = "\"";
+  for (char c : s) q += c == '"' ? std::string("\"\"") : std::string(1, c);
+  return q + "\"";
+}
+
+double cell_quantity(const CsvTable& t, const CsvRow& row, std::size_t col, units::Dimension d) {
+  const HeaderName h = split_header_unit(t.header[col]);
+  const std::string cell = trim(row.fields[col]);
+  try {
+    if (!h.unit.empty()) {
+      // The unit is in the header: a bare number takes it; a cell may still state its own unit.
+      double v = 0;
+      const auto [ptr, ec] = std::from_chars(cell.data(), cell.data() + cell.size(), v);
+      if (ec == std::errc{} && ptr == cell.data() + cell.size() && !cell.empty() && std::isfinite(v))
+        return v * units::lookup(h.unit, d, h.name).to_si;
+    }
+    return units::parse(cell, d, h.name);
+  } catch (const InputError& e) {
+    throw e.located(t.where(row, col));
+  }
+}
+
+
+}  // namespace slipscreen::formats

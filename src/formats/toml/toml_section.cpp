@@ -1,0 +1,225 @@
+#include "formats/toml/toml_section.hpp"
+
+#include <sstream>
+
+#include "core/errors.hpp"
+#include "core/util/suggest.hpp"
+#include "formats/files/path_policy.hpp"
+
+namespace slipscreen::formats {
+
+std::string toml_where(const std::string& file, const toml::source_region& src) {
+  if (src.begin.line == 0) return file;
+  return file + " line " + std::to_string(src.begin.line) + ", column " + std::to_string(src.begin.column);
+}
+
+namespace {
+
+std::string join_key(const std::string& prefix, std::string_view key) {
+  return prefix.empty() ? std::string(key) : prefix + "." + std::string(key);
+}
+
+}  // namespace
+
+TomlDocument parse_toml_file(const std::filesystem::path& path, const std::string& file) {
+  std::error_code ec;
+  if (!std::filesystem::is_regular_file(path, ec))
+    throw IoError(file + ": cannot open the file for reading (no such file)");
+  try {
+    return {file, path, std::make_shared<toml::table>(toml::parse_file(path.string()))};
+  } catch (const toml::parse_error& e) {
+    throw Error(ErrorCategory::input, toml_where(file, e.source()) + ": TOML syntax: " + std::string(e.description()));
+  }
+}
+
+TomlDocument parse_toml_text(std::string_view text, const std::string& file) {
+  try {
+    return {file, file, std::make_shared<toml::table>(toml::parse(text, std::string_view(file)))};
+  } catch (const toml::parse_error& e) {
+    throw Error(ErrorCategory::input, toml_where(file, e.source()) + ": TOML syntax: " + std::string(e.description()));
+  }
+}
+
+std::string toml_value_text(const toml::node& n) {
+  if (auto s = n.as_string()) return s->get();
+  std::ostringstream os;
+  n.visit([&os](const auto& v) { os << v; });
+  return os.str();
+}
+
+Section Section::child(std::string_view key) const {
+  std::vector<Layer> out;
+  for (const auto& l : layers_) {
+    Layer c{nullptr, l.file, join_key(l.prefix, key), l.dir};
+    if (l.table) {
+      if (const toml::node* n = l.table->get(key)) {
+        if (!n->is_table())
+          throw Error(ErrorCategory::input, toml_where(l.file, n->source()) + ": key '" + c.prefix +
+                                                "': expected a table ([" + c.prefix + "])");
+        c.table = n->as_table();
+      }
+    }
+    out.push_back(std::move(c));
+  }
+  return Section(std::move(out));
+}
+
+bool Section::empty() const {
+  for (const auto& l : layers_)
+    if (l.table && !l.table->empty()) return false;
+  return true;
+}
+
+bool Section::has(std::string_view key) const { return find(key).has_value(); }
+
+std::optional<Section::Found> Section::find(std::string_view key) const {
+  for (auto it = layers_.rbegin(); it != layers_.rend(); ++it)
+    if (it->table)
+      if (const toml::node* n = it->table->get(key)) return Found{n, &*it};
+  return std::nullopt;
+}
+
+void Section::allow(std::initializer_list<std::string_view> allowed) const {
+  std::vector<std::string> names(allowed.begin(), allowed.end());
+  for (const auto& l : layers_) {
+    if (!l.table) continue;
+    for (const auto& [k, v] : *l.table) {
+      bool ok = false;
+      for (const auto& a : names) ok = ok || a == k.str();
+      if (ok) continue;
+      const auto& src = k.source().begin.line ? k.source() : v.source();
+      throw Error(ErrorCategory::input, toml_where(l.file, src) + ": key '" + join_key(l.prefix, k.str()) +
+                                            "': unknown key" + util::did_you_mean(k.str(), names));
+    }
+  }
+}
+
+std::string Section::where(const Found& f) const { return toml_where(f.layer->file, f.node->source()); }
+
+std::string Section::key_path(const Found& f, std::string_view key) const { return join_key(f.layer->prefix, key); }
+
+std::string Section::where_missing(std::string_view key) const {
+  for (const auto& l : layers_)
+    if (l.table) return toml_where(l.file, l.table->source()) + ": key '" + join_key(l.prefix, key) + "'";
+  const auto& l = layers_.front();
+  return l.file + ": key '" + join_key(l.prefix, key) + "'";
+}
+
+void Section::fail(std::string_view key, const std::string& value, const std::string& expected) const {
+  if (auto f = find(key)) throw InputError(key_path(*f, key), value, expected, where(*f));
+  throw InputError(layers_.empty() ? std::string(key) : join_key(layers_.front().prefix, key), value, expected,
+                   layers_.empty() ? "" : layers_.front().file);
+}
+
+Section::Found Section::require(std::string_view key, std::string_view what) const {
+  if (auto f = find(key)) return *f;
+  throw Error(ErrorCategory::input, where_missing(key) + ": missing (expected " + std::string(what) + ")");
+}
+
+double Section::quantity(std::string_view key, units::Dimension d) const {
+  const std::string what = "a " + std::string(units::dimension_name(d)) + " value";
+  const Found f = require(key, what);
+  const std::string path = key_path(f, key);
+  std::string text;
+  if (auto s = f.node->as_string()) text = s->get();
+  else if (f.node->is_number()) text = toml_value_text(*f.node);
+  else throw InputError(path, toml_value_text(*f.node), what + " written as a string, e.g. '0.7 psi/ft'", where(f));
+  try {
+    return units::parse(text, d, path);
+  } catch (const InputError& e) {
+    throw e.located(where(f));
+  }
+}
+
+std::optional<double> Section::optional_quantity(std::string_view key, units::Dimension d) const {
+  if (!has(key)) return std::nullopt;
+  return quantity(key, d);
+}
+
+double Section::quantity_or(std::string_view key, units::Dimension d, double fallback) const {
+  return has(key) ? quantity(key, d) : fallback;
+}
+
+std::string Section::string(std::string_view key) const {
+  const Found f = require(key, "a string");
+  if (auto s = f.node->as_string()) return s->get();
+  throw InputError(key_path(f, key), toml_value_text(*f.node), "a string in quotes", where(f));
+}
+
+std::optional<std::string> Section::optional_string(std::string_view key) const {
+  if (!has(key)) return std::nullopt;
+  return string(key);
+}
+
+bool Section::boolean_or(std::string_view key, bool fallback) const {
+  const auto f = find(key);
+  if (!f) return fallback;
+  if (auto b = f->node->as_boolean()) return b->get();
+  throw InputError(key_path(*f, key), toml_value_text(*f->node), "true or false", where(*f));
+}
+
+std::int64_t Section::integer(std::string_view key) const {
+  const Found f = require(key, "an integer");
+  if (auto i = f.node->as_integer()) return i->get();
+  throw InputError(key_path(f, key), toml_value_text(*f.node), "an integer", where(f));
+}
+
+std::optional<std::int64_t> Section::optional_integer(std::string_view key) const {
+  if (!has(key)) return std::nullopt;
+  return integer(key);
+}
+
+std::optional<double> toml_number(const toml::node& n) {
+  if (auto i = n.as_integer()) return static_cast<double>(i->get());
+  if (auto x = n.as_floating_point()) return x->get();
+  return std::nullopt;
+}
+
+double Section::number(std::string_view key) const {
+  const Found f = require(key, "a number");
+  if (const auto v = toml_number(*f.node)) return *v;
+  throw InputError(key_path(f, key), toml_value_text(*f.node), "a number (without quotes)", where(f));
+}
+
+std::vector<std::pair<std::string, std::string>> Section::string_list(std::string_view key) const {
+  const Found f = require(key, "a list of strings");
+  std::vector<std::pair<std::string, std::string>> out;
+  if (auto s = f.node->as_string()) {
+    out.emplace_back(s->get(), where(f));
+    return out;
+  }
+  const toml::array* arr = f.node->as_array();
+  if (!arr) throw InputError(key_path(f, key), toml_value_text(*f.node), "a list of strings [\"...\", ...]", where(f));
+  for (std::size_t i = 0; i < arr->size(); ++i) {
+    const toml::node& n = *arr->get(i);
+    const std::string w = toml_where(f.layer->file, n.source());
+    if (auto s = n.as_string()) out.emplace_back(s->get(), w);
+    else throw InputError(key_path(f, key) + "[" + std::to_string(i) + "]", toml_value_text(n), "a string", w);
+  }
+  return out;
+}
+
+std::filesystem::path Section::path(std::string_view key) const {
+  const std::string rel = string(key);
+  const Found f = *find(key);
+  if (rel.empty()) throw InputError(key_path(f, key), rel, "a file path", where(f));
+  return (f.layer->dir / rel).lexically_normal();
+}
+
+std::filesystem::path Section::input_path(std::string_view key) const {
+  if (is_network_path(string(key))) {
+    const Found f = *find(key);
+    throw RefusedError(where(f) + ": refused: key '" + key_path(f, key) + "' = '" + string(key) +
+                       "': scenario inputs are local files (network paths are never read)");
+  }
+  const std::filesystem::path p = path(key);
+  std::error_code ec;
+  if (!std::filesystem::is_regular_file(p, ec)) {
+    const Found f = *find(key);
+    throw IoError(where(f) + ": key '" + key_path(f, key) + "' = '" + string(key) + "': no such file (" +
+                  p.generic_string() + ")");
+  }
+  return p;
+}
+
+}  // namespace slipscreen::formats

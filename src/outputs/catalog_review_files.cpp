@@ -1,0 +1,198 @@
+#include "outputs/catalog_review_files.hpp"
+
+#include <algorithm>
+#include <array>
+#include <map>
+#include <sstream>
+
+#include "core/units/units.hpp"
+#include "formats/files/text_file.hpp"
+#include "formats/table/csv.hpp"
+#include "formats/table/iso_time.hpp"
+#include "formats/table/number_text.hpp"
+#include "outputs/catalog_summary_json.hpp"
+#include "outputs/rt_tables.hpp"
+
+namespace slipscreen::outputs {
+namespace {
+
+constexpr double kMPa = 1e6;
+
+}  // namespace
+
+using formats::csv_field;
+using formats::fixed_decimals;
+using formats::format_iso8601_utc;
+using formats::write_text_file;
+
+nlohmann::json catalog_review_json(const scenario::ResolvedScenario& s, const screening::PreparedRun& p, const screening::CatalogReview& v) {
+  nlohmann::json j = catalog_summary_json(v.read, v.counts, v.summary);
+  const auto& fc = v.footprint;
+  std::size_t near_reached = 0, with_p = 0;
+  for (const auto& e : v.events) {
+    near_reached += e.segment_reached;
+    with_p += e.probability_time.has_value();
+  }
+  nlohmann::json fronts = nlohmann::json::array();
+  if (v.rt)
+    for (std::size_t i = 0; i < v.rt->diffusivities.size(); ++i)
+      fronts.push_back({{"diffusivity_m2_s", v.rt->diffusivities[i]}, {"fraction_inside", v.rt->fraction_inside[i]}});
+  j["against_model"] = {
+      {"scenario", s.file},
+      {"working_crs", p.working.authority()},
+      {"events_reviewed", v.events.size()},
+      {"footprint",
+       {{"threshold_MPa", v.spec.footprint_threshold / kMPa},
+        {"events_in_study_area", fc.events},
+        {"inside", fc.inside},
+        {"expected_by_chance", v.footprint_expected},
+        {"mean_area_fraction", fc.area_fraction},
+        {"p_value", fc.p_value},
+        {"method", "one-sided binomial tail with the mean area fraction (conservative, Hoeffding 1956)"}}},
+      {"events_whose_nearest_segment_reached_dp_crit", near_reached},
+      {"events_with_slip_probability", with_p},
+      {"rt_view",
+       v.rt ? nlohmann::json{{"well", v.rt->well},
+                             {"start", format_iso8601_utc(v.rt->start)},
+                             {"events_after_start", v.rt->points.size()},
+                             {"fronts", fronts},
+                             {"method", "triggering front r = sqrt(4 pi D t) (Shapiro et al. 1997)"}}
+            : nlohmann::json(nullptr)},
+      {"seismicity_rate", v.spec.rate_state ? nlohmann::json{{"method", "Dieterich (1994) rate-and-state, dCFF = mu dp"},
+                                                             {"background_rate_per_km_per_year",
+                                                              v.spec.background_rate_per_m * 1000.0 * units::kYear},
+                                                             {"a_sigma_MPa", v.spec.a_sigma / kMPa},
+                                                             {"aftershock_duration_years",
+                                                              v.spec.aftershock_duration / units::kYear}}
+                                            : nlohmann::json(nullptr)},
+      {"catalog_end", format_iso8601_utc(v.catalog_end)}};
+  for (const auto& a : v.assumptions) j["assumptions"].push_back(a);
+  return j;
+}
+
+nlohmann::json catalog_manifest(const screening::CatalogReview& v) {
+  const auto& c = v.spec;
+  const auto opt = [](const std::optional<double>& x) { return x ? nlohmann::json(*x) : nlohmann::json(nullptr); };
+  return {{"file", c.file},
+          {"format", v.read.format},
+          {"columns", c.columns},
+          {"strict", c.strict},
+          {"from_s", opt(c.from)},
+          {"to_s", opt(c.to)},
+          {"depth_min_m", opt(c.depth_min)},
+          {"depth_max_m", opt(c.depth_max)},
+          {"magnitude_types", c.magnitude_types},
+          {"well_buffer_m", opt(c.well_buffer)},
+          {"polygon_working_crs", c.polygon},
+          {"bin_width", c.bin_width},
+          {"mc_correction", c.mc_correction},
+          {"mc", opt(c.mc)},
+          {"bootstrap", c.bootstrap},
+          {"bootstrap_confidence", c.bootstrap_confidence},
+          {"shear_modulus_Pa", c.shear_modulus},
+          {"forecast_magnitudes", c.forecast_magnitudes},
+          {"length_regression", c.length_regression},
+          {"footprint_threshold_Pa", c.footprint_threshold},
+          {"rt_well", v.rt ? nlohmann::json(v.rt->well) : nlohmann::json(nullptr)},
+          {"rate_state", c.rate_state ? nlohmann::json{{"background_rate_per_m_per_s", c.background_rate_per_m},
+                                                       {"a_sigma_Pa", c.a_sigma},
+                                                       {"aftershock_duration_s", c.aftershock_duration}}
+                                      : nlohmann::json(nullptr)},
+          {"records", v.read.records},
+          {"unusable_records", v.read.rejected.size()},
+          {"events_kept", v.catalog.events.size()}};
+}
+
+namespace {
+
+std::string yes_no(bool b) { return b ? "yes" : "no"; }
+
+}  // namespace
+
+void write_catalog_review(const formats::RunFolder& folder, const scenario::ResolvedScenario& s, const screening::PreparedRun& p,
+                          const screening::CatalogReview& v) {
+  write_text_file(folder.output("catalog", "catalog_summary.json"),
+             catalog_review_json(s, p, v).dump(2, ' ', false, nlohmann::json::error_handler_t::replace) + "\n");
+  const bool seg = !p.segments.empty();
+  std::ostringstream ev;
+  ev << "event_id,time,x_m,y_m,depth_m,magnitude,magnitude_type,in_study_area,dp_MPa,in_footprint,"
+        "footprint_area_fraction,nearest_segment,nearest_fault,distance_m,segment_dp_MPa,segment_dp_crit_MPa,"
+        "segment_reached_dp_crit,p_slip,p_slip_low,p_slip_high,p_slip_date,rt_days_since_start,rt_distance_m,source\n";
+  for (std::size_t i = 0; i < v.events.size(); ++i) {
+    const auto& e = v.catalog.events[i];
+    const auto& m = v.events[i];
+    ev << csv_field(e.id) << "," << format_iso8601_utc(e.time) << "," << fixed_decimals(m.x, 1) << ","
+       << fixed_decimals(m.y, 1) << "," << (e.depth ? fixed_decimals(*e.depth, 1) : "") << ","
+       << fixed_decimals(e.magnitude, 2) << "," << csv_field(e.magnitude_type) << "," << yes_no(m.in_study_area) << ","
+       << fixed_decimals(m.dp / kMPa, 6) << "," << yes_no(m.dp >= v.spec.footprint_threshold) << ","
+       << fixed_decimals(m.footprint_fraction, 6) << ",";
+    if (seg)
+      ev << csv_field(p.segments[m.segment].segment_id) << "," << csv_field(p.segments[m.segment].fault_id) << ","
+         << fixed_decimals(m.distance, 1) << "," << fixed_decimals(m.segment_dp / kMPa, 6) << ","
+         << fixed_decimals(m.segment_dp_crit / kMPa, 6) << "," << yes_no(m.segment_reached) << ",";
+    else
+      ev << ",,,,,,";
+    if (m.probability_time)
+      ev << fixed_decimals(m.p_slip, 6) << "," << fixed_decimals(m.p_low, 6) << "," << fixed_decimals(m.p_high, 6) << ","
+         << util::format_iso_date(s.output.dates[*m.probability_time]) << ",";
+    else
+      ev << ",,,,";
+    ev << (m.rt_time ? fixed_decimals(*m.rt_time / units::kDay, 4) : "") << ","
+       << (m.rt_distance ? fixed_decimals(*m.rt_distance, 1) : "") << "," << csv_field(e.source) << "\n";
+  }
+  write_text_file(folder.output("catalog", "catalog_events.csv"), ev.str());
+  if (v.rt) {
+    write_text_file(folder.output("catalog", "rt_events.csv"), rt_events_csv(v.catalog, *v.rt));
+    write_text_file(folder.output("catalog", "rt_fronts.csv"), rt_fronts_csv(*v.rt));
+  }
+  if (!v.rates.empty()) {
+    const double yr = units::kYear;
+    std::ostringstream t;
+    t << "segment_id,fault_id,date,dcff_MPa,background_rate_per_year,rate_per_year,rate_ratio,"
+         "expected_events,background_expected_events\n";
+    // Per fault: rates and counts summed over its segments, largest ΔCFF.
+    std::map<std::string, std::vector<std::array<double, 5>>> faults;
+    std::vector<std::string> order;
+    const std::size_t K = s.output.times.size();
+    for (std::size_t i = 0; i < v.rates.size(); ++i) {
+      const auto& r = v.rates[i];
+      const auto& sg = p.segments[i];
+      auto [it, fresh] = faults.try_emplace(sg.fault_id, std::vector<std::array<double, 5>>(K, {0, 0, 0, 0, 0}));
+      if (fresh) order.push_back(sg.fault_id);
+      for (std::size_t k = 0; k < K; ++k) {
+        const double bg = r.background_rate * std::max(0.0, s.output.times[k] - r.history_start);
+        t << csv_field(sg.segment_id) << "," << csv_field(sg.fault_id) << ","
+          << util::format_iso_date(s.output.dates[k]) << ",";
+        if (r.samples.empty()) {
+          t << ",," << ",,,\n";
+          continue;
+        }
+        const auto& q = r.samples[k];
+        t << fixed_decimals(r.dcff[k] / kMPa, 6) << "," << fixed_decimals(r.background_rate * yr, 6) << ","
+          << fixed_decimals(q.rate * yr, 6) << "," << fixed_decimals(q.rate / r.background_rate, 6) << ","
+          << fixed_decimals(q.expected, 6) << "," << fixed_decimals(bg, 6) << "\n";
+        auto& a = it->second[k];
+        a[0] = std::max(a[0], r.dcff[k]);
+        a[1] += r.background_rate;
+        a[2] += q.rate;
+        a[3] += q.expected;
+        a[4] += bg;
+      }
+    }
+    write_text_file(folder.output("catalog", "seismicity_rate.csv"), t.str());
+    std::ostringstream ft;
+    ft << "fault_id,date,max_dcff_MPa,background_rate_per_year,rate_per_year,rate_ratio,expected_events,"
+          "background_expected_events\n";
+    for (const auto& id : order)
+      for (std::size_t k = 0; k < K; ++k) {
+        const auto& a = faults[id][k];
+        ft << csv_field(id) << "," << util::format_iso_date(s.output.dates[k]) << "," << fixed_decimals(a[0] / kMPa, 6)
+           << "," << fixed_decimals(a[1] * yr, 6) << "," << fixed_decimals(a[2] * yr, 6) << ","
+           << (a[1] > 0 ? fixed_decimals(a[2] / a[1], 6) : "") << "," << fixed_decimals(a[3], 6) << ","
+           << fixed_decimals(a[4], 6) << "\n";
+      }
+    write_text_file(folder.output("catalog", "seismicity_rate_faults.csv"), ft.str());
+  }
+}
+
+}  // namespace slipscreen::outputs

@@ -1,0 +1,27 @@
+#include "outputs/pressure_raster.hpp"
+
+#include "core/caution.hpp"
+#include "formats/gis/geotiff.hpp"
+#include "outputs/output_text.hpp"
+
+namespace slipscreen::outputs {
+
+void write_pressure_raster(const formats::RunFolder& folder, const scenario::ResolvedScenario& s,
+                           const screening::PreparedRun& p, const screening::PressureMap& map) {
+  std::vector<formats::RasterBand> bands(map.dp.size());
+  for (std::size_t k = 0; k < bands.size(); ++k) {
+    bands[k].description = util::format_iso_date(s.output.dates[k]);
+    bands[k].values.resize(map.dp[k].size());
+    for (std::size_t c = 0; c < map.dp[k].size(); ++c) bands[k].values[c] = static_cast<float>(map.dp[k][c] / kMPa);
+  }
+  formats::GeoTiffOptions opt;
+  opt.cloud_optimized = s.output.cog;
+  opt.unit = "MPa";
+  opt.metadata = {{"QUANTITY", "pore-pressure change from injection (Theis superposition), MPa"},
+                  {"CAUTION", kScreeningCaution},
+                  {"SCENARIO", s.file}};
+  formats::write_geotiff(folder.output("output.files.pressure_raster", s.output.files.pressure_raster), p.grid,
+                         p.working, bands, opt);
+}
+
+}  // namespace slipscreen::outputs

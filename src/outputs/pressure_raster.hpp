@@ -1,0 +1,14 @@
+#pragma once
+// pressure_change.tif: Δp (MPa) over the output grid, one Float32 band per output time, band
+// descriptions = ISO dates (docs/outputs.md).
+#include "formats/files/run_folder.hpp"
+#include "scenario/scenario.hpp"
+#include "screening/pressure_map.hpp"
+#include "screening/prepare.hpp"
+
+namespace slipscreen::outputs {
+
+void write_pressure_raster(const formats::RunFolder& folder, const scenario::ResolvedScenario& s,
+                           const screening::PreparedRun& p, const screening::PressureMap& map);
+
+}  // namespace slipscreen::outputs

@@ -1,0 +1,20 @@
+#pragma once
+// The probabilistic screen's files in a run folder (screening/probabilistic_screen.hpp;
+// docs/outputs.md): segment_probability.csv, segment_probability_summary.csv, sensitivity.csv,
+// median_well_shares.csv, slip_probability_dangerous.tif and slip_probability_oriented.tif.
+#include <nlohmann/json.hpp>
+
+#include "formats/files/run_folder.hpp"
+#include "scenario/scenario.hpp"
+#include "screening/prepare.hpp"
+#include "screening/probabilistic_screen.hpp"
+
+namespace slipscreen::outputs {
+
+void write_probabilistic_outputs(const formats::RunFolder& folder, const scenario::ResolvedScenario& s,
+                                 const screening::PreparedRun& p, const screening::ProbabilisticRun& run);
+
+// The probabilistic block of the manifest.
+nlohmann::json probabilistic_manifest(const screening::ProbabilisticRun& run);
+
+}  // namespace slipscreen::outputs

@@ -1,0 +1,54 @@
+#include "outputs/run_outputs.hpp"
+
+#include "core/caution.hpp"
+#include "formats/files/manifest.hpp"
+#include "outputs/catalog_review_files.hpp"
+#include "outputs/gis_layers.hpp"
+#include "outputs/output_text.hpp"
+#include "outputs/pressure_raster.hpp"
+#include "outputs/probabilistic_tables.hpp"
+#include "outputs/screen_tables.hpp"
+
+namespace slipscreen::outputs {
+namespace {
+
+nlohmann::json run_block(const screening::PreparedRun& p, const screen::ScreenResult& r) {
+  const auto& st = p.inputs.stress;
+  return {{"screen", "deterministic"},
+          {"tracking_grid", screening::kTrackingGridStatement},
+          {"tracked_times", r.tracked_times.size()},
+          {"faults", p.fault_count},
+          {"segments", p.segments.size()},
+          {"wells", p.wells.size()},
+          {"meridian_convergence_deg", p.convergence_rad * kRadToDeg},
+          {"stress_at_reference_depth_Pa",
+           {{"sv", st.sv}, {"shmax", st.shmax}, {"shmin", st.shmin}, {"pore_pressure", st.pore_pressure}}},
+          {"theis", {{"diffusivity_m2_per_s", p.inputs.formation.diffusivity},
+                     {"pressure_per_rate_Pa_s_per_m3", p.inputs.formation.pressure_per_rate}}},
+          {"well_radius_clamped", r.radius_clamped}};
+}
+
+}  // namespace
+
+void write_run_outputs(const formats::RunFolder& folder, const scenario::ResolvedScenario& s, const RunResults& r,
+                       const OutputOptions& o) {
+  const auto& p = r.prepared;
+  if (s.output.tables) write_screen_tables(folder, s, p, r.screen);
+  if (s.output.rasters && r.pressure) write_pressure_raster(folder, s, p, *r.pressure);
+  if (s.output.geopackage) write_gis_layers(folder, s, p, r.screen, o.reproducible, r.probabilistic, r.review);
+  if (r.probabilistic) write_probabilistic_outputs(folder, s, p, *r.probabilistic);
+  if (r.review) write_catalog_review(folder, s, p, *r.review);
+
+  formats::ManifestContent m;
+  m.command_line = o.command_line;
+  m.seed = s.seed;
+  m.caution = kScreeningCaution;
+  m.include_timestamp = !o.reproducible;
+  m.inputs = p.manifest_inputs;
+  m.parameters = {{"scenario", scenario::to_json(s)}, {"run", run_block(p, r.screen)}};
+  if (r.probabilistic) m.parameters["probabilistic"] = probabilistic_manifest(*r.probabilistic);
+  if (r.review) m.parameters["catalog"] = catalog_manifest(*r.review);
+  formats::write_manifest(folder.output("output.files.manifest", s.output.files.manifest), m, folder.staging());
+}
+
+}  // namespace slipscreen::outputs

@@ -1,0 +1,97 @@
+#include "outputs/screen_tables.hpp"
+
+#include <cmath>
+
+#include "formats/files/text_file.hpp"
+#include "formats/table/csv.hpp"
+#include "formats/table/number_text.hpp"
+#include "outputs/output_text.hpp"
+
+namespace slipscreen::outputs {
+
+using formats::append_fixed;
+using formats::csv_field;
+using formats::fixed_decimals;
+using formats::RunFolder;
+using scenario::ResolvedScenario;
+using screening::PreparedRun;
+
+void write_screen_tables(const RunFolder& folder, const ResolvedScenario& s, const PreparedRun& p,
+                  const screen::ScreenResult& r) {
+  const std::size_t W = p.wells.size(), K = s.output.times.size();
+  {
+    formats::TextFileWriter t(folder.output("output.files.segment_times", s.output.files.segment_times));
+    t.row({"segment_id", "fault_id", "date", "dp_MPa", "dp_crit_MPa", "margin_MPa", "dp_reaches_dp_crit",
+           "check_point", "leading_well", "leading_well_share"});
+    for (std::size_t i = 0; i < r.segments.size(); ++i) {
+      const auto& g = r.segments[i];
+      for (std::size_t k = 0; k < K; ++k) {
+        std::size_t lead = 0;
+        for (std::size_t w = 1; w < W; ++w)
+          if (g.well_share[k * W + w] > g.well_share[k * W + lead]) lead = w;
+        const bool has = W > 0 && g.dp[k] > 0;
+        t.row({p.segments[i].segment_id, p.segments[i].fault_id, util::format_iso_date(s.output.dates[k]),
+               fixed_decimals(g.dp[k] / kMPa, 6), fixed_decimals(g.dp_crit / kMPa, 6),
+               fixed_decimals((g.dp_crit - g.dp[k]) / kMPa, 6), g.dp[k] >= g.dp_crit ? "yes" : "no",
+               std::to_string(g.dp_point[k]), has ? p.wells[lead].id : "",
+               has ? fixed_decimals(g.well_share[k * W + lead], 6) : ""});
+      }
+    }
+    t.close();
+  }
+  {
+    const std::filesystem::path name = std::filesystem::path(s.output.files.segment_times).parent_path() / "well_shares.csv";
+    formats::TextFileWriter t(folder.output("output.files.segment_times", name.generic_string()));
+    t.row({"segment_id", "date", "well_id", "dp_MPa", "share"});
+    // W rows per segment and time (8 million in a regional screen): formatted into one buffer.
+    std::vector<std::string> dates, wells;
+    for (const auto& d : s.output.dates) dates.push_back(csv_field(util::format_iso_date(d)) + ',');
+    for (const auto& w : p.wells) wells.push_back(csv_field(w.id) + ',');
+    std::string buf;
+    for (std::size_t i = 0; i < r.segments.size(); ++i) {
+      const auto& g = r.segments[i];
+      const std::string seg = csv_field(p.segments[i].segment_id) + ',';
+      for (std::size_t k = 0; k < K; ++k)
+        for (std::size_t w = 0; w < W; ++w) {
+          buf += seg;
+          buf += dates[k];
+          buf += wells[w];
+          append_fixed(buf, g.dp[k] * g.well_share[k * W + w] / kMPa, 6);
+          buf += ',';
+          append_fixed(buf, g.well_share[k * W + w], 6);
+          buf += '\n';
+        }
+      if (buf.size() > (1u << 20)) {
+        t.write(buf);
+        buf.clear();
+      }
+    }
+    t.write(buf);
+    t.close();
+  }
+  {
+    formats::TextFileWriter t(folder.output("output.files.segments", s.output.files.segments));
+    t.row({"segment_id", "fault_id", "segment_index", "length_m", "centre_x_m", "centre_y_m", "strike_deg",
+           "dip_deg", "friction", "sigma_n_MPa", "sigma_n_eff_MPa", "tau_MPa", "slip_tendency", "dilation_tendency",
+           "slip_sense", "dp_crit_MPa", "status", "dp_final_MPa", "peak_dp_MPa", "peak_date", "margin_MPa",
+           "first_crossing_date"});
+    for (std::size_t i = 0; i < r.segments.size(); ++i) {
+      const auto& g = r.segments[i];
+      const auto& seg = p.segments[i];
+      double strike = p.inputs.segments[i].strike * kRadToDeg;
+      strike = std::fmod(strike + 360.0, 360.0);
+      t.row({seg.segment_id, seg.fault_id, std::to_string(seg.index), fixed_decimals(seg.trace.length_m, 1),
+             fixed_decimals(seg.trace.centre.x, 1), fixed_decimals(seg.trace.centre.y, 1), fixed_decimals(strike, 2),
+             fixed_decimals(seg.dip_rad * kRadToDeg, 2), fixed_decimals(g.friction, 3),
+             fixed_decimals(g.normal_stress / kMPa, 4), fixed_decimals(g.effective_normal_stress / kMPa, 4),
+             fixed_decimals(g.shear_stress / kMPa, 4), fixed_decimals(g.slip_tendency, 4),
+             fixed_decimals(g.dilation_tendency, 4), geomech::to_string(g.sense), fixed_decimals(g.dp_crit / kMPa, 6),
+             status_text(g.status), fixed_decimals(g.dp.back() / kMPa, 6), fixed_decimals(g.peak_dp / kMPa, 6),
+             g.peak_dp > 0 ? date_of(g.peak_time) : "", fixed_decimals((g.dp_crit - g.peak_dp) / kMPa, 6),
+             g.first_crossing ? date_of(*g.first_crossing) : ""});
+    }
+    t.close();
+  }
+}
+
+}  // namespace slipscreen::outputs

@@ -1,0 +1,40 @@
+#include "run/catalog_job.hpp"
+
+#include "core/errors.hpp"
+#include "formats/catalog/volume_history_csv.hpp"
+#include "formats/files/run_folder.hpp"
+#include "outputs/catalog_folder.hpp"
+#include "outputs/catalog_summary_json.hpp"
+
+namespace slipscreen::run {
+
+CatalogJobResult run_catalog_job(const CatalogJob& job) {
+  seismo::SummaryOptions so = job.summary;
+  if (!job.volume_history.empty()) so.volume_history = formats::read_volume_history_csv(job.volume_history);
+  double rt_start = 0.0;
+  if (job.rt) {
+    if (job.rt->start) rt_start = *job.rt->start;
+    else if (so.volume_history) rt_start = so.volume_history->time.front();
+    else throw InputError("--start", "", "the injection start time (ISO 8601) for the r-t view, or --volume-history");
+  }
+  // Refuse an existing folder before reading (RunFolder checks again when created).
+  if (!job.out.empty() && !job.force && std::filesystem::exists(job.out))
+    throw RefusedError("output folder '" + job.out.generic_string() +
+                       "' exists; choose another or add --force to replace it");
+
+  CatalogJobResult r;
+  r.read = formats::read_catalog(job.file, job.format, job.columns, job.strict);
+  r.filtered = seismo::apply_filter(r.read.catalog, job.filter);
+  r.summary = seismo::summarize_catalog(r.filtered.catalog, so);
+  if (job.rt) r.rt = screening::make_rt_view(r.filtered.catalog, job.rt->well, rt_start, job.rt->diffusivities);
+  r.json = outputs::catalog_summary_json(r.read, r.filtered.counts, r.summary);
+  r.json["rt_view"] = r.rt ? outputs::rt_view_json(*r.rt) : nlohmann::json(nullptr);
+  if (!job.out.empty()) {
+    formats::RunFolder folder(job.out, formats::RunFolderOptions{job.force});
+    outputs::write_catalog_folder(folder, r.json, r.filtered.catalog, r.rt);
+    folder.commit();
+  }
+  return r;
+}
+
+}  // namespace slipscreen::run

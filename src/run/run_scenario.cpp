@@ -1,0 +1,87 @@
+#include "run/run_scenario.hpp"
+
+#include <algorithm>
+
+#include "core/errors.hpp"
+#include "formats/files/run_folder.hpp"
+#include "outputs/run_outputs.hpp"
+#include "scenario/uncertainty.hpp"
+#include "screening/catalog_review.hpp"
+#include "screening/prepare.hpp"
+#include "screening/pressure_map.hpp"
+#include "screening/probabilistic_screen.hpp"
+
+namespace slipscreen::run {
+
+std::filesystem::path run_folder_of(const scenario::ResolvedScenario& s, const RunOptions& o) {
+  if (!o.out.empty()) return o.out;
+  if (s.output.folder.empty())
+    throw RefusedError(s.file + ": no run folder: set [output] folder in the scenario or give --out");
+  return std::filesystem::path(s.output.folder);
+}
+
+namespace {
+
+struct ProgressBridge {
+  const RunOptions* options;
+};
+
+void report(double fraction, void* user) {
+  const auto* b = static_cast<ProgressBridge*>(user);
+  if (b->options->progress) b->options->progress("pressure at fault segments", fraction);
+}
+
+std::vector<std::string> files_in(const std::filesystem::path& folder) {
+  std::vector<std::string> files;
+  for (const auto& e : std::filesystem::recursive_directory_iterator(folder))
+    if (e.is_regular_file()) files.push_back(e.path().lexically_relative(folder).generic_string());
+  std::sort(files.begin(), files.end());
+  return files;
+}
+
+}  // namespace
+
+RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o) {
+  const std::filesystem::path target = run_folder_of(s, o);
+  const auto stage = [&](const char* name) {
+    if (o.progress) o.progress(name, -1.0);
+  };
+  stage("reading faults and wells");
+  const screening::PreparedRun prepared = screening::prepare_run(s, o.allow_network);
+  // Refuse an existing folder before computing (RunFolder checks again when created).
+  if (!o.force && std::filesystem::exists(target))
+    throw RefusedError("run folder '" + target.generic_string() +
+                       "' exists: choose another folder or give --force to replace it");
+  const scenario::UncertaintySpec spec = scenario::load_uncertainty(s);
+
+  ProgressBridge bridge{&o};
+  stage("pressure at fault segments");
+  const screen::ScreenResult result = screen::deterministic_screen(prepared.inputs, &report, &bridge);
+  std::optional<screening::ProbabilisticRun> prob;
+  if (spec.given) {
+    stage("probabilistic screen");
+    prob = screening::run_probabilistic_screen(s, prepared, spec);
+  }
+  std::optional<screening::CatalogReview> review;
+  if (s.catalog) {
+    stage("catalog review");
+    review = screening::review_catalog(s, prepared, result, prob ? &*prob : nullptr);
+  }
+
+  stage("writing outputs");
+  std::optional<screening::PressureMap> pressure;
+  if (s.output.rasters) pressure = screening::pressure_map(s, prepared);
+  formats::RunFolder folder(target, formats::RunFolderOptions{o.force});
+  outputs::write_run_outputs(folder, s,
+                             {prepared, result, pressure ? &*pressure : nullptr, prob ? &*prob : nullptr,
+                              review ? &*review : nullptr},
+                             {o.command_line, o.reproducible});
+  folder.commit();
+
+  RunSummary summary = screening::summarize_run(s, prepared, result, prob ? &*prob : nullptr, std::move(review));
+  summary.folder = target;
+  summary.files = files_in(target);
+  return summary;
+}
+
+}  // namespace slipscreen::run

@@ -1,0 +1,33 @@
+#pragma once
+// Running a scenario end to end (docs/outputs.md): load and check every input, prepare the run,
+// compute the screens and the catalog review, write every output into one run folder that
+// appears all at once (formats/files/run_folder.hpp), and return what the console summary needs.
+#include <filesystem>
+#include <functional>
+#include <string>
+#include <vector>
+
+#include "scenario/scenario.hpp"
+#include "screening/run_summary.hpp"
+
+namespace slipscreen::run {
+
+struct RunOptions {
+  std::filesystem::path out;   // run folder; empty: the scenario's output.folder (from the working directory)
+  bool force = false;          // replace an existing run folder
+  bool allow_network = false;  // GDAL network paths in the scenario
+  bool reproducible = false;   // no creation time in the manifest, fixed GeoPackage timestamp
+  std::vector<std::string> command_line;
+  // Progress: a stage name and the fraction of the pressure computation done.
+  std::function<void(const std::string& stage, double fraction)> progress;
+};
+
+using screening::RunSummary;
+
+// Throws the typed errors of the inputs; nothing is left behind when it throws.
+RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o);
+
+// The run folder a scenario writes to with these options (RefusedError when none is given).
+std::filesystem::path run_folder_of(const scenario::ResolvedScenario& s, const RunOptions& o);
+
+}  // namespace slipscreen::run

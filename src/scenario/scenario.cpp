@@ -1,0 +1,377 @@
+#include "scenario/scenario.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <nlohmann/json.hpp>
+
+#include "core/errors.hpp"
+#include "formats/files/path_policy.hpp"
+#include "formats/toml/toml_section.hpp"
+#include "scenario/catalog_section.hpp"
+#include "scenario/wells.hpp"
+
+namespace slipscreen::scenario {
+
+using units::Dimension;
+namespace fs = std::filesystem;
+
+namespace {
+
+// A file name inside the run folder: relative, no "..", no network or virtual path
+// (io/path_policy.hpp), refused with the place of the key.
+void check_output_name(const formats::Section& s, std::string_view key, const std::string& name) {
+  const auto f = s.find(key);
+  try {
+    formats::safe_relative_output(s.key_path(*f, key), name);
+  } catch (const RefusedError& e) {
+    throw RefusedError(s.where(*f) + ": refused: key " + e.what());
+  }
+}
+
+struct Step {
+  int months = 0;
+  int days = 0;
+};
+
+Step parse_step(const formats::Section& s, std::string_view key) {
+  const std::string text = s.string(key);
+  const std::string expected = "a calendar step such as '1 year', '6 months', '30 days' or '1 week'";
+  std::size_t pos = 0;
+  int n = 0;
+  try {
+    n = std::stoi(text, &pos);
+  } catch (...) {
+    s.fail(key, text, expected);
+  }
+  std::string unit = formats::trim(std::string_view(text).substr(pos));
+  if (n <= 0) s.fail(key, text, "a positive whole number of days, weeks, months or years");
+  if (unit == "year" || unit == "years" || unit == "yr") return {12 * n, 0};
+  if (unit == "month" || unit == "months" || unit == "mo") return {n, 0};
+  if (unit == "week" || unit == "weeks") return {0, 7 * n};
+  if (unit == "day" || unit == "days" || unit == "d") return {0, n};
+  s.fail(key, text, expected);
+}
+
+util::CivilDate parse_date_value(const std::string& text, const std::string& where, const std::string& field) {
+  if (auto d = util::parse_iso_date(text)) return *d;
+  throw InputError(field, text, "a date as YYYY-MM-DD, e.g. 2030-01-01", where);
+}
+
+std::vector<util::CivilDate> read_times(const formats::Section& s) {
+  s.allow({"dates", "start", "end", "step"});
+  std::vector<util::CivilDate> dates;
+  if (s.has("dates")) {
+    for (auto k : {"start", "end", "step"})
+      if (s.has(k)) s.fail(k, "(set)", "either 'dates' or 'start', 'end' and 'step', not both");
+    const auto f = *s.find("dates");
+    // TOML local dates (2030-01-01 without quotes) and strings are both accepted.
+    if (const toml::array* arr = f.node->as_array()) {
+      for (std::size_t i = 0; i < arr->size(); ++i) {
+        const toml::node& n = *arr->get(i);
+        const std::string w = formats::toml_where(f.layer->file, n.source());
+        const std::string field = s.key_path(f, "dates") + "[" + std::to_string(i) + "]";
+        if (auto d = n.as_date()) dates.push_back({d->get().year, d->get().month, d->get().day});
+        else if (auto str = n.as_string()) dates.push_back(parse_date_value(str->get(), w, field));
+        else throw InputError(field, formats::toml_value_text(n), "a date YYYY-MM-DD", w);
+      }
+    } else {
+      s.fail("dates", formats::toml_value_text(*f.node), "a list of dates [\"2030-01-01\", ...]");
+    }
+  } else {
+    const auto date_of = [&](std::string_view key) -> util::CivilDate {
+      const auto f = s.find(key);
+      if (!f) throw Error(ErrorCategory::input, s.where_missing(key) + ": missing (expected 'dates', or 'start', 'end' and 'step')");
+      if (auto d = f->node->as_date()) return {d->get().year, d->get().month, d->get().day};
+      return parse_date_value(s.string(key), s.where(*f), s.key_path(*f, key));
+    };
+    const util::CivilDate start = date_of("start");
+    const util::CivilDate end = date_of("end");
+    const Step step = parse_step(s, "step");
+    if (!(end > start)) s.fail("end", util::format_iso_date(end), "a date after 'start'");
+    for (int i = 0;; ++i) {
+      util::CivilDate d = step.months ? util::add_months(start, step.months * i)
+                                      : util::civil_from_days(util::days_from_civil(start) + static_cast<std::int64_t>(step.days) * i);
+      if (d > end) break;
+      dates.push_back(d);
+      if (dates.size() > 1000) s.fail("step", s.string("step"), "at most 1000 output times");
+    }
+  }
+  if (dates.empty()) s.fail("dates", "[]", "at least one output date");
+  for (std::size_t i = 1; i < dates.size(); ++i)
+    if (!(dates[i] > dates[i - 1]))
+      s.fail("dates", util::format_iso_date(dates[i]), "dates in increasing order, each once");
+  return dates;
+}
+
+OutputGrid read_grid(const formats::Section& s) {
+  s.allow({"extent", "margin", "cell_size", "crs"});
+  OutputGrid g;
+  g.cell_size = s.quantity_or("cell_size", Dimension::length, g.cell_size);
+  if (!(g.cell_size > 0)) s.fail("cell_size", std::to_string(g.cell_size), "a cell size greater than zero");
+  g.margin = s.quantity_or("margin", Dimension::length, g.margin);
+  if (g.margin < 0) s.fail("margin", std::to_string(g.margin), "a margin >= 0");
+  g.crs = s.optional_string("crs").value_or("");
+  if (auto f = s.find("extent")) {
+    if (auto str = f->node->as_string(); str && str->get() == "auto") return g;
+    const toml::array* a = f->node->as_array();
+    bool ok = a && a->size() == 4;
+    for (std::size_t i = 0; ok && i < 4; ++i) ok = a->get(i)->is_number();
+    if (!ok) s.fail("extent", formats::toml_value_text(*f->node), "\"auto\" or [xmin, ymin, xmax, ymax] in the grid CRS");
+    g.automatic_extent = false;
+    g.xmin = a->get(0)->value<double>().value();
+    g.ymin = a->get(1)->value<double>().value();
+    g.xmax = a->get(2)->value<double>().value();
+    g.ymax = a->get(3)->value<double>().value();
+    if (!(g.xmax > g.xmin && g.ymax > g.ymin)) s.fail("extent", formats::toml_value_text(*f->node), "xmax > xmin and ymax > ymin");
+    const double cells = std::ceil((g.xmax - g.xmin) / g.cell_size) * std::ceil((g.ymax - g.ymin) / g.cell_size);
+    if (cells > 2.5e7) s.fail("cell_size", std::to_string(g.cell_size) + " m", "at most 25 million cells over the extent");
+  }
+  return g;
+}
+
+OutputSpec read_output(const formats::Section& s) {
+  s.allow({"folder", "tables", "rasters", "geopackage", "cog", "times", "grid", "files"});
+  OutputSpec o;
+  o.folder = s.optional_string("folder").value_or("");
+  if (!o.folder.empty()) check_output_name(s, "folder", o.folder);
+  o.tables = s.boolean_or("tables", true);
+  o.rasters = s.boolean_or("rasters", true);
+  o.geopackage = s.boolean_or("geopackage", true);
+  o.cog = s.boolean_or("cog", false);
+  if (o.cog && !o.rasters) s.fail("cog", "true", "rasters = true (a COG is a raster output)");
+  o.dates = read_times(s.child("times"));
+  for (const auto& d : o.dates) o.times.push_back(util::to_seconds(d));
+  o.grid = read_grid(s.child("grid"));
+  const formats::Section f = s.child("files");
+  f.allow({"segment_times", "segments", "pressure_raster", "geopackage"});
+  const auto name = [&](std::string_view key, std::string& target) {
+    if (!f.has(key)) return;
+    target = f.string(key);
+    check_output_name(f, key, target);
+  };
+  name("segment_times", o.files.segment_times);
+  name("segments", o.files.segments);
+  name("pressure_raster", o.files.pressure_raster);
+  name("geopackage", o.files.geopackage);
+  return o;
+}
+
+WellSpec read_proposed(const formats::Section& s, const std::string& default_crs) {
+  s.allow({"id", "x", "y", "lon", "lat", "crs", "top", "bottom", "radius", "schedule"});
+  WellSpec w;
+  w.id = s.string("id");
+  w.proposed = true;
+  w.status = WellStatus::proposed;
+  const bool lonlat = s.has("lon") || s.has("lat");
+  w.x = s.number(lonlat ? "lon" : "x");
+  w.y = s.number(lonlat ? "lat" : "y");
+  w.crs = s.optional_string("crs").value_or(lonlat ? "EPSG:4326" : default_crs);
+  w.top = s.quantity("top", Dimension::length);
+  w.bottom = s.quantity("bottom", Dimension::length);
+  if (!(w.bottom > w.top)) s.fail("bottom", std::to_string(w.bottom) + " m", "a depth below 'top'");
+  w.radius = s.quantity("radius", Dimension::length);
+  if (!(w.radius > 0 && w.radius < 5)) s.fail("radius", std::to_string(w.radius) + " m", "a well radius between 0 and 5 m");
+  const auto f = *s.find("id");
+  w.source = s.where(f);
+  const auto entries = s.string_list("schedule");
+  for (std::size_t i = 0; i < entries.size(); ++i)
+    w.periods.push_back(parse_schedule_entry(entries[i].first, entries[i].second,
+                                             s.key_path(f, "schedule") + "[" + std::to_string(i) + "]"));
+  check_periods(w);
+  return w;
+}
+
+}  // namespace
+
+ResolvedScenario load_scenario(const fs::path& path) {
+  ResolvedScenario sc;
+  sc.path = path;
+  sc.file = formats::display_name(path);
+  const formats::TomlDocument doc = formats::parse_toml_file(path, sc.file);
+  sc.document = doc.root;
+  sc.inputs.push_back(path);
+  const fs::path dir = path.parent_path();
+  const formats::Section top({{doc.root.get(), sc.file, "", dir}});
+  top.allow({"title", "seed", "region", "wells", "histories", "proposed_well", "output", "uncertainty",
+             "catalog"});
+  sc.title = top.optional_string("title").value_or("");
+  if (auto seed = top.optional_integer("seed")) {
+    if (*seed < 0) top.fail("seed", std::to_string(*seed), "a seed >= 0");
+    sc.seed = static_cast<std::uint64_t>(*seed);
+  }
+
+  // Region, with any overrides from [region.override].
+  const formats::Section reg = top.child("region");
+  reg.allow({"file", "override"});
+  const fs::path region_path = reg.input_path("file");
+  const formats::Section over = reg.child("override");
+  sc.region = load_region(region_path, formats::display_name(region_path), over.layers().front().table, sc.file,
+                          "region.override", dir);
+  sc.inputs.push_back(region_path);
+
+  // Wells and histories.
+  const formats::Section wells = top.child("wells");
+  wells.allow({"file", "crs"});
+  const std::string wells_crs = wells.optional_string("crs").value_or("");
+  if (wells.has("file")) {
+    const fs::path p = wells.input_path("file");
+    sc.wells_file = formats::display_name(p);
+    sc.wells_path = p;
+    sc.wells = read_wells(formats::read_csv(p, sc.wells_file), wells_crs);
+    sc.inputs.push_back(p);
+  }
+  const formats::Section hist = top.child("histories");
+  hist.allow({"file", "continue_active_until"});
+  if (hist.has("file")) {
+    if (sc.wells.empty()) hist.fail("file", hist.string("file"), "a [wells] file that the histories refer to");
+    const fs::path p = hist.input_path("file");
+    sc.histories_file = formats::display_name(p);
+    sc.histories_path = p;
+    read_histories(formats::read_csv(p, sc.histories_file), sc.wells);
+    sc.inputs.push_back(p);
+  }
+  if (auto f = hist.find("continue_active_until")) {
+    const std::string text = hist.string("continue_active_until");
+    const auto d = util::parse_iso_date(text);
+    if (!d) throw InputError(hist.key_path(*f, "continue_active_until"), text, "a date as YYYY-MM-DD", hist.where(*f));
+    continue_active_wells(sc.wells, util::to_seconds(*d), hist.where(*f));
+  }
+
+  // Proposed wells with inline schedules.
+  if (auto f = top.find("proposed_well")) {
+    const toml::array* arr = f->node->as_array();
+    if (!arr || !arr->is_array_of_tables())
+      top.fail("proposed_well", formats::toml_value_text(*f->node), "an array of tables [[proposed_well]]");
+    for (std::size_t i = 0; i < arr->size(); ++i) {
+      const formats::Section ps({{arr->get(i)->as_table(), sc.file, "proposed_well[" + std::to_string(i) + "]", dir}});
+      WellSpec w = read_proposed(ps, wells_crs.empty() ? sc.region.crs : wells_crs);
+      for (const auto& other : sc.wells)
+        if (other.id == w.id) ps.fail("id", w.id, "a well id not used by another well (" + other.source + ")");
+      sc.wells.push_back(std::move(w));
+    }
+  }
+  if (sc.wells.empty())
+    throw Error(ErrorCategory::input, sc.file + ": no wells: expected a [wells] file or a [[proposed_well]]");
+
+  sc.output = read_output(top.child("output"));
+
+  if (top.has("catalog")) {
+    sc.catalog = read_catalog_spec(top.child("catalog"), sc.wells);
+    sc.inputs.push_back(sc.catalog->path);
+  }
+
+  if (auto u = top.find("uncertainty")) {
+    if (!u->node->is_table()) top.fail("uncertainty", formats::toml_value_text(*u->node), "a table [uncertainty]");
+    sc.uncertainty = u->node->as_table();
+  }
+  return sc;
+}
+
+namespace {
+
+nlohmann::json num(double v) { return std::isnan(v) ? nlohmann::json(nullptr) : nlohmann::json(v); }
+
+}  // namespace
+
+nlohmann::json to_json(const ResolvedScenario& s) {
+  using nlohmann::json;
+  const auto& r = s.region;
+  json stress = {{"vertical_gradient_Pa_per_m", num(r.stress.vertical_gradient)},
+                 {"shmax_azimuth_rad", num(r.stress.shmax_azimuth)}};
+  if (!r.stress.density_layers.empty()) {
+    json layers = json::array();
+    for (const auto& l : r.stress.density_layers) layers.push_back({{"top_m", l.top}, {"density_kg_per_m3", l.density}});
+    stress["density_layers"] = layers;
+  }
+  switch (r.stress.model) {
+    case StressModel::gradients:
+      stress["model"] = "gradients";
+      stress["shmax_gradient_Pa_per_m"] = num(r.stress.shmax_gradient);
+      stress["shmin_gradient_Pa_per_m"] = num(r.stress.shmin_gradient);
+      break;
+    case StressModel::uniaxial_strain:
+      stress["model"] = "uniaxial_strain";
+      stress["poisson_ratio"] = num(r.stress.poisson_ratio);
+      stress["biot"] = num(r.stress.biot);
+      stress["young_modulus_Pa"] = num(r.stress.young_modulus);
+      stress["strain_shmin"] = num(r.stress.strain_shmin);
+      stress["strain_shmax"] = num(r.stress.strain_shmax);
+      stress["tectonic_shmin_Pa"] = num(r.stress.tectonic_shmin);
+      stress["tectonic_shmax_Pa"] = num(r.stress.tectonic_shmax);
+      break;
+    case StressModel::a_phi:
+      stress["model"] = "a_phi";
+      stress["a_phi"] = num(r.stress.a_phi);
+      stress["equilibrium_friction"] = num(r.stress.equilibrium_friction);
+      break;
+  }
+  const auto& fm = r.formation;
+  json formation = {{"name", fm.name},
+                    {"diffusivity_m2_per_s", num(fm.diffusivity())},
+                    {"mobility_thickness_m3_per_Pa_s", num(fm.mobility_thickness())},
+                    {"fluid_density_kg_per_m3", num(fm.fluid_density)}};
+  if (fm.from_transmissivity) {
+    formation["transmissivity_m2_per_s"] = num(fm.transmissivity);
+    formation["storativity"] = num(fm.storativity);
+  } else {
+    formation["permeability_m2"] = num(fm.permeability);
+    formation["thickness_m"] = num(fm.thickness);
+    formation["porosity"] = num(fm.porosity);
+    formation["total_compressibility_per_Pa"] = num(fm.total_compressibility);
+    formation["viscosity_Pa_s"] = num(fm.viscosity);
+  }
+  json bounds = json::array();
+  for (const auto& b : fm.boundaries)
+    bounds.push_back({{"kind", b.kind == BoundarySpec::Kind::no_flow ? "no_flow" : "constant_pressure"},
+                      {"from", {b.x1, b.y1}}, {"to", {b.x2, b.y2}}});
+  formation["boundaries"] = bounds;
+  const auto& f = r.faults;
+  json faults = {{"file", f.file.empty() ? formats::display_name(f.path) : f.file},
+                 {"layer", f.layer},
+                 {"crs", f.crs},
+                 {"attributes", {{"id", f.id_attribute}, {"dip", f.dip_attribute},
+                                 {"dip_direction", f.dip_direction_attribute}, {"dips_to", f.dips_to_attribute},
+                                 {"friction", f.friction_attribute}, {"default_dip_rad", num(f.default_dip)}}},
+                 {"friction", f.friction},
+                 {"cohesion_Pa", f.cohesion},
+                 {"segment_length_m", f.segment_length},
+                 {"check_points", f.check_points}};
+  json wells = json::array();
+  for (const auto& w : s.wells) {
+    json periods = json::array();
+    for (const auto& p : w.periods)
+      periods.push_back({{"start", util::format_iso_date(util::date_at(p.start))},
+                         {"end", util::format_iso_date(util::date_at(p.end))},
+                         {"rate_m3_per_s", p.rate}, {"assumed", p.assumed}});
+    wells.push_back({{"id", w.id}, {"x", w.x}, {"y", w.y}, {"crs", w.crs}, {"top_m", w.top}, {"bottom_m", w.bottom},
+                     {"radius_m", w.radius}, {"status", status_name(w.status)}, {"proposed", w.proposed},
+                     {"periods", periods}});
+  }
+  json dates = json::array();
+  for (const auto& d : s.output.dates) dates.push_back(util::format_iso_date(d));
+  const auto& g = s.output.grid;
+  json grid = {{"cell_size_m", g.cell_size}, {"crs", g.crs.empty() ? r.crs : g.crs}};
+  if (g.automatic_extent) {
+    grid["extent"] = "auto";
+    grid["margin_m"] = g.margin;
+  } else {
+    grid["extent"] = {g.xmin, g.ymin, g.xmax, g.ymax};
+  }
+  json out = {{"folder", s.output.folder}, {"tables", s.output.tables}, {"rasters", s.output.rasters},
+              {"geopackage", s.output.geopackage}, {"cog", s.output.cog}, {"dates", dates}, {"grid", grid},
+              {"files", {{"segment_times", s.output.files.segment_times}, {"segments", s.output.files.segments},
+                         {"pressure_raster", s.output.files.pressure_raster},
+                         {"geopackage", s.output.files.geopackage}}}};
+  return {{"scenario", s.file},
+          {"title", s.title},
+          {"seed", s.seed},
+          {"region", {{"name", r.name}, {"file", r.file}, {"crs", r.crs},
+                      {"reference_depth_m", r.reference_depth},
+                      {"pore_pressure_gradient_Pa_per_m", r.pore_pressure_gradient},
+                      {"stress", stress}, {"faults", faults}, {"formation", formation}}},
+          {"wells", wells},
+          {"output", out},
+          {"uncertainty_given", s.uncertainty != nullptr}};
+}
+
+}  // namespace slipscreen::scenario

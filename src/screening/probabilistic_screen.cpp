@@ -1,0 +1,207 @@
+#include "screening/probabilistic_screen.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <fstream>
+#include <map>
+#include <nlohmann/json.hpp>
+#include <sstream>
+
+#include "core/errors.hpp"
+#include "core/geomech/depth_profile.hpp"
+#include "core/screen/tracking_grid.hpp"
+#include "core/stats/wilson_interval.hpp"
+
+namespace slipscreen::screening {
+namespace {
+
+using stats::Distribution;
+constexpr double kMPa = 1.0e6;
+
+Distribution fixed(double v, const char* what) { return Distribution::fixed(std::isnan(v) ? 0.0 : v, what); }
+
+}  // namespace
+
+probabilistic::UncertainModel uncertain_model(const scenario::ResolvedScenario& s, const PreparedRun& p,
+                                              const scenario::UncertaintySpec& spec, std::vector<std::string>& fault_ids,
+                                              std::vector<std::size_t>& segment_fault) {
+  probabilistic::UncertainModel m;
+  const scenario::RegionSpec& rg = s.region;
+  const scenario::FormationSpec& fm = rg.formation;
+  m.from_transmissivity = fm.from_transmissivity;
+  m.permeability = fixed(fm.permeability, "permeability");
+  m.thickness = fixed(fm.thickness, "thickness");
+  m.porosity = fixed(fm.porosity, "porosity");
+  m.total_compressibility = fixed(fm.total_compressibility, "total_compressibility");
+  m.viscosity = fixed(fm.viscosity, "viscosity");
+  m.transmissivity = fixed(fm.transmissivity, "transmissivity");
+  m.storativity = fixed(fm.storativity, "storativity");
+  m.fluid_density = fm.fluid_density;
+  m.depth = rg.reference_depth;
+  const scenario::StressSpec& st = rg.stress;
+  // The integrated overburden at the reference depth, as a mean gradient (exact at that depth).
+  m.vertical_gradient = fixed(p.inputs.stress.sv / rg.reference_depth, "vertical_gradient");
+  m.pore_pressure_gradient = fixed(p.inputs.stress.pore_pressure / rg.reference_depth, "pore_pressure_gradient");
+  m.shmax_azimuth = fixed(p.inputs.stress.shmax_azimuth, "shmax_azimuth");
+  switch (st.model) {
+    case scenario::StressModel::gradients:
+      m.model = probabilistic::HorizontalStressModel::gradients;
+      m.shmax_gradient = fixed(st.shmax_gradient, "shmax_gradient");
+      m.shmin_gradient = fixed(st.shmin_gradient, "shmin_gradient");
+      break;
+    case scenario::StressModel::uniaxial_strain:
+      m.model = probabilistic::HorizontalStressModel::uniaxial_strain;
+      m.poisson_ratio = fixed(st.poisson_ratio, "poisson_ratio");
+      m.uniaxial = uniaxial_strain_model_of(st);
+      break;
+    case scenario::StressModel::a_phi:
+      m.model = probabilistic::HorizontalStressModel::a_phi;
+      m.a_phi = fixed(st.a_phi, "a_phi");
+      // Magnitudes at frictional equilibrium for the region's friction (best estimate), so that
+      // sampled fault friction changes how close faults are to failure.
+      m.equilibrium_friction = std::isnan(st.equilibrium_friction) ? rg.faults.friction : st.equilibrium_friction;
+      break;
+  }
+  m.friction = fixed(p.inputs.friction.mu, "friction");
+  m.cohesion = fixed(p.inputs.friction.cohesion, "cohesion");
+
+  // Faults in order of first appearance; a fault's own friction from the fault map is fixed.
+  std::map<std::string, std::size_t> index;
+  segment_fault.clear();
+  fault_ids.clear();
+  for (std::size_t i = 0; i < p.segments.size(); ++i) {
+    const auto [it, added] = index.emplace(p.segments[i].fault_id, fault_ids.size());
+    if (added) {
+      fault_ids.push_back(p.segments[i].fault_id);
+      m.fault_friction.emplace_back();
+      if (p.inputs.segments[i].friction)
+        m.fault_friction.back() = Distribution::fixed(*p.inputs.segments[i].friction, "friction");
+    }
+    segment_fault.push_back(it->second);
+  }
+  m.fault_ids = fault_ids;
+  scenario::check_fault_ids(spec, fault_ids);
+  m.well_rate_factor.assign(p.inputs.wells.size(), std::nullopt);
+
+  // The scenario's distributions replace the best estimates they name.
+  for (const auto& v : spec.values) {
+    const auto& d = v.distribution;
+    const std::string& k = v.key;
+    if (k == "pore_pressure_gradient") m.pore_pressure_gradient = d;
+    else if (k == "rate_factor") m.rate_factor = d;
+    else if (k == "stress.vertical_gradient") m.vertical_gradient = d;
+    else if (k == "stress.shmax_azimuth") m.shmax_azimuth = d;
+    else if (k == "stress.shmax_gradient") m.shmax_gradient = d;
+    else if (k == "stress.shmin_gradient") m.shmin_gradient = d;
+    else if (k == "stress.poisson_ratio") m.poisson_ratio = d;
+    else if (k == "stress.a_phi") m.a_phi = d;
+    else if (k == "formation.permeability") m.permeability = d;
+    else if (k == "formation.thickness") m.thickness = d;
+    else if (k == "formation.porosity") m.porosity = d;
+    else if (k == "formation.total_compressibility") m.total_compressibility = d;
+    else if (k == "formation.viscosity") m.viscosity = d;
+    else if (k == "formation.transmissivity") m.transmissivity = d;
+    else if (k == "formation.storativity") m.storativity = d;
+    else if (k == "faults.friction") m.friction = d;
+    else if (k == "faults.cohesion") m.cohesion = d;
+    else if (k == "faults.strike_perturbation") m.strike_perturbation = d;
+    else if (k == "faults.dip_perturbation") m.dip_perturbation = d;
+    else if (k.rfind("fault.", 0) == 0 && k.size() > 15 && k.substr(k.size() - 9) == ".friction") {
+      const std::string id = k.substr(6, k.size() - 15);
+      m.fault_friction[index.at(id)] = d;
+    } else if (k.rfind("well.", 0) == 0 && k.size() > 17 && k.substr(k.size() - 12) == ".rate_factor") {
+      const std::string id = k.substr(5, k.size() - 17);
+      for (std::size_t w = 0; w < p.inputs.wells.size(); ++w)
+        if (p.inputs.wells[w].id == id) m.well_rate_factor[w] = d;
+    } else {
+      throw InputError(k, v.text, "an input of the probabilistic screen", v.where);
+    }
+  }
+  return m;
+}
+
+ProbabilisticRun run_probabilistic_screen(const scenario::ResolvedScenario& s, const PreparedRun& p,
+                                          const scenario::UncertaintySpec& spec,
+                                          std::vector<std::uint64_t> audit_realizations,
+                                          std::vector<std::size_t> audit_segments) {
+  ProbabilisticRun run;
+  const auto model = uncertain_model(s, p, spec, run.fault_ids, run.segment_fault);
+  run.confidence = spec.confidence;
+  run.thresholds = spec.thresholds;
+
+  std::vector<probabilistic::WellInput> wells;
+  std::vector<double> changes;
+  for (const auto& w : p.inputs.wells) {
+    probabilistic::WellInput in;
+    in.id = w.id;
+    in.x = w.x;
+    in.y = w.y;
+    in.radius = w.radius;
+    for (const auto& c : w.history.changes()) {
+      in.steps.time.push_back(c.time);
+      in.steps.delta_rate.push_back(c.delta);
+      changes.push_back(c.time);
+    }
+    wells.push_back(std::move(in));
+  }
+  std::vector<probabilistic::SegmentInput> segments;
+  for (std::size_t i = 0; i < p.inputs.segments.size(); ++i) {
+    probabilistic::SegmentInput in;
+    for (const auto& c : p.inputs.segments[i].check_points) in.check_points.push_back({c.x, c.y});
+    in.strike = p.inputs.segments[i].strike;
+    in.dip = p.inputs.segments[i].dip;
+    in.fault = run.segment_fault[i];
+    segments.push_back(std::move(in));
+  }
+
+  probabilistic::RunSettings set;
+  set.seed = s.seed;
+  set.realizations = spec.realizations.value();
+  set.method = spec.sampler;
+  set.boundaries = p.inputs.boundaries;
+  run.tracked_times = screen::tracking_grid(changes, s.output.times);
+  if (run.tracked_times.empty()) run.tracked_times = s.output.times;
+  set.tracking_times = run.tracked_times;
+  for (double t : s.output.times) {
+    const auto it = std::lower_bound(run.tracked_times.begin(), run.tracked_times.end(), t);
+    set.output_index.push_back(static_cast<std::size_t>(it - run.tracked_times.begin()));
+  }
+
+  // Probability maps: the output grid, coarsened by a whole factor to at most kMapCells cells.
+  run.map_grid = geometry::coarsened(p.grid, spec.map_cell_size > 0.0 ? spec.map_cell_size : p.grid.cell_size,
+                                     kMapCells);
+  for (int j = 0; j < run.map_grid.rows; ++j)
+    for (int i = 0; i < run.map_grid.columns; ++i) {
+      const auto c = run.map_grid.cell_centre(i, j);
+      set.map_points.push_back({c.x, c.y});
+    }
+  if (spec.map_strike) {
+    run.map_strike = spec.map_strike;
+    run.map_dip = spec.map_dip;
+    set.map_strike = spec.map_strike;
+    set.map_dip = spec.map_dip;
+  }
+
+  set.attribute_median = s.output.tables;  // written to median_well_shares.csv
+  set.audit_realizations = std::move(audit_realizations);
+  set.audit_segments = std::move(audit_segments);
+  run.result = probabilistic::run_probabilistic(model, wells, segments, set);
+  run.wells = std::move(wells);
+  run.segments = std::move(segments);
+  run.settings = std::move(set);
+  const double z = stats::z_for_confidence(run.confidence);
+  for (const auto& seg : run.result.segments)
+    for (auto n : seg.slipped_by) {
+      const auto ci = stats::wilson_interval(n, run.result.realizations, z);
+      run.mc_half_width_max = std::max(run.mc_half_width_max, 0.5 * (ci.upper - ci.lower));
+    }
+  run.spec = spec;
+  return run;
+}
+
+double slip_probability(const ProbabilisticRun& run, std::size_t segment, std::size_t k) {
+  return static_cast<double>(run.result.segments[segment].slipped_by[k]) /
+         static_cast<double>(run.result.realizations);
+}
+
+}  // namespace slipscreen::screening

@@ -1,0 +1,105 @@
+#include "formats/files/manifest.hpp"
+
+#include <doctest/doctest.h>
+
+#include <fstream>
+
+#include "core/errors.hpp"
+#include "slipscreen/version.hpp"
+#include "support/temp_dir.hpp"
+
+using namespace slipscreen;
+namespace fs = std::filesystem;
+
+namespace {
+std::string read_text(const fs::path& p) {
+  std::ifstream in(p, std::ios::binary);
+  return std::string(std::istreambuf_iterator<char>(in), {});
+}
+formats::ManifestContent sample(const test::TempDir& dir) {
+  std::ofstream(dir / "abc.txt", std::ios::binary) << "abc";
+  std::ofstream(dir / "empty.csv", std::ios::binary);
+  formats::ManifestContent c;
+  c.command_line = {"slipscreen", "run", "scenario.toml"};
+  c.parameters = {{"zeta", 1.5}, {"alpha", {{"b", 2}, {"a", 1}}}};
+  c.seed = 20310101;
+  c.inputs = {{"wells", dir / "abc.txt", "inputs/abc.txt"}, {"history", dir / "empty.csv", ""}};
+  c.caution = "Screening estimate only.";
+  return c;
+}
+}  // namespace
+
+TEST_CASE("manifest content: version, command line, seed, hashes, caution, time") {
+  test::TempDir dir("manifest");
+  const auto c = sample(dir);
+  // 2031-01-01T00:00:00Z is 1924992000 s after the Unix epoch (python3: calendar.timegm((2031,1,1,0,0,0))).
+  const auto t = std::chrono::system_clock::time_point(std::chrono::seconds(1924992000));
+  const nlohmann::json j = formats::manifest_json(c, t);
+  CHECK(j["tool"]["version"] == kVersion);
+  CHECK(j["tool"]["name"] == "slipscreen");
+  CHECK(j["command_line"] == nlohmann::json::array({"slipscreen", "run", "scenario.toml"}));
+  CHECK(j["seed"] == 20310101);
+  CHECK(j["created_utc"] == "2031-01-01T00:00:00Z");
+  CHECK(j["caution"] == "Screening estimate only.");
+  CHECK(j["parameters"]["alpha"]["a"] == 1);
+  REQUIRE(j["inputs"].size() == 2);
+  CHECK(j["inputs"][0]["role"] == "wells");
+  CHECK(j["inputs"][0]["path"] == "inputs/abc.txt");
+  CHECK(j["inputs"][0]["bytes"] == 3);
+  // FIPS 180-2 Appendix B.1: SHA-256("abc").
+  CHECK(j["inputs"][0]["sha256"] == "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad");
+  CHECK(j["inputs"][1]["path"] == (dir / "empty.csv").generic_string());
+  CHECK(j["inputs"][1]["sha256"] == "e3b0c44298fc1c149afbf4c8996fb92427ae41e4649b934ca495991b7852b855");
+}
+
+TEST_CASE("manifest text is sorted and differs between reruns only in the timestamp") {
+  test::TempDir dir("manifest-det");
+  auto c = sample(dir);
+  const auto t1 = std::chrono::system_clock::time_point(std::chrono::seconds(1924992000));
+  const auto t2 = t1 + std::chrono::hours(30);
+  std::string a = formats::manifest_json(c, t1).dump(2), b = formats::manifest_json(c, t2).dump(2);
+  CHECK(a != b);
+  a.replace(a.find("2031-01-01T00:00:00Z"), 20, "T");
+  b.replace(b.find("2031-01-02T06:00:00Z"), 20, "T");
+  CHECK(a == b);
+  // Keys sorted: "alpha" before "zeta", "caution" before "tool".
+  CHECK(a.find("\"alpha\"") < a.find("\"zeta\""));
+  CHECK(a.find("\"caution\"") < a.find("\"tool\""));
+
+  c.include_timestamp = false;
+  formats::write_manifest(dir / "m1.json", c);
+  formats::write_manifest(dir / "m2.json", c);
+  const std::string m1 = read_text(dir / "m1.json");
+  CHECK(m1 == read_text(dir / "m2.json"));
+  CHECK(m1.find("created_utc") == std::string::npos);
+  CHECK(m1.back() == '\n');
+  CHECK(nlohmann::json::parse(m1)["seed"] == 20310101);
+}
+
+TEST_CASE("outputs are listed with hashes, sorted, without the manifest itself") {
+  test::TempDir dir("manifest-out");
+  auto c = sample(dir);
+  const fs::path run = dir / "run";
+  fs::create_directories(run / "tables");
+  std::ofstream(run / "tables" / "z.csv", std::ios::binary) << "abc";
+  std::ofstream(run / "a.tif", std::ios::binary) << "";
+  formats::write_manifest(run / "manifest.json", c, run);
+  const auto j = nlohmann::json::parse(read_text(run / "manifest.json"));
+  REQUIRE(j["outputs"].size() == 2);
+  CHECK(j["outputs"][0]["path"] == "a.tif");
+  CHECK(j["outputs"][1]["path"] == "tables/z.csv");
+  CHECK(j["outputs"][1]["sha256"] == "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad");
+}
+
+TEST_CASE("manifest errors") {
+  test::TempDir dir("manifest-bad");
+  auto c = sample(dir);
+  c.inputs.push_back({"faults", dir / "missing.gpkg", ""});
+  CHECK_THROWS_WITH_AS(formats::manifest_json(c), doctest::Contains("missing.gpkg"), IoError);
+  c = sample(dir);
+  c.caution.clear();
+  CHECK_THROWS_AS(formats::manifest_json(c), InputError);
+  c = sample(dir);
+  c.parameters = nlohmann::json::array();
+  CHECK_THROWS_AS(formats::manifest_json(c), InputError);
+}

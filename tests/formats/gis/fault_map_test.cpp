@@ -1,0 +1,260 @@
+#include "formats/gis/fault_map.hpp"
+
+#include <doctest/doctest.h>
+#include <gdal_utils.h>
+#include <gdal_priv.h>
+
+#include <cmath>
+#include <fstream>
+#include <numbers>
+
+#include "core/errors.hpp"
+#include "core/geometry/azimuth.hpp"
+#include "formats/gis/gdal_errors.hpp"
+#include "support/temp_dir.hpp"
+
+using namespace slipscreen;
+namespace fs = std::filesystem;
+
+namespace {
+
+constexpr double kDeg = std::numbers::pi / 180.0;
+constexpr double kTolM = 1e-6;  // m: agreement with the printed gdaltransform values
+
+// Two faults in geographic WGS 84 (lon, lat). F1: a bent line dipping SE. F2: two parts,
+// dipping to the left of the digitising direction, with its own friction.
+const char* kFaultsGeoJson = R"({"type": "FeatureCollection", "features": [
+ {"type": "Feature", "properties": {"fault_id": "F1", "dip": 60, "dip_dir": "SE"},
+  "geometry": {"type": "LineString", "coordinates": [[-97.60, 35.90], [-97.55, 35.95], [-97.50, 36.00]]}},
+ {"type": "Feature", "properties": {"fault_id": "F2", "dip": "75 deg", "dips_to": "left", "friction": 0.55},
+  "geometry": {"type": "MultiLineString", "coordinates": [[[-97.70, 35.80], [-97.70, 35.85]],
+                                                           [[-97.40, 35.80], [-97.35, 35.80]]]}}
+]})";
+
+// The same vertices in WGS 84 / UTM 14N, from PROJ 9.1.1 via GDAL 3.6.2:
+//   printf -- "-97.60 35.90\n-97.55 35.95\n-97.50 36.00\n-97.70 35.80\n-97.70 35.85\n-97.40 35.80\n-97.35 35.80\n" |
+//     gdaltransform -s_srs EPSG:4326 -t_srs EPSG:32614 -output_xy
+const std::vector<geometry::Point2> kF1 = {
+    {626341.739839839, 3973762.28760366}, {630771.872761642, 3979374.3295591}, {635196.249318616, 3984988.80398431}};
+const std::vector<geometry::Point2> kF2a = {{617464.243832589, 3962545.48686673}, {617390.57825925, 3968091.50918291}};
+const std::vector<geometry::Point2> kF2b = {{644573.410471001, 3962946.89007701}, {649091.721192766, 3963021.87065723}};
+
+void write_text(const fs::path& p, const std::string& s) { std::ofstream(p) << s; }
+
+// ogr2ogr as a library call (GDALVectorTranslate): convert a fixture to another format.
+void translate(const fs::path& src, const fs::path& dst, const char* format) {
+  formats::ensure_gdal_registered();
+  GDALDatasetH in = GDALOpenEx(src.string().c_str(), GDAL_OF_VECTOR, nullptr, nullptr, nullptr);
+  REQUIRE(in != nullptr);
+  const char* argv[] = {"-f", format, nullptr};
+  GDALVectorTranslateOptions* o = GDALVectorTranslateOptionsNew(const_cast<char**>(argv), nullptr);
+  GDALDatasetH out = GDALVectorTranslate(dst.string().c_str(), nullptr, 1, &in, o, nullptr);
+  GDALVectorTranslateOptionsFree(o);
+  REQUIRE(out != nullptr);
+  GDALClose(out);
+  GDALClose(in);
+}
+
+bool near(const geometry::Point2& a, const geometry::Point2& b, double tol) {
+  return std::abs(a.x - b.x) <= tol && std::abs(a.y - b.y) <= tol;
+}
+
+void check_same(const geometry::TraceSegment& got, const geometry::TraceSegment& want, double tol) {
+  CHECK(near(got.start, want.start, tol));
+  CHECK(near(got.end, want.end, tol));
+  CHECK(near(got.centre, want.centre, tol));
+  CHECK(std::abs(got.length_m - want.length_m) <= 2 * tol);
+  REQUIRE(got.check_points.size() == want.check_points.size());
+  for (std::size_t i = 0; i < got.check_points.size(); ++i) CHECK(near(got.check_points[i], want.check_points[i], tol));
+}
+
+formats::FaultFileOptions options() {
+  formats::FaultFileOptions o;
+  o.max_segment_length_m = 5000.0;
+  o.check_points = 3;
+  return o;
+}
+
+// The segments expected from the fixture: the gdaltransform vertices split by split_trace.
+void check_fixture_segments(const std::vector<formats::FaultSegment>& segs) {
+  const auto f1 = geometry::split_trace(kF1, 5000.0, 3);
+  const auto f2a = geometry::split_trace(kF2a, 5000.0, 3);
+  const auto f2b = geometry::split_trace(kF2b, 5000.0, 3);
+  REQUIRE(f1.size() == 3);   // 14.3 km / 5 km
+  REQUIRE(f2a.size() == 2);  // 5.5 km
+  REQUIRE(f2b.size() == 1);  // 4.5 km
+  REQUIRE(segs.size() == 6);
+  for (std::size_t i = 0; i < 3; ++i) {
+    CAPTURE(i);
+    CHECK(segs[i].fault_id == "F1");
+    CHECK(segs[i].index == i);
+    CHECK(segs[i].segment_id == "F1:" + std::to_string(i));
+    check_same(segs[i].trace, f1[i], kTolM);
+    // Dip direction SE (135°) is to the right of the north-east digitising direction, so the
+    // right-hand-rule strike is the chord azimuth itself.
+    CHECK(std::abs(segs[i].strike_rad - f1[i].chord_azimuth_rad) < 1e-9);
+    CHECK(segs[i].strike_rad > 30 * kDeg);
+    CHECK(segs[i].strike_rad < 45 * kDeg);
+    CHECK(std::abs(segs[i].dip_rad - 60 * kDeg) < 1e-12);
+    CHECK_FALSE(segs[i].friction.has_value());
+  }
+  const geometry::TraceSegment* f2[] = {&f2a[0], &f2a[1], &f2b[0]};
+  for (std::size_t i = 0; i < 3; ++i) {
+    CAPTURE(i);
+    const auto& s = segs[3 + i];
+    CHECK(s.fault_id == "F2");
+    CHECK(s.index == i);  // continuous across the two parts
+    check_same(s.trace, *f2[i], kTolM);
+    // dips_to = left: strike is the digitising direction reversed.
+    CHECK(std::abs(s.strike_rad - geometry::normalize_azimuth(f2[i]->chord_azimuth_rad + std::numbers::pi)) < 1e-9);
+    CHECK(std::abs(s.dip_rad - 75 * kDeg) < 1e-12);
+    REQUIRE(s.friction.has_value());
+    CHECK(*s.friction == 0.55);
+  }
+  // Part 1 of F2 runs north (strike ~180°), part 2 runs east (strike ~270°).
+  CHECK(std::abs(segs[3].strike_rad - 180 * kDeg) < 1 * kDeg);
+  CHECK(std::abs(segs[5].strike_rad - 270 * kDeg) < 1 * kDeg);
+}
+
+}  // namespace
+
+TEST_CASE("faults in WGS 84 GeoJSON come back as the same segments in UTM 14N") {
+  test::TempDir dir("faults");
+  write_text(dir / "faults.geojson", kFaultsGeoJson);
+  const auto segs = formats::read_fault_segments(dir / "faults.geojson", formats::working_crs("EPSG:32614"), options());
+  check_fixture_segments(segs);
+  CHECK(segs[0].fid == 0);
+  CHECK(segs[3].fid == 1);
+}
+
+TEST_CASE("GeoPackage, FlatGeobuf and Shapefile copies give the same segments") {
+  test::TempDir dir("faults-fmt");
+  write_text(dir / "faults.geojson", kFaultsGeoJson);
+  const formats::Crs utm = formats::working_crs("EPSG:32614");
+  for (const auto& [file, format] : {std::pair{"faults.gpkg", "GPKG"}, std::pair{"faults.fgb", "FlatGeobuf"},
+                                     std::pair{"faults.shp", "ESRI Shapefile"}}) {
+    CAPTURE(file);
+    translate(dir / "faults.geojson", dir / file, format);
+    check_fixture_segments(formats::read_fault_segments(dir / file, utm, options()));
+  }
+}
+
+TEST_CASE("a file without a CRS needs one named; an unknown one is an input error") {
+  test::TempDir dir("faults-nocrs");
+  write_text(dir / "faults.geojson", kFaultsGeoJson);
+  translate(dir / "faults.geojson", dir / "faults.shp", "ESRI Shapefile");
+  fs::remove(dir / "faults.prj");
+  const formats::Crs utm = formats::working_crs("EPSG:32614");
+  CHECK_THROWS_WITH_AS(formats::read_fault_segments(dir / "faults.shp", utm, options()),
+                       doctest::Contains("field 'crs' = 'none declared in the file'"), InputError);
+  auto o = options();
+  o.source_crs = "EPSG:999999";
+  CHECK_THROWS_WITH_AS(formats::read_fault_segments(dir / "faults.shp", utm, o), doctest::Contains("EPSG:999999"),
+                       InputError);
+  o.source_crs = "EPSG:4326";
+  check_fixture_segments(formats::read_fault_segments(dir / "faults.shp", utm, o));
+}
+
+TEST_CASE("bad fault files get one clear message") {
+  test::TempDir dir("faults-bad");
+  const formats::Crs utm = formats::working_crs("EPSG:32614");
+
+  SUBCASE("missing file") {
+    CHECK_THROWS_WITH_AS(formats::read_fault_segments(dir / "nope.gpkg", utm),
+                         doctest::Contains("nope.gpkg: fault file not found"), IoError);
+  }
+  SUBCASE("network path") {
+    CHECK_THROWS_WITH_AS(formats::read_fault_segments("/vsicurl/https://example.org/faults.fgb", utm),
+                         doctest::Contains("network"), RefusedError);
+  }
+  SUBCASE("not a vector file") {
+    write_text(dir / "faults.geojson", "this is not json");
+    CHECK_THROWS_WITH_AS(formats::read_fault_segments(dir / "faults.geojson", utm),
+                         doctest::Contains("faults.geojson: cannot open as a fault map"), IoError);
+  }
+  SUBCASE("only points") {
+    write_text(dir / "wells.geojson", R"({"type": "FeatureCollection", "features": [
+      {"type": "Feature", "properties": {"fault_id": "W1", "dip": 60},
+       "geometry": {"type": "Point", "coordinates": [-97.5, 36.0]}}]})");
+    CHECK_THROWS_WITH_AS(formats::read_fault_segments(dir / "wells.geojson", utm),
+                         doctest::Contains("wells.geojson: field 'geometry' = 'no line features (layers: wells (Point))'"),
+                         InputError);
+    auto o = options();
+    o.layer = "wells";
+    CHECK_THROWS_WITH_AS(formats::read_fault_segments(dir / "wells.geojson", utm, o),
+                         doctest::Contains("layer 'wells': field 'geometry' = 'Point'"), InputError);
+    o.layer = "wels";
+    CHECK_THROWS_WITH_AS(formats::read_fault_segments(dir / "wells.geojson", utm, o),
+                         doctest::Contains("did you mean 'wells'"), InputError);
+  }
+  SUBCASE("a point among lines names its FID") {
+    write_text(dir / "mixed.geojson", R"({"type": "FeatureCollection", "features": [
+      {"type": "Feature", "properties": {"fault_id": "A", "dip": 60},
+       "geometry": {"type": "LineString", "coordinates": [[-97.6, 35.9], [-97.5, 36.0]]}},
+      {"type": "Feature", "properties": {"fault_id": "B", "dip": 60},
+       "geometry": {"type": "Point", "coordinates": [-97.5, 36.0]}}]})");
+    CHECK_THROWS_WITH_AS(formats::read_fault_segments(dir / "mixed.geojson", utm),
+                         doctest::Contains("layer 'mixed' feature FID 1: field 'geometry' = 'Point'"), InputError);
+  }
+  SUBCASE("a non-numeric dip names the FID, field and value") {
+    write_text(dir / "f.geojson", R"({"type": "FeatureCollection", "features": [
+      {"type": "Feature", "properties": {"fault_id": "A", "dip": "60"},
+       "geometry": {"type": "LineString", "coordinates": [[-97.6, 35.9], [-97.5, 36.0]]}},
+      {"type": "Feature", "properties": {"fault_id": "B", "dip": "steep"},
+       "geometry": {"type": "LineString", "coordinates": [[-97.6, 35.8], [-97.5, 35.9]]}}]})");
+    CHECK_THROWS_WITH_AS(
+        formats::read_fault_segments(dir / "f.geojson", utm),
+        doctest::Contains("f.geojson layer 'f' feature FID 1: field 'dip' = 'steep': expected a dip in degrees"),
+        InputError);
+  }
+  SUBCASE("dip out of range, bad dip direction, bad side, bad friction") {
+    auto one = [&](const std::string& props) {
+      write_text(dir / "g.geojson", R"({"type": "FeatureCollection", "features": [
+        {"type": "Feature", "properties": {"fault_id": "A", )" + props + R"(},
+         "geometry": {"type": "LineString", "coordinates": [[-97.6, 35.9], [-97.5, 36.0]]}}]})");
+      return formats::read_fault_segments(dir / "g.geojson", utm);
+    };
+    CHECK_THROWS_WITH_AS(one(R"("dip": 95)"), doctest::Contains("field 'dip' = '95'"), InputError);
+    CHECK_THROWS_WITH_AS(one(R"("dip": 60, "dip_dir": "NX")"), doctest::Contains("field 'dip_dir' = 'NX'"), InputError);
+    CHECK_THROWS_WITH_AS(one(R"("dip": 60, "dips_to": "up")"), doctest::Contains("field 'dips_to' = 'up'"), InputError);
+    CHECK_THROWS_WITH_AS(one(R"("dip": 60, "friction": -1)"), doctest::Contains("field 'friction' = '-1'"), InputError);
+    CHECK_NOTHROW(one(R"("dip": 60, "dip_dir": 130, "friction": "0.6")"));
+  }
+  SUBCASE("a missing id field suggests the nearest field name") {
+    write_text(dir / "h.geojson", R"({"type": "FeatureCollection", "features": [
+      {"type": "Feature", "properties": {"faultid": "A", "dip": 60},
+       "geometry": {"type": "LineString", "coordinates": [[-97.6, 35.9], [-97.5, 36.0]]}}]})");
+    CHECK_THROWS_WITH_AS(formats::read_fault_segments(dir / "h.geojson", utm),
+                         doctest::Contains("field 'fault id field' = 'fault_id': expected a field of the layer "
+                                           "(fields: faultid, dip) (did you mean 'faultid'?)"),
+                         InputError);
+  }
+}
+
+TEST_CASE("default dip and the right-hand rule when no sense is given") {
+  test::TempDir dir("faults-default");
+  write_text(dir / "d.geojson", R"({"type": "FeatureCollection", "features": [
+    {"type": "Feature", "properties": {"fault_id": 7},
+     "geometry": {"type": "LineString", "coordinates": [[-97.60, 35.90], [-97.55, 35.95], [-97.50, 36.00]]}}]})");
+  auto o = options();
+  o.attributes.default_dip_rad = 70 * kDeg;
+  const auto segs = formats::read_fault_segments(dir / "d.geojson", formats::working_crs("EPSG:32614"), o);
+  REQUIRE(segs.size() == 3);
+  CHECK(segs[0].fault_id == "7");
+  CHECK(std::abs(segs[0].dip_rad - 70 * kDeg) < 1e-12);
+  CHECK(std::abs(segs[0].strike_rad - segs[0].trace.chord_azimuth_rad) < 1e-12);
+}
+
+TEST_CASE("dip direction parsing") {
+  // 16-point compass, 22.5° apart (common practice).
+  CHECK(std::abs(formats::parse_dip_direction("N", "d") - 0.0) < 1e-12);
+  CHECK(std::abs(formats::parse_dip_direction("ene", "d") - 67.5 * kDeg) < 1e-12);
+  CHECK(std::abs(formats::parse_dip_direction("SW", "d") - 225 * kDeg) < 1e-12);
+  CHECK(std::abs(formats::parse_dip_direction("NNW", "d") - 337.5 * kDeg) < 1e-12);
+  CHECK(std::abs(formats::parse_dip_direction(" 135 ", "d") - 135 * kDeg) < 1e-12);
+  CHECK(std::abs(formats::parse_dip_direction("135 deg", "d") - 135 * kDeg) < 1e-12);
+  CHECK(std::abs(formats::parse_dip_direction("360", "d") - 0.0) < 1e-12);
+  CHECK_THROWS_AS(formats::parse_dip_direction("400", "d"), InputError);
+  CHECK_THROWS_AS(formats::parse_dip_direction("north", "d"), InputError);
+  CHECK_THROWS_AS(formats::parse_dip_direction("", "d"), InputError);
+}

@@ -1,0 +1,157 @@
+// End-to-end runs of the tiny scenario (tests/data/scenario/tiny): the run folder's contents,
+// byte-identical reruns, refusal to overwrite, and bad inputs that leave no run folder behind.
+#include "run/run_scenario.hpp"
+
+#include <doctest/doctest.h>
+
+#include <filesystem>
+#include <fstream>
+#include <sstream>
+
+#include <gdal_priv.h>
+#include <omp.h>
+#include <ogrsf_frmts.h>
+
+#include "core/errors.hpp"
+#include "formats/table/csv.hpp"
+#include "scenario/scenario.hpp"
+#include "support/run_options_fixture.hpp"
+#include "support/scenario_fixture.hpp"
+
+namespace fs = std::filesystem;
+using namespace slipscreen;
+using namespace slipscreen::formats;
+using namespace slipscreen::scenario;
+using namespace slipscreen::screening;
+using namespace slipscreen::run;
+using slipscreen::test::slurp;
+using slipscreen::test::options_into;
+using slipscreen::test::TinyScenario;
+
+namespace {
+
+// The parent of `out` holds nothing but what was there before (no run folder, no staging).
+std::size_t entries(const fs::path& dir) {
+  std::size_t n = 0;
+  for ([[maybe_unused]] const auto& e : fs::directory_iterator(dir)) ++n;
+  return n;
+}
+
+}  // namespace
+
+TEST_CASE("the tiny scenario writes every output into its run folder") {
+  TinyScenario t;
+  const ResolvedScenario s = load_scenario(t.scenario());
+  const fs::path out = t.dir() / "runs" / "tiny";
+  const RunSummary r = run_scenario(s, options_into(out));
+  CHECK(r.folder == out);
+  const std::vector<std::string> expected = {"manifest.json", "pressure_change.tif", "screen.gpkg",
+                                             "segment_times.csv", "segments.csv", "well_shares.csv"};
+  CHECK(r.files == expected);
+  CHECK(r.fault_count == 2);
+  CHECK(r.well_count == 3);
+  // F1 is 3.6 km long, F2 3.59 km: 4 segments of at most 1 km each (ceil(L / 1 km)).
+  CHECK(r.segment_count == 8);
+
+  const CsvTable seg = read_csv(out / "segments.csv", "segments.csv");
+  CHECK(seg.rows.size() == 8);
+  CHECK(seg.column("dp_crit_MPa").has_value());
+  CHECK(seg.column("first_crossing_date").has_value());
+  const CsvTable times = read_csv(out / "segment_times.csv", "segment_times.csv");
+  CHECK(times.rows.size() == 8 * 3);  // tidy: segment x output time
+  CHECK(times.rows[0].fields[2] == "2021-01-01");
+  const CsvTable shares = read_csv(out / "well_shares.csv", "well_shares.csv");
+  CHECK(shares.rows.size() == 8 * 3 * 3);
+
+  const std::string manifest = slurp(out / "manifest.json");
+  CHECK(manifest.find("\"sha256\"") != std::string::npos);
+  CHECK(manifest.find("Screening estimate") != std::string::npos);
+  CHECK(manifest.find("created_utc") == std::string::npos);  // reproducible run
+
+  // Read back with GDAL itself: bands, descriptions, nodata, CRS; layers of the GeoPackage.
+  GDALAllRegister();
+  {
+    std::unique_ptr<GDALDataset> ds(GDALDataset::Open((out / "pressure_change.tif").c_str(), GDAL_OF_RASTER));
+    REQUIRE(ds);
+    CHECK(ds->GetRasterCount() == 3);
+    CHECK(std::string(ds->GetRasterBand(1)->GetDescription()) == "2021-01-01");
+    CHECK(std::string(ds->GetRasterBand(3)->GetDescription()) == "2023-01-01");
+    CHECK(ds->GetRasterBand(1)->GetRasterDataType() == GDT_Float32);
+    int has_nodata = 0;
+    ds->GetRasterBand(1)->GetNoDataValue(&has_nodata);
+    CHECK(has_nodata == 1);
+    CHECK(ds->GetSpatialRef()->GetEPSGGeogCS() == 4326);
+    CHECK(std::string(ds->GetSpatialRef()->GetAuthorityCode(nullptr)) == "32708");
+    double gt[6];
+    ds->GetGeoTransform(gt);
+    CHECK(gt[0] == 494000.0);  // extent [494000, 6116000, 506000, 6126000], 1 km cells
+    CHECK(gt[3] == 6126000.0);
+    CHECK(gt[1] == 1000.0);
+    CHECK(ds->GetRasterXSize() == 12);
+    CHECK(ds->GetRasterYSize() == 10);
+  }
+  {
+    std::unique_ptr<GDALDataset> ds(GDALDataset::Open((out / "screen.gpkg").c_str(), GDAL_OF_VECTOR));
+    REQUIRE(ds);
+    OGRLayer* segs = ds->GetLayerByName("fault_segments");
+    OGRLayer* wells = ds->GetLayerByName("wells");
+    REQUIRE(segs);
+    REQUIRE(wells);
+    CHECK(segs->GetFeatureCount() == 8);
+    CHECK(wells->GetFeatureCount() == 3);
+    CHECK(segs->GetLayerDefn()->GetFieldIndex("dp_2023_01_01_MPa") >= 0);
+    CHECK(wells->GetLayerDefn()->GetFieldIndex("volume_bbl") >= 0);
+  }
+}
+
+TEST_CASE("reruns give byte-identical outputs; an existing run folder is refused without force") {
+  TinyScenario t;
+  const ResolvedScenario s = load_scenario(t.scenario());
+  const fs::path a = t.dir() / "run-a", b = t.dir() / "run-b";
+  run_scenario(s, options_into(a));
+  run_scenario(s, options_into(b));
+  for (const char* f : {"segment_times.csv", "segments.csv", "well_shares.csv", "pressure_change.tif", "screen.gpkg",
+                        "manifest.json"}) {
+    CAPTURE(f);
+    CHECK(slurp(a / f) == slurp(b / f));
+  }
+  const std::size_t before = entries(t.dir());
+  CHECK_THROWS_WITH_AS(run_scenario(s, options_into(a)), doctest::Contains("give --force"), RefusedError);
+  CHECK(entries(t.dir()) == before);
+  RunOptions force = options_into(a);
+  force.force = true;
+  run_scenario(s, force);
+  CHECK(slurp(a / "segments.csv") == slurp(b / "segments.csv"));
+}
+
+TEST_CASE("the tables do not depend on the number of threads") {
+  TinyScenario t;
+  const ResolvedScenario s = load_scenario(t.scenario());
+  const int before = omp_get_max_threads();
+  omp_set_num_threads(1);
+  run_scenario(s, options_into(t.dir() / "one"));
+  omp_set_num_threads(2);
+  run_scenario(s, options_into(t.dir() / "two"));
+  omp_set_num_threads(before);
+  for (const char* f : {"segment_times.csv", "segments.csv", "well_shares.csv"}) {
+    CAPTURE(f);
+    CHECK(slurp(t.dir() / "one" / f) == slurp(t.dir() / "two" / f));
+  }
+}
+
+TEST_CASE("bad inputs found at run time leave no run folder behind") {
+  const fs::path bad = fs::path(SLIPSCREEN_TEST_DATA) / "scenario/bad";
+  const slipscreen::test::TempDir temp("run-bad");
+  const fs::path tmp = temp.path();
+  SUBCASE("unknown CRS") {
+    const auto s = load_scenario(bad / "unknown_crs.toml");
+    CHECK_THROWS_WITH_AS(run_scenario(s, options_into(tmp / "out")),
+                         doctest::Contains("wells_unknown_crs.csv line 4 (well 'W1'): field 'crs' = 'EPSG:999999'"),
+                         InputError);
+  }
+  SUBCASE("fault file with no line geometry") {
+    const auto s = load_scenario(bad / "no_lines.toml");
+    CHECK_THROWS_WITH_AS(run_scenario(s, options_into(tmp / "out")), doctest::Contains("points.geojson"), InputError);
+  }
+  CHECK(entries(tmp) == 0);
+}
