@@ -263,13 +263,13 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
   out.diffusivity_max = *std::max_element(d.begin(), d.end());
 
   // ---- pressure model: similarity tables, sources with images, surrogate in D ----
-  std::vector<RateSteps> steps;
+  std::vector<hydro::RateSteps> steps;
   for (const auto& w : wells) steps.push_back(w.steps);
   std::vector<std::size_t> group_of(wells.size(), 0);
   std::size_t groups = 1;
   for (std::size_t w = 0; w < wells.size(); ++w)
     if (list.well_rate[w] != InputList::npos) group_of[w] = groups++;
-  std::vector<PressureSource> sources;
+  std::vector<hydro::PressureSource> sources;
   std::vector<std::size_t> first_source(wells.size() + 1, 0);  // sources of well w: [first[w], first[w+1])
   double rw_min = std::numeric_limits<double>::infinity();
   for (std::size_t w = 0; w < wells.size(); ++w) {
@@ -279,7 +279,7 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
       sources.push_back({im.x, im.y, wells[w].radius, w, im.sign, group_of[w]});
   }
   first_source[wells.size()] = sources.size();
-  std::vector<ObservationPoint> points;
+  std::vector<hydro::ObservationPoint> points;
   std::vector<std::vector<std::size_t>> seg_points(n_seg);
   double r2_max = 0.0;
   for (std::size_t s = 0; s < n_seg; ++s)
@@ -289,15 +289,15 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
       for (const auto& src : sources)
         r2_max = std::max(r2_max, (p.x - src.x) * (p.x - src.x) + (p.y - src.y) * (p.y - src.y));
     }
-  const SimilarityGrid grid{std::log(rw_min * rw_min / (4.0 * out.diffusivity_max)) - 0.1,
+  const hydro::SimilarityGrid grid{std::log(rw_min * rw_min / (4.0 * out.diffusivity_max)) - 0.1,
                             std::log(std::max(r2_max, 1.0) / (4.0 * out.diffusivity_min)) + 0.1, 0.025};
-  const auto tables = build_tables(steps, settings.tracking_times, grid);
+  const auto tables = hydro::build_tables(steps, settings.tracking_times, grid);
   const std::size_t nodes =
       settings.surrogate_nodes > 0
           ? settings.surrogate_nodes
           : std::clamp<std::size_t>(
                 static_cast<std::size_t>(std::ceil(8.0 * std::log(out.diffusivity_max / out.diffusivity_min))), 4, 64);
-  const PressureSurrogate surrogate(tables, sources, points, groups, out.diffusivity_min, out.diffusivity_max, nodes);
+  const hydro::PressureSurrogate surrogate(tables, sources, points, groups, out.diffusivity_min, out.diffusivity_max, nodes);
   out.surrogate_error = surrogate.max_relative_error();
   Eigen::MatrixXd factor(static_cast<Eigen::Index>(groups), n);
   for (Eigen::Index c = 0; c < n; ++c) {
@@ -442,7 +442,7 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
             const auto& src = sources[j];
             const double dx = cp.x - src.x, dy = cp.y - src.y;
             const double r2 = std::max(dx * dx + dy * dy, src.radius * src.radius);
-            h += src.sign * SimilarityTable::value_from_nodes(tables[w].tap(r2 * inv4d), h_nodes);
+            h += src.sign * hydro::SimilarityTable::value_from_nodes(tables[w].tap(r2 * inv4d), h_nodes);
           }
           m.well_dp[w] = pre[static_cast<std::size_t>(c)] * factor(static_cast<Eigen::Index>(group_of[w]), c) * h;
         }
@@ -476,12 +476,12 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
         r2m = std::max(r2m, dx * dx + dy * dy);
       }
     }
-    const SimilarityGrid map_grid{grid.ln_x_min, std::max(grid.ln_x_max, std::log(std::max(r2m, 1.0) /
+    const hydro::SimilarityGrid map_grid{grid.ln_x_min, std::max(grid.ln_x_max, std::log(std::max(r2m, 1.0) /
                                                                                    (4.0 * out.diffusivity_min)) + 0.1),
                                   0.025};
-    const auto map_tables = map_grid.ln_x_max > grid.ln_x_max ? build_tables(steps, settings.tracking_times, map_grid)
+    const auto map_tables = map_grid.ln_x_max > grid.ln_x_max ? hydro::build_tables(steps, settings.tracking_times, map_grid)
                                                               : tables;
-    const PressureSurrogate map_sur(map_tables, sources, settings.map_points, groups, out.diffusivity_min,
+    const hydro::PressureSurrogate map_sur(map_tables, sources, settings.map_points, groups, out.diffusivity_min,
                                     out.diffusivity_max, nodes);
     const PressureDraws map_draws = make_pressure_draws(map_sur, d, pre, factor);
     for (int which = 0; which < (oriented ? 2 : 1); ++which) {
@@ -517,7 +517,7 @@ AuditEntry plain_slip_check(const AuditEntry& fast, const std::vector<WellInput>
         const double dx = seg.check_points[p].x - im.x, dy = seg.check_points[p].y - im.y;
         const double r2 = std::max(dx * dx + dy * dy, wells[w].radius * wells[w].radius);
         for (std::size_t k = 0; k < n_t; ++k)
-          dp[k] += f * im.sign * SimilarityTable::direct(wells[w].steps, r2 / (4.0 * a.diffusivity), settings.tracking_times[k]);
+          dp[k] += f * im.sign * hydro::SimilarityTable::direct(wells[w].steps, r2 / (4.0 * a.diffusivity), settings.tracking_times[k]);
       }
     }
     for (std::size_t k = 0; k < n_t; ++k) best[k] = p == 0 ? dp[k] : std::max(best[k], dp[k]);

@@ -23,7 +23,7 @@
 
 #include "core/geomech/horizontal_stress.hpp"
 #include "core/hydro/image_wells.hpp"
-#include "core/probabilistic/similarity_table.hpp"
+#include "core/hydro/similarity_table.hpp"
 #include "core/probabilistic/slip_tracker.hpp"
 #include "core/stats/distribution.hpp"
 #include "core/stats/quantile_sketch.hpp"
@@ -79,11 +79,11 @@ struct UncertainModel {
 struct WellInput {
   std::string id;
   double x = 0.0, y = 0.0, radius = 0.1;  // working CRS, m
-  RateSteps steps;
+  hydro::RateSteps steps;
 };
 
 struct SegmentInput {
-  std::vector<ObservationPoint> check_points;
+  std::vector<hydro::ObservationPoint> check_points;
   double strike = 0.0, dip = 0.0;  // rad, mapped orientation (right-hand rule)
   std::size_t fault = 0;           // index of the parent fault
 };
@@ -100,7 +100,7 @@ struct RunSettings {
   // Probability maps for unmapped faults: pixel centres (working CRS). For each pixel, the
   // probability that a fault of the most dangerous orientation (minimum Δp_crit over a 5° grid
   // of strikes and dips, global friction) — and optionally of a given orientation — has slipped.
-  std::vector<ObservationPoint> map_points;
+  std::vector<hydro::ObservationPoint> map_points;
   std::optional<double> map_strike, map_dip;  // rad
   // Audit: keep the fast path's per-realization results for these realizations (by index) and
   // segments, so that they can be checked against the plain method (plain_slip_check).
