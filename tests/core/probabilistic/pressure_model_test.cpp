@@ -6,6 +6,8 @@
 #include <cmath>
 #include <numbers>
 
+#include "strike_slip_case.hpp"
+
 using namespace slipscreen;
 using namespace slipscreen::probabilistic;
 using stats::Distribution;
@@ -21,16 +23,9 @@ struct Case {
   std::vector<SegmentInput> segments;
   RunSettings settings;
   Case() {
-    model.depth = 3000.0;
-    model.vertical_gradient = Distribution::fixed(25e3);
-    model.pore_pressure_gradient = Distribution::fixed(10e3);
-    model.shmax_gradient = Distribution::fixed(30e3);
-    model.shmin_gradient = Distribution::fixed(17e3);
+    model = test::strike_slip_model();
+    model.shmax_azimuth = Distribution::fixed(0.0);
     model.permeability = Distribution::lognormal(2e-14, 0.5);
-    model.thickness = Distribution::fixed(50.0);
-    model.porosity = Distribution::fixed(0.12);
-    model.total_compressibility = Distribution::fixed(1.5e-9);
-    model.viscosity = Distribution::fixed(4e-4);
     wells.push_back({"W1", 0.0, 0.0, 0.1, {{0.0, 3 * 365 * kDay}, {0.05, -0.03}}});
     wells.push_back({"W2", 5000.0, 0.0, 0.1, {{0.0}, {0.03}}});
     segments.push_back({{{2000.0, 0.0}}, 0.0, 1.2, 0});

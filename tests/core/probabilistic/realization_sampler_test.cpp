@@ -6,6 +6,7 @@
 #include <numbers>
 
 #include "core/errors.hpp"
+#include "strike_slip_case.hpp"
 
 using namespace slipscreen;
 using namespace slipscreen::probabilistic;
@@ -22,17 +23,7 @@ struct Case {
   std::vector<SegmentInput> segments;
   RunSettings settings;
   Case() {
-    model.depth = 3000.0;
-    model.vertical_gradient = Distribution::fixed(25e3);
-    model.pore_pressure_gradient = Distribution::fixed(10e3);
-    model.shmax_gradient = Distribution::fixed(30e3);
-    model.shmin_gradient = Distribution::fixed(17e3);
-    model.shmax_azimuth = Distribution::fixed(45 * kDeg);
-    model.permeability = Distribution::fixed(2e-14);
-    model.thickness = Distribution::fixed(50.0);
-    model.porosity = Distribution::fixed(0.12);
-    model.total_compressibility = Distribution::fixed(1.5e-9);
-    model.viscosity = Distribution::fixed(4e-4);
+    model = test::strike_slip_model();
     SegmentInput s;
     s.check_points = {{1500.0, 0.0}};
     s.strike = 15 * kDeg;
