@@ -11,8 +11,11 @@
 #include <vector>
 
 #include "core/hydro/well_function.hpp"
+#include "core/hydro/pressure_surrogate.hpp"
+#include "core/hydro/similarity_table.hpp"
 #include "core/probabilistic/slip_tracker.hpp"
 
+using namespace slipscreen::hydro;
 using namespace slipscreen::probabilistic;
 using Clock = std::chrono::steady_clock;
 

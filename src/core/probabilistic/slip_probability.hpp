@@ -21,94 +21,12 @@
 #include <string>
 #include <vector>
 
-#include "core/geomech/horizontal_stress.hpp"
-#include "core/hydro/image_wells.hpp"
-#include "core/probabilistic/similarity_table.hpp"
-#include "core/probabilistic/slip_tracker.hpp"
-#include "core/stats/distribution.hpp"
+#include "core/probabilistic/screen_inputs.hpp"
 #include "core/stats/quantile_sketch.hpp"
 #include "core/stats/sampler.hpp"
 #include "core/stats/slip_counts.hpp"
 
 namespace slipscreen::probabilistic {
-
-enum class HorizontalStressModel { gradients, uniaxial_strain, a_phi };
-
-// Uncertain inputs. Each is a distribution (stats::Distribution::fixed for a known value).
-struct UncertainModel {
-  // Formation: either (k, h, φ, c_t, μ) or (T, S) with fluid density.
-  bool from_transmissivity = false;
-  stats::Distribution permeability = stats::Distribution::fixed(1e-14);
-  stats::Distribution thickness = stats::Distribution::fixed(100.0);
-  stats::Distribution porosity = stats::Distribution::fixed(0.1);
-  stats::Distribution total_compressibility = stats::Distribution::fixed(1e-9);
-  stats::Distribution viscosity = stats::Distribution::fixed(5e-4);
-  stats::Distribution transmissivity = stats::Distribution::fixed(1e-5);
-  stats::Distribution storativity = stats::Distribution::fixed(1e-5);
-  double fluid_density = 1000.0;  // kg/m³ (T, S form)
-
-  // Stress at the reference depth.
-  double depth = 3000.0;  // m
-  HorizontalStressModel model = HorizontalStressModel::gradients;
-  stats::Distribution vertical_gradient = stats::Distribution::fixed(25e3);        // Pa/m
-  stats::Distribution pore_pressure_gradient = stats::Distribution::fixed(9.8e3);  // Pa/m
-  stats::Distribution shmax_azimuth = stats::Distribution::fixed(0.0);             // rad
-  stats::Distribution shmax_gradient = stats::Distribution::fixed(30e3);           // Pa/m (gradients)
-  stats::Distribution shmin_gradient = stats::Distribution::fixed(18e3);           // Pa/m (gradients)
-  stats::Distribution a_phi = stats::Distribution::fixed(1.5);                      // (a_phi)
-  stats::Distribution poisson_ratio = stats::Distribution::fixed(0.25);             // (uniaxial_strain)
-  geomech::UniaxialStrainModel uniaxial;  // fixed tectonic terms and Biot (uniaxial_strain)
-  // Friction at which A_φ magnitudes are at frictional equilibrium; empty: the sampled friction.
-  std::optional<double> equilibrium_friction;
-  double stress_path_kappa = 0.0;  // α(1−2ν)/(1−ν) of the poroelastic path; 0 = none
-
-  // Faults.
-  stats::Distribution friction = stats::Distribution::fixed(0.6);
-  stats::Distribution cohesion = stats::Distribution::fixed(0.0);  // Pa
-  std::vector<std::string> fault_ids;                              // names, per fault index
-  std::vector<std::optional<stats::Distribution>> fault_friction;  // per fault index; empty = global
-  // Perturbations around the mapped orientation, drawn per fault and realization (rad).
-  stats::Distribution strike_perturbation = stats::Distribution::fixed(0.0);
-  stats::Distribution dip_perturbation = stats::Distribution::fixed(0.0);
-
-  // Injection rates.
-  stats::Distribution rate_factor = stats::Distribution::fixed(1.0);  // all wells
-  std::vector<std::optional<stats::Distribution>> well_rate_factor;  // per well; multiplies the above
-};
-
-struct WellInput {
-  std::string id;
-  double x = 0.0, y = 0.0, radius = 0.1;  // working CRS, m
-  RateSteps steps;
-};
-
-struct SegmentInput {
-  std::vector<ObservationPoint> check_points;
-  double strike = 0.0, dip = 0.0;  // rad, mapped orientation (right-hand rule)
-  std::size_t fault = 0;           // index of the parent fault
-};
-
-struct RunSettings {
-  std::uint64_t seed = 1;
-  std::uint64_t realizations = 1000;
-  stats::SamplingMethod method = stats::SamplingMethod::latin_hypercube;
-  std::vector<double> tracking_times;    // s, increasing, every output time included
-  std::vector<std::size_t> output_index; // tracking index of each output time
-  std::vector<hydro::Boundary> boundaries;
-  // Chebyshev nodes in ln D; 0: automatic, 8 per e-fold of D_max/D_min (at least 4, at most 64).
-  std::size_t surrogate_nodes = 0;
-  // Probability maps for unmapped faults: pixel centres (working CRS). For each pixel, the
-  // probability that a fault of the most dangerous orientation (minimum Δp_crit over a 5° grid
-  // of strikes and dips, global friction) — and optionally of a given orientation — has slipped.
-  std::vector<ObservationPoint> map_points;
-  std::optional<double> map_strike, map_dip;  // rad
-  // Audit: keep the fast path's per-realization results for these realizations (by index) and
-  // segments, so that they can be checked against the plain method (plain_slip_check).
-  std::vector<std::uint64_t> audit_realizations;
-  std::vector<std::size_t> audit_segments;
-  // Well attribution of every segment's median Δp at every output time (SegmentResult::median).
-  bool attribute_median = true;
-};
 
 // One audited (realization, segment) pair: the realization's pressure inputs, the segment's
 // Δp_crit and what the fast path found.
@@ -179,9 +97,5 @@ AuditEntry plain_slip_check(const AuditEntry& fast, const std::vector<WellInput>
 // Runs the probabilistic screen. Throws InputError for inconsistent inputs (naming the field).
 ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::vector<WellInput>& wells,
                                       const std::vector<SegmentInput>& segments, const RunSettings& settings);
-
-// The names of the sampled inputs in sampler order (for tables and the manifest).
-std::vector<std::string> sampled_input_names(const UncertainModel& model, const std::vector<WellInput>& wells,
-                                             std::size_t fault_count);
 
 }  // namespace slipscreen::probabilistic

@@ -12,7 +12,7 @@ constexpr std::size_t kBlock = 256;  // realizations per matrix product
 constexpr std::size_t kChunk = 24;   // tracking times per chunk of the first-crossing search
 }  // namespace
 
-PressureDraws make_pressure_draws(const PressureSurrogate& surrogate, std::span<const double> diffusivity,
+PressureDraws make_pressure_draws(const hydro::PressureSurrogate& surrogate, std::span<const double> diffusivity,
                                   std::span<const double> prefactor, const Eigen::MatrixXd& rate_factor) {
   const auto n = static_cast<Eigen::Index>(diffusivity.size());
   if (prefactor.size() != diffusivity.size() || rate_factor.cols() != n ||
@@ -31,7 +31,7 @@ PressureDraws make_pressure_draws(const PressureSurrogate& surrogate, std::span<
   return d;
 }
 
-void track_slip(const PressureSurrogate& surrogate, const std::vector<std::vector<std::size_t>>& segment_points,
+void track_slip(const hydro::PressureSurrogate& surrogate, const std::vector<std::vector<std::size_t>>& segment_points,
                 const PressureDraws& draws, const Eigen::MatrixXf& dp_crit,
                 std::span<const std::size_t> output_index,
                 const std::function<void(const SegmentOutcome&)>& visit) {

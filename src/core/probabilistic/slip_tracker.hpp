@@ -20,18 +20,18 @@
 #include <span>
 #include <vector>
 
-#include "core/probabilistic/pressure_surrogate.hpp"
+#include "core/hydro/pressure_surrogate.hpp"
 
 namespace slipscreen::probabilistic {
 
 // Per realization inputs of the pressure model for a set of N realizations.
 struct PressureDraws {
-  Eigen::MatrixXd basis;  // nodes × N: PressureSurrogate::basis of each realization's D
+  Eigen::MatrixXd basis;  // nodes × N: hydro::PressureSurrogate::basis of each realization's D
   Eigen::MatrixXd scale;  // groups × N: prefactor μ/(4π k h) times the group's rate factor
 };
 
 // Builds PressureDraws from diffusivities, prefactors and rate factors (groups × N).
-PressureDraws make_pressure_draws(const PressureSurrogate& surrogate, std::span<const double> diffusivity,
+PressureDraws make_pressure_draws(const hydro::PressureSurrogate& surrogate, std::span<const double> diffusivity,
                                   std::span<const double> prefactor, const Eigen::MatrixXd& rate_factor);
 
 struct SegmentOutcome {
@@ -44,7 +44,7 @@ struct SegmentOutcome {
 // calls visit(outcome) once per segment — possibly from several threads at once, each with a
 // different segment, so the visitor must write to per-segment storage only.
 // `dp_crit` is segments × N, or 1 × N when every segment shares the same values (maps). `output_index` lists the tracking indices of the output times.
-void track_slip(const PressureSurrogate& surrogate, const std::vector<std::vector<std::size_t>>& segment_points,
+void track_slip(const hydro::PressureSurrogate& surrogate, const std::vector<std::vector<std::size_t>>& segment_points,
                 const PressureDraws& draws, const Eigen::MatrixXf& dp_crit,
                 std::span<const std::size_t> output_index,
                 const std::function<void(const SegmentOutcome&)>& visit);

@@ -9,7 +9,7 @@
 #include "core/errors.hpp"
 #include "core/geomech/fault_plane.hpp"
 #include "core/hydro/pressure_field.hpp"
-#include "core/probabilistic/similarity_table.hpp"
+#include "core/hydro/similarity_table.hpp"
 
 namespace slipscreen::screen {
 
@@ -93,7 +93,7 @@ ScreenResult deterministic_screen(const ScreenInputs& in, Progress progress, voi
   // x = r²/(4D) from the smallest well radius to the farthest source of any check point).
   const double inv4d = 1.0 / (4.0 * in.formation.diffusivity);
   double rw_min = std::numeric_limits<double>::infinity(), r2_max = 1.0;
-  std::vector<probabilistic::RateSteps> steps(W);
+  std::vector<hydro::RateSteps> steps(W);
   for (std::size_t w = 0; w < W; ++w) {
     rw_min = std::min(rw_min, in.wells[w].radius);
     for (const auto& c : in.wells[w].history.changes()) {
@@ -104,9 +104,9 @@ ScreenResult deterministic_screen(const ScreenInputs& in, Progress progress, voi
       for (const auto& p : points)
         r2_max = std::max(r2_max, (p.x - src.x) * (p.x - src.x) + (p.y - src.y) * (p.y - src.y));
   }
-  const probabilistic::SimilarityGrid grid{std::log(rw_min * rw_min * inv4d) - 0.1, std::log(r2_max * inv4d) + 0.1,
+  const hydro::SimilarityGrid grid{std::log(rw_min * rw_min * inv4d) - 0.1, std::log(r2_max * inv4d) + 0.1,
                                            kTableStep};
-  const auto tables = probabilistic::build_tables(steps, result.tracked_times, grid);
+  const auto tables = hydro::build_tables(steps, result.tracked_times, grid);
 
   // Bound on the table error of any point's Δp at tracked time g: the stated accuracy of each
   // source's table, summed over sources.

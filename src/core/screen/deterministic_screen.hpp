@@ -20,7 +20,7 @@
 // How Δp is computed (speed: a regional screen has ~1e3 segments × 3 check points × 200 wells ×
 // ~250 tracked times × ~100 rate steps, too many E1 terms to sum one by one):
 //   - on the tracked times (peak Δp, peak time, first crossing): similarity tables of each well
-//     (probabilistic/similarity_table.hpp), tapped at x = r²/(4D) for every check point and
+//     (hydro/similarity_table.hpp), tapped at x = r²/(4D) for every check point and
 //     source (real well and images, with their signs, r clamped to r_w as in PressureField) and
 //     scaled by μ/(4π k h); at the output times the exact values below replace the table values;
 //   - at the output times (dp, dp_point, well_share): the exact sum of hydro::PressureField at

@@ -15,6 +15,7 @@
 #include "core/screen/deterministic_screen.hpp"
 #include "core/stats/sampler.hpp"
 #include "core/stats/wilson_interval.hpp"
+#include "strike_slip_case.hpp"
 
 using namespace slipscreen;
 using namespace slipscreen::probabilistic;
@@ -32,17 +33,7 @@ struct Case {
   std::vector<SegmentInput> segments;
   RunSettings settings;
   Case() {
-    model.depth = 3000.0;
-    model.vertical_gradient = Distribution::fixed(25e3);
-    model.pore_pressure_gradient = Distribution::fixed(10e3);
-    model.shmax_gradient = Distribution::fixed(30e3);
-    model.shmin_gradient = Distribution::fixed(17e3);
-    model.shmax_azimuth = Distribution::fixed(45 * kDeg);
-    model.permeability = Distribution::fixed(2e-14);
-    model.thickness = Distribution::fixed(50.0);
-    model.porosity = Distribution::fixed(0.12);
-    model.total_compressibility = Distribution::fixed(1.5e-9);
-    model.viscosity = Distribution::fixed(4e-4);
+    model = test::strike_slip_model();
     model.friction = Distribution::fixed(0.6);
     WellInput w;
     w.id = "W1";

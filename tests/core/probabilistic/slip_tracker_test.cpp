@@ -6,7 +6,10 @@
 #include <vector>
 
 #include "core/errors.hpp"
+#include "core/hydro/pressure_surrogate.hpp"
+#include "core/hydro/similarity_table.hpp"
 
+using namespace slipscreen::hydro;
 using namespace slipscreen::probabilistic;
 
 namespace {

@@ -7,7 +7,7 @@
 
 #include "core/errors.hpp"
 #include "core/hydro/pressure_field.hpp"
-#include "core/probabilistic/similarity_table.hpp"
+#include "core/hydro/similarity_table.hpp"
 
 using namespace slipscreen;
 using namespace slipscreen::screen;
@@ -155,7 +155,7 @@ TEST_CASE("tracking from similarity tables agrees with the exact pressure field 
   // maximum over x ≥ r_w²/(4D) found by direct summation (no table).
   std::vector<double> bound(tt.size(), 0.0);
   for (std::size_t w = 0; w < 3; ++w) {
-    probabilistic::RateSteps st;
+    hydro::RateSteps st;
     for (const auto& c : in.wells[w].history.changes()) {
       st.time.push_back(c.time);
       st.delta_rate.push_back(c.delta);
@@ -163,7 +163,7 @@ TEST_CASE("tracking from similarity tables agrees with the exact pressure field 
     for (std::size_t g = 0; g < tt.size(); ++g) {
       double m = 0.0;
       for (double x = 0.01 / (4 * 0.4); x < 1e12; x *= 1.02)
-        m = std::max(m, std::abs(probabilistic::SimilarityTable::direct(st, x, tt[g])));
+        m = std::max(m, std::abs(hydro::SimilarityTable::direct(st, x, tt[g])));
       bound[g] += 1e-6 * 2e5 * static_cast<double>(field.sources(w).size()) * m;
     }
   }

@@ -14,15 +14,15 @@
 // Accuracy: the interpolation error over [D_min, D_max] is estimated at construction by
 // comparing the interpolant with exact table sums at the midpoints between nodes
 // (max_relative_error()); with 16 nodes over two decades of D it is below 1e-5 of the
-// point's maximum Δp (tests/core/probabilistic/pressure_surrogate_test.cpp).
+// point's maximum Δp (tests/core/hydro/pressure_surrogate_test.cpp).
 #include <Eigen/Dense>
 #include <cstddef>
 #include <span>
 #include <vector>
 
-#include "core/probabilistic/similarity_table.hpp"
+#include "core/hydro/similarity_table.hpp"
 
-namespace slipscreen::probabilistic {
+namespace slipscreen::hydro {
 
 struct ObservationPoint {
   double x = 0.0, y = 0.0;  // working CRS [m]
@@ -82,4 +82,4 @@ class PressureSurrogate {
   double max_error_ = 0.0;
 };
 
-}  // namespace slipscreen::probabilistic
+}  // namespace slipscreen::hydro

@@ -1,4 +1,4 @@
-#include "core/probabilistic/similarity_table.hpp"
+#include "core/hydro/similarity_table.hpp"
 
 #include <doctest/doctest.h>
 
@@ -7,7 +7,7 @@
 
 #include "core/errors.hpp"
 
-using namespace slipscreen::probabilistic;
+using namespace slipscreen::hydro;
 
 namespace {
 constexpr double kDay = 86400.0;

@@ -13,7 +13,7 @@
 // 4-point (cubic) Lagrange weights. Accuracy: with the default step of 0.05 in ln x the
 // error (interpolation and single-precision storage) is below 1e-6 of max_x |H(x, t_k)| for
 // u ≤ 10 at the earliest step
-// (measured against direct summation in tests/core/probabilistic/similarity_table_test.cpp);
+// (measured against direct summation in tests/core/hydro/similarity_table_test.cpp);
 // values are stored in single precision (relative rounding 6e-8); terms with u > 745 are
 // exactly zero in double precision and are skipped.
 //
@@ -25,7 +25,7 @@
 #include <span>
 #include <vector>
 
-namespace slipscreen::probabilistic {
+namespace slipscreen::hydro {
 
 // Piecewise-constant rate history as step times and rate increments (q_j − q_{j−1}).
 struct RateSteps {
@@ -113,4 +113,4 @@ class SimilarityTable {
 std::vector<SimilarityTable> build_tables(const std::vector<RateSteps>& steps,
                                           std::span<const double> tracking_times, const SimilarityGrid& grid);
 
-}  // namespace slipscreen::probabilistic
+}  // namespace slipscreen::hydro

@@ -1,4 +1,4 @@
-#include "core/probabilistic/pressure_surrogate.hpp"
+#include "core/hydro/pressure_surrogate.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -8,7 +8,7 @@
 
 #include "core/errors.hpp"
 
-namespace slipscreen::probabilistic {
+namespace slipscreen::hydro {
 namespace {
 constexpr std::size_t kBlock = 32;       // points per build block (spatially close)
 constexpr double kBlockCell = 5000.0;    // m: cell size used to order points spatially
@@ -146,4 +146,4 @@ void PressureSurrogate::evaluate(std::size_t point, const Eigen::MatrixXd& basis
                      (basis_block.array().rowwise() * scale.row(static_cast<Eigen::Index>(g)).array()).matrix();
 }
 
-}  // namespace slipscreen::probabilistic
+}  // namespace slipscreen::hydro

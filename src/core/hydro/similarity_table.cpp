@@ -1,4 +1,4 @@
-#include "core/probabilistic/similarity_table.hpp"
+#include "core/hydro/similarity_table.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -8,7 +8,7 @@
 #include "core/errors.hpp"
 #include "core/hydro/well_function.hpp"
 
-namespace slipscreen::probabilistic {
+namespace slipscreen::hydro {
 namespace {
 
 constexpr double kUnderflow = 745.0;  // E1(u) == 0 in double precision beyond this u
@@ -199,4 +199,4 @@ std::vector<SimilarityTable> build_tables(const std::vector<RateSteps>& steps,
   return tables;
 }
 
-}  // namespace slipscreen::probabilistic
+}  // namespace slipscreen::hydro

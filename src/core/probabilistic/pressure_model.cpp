@@ -1,0 +1,78 @@
+// The pore-pressure model of a probabilistic run; see pressure_model.hpp.
+#include "core/probabilistic/pressure_model.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+
+#include "core/hydro/image_wells.hpp"
+
+namespace slipscreen::probabilistic {
+namespace {
+
+// Rate groups, sources (wells and images) and the smallest well radius.
+double add_sources(const std::vector<WellInput>& wells, const RunSettings& settings, const InputList& list,
+                   PressureModel& m) {
+  for (const auto& w : wells) m.steps.push_back(w.steps);
+  m.group_of.assign(wells.size(), 0);
+  m.groups = 1;
+  for (std::size_t w = 0; w < wells.size(); ++w)
+    if (list.well_rate[w] != InputList::npos) m.group_of[w] = m.groups++;
+  m.first_source.assign(wells.size() + 1, 0);
+  double rw_min = std::numeric_limits<double>::infinity();
+  for (std::size_t w = 0; w < wells.size(); ++w) {
+    rw_min = std::min(rw_min, wells[w].radius);
+    m.first_source[w] = m.sources.size();
+    for (const auto& im : hydro::image_wells(wells[w].x, wells[w].y, settings.boundaries))
+      m.sources.push_back({im.x, im.y, wells[w].radius, w, im.sign, m.group_of[w]});
+  }
+  m.first_source[wells.size()] = m.sources.size();
+  return rw_min;
+}
+
+// f_g per valid realization: the global rate factor, times the well's own for its group.
+Eigen::MatrixXd rate_factors(const PressureModel& m, const InputList& list, const Eigen::MatrixXd& xv) {
+  const Eigen::Index n = xv.cols();
+  Eigen::MatrixXd factor(static_cast<Eigen::Index>(m.groups), n);
+  for (Eigen::Index c = 0; c < n; ++c) {
+    factor(0, c) = xv(static_cast<Eigen::Index>(list.rate), c);
+    for (std::size_t w = 0; w < m.group_of.size(); ++w)
+      if (m.group_of[w] > 0)
+        factor(static_cast<Eigen::Index>(m.group_of[w]), c) =
+            factor(0, c) * xv(static_cast<Eigen::Index>(list.well_rate[w]), c);
+  }
+  return factor;
+}
+
+}  // namespace
+
+PressureModel build_pressure_model(const std::vector<WellInput>& wells, const std::vector<SegmentInput>& segments,
+                                   const RunSettings& settings, const InputList& list, const SampledRealizations& r) {
+  PressureModel m;
+  m.diffusivity_min = *std::min_element(r.diffusivity.begin(), r.diffusivity.end());
+  m.diffusivity_max = *std::max_element(r.diffusivity.begin(), r.diffusivity.end());
+  const double rw_min = add_sources(wells, settings, list, m);
+  std::vector<hydro::ObservationPoint> points;
+  m.segment_points.resize(segments.size());
+  double r2_max = 0.0;
+  for (std::size_t s = 0; s < segments.size(); ++s)
+    for (const auto& p : segments[s].check_points) {
+      m.segment_points[s].push_back(points.size());
+      points.push_back(p);
+      for (const auto& src : m.sources)
+        r2_max = std::max(r2_max, (p.x - src.x) * (p.x - src.x) + (p.y - src.y) * (p.y - src.y));
+    }
+  m.grid = {std::log(rw_min * rw_min / (4.0 * m.diffusivity_max)) - 0.1,
+            std::log(std::max(r2_max, 1.0) / (4.0 * m.diffusivity_min)) + 0.1, 0.025};
+  m.tables = hydro::build_tables(m.steps, settings.tracking_times, m.grid);
+  m.nodes = settings.surrogate_nodes > 0
+                ? settings.surrogate_nodes
+                : std::clamp<std::size_t>(
+                      static_cast<std::size_t>(std::ceil(8.0 * std::log(m.diffusivity_max / m.diffusivity_min))), 4, 64);
+  m.surrogate.emplace(m.tables, m.sources, points, m.groups, m.diffusivity_min, m.diffusivity_max, m.nodes);
+  m.factor = rate_factors(m, list, r.inputs);
+  m.draws = make_pressure_draws(*m.surrogate, r.diffusivity, r.prefactor, m.factor);
+  return m;
+}
+
+}  // namespace slipscreen::probabilistic

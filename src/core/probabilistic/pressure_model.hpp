@@ -1,0 +1,53 @@
+#pragma once
+// The pore-pressure model of a probabilistic run, prepared once for all realizations.
+//
+// Source: Theis (1935) with superposition in time and space; images for straight boundaries
+// (hydro/image_wells.hpp). Across realizations the hydrogeology enters only through D and
+// P = μ/(4π k h), and the rate factors scale rate groups linearly (docs/uncertainty.md,
+// "The Monte Carlo engine and its accuracy"):
+//   Δp_p(t_k) = P · Σ_g f_g · G_{p,g}(t_k, D)       (hydro/pressure_surrogate.hpp)
+//
+// Symbols (code -> literature): diffusivity D [m²/s], prefactor P [Pa per m³/s], factor f_g
+// [1] (rate group g: group 0 = wells with the global rate factor only; every well with its own
+// factor is a group of its own, f_g = global × own), x = r²/(4D) [s] (similarity tables).
+//
+// Grid of the similarity tables: ln x from ln(r_w,min²/(4 D_max)) − 0.1 to
+// ln(max(r²_max, 1 m²)/(4 D_min)) + 0.1 in steps of 0.025, r²_max the largest squared distance
+// between a check point and a source. Surrogate nodes: RunSettings::surrogate_nodes, or
+// 8 per e-fold of D_max/D_min, at least 4 and at most 64.
+//
+// Accuracy: that of the similarity tables and of the surrogate (its max_relative_error()).
+#include <Eigen/Dense>
+#include <cstddef>
+#include <optional>
+#include <vector>
+
+#include "core/hydro/pressure_surrogate.hpp"
+#include "core/hydro/similarity_table.hpp"
+#include "core/probabilistic/realization_sampler.hpp"
+#include "core/probabilistic/screen_inputs.hpp"
+#include "core/probabilistic/slip_tracker.hpp"
+
+namespace slipscreen::probabilistic {
+
+struct PressureModel {
+  std::vector<hydro::RateSteps> steps;                   // per well
+  std::vector<std::size_t> group_of;                     // rate group of each well
+  std::size_t groups = 1;                                // number of rate groups
+  std::vector<hydro::PressureSource> sources;            // wells and their images, well by well
+  std::vector<std::size_t> first_source;                 // sources of well w: [first_source[w], first_source[w+1])
+  std::vector<std::vector<std::size_t>> segment_points;  // surrogate point index of every check point
+  double diffusivity_min = 0.0, diffusivity_max = 0.0;   // m²/s over the valid realizations
+  hydro::SimilarityGrid grid;
+  std::vector<hydro::SimilarityTable> tables;            // per well
+  std::size_t nodes = 0;                                 // Chebyshev nodes in ln D
+  std::optional<hydro::PressureSurrogate> surrogate;     // at the segments' check points
+  Eigen::MatrixXd factor;                                // groups × valid realizations: f_g
+  PressureDraws draws;                                   // the realizations' basis and P · f_g
+};
+
+// Builds the model for the valid realizations of `r` (their D, P and rate-factor inputs).
+PressureModel build_pressure_model(const std::vector<WellInput>& wells, const std::vector<SegmentInput>& segments,
+                                   const RunSettings& settings, const InputList& list, const SampledRealizations& r);
+
+}  // namespace slipscreen::probabilistic

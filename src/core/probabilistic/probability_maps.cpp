@@ -1,0 +1,57 @@
+// Slip-probability maps for unmapped faults; see probability_maps.hpp.
+#include "core/probabilistic/probability_maps.hpp"
+
+#include <algorithm>
+#include <cmath>
+
+namespace slipscreen::probabilistic {
+namespace {
+
+// Injection-induced slips by each output time at every pixel, for the thresholds `crit` (1 × N).
+void count_slips(const hydro::PressureSurrogate& surrogate, const PressureDraws& draws, const Eigen::MatrixXf& crit,
+                 const RunSettings& settings, std::vector<std::uint64_t>& counts) {
+  const std::size_t n_out = settings.output_index.size();
+  std::vector<std::vector<std::size_t>> pixel_points(settings.map_points.size());
+  for (std::size_t p = 0; p < pixel_points.size(); ++p) pixel_points[p] = {p};
+  counts.assign(settings.map_points.size() * n_out, 0);
+  track_slip(surrogate, pixel_points, draws, crit, settings.output_index, [&](const SegmentOutcome& o) {
+    for (std::size_t c = 0; c < o.first_crossing.size(); ++c) {
+      const int first = o.first_crossing[c];
+      if (first < 0 || !(crit(0, static_cast<Eigen::Index>(c)) > 0.0f)) continue;
+      for (std::size_t t = 0; t < n_out; ++t)
+        if (settings.output_index[t] >= static_cast<std::size_t>(first)) ++counts[o.segment * n_out + t];
+    }
+  });
+}
+
+}  // namespace
+
+ProbabilityMaps probability_maps(const PressureModel& model, const SampledRealizations& r, const RunSettings& settings) {
+  ProbabilityMaps maps;
+  if (settings.map_points.empty()) return maps;
+  double r2m = 0.0;
+  for (const auto& p : settings.map_points)
+    for (const auto& src : model.sources) {
+      const double dx = p.x - src.x, dy = p.y - src.y;
+      r2m = std::max(r2m, dx * dx + dy * dy);
+    }
+  const hydro::SimilarityGrid grid{
+      model.grid.ln_x_min,
+      std::max(model.grid.ln_x_max, std::log(std::max(r2m, 1.0) / (4.0 * model.diffusivity_min)) + 0.1), 0.025};
+  const auto tables =
+      grid.ln_x_max > model.grid.ln_x_max ? hydro::build_tables(model.steps, settings.tracking_times, grid) : model.tables;
+  const hydro::PressureSurrogate surrogate(tables, model.sources, settings.map_points, model.groups,
+                                           model.diffusivity_min, model.diffusivity_max, model.nodes);
+  const PressureDraws draws = make_pressure_draws(surrogate, r.diffusivity, r.prefactor, model.factor);
+  const bool oriented = settings.map_strike && settings.map_dip;
+  for (int which = 0; which < (oriented ? 2 : 1); ++which) {
+    auto& counts = which == 0 ? maps.dangerous : maps.oriented;
+    auto& already = which == 0 ? maps.dangerous_already_critical : maps.oriented_already_critical;
+    const Eigen::MatrixXf row = r.map_dp_crit.row(which);
+    already = static_cast<std::uint64_t>((row.array() <= 0.0f).count());
+    count_slips(surrogate, draws, row, settings, counts);
+  }
+  return maps;
+}
+
+}  // namespace slipscreen::probabilistic

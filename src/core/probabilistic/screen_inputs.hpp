@@ -1,0 +1,129 @@
+#pragma once
+// The inputs of the probabilistic screen (docs/uncertainty.md): the uncertain model (every
+// uncertain quantity as a distribution), the wells with their rate steps, the fault segments
+// with their check points, the run settings, and the ordered list of the sampled inputs.
+//
+// Sampler order (the column order of every sensitivity table and of the manifest): formation
+// (k, h, φ, c_t, μ — or T, S), vertical and pore-pressure gradients, SHmax azimuth, the
+// horizontal-stress inputs of the chosen model, friction, cohesion, per-fault friction,
+// rate factor, per-well rate factors. The orientation perturbations are not sampled by the
+// stats::Sampler but drawn from each realization's auxiliary stream (per fault), so they are
+// listed last by sampled_input_names() only.
+#include <cstdint>
+#include <limits>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/geomech/horizontal_stress.hpp"
+#include "core/hydro/image_wells.hpp"
+#include "core/hydro/pressure_surrogate.hpp"
+#include "core/hydro/similarity_table.hpp"
+#include "core/stats/distribution.hpp"
+#include "core/stats/sampler.hpp"
+
+namespace slipscreen::probabilistic {
+
+enum class HorizontalStressModel { gradients, uniaxial_strain, a_phi };
+
+// Uncertain inputs. Each is a distribution (stats::Distribution::fixed for a known value).
+struct UncertainModel {
+  // Formation: either (k, h, φ, c_t, μ) or (T, S) with fluid density.
+  bool from_transmissivity = false;
+  stats::Distribution permeability = stats::Distribution::fixed(1e-14);
+  stats::Distribution thickness = stats::Distribution::fixed(100.0);
+  stats::Distribution porosity = stats::Distribution::fixed(0.1);
+  stats::Distribution total_compressibility = stats::Distribution::fixed(1e-9);
+  stats::Distribution viscosity = stats::Distribution::fixed(5e-4);
+  stats::Distribution transmissivity = stats::Distribution::fixed(1e-5);
+  stats::Distribution storativity = stats::Distribution::fixed(1e-5);
+  double fluid_density = 1000.0;  // kg/m³ (T, S form)
+
+  // Stress at the reference depth.
+  double depth = 3000.0;  // m
+  HorizontalStressModel model = HorizontalStressModel::gradients;
+  stats::Distribution vertical_gradient = stats::Distribution::fixed(25e3);        // Pa/m
+  stats::Distribution pore_pressure_gradient = stats::Distribution::fixed(9.8e3);  // Pa/m
+  stats::Distribution shmax_azimuth = stats::Distribution::fixed(0.0);             // rad
+  stats::Distribution shmax_gradient = stats::Distribution::fixed(30e3);           // Pa/m (gradients)
+  stats::Distribution shmin_gradient = stats::Distribution::fixed(18e3);           // Pa/m (gradients)
+  stats::Distribution a_phi = stats::Distribution::fixed(1.5);                      // (a_phi)
+  stats::Distribution poisson_ratio = stats::Distribution::fixed(0.25);             // (uniaxial_strain)
+  geomech::UniaxialStrainModel uniaxial;  // fixed tectonic terms and Biot (uniaxial_strain)
+  // Friction at which A_φ magnitudes are at frictional equilibrium; empty: the sampled friction.
+  std::optional<double> equilibrium_friction;
+  double stress_path_kappa = 0.0;  // α(1−2ν)/(1−ν) of the poroelastic path; 0 = none
+
+  // Faults.
+  stats::Distribution friction = stats::Distribution::fixed(0.6);
+  stats::Distribution cohesion = stats::Distribution::fixed(0.0);  // Pa
+  std::vector<std::string> fault_ids;                              // names, per fault index
+  std::vector<std::optional<stats::Distribution>> fault_friction;  // per fault index; empty = global
+  // Perturbations around the mapped orientation, drawn per fault and realization (rad).
+  stats::Distribution strike_perturbation = stats::Distribution::fixed(0.0);
+  stats::Distribution dip_perturbation = stats::Distribution::fixed(0.0);
+
+  // Injection rates.
+  stats::Distribution rate_factor = stats::Distribution::fixed(1.0);  // all wells
+  std::vector<std::optional<stats::Distribution>> well_rate_factor;  // per well; multiplies the above
+};
+
+struct WellInput {
+  std::string id;
+  double x = 0.0, y = 0.0, radius = 0.1;  // working CRS, m
+  hydro::RateSteps steps;
+};
+
+struct SegmentInput {
+  std::vector<hydro::ObservationPoint> check_points;
+  double strike = 0.0, dip = 0.0;  // rad, mapped orientation (right-hand rule)
+  std::size_t fault = 0;           // index of the parent fault
+};
+
+struct RunSettings {
+  std::uint64_t seed = 1;
+  std::uint64_t realizations = 1000;
+  stats::SamplingMethod method = stats::SamplingMethod::latin_hypercube;
+  std::vector<double> tracking_times;    // s, increasing, every output time included
+  std::vector<std::size_t> output_index; // tracking index of each output time
+  std::vector<hydro::Boundary> boundaries;
+  // Chebyshev nodes in ln D; 0: automatic, 8 per e-fold of D_max/D_min (at least 4, at most 64).
+  std::size_t surrogate_nodes = 0;
+  // Probability maps for unmapped faults: pixel centres (working CRS). For each pixel, the
+  // probability that a fault of the most dangerous orientation (minimum Δp_crit over a 5° grid
+  // of strikes and dips, global friction) — and optionally of a given orientation — has slipped.
+  std::vector<hydro::ObservationPoint> map_points;
+  std::optional<double> map_strike, map_dip;  // rad
+  // Audit: keep the fast path's per-realization results for these realizations (by index) and
+  // segments, so that they can be checked against the plain method (plain_slip_check).
+  std::vector<std::uint64_t> audit_realizations;
+  std::vector<std::size_t> audit_segments;
+  // Well attribution of every segment's median Δp at every output time (SegmentResult::median).
+  bool attribute_median = true;
+};
+
+// The sampled inputs in sampler order; each slot remembers where a model input sits.
+struct InputList {
+  std::vector<stats::UncertainInput> inputs;
+  std::size_t k = 0, h = 0, phi = 0, ct = 0, mu_f = 0, t = 0, s = 0;
+  std::size_t sv_grad = 0, pp_grad = 0, azimuth = 0, shmax_g = 0, shmin_g = 0, aphi = 0, poisson = 0;
+  std::size_t friction = 0, cohesion = 0, rate = 0;
+  std::vector<std::size_t> fault_friction;  // per fault, npos when global
+  std::vector<std::size_t> well_rate;       // per well, npos when none
+  static constexpr std::size_t npos = std::numeric_limits<std::size_t>::max();
+
+  std::size_t add(std::string name, const stats::Distribution& d) {
+    inputs.push_back({std::move(name), d});
+    return inputs.size() - 1;
+  }
+};
+
+// The sampled inputs of `model` for these wells and `fault_count` faults, in sampler order.
+InputList make_inputs(const UncertainModel& model, const std::vector<WellInput>& wells, std::size_t fault_count);
+
+// The names of the sampled inputs in sampler order, then "strike_perturbation" and
+// "dip_perturbation" (for tables and the manifest).
+std::vector<std::string> sampled_input_names(const UncertainModel& model, const std::vector<WellInput>& wells,
+                                             std::size_t fault_count);
+
+}  // namespace slipscreen::probabilistic
