@@ -122,7 +122,7 @@ int main(int argc, char** argv) {
   const std::string load_after = load_average();
 
   // 3. The probabilistic screen alone, auditing a subsample against the plain method.
-  const scenario::UncertaintySpec spec = scenario::load_uncertainty(s);
+  const scenario::UncertaintySpec& spec = s.uncertainty;
   std::vector<std::uint64_t> audit_r;
   for (std::uint64_t i = 0; i < 8; ++i) audit_r.push_back(i * 1249);
   std::vector<std::size_t> audit_s;

@@ -142,9 +142,7 @@ std::optional<run::RtRequest> build_rt(const CatalogOptions& o) {
 int run_catalog(const CatalogOptions& o, Context& ctx) {
   run::CatalogJob job;
   job.file = o.file;
-  if (o.format == "csv") job.format = formats::CatalogFormat::csv;
-  else if (o.format == "quakeml") job.format = formats::CatalogFormat::quakeml;
-  else if (o.format != "auto") throw InputError("--format", o.format, "auto, csv or quakeml");
+  job.format = formats::parse_catalog_format(o.format, "--format");
   if (!o.columns.empty()) job.columns = formats::parse_catalog_columns(o.columns);
   job.strict = o.strict;
   job.filter = build_filter(o);

@@ -44,7 +44,7 @@ void print_scenario_summary(const scenario::ResolvedScenario& s, std::ostream& o
       << r.faults.check_points << " check points each\n";
   const auto& f = r.formation;
   out << "  formation: " << (f.name.empty() ? "(unnamed)" : f.name) << ", diffusivity " << std::setprecision(3)
-      << f.diffusivity() << " m2/s\n";
+      << scenario::theis_parameters_of(f).diffusivity << " m2/s\n";
 
   int existing = 0, proposed = 0, shut = 0;
   double first = std::numeric_limits<double>::infinity(), last = -first, volume = 0;
@@ -71,7 +71,7 @@ void print_scenario_summary(const scenario::ResolvedScenario& s, std::ostream& o
       << ", cell " << fixed(o.grid.cell_size, 0) << " m, CRS " << (o.grid.crs.empty() ? r.crs : o.grid.crs) << "\n";
   out << "  writes:" << (o.tables ? " tables" : "") << (o.rasters ? (o.cog ? " raster (COG)" : " raster") : "")
       << (o.geopackage ? " geopackage" : "") << " manifest, into " << (o.folder.empty() ? "(--out)" : o.folder) << "\n";
-  out << "  seed " << s.seed << (s.uncertainty ? ", [uncertainty] given" : ", no [uncertainty] (deterministic screen)")
+  out << "  seed " << s.seed << (s.uncertainty.given ? ", [uncertainty] given" : ", no [uncertainty] (deterministic screen)")
       << "\n";
   if (s.catalog)
     out << "Catalog    " << s.catalog->file << " (reviewed with the run; footprint threshold "

@@ -52,7 +52,7 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
   if (!o.force && std::filesystem::exists(target))
     throw RefusedError("run folder '" + target.generic_string() +
                        "' exists: choose another folder or give --force to replace it");
-  const scenario::UncertaintySpec spec = scenario::load_uncertainty(s);
+  const scenario::UncertaintySpec& spec = s.uncertainty;
 
   ProgressBridge bridge{&o};
   stage("pressure at fault segments");

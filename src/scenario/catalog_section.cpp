@@ -63,9 +63,21 @@ CatalogSpec read_catalog_spec(const formats::Section& s, const std::vector<WellS
   c.file = formats::display_name(c.path);
   c.where = s.where(*s.find("file"));
   c.format = s.optional_string("format").value_or("auto");
-  if (c.format != "auto" && c.format != "csv" && c.format != "quakeml")
+  try {
+    c.format_kind = formats::parse_catalog_format(c.format, "format");
+  } catch (const InputError&) {
     s.fail("format", c.format, "'auto', 'csv' or 'quakeml'");
+  }
   c.columns = s.optional_string("columns").value_or("");
+  if (!c.columns.empty()) {
+    try {
+      c.column_map = formats::parse_catalog_columns(c.columns);
+    } catch (const InputError& e) {
+      // The mapping's own field ("column mapping key 'tme'") under the key path, located at the key.
+      const auto f = s.find("columns");
+      throw InputError(s.key_path(*f, "columns") + ": " + e.field(), e.value(), e.expected(), s.where(*f));
+    }
+  }
   c.strict = s.boolean_or("strict", false);
   c.from = optional_time(s, "from");
   c.to = optional_time(s, "to");

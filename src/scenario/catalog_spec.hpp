@@ -6,6 +6,7 @@
 #include <string>
 #include <vector>
 
+#include "formats/catalog/catalog_file.hpp"
 #include "scenario/unset.hpp"
 
 namespace slipscreen::scenario {
@@ -18,6 +19,8 @@ struct CatalogSpec {
   std::string where;            // "scenario.toml line 60, column 8" of the file key
   std::string format = "auto";  // auto, csv, quakeml
   std::string columns;          // CSV column mapping text ("" = defaults)
+  formats::CatalogFormat format_kind = formats::CatalogFormat::automatic;  // `format`, parsed
+  formats::CatalogColumns column_map;  // `columns`, parsed (checked against the file's header when read)
   bool strict = false;
   // Filters (events outside them are counted, not used)
   std::optional<double> from, to;            // s

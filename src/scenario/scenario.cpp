@@ -8,6 +8,8 @@
 #include "formats/files/path_policy.hpp"
 #include "formats/toml/toml_section.hpp"
 #include "scenario/catalog_section.hpp"
+#include "scenario/region_reader.hpp"
+#include "scenario/uncertainty_reader.hpp"
 #include "scenario/wells.hpp"
 
 namespace slipscreen::scenario {
@@ -183,12 +185,26 @@ WellSpec read_proposed(const formats::Section& s, const std::string& default_crs
 
 }  // namespace
 
+namespace {
+
+UncertaintyContext uncertainty_context(const ResolvedScenario& sc) {
+  UncertaintyContext c;
+  c.file = sc.file;
+  c.seed = sc.seed;
+  c.stress_model = sc.region.stress.model;
+  c.density_layers = !sc.region.stress.density_layers.empty();
+  c.from_transmissivity = sc.region.formation.from_transmissivity;
+  for (const auto& w : sc.wells) c.well_ids.push_back(w.id);
+  return c;
+}
+
+}  // namespace
+
 ResolvedScenario load_scenario(const fs::path& path) {
   ResolvedScenario sc;
   sc.path = path;
   sc.file = formats::display_name(path);
   const formats::TomlDocument doc = formats::parse_toml_file(path, sc.file);
-  sc.document = doc.root;
   sc.inputs.push_back(path);
   const fs::path dir = path.parent_path();
   const formats::Section top({{doc.root.get(), sc.file, "", dir}});
@@ -260,10 +276,12 @@ ResolvedScenario load_scenario(const fs::path& path) {
     sc.inputs.push_back(sc.catalog->path);
   }
 
+  const toml::table* uncertainty = nullptr;
   if (auto u = top.find("uncertainty")) {
     if (!u->node->is_table()) top.fail("uncertainty", formats::toml_value_text(*u->node), "a table [uncertainty]");
-    sc.uncertainty = u->node->as_table();
+    uncertainty = u->node->as_table();
   }
+  sc.uncertainty = read_uncertainty(uncertainty, uncertainty_context(sc));
   return sc;
 }
 
@@ -306,9 +324,10 @@ nlohmann::json to_json(const ResolvedScenario& s) {
       break;
   }
   const auto& fm = r.formation;
+  const hydro::TheisParameters theis = theis_parameters_of(fm);
   json formation = {{"name", fm.name},
-                    {"diffusivity_m2_per_s", num(fm.diffusivity())},
-                    {"mobility_thickness_m3_per_Pa_s", num(fm.mobility_thickness())},
+                    {"diffusivity_m2_per_s", num(theis.diffusivity)},
+                    {"pressure_per_rate_Pa_s_per_m3", num(theis.pressure_per_rate)},
                     {"fluid_density_kg_per_m3", num(fm.fluid_density)}};
   if (fm.from_transmissivity) {
     formation["transmissivity_m2_per_s"] = num(fm.transmissivity);
@@ -371,7 +390,7 @@ nlohmann::json to_json(const ResolvedScenario& s) {
                       {"stress", stress}, {"faults", faults}, {"formation", formation}}},
           {"wells", wells},
           {"output", out},
-          {"uncertainty_given", s.uncertainty != nullptr}};
+          {"uncertainty_given", s.uncertainty.given}};
 }
 
 }  // namespace slipscreen::scenario

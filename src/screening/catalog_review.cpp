@@ -203,19 +203,7 @@ CatalogReview review_catalog(const scenario::ResolvedScenario& s, const Prepared
     v.segment_faults.push_back(seg.fault_id);
   }
   const scenario::CatalogSpec& c = v.spec;
-  const formats::CatalogFormat fmt = c.format == "csv"       ? formats::CatalogFormat::csv
-                            : c.format == "quakeml" ? formats::CatalogFormat::quakeml
-                                                    : formats::CatalogFormat::automatic;
-  formats::CatalogColumns columns;
-  if (!c.columns.empty()) {
-    try {
-      columns = formats::parse_catalog_columns(c.columns);
-    } catch (const InputError& e) {
-      throw InputError(std::string("catalog.columns: ") + e.what(), c.columns, "a column mapping (docs/catalogs.md)", c.where);
-    }
-  }
-  v.read = formats::read_catalog(c.path.string(), fmt, columns, c.strict);
-  v.read.path = c.file;
+  v.read = *p.catalog;  // read by prepare_run, before any computing
   const seismo::Catalog working = to_working_crs(v.read, p);
 
   seismo::CatalogFilter f;

@@ -66,12 +66,6 @@ geomech::AndersonianStress stress_at_reference_depth(const scenario::RegionSpec&
   }
 }
 
-hydro::TheisParameters theis_parameters_of(const scenario::FormationSpec& f) {
-  if (f.from_transmissivity) return hydro::theis_parameters(hydro::Aquifer{f.transmissivity, f.storativity, f.fluid_density});
-  return hydro::theis_parameters(
-      hydro::Formation{f.permeability, f.thickness, f.viscosity, f.porosity, f.total_compressibility});
-}
-
 hydro::RateHistory rate_history_of(const scenario::WellSpec& w) {
   std::vector<hydro::RatePeriod> periods;
   for (const auto& p : w.periods) periods.push_back({p.start, p.end, p.rate});
@@ -164,6 +158,8 @@ PreparedRun prepare_run(const scenario::ResolvedScenario& s, bool allow_network)
   std::set<std::string> ids;
   for (const auto& seg : run.segments) ids.insert(seg.fault_id);
   run.fault_count = ids.size();
+  // [uncertainty.fault."id"] names faults of this map (checked before any computing).
+  scenario::check_fault_ids(s.uncertainty, std::vector<std::string>(ids.begin(), ids.end()));
 
   // Meridian convergence: strikes come from the map (grid azimuths); SHmax is a true azimuth.
   double cx = 0, cy = 0;
@@ -212,6 +208,15 @@ PreparedRun prepare_run(const scenario::ResolvedScenario& s, bool allow_network)
   if (!s.histories_file.empty()) run.manifest_inputs.push_back({"histories", s.histories_path, s.histories_file});
   run.manifest_inputs.push_back({"fault map", r.faults.path, formats::display_name(r.faults.path)});
   if (s.catalog) run.manifest_inputs.push_back({"catalog", s.catalog->path, s.catalog->file});
+  if (s.catalog) {  // read now, so that a bad column mapping stops the run before any computing
+    const scenario::CatalogSpec& c = *s.catalog;
+    try {
+      run.catalog = formats::read_catalog(c.path.string(), c.format_kind, c.column_map, c.strict);
+    } catch (const InputError& e) {
+      throw e.located(c.where);  // the scenario's [catalog] key, then the catalog file's own line
+    }
+    run.catalog->path = c.file;
+  }
   return run;
 }
 

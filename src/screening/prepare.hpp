@@ -5,12 +5,14 @@
 // output folder exists.
 #include "core/geomech/horizontal_stress.hpp"
 #include <filesystem>
+#include <optional>
 #include <string>
 #include <vector>
 
 #include "core/geometry/raster_grid.hpp"
 #include "core/hydro/pressure_grid.hpp"
 #include "core/screen/deterministic_screen.hpp"
+#include "formats/catalog/catalog_file.hpp"
 #include "formats/gis/crs.hpp"
 #include "formats/files/manifest.hpp"
 #include "scenario/scenario.hpp"
@@ -33,6 +35,7 @@ struct PreparedRun {
   double convergence_rad = 0;          // meridian convergence at the centre of the faults
   std::vector<formats::ManifestInput> manifest_inputs;
   std::size_t fault_count = 0;
+  std::optional<formats::CatalogReadResult> catalog;  // [catalog], as read (the file's own CRS)
 };
 
 // Throws InputError / IoError / RefusedError naming the file, feature or key.
@@ -43,9 +46,6 @@ PreparedRun prepare_run(const scenario::ResolvedScenario& s, bool allow_network)
 geomech::UniaxialStrainModel uniaxial_strain_model_of(const scenario::StressSpec& st);
 
 geomech::AndersonianStress stress_at_reference_depth(const scenario::RegionSpec& r);
-
-// Theis parameters (D and μ/(4π k h)) of the region's formation.
-hydro::TheisParameters theis_parameters_of(const scenario::FormationSpec& f);
 
 // The pressure-grid engine's sources (every well with its image wells, signed rates) and
 // formation (smallest well radius) of a prepared run.

@@ -80,7 +80,6 @@ probabilistic::UncertainModel uncertain_model(const scenario::ResolvedScenario& 
     segment_fault.push_back(it->second);
   }
   m.fault_ids = fault_ids;
-  scenario::check_fault_ids(spec, fault_ids);
   m.well_rate_factor.assign(p.inputs.wells.size(), std::nullopt);
 
   // The scenario's distributions replace the best estimates they name.

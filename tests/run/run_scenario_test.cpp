@@ -155,3 +155,29 @@ TEST_CASE("bad inputs found at run time leave no run folder behind") {
   }
   CHECK(entries(tmp) == 0);
 }
+
+TEST_CASE("inputs found bad from the fault map or the catalog stop the run before any computing") {
+  // Each is refused while the run reads its inputs: the progress never reaches the pressure
+  // computation, and no run folder is created.
+  const fs::path bad = fs::path(SLIPSCREEN_TEST_DATA) / "scenario/bad";
+  const slipscreen::test::TempDir temp("run-bad-early");
+  const fs::path tmp = temp.path();
+  for (const char* name : {"catalog_columns.toml", "uncertainty_unknown_fault.toml"}) {
+    CAPTURE(name);
+    const auto s = load_scenario(bad / name);
+    RunOptions o = options_into(tmp / "out");
+    std::vector<std::string> stages;
+    o.progress = [&](const std::string& stage, double) {
+      if (stages.empty() || stages.back() != stage) stages.push_back(stage);
+    };
+    CHECK_THROWS_AS(run_scenario(s, o), InputError);
+    CHECK(stages == std::vector<std::string>{"reading faults and wells"});
+    CHECK(entries(tmp) == 0);
+  }
+  // The scenario itself refuses the rest while it is loaded (tests/cli/cases/validate.case).
+  CHECK_THROWS_WITH_AS(load_scenario(bad / "uncertainty_unknown_well.toml"), doctest::Contains("'W9'"), InputError);
+  CHECK_THROWS_WITH_AS(load_scenario(bad / "uncertainty_misspelt.toml"), doctest::Contains("did you mean 'permeability'"),
+                       Error);
+  CHECK_THROWS_WITH_AS(load_scenario(bad / "catalog_mapping_key.toml"), doctest::Contains("did you mean 'time'"),
+                       InputError);
+}

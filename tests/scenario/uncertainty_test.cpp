@@ -18,13 +18,13 @@ namespace {
 scenario::UncertaintySpec with_block(const std::string& block) {
   TinyScenario t;
   t.append("scenario.toml", "\n" + block);
-  return scenario::load_uncertainty(scenario::load_scenario(t.scenario()));
+  return scenario::load_scenario(t.scenario()).uncertainty;
 }
 }  // namespace
 
 TEST_CASE("no [uncertainty] table: the documented defaults") {
   TinyScenario t;
-  const auto spec = scenario::load_uncertainty(scenario::load_scenario(t.scenario()));
+  const auto spec = scenario::load_scenario(t.scenario()).uncertainty;
   CHECK_FALSE(spec.given);
   CHECK(spec.values.empty());
   CHECK(spec.realizations.value() == 1000);

@@ -31,4 +31,11 @@ CatalogReadResult read_catalog(const std::string& path, CatalogFormat format, co
   return r;
 }
 
+CatalogFormat parse_catalog_format(const std::string& text, const std::string& field) {
+  if (text == "auto") return CatalogFormat::automatic;
+  if (text == "csv") return CatalogFormat::csv;
+  if (text == "quakeml") return CatalogFormat::quakeml;
+  throw InputError(field, text, "'auto', 'csv' or 'quakeml'");
+}
+
 }  // namespace slipscreen::formats

@@ -14,6 +14,10 @@ namespace slipscreen::formats {
 
 enum class CatalogFormat { automatic, csv, quakeml };
 
+// "auto", "csv" or "quakeml" as written in a scenario or on the command line. Throws InputError
+// naming `field` for anything else.
+CatalogFormat parse_catalog_format(const std::string& text, const std::string& field);
+
 // Chooses the reader by `format`, or for `automatic` by extension (.csv/.txt -> CSV,
 // .xml/.qml/.quakeml -> QuakeML) and otherwise by the first character ('<' -> QuakeML).
 // Throws IoError if the file cannot be read; InputError for a bad header, and in strict mode

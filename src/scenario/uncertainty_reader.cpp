@@ -1,0 +1,276 @@
+#include "scenario/uncertainty_reader.hpp"
+
+#include <algorithm>
+#include <charconv>
+#include <cmath>
+#include <limits>
+#include <optional>
+
+#include <nlohmann/json.hpp>
+
+#include "core/errors.hpp"
+#include "core/stats/distribution_text.hpp"
+#include "core/stats/random_stream.hpp"
+#include "core/util/suggest.hpp"
+#include "formats/toml/toml_section.hpp"
+
+namespace slipscreen::scenario {
+namespace {
+
+using units::Dimension;
+constexpr double kInf = std::numeric_limits<double>::infinity();
+// Largest probability a distribution may put outside its quantity's physical range.
+constexpr double kOutsideLimit = 1e-9;
+
+// The physical range of a quantity: (lo, hi] or [lo, hi] etc.
+struct Range {
+  double lo = -kInf, hi = kInf;
+  bool lo_open = false, hi_open = false;
+  const char* what = "";  // "positive values", for messages
+};
+constexpr Range kAny{};
+constexpr Range kPositive{0.0, kInf, true, false, "positive values"};
+constexpr Range kNonNegative{0.0, kInf, false, false, "values >= 0"};
+constexpr Range kPorosity{0.0, 1.0, true, false, "values in (0, 1]"};
+constexpr Range kPoisson{0.0, 0.5, true, true, "values in (0, 0.5)"};
+constexpr Range kAPhi{0.0, 3.0, false, false, "values in [0, 3]"};
+
+struct KeySpec {
+  std::string_view key;
+  Dimension dimension;
+  Range range;
+};
+
+std::string number(double v) {
+  char buf[32];
+  const auto r = std::to_chars(buf, buf + sizeof buf, v, std::chars_format::general, 3);
+  return std::string(buf, r.ptr);
+}
+
+// Reads one distribution-valued key of `section`, if present, into `spec` under `out_key`.
+void read_value(const formats::Section& section, const KeySpec& k, const std::string& out_key, UncertaintySpec& spec) {
+  const auto f = section.find(k.key);
+  if (!f) return;
+  const std::string path = section.key_path(*f, k.key);
+  const std::string where = section.where(*f);
+  std::string text;
+  if (auto s = f->node->as_string())
+    text = s->get();
+  else if (f->node->is_number())
+    text = formats::toml_value_text(*f->node);
+  else
+    throw InputError(path, formats::toml_value_text(*f->node), "a value or a distribution written as a string, e.g. 'normal(0.6, 0.05)'", where);
+  std::optional<stats::Distribution> d;
+  try {
+    d = stats::parse_distribution(text, k.dimension, path);
+  } catch (const InputError& e) {
+    throw e.located(where);
+  }
+  // Physical range: a fixed value must lie inside; a distribution may put at most 1e-9 of its
+  // probability outside (so that no realization of a feasible count leaves the range).
+  const Range& r = k.range;
+  if (d->is_fixed()) {
+    const double v = d->a();
+    const bool ok = (r.lo_open ? v > r.lo : v >= r.lo) && (r.hi_open ? v < r.hi : v <= r.hi);
+    if (!ok) throw InputError(path, text, std::string("a value among ") + r.what, where);
+  } else {
+    const double below = std::isinf(r.lo) ? 0.0 : d->cdf(r.lo);
+    const double above = std::isinf(r.hi) ? 0.0 : 1.0 - d->cdf(r.hi);
+    if (below > kOutsideLimit || above > kOutsideLimit)
+      throw InputError(path, text,
+                       std::string("a distribution of ") + r.what + " (this one puts " + number(below + above) +
+                           " of its probability outside; truncnormal or lognormal keep a quantity in range)",
+                       where);
+  }
+  spec.values.push_back(UncertainValue{out_key, k.dimension, *d, text, where});
+}
+
+void read_keys(const formats::Section& section, std::initializer_list<KeySpec> keys, const std::string& prefix,
+               UncertaintySpec& spec) {
+  for (const auto& k : keys) read_value(section, k, prefix + std::string(k.key), spec);
+}
+
+const std::initializer_list<KeySpec> kFaultKeys = {
+    {"friction", Dimension::dimensionless, kPositive},
+    {"cohesion", Dimension::pressure, kNonNegative},
+    {"strike_perturbation", Dimension::angle, kAny},
+    {"dip_perturbation", Dimension::angle, kAny},
+};
+
+std::string stress_model_name(StressModel m) {
+  switch (m) {
+    case StressModel::gradients: return "gradients";
+    case StressModel::uniaxial_strain: return "uniaxial_strain";
+    case StressModel::a_phi: return "a_phi";
+  }
+  return "?";
+}
+
+void read_stress(const formats::Section& stress, const UncertaintyContext& ctx, UncertaintySpec& spec) {
+  struct StressKey {
+    KeySpec spec;
+    int models;  // bit mask of StressModel values where the key applies
+  };
+  constexpr int kAll = 7, kGrad = 1 << static_cast<int>(StressModel::gradients),
+                kUni = 1 << static_cast<int>(StressModel::uniaxial_strain), kAphi = 1 << static_cast<int>(StressModel::a_phi);
+  const std::vector<StressKey> keys = {
+      {{"vertical_gradient", Dimension::pressure_gradient, kPositive}, kAll},
+      {{"shmax_azimuth", Dimension::angle, kAny}, kAll},
+      {{"shmax_gradient", Dimension::pressure_gradient, kPositive}, kGrad},
+      {{"shmin_gradient", Dimension::pressure_gradient, kPositive}, kGrad},
+      {{"poisson_ratio", Dimension::dimensionless, kPoisson}, kUni},
+      {{"a_phi", Dimension::dimensionless, kAPhi}, kAphi},
+  };
+  const int model = 1 << static_cast<int>(ctx.stress_model);
+  std::vector<std::string> applicable;
+  for (const auto& k : keys)
+    if (k.models & model) applicable.emplace_back(k.spec.key);
+  std::string list;
+  for (const auto& a : applicable) list += (list.empty() ? "" : ", ") + a;
+  for (const auto& layer : stress.layers()) {
+    if (!layer.table) continue;
+    for (const auto& [name, node] : *layer.table) {
+      const auto it = std::find_if(keys.begin(), keys.end(), [&](const StressKey& k) { return k.spec.key == name.str(); });
+      const std::string path = "uncertainty.stress." + std::string(name.str());
+      const std::string where = formats::toml_where(layer.file, node.source());
+      if (it == keys.end())
+        throw InputError(path, formats::toml_value_text(node),
+                         "a key of [uncertainty.stress]: " + list + util::did_you_mean(name.str(), applicable), where);
+      if (!(it->models & model))
+        throw InputError(path, formats::toml_value_text(node),
+                         "a key of the region's stress model '" + stress_model_name(ctx.stress_model) + "': " + list, where);
+      if (it->spec.key == "vertical_gradient" && ctx.density_layers)
+        throw InputError(path, formats::toml_value_text(node),
+                         "no vertical_gradient: the region gives Sv by a density table", where);
+    }
+  }
+  for (const auto& k : keys)
+    if (k.models & model) read_value(stress, k.spec, "stress." + std::string(k.spec.key), spec);
+}
+
+// Ids of the sub-tables of [uncertainty.fault] or [uncertainty.well], each a table.
+std::vector<std::string> sub_table_ids(const formats::Section& s, const std::string& prefix) {
+  std::vector<std::string> ids;
+  for (const auto& layer : s.layers()) {
+    if (!layer.table) continue;
+    for (const auto& [name, node] : *layer.table) {
+      if (!node.is_table())
+        throw InputError(prefix + "." + std::string(name.str()), formats::toml_value_text(node),
+                         "a table [" + prefix + ".\"" + std::string(name.str()) + "\"]", formats::toml_where(layer.file, node.source()));
+      ids.emplace_back(name.str());
+    }
+  }
+  return ids;
+}
+
+}  // namespace
+
+UncertaintySpec read_uncertainty(const toml::table* table, const UncertaintyContext& ctx) {
+  UncertaintySpec spec;
+  spec.seed = ctx.seed;
+  if (!table) return spec;
+  spec.given = true;
+  const formats::Section top({formats::Section::Layer{table, ctx.file, "uncertainty", {}}});
+  top.allow({"realizations", "sampler", "confidence", "thresholds", "pore_pressure_gradient", "rate_factor", "stress",
+             "formation", "faults", "fault", "well", "maps"});
+
+  if (const auto n = top.optional_integer("realizations")) {
+    if (*n < 1 || *n > stats::RealizationCount::kMax)
+      top.fail("realizations", std::to_string(*n), "a whole number of realizations from 1 to 100000000");
+    spec.realizations = stats::RealizationCount(*n, "uncertainty.realizations");
+  }
+  if (const auto s = top.optional_string("sampler")) {
+    try {
+      spec.sampler = stats::parse_sampling_method(*s, "uncertainty.sampler");
+    } catch (const InputError& e) {
+      throw e.located(top.where(*top.find("sampler")));
+    }
+  }
+  if (top.has("confidence")) {
+    spec.confidence = top.quantity("confidence", Dimension::dimensionless);
+    if (!(spec.confidence > 0.0 && spec.confidence < 1.0))
+      top.fail("confidence", formats::toml_value_text(*top.find("confidence")->node), "a level between 0 and 1, such as 0.95");
+  }
+  if (const auto f = top.find("thresholds")) {
+    spec.thresholds.clear();
+    const auto take = [&](const toml::node& n) {
+      const auto v = n.value<double>();
+      if (!n.is_number() || !v || !(*v > 0.0 && *v < 1.0))
+        throw InputError("uncertainty.thresholds", formats::toml_value_text(n), "probabilities between 0 and 1, such as [0.05, 0.2]",
+                         formats::toml_where(ctx.file, n.source()));
+      spec.thresholds.push_back(*v);
+    };
+    if (const auto* arr = f->node->as_array()) {
+      for (const auto& n : *arr) take(n);
+    } else {
+      take(*f->node);
+    }
+    std::sort(spec.thresholds.begin(), spec.thresholds.end());
+    spec.thresholds.erase(std::unique(spec.thresholds.begin(), spec.thresholds.end()), spec.thresholds.end());
+    if (spec.thresholds.empty())
+      top.fail("thresholds", "[]", "at least one probability, such as [0.05]");
+  }
+
+  read_keys(top, {{"pore_pressure_gradient", Dimension::pressure_gradient, kPositive},
+                  {"rate_factor", Dimension::dimensionless, kNonNegative}},
+            "", spec);
+  read_stress(top.child("stress"), ctx, spec);
+
+  const formats::Section formation = top.child("formation");
+  const std::initializer_list<std::string_view> k_form = {"permeability", "thickness", "porosity",
+                                                          "total_compressibility", "viscosity"};
+  const std::initializer_list<std::string_view> t_form = {"transmissivity", "storativity"};
+  formation.allow(ctx.from_transmissivity ? t_form : k_form);
+  if (ctx.from_transmissivity)
+    read_keys(formation, {{"transmissivity", Dimension::diffusivity, kPositive},
+                          {"storativity", Dimension::dimensionless, kPositive}},
+              "formation.", spec);
+  else
+    read_keys(formation, {{"permeability", Dimension::permeability, kPositive},
+                          {"thickness", Dimension::length, kPositive},
+                          {"porosity", Dimension::dimensionless, kPorosity},
+                          {"total_compressibility", Dimension::compressibility, kPositive},
+                          {"viscosity", Dimension::viscosity, kPositive}},
+              "formation.", spec);
+
+  const formats::Section faults = top.child("faults");
+  faults.allow({"friction", "cohesion", "strike_perturbation", "dip_perturbation"});
+  read_keys(faults, kFaultKeys, "faults.", spec);
+
+  const formats::Section fault = top.child("fault");
+  for (const auto& id : sub_table_ids(fault, "uncertainty.fault")) {
+    const formats::Section one = fault.child(id);
+    one.allow({"friction"});  // per fault: friction only (the driver's per-fault input)
+    read_keys(one, {{"friction", Dimension::dimensionless, kPositive}}, "fault." + id + ".", spec);
+    spec.fault_ids.push_back(id);
+  }
+
+  const formats::Section well = top.child("well");
+  for (const auto& id : sub_table_ids(well, "uncertainty.well")) {
+    if (std::find(ctx.well_ids.begin(), ctx.well_ids.end(), id) == ctx.well_ids.end())
+      throw InputError("uncertainty.well", id,
+                       "the id of a well of the scenario" + util::did_you_mean(id, ctx.well_ids),
+                       formats::toml_where(ctx.file, well.layers().front().table->get(id)->source()));
+    const formats::Section one = well.child(id);
+    one.allow({"rate_factor"});
+    read_keys(one, {{"rate_factor", Dimension::dimensionless, kNonNegative}}, "well." + id + ".", spec);
+  }
+
+  std::sort(spec.values.begin(), spec.values.end(), [](const UncertainValue& a, const UncertainValue& b) { return a.key < b.key; });
+  // Probability maps for unmapped faults: cell size and an optional orientation.
+  const formats::Section maps = top.child("maps");
+  maps.allow({"cell_size", "strike", "dip"});
+  spec.map_cell_size = maps.quantity_or("cell_size", units::Dimension::length, 0.0);
+  if (spec.map_cell_size < 0.0) maps.fail("cell_size", std::to_string(spec.map_cell_size) + " m", "a cell size > 0");
+  if (maps.has("strike") != maps.has("dip"))
+    maps.fail(maps.has("strike") ? "dip" : "strike", "(missing)", "both the strike and the dip of the map orientation");
+  if (maps.has("strike")) {
+    spec.map_strike = maps.quantity("strike", units::Dimension::angle);
+    spec.map_dip = maps.quantity("dip", units::Dimension::angle);
+    if (!(*spec.map_dip >= 0.0 && *spec.map_dip <= 1.5707963267948966 + 1e-12))
+      maps.fail("dip", std::to_string(*spec.map_dip * 57.29577951308232) + " deg", "a dip from 0 to 90 deg");
+  }
+  return spec;
+}
+
+}  // namespace slipscreen::scenario
