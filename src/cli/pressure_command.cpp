@@ -2,7 +2,8 @@
 // one or more wells with rate schedules, by the Theis line source with superposition
 // (src/core/hydro). Every input carries its unit; the table shows units in its headers, and
 // `--json` writes the same numbers for scripts. `--example` runs the fictional example in
-// regions/example-pressure/; `--file` reads the same settings from any such TOML file.
+// regions/example-pressure/; `--file` reads the same settings from any such TOML file
+// (scenario/pressure_query.hpp; format in docs/pressure.md).
 #include <CLI/CLI.hpp>
 #include <algorithm>
 #include <cmath>
@@ -14,13 +15,13 @@
 #include <optional>
 #include <ostream>
 #include <sstream>
-#include <toml++/toml.h>
 
 #include "cli/commands.hpp"
 #include "cli/exit_codes.hpp"
 #include "core/errors.hpp"
 #include "core/hydro/pressure_field.hpp"
 #include "core/units/units.hpp"
+#include "scenario/pressure_query.hpp"
 
 namespace slipscreen::cli {
 namespace {
@@ -65,86 +66,37 @@ std::vector<std::string> split(const std::string& s, char sep) {
   return out;
 }
 
-// ---- reading a pressure file (TOML) into the same options ----
+// ---- a settings file (read by scenario::read_pressure_query) as the same options ----
 
-std::string toml_text(const toml::node& n, const std::string& key, const std::string& file) {
-  if (auto s = n.value<std::string>()) return *s;
-  if (auto d = n.value<double>()) {
-    std::ostringstream o;
-    o << std::setprecision(17) << *d;
-    return o.str();
-  }
-  const auto line = n.source().begin.line;
-  throw InputError(key, "(not text)", "a value with its unit in quotes, e.g. \"10 mD\"",
-                   file + " line " + std::to_string(line));
-}
-
-void read_pressure_file(const std::string& path, PressureOptions& o) {
-  if (!std::filesystem::exists(path)) throw IoError("cannot read '" + path + "': no such file");
-  toml::table doc;
-  try {
-    doc = toml::parse_file(path);
-  } catch (const toml::parse_error& e) {
-    throw InputError("file", path, std::string("valid TOML (") + std::string(e.description()) + ")",
-                     path + " line " + std::to_string(e.source().begin.line));
-  }
-  const auto get = [&](const toml::table& t, const char* key, std::string& into) {
-    if (const toml::node* n = t.get(key)) into = toml_text(*n, key, path);
+// Options given on the command line win over the file's.
+void fill_from_file(const scenario::PressureQuery& q, PressureOptions& o) {
+  const auto keep = [](std::string& cli, const std::string& file) {
+    if (cli.empty()) cli = file;
   };
-  if (const toml::table* f = doc["formation"].as_table()) {
-    get(*f, "permeability", o.permeability);
-    get(*f, "thickness", o.thickness);
-    get(*f, "viscosity", o.viscosity);
-    get(*f, "porosity", o.porosity);
-    get(*f, "total_compressibility", o.compressibility);
-    get(*f, "transmissivity", o.transmissivity);
-    get(*f, "storativity", o.storativity);
-    get(*f, "fluid_density", o.density);
-  }
-  if (const toml::array* wells = doc["well"].as_array()) {
-    for (const toml::node& wn : *wells) {
-      const toml::table* w = wn.as_table();
-      if (!w) continue;
-      std::string name, x = "0 m", y = "0 m", radius;
-      get(*w, "name", name);
-      get(*w, "x", x);
-      get(*w, "y", y);
-      get(*w, "radius", radius);
-      o.wells.push_back(name + "=" + x + "," + y + (radius.empty() ? "" : "," + radius));
-      if (const toml::array* sched = (*w)["schedule"].as_array()) {
-        for (const toml::node& sn : *sched) {
-          const toml::table* s = sn.as_table();
-          if (!s) continue;
-          std::string rate, from = "0 s";
-          get(*s, "rate", rate);
-          get(*s, "from", from);
-          o.rates.push_back(name + "=" + rate + " from " + from);
-        }
-      }
+  keep(o.permeability, q.permeability);
+  keep(o.thickness, q.thickness);
+  keep(o.viscosity, q.viscosity);
+  keep(o.porosity, q.porosity);
+  keep(o.compressibility, q.total_compressibility);
+  keep(o.transmissivity, q.transmissivity);
+  keep(o.storativity, q.storativity);
+  keep(o.density, q.fluid_density);
+  if (o.wells.empty() && o.rates.empty()) {
+    for (const scenario::PressureWell& w : q.wells) {
+      o.wells.push_back(w.name + "=" + w.x + "," + w.y + (w.radius.empty() ? "" : "," + w.radius));
+      for (const scenario::PressureRateStep& r : w.schedule) o.rates.push_back(w.name + "=" + r.rate + " from " + r.from);
     }
   }
-  if (const toml::array* bs = doc["boundary"].as_array()) {
-    for (const toml::node& bn : *bs) {
-      const toml::table* b = bn.as_table();
-      if (!b) continue;
-      std::string kind, x = "0 m", y = "0 m", azimuth = "0 deg";
-      get(*b, "kind", kind);
-      get(*b, "x", x);
-      get(*b, "y", y);
-      get(*b, "azimuth", azimuth);
-      o.boundaries.push_back(kind + ": " + x + "," + y + "," + azimuth);
-    }
+  if (o.distances.empty() && o.points.empty()) {
+    o.distances = q.distances;
+    o.points = q.points;
   }
-  if (const toml::table* out = doc["output"].as_table()) {
-    if (const toml::array* d = (*out)["distances"].as_array())
-      for (const toml::node& n : *d) o.distances.push_back(toml_text(n, "distances", path));
-    if (const toml::array* t = (*out)["times"].as_array())
-      for (const toml::node& n : *t) o.times.push_back(toml_text(n, "times", path));
-    if (const toml::array* p = (*out)["points"].as_array())
-      for (const toml::node& n : *p) o.points.push_back(toml_text(n, "points", path));
-    get(*out, "unit", o.unit);
-    get(*out, "length_unit", o.length_unit);
-  }
+  if (o.times.empty()) o.times = q.times;
+  if (o.boundaries.empty())
+    for (const scenario::PressureBoundary& b : q.boundaries)
+      o.boundaries.push_back(b.kind + ": " + b.x + "," + b.y + "," + b.azimuth);
+  keep(o.unit, q.unit);
+  keep(o.length_unit, q.length_unit);
 }
 
 // ---- from text to the physics ----
@@ -354,32 +306,7 @@ int run_pressure(PressureOptions o, Context& ctx) {
     source_note = "Fictional example (invented numbers): regions/example-pressure/pressure.toml";
   }
   if (!o.file.empty()) {
-    PressureOptions from_file;
-    read_pressure_file(o.file, from_file);
-    // command-line values win over the file's
-    const auto keep = [](std::string& cli, const std::string& file) {
-      if (cli.empty()) cli = file;
-    };
-    keep(o.permeability, from_file.permeability);
-    keep(o.thickness, from_file.thickness);
-    keep(o.viscosity, from_file.viscosity);
-    keep(o.porosity, from_file.porosity);
-    keep(o.compressibility, from_file.compressibility);
-    keep(o.transmissivity, from_file.transmissivity);
-    keep(o.storativity, from_file.storativity);
-    keep(o.density, from_file.density);
-    if (o.wells.empty() && o.rates.empty()) {
-      o.wells = from_file.wells;
-      o.rates = from_file.rates;
-    }
-    if (o.distances.empty() && o.points.empty()) {
-      o.distances = from_file.distances;
-      o.points = from_file.points;
-    }
-    if (o.times.empty()) o.times = from_file.times;
-    if (o.boundaries.empty()) o.boundaries = from_file.boundaries;
-    keep(o.unit, from_file.unit);
-    keep(o.length_unit, from_file.length_unit);
+    fill_from_file(scenario::read_pressure_query(o.file), o);
     if (source_note.empty()) source_note = "Settings from " + o.file;
   }
   if (o.unit.empty()) o.unit = "MPa";
