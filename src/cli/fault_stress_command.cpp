@@ -16,6 +16,7 @@
 #include <vector>
 
 #include "cli/commands.hpp"
+#include "core/util/trim.hpp"
 #include "cli/exit_codes.hpp"
 #include "core/errors.hpp"
 #include "core/geomech/a_phi.hpp"
@@ -56,15 +57,9 @@ struct Options {
   std::string pressure_unit = "MPa";
 };
 
-std::string trim(const std::string& s) {
-  const auto a = s.find_first_not_of(" \t");
-  if (a == std::string::npos) return "";
-  return s.substr(a, s.find_last_not_of(" \t") - a + 1);
-}
-
 // An angle with a unit ("30 deg", "0.5 rad"), or a bare number in degrees (strike/dip convention).
 double parse_angle(const std::string& text, const std::string& field) {
-  const std::string t = trim(text);
+  const std::string t = util::trim(text);
   double v = 0.0;
   const auto r = std::from_chars(t.data(), t.data() + t.size(), v);
   if (!t.empty() && r.ec == std::errc() && r.ptr == t.data() + t.size()) {

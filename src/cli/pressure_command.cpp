@@ -17,6 +17,7 @@
 #include <sstream>
 
 #include "cli/commands.hpp"
+#include "core/util/trim.hpp"
 #include "cli/exit_codes.hpp"
 #include "core/errors.hpp"
 #include "core/hydro/pressure_field.hpp"
@@ -51,18 +52,11 @@ struct PressureOptions {
   bool json = false;
 };
 
-std::string trim(std::string s) {
-  const auto a = s.find_first_not_of(" \t");
-  if (a == std::string::npos) return "";
-  const auto b = s.find_last_not_of(" \t");
-  return s.substr(a, b - a + 1);
-}
-
 std::vector<std::string> split(const std::string& s, char sep) {
   std::vector<std::string> out;
   std::string cur;
   std::istringstream in(s);
-  while (std::getline(in, cur, sep)) out.push_back(trim(cur));
+  while (std::getline(in, cur, sep)) out.push_back(util::trim(cur));
   return out;
 }
 
@@ -183,7 +177,7 @@ Problem build_problem(const PressureOptions& o) {
   std::vector<double> radius;
   for (const std::string& w : o.wells) {
     const auto eq = w.find('=');
-    const std::string name = trim(eq == std::string::npos ? "" : w.substr(0, eq));
+    const std::string name = util::trim(eq == std::string::npos ? "" : w.substr(0, eq));
     const auto coords = split(eq == std::string::npos ? w : w.substr(eq + 1), ',');
     if (name.empty() || coords.size() < 2 || coords.size() > 3)
       throw InputError("--well", w, "NAME=X,Y[,R_W] with units, e.g. 'A=0 m,1.5 km' or 'A=0 m,0 m,0.1 m'");
@@ -210,7 +204,7 @@ Problem build_problem(const PressureOptions& o) {
     std::size_t wi = 0;
     const auto eq = r.find('=');
     if (eq != std::string::npos) {
-      const std::string name = trim(r.substr(0, eq));
+      const std::string name = util::trim(r.substr(0, eq));
       const auto it = std::find(names.begin(), names.end(), name);
       if (it == names.end())
         throw InputError("--rate", r, "a rate for a well defined by --well (unknown well '" + name + "')");
@@ -219,11 +213,11 @@ Problem build_problem(const PressureOptions& o) {
     } else if (names.size() > 1) {
       throw InputError("--rate", r, "NAME=RATE when there are several wells");
     }
-    std::string rate_text = trim(body), from_text = "0 s";
+    std::string rate_text = util::trim(body), from_text = "0 s";
     const auto from = body.find(" from ");
     if (from != std::string::npos) {
-      rate_text = trim(body.substr(0, from));
-      from_text = trim(body.substr(from + 6));
+      rate_text = util::trim(body.substr(0, from));
+      from_text = util::trim(body.substr(from + 6));
     }
     starts[wi].push_back(units::parse(from_text, Dimension::time, "--rate start"));
     rates[wi].push_back(units::parse(rate_text, Dimension::volume_rate, "--rate"));
@@ -246,7 +240,7 @@ Problem build_problem(const PressureOptions& o) {
   // boundaries: a line through (X, Y) along AZIMUTH (clockwise from +y, north)
   for (const std::string& b : o.boundaries) {
     const auto colon = b.find(':');
-    const std::string kind = trim(colon == std::string::npos ? "" : b.substr(0, colon));
+    const std::string kind = util::trim(colon == std::string::npos ? "" : b.substr(0, colon));
     const auto parts = split(colon == std::string::npos ? "" : b.substr(colon + 1), ',');
     if ((kind != "no-flow" && kind != "constant-pressure") || parts.size() != 3)
       throw InputError("--boundary", b, "'no-flow: X,Y,AZIMUTH' or 'constant-pressure: X,Y,AZIMUTH', e.g. 'no-flow: 2 km,0 m,0 deg'");

@@ -5,6 +5,7 @@
 #include <nlohmann/json.hpp>
 
 #include "core/errors.hpp"
+#include "core/util/trim.hpp"
 #include "formats/files/path_policy.hpp"
 #include "formats/toml/toml_section.hpp"
 #include "scenario/catalog_section.hpp"
@@ -45,7 +46,7 @@ Step parse_step(const formats::Section& s, std::string_view key) {
   } catch (...) {
     s.fail(key, text, expected);
   }
-  std::string unit = formats::trim(std::string_view(text).substr(pos));
+  std::string unit = util::trim(std::string_view(text).substr(pos));
   if (n <= 0) s.fail(key, text, "a positive whole number of days, weeks, months or years");
   if (unit == "year" || unit == "years" || unit == "yr") return {12 * n, 0};
   if (unit == "month" || unit == "months" || unit == "mo") return {n, 0};

@@ -6,6 +6,7 @@
 #include <map>
 
 #include "core/errors.hpp"
+#include "core/util/trim.hpp"
 #include "core/units/units.hpp"
 #include "core/util/civil_date.hpp"
 #include "core/util/suggest.hpp"
@@ -28,7 +29,7 @@ std::size_t need_column(const formats::CsvTable& t, std::string_view name, const
 }
 
 double cell_number(const formats::CsvTable& t, const formats::CsvRow& row, std::size_t col) {
-  const std::string s = formats::trim(row.fields[col]);
+  const std::string s = util::trim(row.fields[col]);
   double v = 0;
   const auto [ptr, ec] = std::from_chars(s.data(), s.data() + s.size(), v);
   if (ec != std::errc{} || ptr != s.data() + s.size() || s.empty() || !std::isfinite(v))
@@ -37,7 +38,7 @@ double cell_number(const formats::CsvTable& t, const formats::CsvRow& row, std::
 }
 
 util::CivilDate parse_date_cell(const formats::CsvTable& t, const formats::CsvRow& row, std::size_t col, bool month) {
-  const std::string s = formats::trim(row.fields[col]);
+  const std::string s = util::trim(row.fields[col]);
   const auto d = month ? util::parse_iso_month(s) : util::parse_iso_date(s);
   if (!d)
     throw InputError(formats::split_header_unit(t.header[col]).name, s,
@@ -109,7 +110,7 @@ std::vector<WellSpec> read_wells(const formats::CsvTable& t, const std::string& 
   std::map<std::string, std::size_t> seen;
   for (const auto& row : t.rows) {
     WellSpec w;
-    w.id = formats::trim(row.fields[c_id]);
+    w.id = util::trim(row.fields[c_id]);
     if (w.id.empty()) throw InputError("id", "", "a well id", t.where(row, c_id));
     if (auto it = seen.find(w.id); it != seen.end())
       throw InputError("id", w.id, "a well id not used before (first on line " + std::to_string(it->second) + ")",
@@ -118,16 +119,16 @@ std::vector<WellSpec> read_wells(const formats::CsvTable& t, const std::string& 
     w.x = cell_number(t, row, c_x);
     w.y = cell_number(t, row, c_y);
     if (lonlat && (w.y < -90 || w.y > 90))
-      throw InputError("lat", formats::trim(row.fields[c_y]), "a latitude in [-90, 90] degrees", t.where(row, c_y));
+      throw InputError("lat", util::trim(row.fields[c_y]), "a latitude in [-90, 90] degrees", t.where(row, c_y));
     w.crs = crs;
     w.top = formats::cell_quantity(t, row, c_top, Dimension::length);
     w.bottom = formats::cell_quantity(t, row, c_bottom, Dimension::length);
     if (!(w.bottom > w.top))
-      throw InputError("bottom", formats::trim(row.fields[c_bottom]), "a depth below the top of the interval", t.where(row, c_bottom));
+      throw InputError("bottom", util::trim(row.fields[c_bottom]), "a depth below the top of the interval", t.where(row, c_bottom));
     w.radius = formats::cell_quantity(t, row, c_radius, Dimension::length);
     if (!(w.radius > 0 && w.radius < 5))
-      throw InputError("radius", formats::trim(row.fields[c_radius]), "a well radius between 0 and 5 m", t.where(row, c_radius));
-    if (c_status) w.status = parse_status(formats::trim(row.fields[*c_status]), "status", t.where(row, *c_status));
+      throw InputError("radius", util::trim(row.fields[c_radius]), "a well radius between 0 and 5 m", t.where(row, c_radius));
+    if (c_status) w.status = parse_status(util::trim(row.fields[*c_status]), "status", t.where(row, *c_status));
     w.proposed = w.status == WellStatus::proposed;
     w.source = t.where(row);
     wells.push_back(std::move(w));
@@ -172,7 +173,7 @@ void read_histories(const formats::CsvTable& t, std::vector<WellSpec>& wells) {
     ids.push_back(w.id);
   }
   for (const auto& row : t.rows) {
-    const std::string id = formats::trim(row.fields[c_well]);
+    const std::string id = util::trim(row.fields[c_well]);
     auto it = by_id.find(id);
     if (it == by_id.end())
       throw InputError("well", id, "a well id from the wells table" + util::did_you_mean(id, ids), t.where(row, c_well));
@@ -185,13 +186,13 @@ void read_histories(const formats::CsvTable& t, std::vector<WellSpec>& wells) {
       p.start = util::to_seconds(parse_date_cell(t, row, c_start, false));
       p.end = util::to_seconds(parse_date_cell(t, row, c_end, false));
       if (!(p.end > p.start))
-        throw InputError("end", formats::trim(row.fields[c_end]), "a date after the start date (the end is exclusive)",
+        throw InputError("end", util::trim(row.fields[c_end]), "a date after the start date (the end is exclusive)",
                          t.where(row, c_end));
     }
     const std::size_t c = c_volume ? *c_volume : *c_rate;
     const double v = formats::cell_quantity(t, row, c, c_volume ? Dimension::volume : Dimension::volume_rate);
     if (v < 0)
-      throw InputError(formats::split_header_unit(t.header[c]).name, formats::trim(row.fields[c]), "a value >= 0 (injection)", t.where(row, c));
+      throw InputError(formats::split_header_unit(t.header[c]).name, util::trim(row.fields[c]), "a value >= 0 (injection)", t.where(row, c));
     p.rate = c_volume ? v / (p.end - p.start) : v;
     p.source = t.where(row);
     it->second->periods.push_back(p);
@@ -233,8 +234,8 @@ RatePeriod parse_schedule_entry(std::string_view text, const std::string& where,
     throw e.located(where);
   }
   if (p.rate < 0) throw InputError(field, s, "a rate >= 0 (injection)", where);
-  const auto d0 = util::parse_iso_date(formats::trim(s.substr(f + 6, t - f - 6)));
-  const auto d1 = util::parse_iso_date(formats::trim(s.substr(t + 4)));
+  const auto d0 = util::parse_iso_date(util::trim(s.substr(f + 6, t - f - 6)));
+  const auto d1 = util::parse_iso_date(util::trim(s.substr(t + 4)));
   if (!d0 || !d1) throw InputError(field, s, expected, where);
   p.start = util::to_seconds(*d0);
   p.end = util::to_seconds(*d1);

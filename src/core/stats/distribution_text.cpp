@@ -9,6 +9,7 @@
 #include <optional>
 #include <vector>
 
+#include "core/util/trim.hpp"
 #include "core/errors.hpp"
 #include "core/util/suggest.hpp"
 
@@ -39,13 +40,6 @@ const std::vector<Syntax>& syntaxes() {
   return table;
 }
 
-std::string_view trim(std::string_view s) {
-  const auto first = s.find_first_not_of(" \t\r\n");
-  if (first == std::string_view::npos) return {};
-  const auto last = s.find_last_not_of(" \t\r\n");
-  return s.substr(first, last - first + 1);
-}
-
 std::string lower(std::string_view s) {
   std::string out(s);
   std::transform(out.begin(), out.end(), out.begin(), [](unsigned char c) { return static_cast<char>(std::tolower(c)); });
@@ -70,7 +64,8 @@ std::string number(double v) {
 }  // namespace
 
 Distribution parse_distribution(std::string_view text_in, units::Dimension dimension, std::string_view field_in) {
-  const std::string_view text = trim(text_in);
+  const std::string trimmed = util::trim(text_in);
+  const std::string_view text = trimmed;
   const std::string field(field_in);
   const std::string whole(text);
   if (text.empty()) throw InputError(field, whole, kKnown + ", such as 'normal(0.6, 0.05)'");
@@ -87,7 +82,7 @@ Distribution parse_distribution(std::string_view text_in, units::Dimension dimen
       text.find(')') != text.size() - 1)
     throw InputError(field, whole, "one pair of parentheses around the parameters, as in 'normal(0.6, 0.05)'");
 
-  const std::string name = lower(trim(text.substr(0, open)));
+  const std::string name = lower(util::trim(text.substr(0, open)));
   const auto it = std::find_if(syntaxes().begin(), syntaxes().end(), [&](const Syntax& s) { return s.name == name; });
   if (it == syntaxes().end())
     throw InputError(field, whole, kKnown + util::did_you_mean(name, names()));
@@ -96,7 +91,7 @@ Distribution parse_distribution(std::string_view text_in, units::Dimension dimen
   // Split the arguments and bind them to parameter names.
   std::map<std::string, std::string> args;  // parameter name -> value text
   const std::string_view inner = text.substr(open + 1, text.size() - open - 2);
-  if (trim(inner).empty()) throw InputError(field, whole, "parameters: " + std::string(syn.usage));
+  if (util::trim(inner).empty()) throw InputError(field, whole, "parameters: " + std::string(syn.usage));
   std::vector<std::string> accepted = syn.positional;
   accepted.insert(accepted.end(), syn.named_only.begin(), syn.named_only.end());
   std::size_t position = 0;
@@ -104,7 +99,8 @@ Distribution parse_distribution(std::string_view text_in, units::Dimension dimen
   std::size_t start = 0;
   while (start <= inner.size()) {
     const auto comma = inner.find(',', start);
-    const std::string_view arg = trim(inner.substr(start, comma == std::string_view::npos ? std::string_view::npos : comma - start));
+    const std::string arg_text = util::trim(inner.substr(start, comma == std::string_view::npos ? std::string_view::npos : comma - start));
+    const std::string_view arg = arg_text;
     start = comma == std::string_view::npos ? inner.size() + 1 : comma + 1;
     if (arg.empty()) throw InputError(field, whole, "a value between every pair of commas: " + std::string(syn.usage));
     std::string key;
@@ -119,8 +115,8 @@ Distribution parse_distribution(std::string_view text_in, units::Dimension dimen
       value = arg;
     } else {
       seen_named = true;
-      key = lower(trim(arg.substr(0, eq)));
-      value = trim(arg.substr(eq + 1));
+      key = lower(util::trim(arg.substr(0, eq)));
+      value = util::trim(arg.substr(eq + 1));
       if (std::find(accepted.begin(), accepted.end(), key) == accepted.end())
         throw InputError(field, whole, "parameters of " + std::string(syn.usage) + ", not '" + key + "'" +
                                            util::did_you_mean(key, accepted));

@@ -5,6 +5,7 @@
 #include <cmath>
 #include <numbers>
 
+#include "core/util/trim.hpp"
 #include "core/errors.hpp"
 #include "core/util/suggest.hpp"
 
@@ -111,13 +112,6 @@ const std::array kUnits = {
     Unit{"1/yr", D::inverse_time, 1.0 / kYear},
 };
 
-std::string_view trim(std::string_view s) {
-  const auto first = s.find_first_not_of(" \t\r\n");
-  if (first == std::string_view::npos) return {};
-  const auto last = s.find_last_not_of(" \t\r\n");
-  return s.substr(first, last - first + 1);
-}
-
 std::string example_for(Dimension d) {
   switch (d) {
     case D::dimensionless: return "'0.2' or '20 %'";
@@ -194,7 +188,8 @@ std::vector<std::string> symbols_for(Dimension d) {
 }
 
 const Unit& lookup(std::string_view symbol, Dimension expected, std::string_view field) {
-  const std::string_view sym = trim(symbol);
+  const std::string sym_text = util::trim(symbol);
+  const std::string_view sym = sym_text;
   for (const auto& u : kUnits) {
     if (u.symbol != sym) continue;
     if (u.dimension == expected) return u;
@@ -211,7 +206,8 @@ const Unit& lookup(std::string_view symbol, Dimension expected, std::string_view
 }
 
 double parse(std::string_view text, Dimension expected, std::string_view field) {
-  const std::string_view s = trim(text);
+  const std::string s_text = util::trim(text);
+  const std::string_view s = s_text;
   const std::string expectation =
       "a number with a " + std::string(dimension_name(expected)) + " unit, such as " + example_for(expected);
   double value = 0.0;
@@ -220,7 +216,8 @@ double parse(std::string_view text, Dimension expected, std::string_view field) 
   const auto [ptr, ec] = std::from_chars(begin, end, value);
   if (ec != std::errc{} || ptr == begin) throw InputError(std::string(field), std::string(s), expectation);
   if (!std::isfinite(value)) throw InputError(std::string(field), std::string(s), "a finite number");
-  const std::string_view unit = trim(std::string_view(ptr, static_cast<std::size_t>(end - ptr)));
+  const std::string unit_text = util::trim(std::string_view(ptr, static_cast<std::size_t>(end - ptr)));
+  const std::string_view unit = unit_text;
   if (unit.empty()) {
     if (expected == D::dimensionless) return value;
     throw InputError(std::string(field), std::string(s),

@@ -6,6 +6,7 @@
 #include <map>
 #include <optional>
 
+#include "core/util/trim.hpp"
 #include "core/errors.hpp"
 #include "core/units/units.hpp"
 #include "core/util/suggest.hpp"
@@ -15,13 +16,6 @@
 
 namespace slipscreen::formats {
 namespace {
-
-std::string trim(std::string_view s) {
-  const auto b = s.find_first_not_of(" \t\r");
-  if (b == std::string_view::npos) return "";
-  const auto e = s.find_last_not_of(" \t\r");
-  return std::string(s.substr(b, e - b + 1));
-}
 
 std::optional<double> parse_number(const std::string& s) {
   double v = 0.0;
@@ -43,14 +37,14 @@ CatalogColumns parse_catalog_columns(std::string_view text) {
   std::size_t pos = 0;
   while (pos <= text.size()) {
     const auto next = text.find(sep, pos);
-    const std::string pair = trim(text.substr(pos, next == std::string_view::npos ? std::string_view::npos : next - pos));
+    const std::string pair = util::trim(text.substr(pos, next == std::string_view::npos ? std::string_view::npos : next - pos));
     pos = next == std::string_view::npos ? text.size() + 1 : next + 1;
     if (pair.empty()) continue;
     const auto eq = pair.find('=');
     if (eq == std::string::npos)
       throw InputError("column mapping", pair, "key=column pairs such as 'time=origin_time'");
-    const std::string key = trim(pair.substr(0, eq));
-    std::string val = trim(pair.substr(eq + 1));
+    const std::string key = util::trim(pair.substr(0, eq));
+    std::string val = util::trim(pair.substr(eq + 1));
     if (val.empty()) throw InputError("column mapping key '" + key + "'", "", "a column name ('-' for none)");
     if (val == "-") val.clear();
     if (key == "time") c.time = val;
@@ -115,11 +109,11 @@ CatalogReadResult read_catalog_csv(const std::string& path, const CatalogColumns
   while (std::getline(in, line)) {
     ++lineno;
     if (lineno == 1 && line.rfind("\xEF\xBB\xBF", 0) == 0) line.erase(0, 3);  // UTF-8 byte-order mark
-    const std::string t = trim(line);
+    const std::string t = util::trim(line);
     if (t.empty()) continue;
     if (t[0] == '#') {
       if (header.empty()) {
-        const std::string text = trim(std::string_view(t).substr(1));
+        const std::string text = util::trim(std::string_view(t).substr(1));
         if (!text.empty()) r.catalog.description += (r.catalog.description.empty() ? "" : " ") + text;
       }
       continue;

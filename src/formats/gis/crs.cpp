@@ -6,6 +6,7 @@
 #include <numbers>
 #include <sstream>
 
+#include "core/util/trim.hpp"
 #include "core/errors.hpp"
 #include "core/geometry/azimuth.hpp"
 #include "formats/gis/gdal_errors.hpp"
@@ -16,13 +17,6 @@ namespace {
 
 constexpr const char* kCrsExpected =
     "a coordinate reference system as 'EPSG:<code>', OGC WKT or a PROJ string (e.g. 'EPSG:32614')";
-
-std::string trim(std::string_view s) {
-  const auto b = s.find_first_not_of(" \t\r\n");
-  if (b == std::string_view::npos) return {};
-  const auto e = s.find_last_not_of(" \t\r\n");
-  return std::string(s.substr(b, e - b + 1));
-}
 
 std::string shorten(const std::string& s) { return s.size() > 80 ? s.substr(0, 77) + "..." : s; }
 
@@ -36,7 +30,7 @@ std::string point_text(geometry::Point2 p) {
 }  // namespace
 
 Crs Crs::from_user_string(std::string_view text, std::string_view field) {
-  const std::string t = trim(text);
+  const std::string t = util::trim(text);
   if (t.empty()) throw InputError(std::string(field), "", kCrsExpected);
   GdalErrorScope errors{std::string(field)};
   auto srs = std::make_shared<OGRSpatialReference>();
@@ -89,7 +83,7 @@ bool Crs::same_as(const Crs& other) const { return srs_->IsSame(other.srs_.get()
 
 Crs working_crs(std::string_view text, std::string_view field) {
   Crs crs = Crs::from_user_string(text, field);
-  const std::string shown = shorten(trim(text)) + "' (" + crs.name();
+  const std::string shown = shorten(util::trim(text)) + "' (" + crs.name();
   if (!crs.is_projected())
     throw InputError(std::string(field), shown + ", not projected)",
                      "a projected working CRS with metre units, e.g. a UTM zone 'EPSG:326<zone>'");

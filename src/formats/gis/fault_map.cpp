@@ -12,6 +12,7 @@
 #include <memory>
 #include <numbers>
 
+#include "core/util/trim.hpp"
 #include "core/errors.hpp"
 #include "core/geometry/azimuth.hpp"
 #include "core/units/units.hpp"
@@ -35,12 +36,6 @@ const char* const kFaultDrivers[] = {"GPKG",       "GeoJSON",        "GeoJSONSeq
 struct DatasetCloser {
   void operator()(GDALDataset* ds) const { GDALClose(GDALDataset::ToHandle(ds)); }
 };
-
-std::string trim(std::string s) {
-  const auto b = s.find_first_not_of(" \t\r\n");
-  if (b == std::string::npos) return {};
-  return s.substr(b, s.find_last_not_of(" \t\r\n") - b + 1);
-}
 
 std::string lower(std::string s) {
   std::transform(s.begin(), s.end(), s.begin(), [](unsigned char c) { return static_cast<char>(std::tolower(c)); });
@@ -91,7 +86,7 @@ std::optional<double> number_field(OGRFeature& f, int idx, const std::string& na
   if (idx < 0 || !f.IsFieldSetAndNotNull(idx)) return std::nullopt;
   const OGRFieldType type = f.GetFieldDefnRef(idx)->GetType();
   if (type == OFTInteger || type == OFTInteger64 || type == OFTReal) return f.GetFieldAsDouble(idx);
-  const std::string text = trim(f.GetFieldAsString(idx));
+  const std::string text = util::trim(f.GetFieldAsString(idx));
   if (text.empty()) return std::nullopt;
   double v = 0.0;
   const auto [end, ec] = std::from_chars(text.data(), text.data() + text.size(), v);
@@ -178,9 +173,9 @@ struct Reader {
     ++line_features;
 
     // Attributes.
-    if (!f.IsFieldSetAndNotNull(id_idx) || trim(f.GetFieldAsString(id_idx)).empty())
+    if (!f.IsFieldSetAndNotNull(id_idx) || util::trim(f.GetFieldAsString(id_idx)).empty())
       throw InputError(a.id, "(empty)", "a fault id", where);
-    const std::string id = trim(f.GetFieldAsString(id_idx));
+    const std::string id = util::trim(f.GetFieldAsString(id_idx));
     const std::string dip_expected = "a dip in degrees, 0 < dip <= 90 (e.g. 60 or '60 deg')";
     std::optional<double> dip_deg = number_field(f, dip_idx, a.dip, dip_expected, true, where);
     double dip_rad = 0.0;
@@ -196,7 +191,7 @@ struct Reader {
     std::optional<double> dip_direction;
     if (dd_idx >= 0 && f.IsFieldSetAndNotNull(dd_idx)) {
       const OGRFieldType t = f.GetFieldDefnRef(dd_idx)->GetType();
-      const std::string text = trim(f.GetFieldAsString(dd_idx));
+      const std::string text = util::trim(f.GetFieldAsString(dd_idx));
       if (t == OFTInteger || t == OFTInteger64 || t == OFTReal) {
         const double v = f.GetFieldAsDouble(dd_idx);
         if (!(v >= 0.0 && v <= 360.0))
@@ -212,7 +207,7 @@ struct Reader {
     }
     bool dips_left = false;
     if (!dip_direction && side_idx >= 0 && f.IsFieldSetAndNotNull(side_idx)) {
-      const std::string side = lower(trim(f.GetFieldAsString(side_idx)));
+      const std::string side = lower(util::trim(f.GetFieldAsString(side_idx)));
       if (side == "left" || side == "l") dips_left = true;
       else if (side != "right" && side != "r" && !side.empty())
         throw InputError(a.dips_to, f.GetFieldAsString(side_idx),
@@ -256,7 +251,7 @@ struct Reader {
 double parse_dip_direction(const std::string& text, const std::string& field) {
   static const std::array<std::string, 16> kCompass = {"n", "nne", "ne", "ene", "e", "ese", "se", "sse",
                                                        "s", "ssw", "sw", "wsw", "w", "wnw", "nw", "nnw"};
-  const std::string t = trim(text);
+  const std::string t = util::trim(text);
   const std::string expected = "a dip direction: degrees from north (0 to 360) or a compass point (N, NE, ..., NNW)";
   const std::string l = lower(t);
   for (std::size_t i = 0; i < kCompass.size(); ++i)

@@ -5,6 +5,7 @@
 #include <map>
 
 #include "core/errors.hpp"
+#include "core/util/trim.hpp"
 #include "core/geometry/trace_segments.hpp"
 #include "formats/table/csv.hpp"
 
@@ -57,7 +58,7 @@ std::vector<FaultSegment> read_fault_table(const std::filesystem::path& path, co
   std::vector<FaultSegment> out;
   std::map<std::string, std::size_t> seen;
   for (const auto& row : t.rows) {
-    const std::string id = trim(row.fields[c_id]);
+    const std::string id = util::trim(row.fields[c_id]);
     if (id.empty()) throw InputError("id", "", "a fault id", t.where(row, c_id));
     if (!seen.emplace(id, row.line).second)
       throw InputError("id", id, "a fault id not used before in the table", t.where(row, c_id));
@@ -70,13 +71,13 @@ std::vector<FaultSegment> read_fault_table(const std::filesystem::path& path, co
     const double strike_true = cell_quantity(t, row, c_strike, units::Dimension::angle);
     const double dip = cell_quantity(t, row, c_dip, units::Dimension::angle);
     if (!(dip > 0 && dip <= 1.5707963267948966 + 1e-12))
-      throw InputError("dip", trim(row.fields[c_dip]), "a dip in (0, 90] degrees", t.where(row, c_dip));
+      throw InputError("dip", util::trim(row.fields[c_dip]), "a dip in (0, 90] degrees", t.where(row, c_dip));
     const double length = cell_quantity(t, row, c_len, units::Dimension::length);
-    if (!(length > 0)) throw InputError("length", trim(row.fields[c_len]), "a length > 0", t.where(row, c_len));
+    if (!(length > 0)) throw InputError("length", util::trim(row.fields[c_len]), "a length > 0", t.where(row, c_len));
     std::optional<double> mu;
-    if (c_mu && !trim(row.fields[*c_mu]).empty()) {
+    if (c_mu && !util::trim(row.fields[*c_mu]).empty()) {
       mu = plain_number(t, row, *c_mu);
-      if (!(*mu > 0)) throw InputError("friction", trim(row.fields[*c_mu]), "a friction > 0", t.where(row, *c_mu));
+      if (!(*mu > 0)) throw InputError("friction", util::trim(row.fields[*c_mu]), "a friction > 0", t.where(row, *c_mu));
     }
     // The table's strike is a true azimuth; the map works in grid azimuths (+ convergence).
     const double strike_grid = strike_true + grid_convergence_rad(working, centre);

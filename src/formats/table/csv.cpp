@@ -6,17 +6,10 @@
 #include <fstream>
 #include <sstream>
 
+#include "core/util/trim.hpp"
 #include "core/errors.hpp"
 
 namespace slipscreen::formats {
-
-std::string trim(std::string_view s) {
-  const auto is_space = [](char c) { return c == ' ' || c == '\t' || c == '\r' || c == '\n'; };
-  std::size_t b = 0, e = s.size();
-  while (b < e && is_space(s[b])) ++b;
-  while (e > b && is_space(s[e - 1])) --e;
-  return std::string(s.substr(b, e - b));
-}
 
 namespace {
 
@@ -35,7 +28,7 @@ InputError csv_error(const std::string& file, std::size_t line, const std::strin
 }  // namespace
 
 std::optional<std::size_t> CsvTable::column(std::string_view name) const {
-  const std::string want = lower(trim(name));
+  const std::string want = lower(util::trim(name));
   for (std::size_t i = 0; i < header.size(); ++i)
     if (lower(split_header_unit(header[i]).name) == want) return i;
   return std::nullopt;
@@ -43,7 +36,7 @@ std::optional<std::size_t> CsvTable::column(std::string_view name) const {
 
 std::string CsvTable::where(const CsvRow& row, std::size_t col) const {
   std::string w = file + " line " + std::to_string(row.line) + ", column " + std::to_string(col + 1);
-  if (col < header.size()) w += " ('" + trim(header[col]) + "')";
+  if (col < header.size()) w += " ('" + util::trim(header[col]) + "')";
   return w;
 }
 
@@ -54,17 +47,17 @@ std::optional<std::string> CsvTable::comment_value(std::string_view key) const {
   for (const auto& c : comments) {
     const auto sep = c.find_first_of(":=");
     if (sep == std::string::npos) continue;
-    if (lower(trim(c.substr(0, sep))) == want) return trim(c.substr(sep + 1));
+    if (lower(util::trim(c.substr(0, sep))) == want) return util::trim(c.substr(sep + 1));
   }
   return std::nullopt;
 }
 
 HeaderName split_header_unit(std::string_view cell) {
-  const std::string t = trim(cell);
+  const std::string t = util::trim(cell);
   for (const auto& [open, close] : {std::pair{'[', ']'}, std::pair{'(', ')'}}) {
     const auto b = t.find(open);
     if (b != std::string::npos && !t.empty() && t.back() == close && b > 0)
-      return {trim(std::string_view(t).substr(0, b)), trim(std::string_view(t).substr(b + 1, t.size() - b - 2))};
+      return {util::trim(std::string_view(t).substr(0, b)), util::trim(std::string_view(t).substr(b + 1, t.size() - b - 2))};
   }
   return {t, ""};
 }
@@ -85,7 +78,7 @@ CsvTable parse_csv(std::string_view text, const std::string& file) {
     }
     if (text[i] == '#') {
       const auto end = text.find('\n', i);
-      table.comments.push_back(trim(text.substr(i + 1, (end == std::string_view::npos ? text.size() : end) - i - 1)));
+      table.comments.push_back(util::trim(text.substr(i + 1, (end == std::string_view::npos ? text.size() : end) - i - 1)));
       if (end == std::string_view::npos) break;
       i = end + 1;
       ++line;
@@ -172,7 +165,7 @@ std::string csv_field(const std::string& s) {
 
 double cell_quantity(const CsvTable& t, const CsvRow& row, std::size_t col, units::Dimension d) {
   const HeaderName h = split_header_unit(t.header[col]);
-  const std::string cell = trim(row.fields[col]);
+  const std::string cell = util::trim(row.fields[col]);
   try {
     if (!h.unit.empty()) {
       // The unit is in the header: a bare number takes it; a cell may still state its own unit.

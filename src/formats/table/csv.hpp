@@ -53,9 +53,6 @@ struct HeaderName {
 };
 HeaderName split_header_unit(std::string_view cell);
 
-// Trims ASCII white space.
-std::string trim(std::string_view s);
-
 // A value with a unit from a CSV cell: the unit in the cell ("2300 m") or in the column header
 // ("top [m]"). Throws InputError located at the cell.
 double cell_quantity(const CsvTable& table, const CsvRow& row, std::size_t col, units::Dimension d);

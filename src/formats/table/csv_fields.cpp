@@ -1,15 +1,10 @@
 #include "formats/table/csv_fields.hpp"
 
+#include "core/util/trim.hpp"
 #include "core/errors.hpp"
 
 namespace slipscreen::formats {
 namespace {
-std::string trimmed(const std::string& s) {
-  const auto b = s.find_first_not_of(" \t\r");
-  if (b == std::string::npos) return "";
-  const auto e = s.find_last_not_of(" \t\r");
-  return s.substr(b, e - b + 1);
-}
 }  // namespace
 
 std::vector<std::string> split_csv_record(std::string_view line, char delimiter) {
@@ -32,9 +27,9 @@ std::vector<std::string> split_csv_record(std::string_view line, char delimiter)
     } else if (ch == '"') {
       quoted = true;
       was_quoted = true;
-      cur = trimmed(cur);  // spaces before an opening quote are not content
+      cur = util::trim(cur);  // spaces before an opening quote are not content
     } else if (ch == delimiter) {
-      fields.push_back(was_quoted ? cur : trimmed(cur));
+      fields.push_back(was_quoted ? cur : util::trim(cur));
       cur.clear();
       was_quoted = false;
     } else if (!(was_quoted && (ch == ' ' || ch == '\t' || ch == '\r'))) {
@@ -42,7 +37,7 @@ std::vector<std::string> split_csv_record(std::string_view line, char delimiter)
     }
   }
   if (quoted) throw InputError("CSV record", std::string(line), "every opening quote closed on the same line");
-  fields.push_back(was_quoted ? cur : trimmed(cur));
+  fields.push_back(was_quoted ? cur : util::trim(cur));
   return fields;
 }
 
