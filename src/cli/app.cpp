@@ -6,6 +6,7 @@
 
 #include "cli/commands.hpp"
 #include "cli/exit_codes.hpp"
+#include "core/caution.hpp"
 #include "core/errors.hpp"
 #include "slipscreen/version.hpp"
 
@@ -31,9 +32,7 @@ int run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
   ctx.command_line.insert(ctx.command_line.end(), args.begin(), args.end());
 
   CLI::App app{"slipscreen " + std::string(kVersion) +
-               " - screening of injection wells for induced-earthquake hazard.\n"
-               "Results are screening estimates: they do not replace a site-specific study;\n"
-               "local regulations and licensed professionals govern."};
+               " - screening of injection wells for induced-earthquake hazard.\n" + kScreeningCaution};
   app.name("slipscreen");
   app.set_version_flag("--version", std::string("slipscreen ") + kVersion);
   app.require_subcommand(1);

@@ -6,16 +6,11 @@
 #include <vector>
 
 #include "core/caution.hpp"
+#include "core/util/number_text.hpp"
 #include "formats/table/iso_time.hpp"
 
 namespace slipscreen::cli {
 namespace {
-
-std::string g(double v, int digits = 4) {
-  char buf[48];
-  std::snprintf(buf, sizeof buf, "%.*g", digits, v);
-  return buf;
-}
 
 std::string fixed(double v, int decimals) {
   char buf[48];
@@ -59,7 +54,7 @@ void print_catalog_summary(std::ostream& out, const formats::CatalogReadResult& 
   else if (s.mc_given) out << "Mc = " << fixed(s.mc, 2) << " (given)";
   else {
     out << "Mc = " << fixed(s.mc, 2) << " (maximum curvature, Wiemer & Wyss 2000";
-    if (s.completeness->correction != 0.0) out << ", " << fixed(s.completeness->mc_curvature, 2) << " + " << g(s.completeness->correction) << " correction";
+    if (s.completeness->correction != 0.0) out << ", " << fixed(s.completeness->mc_curvature, 2) << " + " << util::number_text(s.completeness->correction, 4) << " correction";
     out << ")";
   }
   if (s.has_mc) out << ", " << s.events_at_or_above_mc << " events at or above\n";
@@ -68,7 +63,7 @@ void print_catalog_summary(std::ostream& out, const formats::CatalogReadResult& 
     out << fixed(s.b->b, 2) << " ± " << fixed(s.b->sigma, 2) << " (Aki 1965 with Utsu's correction, σ Shi & Bolt 1982; n = "
         << s.b->n << ", a = " << fixed(s.b->a, 2) << ")\n";
     if (s.bootstrap)
-      out << "  bootstrap " << g(100 * s.bootstrap->confidence, 3) << " % interval: " << fixed(s.bootstrap->lower, 2) << " to "
+      out << "  bootstrap " << util::number_text(100 * s.bootstrap->confidence, 3) << " % interval: " << fixed(s.bootstrap->lower, 2) << " to "
           << fixed(s.bootstrap->upper, 2) << " (" << s.bootstrap->resamples << " resamples, seed " << s.bootstrap->seed << ")\n";
     if (!s.b_note.empty()) out << "  note: " << s.b_note << "\n";
   } else {
@@ -77,8 +72,8 @@ void print_catalog_summary(std::ostream& out, const formats::CatalogReadResult& 
 
   out << "\nLargest-magnitude bounds\n";
   if (s.mcgarr_moment) {
-    out << "  McGarr (2014), net volume " << g(s.net_volume) << " m3, G = " << g(s.shear_modulus / 1e9, 3)
-        << " GPa: M0 <= " << g(*s.mcgarr_moment) << " N·m";
+    out << "  McGarr (2014), net volume " << util::number_text(s.net_volume, 4) << " m3, G = " << util::number_text(s.shear_modulus / 1e9, 3)
+        << " GPa: M0 <= " << util::number_text(*s.mcgarr_moment, 4) << " N·m";
     if (s.mcgarr_mw) out << ", Mw <= " << fixed(*s.mcgarr_mw, 2) << " (IASPEI 2013)";
     out << "\n";
   } else {
@@ -94,7 +89,7 @@ void print_catalog_summary(std::ostream& out, const formats::CatalogReadResult& 
   }
   for (const seismo::FaultBound* bound : bounds) {
     const seismo::FaultBound& f = *bound;
-    out << "  " << f.name << ", " << g(f.length / 1000.0, 3) << " km: M " << fixed(f.estimate.magnitude, 2) << " ± "
+    out << "  " << f.name << ", " << util::number_text(f.length / 1000.0, 3) << " km: M " << fixed(f.estimate.magnitude, 2) << " ± "
         << fixed(f.estimate.sd, 2) << (f.estimate.extrapolated ? " (length outside the regression's data, extrapolated)" : "")
         << "\n";
   }
@@ -106,28 +101,28 @@ void print_catalog_summary(std::ostream& out, const formats::CatalogReadResult& 
   if (s.seismogenic_index) {
     const auto& f = *s.seismogenic_index;
     out << "Σ = " << fixed(f.sigma, 2) << " ± " << fixed(f.sigma_count_se, 2) << " (count) ± " << fixed(f.sigma_b_se, 2)
-        << " (b), from " << f.events << " events >= Mc while " << g(f.volume) << " m3 were injected ("
+        << " (b), from " << f.events << " events >= Mc while " << util::number_text(f.volume, 4) << " m3 were injected ("
         << formats::format_iso8601_utc(f.window_start) << " to " << formats::format_iso8601_utc(f.window_end) << ")\n";
   } else {
     out << "not fitted (" << s.seismogenic_index_note << ")\n";
   }
   if (!s.forecasts.empty()) {
-    out << "Forecast for a further " << g(s.forecasts.front().planned_volume) << " m3 injected:\n";
+    out << "Forecast for a further " << util::number_text(s.forecasts.front().planned_volume, 4) << " m3 injected:\n";
     for (const auto& f : s.forecasts)
-      out << "  M >= " << fixed(f.magnitude, 1) << ": expected " << g(f.expected, 3) << " events, P(at least one) = "
-          << g(100.0 * f.probability, 3) << " %\n";
+      out << "  M >= " << fixed(f.magnitude, 1) << ": expected " << util::number_text(f.expected, 3) << " events, P(at least one) = "
+          << util::number_text(100.0 * f.probability, 3) << " %\n";
     out << "  (Poisson, same Σ and b as observed; uncertainty of Σ and b not included)\n";
   } else {
     out << "Forecast: " << s.forecast_note << "\n";
   }
 
   if (rt) {
-    out << "\nr-t view around " << (rt->well.empty() ? "the well" : "well " + rt->well) << " at (" << g(rt->position[0], 8)
-        << ", " << g(rt->position[1], 8) << ") from "
+    out << "\nr-t view around " << (rt->well.empty() ? "the well" : "well " + rt->well) << " at (" << util::number_text(rt->position[0], 8)
+        << ", " << util::number_text(rt->position[1], 8) << ") from "
         << formats::format_iso8601_utc(rt->start) << ": " << rt->points.size() << " events after the start\n";
     for (std::size_t i = 0; i < rt->diffusivities.size(); ++i)
-      out << "  inside the triggering front for D = " << g(rt->diffusivities[i], 3)
-          << " m2/s: " << g(100.0 * rt->fraction_inside[i], 3) << " %\n";
+      out << "  inside the triggering front for D = " << util::number_text(rt->diffusivities[i], 3)
+          << " m2/s: " << util::number_text(100.0 * rt->fraction_inside[i], 3) << " %\n";
     out << "  (r = sqrt(4 pi D t), Shapiro et al. 1997)\n";
   }
   out << "\nAssumptions:\n";

@@ -18,6 +18,7 @@
 #include "cli/commands.hpp"
 #include "core/util/trim.hpp"
 #include "cli/exit_codes.hpp"
+#include "core/caution.hpp"
 #include "core/errors.hpp"
 #include "core/geomech/a_phi.hpp"
 #include "core/geomech/coulomb.hpp"
@@ -36,10 +37,6 @@ namespace {
 using namespace geomech;
 using units::Dimension;
 constexpr double kDeg = std::numbers::pi / 180.0;
-constexpr const char* kCaution =
-    "Screening estimate: simplified physics and uncertain inputs; not a substitute for a site-specific "
-    "study, monitoring or the judgement of a licensed professional; local regulations govern.";
-
 struct Options {
   std::string depth;
   std::string sv_gradient = "1 psi/ft";
@@ -227,7 +224,7 @@ int run_fault_stress(const Options& o, Context& ctx) {
     using nlohmann::json;
     const auto num = [](double v) { return std::isfinite(v) ? json(v) : json(nullptr); };
     json j;
-    j["screening_caution"] = kCaution;
+    j["screening_caution"] = kScreeningCaution;
     j["depth_m"] = s.depth;
     j["stress"] = {{"sv_pa", s.stress.sv},
                    {"shmax_pa", s.stress.shmax},
@@ -324,7 +321,7 @@ int run_fault_stress(const Options& o, Context& ctx) {
   for (const auto& r : rows) line(r);
   out << "\ndp_crit: pore-pressure increase to Coulomb failure; <= 0 means already critical; '(> opening)':\n"
          "tensile opening would come first, so the Coulomb estimate does not apply there.\n"
-      << kCaution << "\n";
+      << kScreeningCaution << "\n";
   return kExitOk;
 }
 

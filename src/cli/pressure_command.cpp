@@ -19,6 +19,7 @@
 #include "cli/commands.hpp"
 #include "core/util/trim.hpp"
 #include "cli/exit_codes.hpp"
+#include "core/caution.hpp"
 #include "core/errors.hpp"
 #include "core/hydro/pressure_field.hpp"
 #include "core/units/units.hpp"
@@ -28,11 +29,6 @@ namespace slipscreen::cli {
 namespace {
 
 using units::Dimension;
-
-constexpr const char* kCaution =
-    "Screening estimate: simplified physics (Theis line source) and uncertain inputs; it does "
-    "not replace a site-specific study, monitoring or a licensed professional's judgement. "
-    "Local regulations and the permitting authority govern.";
 
 // Everything the command needs, as text with units (from the command line or a TOML file).
 struct PressureOptions {
@@ -371,7 +367,7 @@ int run_pressure(PressureOptions o, Context& ctx) {
       pts.push_back(jp);
     }
     j["points"] = pts;
-    j["caution"] = kCaution;
+    j["caution"] = kScreeningCaution;
     ctx.out << j.dump(2) << "\n";
     return kExitOk;
   }
@@ -429,7 +425,7 @@ int run_pressure(PressureOptions o, Context& ctx) {
               << pb.wells[w].well_radius << " m\n";
   }
   if (per_well) out << "\n(use --json for each well's contribution)\n";
-  out << "\n" << kCaution << "\n";
+  out << "\n" << kScreeningCaution << "\n";
   return kExitOk;
 }
 

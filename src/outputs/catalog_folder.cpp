@@ -4,6 +4,7 @@
 #include <sstream>
 
 #include "core/caution.hpp"
+#include "core/util/number_text.hpp"
 #include "formats/files/text_file.hpp"
 #include "formats/table/csv.hpp"
 #include "formats/table/iso_time.hpp"
@@ -11,12 +12,6 @@
 
 namespace slipscreen::outputs {
 namespace {
-
-std::string g(double v, int digits) {
-  char buf[48];
-  std::snprintf(buf, sizeof buf, "%.*g", digits, v);
-  return buf;
-}
 
 }  // namespace
 
@@ -41,8 +36,8 @@ void write_catalog_folder(const formats::RunFolder& folder, const nlohmann::json
   ev << "# " << kScreeningCaution << "\n";
   ev << "event_id,time,x,y,depth_m,magnitude,magnitude_type\n";
   for (const auto& e : c.events)
-    ev << csv_field(e.id) << "," << formats::format_iso8601_utc(e.time) << "," << g(e.x, 10) << "," << g(e.y, 10)
-       << "," << (e.depth ? g(*e.depth, 8) : "") << "," << g(e.magnitude, 4) << "," << csv_field(e.magnitude_type)
+    ev << csv_field(e.id) << "," << formats::format_iso8601_utc(e.time) << "," << util::number_text(e.x, 10) << "," << util::number_text(e.y, 10)
+       << "," << (e.depth ? util::number_text(*e.depth, 8) : "") << "," << util::number_text(e.magnitude, 4) << "," << csv_field(e.magnitude_type)
        << "\n";
   formats::write_text_file(folder.output("catalog", "catalog_events.csv"), ev.str());
   if (rt) {

@@ -9,7 +9,7 @@
 #include "formats/files/text_file.hpp"
 #include "formats/table/csv.hpp"
 #include "formats/table/iso_time.hpp"
-#include "formats/table/number_text.hpp"
+#include "core/util/number_text.hpp"
 #include "outputs/catalog_summary_json.hpp"
 #include "outputs/rt_tables.hpp"
 
@@ -21,7 +21,7 @@ constexpr double kMPa = 1e6;
 }  // namespace
 
 using formats::csv_field;
-using formats::fixed_decimals;
+using util::fixed_decimals;
 using formats::format_iso8601_utc;
 using formats::write_text_file;
 

@@ -9,7 +9,7 @@
 #include "formats/files/text_file.hpp"
 #include "formats/gis/geotiff.hpp"
 #include "formats/table/csv.hpp"
-#include "formats/table/number_text.hpp"
+#include "core/util/number_text.hpp"
 
 namespace slipscreen::outputs {
 namespace {
@@ -19,7 +19,7 @@ constexpr double kMPa = 1.0e6;
 }  // namespace
 
 using formats::csv_field;
-using formats::fixed_decimals;
+using util::fixed_decimals;
 
 void write_probabilistic_outputs(const formats::RunFolder& folder, const scenario::ResolvedScenario& s, const screening::PreparedRun& p,
                                  const screening::ProbabilisticRun& run) {

@@ -9,33 +9,27 @@
 #include "core/units/units.hpp"
 #include "formats/table/csv.hpp"
 #include "formats/table/iso_time.hpp"
-#include "formats/table/number_text.hpp"
+#include "core/util/number_text.hpp"
 
 namespace slipscreen::outputs {
 namespace {
 
-std::string g(double v, int digits) {
-  char buf[48];
-  std::snprintf(buf, sizeof buf, "%.*g", digits, v);
-  return buf;
-}
-
 }  // namespace
 
 using formats::csv_field;
-using formats::fixed_decimals;
+using util::fixed_decimals;
 using formats::format_iso8601_utc;
 
 std::string rt_events_csv(const seismo::Catalog& c, const screening::RtView& v) {
   std::ostringstream t;
   t << "# r-t view: distance from " << (v.well.empty() ? "the point" : "well " + v.well) << " at ("
-    << g(v.position[0], 10) << ", " << g(v.position[1], 10) << ") against time since "
+    << util::number_text(v.position[0], 10) << ", " << util::number_text(v.position[1], 10) << ") against time since "
     << format_iso8601_utc(v.start) << ". " << kScreeningCaution << "\n";
   t << "event_id,time,days_since_start,distance_m,magnitude,diffusivity_through_point_m2_s\n";
   for (const auto& p : v.points) {
     const auto& e = c.events[p.event];
     t << csv_field(e.id) << "," << format_iso8601_utc(e.time) << "," << fixed_decimals(p.t / units::kDay, 4) << ","
-      << fixed_decimals(p.r, 1) << "," << g(e.magnitude, 4) << "," << g(p.d_fit, 6) << "\n";
+      << fixed_decimals(p.r, 1) << "," << util::number_text(e.magnitude, 4) << "," << util::number_text(p.d_fit, 6) << "\n";
   }
   return t.str();
 }
@@ -44,7 +38,7 @@ std::string rt_fronts_csv(const screening::RtView& v) {
   std::ostringstream fc;
   fc << "# Triggering fronts r = sqrt(4 pi D t) (Shapiro et al. 1997). " << kScreeningCaution << "\n";
   fc << "days_since_start";
-  for (double d : v.diffusivities) fc << ",front_m_D_" << g(d, 4) << "_m2_s";
+  for (double d : v.diffusivities) fc << ",front_m_D_" << util::number_text(d, 4) << "_m2_s";
   fc << "\n";
   double t_max = 0.0;
   for (const auto& p : v.points) t_max = std::max(t_max, p.t);

@@ -4,14 +4,14 @@
 
 #include "formats/files/text_file.hpp"
 #include "formats/table/csv.hpp"
-#include "formats/table/number_text.hpp"
+#include "core/util/number_text.hpp"
 #include "outputs/output_text.hpp"
 
 namespace slipscreen::outputs {
 
-using formats::append_fixed;
+using util::append_fixed;
 using formats::csv_field;
-using formats::fixed_decimals;
+using util::fixed_decimals;
 using formats::RunFolder;
 using scenario::ResolvedScenario;
 using screening::PreparedRun;

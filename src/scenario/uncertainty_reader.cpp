@@ -11,6 +11,7 @@
 #include "core/errors.hpp"
 #include "core/stats/distribution_text.hpp"
 #include "core/stats/random_stream.hpp"
+#include "core/util/number_text.hpp"
 #include "core/util/suggest.hpp"
 #include "formats/toml/toml_section.hpp"
 
@@ -40,12 +41,6 @@ struct KeySpec {
   Dimension dimension;
   Range range;
 };
-
-std::string number(double v) {
-  char buf[32];
-  const auto r = std::to_chars(buf, buf + sizeof buf, v, std::chars_format::general, 3);
-  return std::string(buf, r.ptr);
-}
 
 // Reads one distribution-valued key of `section`, if present, into `spec` under `out_key`.
 void read_value(const formats::Section& section, const KeySpec& k, const std::string& out_key, UncertaintySpec& spec) {
@@ -78,7 +73,7 @@ void read_value(const formats::Section& section, const KeySpec& k, const std::st
     const double above = std::isinf(r.hi) ? 0.0 : 1.0 - d->cdf(r.hi);
     if (below > kOutsideLimit || above > kOutsideLimit)
       throw InputError(path, text,
-                       std::string("a distribution of ") + r.what + " (this one puts " + number(below + above) +
+                       std::string("a distribution of ") + r.what + " (this one puts " + util::number_text(below + above, 3) +
                            " of its probability outside; truncnormal or lognormal keep a quantity in range)",
                        where);
   }

@@ -9,7 +9,7 @@
 #include <vector>
 
 #include "core/errors.hpp"
-#include "core/seismo/number_text.hpp"
+#include "core/util/number_text.hpp"
 
 namespace slipscreen::seismo {
 namespace {
@@ -47,8 +47,8 @@ Moments moments(std::span<const double> m) {
 double aki_utsu_b(double mean_magnitude, double mc, double bin_width) {
   const double denom = mean_magnitude - (mc - bin_width / 2.0);
   if (!(denom > 0.0) || !std::isfinite(denom))
-    throw InputError("mean magnitude", number_text(mean_magnitude),
-                     "a mean above Mc - ΔM/2 = " + number_text(mc - bin_width / 2.0) + " (events spread above Mc)");
+    throw InputError("mean magnitude", util::number_text(mean_magnitude, 6),
+                     "a mean above Mc - ΔM/2 = " + util::number_text(mc - bin_width / 2.0, 6) + " (events spread above Mc)");
   return kLog10E / denom;
 }
 
@@ -62,7 +62,7 @@ double shi_bolt_sigma(double b, double sum_squared_deviation, std::size_t n) {
 BValueEstimate b_value(std::span<const double> magnitudes, double mc, double bin_width) {
   const auto used = at_or_above(magnitudes, mc, bin_width);
   if (used.size() < 2)
-    throw InputError("events at or above Mc = " + number_text(mc), std::to_string(used.size()),
+    throw InputError("events at or above Mc = " + util::number_text(mc, 6), std::to_string(used.size()),
                      "at least 2 events at or above the magnitude of completeness to estimate b");
   const auto mo = moments(used);
   BValueEstimate e;
@@ -81,10 +81,10 @@ BootstrapInterval bootstrap_b_value(std::span<const double> magnitudes, double m
   if (resamples < 10 || resamples > 1000000)
     throw InputError("bootstrap resamples", std::to_string(resamples), "between 10 and 1000000");
   if (!(confidence > 0.0 && confidence < 1.0))
-    throw InputError("confidence", number_text(confidence), "a fraction between 0 and 1, e.g. 0.95");
+    throw InputError("confidence", util::number_text(confidence, 6), "a fraction between 0 and 1, e.g. 0.95");
   const auto used = at_or_above(magnitudes, mc, bin_width);
   if (used.size() < 2)
-    throw InputError("events at or above Mc = " + number_text(mc), std::to_string(used.size()),
+    throw InputError("events at or above Mc = " + util::number_text(mc, 6), std::to_string(used.size()),
                      "at least 2 events at or above the magnitude of completeness for a bootstrap");
   boost::random::mt19937_64 rng(seed);
   boost::random::uniform_int_distribution<std::size_t> pick(0, used.size() - 1);

@@ -8,7 +8,7 @@
 
 #include "core/errors.hpp"
 #include "core/seismo/epicentral_distance.hpp"
-#include "core/seismo/number_text.hpp"
+#include "core/util/number_text.hpp"
 
 namespace slipscreen::seismo {
 namespace {
@@ -44,11 +44,11 @@ FilterResult apply_filter(const Catalog& catalog, const CatalogFilter& f) {
   if (!f.polygon.empty() && f.polygon.size() < 3)
     throw InputError("region polygon", std::to_string(f.polygon.size()) + " vertices", "at least 3 vertices");
   if (!f.buffer_points.empty() && !(f.buffer_radius >= 0.0))
-    throw InputError("buffer radius", number_text(f.buffer_radius), "a distance >= 0 m");
+    throw InputError("buffer radius", util::number_text(f.buffer_radius, 6), "a distance >= 0 m");
   if (f.start && f.end && !(*f.end > *f.start))
     throw InputError("time window", "end not after start", "an end time after the start time");
   if (f.depth_min && f.depth_max && *f.depth_max < *f.depth_min)
-    throw InputError("depth range", number_text(*f.depth_min) + " m to " + number_text(*f.depth_max) + " m",
+    throw InputError("depth range", util::number_text(*f.depth_min, 6) + " m to " + util::number_text(*f.depth_max, 6) + " m",
                      "a maximum depth >= the minimum depth");
   Polygon poly;
   if (!f.polygon.empty()) {

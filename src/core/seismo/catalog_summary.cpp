@@ -5,12 +5,12 @@
 
 #include "core/errors.hpp"
 #include "core/seismo/moment_bound.hpp"
-#include "core/seismo/number_text.hpp"
+#include "core/util/number_text.hpp"
 
 namespace slipscreen::seismo {
 
 CatalogSummary summarize_catalog(const Catalog& catalog, const SummaryOptions& o) {
-  if (!(o.bin_width > 0.0)) throw InputError("bin width", number_text(o.bin_width), "a positive magnitude bin width");
+  if (!(o.bin_width > 0.0)) throw InputError("bin width", util::number_text(o.bin_width, 6), "a positive magnitude bin width");
   CatalogSummary s;
   const auto mags = magnitudes(catalog);
   const auto ts = times(catalog);
@@ -44,7 +44,7 @@ CatalogSummary summarize_catalog(const Catalog& catalog, const SummaryOptions& o
   if (!s.has_mc) {
     s.b_note = "no Mc: b-value not estimated";
   } else if (s.events_at_or_above_mc < 2) {
-    s.b_note = std::to_string(s.events_at_or_above_mc) + " event(s) at or above Mc = " + number_text(s.mc, 3) +
+    s.b_note = std::to_string(s.events_at_or_above_mc) + " event(s) at or above Mc = " + util::number_text(s.mc, 3) +
                ": at least 2 are needed for a b-value";
   } else {
     try {
@@ -89,7 +89,7 @@ CatalogSummary summarize_catalog(const Catalog& catalog, const SummaryOptions& o
   }
   if (o.planned_volume) {
     if (!(*o.planned_volume >= 0.0))
-      throw InputError("planned volume", number_text(*o.planned_volume), "a volume >= 0 m3");
+      throw InputError("planned volume", util::number_text(*o.planned_volume, 6), "a volume >= 0 m3");
     if (s.seismogenic_index) {
       for (double m : o.forecast_magnitudes) {
         Forecast f;
@@ -112,8 +112,8 @@ CatalogSummary summarize_catalog(const Catalog& catalog, const SummaryOptions& o
 
   s.assumptions = {
       "Mc by maximum curvature (Wiemer & Wyss 2000)" +
-          std::string(o.mc_correction != 0.0 ? " plus a correction of " + number_text(o.mc_correction, 3) : "") +
-          "; magnitudes binned at " + number_text(o.bin_width, 3) + ".",
+          std::string(o.mc_correction != 0.0 ? " plus a correction of " + util::number_text(o.mc_correction, 3) : "") +
+          "; magnitudes binned at " + util::number_text(o.bin_width, 3) + ".",
       "b-value: Aki (1965) maximum likelihood with Utsu's binning correction; uncertainty Shi & Bolt (1982).",
       "Magnitudes of different types are treated as one scale unless filtered by type.",
       "Seismogenic index (Shapiro et al. 2010): event count at or above Mc proportional to the cumulative "

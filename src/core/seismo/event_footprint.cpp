@@ -6,7 +6,7 @@
 #include <string>
 
 #include "core/errors.hpp"
-#include "core/seismo/number_text.hpp"
+#include "core/util/number_text.hpp"
 
 namespace slipscreen::seismo {
 
@@ -16,9 +16,9 @@ double footprint_fraction_at(std::span<const double> times, std::span<const doub
     throw InputError("footprint fractions", std::to_string(fractions.size()), "one fraction per time, at least one");
   for (std::size_t k = 0; k < times.size(); ++k) {
     if (!(fractions[k] >= 0.0 && fractions[k] <= 1.0))
-      throw InputError("footprint fraction", number_text(fractions[k]), "a fraction between 0 and 1");
+      throw InputError("footprint fraction", util::number_text(fractions[k], 6), "a fraction between 0 and 1");
     if (k > 0 && !(times[k] > times[k - 1]))
-      throw InputError("footprint times", number_text(times[k]), "strictly increasing times");
+      throw InputError("footprint times", util::number_text(times[k], 6), "strictly increasing times");
   }
   if (t <= start) return 0.0;
   if (t >= times.back()) return fractions.back();
@@ -38,15 +38,15 @@ double footprint_fraction_at(std::span<const double> times, std::span<const doub
 // One-sided binomial test: P(X >= k), X ~ Binomial(n, f).
 FootprintCount footprint_count(std::span<const double> dp, double threshold, double area_fraction) {
   if (!(area_fraction >= 0.0 && area_fraction <= 1.0))
-    throw InputError("footprint area fraction", number_text(area_fraction), "a fraction between 0 and 1");
-  if (!std::isfinite(threshold)) throw InputError("pressure threshold", number_text(threshold), "a finite pressure");
+    throw InputError("footprint area fraction", util::number_text(area_fraction, 6), "a fraction between 0 and 1");
+  if (!std::isfinite(threshold)) throw InputError("pressure threshold", util::number_text(threshold, 6), "a finite pressure");
   FootprintCount c;
   c.events = dp.size();
   c.area_fraction = area_fraction;
   c.threshold = threshold;
   for (std::size_t i = 0; i < dp.size(); ++i) {
     if (!std::isfinite(dp[i]))
-      throw InputError("modelled pressure change at event " + std::to_string(i + 1), number_text(dp[i]), "a finite value");
+      throw InputError("modelled pressure change at event " + std::to_string(i + 1), util::number_text(dp[i], 6), "a finite value");
     if (dp[i] >= threshold) ++c.inside;
   }
   c.expected = static_cast<double>(c.events) * area_fraction;

@@ -7,7 +7,7 @@
 #include <string>
 
 #include "core/errors.hpp"
-#include "core/seismo/number_text.hpp"
+#include "core/util/number_text.hpp"
 
 namespace slipscreen::seismo {
 namespace {
@@ -51,7 +51,7 @@ void step(State& st, double ds, const RateStateParameters& p) { st.log_gamma -= 
 double rate_of(const State& st, const RateStateParameters& p) {
   if (st.log_gamma < -700.0)
     throw NumericalError("rate-and-state: the seismicity rate exceeds e^700 times the background rate at t = " +
-                         number_text(st.t) + " s (Coulomb stress increase far larger than Aσ = " + number_text(p.a_sigma) + " Pa)");
+                         util::number_text(st.t, 6) + " s (Coulomb stress increase far larger than Aσ = " + util::number_text(p.a_sigma, 6) + " Pa)");
   return p.background_rate * std::exp(-st.log_gamma);
 }
 
@@ -60,26 +60,26 @@ double rate_of(const State& st, const RateStateParameters& p) {
 RateStateParameters RateStateParameters::from_aftershock_duration(double background_rate, double a_sigma,
                                                                   double aftershock_duration) {
   if (!(aftershock_duration > 0.0) || !std::isfinite(aftershock_duration))
-    throw InputError("aftershock duration t_a", number_text(aftershock_duration), "a positive duration such as '10 yr'");
+    throw InputError("aftershock duration t_a", util::number_text(aftershock_duration, 6), "a positive duration such as '10 yr'");
   return {background_rate, a_sigma, a_sigma / aftershock_duration};
 }
 
 void validate(const RateStateParameters& p) {
   if (!(p.background_rate > 0.0) || !std::isfinite(p.background_rate))
-    throw InputError("background rate r", number_text(p.background_rate), "a positive event rate such as '2 1/yr'");
+    throw InputError("background rate r", util::number_text(p.background_rate, 6), "a positive event rate such as '2 1/yr'");
   if (!(p.a_sigma > 0.0) || !std::isfinite(p.a_sigma))
-    throw InputError("A sigma", number_text(p.a_sigma), "a positive stress such as '0.05 MPa'");
+    throw InputError("A sigma", util::number_text(p.a_sigma, 6), "a positive stress such as '0.05 MPa'");
   if (!(p.background_stressing_rate > 0.0) || !std::isfinite(p.background_stressing_rate))
-    throw InputError("background stressing rate", number_text(p.background_stressing_rate),
+    throw InputError("background stressing rate", util::number_text(p.background_stressing_rate, 6),
                      "a positive stressing rate in Pa/s (or give t_a)");
 }
 
 // Dieterich (1994): R/r = 1 / {[exp(-ΔS/Aσ) - 1] exp(-t/t_a) + 1}.
 double step_response_rate(const RateStateParameters& p, double stress_step, double t) {
   validate(p);
-  if (!(t >= 0.0)) throw InputError("time after step", number_text(t), "a time >= 0 s");
+  if (!(t >= 0.0)) throw InputError("time after step", util::number_text(t, 6), "a time >= 0 s");
   const double u = stress_step / p.a_sigma;
-  if (std::abs(u) > 700.0) throw InputError("stress step / A sigma", number_text(u), "a magnitude <= 700");
+  if (std::abs(u) > 700.0) throw InputError("stress step / A sigma", util::number_text(u, 6), "a magnitude <= 700");
   return p.background_rate / (std::expm1(-u) * std::exp(-t / p.aftershock_duration()) + 1.0);
 }
 
@@ -94,13 +94,13 @@ std::vector<RateSample> rate_response(const CoulombHistory& h, const RateStatePa
     if (!std::isfinite(h.time[i]) || !std::isfinite(h.coulomb_change[i]))
       throw InputError("Coulomb stress history", "sample " + std::to_string(i + 1), "finite times and stresses");
     if (i > 0 && h.time[i] < h.time[i - 1])
-      throw InputError("Coulomb stress history time", number_text(h.time[i]), "non-decreasing times (a repeated time is a step)");
+      throw InputError("Coulomb stress history time", util::number_text(h.time[i], 6), "non-decreasing times (a repeated time is a step)");
   }
   for (std::size_t k = 0; k < output_times.size(); ++k) {
     if (!std::isfinite(output_times[k]) || output_times[k] < h.time.front() ||
         (k > 0 && output_times[k] < output_times[k - 1]))
-      throw InputError("output time", number_text(output_times[k]),
-                       "non-decreasing times at or after the first stress sample " + number_text(h.time.front()));
+      throw InputError("output time", util::number_text(output_times[k], 6),
+                       "non-decreasing times at or after the first stress sample " + util::number_text(h.time.front(), 6));
   }
   const double tau_r = p.background_stressing_rate;
   State st{h.time.front(), 0.0, 0.0};

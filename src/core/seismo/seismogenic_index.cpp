@@ -6,7 +6,7 @@
 #include <string>
 
 #include "core/errors.hpp"
-#include "core/seismo/number_text.hpp"
+#include "core/util/number_text.hpp"
 
 namespace slipscreen::seismo {
 void validate(const VolumeHistory& h) {
@@ -17,17 +17,17 @@ void validate(const VolumeHistory& h) {
     throw InputError("volume history", std::to_string(h.time.size()) + " samples", "at least 2 (start and end of injection)");
   for (std::size_t i = 0; i < h.time.size(); ++i) {
     const std::string where = "sample " + std::to_string(i + 1);
-    if (!std::isfinite(h.time[i])) throw InputError("time", number_text(h.time[i]), "a finite time").located(where);
+    if (!std::isfinite(h.time[i])) throw InputError("time", util::number_text(h.time[i], 6), "a finite time").located(where);
     if (!std::isfinite(h.volume[i]) || h.volume[i] < 0.0)
-      throw InputError("cumulative volume", number_text(h.volume[i]), "a finite volume >= 0 m3").located(where);
+      throw InputError("cumulative volume", util::number_text(h.volume[i], 6), "a finite volume >= 0 m3").located(where);
     if (i > 0 && !(h.time[i] > h.time[i - 1]))
-      throw InputError("time", number_text(h.time[i]), "times in increasing order").located(where);
+      throw InputError("time", util::number_text(h.time[i], 6), "times in increasing order").located(where);
     if (i > 0 && h.volume[i] < h.volume[i - 1])
-      throw InputError("cumulative volume", number_text(h.volume[i]),
+      throw InputError("cumulative volume", util::number_text(h.volume[i], 6),
                        "a non-decreasing cumulative volume (net injection)").located(where);
   }
   if (!(h.volume.back() > 0.0))
-    throw InputError("cumulative volume", number_text(h.volume.back()), "a positive total injected volume");
+    throw InputError("cumulative volume", util::number_text(h.volume.back(), 6), "a positive total injected volume");
 }
 
 double cumulative_volume(const VolumeHistory& h, double t) {
@@ -41,8 +41,8 @@ double cumulative_volume(const VolumeHistory& h, double t) {
 
 // Shapiro et al. (2010): Σ = log10 N(>=M) - log10 V + b M.
 double seismogenic_index(double count, double volume, double b, double magnitude) {
-  if (!(count > 0.0)) throw InputError("event count", number_text(count), "at least one event");
-  if (!(volume > 0.0)) throw InputError("injected volume", number_text(volume), "a positive volume in m3");
+  if (!(count > 0.0)) throw InputError("event count", util::number_text(count, 6), "at least one event");
+  if (!(volume > 0.0)) throw InputError("injected volume", util::number_text(volume, 6), "a positive volume in m3");
   return std::log10(count) - std::log10(volume) + b * magnitude;
 }
 
@@ -64,7 +64,7 @@ SeismogenicIndexFit fit_seismogenic_index(std::span<const double> event_times,
   for (std::size_t i = 0; i < event_times.size(); ++i)
     if (magnitudes[i] >= mc - tol && event_times[i] >= f.window_start && event_times[i] <= f.window_end) ++f.events;
   if (f.events == 0)
-    throw InputError("events at or above Mc = " + number_text(mc) + " during injection", "0",
+    throw InputError("events at or above Mc = " + util::number_text(mc, 6) + " during injection", "0",
                      "at least one event to fit the seismogenic index");
   const double n = static_cast<double>(f.events);
   f.sigma = seismogenic_index(n, f.volume, b, mc);
@@ -76,13 +76,13 @@ SeismogenicIndexFit fit_seismogenic_index(std::span<const double> event_times,
 // Shapiro et al. (2010): N(>=M) = V 10^(Σ - b M).
 double expected_event_count(double sigma, double b, double magnitude, double volume) {
   if (!(volume >= 0.0) || !std::isfinite(volume))
-    throw InputError("planned volume", number_text(volume), "a finite volume >= 0 m3");
+    throw InputError("planned volume", util::number_text(volume, 6), "a finite volume >= 0 m3");
   return volume * std::pow(10.0, sigma - b * magnitude);
 }
 
 // Poisson: P(N >= 1) = 1 - exp(-N).
 double probability_at_least_one(double expected_count) {
-  if (!(expected_count >= 0.0)) throw InputError("expected count", number_text(expected_count), "a count >= 0");
+  if (!(expected_count >= 0.0)) throw InputError("expected count", util::number_text(expected_count, 6), "a count >= 0");
   return -std::expm1(-expected_count);
 }
 

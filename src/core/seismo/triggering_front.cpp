@@ -6,21 +6,21 @@
 #include <string>
 
 #include "core/errors.hpp"
-#include "core/seismo/number_text.hpp"
+#include "core/util/number_text.hpp"
 
 namespace slipscreen::seismo {
 // Shapiro et al. (1997): r = sqrt(4π D t).
 double front_radius(double diffusivity, double t) {
   if (!(diffusivity > 0.0) || !std::isfinite(diffusivity))
-    throw InputError("diffusivity", number_text(diffusivity), "a positive hydraulic diffusivity such as '0.1 m2/s'");
-  if (!(t >= 0.0) || !std::isfinite(t)) throw InputError("time since injection start", number_text(t), "a time >= 0 s");
+    throw InputError("diffusivity", util::number_text(diffusivity, 6), "a positive hydraulic diffusivity such as '0.1 m2/s'");
+  if (!(t >= 0.0) || !std::isfinite(t)) throw InputError("time since injection start", util::number_text(t, 6), "a time >= 0 s");
   return std::sqrt(4.0 * std::numbers::pi * diffusivity * t);
 }
 
 // Shapiro et al. (1997), solved for D: D = r² / (4π t).
 double front_diffusivity(double radius, double t) {
-  if (!(radius >= 0.0)) throw InputError("distance", number_text(radius), "a distance >= 0 m");
-  if (!(t > 0.0)) throw InputError("time since injection start", number_text(t), "a time > 0 s");
+  if (!(radius >= 0.0)) throw InputError("distance", util::number_text(radius, 6), "a distance >= 0 m");
+  if (!(t > 0.0)) throw InputError("time since injection start", util::number_text(t, 6), "a time > 0 s");
   return radius * radius / (4.0 * std::numbers::pi * t);
 }
 
