@@ -21,7 +21,7 @@ namespace fs = std::filesystem;
 namespace {
 
 // A file name inside the run folder: relative, no "..", no network or virtual path
-// (io/path_policy.hpp), refused with the place of the key.
+// (formats/files/path_policy.hpp), refused with the place of the key.
 void check_output_name(const formats::Section& s, std::string_view key, const std::string& name) {
   const auto f = s.find(key);
   try {

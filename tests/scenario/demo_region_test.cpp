@@ -1,4 +1,4 @@
-// The bundled demo region (regions/marrowick, FICTIONAL) meets the brief of issue 4 and is
+// The bundled demo region (regions/marrowick, FICTIONAL) meets what docs/regions.md describes and is
 // exactly what tools/make-demo-region.py generates.
 #include <doctest/doctest.h>
 

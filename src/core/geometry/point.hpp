@@ -1,6 +1,6 @@
 #pragma once
 // A point in a projected (map) coordinate system: x = easting, y = northing, in metres.
-// The working CRS of a run is always projected with metre units (see io/crs.hpp), so every
+// The working CRS of a run is always projected with metre units (see formats/gis/crs.hpp), so every
 // core computation on positions uses this type. Geographic coordinates never reach the core.
 #include <cmath>
 

@@ -8,7 +8,7 @@
 // [s], r_s distance to source s clamped to the well radius r_w [m], D diffusivity [m²/s],
 // μ/(4π k h) pressure_per_rate [Pa per m³/s].
 //
-// Prepared once, varied cheaply (BRIEF 2.4): a PressureField holds the wells, their rate
+// Prepared once, varied cheaply (docs/uncertainty.md): a PressureField holds the wells, their rate
 // changes and their image sources; PreparedPoints holds the squared distances from a set of
 // points to every source. Neither depends on the hydrogeology, which enters evaluate() only
 // through TheisParameters (D and μ/(4π k h)) and optional per-well rate factors.

@@ -2,7 +2,7 @@
 // Δp on a raster grid at many output times, from many wells with long piecewise-constant rate
 // histories (Theis line sources superposed in time and space), with a stated error bound.
 //
-// Model: Theis (1935) with superposition in time and space (BRIEF 2.1), exactly as
+// Model: Theis (1935) with superposition in time and space (docs/pressure.md), exactly as
 // PressureField (pressure_field.hpp) evaluates it, including image wells of straight boundaries:
 //   Δp(x, y, t) = Σ_sources C f_w sign_s Σ_j Δq_{w,j} E1(r_s² / (4 D (t − τ_{w,j}))),  τ_{w,j} < t,
 // with C = μ/(4π k h) = ρ g/(4π T) and D = k/(μ φ c_t) = T/S (TheisParameters), rate factors f_w,

@@ -35,7 +35,7 @@ struct Aquifer {
 };
 
 // The only two numbers through which the hydrogeology enters the Theis solution. Everything that
-// varies per Monte Carlo realization (BRIEF 2.4) can be expressed as a new TheisParameters.
+// varies per Monte Carlo realization (docs/uncertainty.md) can be expressed as a new TheisParameters.
 struct TheisParameters {
   double diffusivity = 0;        // D, m²/s
   double pressure_per_rate = 0;  // μ / (4π k h), Pa per (m³/s)

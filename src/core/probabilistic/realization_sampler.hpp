@@ -12,7 +12,7 @@
 // dp_crit Δp_crit [Pa], mu_global μ (the sampled global friction), s1, s3 S1, S3 [Pa],
 // pore_pressure p0 [Pa], perturbation (Δstrike, Δdip) [rad].
 //
-// Determinism (BRIEF 2.4): realization i draws its inputs from the stats::Sampler stream
+// Determinism (docs/uncertainty.md): realization i draws its inputs from the stats::Sampler stream
 // (seed, i) and its orientation perturbations (per fault: strike, then dip) from its auxiliary
 // stream, so every realization is independent of the others, of the thread count and of the
 // order of evaluation.

@@ -3,7 +3,7 @@
 // time, from Monte Carlo (or Latin hypercube) realizations of stress, friction, fault
 // orientation, hydrogeology and injection rates.
 //
-// Method (BRIEF 2.4): realization i draws its inputs from its own stream (seed, i)
+// Method (docs/uncertainty.md): realization i draws its inputs from its own stream (seed, i)
 // (stats::Sampler); the hydrogeology enters the pore pressure only through D = k/(μ φ c_t) and
 // P = μ/(4π k h) (Theis 1935), so the pressure model is prepared once (similarity tables and a
 // surrogate in D, pressure_surrogate.hpp) and every realization costs a few small matrix

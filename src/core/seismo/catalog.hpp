@@ -1,11 +1,11 @@
 #pragma once
 // Earthquake catalog as value types: events with origin time, epicentre, depth and magnitude.
-// No I/O here (readers live in src/io/catalog_*.cpp).
+// No I/O here (readers live in src/formats/catalog/).
 //
 // Coordinates are taken as given: a geographic catalog holds longitude/latitude in degrees
 // (x = longitude, y = latitude), a projected one holds x/y in metres in the CRS named by `crs`.
 // Reprojection is not done here: `reprojected` applies a transform supplied by the caller (the
-// OSR layer in src/io), so the core never depends on GDAL.
+// OSR layer in src/formats/gis), so the core never depends on GDAL.
 #include <array>
 #include <functional>
 #include <optional>

@@ -1,5 +1,5 @@
 #pragma once
-// What paths a scenario may name (BRIEF §3: a scenario from someone else can only read the
+// What paths a scenario may name (docs/scenario.md: a scenario from someone else can only read the
 // inputs it names and only write inside its run folder; no network access).
 //
 // - Network paths are refused unless explicitly allowed: any GDAL virtual network file system

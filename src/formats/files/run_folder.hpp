@@ -1,7 +1,7 @@
 #pragma once
 // A run folder that appears all at once, or not at all.
 //
-//   io::RunFolder run("out/review-2031", {.force = false});   // refuses an existing folder
+//   formats::RunFolder run("out/review-2031", {.force = false});   // refuses an existing folder
 //   write_geotiff(run.output("rasters.pressure", "dp.tif"), ...);   // inside the staging folder
 //   run.commit();                                             // rename into place
 //
@@ -13,7 +13,7 @@
 // - If commit() is never reached (an exception, an early return), the destructor removes the
 //   staging folder (and any parent folders it had to create), so no half-written output is
 //   left behind.
-// - output(key, relative) checks a path named by scenario key `key` (io/path_policy.hpp: no
+// - output(key, relative) checks a path named by scenario key `key` (path_policy.hpp: no
 //   absolute paths, no "..", no network paths), creates its parent folders inside the staging
 //   folder and returns the full path to write.
 // A process killed without unwinding (SIGKILL, power loss) can leave a "*.partial-<pid>" folder;

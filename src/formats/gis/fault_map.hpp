@@ -28,7 +28,7 @@
 // geometry::split_trace (at most max_segment_length_m, check_points per segment). A segment's
 // strike is the grid azimuth of its chord in the working CRS with the sense fixed as above
 // (right-hand rule). Grid north is not true north: the difference is the meridian convergence
-// (io::grid_convergence_rad), see docs/gis.md.
+// (formats::grid_convergence_rad), see docs/gis.md.
 #include <cstddef>
 #include <filesystem>
 #include <optional>

@@ -1,10 +1,10 @@
 #pragma once
 // GeoPackage output: several vector layers in one file, ready for ogrinfo / QGIS as written.
 //
-//   io::VectorLayer faults{"fault_segments", io::GeometryType::line_string,
-//                          {{"segment_id", io::FieldType::string}, {"dp_crit_MPa", io::FieldType::real}}};
+//   formats::VectorLayer faults{"fault_segments", formats::GeometryType::line_string,
+//                          {{"segment_id", formats::FieldType::string}, {"dp_crit_MPa", formats::FieldType::real}}};
 //   faults.features.push_back({{a, b}, {std::string("F1:0"), 4.2}});
-//   io::write_geopackage(run.output("outputs.vector", "screen.gpkg"), working_crs, {faults, wells});
+//   formats::write_geopackage(run.output("outputs.vector", "screen.gpkg"), working_crs, {faults, wells});
 //
 // Layout of each layer: the CRS of the file (every layer), geometry column "geom", FID column
 // "fid" (1, 2, ... in the order given), an R-tree spatial index, and the fields in the order

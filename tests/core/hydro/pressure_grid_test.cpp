@@ -143,7 +143,7 @@ TEST_CASE("fast path is within its stated bound of the direct sum (wells with sh
           " values; node spacing h = ", fast.node_spacing);
   CHECK(significant > 5000);
   CHECK(worst_abs <= fast.error_bound);
-  CHECK(worst_rel <= 1e-4);  // issue 2
+  CHECK(worst_rel <= 1e-4);  // the accuracy stated in core/hydro/pressure_grid.hpp
   for (std::size_t i = 0; i < g.nx * g.ny; ++i) CHECK(fast.values[i] == 0.0);  // before injection
   // A tighter tolerance gives a finer node spacing and a smaller error.
   PressureGridOptions tight;
