@@ -32,11 +32,18 @@
 
 #include <nlohmann/json_fwd.hpp>
 
+#include "core/probabilistic/screen_inputs.hpp"
 #include "core/stats/distribution.hpp"
 #include "core/stats/sampler.hpp"
 #include "core/units/units.hpp"
 
 namespace slipscreen::scenario {
+
+// The input of the Monte Carlo model a key replaces (the key table of uncertainty_reader.cpp is
+// the one place that names them): a model-wide input, or the friction of one fault or the rate
+// factor of one well, named by `id`.
+using UncertainField = stats::Distribution probabilistic::UncertainModel::*;
+enum class UncertainScope { model, fault_friction, well_rate_factor };
 
 struct UncertainValue {
   std::string key;              // e.g. "formation.permeability" (see above)
@@ -44,6 +51,9 @@ struct UncertainValue {
   stats::Distribution distribution;  // SI
   std::string text;             // as written
   std::string where;            // "scenario.toml line 31, column 16"
+  UncertainScope scope = UncertainScope::model;
+  UncertainField field = nullptr;  // scope model: the model's input
+  std::string id;                  // scope fault_friction / well_rate_factor: the fault's or well's id
 };
 
 struct UncertaintySpec {

@@ -36,14 +36,55 @@ constexpr Range kPorosity{0.0, 1.0, true, false, "values in (0, 1]"};
 constexpr Range kPoisson{0.0, 0.5, true, true, "values in (0, 0.5)"};
 constexpr Range kAPhi{0.0, 3.0, false, false, "values in [0, 3]"};
 
+using Model = probabilistic::UncertainModel;
+
+// A distribution-valued key: its unit dimension, physical range and the model input it replaces.
 struct KeySpec {
   std::string_view key;
   Dimension dimension;
   Range range;
+  UncertainField field = nullptr;  // null: per-fault friction or per-well rate factor
 };
 
-// Reads one distribution-valued key of `section`, if present, into `spec` under `out_key`.
-void read_value(const formats::Section& section, const KeySpec& k, const std::string& out_key, UncertaintySpec& spec) {
+// The distribution-valued keys of [uncertainty], table by table: the one place that names them
+// (docs/uncertainty.md). The stress keys, which depend on the region's stress model, are in
+// read_stress below.
+const std::vector<KeySpec> kTopKeys = {
+    {"pore_pressure_gradient", Dimension::pressure_gradient, kPositive, &Model::pore_pressure_gradient},
+    {"rate_factor", Dimension::dimensionless, kNonNegative, &Model::rate_factor},
+};
+const std::vector<KeySpec> kPermeabilityFormKeys = {
+    {"permeability", Dimension::permeability, kPositive, &Model::permeability},
+    {"thickness", Dimension::length, kPositive, &Model::thickness},
+    {"porosity", Dimension::dimensionless, kPorosity, &Model::porosity},
+    {"total_compressibility", Dimension::compressibility, kPositive, &Model::total_compressibility},
+    {"viscosity", Dimension::viscosity, kPositive, &Model::viscosity},
+};
+const std::vector<KeySpec> kTransmissivityFormKeys = {
+    {"transmissivity", Dimension::diffusivity, kPositive, &Model::transmissivity},
+    {"storativity", Dimension::dimensionless, kPositive, &Model::storativity},
+};
+const std::vector<KeySpec> kFaultKeys = {
+    {"friction", Dimension::dimensionless, kPositive, &Model::friction},
+    {"cohesion", Dimension::pressure, kNonNegative, &Model::cohesion},
+    {"strike_perturbation", Dimension::angle, kAny, &Model::strike_perturbation},
+    {"dip_perturbation", Dimension::angle, kAny, &Model::dip_perturbation},
+};
+const KeySpec kOneFaultFriction{"friction", Dimension::dimensionless, kPositive};  // [uncertainty.fault."id"]
+const KeySpec kOneWellRateFactor{"rate_factor", Dimension::dimensionless, kNonNegative};  // [uncertainty.well."id"]
+
+std::vector<std::string_view> key_names(const std::vector<KeySpec>& keys,
+                                        std::initializer_list<std::string_view> more = {}) {
+  std::vector<std::string_view> names;
+  for (const auto& k : keys) names.push_back(k.key);
+  names.insert(names.end(), more.begin(), more.end());
+  return names;
+}
+
+// Reads one distribution-valued key of `section`, if present, into `spec` under `out_key`
+// (`id`: the fault or well of a per-fault or per-well key).
+void read_value(const formats::Section& section, const KeySpec& k, const std::string& out_key, UncertaintySpec& spec,
+                UncertainScope scope = UncertainScope::model, const std::string& id = "") {
   const auto f = section.find(k.key);
   if (!f) return;
   const std::string path = section.key_path(*f, k.key);
@@ -77,20 +118,13 @@ void read_value(const formats::Section& section, const KeySpec& k, const std::st
                            " of its probability outside; truncnormal or lognormal keep a quantity in range)",
                        where);
   }
-  spec.values.push_back(UncertainValue{out_key, k.dimension, *d, text, where});
+  spec.values.push_back(UncertainValue{out_key, k.dimension, *d, text, where, scope, k.field, id});
 }
 
-void read_keys(const formats::Section& section, std::initializer_list<KeySpec> keys, const std::string& prefix,
+void read_keys(const formats::Section& section, const std::vector<KeySpec>& keys, const std::string& prefix,
                UncertaintySpec& spec) {
   for (const auto& k : keys) read_value(section, k, prefix + std::string(k.key), spec);
 }
-
-const std::initializer_list<KeySpec> kFaultKeys = {
-    {"friction", Dimension::dimensionless, kPositive},
-    {"cohesion", Dimension::pressure, kNonNegative},
-    {"strike_perturbation", Dimension::angle, kAny},
-    {"dip_perturbation", Dimension::angle, kAny},
-};
 
 std::string stress_model_name(StressModel m) {
   switch (m) {
@@ -109,12 +143,12 @@ void read_stress(const formats::Section& stress, const UncertaintyContext& ctx, 
   constexpr int kAll = 7, kGrad = 1 << static_cast<int>(StressModel::gradients),
                 kUni = 1 << static_cast<int>(StressModel::uniaxial_strain), kAphi = 1 << static_cast<int>(StressModel::a_phi);
   const std::vector<StressKey> keys = {
-      {{"vertical_gradient", Dimension::pressure_gradient, kPositive}, kAll},
-      {{"shmax_azimuth", Dimension::angle, kAny}, kAll},
-      {{"shmax_gradient", Dimension::pressure_gradient, kPositive}, kGrad},
-      {{"shmin_gradient", Dimension::pressure_gradient, kPositive}, kGrad},
-      {{"poisson_ratio", Dimension::dimensionless, kPoisson}, kUni},
-      {{"a_phi", Dimension::dimensionless, kAPhi}, kAphi},
+      {{"vertical_gradient", Dimension::pressure_gradient, kPositive, &Model::vertical_gradient}, kAll},
+      {{"shmax_azimuth", Dimension::angle, kAny, &Model::shmax_azimuth}, kAll},
+      {{"shmax_gradient", Dimension::pressure_gradient, kPositive, &Model::shmax_gradient}, kGrad},
+      {{"shmin_gradient", Dimension::pressure_gradient, kPositive, &Model::shmin_gradient}, kGrad},
+      {{"poisson_ratio", Dimension::dimensionless, kPoisson, &Model::poisson_ratio}, kUni},
+      {{"a_phi", Dimension::dimensionless, kAPhi, &Model::a_phi}, kAphi},
   };
   const int model = 1 << static_cast<int>(ctx.stress_model);
   std::vector<std::string> applicable;
@@ -158,17 +192,8 @@ std::vector<std::string> sub_table_ids(const formats::Section& s, const std::str
   return ids;
 }
 
-}  // namespace
-
-UncertaintySpec read_uncertainty(const toml::table* table, const UncertaintyContext& ctx) {
-  UncertaintySpec spec;
-  spec.seed = ctx.seed;
-  if (!table) return spec;
-  spec.given = true;
-  const formats::Section top({formats::Section::Layer{table, ctx.file, "uncertainty", {}}});
-  top.allow({"realizations", "sampler", "confidence", "thresholds", "pore_pressure_gradient", "rate_factor", "stress",
-             "formation", "faults", "fault", "well", "maps"});
-
+// realizations, sampler, confidence and thresholds.
+void read_settings(const formats::Section& top, const UncertaintyContext& ctx, UncertaintySpec& spec) {
   if (const auto n = top.optional_integer("realizations")) {
     if (*n < 1 || *n > stats::RealizationCount::kMax)
       top.fail("realizations", std::to_string(*n), "a whole number of realizations from 1 to 100000000");
@@ -206,40 +231,32 @@ UncertaintySpec read_uncertainty(const toml::table* table, const UncertaintyCont
       top.fail("thresholds", "[]", "at least one probability, such as [0.05]");
   }
 
-  read_keys(top, {{"pore_pressure_gradient", Dimension::pressure_gradient, kPositive},
-                  {"rate_factor", Dimension::dimensionless, kNonNegative}},
-            "", spec);
-  read_stress(top.child("stress"), ctx, spec);
+}
 
-  const formats::Section formation = top.child("formation");
-  const std::initializer_list<std::string_view> k_form = {"permeability", "thickness", "porosity",
-                                                          "total_compressibility", "viscosity"};
-  const std::initializer_list<std::string_view> t_form = {"transmissivity", "storativity"};
-  formation.allow(ctx.from_transmissivity ? t_form : k_form);
-  if (ctx.from_transmissivity)
-    read_keys(formation, {{"transmissivity", Dimension::diffusivity, kPositive},
-                          {"storativity", Dimension::dimensionless, kPositive}},
-              "formation.", spec);
-  else
-    read_keys(formation, {{"permeability", Dimension::permeability, kPositive},
-                          {"thickness", Dimension::length, kPositive},
-                          {"porosity", Dimension::dimensionless, kPorosity},
-                          {"total_compressibility", Dimension::compressibility, kPositive},
-                          {"viscosity", Dimension::viscosity, kPositive}},
-              "formation.", spec);
+void read_formation(const formats::Section& formation, const UncertaintyContext& ctx, UncertaintySpec& spec) {
+  const std::vector<KeySpec>& keys = ctx.from_transmissivity ? kTransmissivityFormKeys : kPermeabilityFormKeys;
+  formation.allow(key_names(keys));
+  read_keys(formation, keys, "formation.", spec);
+}
 
+// [uncertainty.faults] (every fault) and [uncertainty.fault."id"] (the friction of one fault;
+// its id is checked against the fault map when the map is read: check_fault_ids).
+void read_faults(const formats::Section& top, UncertaintySpec& spec) {
   const formats::Section faults = top.child("faults");
-  faults.allow({"friction", "cohesion", "strike_perturbation", "dip_perturbation"});
+  faults.allow(key_names(kFaultKeys));
   read_keys(faults, kFaultKeys, "faults.", spec);
-
   const formats::Section fault = top.child("fault");
   for (const auto& id : sub_table_ids(fault, "uncertainty.fault")) {
     const formats::Section one = fault.child(id);
-    one.allow({"friction"});  // per fault: friction only (the driver's per-fault input)
-    read_keys(one, {{"friction", Dimension::dimensionless, kPositive}}, "fault." + id + ".", spec);
+    one.allow({kOneFaultFriction.key});
+    read_value(one, kOneFaultFriction, "fault." + id + "." + std::string(kOneFaultFriction.key), spec,
+               UncertainScope::fault_friction, id);
     spec.fault_ids.push_back(id);
   }
+}
 
+// [uncertainty.well."id"]: the rate factor of one well of the scenario.
+void read_wells(const formats::Section& top, const UncertaintyContext& ctx, UncertaintySpec& spec) {
   const formats::Section well = top.child("well");
   for (const auto& id : sub_table_ids(well, "uncertainty.well")) {
     if (std::find(ctx.well_ids.begin(), ctx.well_ids.end(), id) == ctx.well_ids.end())
@@ -247,13 +264,14 @@ UncertaintySpec read_uncertainty(const toml::table* table, const UncertaintyCont
                        "the id of a well of the scenario" + util::did_you_mean(id, ctx.well_ids),
                        formats::toml_where(ctx.file, well.layers().front().table->get(id)->source()));
     const formats::Section one = well.child(id);
-    one.allow({"rate_factor"});
-    read_keys(one, {{"rate_factor", Dimension::dimensionless, kNonNegative}}, "well." + id + ".", spec);
+    one.allow({kOneWellRateFactor.key});
+    read_value(one, kOneWellRateFactor, "well." + id + "." + std::string(kOneWellRateFactor.key), spec,
+               UncertainScope::well_rate_factor, id);
   }
+}
 
-  std::sort(spec.values.begin(), spec.values.end(), [](const UncertainValue& a, const UncertainValue& b) { return a.key < b.key; });
-  // Probability maps for unmapped faults: cell size and an optional orientation.
-  const formats::Section maps = top.child("maps");
+// [uncertainty.maps]: probability maps for unmapped faults, a cell size and an optional orientation.
+void read_maps(const formats::Section& maps, UncertaintySpec& spec) {
   maps.allow({"cell_size", "strike", "dip"});
   spec.map_cell_size = maps.quantity_or("cell_size", units::Dimension::length, 0.0);
   if (spec.map_cell_size < 0.0) maps.fail("cell_size", std::to_string(spec.map_cell_size) + " m", "a cell size > 0");
@@ -265,6 +283,26 @@ UncertaintySpec read_uncertainty(const toml::table* table, const UncertaintyCont
     if (!(*spec.map_dip >= 0.0 && *spec.map_dip <= 1.5707963267948966 + 1e-12))
       maps.fail("dip", std::to_string(*spec.map_dip * 57.29577951308232) + " deg", "a dip from 0 to 90 deg");
   }
+}
+
+}  // namespace
+
+UncertaintySpec read_uncertainty(const toml::table* table, const UncertaintyContext& ctx) {
+  UncertaintySpec spec;
+  spec.seed = ctx.seed;
+  if (!table) return spec;
+  spec.given = true;
+  const formats::Section top({formats::Section::Layer{table, ctx.file, "uncertainty", {}}});
+  top.allow(key_names(kTopKeys, {"realizations", "sampler", "confidence", "thresholds", "stress", "formation", "faults",
+                                 "fault", "well", "maps"}));
+  read_settings(top, ctx, spec);
+  read_keys(top, kTopKeys, "", spec);
+  read_stress(top.child("stress"), ctx, spec);
+  read_formation(top.child("formation"), ctx, spec);
+  read_faults(top, spec);
+  read_wells(top, ctx, spec);
+  std::sort(spec.values.begin(), spec.values.end(), [](const UncertainValue& a, const UncertainValue& b) { return a.key < b.key; });
+  read_maps(top.child("maps"), spec);
   return spec;
 }
 

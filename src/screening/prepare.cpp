@@ -117,7 +117,7 @@ PreparedRun prepare_run(const scenario::ResolvedScenario& s, bool allow_network)
       throw e.located(r.file);
     }
   }();
-  PreparedRun run{working, {}, {}, {}, {}, 0.0, {}, 0};
+  PreparedRun run{working, {}, {}, {}, {}, 0.0, {}, 0, {}};
 
   // Wells into the working CRS (one transformer per distinct CRS).
   std::map<std::string, formats::Transformer> transformers;

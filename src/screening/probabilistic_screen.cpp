@@ -82,38 +82,16 @@ probabilistic::UncertainModel uncertain_model(const scenario::ResolvedScenario& 
   m.fault_ids = fault_ids;
   m.well_rate_factor.assign(p.inputs.wells.size(), std::nullopt);
 
-  // The scenario's distributions replace the best estimates they name.
+  // The scenario's distributions replace the best estimates they name (the inputs each key
+  // names are set by the key table of scenario/uncertainty_reader.cpp).
   for (const auto& v : spec.values) {
-    const auto& d = v.distribution;
-    const std::string& k = v.key;
-    if (k == "pore_pressure_gradient") m.pore_pressure_gradient = d;
-    else if (k == "rate_factor") m.rate_factor = d;
-    else if (k == "stress.vertical_gradient") m.vertical_gradient = d;
-    else if (k == "stress.shmax_azimuth") m.shmax_azimuth = d;
-    else if (k == "stress.shmax_gradient") m.shmax_gradient = d;
-    else if (k == "stress.shmin_gradient") m.shmin_gradient = d;
-    else if (k == "stress.poisson_ratio") m.poisson_ratio = d;
-    else if (k == "stress.a_phi") m.a_phi = d;
-    else if (k == "formation.permeability") m.permeability = d;
-    else if (k == "formation.thickness") m.thickness = d;
-    else if (k == "formation.porosity") m.porosity = d;
-    else if (k == "formation.total_compressibility") m.total_compressibility = d;
-    else if (k == "formation.viscosity") m.viscosity = d;
-    else if (k == "formation.transmissivity") m.transmissivity = d;
-    else if (k == "formation.storativity") m.storativity = d;
-    else if (k == "faults.friction") m.friction = d;
-    else if (k == "faults.cohesion") m.cohesion = d;
-    else if (k == "faults.strike_perturbation") m.strike_perturbation = d;
-    else if (k == "faults.dip_perturbation") m.dip_perturbation = d;
-    else if (k.rfind("fault.", 0) == 0 && k.size() > 15 && k.substr(k.size() - 9) == ".friction") {
-      const std::string id = k.substr(6, k.size() - 15);
-      m.fault_friction[index.at(id)] = d;
-    } else if (k.rfind("well.", 0) == 0 && k.size() > 17 && k.substr(k.size() - 12) == ".rate_factor") {
-      const std::string id = k.substr(5, k.size() - 17);
-      for (std::size_t w = 0; w < p.inputs.wells.size(); ++w)
-        if (p.inputs.wells[w].id == id) m.well_rate_factor[w] = d;
-    } else {
-      throw InputError(k, v.text, "an input of the probabilistic screen", v.where);
+    switch (v.scope) {
+      case scenario::UncertainScope::model: m.*(v.field) = v.distribution; break;
+      case scenario::UncertainScope::fault_friction: m.fault_friction[index.at(v.id)] = v.distribution; break;
+      case scenario::UncertainScope::well_rate_factor:
+        for (std::size_t w = 0; w < p.inputs.wells.size(); ++w)
+          if (p.inputs.wells[w].id == v.id) m.well_rate_factor[w] = v.distribution;
+        break;
     }
   }
   return m;

@@ -49,7 +49,19 @@ TEST_CASE("catalog --out writes the summary, events and r-t tables") {
   auto forced = args;
   forced.push_back("--force");
   CHECK(slipscreen::cli::run(forced, out2, err2) == 0);
-  for (const auto& e : fs::directory_iterator(dir.parent_path()))
-    CHECK(e.path().filename().string().find("slipscreen_catalog_out_test.tmp-") == std::string::npos);
+  for (const auto& e : fs::directory_iterator(dir.parent_path())) {
+    const std::string name = e.path().filename().string();
+    CHECK(name.find("slipscreen_catalog_out_test.partial-") == std::string::npos);
+    CHECK(name.find("slipscreen_catalog_out_test.replaced-") == std::string::npos);
+  }
+  // --force with a catalog that cannot be read keeps the earlier folder as it was (the folder is
+  // replaced only once the new one is complete: formats/files/run_folder.hpp).
+  std::ofstream(dir / "notes.txt") << "kept";
+  auto bad = forced;
+  bad[1] = std::string(SLIPSCREEN_SOURCE_DIR) + "/tests/data/catalog/no-such-catalog.csv";
+  std::ostringstream out3, err3;
+  CHECK(slipscreen::cli::run(bad, out3, err3) == 4);
+  CHECK(slurp(dir / "notes.txt") == "kept");
+  CHECK(fs::exists(dir / "catalog_summary.json"));
   fs::remove_all(dir);
 }

@@ -80,6 +80,10 @@ std::optional<Section::Found> Section::find(std::string_view key) const {
 }
 
 void Section::allow(std::initializer_list<std::string_view> allowed) const {
+  allow(std::vector<std::string_view>(allowed.begin(), allowed.end()));
+}
+
+void Section::allow(const std::vector<std::string_view>& allowed) const {
   std::vector<std::string> names(allowed.begin(), allowed.end());
   for (const auto& l : layers_) {
     if (!l.table) continue;

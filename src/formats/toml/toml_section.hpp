@@ -57,6 +57,7 @@ class Section {
 
   // Refuses keys outside `allowed` in every layer, with "did you mean".
   void allow(std::initializer_list<std::string_view> allowed) const;
+  void allow(const std::vector<std::string_view>& allowed) const;
 
   // A quantity with a unit, written as a string ("0.7 psi/ft"); a bare TOML number is accepted
   // only for dimensionless values. Returns SI.
