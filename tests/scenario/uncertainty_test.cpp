@@ -138,3 +138,38 @@ TEST_CASE("the spec does not depend on the order of the lines") {
   }
   CHECK(scenario::to_json(a)["inputs"][0]["key"] == "faults.cohesion");
 }
+
+TEST_CASE("each key names the model input it replaces") {
+  using Model = probabilistic::UncertainModel;
+  const auto spec = with_block(R"toml([uncertainty]
+rate_factor = "uniform(0.9, 1.1)"
+[uncertainty.formation]
+permeability = "lognormal(median=200 mD, sigma_ln=0.3)"
+[uncertainty.stress]
+a_phi = "uniform(1.2, 1.8)"
+[uncertainty.faults]
+dip_perturbation = "normal(0 deg, 3 deg)"
+[uncertainty.fault."F1"]
+friction = "uniform(0.5, 0.7)"
+[uncertainty.well."W2"]
+rate_factor = "uniform(0.8, 1.2)"
+)toml");
+  const auto field = [&](const char* key) {
+    const auto* v = spec.find(key);
+    REQUIRE_MESSAGE(v != nullptr, key);
+    CHECK(v->scope == scenario::UncertainScope::model);
+    return v->field;
+  };
+  CHECK(field("rate_factor") == &Model::rate_factor);
+  CHECK(field("formation.permeability") == &Model::permeability);
+  CHECK(field("stress.a_phi") == &Model::a_phi);
+  CHECK(field("faults.dip_perturbation") == &Model::dip_perturbation);
+  const auto* f = spec.find("fault.F1.friction");
+  REQUIRE(f != nullptr);
+  CHECK(f->scope == scenario::UncertainScope::fault_friction);
+  CHECK(f->id == "F1");
+  const auto* w = spec.find("well.W2.rate_factor");
+  REQUIRE(w != nullptr);
+  CHECK(w->scope == scenario::UncertainScope::well_rate_factor);
+  CHECK(w->id == "W2");
+}
