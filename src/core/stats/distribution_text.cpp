@@ -61,36 +61,11 @@ std::string number(double v) {
   return std::string(buf, r.ptr);
 }
 
-}  // namespace
-
-Distribution parse_distribution(std::string_view text_in, units::Dimension dimension, std::string_view field_in) {
-  const std::string trimmed = util::trim(text_in);
-  const std::string_view text = trimmed;
-  const std::string field(field_in);
-  const std::string whole(text);
-  if (text.empty()) throw InputError(field, whole, kKnown + ", such as 'normal(0.6, 0.05)'");
-
-  const auto open = text.find('(');
-  if (open == std::string_view::npos) {
-    // A bare word is a distribution name written without its arguments, or a typo.
-    if (std::isalpha(static_cast<unsigned char>(text.front())))
-      throw InputError(field, whole, kKnown + " written with its parameters in parentheses" +
-                                         util::did_you_mean(lower(text), names()));
-    return Distribution::fixed(units::parse(text, dimension, field), field);
-  }
-  if (text.back() != ')' || text.find('(', open + 1) != std::string_view::npos ||
-      text.find(')') != text.size() - 1)
-    throw InputError(field, whole, "one pair of parentheses around the parameters, as in 'normal(0.6, 0.05)'");
-
-  const std::string name = lower(util::trim(text.substr(0, open)));
-  const auto it = std::find_if(syntaxes().begin(), syntaxes().end(), [&](const Syntax& s) { return s.name == name; });
-  if (it == syntaxes().end())
-    throw InputError(field, whole, kKnown + util::did_you_mean(name, names()));
-  const Syntax& syn = *it;
-
-  // Split the arguments and bind them to parameter names.
+// Splits the text between the parentheses at its commas and binds each argument to a parameter
+// name: positional ones in the syntax's order, then named ones (key=value).
+std::map<std::string, std::string> bind_arguments(const Syntax& syn, std::string_view inner, const std::string& field,
+                                                  const std::string& whole) {
   std::map<std::string, std::string> args;  // parameter name -> value text
-  const std::string_view inner = text.substr(open + 1, text.size() - open - 2);
   if (util::trim(inner).empty()) throw InputError(field, whole, "parameters: " + std::string(syn.usage));
   std::vector<std::string> accepted = syn.positional;
   accepted.insert(accepted.end(), syn.named_only.begin(), syn.named_only.end());
@@ -125,64 +100,113 @@ Distribution parse_distribution(std::string_view text_in, units::Dimension dimen
     if (!args.emplace(key, std::string(value)).second)
       throw InputError(field, whole, "each parameter once, but '" + key + "' is given twice");
   }
+  return args;
+}
 
-  const auto value_of = [&](const std::string& key) -> std::optional<double> {
-    const auto a = args.find(key);
-    if (a == args.end()) return std::nullopt;
+// The bound arguments of one distribution text, read as quantities when asked for (an error
+// names the whole text and the parameter).
+struct Arguments {
+  const Syntax& syntax;
+  std::map<std::string, std::string> text;  // parameter name -> value text
+  units::Dimension dimension;
+  const std::string& field;
+  const std::string& whole;
+
+  bool has(const char* key) const { return text.count(key) != 0; }
+
+  std::optional<double> value_of(const std::string& key) const {
+    const auto a = text.find(key);
+    if (a == text.end()) return std::nullopt;
     const units::Dimension dim = key == "sigma_ln" ? units::Dimension::dimensionless : dimension;
     try {
       return units::parse(a->second, dim, field + "." + key);
     } catch (const InputError& e) {
       throw InputError(field, whole, "for " + key + " ('" + a->second + "') " + e.expected());
     }
-  };
-  const auto required = [&](const std::string& key) {
-    const auto v = value_of(key);
-    if (!v) throw InputError(field, whole, "a value for " + key + ": " + std::string(syn.usage));
-    return *v;
-  };
+  }
 
-  try {
-    switch (syn.kind) {
-      case DistributionKind::fixed:
-        return Distribution::fixed(required("value"), field);
-      case DistributionKind::uniform: {
-        const double min = required("min"), max = required("max");  // in order: first error first
-        return Distribution::uniform(min, max, field);
-      }
-      case DistributionKind::normal: {
-        const double mean = required("mean"), sd = required("sd");
-        return Distribution::normal(mean, sd, field);
-      }
-      case DistributionKind::truncated_normal: {
-        constexpr double inf = std::numeric_limits<double>::infinity();
-        const double mean = required("mean"), sd = required("sd");
-        const auto lo = value_of("min"), hi = value_of("max");
-        if (!lo && !hi) throw InputError(field, whole, "min or max (or both) for truncnormal(mean, sd, min, max)");
-        return Distribution::truncated_normal(mean, sd, lo.value_or(-inf), hi.value_or(inf), field);
-      }
-      case DistributionKind::lognormal: {
-        const bool by_median = args.count("median") || args.count("sigma_ln");
-        const bool by_percentiles = args.count("p10") || args.count("p90");
-        if (by_median && by_percentiles)
-          throw InputError(field, whole, "either median and sigma_ln, or p10 and p90, not a mix");
-        if (by_percentiles) {
-          const double p10 = required("p10"), p90 = required("p90");
-          return Distribution::lognormal_p10_p90(p10, p90, field);
-        }
-        const double median = required("median"), sigma_ln = required("sigma_ln");
-        return Distribution::lognormal(median, sigma_ln, field);
-      }
-      case DistributionKind::triangular: {
-        const double min = required("min"), mode = required("mode"), max = required("max");
-        return Distribution::triangular(min, mode, max, field);
-      }
+  double required(const std::string& key) const {
+    const auto v = value_of(key);
+    if (!v) throw InputError(field, whole, "a value for " + key + ": " + std::string(syntax.usage));
+    return *v;
+  }
+};
+
+// The distribution the arguments describe; parameters are read in order, so the first error is
+// reported first.
+Distribution make_distribution(const Arguments& a) {
+  const std::string& field = a.field;
+  switch (a.syntax.kind) {
+    case DistributionKind::fixed:
+      return Distribution::fixed(a.required("value"), field);
+    case DistributionKind::uniform: {
+      const double min = a.required("min"), max = a.required("max");
+      return Distribution::uniform(min, max, field);
     }
+    case DistributionKind::normal: {
+      const double mean = a.required("mean"), sd = a.required("sd");
+      return Distribution::normal(mean, sd, field);
+    }
+    case DistributionKind::truncated_normal: {
+      constexpr double inf = std::numeric_limits<double>::infinity();
+      const double mean = a.required("mean"), sd = a.required("sd");
+      const auto lo = a.value_of("min"), hi = a.value_of("max");
+      if (!lo && !hi) throw InputError(field, a.whole, "min or max (or both) for truncnormal(mean, sd, min, max)");
+      return Distribution::truncated_normal(mean, sd, lo.value_or(-inf), hi.value_or(inf), field);
+    }
+    case DistributionKind::lognormal: {
+      const bool by_median = a.has("median") || a.has("sigma_ln");
+      const bool by_percentiles = a.has("p10") || a.has("p90");
+      if (by_median && by_percentiles)
+        throw InputError(field, a.whole, "either median and sigma_ln, or p10 and p90, not a mix");
+      if (by_percentiles) {
+        const double p10 = a.required("p10"), p90 = a.required("p90");
+        return Distribution::lognormal_p10_p90(p10, p90, field);
+      }
+      const double median = a.required("median"), sigma_ln = a.required("sigma_ln");
+      return Distribution::lognormal(median, sigma_ln, field);
+    }
+    case DistributionKind::triangular: {
+      const double min = a.required("min"), mode = a.required("mode"), max = a.required("max");
+      return Distribution::triangular(min, mode, max, field);
+    }
+  }
+  throw InputError(field, a.whole, kKnown);
+}
+
+}  // namespace
+
+Distribution parse_distribution(std::string_view text_in, units::Dimension dimension, std::string_view field_in) {
+  const std::string trimmed = util::trim(text_in);
+  const std::string_view text = trimmed;
+  const std::string field(field_in);
+  const std::string whole(text);
+  if (text.empty()) throw InputError(field, whole, kKnown + ", such as 'normal(0.6, 0.05)'");
+
+  const auto open = text.find('(');
+  if (open == std::string_view::npos) {
+    // A bare word is a distribution name written without its arguments, or a typo.
+    if (std::isalpha(static_cast<unsigned char>(text.front())))
+      throw InputError(field, whole, kKnown + " written with its parameters in parentheses" +
+                                         util::did_you_mean(lower(text), names()));
+    return Distribution::fixed(units::parse(text, dimension, field), field);
+  }
+  if (text.back() != ')' || text.find('(', open + 1) != std::string_view::npos ||
+      text.find(')') != text.size() - 1)
+    throw InputError(field, whole, "one pair of parentheses around the parameters, as in 'normal(0.6, 0.05)'");
+
+  const std::string name = lower(util::trim(text.substr(0, open)));
+  const auto it = std::find_if(syntaxes().begin(), syntaxes().end(), [&](const Syntax& s) { return s.name == name; });
+  if (it == syntaxes().end())
+    throw InputError(field, whole, kKnown + util::did_you_mean(name, names()));
+  const Arguments args{*it, bind_arguments(*it, text.substr(open + 1, text.size() - open - 2), field, whole),
+                       dimension, field, whole};
+  try {
+    return make_distribution(args);
   } catch (const InputError& e) {
     if (e.value() == whole) throw;
     throw InputError(field, whole, e.expected());
   }
-  throw InputError(field, whole, kKnown);
 }
 
 std::string format_distribution(const Distribution& d, units::Dimension dimension) {

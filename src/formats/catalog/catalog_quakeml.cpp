@@ -81,14 +81,63 @@ pugi::xml_node preferred(const std::vector<pugi::xml_node>& items, const std::st
   return items.front();
 }
 
-}  // namespace
-
-CatalogReadResult read_catalog_quakeml(const std::string& path) {
+std::string read_whole_file(const std::string& path) {
   std::ifstream in(path, std::ios::binary);
   if (!in) throw IoError("cannot read catalog file '" + path + "'");
   std::stringstream ss;
   ss << in.rdbuf();
-  const std::string buf = ss.str();
+  return ss.str();
+}
+
+// The eventParameters description followed by the text of its comments.
+std::string catalog_description(const pugi::xml_node& params) {
+  std::string description = text_of(child(params, "description"));
+  for (const auto& c : children(params, "comment")) {
+    const std::string t = text_of(child(c, "text"));
+    if (!t.empty()) description += (description.empty() ? "" : " ") + t;
+  }
+  return description;
+}
+
+// One event's preferred origin and magnitude as `e`; otherwise the reason the event is unusable.
+// Warnings about the choice of origin or magnitude go to `warnings`.
+std::optional<std::string> read_event(const pugi::xml_node& ev, const std::string& id, const std::string& path,
+                                      std::size_t line, seismo::Event& e, std::vector<std::string>& warnings) {
+  const std::string type = text_of(child(ev, "type"));
+  if (type == "not existing") return "event type 'not existing'";
+  const auto origin = preferred(children(ev, "origin"), text_of(child(ev, "preferredOriginID")), "Origin", id,
+                                line, warnings, path);
+  if (!origin) return "no origin";
+  const auto magnitude = preferred(children(ev, "magnitude"), text_of(child(ev, "preferredMagnitudeID")),
+                                   "Magnitude", id, line, warnings, path);
+  if (!magnitude) return "missing magnitude: no magnitude element";
+  e.id = id;
+  e.source = path + " line " + std::to_string(line);
+  const std::string time_text = text_of(child(child(origin, "time"), "value"));
+  try {
+    e.time = parse_iso8601_utc(time_text, "origin time");
+  } catch (const InputError& err) {
+    return std::string(err.what());
+  }
+  const auto lat = quantity(origin, "latitude");
+  const auto lon = quantity(origin, "longitude");
+  if (!lat || !lon || *lat < -90.0 || *lat > 90.0 || *lon < -180.0 || *lon > 360.0)
+    return "origin latitude/longitude missing or out of range";
+  e.y = *lat;
+  e.x = *lon;
+  e.depth = quantity(origin, "depth");  // metres in QuakeML 1.2
+  const auto mag = quantity(magnitude, "mag");
+  if (!mag || *mag < -5.0 || *mag > 10.5)
+    return "missing magnitude: mag/value absent or not a magnitude between -5 and 10.5";
+  e.magnitude = *mag;
+  e.magnitude_type = text_of(child(magnitude, "type"));
+  return std::nullopt;
+}
+
+}  // namespace
+
+CatalogReadResult read_catalog_quakeml(const std::string& path) {
+  const std::string buf = read_whole_file(path);
   const LineIndex lines(buf);
   pugi::xml_document doc;
   const auto ok = doc.load_buffer(buf.data(), buf.size());
@@ -106,62 +155,18 @@ CatalogReadResult read_catalog_quakeml(const std::string& path) {
     throw InputError("root element", root.name(), "'quakeml' (QuakeML 1.2)").located(path);
   const auto params = child(root, "eventParameters");
   if (!params) throw InputError("eventParameters", "missing", "one eventParameters element").located(path);
-  std::string description = text_of(child(params, "description"));
-  for (const auto& c : children(params, "comment")) {
-    const std::string t = text_of(child(c, "text"));
-    if (!t.empty()) description += (description.empty() ? "" : " ") + t;
-  }
-  r.catalog.description = description;
+  r.catalog.description = catalog_description(params);
 
   for (const auto& ev : children(params, "event")) {
     ++r.records;
     const std::size_t line = lines.line(ev.offset_debug());
     const std::string id = ev.attribute("publicID").as_string();
-    auto reject = [&](const std::string& reason) { r.rejected.push_back({line, "event '" + id + "': " + reason}); };
     std::vector<std::string> warnings;  // kept only if the event is used
-    const std::string type = text_of(child(ev, "type"));
-    if (type == "not existing") {
-      reject("event type 'not existing'");
-      continue;
-    }
-    const auto origin = preferred(children(ev, "origin"), text_of(child(ev, "preferredOriginID")), "Origin", id,
-                                  line, warnings, path);
-    if (!origin) {
-      reject("no origin");
-      continue;
-    }
-    const auto magnitude = preferred(children(ev, "magnitude"), text_of(child(ev, "preferredMagnitudeID")),
-                                     "Magnitude", id, line, warnings, path);
-    if (!magnitude) {
-      reject("missing magnitude: no magnitude element");
-      continue;
-    }
     seismo::Event e;
-    e.id = id;
-    e.source = path + " line " + std::to_string(line);
-    const std::string time_text = text_of(child(child(origin, "time"), "value"));
-    try {
-      e.time = parse_iso8601_utc(time_text, "origin time");
-    } catch (const InputError& err) {
-      reject(err.what());
+    if (const auto reason = read_event(ev, id, path, line, e, warnings)) {
+      r.rejected.push_back({line, "event '" + id + "': " + *reason});
       continue;
     }
-    const auto lat = quantity(origin, "latitude");
-    const auto lon = quantity(origin, "longitude");
-    if (!lat || !lon || *lat < -90.0 || *lat > 90.0 || *lon < -180.0 || *lon > 360.0) {
-      reject("origin latitude/longitude missing or out of range");
-      continue;
-    }
-    e.y = *lat;
-    e.x = *lon;
-    e.depth = quantity(origin, "depth");  // metres in QuakeML 1.2
-    const auto mag = quantity(magnitude, "mag");
-    if (!mag || *mag < -5.0 || *mag > 10.5) {
-      reject("missing magnitude: mag/value absent or not a magnitude between -5 and 10.5");
-      continue;
-    }
-    e.magnitude = *mag;
-    e.magnitude_type = text_of(child(magnitude, "type"));
     r.catalog.events.push_back(std::move(e));
     r.warnings.insert(r.warnings.end(), warnings.begin(), warnings.end());
   }

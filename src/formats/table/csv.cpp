@@ -25,6 +25,98 @@ InputError csv_error(const std::string& file, std::size_t line, const std::strin
   return InputError(field, value, expected, file + " line " + std::to_string(line));
 }
 
+// A position in the text being parsed, with its 1-based line number.
+struct Cursor {
+  std::string_view text;
+  std::size_t i = 0;
+  std::size_t line = 1;
+  bool at(char ch) const { return i < text.size() && text[i] == ch; }
+  bool at_field_end() const { return i >= text.size() || text[i] == ',' || text[i] == '\n' || text[i] == '\r'; }
+};
+
+// At the start of a record: skips a blank line, or a comment line (its text goes to `comments`).
+// False when a record starts here.
+bool skip_blank_or_comment(Cursor& c, std::vector<std::string>& comments) {
+  const std::string_view text = c.text;
+  if (text[c.i] == '\n' || (text[c.i] == '\r' && c.i + 1 < text.size() && text[c.i + 1] == '\n')) {
+    c.i += text[c.i] == '\r' ? 2 : 1;
+    ++c.line;
+    return true;
+  }
+  if (text[c.i] != '#') return false;
+  const auto end = text.find('\n', c.i);
+  comments.push_back(util::trim(text.substr(c.i + 1, (end == std::string_view::npos ? text.size() : end) - c.i - 1)));
+  if (end == std::string_view::npos) {
+    c.i = text.size();  // a comment on the last line, without a line end
+  } else {
+    c.i = end + 1;
+    ++c.line;
+  }
+  return true;
+}
+
+// A field in double quotes: a doubled quote stands for one; line ends are kept.
+std::string quoted_field(Cursor& c, const std::string& file) {
+  const std::string_view text = c.text;
+  std::string field;
+  const std::size_t open_line = c.line;
+  ++c.i;
+  for (;;) {
+    if (c.i >= text.size())
+      throw csv_error(file, open_line, "quoted field", field.substr(0, 20), "a closing '\"'");
+    if (text[c.i] == '"') {
+      if (c.i + 1 < text.size() && text[c.i + 1] == '"') {
+        field += '"';
+        c.i += 2;
+        continue;
+      }
+      ++c.i;
+      break;
+    }
+    if (text[c.i] == '\n') ++c.line;
+    field += text[c.i++];
+  }
+  if (!c.at_field_end())
+    throw csv_error(file, c.line, "quoted field", field, "',' or the end of the line after the closing quote");
+  return field;
+}
+
+// One record from its first field to past its line end.
+CsvRow read_record(Cursor& c, const std::string& file) {
+  CsvRow row;
+  row.line = c.line;
+  for (;;) {
+    if (c.at('"')) {
+      row.fields.push_back(quoted_field(c, file));
+    } else {
+      std::string field;
+      while (!c.at_field_end()) field += c.text[c.i++];
+      row.fields.push_back(std::move(field));
+    }
+    if (c.at(',')) {
+      ++c.i;
+      continue;
+    }
+    if (c.at('\r')) ++c.i;
+    if (c.at('\n')) ++c.i;
+    ++c.line;
+    return row;
+  }
+}
+
+// Every header column has a name, and no name (without its unit, case aside) is used twice.
+void check_header(const CsvRow& row, const std::string& file) {
+  for (std::size_t c = 0; c < row.fields.size(); ++c) {
+    const std::string name = split_header_unit(row.fields[c]).name;
+    if (name.empty())
+      throw csv_error(file, row.line, "header column " + std::to_string(c + 1), row.fields[c], "a column name");
+    for (std::size_t p = 0; p < c; ++p)
+      if (lower(split_header_unit(row.fields[p]).name) == lower(name))
+        throw csv_error(file, row.line, "header column " + std::to_string(c + 1), row.fields[c],
+                        "a column name not used before");
+  }
+}
+
 }  // namespace
 
 std::optional<std::size_t> CsvTable::column(std::string_view name) const {
@@ -67,72 +159,13 @@ CsvTable parse_csv(std::string_view text, const std::string& file) {
   table.file = file;
   if (text.size() >= 3 && text.substr(0, 3) == "\xEF\xBB\xBF") text.remove_prefix(3);
 
-  std::size_t i = 0, line = 1;
+  Cursor c{text};
   bool have_header = false;
-  while (i < text.size()) {
-    // Start of a record: blank lines and comments.
-    if (text[i] == '\n' || (text[i] == '\r' && i + 1 < text.size() && text[i + 1] == '\n')) {
-      i += text[i] == '\r' ? 2 : 1;
-      ++line;
-      continue;
-    }
-    if (text[i] == '#') {
-      const auto end = text.find('\n', i);
-      table.comments.push_back(util::trim(text.substr(i + 1, (end == std::string_view::npos ? text.size() : end) - i - 1)));
-      if (end == std::string_view::npos) break;
-      i = end + 1;
-      ++line;
-      continue;
-    }
-    CsvRow row;
-    row.line = line;
-    std::string field;
-    bool done = false;
-    while (!done) {
-      if (i < text.size() && text[i] == '"') {
-        const std::size_t open_line = line;
-        ++i;
-        for (;;) {
-          if (i >= text.size())
-            throw csv_error(file, open_line, "quoted field", field.substr(0, 20), "a closing '\"'");
-          if (text[i] == '"') {
-            if (i + 1 < text.size() && text[i + 1] == '"') {
-              field += '"';
-              i += 2;
-              continue;
-            }
-            ++i;
-            break;
-          }
-          if (text[i] == '\n') ++line;
-          field += text[i++];
-        }
-        if (i < text.size() && text[i] != ',' && text[i] != '\n' && text[i] != '\r')
-          throw csv_error(file, line, "quoted field", field, "',' or the end of the line after the closing quote");
-      } else {
-        while (i < text.size() && text[i] != ',' && text[i] != '\n' && text[i] != '\r') field += text[i++];
-      }
-      row.fields.push_back(std::move(field));
-      field.clear();
-      if (i < text.size() && text[i] == ',') {
-        ++i;
-      } else {
-        if (i < text.size() && text[i] == '\r') ++i;
-        if (i < text.size() && text[i] == '\n') ++i;
-        ++line;
-        done = true;
-      }
-    }
+  while (c.i < text.size()) {
+    if (skip_blank_or_comment(c, table.comments)) continue;
+    CsvRow row = read_record(c, file);
     if (!have_header) {
-      for (std::size_t c = 0; c < row.fields.size(); ++c) {
-        const std::string name = split_header_unit(row.fields[c]).name;
-        if (name.empty())
-          throw csv_error(file, row.line, "header column " + std::to_string(c + 1), row.fields[c], "a column name");
-        for (std::size_t p = 0; p < c; ++p)
-          if (lower(split_header_unit(row.fields[p]).name) == lower(name))
-            throw csv_error(file, row.line, "header column " + std::to_string(c + 1), row.fields[c],
-                            "a column name not used before");
-      }
+      check_header(row, file);
       table.header = std::move(row.fields);
       table.header_line = row.line;
       have_header = true;
@@ -143,7 +176,7 @@ CsvTable parse_csv(std::string_view text, const std::string& file) {
       table.rows.push_back(std::move(row));
     }
   }
-  if (!have_header) throw csv_error(file, line, "header", "", "a header line naming the columns");
+  if (!have_header) throw csv_error(file, c.line, "header", "", "a header line naming the columns");
   return table;
 }
 
