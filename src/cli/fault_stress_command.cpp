@@ -180,6 +180,42 @@ struct PlaneResult {
   CriticalPressure dp;
 };
 
+// What the command reports: the stress state's invariants and each plane's resolved stress.
+struct Analysis {
+  PrincipalStresses principal;
+  FaultingRegime regime;
+  double aphi;
+  FrictionalLimitCheck limit;
+  DangerousOrientation worst;  // the most dangerous orientation and its Δp_crit
+  double opening;              // opening_pressure, Pa
+  std::vector<PlaneResult> planes;
+
+  // Δp_crit beyond the opening pressure: tensile opening would come first.
+  bool beyond_opening(const CriticalPressure& c) const {
+    return c.status != CriticalStatus::already_critical && c.dp > opening;
+  }
+};
+
+Analysis analyse(const Setup& s) {
+  const Eigen::Matrix3d tensor = stress_tensor_ned(s.stress);
+  const double p0 = s.stress.pore_pressure;
+  const PrincipalStresses principal = principal_stresses(tensor);
+  Analysis a{.principal = principal,
+             .regime = classify_regime(s.stress),
+             .aphi = a_phi(s.stress.sv, s.stress.shmax, s.stress.shmin),
+             .limit = check_frictional_limit(principal.values(0), principal.values(2), p0, s.friction.mu),
+             .worst = most_dangerous_orientation(tensor, p0, s.friction, s.kappa),
+             .opening = opening_pressure(s.stress, s.kappa),
+             .planes = {}};
+  for (const auto& plane : s.planes) {
+    const auto r = resolve(tensor, p0, plane);
+    const auto dp = s.path ? critical_pressure_poroelastic(tensor, p0, plane.normal(), s.friction, s.kappa)
+                           : critical_pressure(r.shear_stress, r.normal_stress, p0, s.friction);
+    a.planes.push_back({plane, r, dp});
+  }
+  return a;
+}
+
 std::string fixed(double v, int digits) {
   if (!std::isfinite(v)) return "-";
   if (std::fabs(v) < 0.5 * std::pow(10.0, -digits)) v = 0.0;  // no "-0.0000"
@@ -195,92 +231,73 @@ std::string dp_text(double v, double in_unit) {
   return fixed(in_unit, 4);
 }
 
-int run_fault_stress(const Options& o, Context& ctx) {
-  const Setup s = build(o);
-  const auto p_unit = o.pressure_unit;
-  units::lookup(p_unit, Dimension::pressure, "--pressure-unit");
+// The JSON output: every quantity in SI units (Pa, m, degrees), null for a non-finite value.
+void print_json(std::ostream& out, const Setup& s, const Analysis& a) {
+  using nlohmann::json;
+  const auto num = [](double v) { return std::isfinite(v) ? json(v) : json(nullptr); };
+  json j;
+  j["screening_caution"] = kScreeningCaution;
+  j["depth_m"] = s.depth;
+  j["stress"] = {{"sv_pa", s.stress.sv},
+                 {"shmax_pa", s.stress.shmax},
+                 {"shmin_pa", s.stress.shmin},
+                 {"shmax_azimuth_deg", s.stress.shmax_azimuth / kDeg},
+                 {"pore_pressure_pa", s.stress.pore_pressure},
+                 {"horizontal_from", s.model}};
+  j["regime"] = to_string(a.regime);
+  j["a_phi"] = a.aphi;
+  j["principal_stresses"] = json::array();
+  for (int i = 0; i < 3; ++i) {
+    const auto ax = axis_orientation(a.principal.directions.col(i));
+    j["principal_stresses"].push_back({{"name", "S" + std::to_string(i + 1)},
+                                       {"value_pa", a.principal.values(i)},
+                                       {"trend_deg", ax.trend / kDeg},
+                                       {"plunge_deg", ax.plunge / kDeg}});
+  }
+  j["frictional_limit"] = {{"ratio", a.limit.ratio}, {"limit", a.limit.limit}, {"status", to_string(a.limit.status)}};
+  j["friction"] = {{"mu", s.friction.mu}, {"cohesion_pa", s.friction.cohesion}};
+  j["stress_path"] = s.path ? json{{"biot", s.path->biot}, {"poisson", s.path->poisson}, {"kappa", s.kappa}} : json(nullptr);
+  j["opening_pressure_pa"] = a.opening;
+  j["most_dangerous_orientation"] = {{"strike_deg", a.worst.plane.strike() / kDeg},
+                                     {"dip_deg", a.worst.plane.dip() / kDeg},
+                                     {"dp_crit_pa", num(a.worst.dp_crit)}};
+  j["planes"] = json::array();
+  for (const auto& pr : a.planes) {
+    j["planes"].push_back({{"strike_deg", pr.plane.strike() / kDeg},
+                           {"dip_deg", pr.plane.dip() / kDeg},
+                           {"dip_direction_deg", pr.plane.dip_direction() / kDeg},
+                           {"normal_stress_pa", pr.r.normal_stress},
+                           {"effective_normal_stress_pa", pr.r.effective_normal_stress},
+                           {"shear_stress_pa", pr.r.shear_stress},
+                           {"slip_tendency", pr.r.slip_tendency},
+                           {"dilation_tendency", num(pr.r.dilation_tendency)},
+                           {"dp_crit_pa", num(pr.dp.dp)},
+                           {"dp_crit_status", to_string(pr.dp.status)},
+                           {"dp_crit_exceeds_opening_pressure", a.beyond_opening(pr.dp)},
+                           {"rake_deg", num(pr.r.rake / kDeg)},
+                           {"slip_sense", to_string(pr.r.sense)}});
+  }
+  out << j.dump(2) << "\n";
+}
+
+// The stress state above the table: magnitudes, regime, principal axes, frictional limit,
+// friction and stress path, opening pressure and the most dangerous orientation.
+void print_stress_state(std::ostream& out, const Setup& s, const Analysis& a, const std::string& p_unit) {
   const auto P = [&](double pa) { return units::to_unit(pa, p_unit, Dimension::pressure); };
-
-  const Eigen::Matrix3d tensor = stress_tensor_ned(s.stress);
-  const auto principal = principal_stresses(tensor);
-  const auto regime = classify_regime(s.stress);
-  const double aphi = a_phi(s.stress.sv, s.stress.shmax, s.stress.shmin);
-  const auto limit = check_frictional_limit(principal.values(0), principal.values(2), s.stress.pore_pressure, s.friction.mu);
-  const auto worst = most_dangerous_orientation(tensor, s.stress.pore_pressure, s.friction, s.kappa);
-  const double opening = opening_pressure(s.stress, s.kappa);
-  const auto beyond_opening = [opening](const CriticalPressure& c) {
-    return c.status != CriticalStatus::already_critical && c.dp > opening;
-  };
-
-  std::vector<PlaneResult> results;
-  for (const auto& plane : s.planes) {
-    const auto r = resolve(tensor, s.stress.pore_pressure, plane);
-    const auto dp = s.path ? critical_pressure_poroelastic(tensor, s.stress.pore_pressure, plane.normal(), s.friction, s.kappa)
-                           : critical_pressure(r.shear_stress, r.normal_stress, s.stress.pore_pressure, s.friction);
-    results.push_back({plane, r, dp});
-  }
-
-  if (o.json) {
-    using nlohmann::json;
-    const auto num = [](double v) { return std::isfinite(v) ? json(v) : json(nullptr); };
-    json j;
-    j["screening_caution"] = kScreeningCaution;
-    j["depth_m"] = s.depth;
-    j["stress"] = {{"sv_pa", s.stress.sv},
-                   {"shmax_pa", s.stress.shmax},
-                   {"shmin_pa", s.stress.shmin},
-                   {"shmax_azimuth_deg", s.stress.shmax_azimuth / kDeg},
-                   {"pore_pressure_pa", s.stress.pore_pressure},
-                   {"horizontal_from", s.model}};
-    j["regime"] = to_string(regime);
-    j["a_phi"] = aphi;
-    j["principal_stresses"] = json::array();
-    for (int i = 0; i < 3; ++i) {
-      const auto ax = axis_orientation(principal.directions.col(i));
-      j["principal_stresses"].push_back(
-          {{"name", "S" + std::to_string(i + 1)}, {"value_pa", principal.values(i)}, {"trend_deg", ax.trend / kDeg}, {"plunge_deg", ax.plunge / kDeg}});
-    }
-    j["frictional_limit"] = {{"ratio", limit.ratio}, {"limit", limit.limit}, {"status", to_string(limit.status)}};
-    j["friction"] = {{"mu", s.friction.mu}, {"cohesion_pa", s.friction.cohesion}};
-    j["stress_path"] = s.path ? json{{"biot", s.path->biot}, {"poisson", s.path->poisson}, {"kappa", s.kappa}} : json(nullptr);
-    j["opening_pressure_pa"] = opening;
-    j["most_dangerous_orientation"] = {{"strike_deg", worst.plane.strike() / kDeg}, {"dip_deg", worst.plane.dip() / kDeg},
-                                       {"dp_crit_pa", num(worst.dp_crit)}};
-    j["planes"] = json::array();
-    for (const auto& pr : results) {
-      j["planes"].push_back({{"strike_deg", pr.plane.strike() / kDeg},
-                             {"dip_deg", pr.plane.dip() / kDeg},
-                             {"dip_direction_deg", pr.plane.dip_direction() / kDeg},
-                             {"normal_stress_pa", pr.r.normal_stress},
-                             {"effective_normal_stress_pa", pr.r.effective_normal_stress},
-                             {"shear_stress_pa", pr.r.shear_stress},
-                             {"slip_tendency", pr.r.slip_tendency},
-                             {"dilation_tendency", num(pr.r.dilation_tendency)},
-                             {"dp_crit_pa", num(pr.dp.dp)},
-                             {"dp_crit_status", to_string(pr.dp.status)},
-                             {"dp_crit_exceeds_opening_pressure", beyond_opening(pr.dp)},
-                             {"rake_deg", num(pr.r.rake / kDeg)},
-                             {"slip_sense", to_string(pr.r.sense)}});
-    }
-    ctx.out << j.dump(2) << "\n";
-    return kExitOk;
-  }
-
-  auto& out = ctx.out;
   const std::string u = " " + p_unit;
   out << "Stress at " << fixed(s.depth, 1) << " m (horizontal stresses from " << s.model << "):\n";
   out << "  Sv " << fixed(P(s.stress.sv), 4) << u << ", SHmax " << fixed(P(s.stress.shmax), 4) << u << " (azimuth "
       << fixed(s.stress.shmax_azimuth / kDeg, 1) << " deg), Shmin " << fixed(P(s.stress.shmin), 4) << u << ", p0 "
       << fixed(P(s.stress.pore_pressure), 4) << u << "\n";
-  out << "  regime " << to_string(regime) << ", A_phi " << fixed(aphi, 3) << "\n";
+  out << "  regime " << to_string(a.regime) << ", A_phi " << fixed(a.aphi, 3) << "\n";
   for (int i = 0; i < 3; ++i) {
-    const auto ax = axis_orientation(principal.directions.col(i));
-    out << "  S" << i + 1 << " " << fixed(P(principal.values(i)), 4) << u << " (trend " << fixed(ax.trend / kDeg, 1)
+    const auto ax = axis_orientation(a.principal.directions.col(i));
+    out << "  S" << i + 1 << " " << fixed(P(a.principal.values(i)), 4) << u << " (trend " << fixed(ax.trend / kDeg, 1)
         << " deg, plunge " << fixed(ax.plunge / kDeg, 1) << " deg)\n";
   }
-  out << "Frictional limit: (S1-p0)/(S3-p0) = " << fixed(limit.ratio, 2) << ", limit [sqrt(mu^2+1)+mu]^2 = "
-      << fixed(limit.limit, 2) << " for mu " << fixed(s.friction.mu, 2) << ": " << to_string(limit.status) << "\n";
-  if (limit.status == LimitStatus::beyond)
+  out << "Frictional limit: (S1-p0)/(S3-p0) = " << fixed(a.limit.ratio, 2) << ", limit [sqrt(mu^2+1)+mu]^2 = "
+      << fixed(a.limit.limit, 2) << " for mu " << fixed(s.friction.mu, 2) << ": " << to_string(a.limit.status) << "\n";
+  if (a.limit.status == LimitStatus::beyond)
     out << "  WARNING: this stress state exceeds the frictional limit: optimally oriented faults would already be\n"
            "  slipping, so it cannot persist. Results below are reported as computed; check the stress inputs.\n";
   out << "Friction " << fixed(s.friction.mu, 3) << ", cohesion " << fixed(P(s.friction.cohesion), 4) << u;
@@ -288,20 +305,25 @@ int run_fault_stress(const Options& o, Context& ctx) {
                   << ", dSh/dp = " << fixed(s.kappa, 4);
   out << "\n";
   out << "Opening pressure (pressure increase at which the least effective stress reaches zero): "
-      << fixed(P(opening), 4) << u << "\n";
-  out << "Most dangerous orientation: strike " << fixed(worst.plane.strike() / kDeg, 1) << " deg, dip "
-      << fixed(worst.plane.dip() / kDeg, 1) << " deg, dp_crit " << dp_text(worst.dp_crit, P(worst.dp_crit)) << u << "\n\n";
+      << fixed(P(a.opening), 4) << u << "\n";
+  out << "Most dangerous orientation: strike " << fixed(a.worst.plane.strike() / kDeg, 1) << " deg, dip "
+      << fixed(a.worst.plane.dip() / kDeg, 1) << " deg, dp_crit " << dp_text(a.worst.dp_crit, P(a.worst.dp_crit)) << u
+      << "\n\n";
+}
 
+// One row per plane, columns aligned (numbers right, text left), then the legend and the caution.
+void print_plane_table(std::ostream& out, const Analysis& a, const std::string& p_unit) {
+  const auto P = [&](double pa) { return units::to_unit(pa, p_unit, Dimension::pressure); };
   const std::vector<std::string> head = {"strike[deg]", "dip[deg]", "sn[" + p_unit + "]", "sn_eff[" + p_unit + "]",
                                          "tau[" + p_unit + "]", "slip_tend[-]", "dilat_tend[-]", "dp_crit[" + p_unit + "]",
                                          "dp_status", "rake[deg]", "slip_sense"};
   std::vector<std::vector<std::string>> rows;
-  for (const auto& pr : results) {
+  for (const auto& pr : a.planes) {
     rows.push_back({fixed(pr.plane.strike() / kDeg, 1), fixed(pr.plane.dip() / kDeg, 1), fixed(P(pr.r.normal_stress), 4),
                     fixed(P(pr.r.effective_normal_stress), 4), fixed(P(pr.r.shear_stress), 4), fixed(pr.r.slip_tendency, 4),
                     fixed(pr.r.dilation_tendency, 4),
                     dp_text(pr.dp.dp, P(pr.dp.dp)),
-                    std::string(to_string(pr.dp.status)) + (beyond_opening(pr.dp) ? " (> opening)" : ""),
+                    std::string(to_string(pr.dp.status)) + (a.beyond_opening(pr.dp) ? " (> opening)" : ""),
                     fixed(pr.r.rake / kDeg, 1), to_string(pr.r.sense)});
   }
   std::vector<std::size_t> width(head.size());
@@ -322,6 +344,18 @@ int run_fault_stress(const Options& o, Context& ctx) {
   out << "\ndp_crit: pore-pressure increase to Coulomb failure; <= 0 means already critical; '(> opening)':\n"
          "tensile opening would come first, so the Coulomb estimate does not apply there.\n"
       << kScreeningCaution << "\n";
+}
+
+int run_fault_stress(const Options& o, Context& ctx) {
+  const Setup s = build(o);
+  units::lookup(o.pressure_unit, Dimension::pressure, "--pressure-unit");
+  const Analysis a = analyse(s);
+  if (o.json) {
+    print_json(ctx.out, s, a);
+  } else {
+    print_stress_state(ctx.out, s, a, o.pressure_unit);
+    print_plane_table(ctx.out, a, o.pressure_unit);
+  }
   return kExitOk;
 }
 

@@ -162,35 +162,40 @@ hydro::TheisParameters formation_from(const PressureOptions& o, std::string& tex
   }
 }
 
-Problem build_problem(const PressureOptions& o) {
-  Problem pb;
-  pb.params = formation_from(o, pb.formation_text);
-  const double rw = units::parse(o.well_radius, Dimension::length, "--well-radius");
-
-  // wells
+// The wells as given by --well (or one well at the origin), before their rate schedules.
+struct WellPlaces {
   std::vector<std::string> names;
-  std::vector<std::pair<double, double>> xy;
-  std::vector<double> radius;
-  for (const std::string& w : o.wells) {
+  std::vector<std::pair<double, double>> xy;  // m
+  std::vector<double> radius;                 // r_w, m
+};
+
+WellPlaces parse_wells(const std::vector<std::string>& specs, double default_radius) {
+  WellPlaces wp;
+  for (const std::string& w : specs) {
     const auto eq = w.find('=');
     const std::string name = util::trim(eq == std::string::npos ? "" : w.substr(0, eq));
     const auto coords = split(eq == std::string::npos ? w : w.substr(eq + 1), ',');
     if (name.empty() || coords.size() < 2 || coords.size() > 3)
       throw InputError("--well", w, "NAME=X,Y[,R_W] with units, e.g. 'A=0 m,1.5 km' or 'A=0 m,0 m,0.1 m'");
-    if (std::find(names.begin(), names.end(), name) != names.end())
+    if (std::find(wp.names.begin(), wp.names.end(), name) != wp.names.end())
       throw InputError("--well", w, "a well name used once ('" + name + "' repeats)");
-    names.push_back(name);
-    xy.emplace_back(units::parse(coords[0], Dimension::length, "--well " + name + " x"),
-                    units::parse(coords[1], Dimension::length, "--well " + name + " y"));
-    radius.push_back(coords.size() == 3 ? units::parse(coords[2], Dimension::length, "--well " + name + " radius") : rw);
+    wp.names.push_back(name);
+    wp.xy.emplace_back(units::parse(coords[0], Dimension::length, "--well " + name + " x"),
+                       units::parse(coords[1], Dimension::length, "--well " + name + " y"));
+    wp.radius.push_back(coords.size() == 3 ? units::parse(coords[2], Dimension::length, "--well " + name + " radius")
+                                           : default_radius);
   }
-  if (names.empty()) {
-    names.push_back("well");
-    xy.emplace_back(0.0, 0.0);
-    radius.push_back(rw);
+  if (wp.names.empty()) {
+    wp.names.push_back("well");
+    wp.xy.emplace_back(0.0, 0.0);
+    wp.radius.push_back(default_radius);
   }
+  return wp;
+}
 
-  // rate schedules
+// Each --rate "[NAME=]RATE [from START]" added to its well's schedule; then one WellSource per well.
+void add_wells(const PressureOptions& o, const WellPlaces& wp, Problem& pb) {
+  const auto& names = wp.names;
   std::vector<std::vector<double>> starts(names.size()), rates(names.size());
   pb.schedule_text.resize(names.size());
   if (o.rates.empty())
@@ -222,9 +227,9 @@ Problem build_problem(const PressureOptions& o) {
   for (std::size_t i = 0; i < names.size(); ++i) {
     hydro::WellSource w;
     w.name = names[i];
-    w.x = xy[i].first;
-    w.y = xy[i].second;
-    w.well_radius = radius[i];
+    w.x = wp.xy[i].first;
+    w.y = wp.xy[i].second;
+    w.well_radius = wp.radius[i];
     try {
       w.history = hydro::RateHistory(starts[i], rates[i]);
     } catch (const InputError& e) {
@@ -232,9 +237,11 @@ Problem build_problem(const PressureOptions& o) {
     }
     pb.wells.push_back(std::move(w));
   }
+}
 
-  // boundaries: a line through (X, Y) along AZIMUTH (clockwise from +y, north)
-  for (const std::string& b : o.boundaries) {
+// Boundaries: a line through (X, Y) along AZIMUTH (clockwise from +y, north).
+void add_boundaries(const std::vector<std::string>& specs, Problem& pb) {
+  for (const std::string& b : specs) {
     const auto colon = b.find(':');
     const std::string kind = util::trim(colon == std::string::npos ? "" : b.substr(0, colon));
     const auto parts = split(colon == std::string::npos ? "" : b.substr(colon + 1), ',');
@@ -250,8 +257,10 @@ Problem build_problem(const PressureOptions& o) {
     pb.boundaries.push_back(bd);
     pb.boundary_text.push_back(b);
   }
+}
 
-  // points
+// The points (--distance along +x from the first well, then --point) and the times.
+void add_points_and_times(const PressureOptions& o, Problem& pb) {
   for (const std::string& d : o.distances) {
     const double r = units::parse(d, Dimension::length, "--distance");
     if (r < 0) throw InputError("--distance", d, "a distance >= 0");
@@ -270,6 +279,15 @@ Problem build_problem(const PressureOptions& o) {
     pb.time_labels.push_back(t);
   }
   if (pb.times.empty()) throw InputError("--time", "(missing)", "at least one time, e.g. '30 d' or '10 yr'");
+}
+
+Problem build_problem(const PressureOptions& o) {
+  Problem pb;
+  pb.params = formation_from(o, pb.formation_text);
+  const double rw = units::parse(o.well_radius, Dimension::length, "--well-radius");
+  add_wells(o, parse_wells(o.wells, rw), pb);
+  add_boundaries(o.boundaries, pb);
+  add_points_and_times(o, pb);
   return pb;
 }
 
@@ -287,7 +305,9 @@ std::string sig(double v) {
   return s.str();
 }
 
-int run_pressure(PressureOptions o, Context& ctx) {
+// --example and --file filled in, the output units defaulted and checked. Returns the line that
+// names where the settings came from (empty for the command line alone).
+std::string resolve_settings(PressureOptions& o) {
   std::string source_note;
   if (o.example) {
     const std::filesystem::path p =
@@ -304,83 +324,108 @@ int run_pressure(PressureOptions o, Context& ctx) {
   // check the output units first, so a typo fails before any work
   units::lookup(o.unit, Dimension::pressure, "--unit");
   units::lookup(o.length_unit, Dimension::length, "--length-unit");
+  return source_note;
+}
 
-  const Problem pb = build_problem(o);
-  const hydro::PressureField field(pb.wells, pb.boundaries);
-  const hydro::PreparedPoints prepared = field.prepare(pb.points);
-  const bool per_well = pb.wells.size() > 1;
-  const hydro::PressureResult res = field.evaluate(prepared, pb.times, pb.params, {}, per_well);
-  const auto P = [&](double pa) { return units::to_unit(pa, o.unit, Dimension::pressure); };
-  const auto L = [&](double m) { return units::to_unit(m, o.length_unit, Dimension::length); };
+// The problem and its Δp at every point and time (each well's share too when there are several).
+struct Evaluated {
+  const Problem& pb;
+  hydro::PreparedPoints prepared;
+  hydro::PressureResult res;
+  bool per_well;
+  std::string pressure_unit, length_unit;
 
-  if (o.json) {
-    nlohmann::ordered_json j;
-    j["model"] = "Theis line source with superposition in time and space";
-    j["pressure_unit"] = o.unit;
-    j["length_unit"] = o.length_unit;
-    j["diffusivity_m2_per_s"] = pb.params.diffusivity;
-    j["pressure_per_rate_Pa_per_m3_per_s"] = pb.params.pressure_per_rate;
-    j["formation"] = pb.formation_text;
-    nlohmann::ordered_json wells = nlohmann::ordered_json::array();
-    for (std::size_t w = 0; w < pb.wells.size(); ++w) {
-      nlohmann::ordered_json jw;
-      jw["name"] = pb.wells[w].name;
-      jw["x"] = L(pb.wells[w].x);
-      jw["y"] = L(pb.wells[w].y);
-      jw["well_radius_m"] = pb.wells[w].well_radius;
-      nlohmann::ordered_json sched = nlohmann::ordered_json::array();
-      const auto& h = pb.wells[w].history;
-      for (std::size_t k = 0; k < h.start_times().size(); ++k)
-        sched.push_back({{"from_s", h.start_times()[k]}, {"rate_m3_per_s", h.rates()[k]}});
-      jw["schedule"] = sched;
-      wells.push_back(jw);
-    }
-    j["wells"] = wells;
-    j["boundaries"] = pb.boundary_text;
-    nlohmann::ordered_json times = nlohmann::ordered_json::array();
-    for (std::size_t t = 0; t < pb.times.size(); ++t)
-      times.push_back({{"label", pb.time_labels[t]}, {"seconds", pb.times[t]}});
-    j["times"] = times;
-    nlohmann::ordered_json pts = nlohmann::ordered_json::array();
-    for (std::size_t p = 0; p < pb.points.size(); ++p) {
-      nlohmann::ordered_json jp;
-      jp["x"] = L(pb.points[p].x);
-      jp["y"] = L(pb.points[p].y);
-      jp["distance_to_" + pb.wells[0].name] =
-          L(std::hypot(pb.points[p].x - pb.wells[0].x, pb.points[p].y - pb.wells[0].y));
-      nlohmann::ordered_json clamped = nlohmann::ordered_json::array();
-      for (std::size_t w = 0; w < pb.wells.size(); ++w)
-        if (prepared.was_clamped(p, w)) clamped.push_back(pb.wells[w].name);
-      jp["clamped_to_well_radius"] = clamped;
-      nlohmann::ordered_json dp = nlohmann::ordered_json::array();
-      for (std::size_t t = 0; t < pb.times.size(); ++t) dp.push_back(P(res.at(p, t)));
-      jp["dp"] = dp;
-      if (per_well) {
-        nlohmann::ordered_json bw;
-        for (std::size_t w = 0; w < pb.wells.size(); ++w) {
-          nlohmann::ordered_json v = nlohmann::ordered_json::array();
-          for (std::size_t t = 0; t < pb.times.size(); ++t) v.push_back(P(res.contribution(p, t, w)));
-          bw[pb.wells[w].name] = v;
-        }
-        jp["dp_by_well"] = bw;
-      }
-      pts.push_back(jp);
-    }
-    j["points"] = pts;
-    j["caution"] = kScreeningCaution;
-    ctx.out << j.dump(2) << "\n";
-    return kExitOk;
+  double P(double pa) const { return units::to_unit(pa, pressure_unit, Dimension::pressure); }
+  double L(double m) const { return units::to_unit(m, length_unit, Dimension::length); }
+  // Distance from point p to the first well, m.
+  double r_first(std::size_t p) const {
+    return std::hypot(pb.points[p].x - pb.wells[0].x, pb.points[p].y - pb.wells[0].y);
   }
+};
 
-  // readable table
-  std::ostream& out = ctx.out;
+Evaluated evaluate(const Problem& pb, const PressureOptions& o) {
+  const hydro::PressureField field(pb.wells, pb.boundaries);
+  hydro::PreparedPoints prepared = field.prepare(pb.points);
+  const bool per_well = pb.wells.size() > 1;
+  hydro::PressureResult res = field.evaluate(prepared, pb.times, pb.params, {}, per_well);
+  return {pb, std::move(prepared), std::move(res), per_well, o.unit, o.length_unit};
+}
+
+nlohmann::ordered_json wells_json(const Evaluated& e) {
+  nlohmann::ordered_json wells = nlohmann::ordered_json::array();
+  for (const hydro::WellSource& well : e.pb.wells) {
+    nlohmann::ordered_json jw;
+    jw["name"] = well.name;
+    jw["x"] = e.L(well.x);
+    jw["y"] = e.L(well.y);
+    jw["well_radius_m"] = well.well_radius;
+    nlohmann::ordered_json sched = nlohmann::ordered_json::array();
+    const auto& h = well.history;
+    for (std::size_t k = 0; k < h.start_times().size(); ++k)
+      sched.push_back({{"from_s", h.start_times()[k]}, {"rate_m3_per_s", h.rates()[k]}});
+    jw["schedule"] = sched;
+    wells.push_back(jw);
+  }
+  return wells;
+}
+
+nlohmann::ordered_json point_json(const Evaluated& e, std::size_t p) {
+  const Problem& pb = e.pb;
+  nlohmann::ordered_json jp;
+  jp["x"] = e.L(pb.points[p].x);
+  jp["y"] = e.L(pb.points[p].y);
+  jp["distance_to_" + pb.wells[0].name] = e.L(e.r_first(p));
+  nlohmann::ordered_json clamped = nlohmann::ordered_json::array();
+  for (std::size_t w = 0; w < pb.wells.size(); ++w)
+    if (e.prepared.was_clamped(p, w)) clamped.push_back(pb.wells[w].name);
+  jp["clamped_to_well_radius"] = clamped;
+  nlohmann::ordered_json dp = nlohmann::ordered_json::array();
+  for (std::size_t t = 0; t < pb.times.size(); ++t) dp.push_back(e.P(e.res.at(p, t)));
+  jp["dp"] = dp;
+  if (e.per_well) {
+    nlohmann::ordered_json bw;
+    for (std::size_t w = 0; w < pb.wells.size(); ++w) {
+      nlohmann::ordered_json v = nlohmann::ordered_json::array();
+      for (std::size_t t = 0; t < pb.times.size(); ++t) v.push_back(e.P(e.res.contribution(p, t, w)));
+      bw[pb.wells[w].name] = v;
+    }
+    jp["dp_by_well"] = bw;
+  }
+  return jp;
+}
+
+void print_json(std::ostream& out, const Evaluated& e) {
+  const Problem& pb = e.pb;
+  nlohmann::ordered_json j;
+  j["model"] = "Theis line source with superposition in time and space";
+  j["pressure_unit"] = e.pressure_unit;
+  j["length_unit"] = e.length_unit;
+  j["diffusivity_m2_per_s"] = pb.params.diffusivity;
+  j["pressure_per_rate_Pa_per_m3_per_s"] = pb.params.pressure_per_rate;
+  j["formation"] = pb.formation_text;
+  j["wells"] = wells_json(e);
+  j["boundaries"] = pb.boundary_text;
+  nlohmann::ordered_json times = nlohmann::ordered_json::array();
+  for (std::size_t t = 0; t < pb.times.size(); ++t)
+    times.push_back({{"label", pb.time_labels[t]}, {"seconds", pb.times[t]}});
+  j["times"] = times;
+  nlohmann::ordered_json pts = nlohmann::ordered_json::array();
+  for (std::size_t p = 0; p < pb.points.size(); ++p) pts.push_back(point_json(e, p));
+  j["points"] = pts;
+  j["caution"] = kScreeningCaution;
+  out << j.dump(2) << "\n";
+}
+
+// The lines above the table: the model, where the settings came from, formation, wells, boundaries.
+void print_setting(std::ostream& out, const Evaluated& e, const std::string& source_note) {
+  const Problem& pb = e.pb;
   out << "Pore-pressure change dp (Theis line source, superposition in time and space)\n";
   if (!source_note.empty()) out << source_note << "\n";
   out << "Formation: " << pb.formation_text << "\n";
   out << "  diffusivity D = " << sig(pb.params.diffusivity) << " m2/s\n";
   for (std::size_t w = 0; w < pb.wells.size(); ++w) {
-    out << "Well " << pb.wells[w].name << " at (" << sig(L(pb.wells[w].x)) << " " << o.length_unit
-        << ", " << sig(L(pb.wells[w].y)) << " " << o.length_unit << "), r_w = "
+    out << "Well " << pb.wells[w].name << " at (" << sig(e.L(pb.wells[w].x)) << " " << e.length_unit
+        << ", " << sig(e.L(pb.wells[w].y)) << " " << e.length_unit << "), r_w = "
         << pb.wells[w].well_radius << " m: ";
     for (std::size_t k = 0; k < pb.schedule_text[w].size(); ++k)
       out << (k ? "; " : "") << pb.schedule_text[w][k];
@@ -388,18 +433,21 @@ int run_pressure(PressureOptions o, Context& ctx) {
   }
   for (const auto& b : pb.boundary_text) out << "Boundary " << b << " (method of images)\n";
   out << "\n";
-  std::vector<std::string> header = {"x [" + o.length_unit + "]", "y [" + o.length_unit + "]",
-                                     "r to " + pb.wells[0].name + " [" + o.length_unit + "]"};
-  for (const auto& t : pb.time_labels) header.push_back("dp at " + t + " [" + o.unit + "]");
+}
+
+// One row per point, one column per time, right-aligned; a '*' marks a distance clamped to r_w.
+void print_table(std::ostream& out, const Evaluated& e) {
+  const Problem& pb = e.pb;
+  const std::string& lu = e.length_unit;
+  std::vector<std::string> header = {"x [" + lu + "]", "y [" + lu + "]", "r to " + pb.wells[0].name + " [" + lu + "]"};
+  for (const auto& t : pb.time_labels) header.push_back("dp at " + t + " [" + e.pressure_unit + "]");
   std::vector<std::vector<std::string>> rows;
   for (std::size_t p = 0; p < pb.points.size(); ++p) {
-    std::vector<std::string> row = {
-        sig(L(pb.points[p].x)), sig(L(pb.points[p].y)),
-        sig(L(std::hypot(pb.points[p].x - pb.wells[0].x, pb.points[p].y - pb.wells[0].y)))};
+    std::vector<std::string> row = {sig(e.L(pb.points[p].x)), sig(e.L(pb.points[p].y)), sig(e.L(e.r_first(p)))};
     bool clamped = false;
-    for (std::size_t w = 0; w < pb.wells.size(); ++w) clamped = clamped || prepared.was_clamped(p, w);
+    for (std::size_t w = 0; w < pb.wells.size(); ++w) clamped = clamped || e.prepared.was_clamped(p, w);
     if (clamped) row[2] += " *";
-    for (std::size_t t = 0; t < pb.times.size(); ++t) row.push_back(sig(P(res.at(p, t))));
+    for (std::size_t t = 0; t < pb.times.size(); ++t) row.push_back(sig(e.P(e.res.at(p, t))));
     rows.push_back(row);
   }
   std::vector<std::size_t> width(header.size());
@@ -407,25 +455,41 @@ int run_pressure(PressureOptions o, Context& ctx) {
     width[c] = header[c].size();
     for (const auto& r : rows) width[c] = std::max(width[c], r[c].size());
   }
-  for (std::size_t c = 0; c < header.size(); ++c)
-    out << (c ? "  " : "") << std::setw(static_cast<int>(width[c])) << header[c];
-  out << "\n";
+  rows.insert(rows.begin(), header);
   for (const auto& r : rows) {
     for (std::size_t c = 0; c < r.size(); ++c)
       out << (c ? "  " : "") << std::setw(static_cast<int>(width[c])) << r[c];
     out << "\n";
   }
-  if (prepared.any_clamped()) {
+}
+
+// After the table: which distances were clamped to the well radius, and the caution.
+void print_notes(std::ostream& out, const Evaluated& e) {
+  const Problem& pb = e.pb;
+  if (e.prepared.any_clamped()) {
     out << "\n* within the well radius of a well: r was clamped to r_w (the line source is "
            "singular inside the well)\n";
     for (std::size_t p = 0; p < pb.points.size(); ++p)
       for (std::size_t w = 0; w < pb.wells.size(); ++w)
-        if (prepared.was_clamped(p, w))
+        if (e.prepared.was_clamped(p, w))
           out << "  point " << p + 1 << ": r to " << pb.wells[w].name << " clamped to r_w = "
               << pb.wells[w].well_radius << " m\n";
   }
-  if (per_well) out << "\n(use --json for each well's contribution)\n";
+  if (e.per_well) out << "\n(use --json for each well's contribution)\n";
   out << "\n" << kScreeningCaution << "\n";
+}
+
+int run_pressure(PressureOptions o, Context& ctx) {
+  const std::string source_note = resolve_settings(o);
+  const Problem pb = build_problem(o);
+  const Evaluated e = evaluate(pb, o);
+  if (o.json) {
+    print_json(ctx.out, e);
+    return kExitOk;
+  }
+  print_setting(ctx.out, e, source_note);
+  print_table(ctx.out, e);
+  print_notes(ctx.out, e);
   return kExitOk;
 }
 

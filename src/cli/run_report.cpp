@@ -1,5 +1,6 @@
 #include "cli/run_report.hpp"
 
+#include <cstdint>
 #include <cstdio>
 #include <map>
 #include <ostream>
@@ -95,10 +96,8 @@ void print_review_against_model(std::ostream& out, const scenario::ResolvedScena
   }
 }
 
-}  // namespace
-
-int run_and_report(const RunCommandOptions& o, Context& ctx) {
-  const scenario::ResolvedScenario s = scenario::load_scenario(o.scenario);
+// The run's options; progress (stage and percentage, redrawn in place) only on a terminal.
+run::RunOptions run_options(const RunCommandOptions& o, Context& ctx) {
   run::RunOptions ro;
   ro.out = o.out;
   ro.force = o.force;
@@ -111,76 +110,91 @@ int run_and_report(const RunCommandOptions& o, Context& ctx) {
       else ctx.err << "\r\033[K" << stage << " " << static_cast<int>(f * 100 + 0.5) << "%" << std::flush;
     };
   }
-  const screening::RunSummary r = run::run_scenario(s, ro);
-  if (ctx.err_is_terminal) ctx.err << "\r\033[K" << std::flush;
+  return ro;
+}
 
-  ctx.out << "Deterministic screen of " << s.file << (s.title.empty() ? "" : " (" + s.title + ")") << "\n";
-  ctx.out << "  " << r.fault_count << " faults in " << r.segment_count << " segments, " << r.well_count << " wells, "
-          << s.output.dates.size() << " output times to " << r.last_date << "\n";
-  ctx.out << "  " << r.crossing_count << " segments reach their critical pressure increase by " << r.last_date << "; "
-          << r.already_critical_count << " already critically stressed before injection\n";
-  if (r.radius_clamped) ctx.out << "  note: some check points lie within a well radius; they are evaluated at the radius\n";
+// The deterministic screen: counts, then each fault's segment with the smallest margin
+// (at most `closest` faults).
+void print_deterministic(std::ostream& out, const scenario::ResolvedScenario& s, const screening::RunSummary& r,
+                         int closest) {
+  out << "Deterministic screen of " << s.file << (s.title.empty() ? "" : " (" + s.title + ")") << "\n";
+  out << "  " << r.fault_count << " faults in " << r.segment_count << " segments, " << r.well_count << " wells, "
+      << s.output.dates.size() << " output times to " << r.last_date << "\n";
+  out << "  " << r.crossing_count << " segments reach their critical pressure increase by " << r.last_date << "; "
+      << r.already_critical_count << " already critically stressed before injection\n";
+  if (r.radius_clamped) out << "  note: some check points lie within a well radius; they are evaluated at the radius\n";
 
-  // The faults closest to failure: each fault's segment with the smallest margin.
   std::set<std::string> listed;
-  ctx.out << "\nFaults closest to failure (margin = dp_crit - peak dp; negative: reached):\n";
-  ctx.out << "  " << pad("fault", 10) << pad("segment", 12) << pad("dp_crit MPa", 13) << pad("peak dp MPa", 13)
-          << pad("margin MPa", 12) << pad("first reached", 15) << "leading well (share)\n";
+  out << "\nFaults closest to failure (margin = dp_crit - peak dp; negative: reached):\n";
+  out << "  " << pad("fault", 10) << pad("segment", 12) << pad("dp_crit MPa", 13) << pad("peak dp MPa", 13)
+      << pad("margin MPa", 12) << pad("first reached", 15) << "leading well (share)\n";
   for (const auto& line : r.closest) {
-    if (static_cast<int>(listed.size()) >= o.closest) break;
+    if (static_cast<int>(listed.size()) >= closest) break;
     if (!listed.insert(line.fault_id).second) continue;
     const bool critical = line.status == geomech::CriticalStatus::already_critical;
     char share[32];
     std::snprintf(share, sizeof share, "%.0f%%", line.leading_share * 100);
-    ctx.out << "  " << pad(line.fault_id, 10) << pad(line.segment_id, 12) << pad(mpa(line.dp_crit), 13)
-            << pad(mpa(line.peak_dp), 13) << pad(mpa(line.dp_crit - line.peak_dp), 12)
-            << pad(critical ? "before injection" : line.first_crossing.value_or("-"), 15)
-            << (line.leading_well.empty() ? "-" : line.leading_well + " (" + share + ")") << "\n";
+    out << "  " << pad(line.fault_id, 10) << pad(line.segment_id, 12) << pad(mpa(line.dp_crit), 13)
+        << pad(mpa(line.peak_dp), 13) << pad(mpa(line.dp_crit - line.peak_dp), 12)
+        << pad(critical ? "before injection" : line.first_crossing.value_or("-"), 15)
+        << (line.leading_well.empty() ? "-" : line.leading_well + " (" + share + ")") << "\n";
   }
-  if (r.probabilistic) {
-    const auto& p = *r.probabilistic;
-    char line[256];
-    ctx.out << "\nProbabilistic screen: " << p.realizations << " realizations (" << p.sampler << ", seed " << s.seed
-            << ")";
-    if (p.rejected > 0) ctx.out << "; " << p.rejected << " rejected as unphysical stress";
-    ctx.out << "\n";
-    std::snprintf(line, sizeof line,
-                  "  Monte Carlo error: the widest %.0f%% interval is +/- %.3f; pressure surrogate error %.1e\n",
-                  p.confidence * 100, p.mc_half_width_max, p.surrogate_error);
-    ctx.out << line;
-    if (p.beyond_frictional_limit > 0)
-      ctx.out << "  " << p.beyond_frictional_limit
-              << " realizations have stress beyond the frictional limit (optimally oriented faults critical)\n";
-    if (p.already_critical_segments > 0)
-      ctx.out << "  " << p.already_critical_segments
-              << " segments are critically stressed before injection in some realizations (reported apart, "
-                 "not counted in P(slip))\n";
-    std::string ths;
-    for (double t : p.thresholds) {
-      std::snprintf(line, sizeof line, "%s%.3g", ths.empty() ? "" : ", ", t);
-      ths += line;
-    }
-    ctx.out << "  Segments whose injection-induced P(slip by " << r.last_date << ") reaches a threshold (" << ths
-            << "): " << p.flagged.size() << "\n";
-    if (!p.flagged.empty()) {
-      ctx.out << "  " << pad("fault", 10) << pad("segment", 12) << pad("P(slip)", 9) << pad("interval", 18)
-              << pad("threshold", 11) << "first reached\n";
-      int shown = 0;
-      for (const auto& f : p.flagged) {
-        if (shown++ >= o.closest) {
-          ctx.out << "  ... " << (p.flagged.size() - static_cast<std::size_t>(o.closest))
-                  << " more in segment_probability_summary.csv\n";
-          break;
-        }
-        char pr[32], ci[48], th[32];
-        std::snprintf(pr, sizeof pr, "%.3f", f.p_final);
-        std::snprintf(ci, sizeof ci, "[%.3f, %.3f]", f.ci_low, f.ci_high);
-        std::snprintf(th, sizeof th, "%.3g", f.threshold);
-        ctx.out << "  " << pad(f.fault_id, 10) << pad(f.segment_id, 12) << pad(pr, 9) << pad(ci, 18) << pad(th, 11)
-                << (f.first_date.empty() ? "-" : f.first_date) << "\n";
-      }
-    }
+}
+
+// The probabilistic screen: sample, Monte Carlo error, warnings, and the segments that reach a
+// probability threshold (at most `closest` rows).
+void print_probabilistic(std::ostream& out, const screening::ProbabilisticSummary& p, std::uint64_t seed,
+                         const std::string& last_date, int closest) {
+  char line[256];
+  out << "\nProbabilistic screen: " << p.realizations << " realizations (" << p.sampler << ", seed " << seed << ")";
+  if (p.rejected > 0) out << "; " << p.rejected << " rejected as unphysical stress";
+  out << "\n";
+  std::snprintf(line, sizeof line,
+                "  Monte Carlo error: the widest %.0f%% interval is +/- %.3f; pressure surrogate error %.1e\n",
+                p.confidence * 100, p.mc_half_width_max, p.surrogate_error);
+  out << line;
+  if (p.beyond_frictional_limit > 0)
+    out << "  " << p.beyond_frictional_limit
+        << " realizations have stress beyond the frictional limit (optimally oriented faults critical)\n";
+  if (p.already_critical_segments > 0)
+    out << "  " << p.already_critical_segments
+        << " segments are critically stressed before injection in some realizations (reported apart, "
+           "not counted in P(slip))\n";
+  std::string ths;
+  for (double t : p.thresholds) {
+    std::snprintf(line, sizeof line, "%s%.3g", ths.empty() ? "" : ", ", t);
+    ths += line;
   }
+  out << "  Segments whose injection-induced P(slip by " << last_date << ") reaches a threshold (" << ths
+      << "): " << p.flagged.size() << "\n";
+  if (p.flagged.empty()) return;
+  out << "  " << pad("fault", 10) << pad("segment", 12) << pad("P(slip)", 9) << pad("interval", 18) << pad("threshold", 11)
+      << "first reached\n";
+  int shown = 0;
+  for (const auto& f : p.flagged) {
+    if (shown++ >= closest) {
+      out << "  ... " << (p.flagged.size() - static_cast<std::size_t>(closest))
+          << " more in segment_probability_summary.csv\n";
+      break;
+    }
+    char pr[32], ci[48], th[32];
+    std::snprintf(pr, sizeof pr, "%.3f", f.p_final);
+    std::snprintf(ci, sizeof ci, "[%.3f, %.3f]", f.ci_low, f.ci_high);
+    std::snprintf(th, sizeof th, "%.3g", f.threshold);
+    out << "  " << pad(f.fault_id, 10) << pad(f.segment_id, 12) << pad(pr, 9) << pad(ci, 18) << pad(th, 11)
+        << (f.first_date.empty() ? "-" : f.first_date) << "\n";
+  }
+}
+
+}  // namespace
+
+int run_and_report(const RunCommandOptions& o, Context& ctx) {
+  const scenario::ResolvedScenario s = scenario::load_scenario(o.scenario);
+  const screening::RunSummary r = run::run_scenario(s, run_options(o, ctx));
+  if (ctx.err_is_terminal) ctx.err << "\r\033[K" << std::flush;
+
+  print_deterministic(ctx.out, s, r, o.closest);
+  if (r.probabilistic) print_probabilistic(ctx.out, *r.probabilistic, s.seed, r.last_date, o.closest);
   if (r.catalog) print_review_against_model(ctx.out, s, *r.catalog, o.closest);
   ctx.out << "\nOutputs in " << r.folder.generic_string() << "/:\n";
   for (const auto& f : r.files) ctx.out << "  " << f << "\n";
