@@ -1,5 +1,6 @@
 // The scenario's [catalog] table (docs/catalogs.md, "A catalog in a scenario run").
 #include <algorithm>
+#include <array>
 #include <cmath>
 
 #include "core/errors.hpp"
@@ -51,14 +52,8 @@ void require_positive(const formats::Section& s, std::string_view key, double v,
   if (!(v > 0 && std::isfinite(v))) s.fail(key, std::to_string(v) + " " + unit, "a value greater than zero");
 }
 
-}  // namespace
-
-CatalogSpec read_catalog_spec(const formats::Section& s, const std::vector<WellSpec>& wells) {
-  s.allow({"file", "format", "columns", "strict", "from", "to", "depth_min", "depth_max", "magnitude_types",
-           "well_buffer", "polygon", "bin_width", "mc_correction", "mc", "bootstrap", "bootstrap_confidence", "shear_modulus",
-           "forecast_magnitudes", "length_regression", "footprint_threshold", "rt_well", "diffusivities",
-           "rate_state"});
-  CatalogSpec c;
+// The catalog file and how to read it: file, format, columns, strict.
+void read_source(const formats::Section& s, CatalogSpec& c) {
   c.path = s.input_path("file");
   c.file = formats::display_name(c.path);
   c.where = s.where(*s.find("file"));
@@ -79,6 +74,36 @@ CatalogSpec read_catalog_spec(const formats::Section& s, const std::vector<WellS
     }
   }
   c.strict = s.boolean_or("strict", false);
+}
+
+// `polygon`: a ring of [x, y] vertices in the working CRS.
+std::vector<std::array<double, 2>> read_polygon(const formats::Section& s) {
+  std::vector<std::array<double, 2>> ring;
+  const auto f = s.find("polygon");
+  if (!f) return ring;
+  const toml::array* arr = f->node->as_array();
+  const std::string path = s.key_path(*f, "polygon");
+  const char* what = "a ring of at least 3 [x, y] vertices in the working CRS, e.g. [[0, 0], [1000, 0], [0, 1000]]";
+  if (!arr || arr->size() < 3) throw InputError(path, formats::toml_value_text(*f->node), what, s.where(*f));
+  for (std::size_t i = 0; i < arr->size(); ++i) {
+    const toml::array* xy = arr->get(i)->as_array();
+    std::array<double, 2> v{};
+    bool ok = xy && xy->size() == 2;
+    for (std::size_t k = 0; ok && k < 2; ++k) {
+      const std::optional<double> x = formats::toml_number(*xy->get(k));
+      ok = x && std::isfinite(*x);
+      if (ok) v[k] = *x;
+    }
+    if (!ok)
+      throw InputError(path + "[" + std::to_string(i) + "]", formats::toml_value_text(*arr->get(i)), "[x, y] in metres",
+                       formats::toml_where(f->layer->file, arr->get(i)->source()));
+    ring.push_back(v);
+  }
+  return ring;
+}
+
+// Which events count: time window, depth range, magnitude types, well buffer, polygon.
+void read_filters(const formats::Section& s, CatalogSpec& c) {
   c.from = optional_time(s, "from");
   c.to = optional_time(s, "to");
   if (c.from && c.to && !(*c.to > *c.from)) s.fail("to", s.string("to"), "a time after 'from'");
@@ -90,28 +115,11 @@ CatalogSpec read_catalog_spec(const formats::Section& s, const std::vector<WellS
     for (const auto& [v, w] : s.string_list("magnitude_types")) c.magnitude_types.push_back(v);
   c.well_buffer = s.optional_quantity("well_buffer", Dimension::length);
   if (c.well_buffer) require_positive(s, "well_buffer", *c.well_buffer, "m");
+  c.polygon = read_polygon(s);
+}
 
-  if (const auto f = s.find("polygon")) {
-    const toml::array* arr = f->node->as_array();
-    const std::string path = s.key_path(*f, "polygon");
-    const char* what = "a ring of at least 3 [x, y] vertices in the working CRS, e.g. [[0, 0], [1000, 0], [0, 1000]]";
-    if (!arr || arr->size() < 3) throw InputError(path, formats::toml_value_text(*f->node), what, s.where(*f));
-    for (std::size_t i = 0; i < arr->size(); ++i) {
-      const toml::array* xy = arr->get(i)->as_array();
-      std::array<double, 2> v{};
-      bool ok = xy && xy->size() == 2;
-      for (std::size_t k = 0; ok && k < 2; ++k) {
-        const std::optional<double> x = formats::toml_number(*xy->get(k));
-        ok = x && std::isfinite(*x);
-        if (ok) v[k] = *x;
-      }
-      if (!ok)
-        throw InputError(path + "[" + std::to_string(i) + "]", formats::toml_value_text(*arr->get(i)), "[x, y] in metres",
-                         formats::toml_where(f->layer->file, arr->get(i)->source()));
-      c.polygon.push_back(v);
-    }
-  }
-
+// Magnitude statistics: binning, Mc, bootstrap, seismic moment, forecasts, rupture length.
+void read_statistics(const formats::Section& s, CatalogSpec& c) {
   c.bin_width = s.quantity_or("bin_width", Dimension::dimensionless, 0.1);
   if (!(c.bin_width > 0 && c.bin_width <= 1)) s.fail("bin_width", std::to_string(c.bin_width), "a bin width in (0, 1]");
   c.mc_correction = s.quantity_or("mc_correction", Dimension::dimensionless, 0.0);
@@ -132,7 +140,10 @@ CatalogSpec read_catalog_spec(const formats::Section& s, const std::vector<WellS
   c.length_regression = s.optional_string("length_regression").value_or("surface");
   if (c.length_regression != "surface" && c.length_regression != "subsurface")
     s.fail("length_regression", c.length_regression, "'surface' or 'subsurface'");
+}
 
+// The models compared with the catalog: pressure footprint, r-t view, rate-and-state.
+void read_models(const formats::Section& s, const std::vector<WellSpec>& wells, CatalogSpec& c) {
   c.footprint_threshold = s.quantity_or("footprint_threshold", Dimension::pressure, 0.1e6);
   require_positive(s, "footprint_threshold", c.footprint_threshold, "Pa");
   c.rt_well = s.optional_string("rt_well").value_or("");
@@ -162,6 +173,20 @@ CatalogSpec read_catalog_spec(const formats::Section& s, const std::vector<WellS
     c.aftershock_duration = rs.quantity("aftershock_duration", Dimension::time);
     require_positive(rs, "aftershock_duration", c.aftershock_duration, "s");
   }
+}
+
+}  // namespace
+
+CatalogSpec read_catalog_spec(const formats::Section& s, const std::vector<WellSpec>& wells) {
+  s.allow({"file", "format", "columns", "strict", "from", "to", "depth_min", "depth_max", "magnitude_types",
+           "well_buffer", "polygon", "bin_width", "mc_correction", "mc", "bootstrap", "bootstrap_confidence", "shear_modulus",
+           "forecast_magnitudes", "length_regression", "footprint_threshold", "rt_well", "diffusivities",
+           "rate_state"});
+  CatalogSpec c;
+  read_source(s, c);
+  read_filters(s, c);
+  read_statistics(s, c);
+  read_models(s, wells, c);
   return c;
 }
 

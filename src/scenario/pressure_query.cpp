@@ -17,6 +17,9 @@ using units::Dimension;
 
 namespace {
 
+// [[well]], [[boundary]] and a well's schedule: an entry that is not a table is named as such.
+constexpr auto each_entry = formats::Section::TableArrayCheck::each_entry;
+
 std::string indexed(const std::string& path, std::size_t i) { return path + "[" + std::to_string(i) + "]"; }
 
 // A bare TOML number as the command shows it (17 significant digits, as it always has).
@@ -76,27 +79,6 @@ std::vector<std::string> text_list(const formats::Section& s, std::string_view k
   return out;
 }
 
-// The entries of an array of tables ([[key]], or key = [{ ... }, ...]), each a Section with the
-// key path "key[i]". Anything else under the key, or an entry that is not a table, is an error
-// saying what was expected (`form`).
-std::vector<formats::Section> table_entries(const formats::Section& s, std::string_view key, const std::string& form) {
-  std::vector<formats::Section> out;
-  const auto f = s.find(key);
-  if (!f) return out;
-  const toml::array* arr = f->node->as_array();
-  const std::string path = s.key_path(*f, key);
-  if (!arr)  // a table ([well] for [[well]]) shows as its header, as written
-    s.fail(key, f->node->is_table() ? "[" + path + "]" : formats::toml_value_text(*f->node), form);
-  for (std::size_t i = 0; i < arr->size(); ++i) {
-    const toml::node& n = *arr->get(i);
-    if (!n.is_table())
-      throw InputError(indexed(path, i), formats::toml_value_text(n), form,
-                       formats::toml_where(f->layer->file, n.source()));
-    out.emplace_back(std::vector<formats::Section::Layer>{{n.as_table(), f->layer->file, indexed(path, i), f->layer->dir}});
-  }
-  return out;
-}
-
 // An output unit: a known unit of dimension `d`, with "did you mean" for a typo.
 std::string unit_name(const formats::Section& s, std::string_view key, Dimension d) {
   const auto f = s.find(key);
@@ -133,7 +115,7 @@ PressureWell read_well(const formats::Section& s, const std::vector<PressureWell
   w.y = optional_quantity(s, "y", Dimension::length, w.y);
   w.radius = optional_quantity(s, "radius", Dimension::length);
   for (const formats::Section& step :
-       table_entries(s, "schedule", "a list of rate steps, e.g. [{ from = \"0 d\", rate = \"15000 bbl/d\" }]")) {
+       s.table_array("schedule", "a list of rate steps, e.g. [{ from = \"0 d\", rate = \"15000 bbl/d\" }]", each_entry)) {
     step.allow({"from", "rate"});
     PressureRateStep r;
     r.rate = required_quantity(step, "rate", Dimension::volume_rate);
@@ -190,9 +172,11 @@ PressureQuery read_pressure_query(const std::filesystem::path& path) {
   top.allow({"formation", "well", "boundary", "output"});
   PressureQuery q;
   read_formation(top.child("formation"), q);
-  for (const formats::Section& w : table_entries(top, "well", "a well table [[well]] with name, x, y, radius, schedule"))
+  for (const formats::Section& w :
+       top.table_array("well", "a well table [[well]] with name, x, y, radius, schedule", each_entry))
     q.wells.push_back(read_well(w, q.wells));
-  for (const formats::Section& b : table_entries(top, "boundary", "a boundary table [[boundary]] with kind, x, y, azimuth"))
+  for (const formats::Section& b :
+       top.table_array("boundary", "a boundary table [[boundary]] with kind, x, y, azimuth", each_entry))
     q.boundaries.push_back(read_boundary(b));
   read_output(top.child("output"), q);
   return q;

@@ -21,17 +21,8 @@ void require_range(const formats::Section& s, std::string_view key, double v, do
   if (!(v >= lo && v <= hi)) s.fail(key, std::to_string(v), what);
 }
 
-StressSpec read_stress(const formats::Section& s, double fault_friction) {
-  s.allow({"model", "vertical_gradient", "overburden_density", "density_layers", "shmax_azimuth", "shmax_gradient",
-           "shmin_gradient", "poisson_ratio", "biot", "young_modulus", "strain_shmin", "strain_shmax",
-           "tectonic_shmin", "tectonic_shmax", "a_phi", "equilibrium_friction"});
-  StressSpec st;
-  const std::string model = s.string("model");
-  if (model == "gradients") st.model = StressModel::gradients;
-  else if (model == "uniaxial_strain") st.model = StressModel::uniaxial_strain;
-  else if (model == "a_phi") st.model = StressModel::a_phi;
-  else s.fail("model", model, "one of 'gradients', 'uniaxial_strain', 'a_phi'");
-
+// The vertical stress: exactly one of a gradient, an overburden density or density layers.
+void read_vertical_stress(const formats::Section& s, StressSpec& st) {
   const int sv_forms = int(s.has("vertical_gradient")) + int(s.has("overburden_density")) + int(s.has("density_layers"));
   if (sv_forms != 1)
     s.fail(s.has("overburden_density") ? "overburden_density" : "vertical_gradient", sv_forms ? "(several)" : "(missing)",
@@ -39,27 +30,27 @@ StressSpec read_stress(const formats::Section& s, double fault_friction) {
   if (s.has("overburden_density")) {
     st.vertical_gradient = s.quantity("overburden_density", Dimension::density) * units::kStandardGravity;
     require_positive(s, "overburden_density", st.vertical_gradient);
-  } else if (s.has("vertical_gradient")) {
+    return;
+  }
+  if (s.has("vertical_gradient")) {
     st.vertical_gradient = s.quantity("vertical_gradient", Dimension::pressure_gradient);
     require_positive(s, "vertical_gradient", st.vertical_gradient);
-  } else {
-    const auto f = *s.find("density_layers");
-    const toml::array* arr = f.node->as_array();
-    if (!arr || !arr->is_array_of_tables() || arr->empty())
-      s.fail("density_layers", formats::toml_value_text(*f.node), "an array of tables {top = \"0 m\", density = \"2300 kg/m3\"}");
-    for (std::size_t i = 0; i < arr->size(); ++i) {
-      const formats::Section ls({{arr->get(i)->as_table(), f.layer->file,
-                         s.key_path(f, "density_layers") + "[" + std::to_string(i) + "]", f.layer->dir}});
-      ls.allow({"top", "density"});
-      StressSpec::DensityLayer l{ls.quantity("top", Dimension::length), ls.quantity("density", Dimension::density)};
-      if (i == 0 && l.top != 0) ls.fail("top", std::to_string(l.top) + " m", "0 m for the first layer");
-      if (i > 0 && !(l.top > st.density_layers.back().top)) ls.fail("top", std::to_string(l.top) + " m", "a top below the previous layer's");
-      require_positive(ls, "density", l.density);
-      st.density_layers.push_back(l);
-    }
+    return;
   }
-  st.shmax_azimuth = s.quantity("shmax_azimuth", Dimension::angle);
+  const auto layers = s.table_array("density_layers", "an array of tables {top = \"0 m\", density = \"2300 kg/m3\"}");
+  for (std::size_t i = 0; i < layers.size(); ++i) {
+    const formats::Section& ls = layers[i];
+    ls.allow({"top", "density"});
+    StressSpec::DensityLayer l{ls.quantity("top", Dimension::length), ls.quantity("density", Dimension::density)};
+    if (i == 0 && l.top != 0) ls.fail("top", std::to_string(l.top) + " m", "0 m for the first layer");
+    if (i > 0 && !(l.top > st.density_layers.back().top)) ls.fail("top", std::to_string(l.top) + " m", "a top below the previous layer's");
+    require_positive(ls, "density", l.density);
+    st.density_layers.push_back(l);
+  }
+}
 
+// The horizontal stresses of `st.model`; keys of the other models are refused.
+void read_horizontal_stress(const formats::Section& s, const std::string& model, double fault_friction, StressSpec& st) {
   const auto forbid = [&](std::initializer_list<std::string_view> keys) {
     for (auto k : keys)
       if (s.has(k)) s.fail(k, "(set)", "no '" + std::string(k) + "' with model = '" + model + "'");
@@ -100,6 +91,21 @@ StressSpec read_stress(const formats::Section& s, double fault_friction) {
       require_positive(s, "equilibrium_friction", st.equilibrium_friction);
       break;
   }
+}
+
+StressSpec read_stress(const formats::Section& s, double fault_friction) {
+  s.allow({"model", "vertical_gradient", "overburden_density", "density_layers", "shmax_azimuth", "shmax_gradient",
+           "shmin_gradient", "poisson_ratio", "biot", "young_modulus", "strain_shmin", "strain_shmax",
+           "tectonic_shmin", "tectonic_shmax", "a_phi", "equilibrium_friction"});
+  StressSpec st;
+  const std::string model = s.string("model");
+  if (model == "gradients") st.model = StressModel::gradients;
+  else if (model == "uniaxial_strain") st.model = StressModel::uniaxial_strain;
+  else if (model == "a_phi") st.model = StressModel::a_phi;
+  else s.fail("model", model, "one of 'gradients', 'uniaxial_strain', 'a_phi'");
+  read_vertical_stress(s, st);
+  st.shmax_azimuth = s.quantity("shmax_azimuth", Dimension::angle);
+  read_horizontal_stress(s, model, fault_friction, st);
   return st;
 }
 
@@ -165,31 +171,24 @@ FormationSpec read_formation(const formats::Section& s) {
     require_positive(s, "total_compressibility", f.total_compressibility);
     require_positive(s, "viscosity", f.viscosity);
   }
-  if (auto b = s.find("boundary")) {
-    const toml::array* arr = b->node->as_array();
-    if (!arr || !arr->is_array_of_tables())
-      s.fail("boundary", formats::toml_value_text(*b->node), "an array of tables [[formation.boundary]]");
-    for (std::size_t i = 0; i < arr->size(); ++i) {
-      const formats::Section bs({{arr->get(i)->as_table(), b->layer->file,
-                         s.key_path(*b, "boundary") + "[" + std::to_string(i) + "]", b->layer->dir}});
-      bs.allow({"kind", "from", "to"});
-      BoundarySpec bd;
-      const std::string kind = bs.string("kind");
-      if (kind == "no_flow") bd.kind = BoundarySpec::Kind::no_flow;
-      else if (kind == "constant_pressure") bd.kind = BoundarySpec::Kind::constant_pressure;
-      else bs.fail("kind", kind, "'no_flow' or 'constant_pressure'");
-      for (auto key : {"from", "to"}) {
-        const auto p = bs.find(key);
-        const toml::array* xy = p ? p->node->as_array() : nullptr;
-        if (!xy || xy->size() != 2 || !xy->get(0)->is_number() || !xy->get(1)->is_number())
-          bs.fail(key, p ? formats::toml_value_text(*p->node) : "(missing)", "a point [x, y] in the working CRS");
-        const double x = xy->get(0)->value<double>().value(), y = xy->get(1)->value<double>().value();
-        if (std::string_view(key) == "from") bd.x1 = x, bd.y1 = y;
-        else bd.x2 = x, bd.y2 = y;
-      }
-      if (bd.x1 == bd.x2 && bd.y1 == bd.y2) bs.fail("to", "(same point as from)", "two distinct points");
-      f.boundaries.push_back(bd);
+  for (const formats::Section& bs : s.table_array("boundary", "an array of tables [[formation.boundary]]")) {
+    bs.allow({"kind", "from", "to"});
+    BoundarySpec bd;
+    const std::string kind = bs.string("kind");
+    if (kind == "no_flow") bd.kind = BoundarySpec::Kind::no_flow;
+    else if (kind == "constant_pressure") bd.kind = BoundarySpec::Kind::constant_pressure;
+    else bs.fail("kind", kind, "'no_flow' or 'constant_pressure'");
+    for (auto key : {"from", "to"}) {
+      const auto p = bs.find(key);
+      const toml::array* xy = p ? p->node->as_array() : nullptr;
+      if (!xy || xy->size() != 2 || !xy->get(0)->is_number() || !xy->get(1)->is_number())
+        bs.fail(key, p ? formats::toml_value_text(*p->node) : "(missing)", "a point [x, y] in the working CRS");
+      const double x = xy->get(0)->value<double>().value(), y = xy->get(1)->value<double>().value();
+      if (std::string_view(key) == "from") bd.x1 = x, bd.y1 = y;
+      else bd.x2 = x, bd.y2 = y;
     }
+    if (bd.x1 == bd.x2 && bd.y1 == bd.y2) bs.fail("to", "(same point as from)", "two distinct points");
+    f.boundaries.push_back(bd);
   }
   return f;
 }

@@ -184,10 +184,6 @@ WellSpec read_proposed(const formats::Section& s, const std::string& default_crs
   return w;
 }
 
-}  // namespace
-
-namespace {
-
 UncertaintyContext uncertainty_context(const ResolvedScenario& sc) {
   UncertaintyContext c;
   c.file = sc.file;
@@ -199,25 +195,8 @@ UncertaintyContext uncertainty_context(const ResolvedScenario& sc) {
   return c;
 }
 
-}  // namespace
-
-ResolvedScenario load_scenario(const fs::path& path) {
-  ResolvedScenario sc;
-  sc.path = path;
-  sc.file = formats::display_name(path);
-  const formats::TomlDocument doc = formats::parse_toml_file(path, sc.file);
-  sc.inputs.push_back(path);
-  const fs::path dir = path.parent_path();
-  const formats::Section top({{doc.root.get(), sc.file, "", dir}});
-  top.allow({"title", "seed", "region", "wells", "histories", "proposed_well", "output", "uncertainty",
-             "catalog"});
-  sc.title = top.optional_string("title").value_or("");
-  if (auto seed = top.optional_integer("seed")) {
-    if (*seed < 0) top.fail("seed", std::to_string(*seed), "a seed >= 0");
-    sc.seed = static_cast<std::uint64_t>(*seed);
-  }
-
-  // Region, with any overrides from [region.override].
+// [region]: the region file, with any overrides from [region.override].
+void read_region(const formats::Section& top, const fs::path& dir, ResolvedScenario& sc) {
   const formats::Section reg = top.child("region");
   reg.allow({"file", "override"});
   const fs::path region_path = reg.input_path("file");
@@ -225,8 +204,11 @@ ResolvedScenario load_scenario(const fs::path& path) {
   sc.region = load_region(region_path, formats::display_name(region_path), over.layers().front().table, sc.file,
                           "region.override", dir);
   sc.inputs.push_back(region_path);
+}
 
-  // Wells and histories.
+// [wells] and [histories]: the existing wells and their injection histories. Returns the wells' CRS
+// as written ("" when the file names its own).
+std::string read_existing_wells(const formats::Section& top, ResolvedScenario& sc) {
   const formats::Section wells = top.child("wells");
   wells.allow({"file", "crs"});
   const std::string wells_crs = wells.optional_string("crs").value_or("");
@@ -253,20 +235,40 @@ ResolvedScenario load_scenario(const fs::path& path) {
     if (!d) throw InputError(hist.key_path(*f, "continue_active_until"), text, "a date as YYYY-MM-DD", hist.where(*f));
     continue_active_wells(sc.wells, util::to_seconds(*d), hist.where(*f));
   }
+  return wells_crs;
+}
 
-  // Proposed wells with inline schedules.
-  if (auto f = top.find("proposed_well")) {
-    const toml::array* arr = f->node->as_array();
-    if (!arr || !arr->is_array_of_tables())
-      top.fail("proposed_well", formats::toml_value_text(*f->node), "an array of tables [[proposed_well]]");
-    for (std::size_t i = 0; i < arr->size(); ++i) {
-      const formats::Section ps({{arr->get(i)->as_table(), sc.file, "proposed_well[" + std::to_string(i) + "]", dir}});
-      WellSpec w = read_proposed(ps, wells_crs.empty() ? sc.region.crs : wells_crs);
-      for (const auto& other : sc.wells)
-        if (other.id == w.id) ps.fail("id", w.id, "a well id not used by another well (" + other.source + ")");
-      sc.wells.push_back(std::move(w));
-    }
+// [[proposed_well]]: proposed wells with inline schedules, in `crs` unless they name their own.
+void read_proposed_wells(const formats::Section& top, const std::string& crs, ResolvedScenario& sc) {
+  for (const formats::Section& ps : top.table_array("proposed_well", "an array of tables [[proposed_well]]")) {
+    WellSpec w = read_proposed(ps, crs);
+    for (const auto& other : sc.wells)
+      if (other.id == w.id) ps.fail("id", w.id, "a well id not used by another well (" + other.source + ")");
+    sc.wells.push_back(std::move(w));
   }
+}
+
+}  // namespace
+
+ResolvedScenario load_scenario(const fs::path& path) {
+  ResolvedScenario sc;
+  sc.path = path;
+  sc.file = formats::display_name(path);
+  const formats::TomlDocument doc = formats::parse_toml_file(path, sc.file);
+  sc.inputs.push_back(path);
+  const fs::path dir = path.parent_path();
+  const formats::Section top({{doc.root.get(), sc.file, "", dir}});
+  top.allow({"title", "seed", "region", "wells", "histories", "proposed_well", "output", "uncertainty",
+             "catalog"});
+  sc.title = top.optional_string("title").value_or("");
+  if (auto seed = top.optional_integer("seed")) {
+    if (*seed < 0) top.fail("seed", std::to_string(*seed), "a seed >= 0");
+    sc.seed = static_cast<std::uint64_t>(*seed);
+  }
+
+  read_region(top, dir, sc);
+  const std::string wells_crs = read_existing_wells(top, sc);
+  read_proposed_wells(top, wells_crs.empty() ? sc.region.crs : wells_crs, sc);
   if (sc.wells.empty())
     throw Error(ErrorCategory::input, sc.file + ": no wells: expected a [wells] file or a [[proposed_well]]");
 
@@ -288,43 +290,43 @@ ResolvedScenario load_scenario(const fs::path& path) {
 
 namespace {
 
-nlohmann::json num(double v) { return std::isnan(v) ? nlohmann::json(nullptr) : nlohmann::json(v); }
+using nlohmann::json;
 
-}  // namespace
+json num(double v) { return std::isnan(v) ? json(nullptr) : json(v); }
 
-nlohmann::json to_json(const ResolvedScenario& s) {
-  using nlohmann::json;
-  const auto& r = s.region;
-  json stress = {{"vertical_gradient_Pa_per_m", num(r.stress.vertical_gradient)},
-                 {"shmax_azimuth_rad", num(r.stress.shmax_azimuth)}};
-  if (!r.stress.density_layers.empty()) {
+json stress_json(const StressSpec& st) {
+  json stress = {{"vertical_gradient_Pa_per_m", num(st.vertical_gradient)}, {"shmax_azimuth_rad", num(st.shmax_azimuth)}};
+  if (!st.density_layers.empty()) {
     json layers = json::array();
-    for (const auto& l : r.stress.density_layers) layers.push_back({{"top_m", l.top}, {"density_kg_per_m3", l.density}});
+    for (const auto& l : st.density_layers) layers.push_back({{"top_m", l.top}, {"density_kg_per_m3", l.density}});
     stress["density_layers"] = layers;
   }
-  switch (r.stress.model) {
+  switch (st.model) {
     case StressModel::gradients:
       stress["model"] = "gradients";
-      stress["shmax_gradient_Pa_per_m"] = num(r.stress.shmax_gradient);
-      stress["shmin_gradient_Pa_per_m"] = num(r.stress.shmin_gradient);
+      stress["shmax_gradient_Pa_per_m"] = num(st.shmax_gradient);
+      stress["shmin_gradient_Pa_per_m"] = num(st.shmin_gradient);
       break;
     case StressModel::uniaxial_strain:
       stress["model"] = "uniaxial_strain";
-      stress["poisson_ratio"] = num(r.stress.poisson_ratio);
-      stress["biot"] = num(r.stress.biot);
-      stress["young_modulus_Pa"] = num(r.stress.young_modulus);
-      stress["strain_shmin"] = num(r.stress.strain_shmin);
-      stress["strain_shmax"] = num(r.stress.strain_shmax);
-      stress["tectonic_shmin_Pa"] = num(r.stress.tectonic_shmin);
-      stress["tectonic_shmax_Pa"] = num(r.stress.tectonic_shmax);
+      stress["poisson_ratio"] = num(st.poisson_ratio);
+      stress["biot"] = num(st.biot);
+      stress["young_modulus_Pa"] = num(st.young_modulus);
+      stress["strain_shmin"] = num(st.strain_shmin);
+      stress["strain_shmax"] = num(st.strain_shmax);
+      stress["tectonic_shmin_Pa"] = num(st.tectonic_shmin);
+      stress["tectonic_shmax_Pa"] = num(st.tectonic_shmax);
       break;
     case StressModel::a_phi:
       stress["model"] = "a_phi";
-      stress["a_phi"] = num(r.stress.a_phi);
-      stress["equilibrium_friction"] = num(r.stress.equilibrium_friction);
+      stress["a_phi"] = num(st.a_phi);
+      stress["equilibrium_friction"] = num(st.equilibrium_friction);
       break;
   }
-  const auto& fm = r.formation;
+  return stress;
+}
+
+json formation_json(const FormationSpec& fm) {
   const hydro::TheisParameters theis = theis_parameters_of(fm);
   json formation = {{"name", fm.name},
                     {"diffusivity_m2_per_s", num(theis.diffusivity)},
@@ -345,19 +347,25 @@ nlohmann::json to_json(const ResolvedScenario& s) {
     bounds.push_back({{"kind", b.kind == BoundarySpec::Kind::no_flow ? "no_flow" : "constant_pressure"},
                       {"from", {b.x1, b.y1}}, {"to", {b.x2, b.y2}}});
   formation["boundaries"] = bounds;
-  const auto& f = r.faults;
-  json faults = {{"file", f.file.empty() ? formats::display_name(f.path) : f.file},
-                 {"layer", f.layer},
-                 {"crs", f.crs},
-                 {"attributes", {{"id", f.id_attribute}, {"dip", f.dip_attribute},
-                                 {"dip_direction", f.dip_direction_attribute}, {"dips_to", f.dips_to_attribute},
-                                 {"friction", f.friction_attribute}, {"default_dip_rad", num(f.default_dip)}}},
-                 {"friction", f.friction},
-                 {"cohesion_Pa", f.cohesion},
-                 {"segment_length_m", f.segment_length},
-                 {"check_points", f.check_points}};
+  return formation;
+}
+
+json faults_json(const FaultMapSpec& f) {
+  return {{"file", f.file.empty() ? formats::display_name(f.path) : f.file},
+          {"layer", f.layer},
+          {"crs", f.crs},
+          {"attributes", {{"id", f.id_attribute}, {"dip", f.dip_attribute},
+                          {"dip_direction", f.dip_direction_attribute}, {"dips_to", f.dips_to_attribute},
+                          {"friction", f.friction_attribute}, {"default_dip_rad", num(f.default_dip)}}},
+          {"friction", f.friction},
+          {"cohesion_Pa", f.cohesion},
+          {"segment_length_m", f.segment_length},
+          {"check_points", f.check_points}};
+}
+
+json wells_json(const std::vector<WellSpec>& all) {
   json wells = json::array();
-  for (const auto& w : s.wells) {
+  for (const auto& w : all) {
     json periods = json::array();
     for (const auto& p : w.periods)
       periods.push_back({{"start", util::format_iso_date(util::date_at(p.start))},
@@ -367,30 +375,42 @@ nlohmann::json to_json(const ResolvedScenario& s) {
                      {"radius_m", w.radius}, {"status", status_name(w.status)}, {"proposed", w.proposed},
                      {"periods", periods}});
   }
+  return wells;
+}
+
+// `region_crs` is the grid's CRS when the grid names none.
+json output_json(const OutputSpec& o, const std::string& region_crs) {
   json dates = json::array();
-  for (const auto& d : s.output.dates) dates.push_back(util::format_iso_date(d));
-  const auto& g = s.output.grid;
-  json grid = {{"cell_size_m", g.cell_size}, {"crs", g.crs.empty() ? r.crs : g.crs}};
+  for (const auto& d : o.dates) dates.push_back(util::format_iso_date(d));
+  const auto& g = o.grid;
+  json grid = {{"cell_size_m", g.cell_size}, {"crs", g.crs.empty() ? region_crs : g.crs}};
   if (g.automatic_extent) {
     grid["extent"] = "auto";
     grid["margin_m"] = g.margin;
   } else {
     grid["extent"] = {g.xmin, g.ymin, g.xmax, g.ymax};
   }
-  json out = {{"folder", s.output.folder}, {"tables", s.output.tables}, {"rasters", s.output.rasters},
-              {"geopackage", s.output.geopackage}, {"cog", s.output.cog}, {"dates", dates}, {"grid", grid},
-              {"files", {{"segment_times", s.output.files.segment_times}, {"segments", s.output.files.segments},
-                         {"pressure_raster", s.output.files.pressure_raster},
-                         {"geopackage", s.output.files.geopackage}}}};
+  return {{"folder", o.folder}, {"tables", o.tables}, {"rasters", o.rasters},
+          {"geopackage", o.geopackage}, {"cog", o.cog}, {"dates", dates}, {"grid", grid},
+          {"files", {{"segment_times", o.files.segment_times}, {"segments", o.files.segments},
+                     {"pressure_raster", o.files.pressure_raster},
+                     {"geopackage", o.files.geopackage}}}};
+}
+
+}  // namespace
+
+nlohmann::json to_json(const ResolvedScenario& s) {
+  const auto& r = s.region;
   return {{"scenario", s.file},
           {"title", s.title},
           {"seed", s.seed},
           {"region", {{"name", r.name}, {"file", r.file}, {"crs", r.crs},
                       {"reference_depth_m", r.reference_depth},
                       {"pore_pressure_gradient_Pa_per_m", r.pore_pressure_gradient},
-                      {"stress", stress}, {"faults", faults}, {"formation", formation}}},
-          {"wells", wells},
-          {"output", out},
+                      {"stress", stress_json(r.stress)}, {"faults", faults_json(r.faults)},
+                      {"formation", formation_json(r.formation)}}},
+          {"wells", wells_json(s.wells)},
+          {"output", output_json(s.output, s.region.crs)},
           {"uncertainty_given", s.uncertainty.given}};
 }
 

@@ -106,20 +106,17 @@ geometry::RasterGrid output_grid(const scenario::ResolvedScenario& s, const Prep
   return geometry::grid_from_extent(xmin, ymin, xmax, ymax, g.cell_size);
 }
 
-}  // namespace
+formats::Crs working_crs_of(const scenario::RegionSpec& r) {
+  try {
+    return formats::working_crs(r.crs, "crs");
+  } catch (const InputError& e) {
+    throw e.located(r.file);
+  }
+}
 
-PreparedRun prepare_run(const scenario::ResolvedScenario& s, bool allow_network) {
-  const scenario::RegionSpec& r = s.region;
-  formats::Crs working = [&] {
-    try {
-      return formats::working_crs(r.crs, "crs");
-    } catch (const InputError& e) {
-      throw e.located(r.file);
-    }
-  }();
-  PreparedRun run{working, {}, {}, {}, {}, 0.0, {}, 0, {}};
-
-  // Wells into the working CRS (one transformer per distinct CRS).
+// Wells into the working CRS (one transformer per distinct CRS).
+std::vector<scenario::WellSpec> wells_in(const formats::Crs& working, const scenario::ResolvedScenario& s) {
+  std::vector<scenario::WellSpec> out;
   std::map<std::string, formats::Transformer> transformers;
   for (scenario::WellSpec w : s.wells) {
     try {
@@ -129,14 +126,18 @@ PreparedRun prepare_run(const scenario::ResolvedScenario& s, bool allow_network)
       const geometry::Point2 p = it->second({w.x, w.y}, "well location");
       w.x = p.x;
       w.y = p.y;
-      w.crs = r.crs;
+      w.crs = s.region.crs;
     } catch (const InputError& e) {
       throw e.located(w.source + " (well '" + w.id + "')");
     }
-    run.wells.push_back(std::move(w));
+    out.push_back(std::move(w));
   }
+  return out;
+}
 
-  // Faults: read, reproject, segment.
+// Faults: read, reproject, segment; the fault count, and the meridian convergence at their centre.
+void read_faults(const scenario::ResolvedScenario& s, bool allow_network, PreparedRun& run) {
+  const scenario::RegionSpec& r = s.region;
   formats::FaultFileOptions fo;
   fo.attributes.id = r.faults.id_attribute;
   fo.attributes.dip = r.faults.dip_attribute;
@@ -150,9 +151,9 @@ PreparedRun prepare_run(const scenario::ResolvedScenario& s, bool allow_network)
   fo.check_points = r.faults.check_points;
   fo.allow_network = allow_network;
   run.segments = formats::is_fault_table(r.faults.path)
-                     ? formats::read_fault_table(r.faults.path, formats::display_name(r.faults.path), working, r.faults.crs,
-                                        r.faults.segment_length, r.faults.check_points)
-                     : formats::read_fault_segments(r.faults.path, working, fo);
+                     ? formats::read_fault_table(r.faults.path, formats::display_name(r.faults.path), run.working,
+                                                 r.faults.crs, r.faults.segment_length, r.faults.check_points)
+                     : formats::read_fault_segments(r.faults.path, run.working, fo);
   if (run.segments.empty())
     throw InputError("faults", formats::display_name(r.faults.path), "a fault map with at least one fault", r.file);
   std::set<std::string> ids;
@@ -166,9 +167,14 @@ PreparedRun prepare_run(const scenario::ResolvedScenario& s, bool allow_network)
   for (const auto& seg : run.segments) cx += seg.trace.centre.x, cy += seg.trace.centre.y;
   cx /= double(run.segments.size());
   cy /= double(run.segments.size());
-  run.convergence_rad = formats::grid_convergence_rad(working, {cx, cy});
+  run.convergence_rad = formats::grid_convergence_rad(run.working, {cx, cy});
+}
 
-  screen::ScreenInputs& in = run.inputs;
+// The screen's inputs: stress, friction, formation and boundaries, wells with their rate
+// histories, segments with true-north strikes, output and tracking times.
+screen::ScreenInputs screen_inputs(const scenario::ResolvedScenario& s, const PreparedRun& run) {
+  const scenario::RegionSpec& r = s.region;
+  screen::ScreenInputs in{};
   in.stress = stress_at_reference_depth(r);
   in.friction = {r.faults.friction, r.faults.cohesion};
   in.formation = [&] {
@@ -194,29 +200,43 @@ PreparedRun prepare_run(const scenario::ResolvedScenario& s, bool allow_network)
     in.wells.push_back(std::move(sw));
   }
   for (const auto& seg : run.segments) {
-    const double conv = formats::grid_convergence_rad(working, seg.trace.centre);
+    const double conv = formats::grid_convergence_rad(run.working, seg.trace.centre);
     in.segments.push_back({seg.segment_id, seg.strike_rad - conv, seg.dip_rad, seg.trace.check_points, seg.friction});
   }
   in.output_times = s.output.times;
   in.tracking_times = screen::tracking_grid(changes, in.output_times);
+  return in;
+}
 
-  if (s.output.rasters) run.grid = output_grid(s, run);
-
+// The manifest's inputs, and the [catalog] read now, so that a bad column mapping stops the run
+// before any computing.
+void add_manifest_inputs_and_catalog(const scenario::ResolvedScenario& s, PreparedRun& run) {
+  const scenario::RegionSpec& r = s.region;
   run.manifest_inputs.push_back({"scenario", s.path, s.file});
   run.manifest_inputs.push_back({"region", r.path, r.file});
   if (!s.wells_file.empty()) run.manifest_inputs.push_back({"wells", s.wells_path, s.wells_file});
   if (!s.histories_file.empty()) run.manifest_inputs.push_back({"histories", s.histories_path, s.histories_file});
   run.manifest_inputs.push_back({"fault map", r.faults.path, formats::display_name(r.faults.path)});
-  if (s.catalog) run.manifest_inputs.push_back({"catalog", s.catalog->path, s.catalog->file});
-  if (s.catalog) {  // read now, so that a bad column mapping stops the run before any computing
-    const scenario::CatalogSpec& c = *s.catalog;
-    try {
-      run.catalog = formats::read_catalog(c.path.string(), c.format_kind, c.column_map, c.strict);
-    } catch (const InputError& e) {
-      throw e.located(c.where);  // the scenario's [catalog] key, then the catalog file's own line
-    }
-    run.catalog->path = c.file;
+  if (!s.catalog) return;
+  const scenario::CatalogSpec& c = *s.catalog;
+  run.manifest_inputs.push_back({"catalog", c.path, c.file});
+  try {
+    run.catalog = formats::read_catalog(c.path.string(), c.format_kind, c.column_map, c.strict);
+  } catch (const InputError& e) {
+    throw e.located(c.where);  // the scenario's [catalog] key, then the catalog file's own line
   }
+  run.catalog->path = c.file;
+}
+
+}  // namespace
+
+PreparedRun prepare_run(const scenario::ResolvedScenario& s, bool allow_network) {
+  PreparedRun run{working_crs_of(s.region), {}, {}, {}, {}, 0.0, {}, 0, std::nullopt};
+  run.wells = wells_in(run.working, s);
+  read_faults(s, allow_network, run);
+  run.inputs = screen_inputs(s, run);
+  if (s.output.rasters) run.grid = output_grid(s, run);
+  add_manifest_inputs_and_catalog(s, run);
   return run;
 }
 

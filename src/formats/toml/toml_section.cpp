@@ -203,6 +203,25 @@ std::vector<std::pair<std::string, std::string>> Section::string_list(std::strin
   return out;
 }
 
+std::vector<Section> Section::table_array(std::string_view key, const std::string& expected,
+                                          TableArrayCheck check) const {
+  std::vector<Section> out;
+  const auto f = find(key);
+  if (!f) return out;
+  const toml::array* arr = f->node->as_array();
+  const std::string path = key_path(*f, key);
+  if (check == TableArrayCheck::whole && (!arr || !arr->is_array_of_tables()))
+    fail(key, toml_value_text(*f->node), expected);
+  if (!arr) fail(key, f->node->is_table() ? "[" + path + "]" : toml_value_text(*f->node), expected);
+  for (std::size_t i = 0; i < arr->size(); ++i) {
+    const toml::node& n = *arr->get(i);
+    const std::string entry = path + "[" + std::to_string(i) + "]";
+    if (!n.is_table()) throw InputError(entry, toml_value_text(n), expected, toml_where(f->layer->file, n.source()));
+    out.emplace_back(std::vector<Layer>{{n.as_table(), f->layer->file, entry, f->layer->dir}});
+  }
+  return out;
+}
+
 std::filesystem::path Section::path(std::string_view key) const {
   const std::string rel = string(key);
   const Found f = *find(key);

@@ -78,6 +78,16 @@ class Section {
   // The same, for an input file that must exist: IoError naming the key, its place and the path.
   std::filesystem::path input_path(std::string_view key) const;
 
+  // The entries of an array of tables ([[key]], or key = [{ ... }, ...]), each a Section with the
+  // key path "key[i]" in the layer that sets the key; none when no layer has the key. What else is
+  // refused, with `expected` at the key (InputError, located):
+  //   whole:      anything but a non-empty array of tables, the value as written;
+  //   each_entry: a value that is not an array (a table shown as its header "[key]"), and an entry
+  //               that is not a table, at that entry; an empty array has no entries.
+  enum class TableArrayCheck { whole, each_entry };
+  std::vector<Section> table_array(std::string_view key, const std::string& expected,
+                                   TableArrayCheck check = TableArrayCheck::whole) const;
+
   // "file line L, column C" of a found value, and its full key path.
   std::string where(const Found& f) const;
   std::string key_path(const Found& f, std::string_view key) const;
