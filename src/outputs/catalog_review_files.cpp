@@ -107,12 +107,9 @@ namespace {
 
 std::string yes_no(bool b) { return b ? "yes" : "no"; }
 
-}  // namespace
-
-void write_catalog_review(const formats::RunFolder& folder, const scenario::ResolvedScenario& s, const screening::PreparedRun& p,
-                          const screening::CatalogReview& v) {
-  write_text_file(folder.output("catalog", "catalog_summary.json"),
-             catalog_review_json(s, p, v).dump(2, ' ', false, nlohmann::json::error_handler_t::replace) + "\n");
+// catalog_events.csv: every kept event with its attributes against the model.
+std::string events_csv(const scenario::ResolvedScenario& s, const screening::PreparedRun& p,
+                       const screening::CatalogReview& v) {
   const bool seg = !p.segments.empty();
   std::ostringstream ev;
   ev << "event_id,time,x_m,y_m,depth_m,magnitude,magnitude_type,in_study_area,dp_MPa,in_footprint,"
@@ -140,59 +137,73 @@ void write_catalog_review(const formats::RunFolder& folder, const scenario::Reso
     ev << (m.rt_time ? fixed_decimals(*m.rt_time / units::kDay, 4) : "") << ","
        << (m.rt_distance ? fixed_decimals(*m.rt_distance, 1) : "") << "," << csv_field(e.source) << "\n";
   }
-  write_text_file(folder.output("catalog", "catalog_events.csv"), ev.str());
+  return ev.str();
+}
+
+// seismicity_rate.csv (per segment) and seismicity_rate_faults.csv (per fault: rates and counts
+// summed over its segments, largest ΔCFF).
+void write_rate_tables(const formats::RunFolder& folder, const scenario::ResolvedScenario& s,
+                       const screening::PreparedRun& p, const screening::CatalogReview& v) {
+  const double yr = units::kYear;
+  std::ostringstream t;
+  t << "segment_id,fault_id,date,dcff_MPa,background_rate_per_year,rate_per_year,rate_ratio,"
+       "expected_events,background_expected_events\n";
+  // Per fault: rates and counts summed over its segments, largest ΔCFF.
+  std::map<std::string, std::vector<std::array<double, 5>>> faults;
+  std::vector<std::string> order;
+  const std::size_t K = s.output.times.size();
+  for (std::size_t i = 0; i < v.rates.size(); ++i) {
+    const auto& r = v.rates[i];
+    const auto& sg = p.segments[i];
+    auto [it, fresh] = faults.try_emplace(sg.fault_id, std::vector<std::array<double, 5>>(K, {0, 0, 0, 0, 0}));
+    if (fresh) order.push_back(sg.fault_id);
+    for (std::size_t k = 0; k < K; ++k) {
+      const double bg = r.background_rate * std::max(0.0, s.output.times[k] - r.history_start);
+      t << csv_field(sg.segment_id) << "," << csv_field(sg.fault_id) << ","
+        << util::format_iso_date(s.output.dates[k]) << ",";
+      if (r.samples.empty()) {
+        t << ",," << ",,,\n";
+        continue;
+      }
+      const auto& q = r.samples[k];
+      t << fixed_decimals(r.dcff[k] / kMPa, 6) << "," << fixed_decimals(r.background_rate * yr, 6) << ","
+        << fixed_decimals(q.rate * yr, 6) << "," << fixed_decimals(q.rate / r.background_rate, 6) << ","
+        << fixed_decimals(q.expected, 6) << "," << fixed_decimals(bg, 6) << "\n";
+      auto& a = it->second[k];
+      a[0] = std::max(a[0], r.dcff[k]);
+      a[1] += r.background_rate;
+      a[2] += q.rate;
+      a[3] += q.expected;
+      a[4] += bg;
+    }
+  }
+  write_text_file(folder.output("catalog", "seismicity_rate.csv"), t.str());
+  std::ostringstream ft;
+  ft << "fault_id,date,max_dcff_MPa,background_rate_per_year,rate_per_year,rate_ratio,expected_events,"
+        "background_expected_events\n";
+  for (const auto& id : order)
+    for (std::size_t k = 0; k < K; ++k) {
+      const auto& a = faults[id][k];
+      ft << csv_field(id) << "," << util::format_iso_date(s.output.dates[k]) << "," << fixed_decimals(a[0] / kMPa, 6)
+         << "," << fixed_decimals(a[1] * yr, 6) << "," << fixed_decimals(a[2] * yr, 6) << ","
+         << (a[1] > 0 ? fixed_decimals(a[2] / a[1], 6) : "") << "," << fixed_decimals(a[3], 6) << ","
+         << fixed_decimals(a[4], 6) << "\n";
+    }
+  write_text_file(folder.output("catalog", "seismicity_rate_faults.csv"), ft.str());
+}
+
+}  // namespace
+
+void write_catalog_review(const formats::RunFolder& folder, const scenario::ResolvedScenario& s, const screening::PreparedRun& p,
+                          const screening::CatalogReview& v) {
+  write_text_file(folder.output("catalog", "catalog_summary.json"),
+             catalog_review_json(s, p, v).dump(2, ' ', false, nlohmann::json::error_handler_t::replace) + "\n");
+  write_text_file(folder.output("catalog", "catalog_events.csv"), events_csv(s, p, v));
   if (v.rt) {
     write_text_file(folder.output("catalog", "rt_events.csv"), rt_events_csv(v.catalog, *v.rt));
     write_text_file(folder.output("catalog", "rt_fronts.csv"), rt_fronts_csv(*v.rt));
   }
-  if (!v.rates.empty()) {
-    const double yr = units::kYear;
-    std::ostringstream t;
-    t << "segment_id,fault_id,date,dcff_MPa,background_rate_per_year,rate_per_year,rate_ratio,"
-         "expected_events,background_expected_events\n";
-    // Per fault: rates and counts summed over its segments, largest ΔCFF.
-    std::map<std::string, std::vector<std::array<double, 5>>> faults;
-    std::vector<std::string> order;
-    const std::size_t K = s.output.times.size();
-    for (std::size_t i = 0; i < v.rates.size(); ++i) {
-      const auto& r = v.rates[i];
-      const auto& sg = p.segments[i];
-      auto [it, fresh] = faults.try_emplace(sg.fault_id, std::vector<std::array<double, 5>>(K, {0, 0, 0, 0, 0}));
-      if (fresh) order.push_back(sg.fault_id);
-      for (std::size_t k = 0; k < K; ++k) {
-        const double bg = r.background_rate * std::max(0.0, s.output.times[k] - r.history_start);
-        t << csv_field(sg.segment_id) << "," << csv_field(sg.fault_id) << ","
-          << util::format_iso_date(s.output.dates[k]) << ",";
-        if (r.samples.empty()) {
-          t << ",," << ",,,\n";
-          continue;
-        }
-        const auto& q = r.samples[k];
-        t << fixed_decimals(r.dcff[k] / kMPa, 6) << "," << fixed_decimals(r.background_rate * yr, 6) << ","
-          << fixed_decimals(q.rate * yr, 6) << "," << fixed_decimals(q.rate / r.background_rate, 6) << ","
-          << fixed_decimals(q.expected, 6) << "," << fixed_decimals(bg, 6) << "\n";
-        auto& a = it->second[k];
-        a[0] = std::max(a[0], r.dcff[k]);
-        a[1] += r.background_rate;
-        a[2] += q.rate;
-        a[3] += q.expected;
-        a[4] += bg;
-      }
-    }
-    write_text_file(folder.output("catalog", "seismicity_rate.csv"), t.str());
-    std::ostringstream ft;
-    ft << "fault_id,date,max_dcff_MPa,background_rate_per_year,rate_per_year,rate_ratio,expected_events,"
-          "background_expected_events\n";
-    for (const auto& id : order)
-      for (std::size_t k = 0; k < K; ++k) {
-        const auto& a = faults[id][k];
-        ft << csv_field(id) << "," << util::format_iso_date(s.output.dates[k]) << "," << fixed_decimals(a[0] / kMPa, 6)
-           << "," << fixed_decimals(a[1] * yr, 6) << "," << fixed_decimals(a[2] * yr, 6) << ","
-           << (a[1] > 0 ? fixed_decimals(a[2] / a[1], 6) : "") << "," << fixed_decimals(a[3], 6) << ","
-           << fixed_decimals(a[4], 6) << "\n";
-      }
-    write_text_file(folder.output("catalog", "seismicity_rate_faults.csv"), ft.str());
-  }
+  if (!v.rates.empty()) write_rate_tables(folder, s, p, v);
 }
 
 }  // namespace slipscreen::outputs

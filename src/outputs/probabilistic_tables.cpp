@@ -12,160 +12,198 @@
 #include "core/util/number_text.hpp"
 
 namespace slipscreen::outputs {
+using formats::csv_field;
+using util::fixed_decimals;
+
 namespace {
 
 constexpr double kMPa = 1.0e6;
 
+// What every table and raster of the probabilistic screen needs.
+struct Context {
+  const formats::RunFolder& folder;
+  const scenario::ResolvedScenario& s;
+  const screening::PreparedRun& p;
+  const screening::ProbabilisticRun& run;
+  double n;       // valid realizations
+  double z;       // z of the Wilson interval's confidence
+  std::size_t K;  // output times
+};
+
+std::string f3(double v) { return fixed_decimals(v, 4); }
+std::string mpa(double v) { return fixed_decimals(v / kMPa, 4); }
+
+// segment_probability.csv: P(slip by t) per segment and output time with its interval.
+void write_segment_probability(const Context& c) {
+  const auto& [folder, s, p, run, n, z, K] = c;
+  const auto& res = run.result;
+  std::ostringstream t;
+  t << "segment_id,fault_id,date,p_slip,p_slip_ci_low,p_slip_ci_high,p_already_critical,dp_p05_MPa,dp_p50_MPa,"
+       "dp_p95_MPa,thresholds_reached\n";
+  for (std::size_t i = 0; i < res.segments.size(); ++i) {
+    const auto& seg = res.segments[i];
+    for (std::size_t k = 0; k < K; ++k) {
+      const auto ci = stats::wilson_interval(seg.slipped_by[k], res.realizations, z);
+      std::string reached;
+      for (double th : run.thresholds)
+        if (ci.estimate >= th) {
+          if (!reached.empty()) reached += ';';
+          reached += fixed_decimals(th, 3);
+        }
+      t << csv_field(p.segments[i].segment_id) << ',' << csv_field(p.segments[i].fault_id) << ','
+        << util::format_iso_date(s.output.dates[k]) << ',' << f3(ci.estimate) << ',' << f3(ci.lower) << ','
+        << f3(ci.upper) << ',' << f3(static_cast<double>(seg.already_critical) / n) << ','
+        << mpa(seg.dp[k].quantile(0.05)) << ',' << mpa(seg.dp[k].quantile(0.5)) << ','
+        << mpa(seg.dp[k].quantile(0.95)) << ',' << reached << '\n';
+    }
+  }
+  formats::write_text_file(folder.output("output.files.segment_probability", "segment_probability.csv"), t.str());
+}
+
+// segment_probability_summary.csv: per segment, Δp_crit percentiles, final P and first dates.
+void write_probability_summary(const Context& c) {
+  const auto& [folder, s, p, run, n, z, K] = c;
+  const auto& res = run.result;
+  std::ostringstream u;
+  u << "segment_id,fault_id,dp_crit_p05_MPa,dp_crit_p50_MPa,dp_crit_p95_MPa,p_already_critical,p_never_critical,"
+       "p_slip_final,p_slip_final_ci_low,p_slip_final_ci_high";
+  for (double th : run.thresholds) u << ",first_date_p_" << fixed_decimals(th, 3);
+  u << '\n';
+  for (std::size_t i = 0; i < res.segments.size(); ++i) {
+    const auto& seg = res.segments[i];
+    const auto ci = stats::wilson_interval(seg.slipped_by[K - 1], res.realizations, z);
+    const bool any = !seg.dp_crit.empty();
+    u << csv_field(p.segments[i].segment_id) << ',' << csv_field(p.segments[i].fault_id) << ','
+      << (any ? mpa(seg.dp_crit.quantile(0.05)) : "") << ',' << (any ? mpa(seg.dp_crit.quantile(0.5)) : "") << ','
+      << (any ? mpa(seg.dp_crit.quantile(0.95)) : "") << ',' << f3(static_cast<double>(seg.already_critical) / n)
+      << ',' << f3(static_cast<double>(seg.never_critical) / n) << ',' << f3(ci.estimate) << ',' << f3(ci.lower)
+      << ',' << f3(ci.upper);
+    for (double th : run.thresholds) {
+      std::string first;
+      for (std::size_t k = 0; k < K && first.empty(); ++k)
+        if (static_cast<double>(seg.slipped_by[k]) / n >= th) first = util::format_iso_date(s.output.dates[k]);
+      u << ',' << first;
+    }
+    u << '\n';
+  }
+  formats::write_text_file(folder.output("output.files.segment_probability_summary", "segment_probability_summary.csv"), u.str());
+}
+
+// sensitivity.csv: per fault, at its segment with the highest final probability (ties: file order).
+void write_sensitivity(const Context& c) {
+  const auto& [folder, s, p, run, n, z, K] = c;
+  const auto& res = run.result;
+  // Sensitivity per fault, at its segment with the highest final probability (ties: lowest
+  // median Δp_crit margin, then file order).
+  std::ostringstream v;
+  v << "fault_id,segment_id,p_slip_final,input,spearman_rho,rank\n";
+  for (std::size_t f = 0; f < run.fault_ids.size(); ++f) {
+    std::size_t best = res.segments.size();
+    for (std::size_t i = 0; i < res.segments.size(); ++i)
+      if (run.segment_fault[i] == f &&
+          (best == res.segments.size() || res.segments[i].slipped_by[K - 1] > res.segments[best].slipped_by[K - 1]))
+        best = i;
+    if (best == res.segments.size()) continue;
+    const auto& sens = res.segments[best].sensitivity;
+    std::vector<std::size_t> order;
+    for (std::size_t j = 0; j < sens.size(); ++j)
+      if (!std::isnan(sens[j])) order.push_back(j);
+    std::stable_sort(order.begin(), order.end(),
+                     [&](std::size_t a, std::size_t b) { return std::abs(sens[a]) > std::abs(sens[b]); });
+    for (std::size_t r = 0; r < order.size(); ++r)
+      v << csv_field(run.fault_ids[f]) << ',' << csv_field(p.segments[best].segment_id) << ','
+        << f3(screening::slip_probability(run, best, K - 1)) << ',' << res.input_names[order[r]] << ','
+        << fixed_decimals(sens[order[r]], 3) << ',' << (r + 1) << '\n';
+  }
+  formats::write_text_file(folder.output("output.files.sensitivity", "sensitivity.csv"), v.str());
+}
+
+// median_well_shares.csv: each well's share of the median realization's Δp.
+void write_median_well_shares(const Context& c) {
+  const auto& [folder, s, p, run, n, z, K] = c;
+  const auto& res = run.result;
+  // Well attribution of the median Δp: per segment and output time, the wells with a share of
+  // at least screening::kMedianShareMin (largest first, ties in file order), then one row for the rest.
+  std::string m;
+  m = "segment_id,fault_id,date,median_realization,dp_MPa,check_point,well_id,wells,well_dp_MPa,share\n";
+  for (std::size_t i = 0; i < res.segments.size(); ++i)
+    for (std::size_t k = 0; k < res.segments[i].median.size(); ++k) {
+      const auto& a = res.segments[i].median[k];
+      double total = 0.0;
+      for (double dp : a.well_dp) total += dp;
+      if (!(total > 0.0)) continue;  // no pressure at the median yet
+      std::vector<std::size_t> order(a.well_dp.size());
+      for (std::size_t w = 0; w < order.size(); ++w) order[w] = w;
+      std::stable_sort(order.begin(), order.end(),
+                       [&](std::size_t x, std::size_t y) { return a.well_dp[x] > a.well_dp[y]; });
+      const std::string head = csv_field(p.segments[i].segment_id) + ',' + csv_field(p.segments[i].fault_id) + ',' +
+                               util::format_iso_date(s.output.dates[k]) + ',' + std::to_string(a.realization) + ',' +
+                               fixed_decimals(a.dp / kMPa, 6) + ',' + std::to_string(a.check_point) + ',';
+      double rest = 0.0;
+      std::size_t rest_count = 0;
+      for (std::size_t w : order) {
+        const double share = a.well_dp[w] / total;
+        if (std::abs(share) < screening::kMedianShareMin) {
+          rest += a.well_dp[w];
+          ++rest_count;
+          continue;
+        }
+        m += head + csv_field(p.wells[w].id) + ",1," + fixed_decimals(a.well_dp[w] / kMPa, 6) + ',' +
+             fixed_decimals(share, 6) + '\n';
+      }
+      if (rest_count > 0)
+        m += head + ',' + std::to_string(rest_count) + ',' + fixed_decimals(rest / kMPa, 6) + ',' +
+             fixed_decimals(rest / total, 6) + '\n';
+    }
+  formats::write_text_file(folder.output("output.files.median_well_shares", "median_well_shares.csv"), m);
+}
+
+// slip_probability_dangerous.tif and slip_probability_oriented.tif.
+void write_probability_rasters(const Context& c) {
+  const auto& [folder, s, p, run, n, z, K] = c;
+  const auto& res = run.result;
+  const auto raster = [&](const std::vector<std::uint64_t>& counts, const char* file, const char* key,
+                          const std::string& what) {
+    std::vector<formats::RasterBand> bands(K);
+    for (std::size_t k = 0; k < K; ++k) {
+      bands[k].description = util::format_iso_date(s.output.dates[k]);
+      bands[k].values.resize(run.map_grid.cell_count());
+      for (std::size_t cell = 0; cell < run.map_grid.cell_count(); ++cell)
+        bands[k].values[cell] = static_cast<float>(static_cast<double>(counts[cell * K + k]) / n);
+    }
+    formats::GeoTiffOptions opt;
+    opt.cloud_optimized = s.output.cog;
+    opt.unit = "probability";
+    opt.metadata = {{"QUANTITY", what},
+                    {"REALIZATIONS", std::to_string(res.realizations)},
+                    {"CAUTION", kScreeningCaution},
+                    {"SCENARIO", s.file}};
+    formats::write_geotiff(folder.output(key, file), run.map_grid, p.working, bands, opt);
+  };
+  raster(res.map_dangerous, "slip_probability_dangerous.tif", "output.files.slip_probability_dangerous",
+         "probability that a fault of the most dangerous orientation has slipped by the band date "
+         "(injection-induced; " + fixed_decimals(static_cast<double>(res.map_dangerous_already_critical) / n, 4) +
+             " of realizations are critical before injection everywhere)");
+  if (!res.map_oriented.empty())
+    raster(res.map_oriented, "slip_probability_oriented.tif", "output.files.slip_probability_oriented",
+           "probability that a fault of strike " + fixed_decimals(*run.map_strike * 180.0 / M_PI, 1) +
+               " deg, dip " + fixed_decimals(*run.map_dip * 180.0 / M_PI, 1) +
+               " deg has slipped by the band date (injection-induced)");
+}
+
 }  // namespace
 
-using formats::csv_field;
-using util::fixed_decimals;
-
-void write_probabilistic_outputs(const formats::RunFolder& folder, const scenario::ResolvedScenario& s, const screening::PreparedRun& p,
-                                 const screening::ProbabilisticRun& run) {
-  const auto& res = run.result;
-  const double n = static_cast<double>(res.realizations);
-  const double z = stats::z_for_confidence(run.confidence);
-  const std::size_t K = s.output.times.size();
-  const auto f3 = [](double v) { return fixed_decimals(v, 4); };
-  const auto mpa = [](double v) { return fixed_decimals(v / kMPa, 4); };
-
+void write_probabilistic_outputs(const formats::RunFolder& folder, const scenario::ResolvedScenario& s,
+                                 const screening::PreparedRun& p, const screening::ProbabilisticRun& run) {
+  const Context c{folder, s, p, run, static_cast<double>(run.result.realizations),
+                  stats::z_for_confidence(run.confidence), s.output.times.size()};
   if (s.output.tables) {
-    std::ostringstream t;
-    t << "segment_id,fault_id,date,p_slip,p_slip_ci_low,p_slip_ci_high,p_already_critical,dp_p05_MPa,dp_p50_MPa,"
-         "dp_p95_MPa,thresholds_reached\n";
-    for (std::size_t i = 0; i < res.segments.size(); ++i) {
-      const auto& seg = res.segments[i];
-      for (std::size_t k = 0; k < K; ++k) {
-        const auto ci = stats::wilson_interval(seg.slipped_by[k], res.realizations, z);
-        std::string reached;
-        for (double th : run.thresholds)
-          if (ci.estimate >= th) {
-            if (!reached.empty()) reached += ';';
-            reached += fixed_decimals(th, 3);
-          }
-        t << csv_field(p.segments[i].segment_id) << ',' << csv_field(p.segments[i].fault_id) << ','
-          << util::format_iso_date(s.output.dates[k]) << ',' << f3(ci.estimate) << ',' << f3(ci.lower) << ','
-          << f3(ci.upper) << ',' << f3(static_cast<double>(seg.already_critical) / n) << ','
-          << mpa(seg.dp[k].quantile(0.05)) << ',' << mpa(seg.dp[k].quantile(0.5)) << ','
-          << mpa(seg.dp[k].quantile(0.95)) << ',' << reached << '\n';
-      }
-    }
-    formats::write_text_file(folder.output("output.files.segment_probability", "segment_probability.csv"), t.str());
-
-    std::ostringstream u;
-    u << "segment_id,fault_id,dp_crit_p05_MPa,dp_crit_p50_MPa,dp_crit_p95_MPa,p_already_critical,p_never_critical,"
-         "p_slip_final,p_slip_final_ci_low,p_slip_final_ci_high";
-    for (double th : run.thresholds) u << ",first_date_p_" << fixed_decimals(th, 3);
-    u << '\n';
-    for (std::size_t i = 0; i < res.segments.size(); ++i) {
-      const auto& seg = res.segments[i];
-      const auto ci = stats::wilson_interval(seg.slipped_by[K - 1], res.realizations, z);
-      const bool any = !seg.dp_crit.empty();
-      u << csv_field(p.segments[i].segment_id) << ',' << csv_field(p.segments[i].fault_id) << ','
-        << (any ? mpa(seg.dp_crit.quantile(0.05)) : "") << ',' << (any ? mpa(seg.dp_crit.quantile(0.5)) : "") << ','
-        << (any ? mpa(seg.dp_crit.quantile(0.95)) : "") << ',' << f3(static_cast<double>(seg.already_critical) / n)
-        << ',' << f3(static_cast<double>(seg.never_critical) / n) << ',' << f3(ci.estimate) << ',' << f3(ci.lower)
-        << ',' << f3(ci.upper);
-      for (double th : run.thresholds) {
-        std::string first;
-        for (std::size_t k = 0; k < K && first.empty(); ++k)
-          if (static_cast<double>(seg.slipped_by[k]) / n >= th) first = util::format_iso_date(s.output.dates[k]);
-        u << ',' << first;
-      }
-      u << '\n';
-    }
-    formats::write_text_file(folder.output("output.files.segment_probability_summary", "segment_probability_summary.csv"), u.str());
-
-    // Sensitivity per fault, at its segment with the highest final probability (ties: lowest
-    // median Δp_crit margin, then file order).
-    std::ostringstream v;
-    v << "fault_id,segment_id,p_slip_final,input,spearman_rho,rank\n";
-    for (std::size_t f = 0; f < run.fault_ids.size(); ++f) {
-      std::size_t best = res.segments.size();
-      for (std::size_t i = 0; i < res.segments.size(); ++i)
-        if (run.segment_fault[i] == f &&
-            (best == res.segments.size() || res.segments[i].slipped_by[K - 1] > res.segments[best].slipped_by[K - 1]))
-          best = i;
-      if (best == res.segments.size()) continue;
-      const auto& sens = res.segments[best].sensitivity;
-      std::vector<std::size_t> order;
-      for (std::size_t j = 0; j < sens.size(); ++j)
-        if (!std::isnan(sens[j])) order.push_back(j);
-      std::stable_sort(order.begin(), order.end(),
-                       [&](std::size_t a, std::size_t b) { return std::abs(sens[a]) > std::abs(sens[b]); });
-      for (std::size_t r = 0; r < order.size(); ++r)
-        v << csv_field(run.fault_ids[f]) << ',' << csv_field(p.segments[best].segment_id) << ','
-          << f3(screening::slip_probability(run, best, K - 1)) << ',' << res.input_names[order[r]] << ','
-          << fixed_decimals(sens[order[r]], 3) << ',' << (r + 1) << '\n';
-    }
-    formats::write_text_file(folder.output("output.files.sensitivity", "sensitivity.csv"), v.str());
-
-    // Well attribution of the median Δp: per segment and output time, the wells with a share of
-    // at least screening::kMedianShareMin (largest first, ties in file order), then one row for the rest.
-    std::string m;
-    m = "segment_id,fault_id,date,median_realization,dp_MPa,check_point,well_id,wells,well_dp_MPa,share\n";
-    for (std::size_t i = 0; i < res.segments.size(); ++i)
-      for (std::size_t k = 0; k < res.segments[i].median.size(); ++k) {
-        const auto& a = res.segments[i].median[k];
-        double total = 0.0;
-        for (double dp : a.well_dp) total += dp;
-        if (!(total > 0.0)) continue;  // no pressure at the median yet
-        std::vector<std::size_t> order(a.well_dp.size());
-        for (std::size_t w = 0; w < order.size(); ++w) order[w] = w;
-        std::stable_sort(order.begin(), order.end(),
-                         [&](std::size_t x, std::size_t y) { return a.well_dp[x] > a.well_dp[y]; });
-        const std::string head = csv_field(p.segments[i].segment_id) + ',' + csv_field(p.segments[i].fault_id) + ',' +
-                                 util::format_iso_date(s.output.dates[k]) + ',' + std::to_string(a.realization) + ',' +
-                                 fixed_decimals(a.dp / kMPa, 6) + ',' + std::to_string(a.check_point) + ',';
-        double rest = 0.0;
-        std::size_t rest_count = 0;
-        for (std::size_t w : order) {
-          const double share = a.well_dp[w] / total;
-          if (std::abs(share) < screening::kMedianShareMin) {
-            rest += a.well_dp[w];
-            ++rest_count;
-            continue;
-          }
-          m += head + csv_field(p.wells[w].id) + ",1," + fixed_decimals(a.well_dp[w] / kMPa, 6) + ',' +
-               fixed_decimals(share, 6) + '\n';
-        }
-        if (rest_count > 0)
-          m += head + ',' + std::to_string(rest_count) + ',' + fixed_decimals(rest / kMPa, 6) + ',' +
-               fixed_decimals(rest / total, 6) + '\n';
-      }
-    formats::write_text_file(folder.output("output.files.median_well_shares", "median_well_shares.csv"), m);
+    write_segment_probability(c);
+    write_probability_summary(c);
+    write_sensitivity(c);
+    write_median_well_shares(c);
   }
-
-  if (s.output.rasters && !res.map_dangerous.empty()) {
-    const auto raster = [&](const std::vector<std::uint64_t>& counts, const char* file, const char* key,
-                            const std::string& what) {
-      std::vector<formats::RasterBand> bands(K);
-      for (std::size_t k = 0; k < K; ++k) {
-        bands[k].description = util::format_iso_date(s.output.dates[k]);
-        bands[k].values.resize(run.map_grid.cell_count());
-        for (std::size_t c = 0; c < run.map_grid.cell_count(); ++c)
-          bands[k].values[c] = static_cast<float>(static_cast<double>(counts[c * K + k]) / n);
-      }
-      formats::GeoTiffOptions opt;
-      opt.cloud_optimized = s.output.cog;
-      opt.unit = "probability";
-      opt.metadata = {{"QUANTITY", what},
-                      {"REALIZATIONS", std::to_string(res.realizations)},
-                      {"CAUTION", kScreeningCaution},
-                      {"SCENARIO", s.file}};
-      formats::write_geotiff(folder.output(key, file), run.map_grid, p.working, bands, opt);
-    };
-    raster(res.map_dangerous, "slip_probability_dangerous.tif", "output.files.slip_probability_dangerous",
-           "probability that a fault of the most dangerous orientation has slipped by the band date "
-           "(injection-induced; " + fixed_decimals(static_cast<double>(res.map_dangerous_already_critical) / n, 4) +
-               " of realizations are critical before injection everywhere)");
-    if (!res.map_oriented.empty())
-      raster(res.map_oriented, "slip_probability_oriented.tif", "output.files.slip_probability_oriented",
-             "probability that a fault of strike " + fixed_decimals(*run.map_strike * 180.0 / M_PI, 1) +
-                 " deg, dip " + fixed_decimals(*run.map_dip * 180.0 / M_PI, 1) +
-                 " deg has slipped by the band date (injection-induced)");
-  }
+  if (s.output.rasters && !run.result.map_dangerous.empty()) write_probability_rasters(c);
 }
 
 nlohmann::json probabilistic_manifest(const screening::ProbabilisticRun& run) {

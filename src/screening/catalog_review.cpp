@@ -74,17 +74,12 @@ seismo::Catalog to_working_crs(const formats::CatalogReadResult& read, const Pre
       seismo::CoordinateKind::projected, p.working.authority().empty() ? p.working.name() : p.working.authority());
 }
 
-void review_events(CatalogReview& v, const scenario::ResolvedScenario& s, const PreparedRun& p, const screen::ScreenResult& r,
-                   const ProbabilisticRun* prob) {
+// The footprint's area fraction at each output time: cells of the output grid, coarsened to at
+// most kMapCells, with Δp ≥ the threshold (the coarse grid's overhang is outside the study area).
+void footprint_fractions(CatalogReview& v, const scenario::ResolvedScenario& s, const PreparedRun& p) {
   const auto& g = p.grid;
-  const double x0 = g.x_origin, x1 = g.x_origin + g.columns * g.cell_size;
-  const double y1 = g.y_origin, y0 = g.y_origin - g.rows * g.cell_size;
-
-  std::vector<hydro::WellSource> sources;
-  for (const auto& w : p.inputs.wells) sources.push_back({w.id, w.x, w.y, w.radius, w.history});
-  const hydro::PressureField field(std::move(sources), p.inputs.boundaries);
-
-  // Footprint area fractions at the output times on the coarsened output grid.
+  const double x1 = g.x_origin + g.columns * g.cell_size;
+  const double y0 = g.y_origin - g.rows * g.cell_size;
   v.footprint_grid = geometry::coarsened(g, g.cell_size, kMapCells);
   const auto& fg = v.footprint_grid;
   const std::vector<hydro::GridSource> gs = grid_sources(p);
@@ -103,6 +98,44 @@ void review_events(CatalogReview& v, const scenario::ResolvedScenario& s, const 
       v.footprint_fractions[k] = cells ? static_cast<double>(inside) / static_cast<double>(cells) : 0.0;
     }
   }
+}
+
+// The event's nearest segment, that segment's Δp and Δp_crit at the event time, whether the
+// deterministic screen has it reach Δp_crit by then, and its P(slip) at the last output time at or
+// before the event (`prob` may be null).
+void segment_attributes(EventAgainstModel& m, const seismo::Event& ev, const seismo::NearestFault& nearest,
+                        const scenario::ResolvedScenario& s, const screen::ScreenResult& r,
+                        const ProbabilisticRun* prob, double z) {
+  m.segment = nearest.segment;
+  m.distance = nearest.distance;
+  const auto& sr = r.segments[m.segment];
+  const auto it = std::upper_bound(r.tracked_times.begin(), r.tracked_times.end(), ev.time);
+  if (it != r.tracked_times.begin() && !sr.tracked_dp.empty())
+    m.segment_dp = sr.tracked_dp[static_cast<std::size_t>(it - r.tracked_times.begin()) - 1];
+  m.segment_dp_crit = sr.dp_crit;
+  m.segment_reached = sr.first_crossing && *sr.first_crossing <= ev.time;
+  const auto ko = std::upper_bound(s.output.times.begin(), s.output.times.end(), ev.time);
+  if (prob && ko != s.output.times.begin()) {
+    const std::size_t k = static_cast<std::size_t>(ko - s.output.times.begin()) - 1;
+    const auto ci = stats::wilson_interval(prob->result.segments[m.segment].slipped_by[k], prob->result.realizations, z);
+    m.probability_time = k;
+    m.p_slip = slip_probability(*prob, m.segment, k);
+    m.p_low = ci.lower;
+    m.p_high = ci.upper;
+  }
+}
+
+void review_events(CatalogReview& v, const scenario::ResolvedScenario& s, const PreparedRun& p, const screen::ScreenResult& r,
+                   const ProbabilisticRun* prob) {
+  const auto& g = p.grid;
+  const double x0 = g.x_origin, x1 = g.x_origin + g.columns * g.cell_size;
+  const double y1 = g.y_origin, y0 = g.y_origin - g.rows * g.cell_size;
+
+  std::vector<hydro::WellSource> sources;
+  for (const auto& w : p.inputs.wells) sources.push_back({w.id, w.x, w.y, w.radius, w.history});
+  const hydro::PressureField field(std::move(sources), p.inputs.boundaries);
+
+  footprint_fractions(v, s, p);
   double first_injection = s.output.times.back();
   for (const auto& w : p.wells)
     if (!w.periods.empty()) first_injection = std::min(first_injection, w.periods.front().start);
@@ -134,25 +167,7 @@ void review_events(CatalogReview& v, const scenario::ResolvedScenario& s, const 
     m.in_study_area = ev.x >= x0 && ev.x <= x1 && ev.y >= y0 && ev.y <= y1;
     m.dp = event_dp[e];
     m.footprint_fraction = seismo::footprint_fraction_at(s.output.times, v.footprint_fractions, first_injection, ev.time);
-    if (!traces.empty()) {
-      m.segment = nearest[e].segment;
-      m.distance = nearest[e].distance;
-      const auto& sr = r.segments[m.segment];
-      const auto it = std::upper_bound(r.tracked_times.begin(), r.tracked_times.end(), ev.time);
-      if (it != r.tracked_times.begin() && !sr.tracked_dp.empty())
-        m.segment_dp = sr.tracked_dp[static_cast<std::size_t>(it - r.tracked_times.begin()) - 1];
-      m.segment_dp_crit = sr.dp_crit;
-      m.segment_reached = sr.first_crossing && *sr.first_crossing <= ev.time;
-      const auto ko = std::upper_bound(s.output.times.begin(), s.output.times.end(), ev.time);
-      if (prob && ko != s.output.times.begin()) {
-        const std::size_t k = static_cast<std::size_t>(ko - s.output.times.begin()) - 1;
-        const auto ci = stats::wilson_interval(prob->result.segments[m.segment].slipped_by[k], prob->result.realizations, z);
-        m.probability_time = k;
-        m.p_slip = slip_probability(*prob, m.segment, k);
-        m.p_low = ci.lower;
-        m.p_high = ci.upper;
-      }
-    }
+    if (!traces.empty()) segment_attributes(m, ev, nearest[e], s, r, prob, z);
     if (m.in_study_area) {
       area_dp.push_back(m.dp);
       v.footprint_expected += m.footprint_fraction;
@@ -194,6 +209,74 @@ void review_rates(CatalogReview& v, const scenario::ResolvedScenario& s, const P
 
 }  // namespace
 
+// The catalog statistics' options from [catalog] and the scenario's volumes: the net volume up to
+// the last output time (McGarr bound), the volume history while the catalog ran (Σ) and the volume
+// injected after it (forecasts).
+seismo::SummaryOptions summary_options(const CatalogReview& v, const scenario::ResolvedScenario& s, const PreparedRun& p) {
+  const scenario::CatalogSpec& c = v.spec;
+  const double t_end = s.output.times.back();
+  seismo::SummaryOptions so;
+  so.bin_width = c.bin_width;
+  so.mc_correction = c.mc_correction;
+  so.fixed_mc = c.mc;
+  so.bootstrap_resamples = c.bootstrap;
+  so.bootstrap_confidence = c.bootstrap_confidence;
+  so.seed = s.seed;
+  so.net_volume = total_volume(p.wells, t_end);
+  so.shear_modulus = c.shear_modulus;
+  so.volume_history = volume_history(p.wells, std::min(v.catalog_end, t_end));  // Σ: volume while the catalog ran
+  so.planned_volume = std::max(0.0, total_volume(p.wells, t_end) - total_volume(p.wells, std::min(v.catalog_end, t_end)));
+  so.forecast_magnitudes = c.forecast_magnitudes;
+  std::map<std::string, double> lengths;
+  for (const auto& seg : p.segments) lengths[seg.fault_id] += seg.trace.length_m;
+  for (const auto& [id, len] : lengths) so.faults.push_back({id, len});
+  so.regression = c.length_regression == "subsurface" ? seismo::LengthRegression::subsurface_rupture_length_all
+                                                      : seismo::LengthRegression::surface_rupture_length_all;
+  return so;
+}
+
+// The r-t view around the r-t well, with fronts for the given diffusivities (or the run's D and
+// the probabilistic screen's sampled range); each event gets its r-t coordinates.
+void review_rt(CatalogReview& v, const PreparedRun& p, const ProbabilisticRun* prob) {
+  const scenario::CatalogSpec& c = v.spec;
+  if (const scenario::WellSpec* w = rt_well(c, p, v.catalog_end); w && !w->periods.empty()) {
+    std::vector<double> d = c.diffusivities;
+    if (d.empty()) {
+      d.push_back(p.inputs.formation.diffusivity);
+      if (prob && prob->result.diffusivity_max > prob->result.diffusivity_min) {
+        d.push_back(prob->result.diffusivity_min);
+        d.push_back(prob->result.diffusivity_max);
+      }
+    }
+    v.rt = make_rt_view(v.catalog, {w->x, w->y}, w->periods.front().start, d, w->id);
+    for (const auto& pt : v.rt->points) {
+      v.events[pt.event].rt_time = pt.t;
+      v.events[pt.event].rt_distance = pt.r;
+    }
+  }
+}
+
+void state_assumptions(CatalogReview& v, const PreparedRun& p) {
+  auto& a = v.assumptions;
+  const scenario::CatalogSpec& c = v.spec;
+  a.push_back("Events are placed by their epicentres in the working CRS; depth is not used for distances or Δp "
+              "(the pressure model is two-dimensional in the injected formation).");
+  a.push_back("The net volume for the McGarr (2014) bound is the total injected by all scenario wells up to the last "
+              "output time, planned volumes included.");
+  a.push_back("Forecasts use the volume the scenario wells inject after the end of the reviewed catalog (" +
+              formats::format_iso8601_utc(v.catalog_end) + ") up to the last output time, with the observed Σ and b.");
+  a.push_back("Footprint: events inside the output grid's extent with modelled Δp at their own place and time of at "
+              "least the threshold, against the number expected by chance from the footprint's area fraction at "
+              "each event time (one-sided binomial test with the mean fraction; conservative).");
+  if (p.grid.cell_count() == 0)
+    a.push_back("No output grid (output.rasters = false): no study area, so the footprint test counts no events.");
+  a.push_back("P(slip) of an event's nearest segment is the injection-induced probability at the last output time "
+              "at or before the event (probabilities are computed at output times).");
+  if (c.rate_state)
+    a.push_back("Seismicity rates: Dieterich (1994) rate-and-state response to ΔCFF = μ Δp on each segment (no "
+                "poroelastic stress change), background rate per km of trace, Aσ and t_a as given.");
+}
+
 CatalogReview review_catalog(const scenario::ResolvedScenario& s, const PreparedRun& p, const screen::ScreenResult& r,
                              const ProbabilisticRun* prob) {
   CatalogReview v;
@@ -222,63 +305,13 @@ CatalogReview review_catalog(const scenario::ResolvedScenario& s, const Prepared
   v.counts = kept.counts;
   v.catalog = std::move(kept.catalog);
 
-  const double t_end = s.output.times.back();
   v.catalog_end = c.to ? *c.to : (v.catalog.events.empty() ? s.output.times.front() : seismo::times(v.catalog).back());
-  seismo::SummaryOptions so;
-  so.bin_width = c.bin_width;
-  so.mc_correction = c.mc_correction;
-  so.fixed_mc = c.mc;
-  so.bootstrap_resamples = c.bootstrap;
-  so.bootstrap_confidence = c.bootstrap_confidence;
-  so.seed = s.seed;
-  so.net_volume = total_volume(p.wells, t_end);
-  so.shear_modulus = c.shear_modulus;
-  so.volume_history = volume_history(p.wells, std::min(v.catalog_end, t_end));  // Σ: volume while the catalog ran
-  so.planned_volume = std::max(0.0, total_volume(p.wells, t_end) - total_volume(p.wells, std::min(v.catalog_end, t_end)));
-  so.forecast_magnitudes = c.forecast_magnitudes;
-  std::map<std::string, double> lengths;
-  for (const auto& seg : p.segments) lengths[seg.fault_id] += seg.trace.length_m;
-  for (const auto& [id, len] : lengths) so.faults.push_back({id, len});
-  so.regression = c.length_regression == "subsurface" ? seismo::LengthRegression::subsurface_rupture_length_all
-                                                      : seismo::LengthRegression::surface_rupture_length_all;
-  v.summary = seismo::summarize_catalog(v.catalog, so);
+  v.summary = seismo::summarize_catalog(v.catalog, summary_options(v, s, p));
 
   review_events(v, s, p, r, prob);
-
-  if (const scenario::WellSpec* w = rt_well(c, p, v.catalog_end); w && !w->periods.empty()) {
-    std::vector<double> d = c.diffusivities;
-    if (d.empty()) {
-      d.push_back(p.inputs.formation.diffusivity);
-      if (prob && prob->result.diffusivity_max > prob->result.diffusivity_min) {
-        d.push_back(prob->result.diffusivity_min);
-        d.push_back(prob->result.diffusivity_max);
-      }
-    }
-    v.rt = make_rt_view(v.catalog, {w->x, w->y}, w->periods.front().start, d, w->id);
-    for (const auto& pt : v.rt->points) {
-      v.events[pt.event].rt_time = pt.t;
-      v.events[pt.event].rt_distance = pt.r;
-    }
-  }
+  review_rt(v, p, prob);
   review_rates(v, s, p, r);
-
-  auto& a = v.assumptions;
-  a.push_back("Events are placed by their epicentres in the working CRS; depth is not used for distances or Δp "
-              "(the pressure model is two-dimensional in the injected formation).");
-  a.push_back("The net volume for the McGarr (2014) bound is the total injected by all scenario wells up to the last "
-              "output time, planned volumes included.");
-  a.push_back("Forecasts use the volume the scenario wells inject after the end of the reviewed catalog (" +
-              formats::format_iso8601_utc(v.catalog_end) + ") up to the last output time, with the observed Σ and b.");
-  a.push_back("Footprint: events inside the output grid's extent with modelled Δp at their own place and time of at "
-              "least the threshold, against the number expected by chance from the footprint's area fraction at "
-              "each event time (one-sided binomial test with the mean fraction; conservative).");
-  if (p.grid.cell_count() == 0)
-    a.push_back("No output grid (output.rasters = false): no study area, so the footprint test counts no events.");
-  a.push_back("P(slip) of an event's nearest segment is the injection-induced probability at the last output time "
-              "at or before the event (probabilities are computed at output times).");
-  if (c.rate_state)
-    a.push_back("Seismicity rates: Dieterich (1994) rate-and-state response to ΔCFF = μ Δp on each segment (no "
-                "poroelastic stress change), background rate per km of trace, Aσ and t_a as given.");
+  state_assumptions(v, p);
   return v;
 }
 
