@@ -20,6 +20,62 @@ std::string fixed(double v, int decimals) {
 
 }  // namespace
 
+namespace {
+
+// The McGarr (2014) bound and the rupture-length bounds of the largest mapped faults.
+void print_magnitude_bounds(std::ostream& out, const seismo::CatalogSummary& s, std::size_t max_fault_bounds) {
+  out << "\nLargest-magnitude bounds\n";
+  if (s.mcgarr_moment) {
+    out << "  McGarr (2014), net volume " << util::number_text(s.net_volume, 4) << " m3, G = " << util::number_text(s.shear_modulus / 1e9, 3)
+        << " GPa: M0 <= " << util::number_text(*s.mcgarr_moment, 4) << " N·m";
+    if (s.mcgarr_mw) out << ", Mw <= " << fixed(*s.mcgarr_mw, 2) << " (IASPEI 2013)";
+    out << "\n";
+  } else {
+    out << "  McGarr (2014): not computed (give --net-volume)\n";
+  }
+  std::vector<const seismo::FaultBound*> bounds;
+  for (const auto& f : s.fault_bounds) bounds.push_back(&f);
+  if (bounds.size() > max_fault_bounds) {
+    std::stable_sort(bounds.begin(), bounds.end(), [](const seismo::FaultBound* a, const seismo::FaultBound* b) {
+      return a->estimate.magnitude > b->estimate.magnitude;
+    });
+    bounds.resize(max_fault_bounds);
+  }
+  for (const seismo::FaultBound* bound : bounds) {
+    const seismo::FaultBound& f = *bound;
+    out << "  " << f.name << ", " << util::number_text(f.length / 1000.0, 3) << " km: M " << fixed(f.estimate.magnitude, 2) << " ± "
+        << fixed(f.estimate.sd, 2) << (f.estimate.extrapolated ? " (length outside the regression's data, extrapolated)" : "")
+        << "\n";
+  }
+  if (bounds.size() < s.fault_bounds.size())
+    out << "  ... " << s.fault_bounds.size() - bounds.size() << " more faults in catalog_summary.json\n";
+  if (!s.fault_bounds.empty()) out << "  (" << s.regression << "; rupture of the whole fault)\n";
+}
+
+// The seismogenic index (Shapiro et al. 2010) and the forecasts for further injection.
+void print_seismogenic_index(std::ostream& out, const seismo::CatalogSummary& s) {
+  out << "\nSeismogenic index (Shapiro et al. 2010): ";
+  if (s.seismogenic_index) {
+    const auto& f = *s.seismogenic_index;
+    out << "Σ = " << fixed(f.sigma, 2) << " ± " << fixed(f.sigma_count_se, 2) << " (count) ± " << fixed(f.sigma_b_se, 2)
+        << " (b), from " << f.events << " events >= Mc while " << util::number_text(f.volume, 4) << " m3 were injected ("
+        << formats::format_iso8601_utc(f.window_start) << " to " << formats::format_iso8601_utc(f.window_end) << ")\n";
+  } else {
+    out << "not fitted (" << s.seismogenic_index_note << ")\n";
+  }
+  if (!s.forecasts.empty()) {
+    out << "Forecast for a further " << util::number_text(s.forecasts.front().planned_volume, 4) << " m3 injected:\n";
+    for (const auto& f : s.forecasts)
+      out << "  M >= " << fixed(f.magnitude, 1) << ": expected " << util::number_text(f.expected, 3) << " events, P(at least one) = "
+          << util::number_text(100.0 * f.probability, 3) << " %\n";
+    out << "  (Poisson, same Σ and b as observed; uncertainty of Σ and b not included)\n";
+  } else {
+    out << "Forecast: " << s.forecast_note << "\n";
+  }
+}
+
+}  // namespace
+
 void print_catalog_summary(std::ostream& out, const formats::CatalogReadResult& read, const seismo::FilterCounts& c,
                    const seismo::CatalogSummary& s, const std::optional<screening::RtView>& rt,
                            std::size_t max_fault_bounds) {
@@ -70,51 +126,8 @@ void print_catalog_summary(std::ostream& out, const formats::CatalogReadResult& 
     out << "not estimated (" << s.b_note << ")\n";
   }
 
-  out << "\nLargest-magnitude bounds\n";
-  if (s.mcgarr_moment) {
-    out << "  McGarr (2014), net volume " << util::number_text(s.net_volume, 4) << " m3, G = " << util::number_text(s.shear_modulus / 1e9, 3)
-        << " GPa: M0 <= " << util::number_text(*s.mcgarr_moment, 4) << " N·m";
-    if (s.mcgarr_mw) out << ", Mw <= " << fixed(*s.mcgarr_mw, 2) << " (IASPEI 2013)";
-    out << "\n";
-  } else {
-    out << "  McGarr (2014): not computed (give --net-volume)\n";
-  }
-  std::vector<const seismo::FaultBound*> bounds;
-  for (const auto& f : s.fault_bounds) bounds.push_back(&f);
-  if (bounds.size() > max_fault_bounds) {
-    std::stable_sort(bounds.begin(), bounds.end(), [](const seismo::FaultBound* a, const seismo::FaultBound* b) {
-      return a->estimate.magnitude > b->estimate.magnitude;
-    });
-    bounds.resize(max_fault_bounds);
-  }
-  for (const seismo::FaultBound* bound : bounds) {
-    const seismo::FaultBound& f = *bound;
-    out << "  " << f.name << ", " << util::number_text(f.length / 1000.0, 3) << " km: M " << fixed(f.estimate.magnitude, 2) << " ± "
-        << fixed(f.estimate.sd, 2) << (f.estimate.extrapolated ? " (length outside the regression's data, extrapolated)" : "")
-        << "\n";
-  }
-  if (bounds.size() < s.fault_bounds.size())
-    out << "  ... " << s.fault_bounds.size() - bounds.size() << " more faults in catalog_summary.json\n";
-  if (!s.fault_bounds.empty()) out << "  (" << s.regression << "; rupture of the whole fault)\n";
-
-  out << "\nSeismogenic index (Shapiro et al. 2010): ";
-  if (s.seismogenic_index) {
-    const auto& f = *s.seismogenic_index;
-    out << "Σ = " << fixed(f.sigma, 2) << " ± " << fixed(f.sigma_count_se, 2) << " (count) ± " << fixed(f.sigma_b_se, 2)
-        << " (b), from " << f.events << " events >= Mc while " << util::number_text(f.volume, 4) << " m3 were injected ("
-        << formats::format_iso8601_utc(f.window_start) << " to " << formats::format_iso8601_utc(f.window_end) << ")\n";
-  } else {
-    out << "not fitted (" << s.seismogenic_index_note << ")\n";
-  }
-  if (!s.forecasts.empty()) {
-    out << "Forecast for a further " << util::number_text(s.forecasts.front().planned_volume, 4) << " m3 injected:\n";
-    for (const auto& f : s.forecasts)
-      out << "  M >= " << fixed(f.magnitude, 1) << ": expected " << util::number_text(f.expected, 3) << " events, P(at least one) = "
-          << util::number_text(100.0 * f.probability, 3) << " %\n";
-    out << "  (Poisson, same Σ and b as observed; uncertainty of Σ and b not included)\n";
-  } else {
-    out << "Forecast: " << s.forecast_note << "\n";
-  }
+  print_magnitude_bounds(out, s, max_fault_bounds);
+  print_seismogenic_index(out, s);
 
   if (rt) {
     out << "\nr-t view around " << (rt->well.empty() ? "the well" : "well " + rt->well) << " at (" << util::number_text(rt->position[0], 8)

@@ -13,12 +13,8 @@ json finite(double v) { return std::isfinite(v) ? json(v) : json(nullptr); }
 
 json note_or_null(const std::string& note) { return note.empty() ? json(nullptr) : json(note); }
 
-}  // namespace
-
-json catalog_summary_json(const formats::CatalogReadResult& read, const seismo::FilterCounts& c,
-                          const seismo::CatalogSummary& s) {
-  json j;
-  j["caution"] = kScreeningCaution;
+// The catalog as read and the filter's counts.
+void read_and_filter(json& j, const formats::CatalogReadResult& read, const seismo::FilterCounts& c) {
   json rejected = json::array();
   for (const auto& r : read.rejected) rejected.push_back({{"line", r.line}, {"reason", r.reason}});
   j["catalog"] = {{"path", read.path},
@@ -40,15 +36,9 @@ json catalog_summary_json(const formats::CatalogReadResult& read, const seismo::
                  {"other_magnitude_type", c.other_magnitude_type},
                  {"unknown_magnitude_type", c.unknown_magnitude_type},
                  {"below_minimum_magnitude", c.below_magnitude}};
-  j["events"] = s.events;
-  j["first_time"] = s.first_time ? json(formats::format_iso8601_utc(*s.first_time)) : json(nullptr);
-  j["last_time"] = s.last_time ? json(formats::format_iso8601_utc(*s.last_time)) : json(nullptr);
-  j["magnitude_min"] = s.min_magnitude ? finite(*s.min_magnitude) : json(nullptr);
-  j["magnitude_max"] = s.max_magnitude ? finite(*s.max_magnitude) : json(nullptr);
-  json fmd = json::array();
-  for (const auto& b : s.fmd) fmd.push_back({{"magnitude", b.centre}, {"count", b.count}});
-  j["frequency_magnitude"] = fmd;
+}
 
+json completeness_json(const seismo::CatalogSummary& s) {
   json mc = {{"method", s.mc_given ? "given" : "maximum curvature (Wiemer & Wyss 2000)"},
              {"mc", s.has_mc ? finite(s.mc) : json(nullptr)},
              {"events_at_or_above_mc", s.events_at_or_above_mc},
@@ -57,8 +47,10 @@ json catalog_summary_json(const formats::CatalogReadResult& read, const seismo::
     mc["mc_maximum_curvature"] = s.completeness->mc_curvature;
     mc["correction"] = s.completeness->correction;
   }
-  j["completeness"] = mc;
+  return mc;
+}
 
+json b_value_json(const seismo::CatalogSummary& s) {
   json b = {{"method", "Aki (1965) maximum likelihood, Utsu binning correction; sigma Shi & Bolt (1982)"},
             {"note", note_or_null(s.b_note)}};
   if (s.b) {
@@ -77,17 +69,10 @@ json catalog_summary_json(const formats::CatalogReadResult& read, const seismo::
                       {"resamples", s.bootstrap->resamples},   {"seed", s.bootstrap->seed}};
   else if (!s.bootstrap_note.empty())
     b["bootstrap"] = {{"note", s.bootstrap_note}};
-  j["b_value"] = b;
+  return b;
+}
 
-  if (s.mcgarr_moment)
-    j["mcgarr_bound"] = {{"method", "McGarr (2014) M0 <= G dV; Mw = (2/3)(log10 M0 - 9.1) (IASPEI 2013)"},
-                         {"net_volume_m3", s.net_volume},
-                         {"shear_modulus_pa", s.shear_modulus},
-                         {"max_moment_nm", finite(*s.mcgarr_moment)},
-                         {"max_mw", s.mcgarr_mw ? finite(*s.mcgarr_mw) : json(nullptr)}};
-  else
-    j["mcgarr_bound"] = nullptr;
-
+json seismogenic_index_json(const seismo::CatalogSummary& s) {
   json si = {{"method", "Shapiro et al. (2010), Poisson maximum likelihood"},
              {"note", note_or_null(s.seismogenic_index_note)}};
   if (s.seismogenic_index) {
@@ -102,7 +87,37 @@ json catalog_summary_json(const formats::CatalogReadResult& read, const seismo::
   } else {
     si["sigma"] = nullptr;
   }
-  j["seismogenic_index"] = si;
+  return si;
+}
+
+}  // namespace
+
+json catalog_summary_json(const formats::CatalogReadResult& read, const seismo::FilterCounts& c,
+                          const seismo::CatalogSummary& s) {
+  json j;
+  j["caution"] = kScreeningCaution;
+  read_and_filter(j, read, c);
+  j["events"] = s.events;
+  j["first_time"] = s.first_time ? json(formats::format_iso8601_utc(*s.first_time)) : json(nullptr);
+  j["last_time"] = s.last_time ? json(formats::format_iso8601_utc(*s.last_time)) : json(nullptr);
+  j["magnitude_min"] = s.min_magnitude ? finite(*s.min_magnitude) : json(nullptr);
+  j["magnitude_max"] = s.max_magnitude ? finite(*s.max_magnitude) : json(nullptr);
+  json fmd = json::array();
+  for (const auto& b : s.fmd) fmd.push_back({{"magnitude", b.centre}, {"count", b.count}});
+  j["frequency_magnitude"] = fmd;
+
+  j["completeness"] = completeness_json(s);
+  j["b_value"] = b_value_json(s);
+  if (s.mcgarr_moment)
+    j["mcgarr_bound"] = {{"method", "McGarr (2014) M0 <= G dV; Mw = (2/3)(log10 M0 - 9.1) (IASPEI 2013)"},
+                         {"net_volume_m3", s.net_volume},
+                         {"shear_modulus_pa", s.shear_modulus},
+                         {"max_moment_nm", finite(*s.mcgarr_moment)},
+                         {"max_mw", s.mcgarr_mw ? finite(*s.mcgarr_mw) : json(nullptr)}};
+  else
+    j["mcgarr_bound"] = nullptr;
+
+  j["seismogenic_index"] = seismogenic_index_json(s);
   json fc = json::array();
   for (const auto& f : s.forecasts)
     fc.push_back({{"magnitude", f.magnitude},
