@@ -1,8 +1,6 @@
 #include "outputs/catalog_review_files.hpp"
 
 #include <algorithm>
-#include <array>
-#include <map>
 #include <sstream>
 
 #include "core/units/units.hpp"
@@ -145,20 +143,14 @@ std::string events_csv(const scenario::ResolvedScenario& s, const screening::Pre
 void write_rate_tables(const formats::RunFolder& folder, const scenario::ResolvedScenario& s,
                        const screening::PreparedRun& p, const screening::CatalogReview& v) {
   const double yr = units::kYear;
+  const std::size_t K = s.output.times.size();
   std::ostringstream t;
   t << "segment_id,fault_id,date,dcff_MPa,background_rate_per_year,rate_per_year,rate_ratio,"
        "expected_events,background_expected_events\n";
-  // Per fault: rates and counts summed over its segments, largest ΔCFF.
-  std::map<std::string, std::vector<std::array<double, 5>>> faults;
-  std::vector<std::string> order;
-  const std::size_t K = s.output.times.size();
   for (std::size_t i = 0; i < v.rates.size(); ++i) {
     const auto& r = v.rates[i];
     const auto& sg = p.segments[i];
-    auto [it, fresh] = faults.try_emplace(sg.fault_id, std::vector<std::array<double, 5>>(K, {0, 0, 0, 0, 0}));
-    if (fresh) order.push_back(sg.fault_id);
     for (std::size_t k = 0; k < K; ++k) {
-      const double bg = r.background_rate * std::max(0.0, s.output.times[k] - r.history_start);
       t << csv_field(sg.segment_id) << "," << csv_field(sg.fault_id) << ","
         << util::format_iso_date(s.output.dates[k]) << ",";
       if (r.samples.empty()) {
@@ -168,26 +160,21 @@ void write_rate_tables(const formats::RunFolder& folder, const scenario::Resolve
       const auto& q = r.samples[k];
       t << fixed_decimals(r.dcff[k] / kMPa, 6) << "," << fixed_decimals(r.background_rate * yr, 6) << ","
         << fixed_decimals(q.rate * yr, 6) << "," << fixed_decimals(q.rate / r.background_rate, 6) << ","
-        << fixed_decimals(q.expected, 6) << "," << fixed_decimals(bg, 6) << "\n";
-      auto& a = it->second[k];
-      a[0] = std::max(a[0], r.dcff[k]);
-      a[1] += r.background_rate;
-      a[2] += q.rate;
-      a[3] += q.expected;
-      a[4] += bg;
+        << fixed_decimals(q.expected, 6) << "," << fixed_decimals(r.background_expected[k], 6) << "\n";
     }
   }
   write_text_file(folder.output("catalog", "seismicity_rate.csv"), t.str());
   std::ostringstream ft;
   ft << "fault_id,date,max_dcff_MPa,background_rate_per_year,rate_per_year,rate_ratio,expected_events,"
         "background_expected_events\n";
-  for (const auto& id : order)
+  for (const auto& f : v.fault_rates)
     for (std::size_t k = 0; k < K; ++k) {
-      const auto& a = faults[id][k];
-      ft << csv_field(id) << "," << util::format_iso_date(s.output.dates[k]) << "," << fixed_decimals(a[0] / kMPa, 6)
-         << "," << fixed_decimals(a[1] * yr, 6) << "," << fixed_decimals(a[2] * yr, 6) << ","
-         << (a[1] > 0 ? fixed_decimals(a[2] / a[1], 6) : "") << "," << fixed_decimals(a[3], 6) << ","
-         << fixed_decimals(a[4], 6) << "\n";
+      const auto& a = f.samples[k];
+      ft << csv_field(f.fault_id) << "," << util::format_iso_date(s.output.dates[k]) << ","
+         << fixed_decimals(a.max_dcff / kMPa, 6) << "," << fixed_decimals(a.background_rate * yr, 6) << ","
+         << fixed_decimals(a.rate * yr, 6) << ","
+         << (a.background_rate > 0 ? fixed_decimals(a.rate / a.background_rate, 6) : "") << ","
+         << fixed_decimals(a.expected, 6) << "," << fixed_decimals(a.background_expected, 6) << "\n";
     }
   write_text_file(folder.output("catalog", "seismicity_rate_faults.csv"), ft.str());
 }

@@ -178,6 +178,27 @@ void review_events(CatalogReview& v, const scenario::ResolvedScenario& s, const 
   v.footprint = seismo::footprint_count(area_dp, v.spec.footprint_threshold, std::clamp(mean_f, 0.0, 1.0));
 }
 
+// Per fault: the rates and expected counts of its segments summed, the largest ΔCFF.
+void fault_rates(CatalogReview& v, const PreparedRun& p, std::size_t K) {
+  std::map<std::string, std::size_t> index;
+  for (std::size_t i = 0; i < v.rates.size(); ++i) {
+    const auto& r = v.rates[i];
+    const std::string& id = p.segments[i].fault_id;
+    const auto [it, fresh] = index.try_emplace(id, v.fault_rates.size());
+    if (fresh) v.fault_rates.push_back({id, std::vector<FaultRateSample>(K)});
+    if (r.samples.empty()) continue;
+    auto& f = v.fault_rates[it->second];
+    for (std::size_t k = 0; k < K; ++k) {
+      auto& a = f.samples[k];
+      a.max_dcff = std::max(a.max_dcff, r.dcff[k]);
+      a.background_rate += r.background_rate;
+      a.rate += r.samples[k].rate;
+      a.expected += r.samples[k].expected;
+      a.background_expected += r.background_expected[k];
+    }
+  }
+}
+
 void review_rates(CatalogReview& v, const scenario::ResolvedScenario& s, const PreparedRun& p, const screen::ScreenResult& r) {
   if (!v.spec.rate_state) return;
   for (std::size_t i = 0; i < p.segments.size(); ++i) {
@@ -203,8 +224,10 @@ void review_rates(CatalogReview& v, const scenario::ResolvedScenario& s, const P
     } catch (const NumericalError& e) {
       sr.note = e.what();
     }
+    for (double t : s.output.times) sr.background_expected.push_back(sr.background_rate * std::max(0.0, t - sr.history_start));
     v.rates.push_back(std::move(sr));
   }
+  fault_rates(v, p, s.output.times.size());
 }
 
 }  // namespace

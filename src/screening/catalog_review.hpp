@@ -59,7 +59,20 @@ struct SegmentRate {
   std::vector<seismo::RateSample> samples;  // at the output times
   std::vector<double> dcff;               // Pa, ΔCFF = μ Δp at the output times
   double history_start = 0;               // s: expected counts are from here
+  std::vector<double> background_expected;  // events expected at the background rate by each output time
   std::string note;                       // why it is missing (samples empty)
+};
+
+// A fault's seismicity-rate response: its segments' rates and expected counts summed, and their
+// largest ΔCFF, at each output time (segments without a response are left out).
+struct FaultRateSample {
+  double max_dcff = 0;             // Pa
+  double background_rate = 0, rate = 0;  // events/s
+  double expected = 0, background_expected = 0;
+};
+struct FaultRate {
+  std::string fault_id;
+  std::vector<FaultRateSample> samples;  // at the output times
 };
 
 struct CatalogReview {
@@ -75,6 +88,7 @@ struct CatalogReview {
   geometry::RasterGrid footprint_grid;
   std::optional<RtView> rt;            // around the r-t well (working CRS)
   std::vector<SegmentRate> rates;      // per segment, when [catalog.rate_state] is given
+  std::vector<FaultRate> fault_rates;  // per fault in order of first appearance, with rates
   std::vector<std::string> segment_ids, segment_faults;  // of the prepared run's segments
   double catalog_end = 0;              // s: the end of the reviewed period (for forecasts)
   std::vector<std::string> assumptions;
