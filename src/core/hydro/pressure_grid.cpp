@@ -206,6 +206,238 @@ void validate(const PressureGridOptions& options) {
     throw InputError("max_table_bytes", number_text(options.max_table_bytes), "at least 1e6 bytes");
 }
 
+// Rate scale per source and in total: max|q| over its steps (after `scale`) and its first step.
+struct RateScales {
+  std::vector<double> qmax;   // m³/s
+  std::vector<double> first;  // s, start of the first step (0 without steps)
+  double qsum = 0.0;          // Σ max|q|
+};
+
+RateScales rate_scales(const std::vector<Source>& sources) {
+  const std::size_t ns = sources.size();
+  RateScales out{std::vector<double>(ns, 0.0), std::vector<double>(ns, 0.0)};
+  for (std::size_t w = 0; w < ns; ++w) {
+    for (double q : *sources[w].rate) out.qmax[w] = std::max(out.qmax[w], std::abs(q * sources[w].scale));
+    if (!sources[w].start->empty()) out.first[w] = sources[w].start->front();
+  }
+  out.qsum = std::accumulate(out.qmax.begin(), out.qmax.end(), 0.0);
+  return out;
+}
+
+// The sources kept for the raster, in input order.
+struct Reach {
+  std::vector<char> reach;        // per source: 1 when kept
+  std::vector<std::size_t> kept;  // the kept sources
+  double qsum = 0.0;              // Σ max|q| over the kept sources
+  double rw2_min = 0.0;           // smallest clamp radius² among them
+};
+
+// Sources whose cut-off radius at the last time does not reach the raster (pixel centres) are
+// dropped altogether: each stays within its share of ε/4 everywhere on it.
+Reach sources_in_reach(const GridGeometry& geometry, double d, const std::vector<Source>& sources,
+                       const RateScales& scales, double u_cut, double t_last) {
+  const std::size_t nx = geometry.nx, ny = geometry.ny, ns = sources.size();
+  const double bx0 = std::min(geometry.centre_x(0), geometry.centre_x(nx - 1));
+  const double bx1 = std::max(geometry.centre_x(0), geometry.centre_x(nx - 1));
+  const double by0 = std::min(geometry.centre_y(0), geometry.centre_y(ny - 1));
+  const double by1 = std::max(geometry.centre_y(0), geometry.centre_y(ny - 1));
+  Reach out;
+  out.reach.assign(ns, 0);
+  for (std::size_t w = 0; w < ns; ++w) {
+    const double theta = t_last - scales.first[w];
+    if (scales.qmax[w] == 0.0 || sources[w].start->empty() || theta <= 0.0) continue;
+    const Source& s = sources[w];
+    const double gx = std::max({bx0 - s.x, 0.0, s.x - bx1}), gy = std::max({by0 - s.y, 0.0, s.y - by1});
+    const double r2cut = 4.0 * d * theta * u_cut;
+    if (gx * gx + gy * gy > r2cut || r2cut <= s.rw2) continue;
+    out.reach[w] = 1;
+    out.kept.push_back(w);
+    out.qsum += scales.qmax[w];
+    out.rw2_min = out.kept.size() == 1 ? s.rw2 : std::min(out.rw2_min, s.rw2);
+  }
+  return out;
+}
+
+// Profile nodes s_n = s0 + n h in ln r from the smallest well radius, and the cut-off radius² of
+// each source at time t, R_w² = 4 D θ_w u* with θ_w the time since its first step.
+struct NodeLayout {
+  double s0, h, rw2_min;
+  double d, u_cut;
+  const RateScales& scales;
+  const Reach& reach;
+
+  // Profile nodes for cut-off radius² r2cut (≥ 2 nodes; node K−1 at or beyond R).
+  std::size_t nodes_for(double r2cut) const {
+    const double smax = 0.5 * std::log(std::max(r2cut, rw2_min));
+    return static_cast<std::size_t>(std::floor((smax - s0) / h)) + 2;
+  }
+  double cut_radius2(std::size_t w, double t) const {
+    const double theta = t - scales.first[w];
+    if (!reach.reach[w] || theta <= 0.0) return -1.0;  // inactive
+    return 4.0 * d * theta * u_cut;
+  }
+};
+
+// Union of the kept sources' step times, and their rate increments on it (row r: kept[r]).
+struct UnionSteps {
+  std::vector<double> tau;  // s, increasing
+  Eigen::MatrixXd dq;       // m³/s, kept × tau
+};
+
+UnionSteps union_steps(const std::vector<Source>& sources, const std::vector<std::size_t>& kept) {
+  UnionSteps out;
+  std::vector<double>& tau = out.tau;
+  for (std::size_t w : kept) tau.insert(tau.end(), sources[w].start->begin(), sources[w].start->end());
+  std::sort(tau.begin(), tau.end());
+  tau.erase(std::unique(tau.begin(), tau.end()), tau.end());
+  out.dq = Eigen::MatrixXd::Zero(Eigen::Index(kept.size()), Eigen::Index(tau.size()));
+  for (std::size_t r = 0; r < kept.size(); ++r) {
+    const Source& src = sources[kept[r]];
+    double prev = 0.0;
+    for (std::size_t j = 0; j < src.start->size(); ++j) {
+      const auto col = std::lower_bound(tau.begin(), tau.end(), (*src.start)[j]) - tau.begin();
+      out.dq(Eigen::Index(r), col) += src.scale * ((*src.rate)[j] - prev);
+      prev = (*src.rate)[j];
+    }
+  }
+  return out;
+}
+
+// Output times in increasing order (equal times keep their input order).
+std::vector<std::size_t> time_order(std::span<const double> times) {
+  std::vector<std::size_t> order(times.size());
+  std::iota(order.begin(), order.end(), std::size_t{0});
+  std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return times[a] < times[b]; });
+  return order;
+}
+
+// Output times per block, so that one block's tables stay within max_table_bytes.
+std::size_t times_per_block(const NodeLayout& layout, double t_last, std::size_t n_times,
+                            double max_table_bytes) {
+  double bytes_per_time = 0.0;
+  for (std::size_t w : layout.reach.kept) bytes_per_time += 16.0 * double(layout.nodes_for(layout.cut_radius2(w, t_last)));
+  return std::max<std::size_t>(
+      1, std::min<std::size_t>(n_times, std::size_t(max_table_bytes / std::max(bytes_per_time, 1.0))));
+}
+
+// One block of output times, times[order[b0 + kk]] for kk < nt, and per source: its cut-off
+// radius² at the block's last time, its profile nodes (0: nothing to add in this block), its
+// first output time after its first step, and where its table starts in the block's array.
+struct TimeBlock {
+  std::span<const double> times;
+  const std::vector<std::size_t>& order;
+  std::size_t b0, nt;
+  std::vector<double> r2cut;
+  std::vector<std::size_t> nodes, offset, k0;
+  std::size_t k_max = 2;  // nodes of the longest profile
+
+  double time(std::size_t kk) const { return times[order[b0 + kk]]; }
+};
+
+TimeBlock time_block(const NodeLayout& layout, const std::vector<Source>& sources,
+                     std::span<const double> times, const std::vector<std::size_t>& order,
+                     std::size_t b0, std::size_t block) {
+  const std::size_t ns = sources.size(), nt = std::min(block, order.size() - b0);
+  TimeBlock tb{times, order, b0, nt, std::vector<double>(ns), std::vector<std::size_t>(ns, 0),
+               std::vector<std::size_t>(ns + 1, 0), std::vector<std::size_t>(ns, nt)};
+  const double t_hi = tb.time(nt - 1);
+  for (std::size_t w = 0; w < ns; ++w) {
+    tb.r2cut[w] = layout.cut_radius2(w, t_hi);
+    // A source that stays below its share even at the well face contributes nothing here.
+    if (tb.r2cut[w] > sources[w].rw2) tb.nodes[w] = layout.nodes_for(tb.r2cut[w]);
+    tb.k0[w] = 0;
+    while (tb.k0[w] < nt && tb.time(tb.k0[w]) <= layout.scales.first[w]) ++tb.k0[w];
+    if (tb.k0[w] == nt) tb.nodes[w] = 0;
+    tb.offset[w + 1] = tb.offset[w] + tb.nodes[w] * 2 * (nt - tb.k0[w]);
+    tb.k_max = std::max(tb.k_max, tb.nodes[w]);
+  }
+  return tb;
+}
+
+// Tables: for each output time, E1 and its s-derivative at every node and union step, then
+// matrix products with the rate increments give every kept source's profile. Steps are taken
+// in chunks to bound the scratch memory when the union of step times is long.
+// Source w's table (at tb.offset[w]): per node, [C f(t_k0..), C h f'(t_k0..)] (see TileJob).
+std::vector<double> profile_tables(const TimeBlock& tb, const NodeLayout& layout, const UnionSteps& steps,
+                                   double c) {
+  std::vector<double> table(tb.offset.back(), 0.0);
+  const std::vector<double>& tau = steps.tau;
+  const std::vector<std::size_t>& kept = layout.reach.kept;
+  const std::size_t nt = tb.nt, k_max = tb.k_max;
+  const double s0 = layout.s0, h = layout.h, d = layout.d;
+#pragma omp parallel for schedule(dynamic)
+  for (std::size_t kk = 0; kk < nt; ++kk) {
+    const double t = tb.time(kk);
+    const std::size_t nj = static_cast<std::size_t>(std::lower_bound(tau.begin(), tau.end(), t) - tau.begin());
+    if (nj == 0) continue;
+    const auto cols = static_cast<Eigen::Index>(k_max);
+    Eigen::MatrixXd f = Eigen::MatrixXd::Zero(steps.dq.rows(), cols), fd = Eigen::MatrixXd::Zero(steps.dq.rows(), cols);
+    std::vector<double> r2n(k_max);
+    for (std::size_t n = 0; n < k_max; ++n) r2n[n] = std::exp(2.0 * (s0 + double(n) * h));
+    for (std::size_t c0 = 0; c0 < nj; c0 += kStepChunk) {
+      const std::size_t nc = std::min(kStepChunk, nj - c0);
+      RowMatrix e(static_cast<Eigen::Index>(nc), cols), g(static_cast<Eigen::Index>(nc), cols);
+      for (std::size_t jj = 0; jj < nc; ++jj) {
+        const double a = 1.0 / (4.0 * d * (t - tau[c0 + jj]));
+        double* er = e.data() + jj * k_max;
+        double* gr = g.data() + jj * k_max;
+        for (std::size_t n = 0; n < k_max; ++n) gr[n] = r2n[n] * a;  // u
+        well_function(gr, er, k_max);
+        for (std::size_t n = 0; n < k_max; ++n) gr[n] = -2.0 * h * std::exp(-gr[n]);  // h · dE1/ds
+      }
+      const auto block_cols = steps.dq.middleCols(static_cast<Eigen::Index>(c0), static_cast<Eigen::Index>(nc));
+      f.noalias() += block_cols * e;
+      fd.noalias() += block_cols * g;
+    }
+    for (std::size_t r = 0; r < kept.size(); ++r) {
+      const std::size_t w = kept[r];
+      if (kk < tb.k0[w] || tb.nodes[w] == 0) continue;
+      const std::size_t m = nt - tb.k0[w], col = kk - tb.k0[w];
+      double* tw = table.data() + tb.offset[w];
+      for (std::size_t n = 0; n < tb.nodes[w]; ++n) {
+        tw[n * 2 * m + col] = c * f(Eigen::Index(r), Eigen::Index(n));
+        tw[n * 2 * m + m + col] = c * fd(Eigen::Index(r), Eigen::Index(n));
+      }
+    }
+  }
+  return table;
+}
+
+// Pixels: tiles in parallel; each pixel sums its sources in input order (deterministic).
+void evaluate_tiles(const GridGeometry& geometry, const std::vector<Source>& sources, const TimeBlock& tb,
+                    const NodeLayout& layout, const std::vector<double>& table, std::vector<double>& values) {
+  const std::size_t nx = geometry.nx, ny = geometry.ny, ns = sources.size(), nt = tb.nt;
+  const std::size_t tiles_x = (nx + kTile - 1) / kTile, tiles_y = (ny + kTile - 1) / kTile;
+  const double s0 = layout.s0, h = layout.h;
+#pragma omp parallel for schedule(dynamic)
+  for (std::size_t tile = 0; tile < tiles_x * tiles_y; ++tile) {
+    const std::size_t i0 = (tile % tiles_x) * kTile, j0 = (tile / tiles_x) * kTile;
+    const std::size_t i1 = std::min(i0 + kTile, nx), j1 = std::min(j0 + kTile, ny);
+    const std::size_t np = (i1 - i0) * (j1 - j0);
+    std::vector<double> px(np), py(np), acc(np * nt, 0.0);
+    for (std::size_t j = j0, p = 0; j < j1; ++j)
+      for (std::size_t i = i0; i < i1; ++i, ++p) {
+        px[p] = geometry.centre_x(i);
+        py[p] = geometry.centre_y(j);
+      }
+    const double xlo = std::min(px.front(), px.back()), xhi = std::max(px.front(), px.back());
+    const double ylo = std::min(py.front(), py.back()), yhi = std::max(py.front(), py.back());
+    for (std::size_t w = 0; w < ns; ++w) {
+      if (tb.nodes[w] == 0) continue;
+      const Source& s = sources[w];
+      const double gx = std::max({xlo - s.x, 0.0, s.x - xhi}), gy = std::max({ylo - s.y, 0.0, s.y - yhi});
+      if (gx * gx + gy * gy > tb.r2cut[w]) continue;  // the whole tile is beyond the cut-off
+      accumulate(TileJob{px.data(), py.data(), np, s.x, s.y, s.rw2, tb.r2cut[w], s0, 1.0 / h,
+                         tb.nodes[w], table.data() + tb.offset[w], tb.k0[w], nt, acc.data()});
+    }
+    for (std::size_t kk = 0; kk < nt; ++kk) {
+      const std::size_t k = tb.order[tb.b0 + kk];
+      for (std::size_t j = j0, p = 0; j < j1; ++j)
+        for (std::size_t i = i0; i < i1; ++i, ++p) values[(k * ny + j) * nx + i] = acc[p * nt + kk];
+    }
+  }
+}
+
 // The fast path proper, on validated input; pixels with inside == 0 become NaN.
 PressureGrid fast_grid(const GridGeometry& geometry, double c, double d, const std::vector<Source>& sources,
                        std::span<const double> times, const PressureGridOptions& options,
@@ -213,179 +445,37 @@ PressureGrid fast_grid(const GridGeometry& geometry, double c, double d, const s
   PressureGrid out = empty_grid(geometry, times);
   const double eps = options.relative_tolerance * options.threshold;
   out.error_bound = eps;
-  const std::size_t nx = geometry.nx, ny = geometry.ny, ns = sources.size();
-
-  // Rate scale per source and in total.
-  std::vector<double> qmax(ns, 0.0), first(ns, 0.0);
-  for (std::size_t w = 0; w < ns; ++w) {
-    for (double q : *sources[w].rate) qmax[w] = std::max(qmax[w], std::abs(q * sources[w].scale));
-    if (!sources[w].start->empty()) first[w] = sources[w].start->front();
-  }
-  const double qsum = std::accumulate(qmax.begin(), qmax.end(), 0.0);
-  if (qsum == 0.0 || times.empty()) {
+  const RateScales scales = rate_scales(sources);
+  if (scales.qsum == 0.0 || times.empty()) {
     mask_outside(out, inside);
     return out;
   }
 
   // Cut-off: source w is dropped beyond R_w with C max|q_w| E1(R_w²/(4 D θ_w)) = ε/4 · max|q_w|/Σ max|q|,
   // i.e. E1(u*) = ε/(4 C Σ max|q|), the same u* for every source.
-  const double u_cut = e1_inverse(0.25 * eps / (c * qsum));
+  const double u_cut = e1_inverse(0.25 * eps / (c * scales.qsum));
   const double t_last = *std::max_element(times.begin(), times.end());
-  // Sources whose cut-off radius at the last time does not reach the raster (pixel centres) are
-  // dropped altogether: each stays within its share of ε/4 everywhere on it.
-  const double bx0 = std::min(geometry.centre_x(0), geometry.centre_x(nx - 1));
-  const double bx1 = std::max(geometry.centre_x(0), geometry.centre_x(nx - 1));
-  const double by0 = std::min(geometry.centre_y(0), geometry.centre_y(ny - 1));
-  const double by1 = std::max(geometry.centre_y(0), geometry.centre_y(ny - 1));
-  std::vector<std::size_t> kept;
-  std::vector<char> reach(ns, 0);
-  double qsum_reach = 0.0, rw2_min = 0.0;
-  for (std::size_t w = 0; w < ns; ++w) {
-    const double theta = t_last - first[w];
-    if (qmax[w] == 0.0 || sources[w].start->empty() || theta <= 0.0) continue;
-    const Source& s = sources[w];
-    const double gx = std::max({bx0 - s.x, 0.0, s.x - bx1}), gy = std::max({by0 - s.y, 0.0, s.y - by1});
-    const double r2cut = 4.0 * d * theta * u_cut;
-    if (gx * gx + gy * gy > r2cut || r2cut <= s.rw2) continue;
-    reach[w] = 1;
-    kept.push_back(w);
-    qsum_reach += qmax[w];
-    rw2_min = kept.size() == 1 ? s.rw2 : std::min(rw2_min, s.rw2);
-  }
-  if (kept.empty()) {
+  const Reach reach = sources_in_reach(geometry, d, sources, scales, u_cut, t_last);
+  if (reach.kept.empty()) {
     mask_outside(out, inside);
     return out;
   }
 
   // Node spacing in ln r: Σ_w kHermiteFactor h⁴ C max|q_w| ≤ ε/2 over the sources kept; nodes
   // from the smallest well radius.
-  const double h = std::min(0.05, std::pow(0.5 * eps / (kHermiteFactor * c * qsum_reach), 0.25));
+  const double h = std::min(0.05, std::pow(0.5 * eps / (kHermiteFactor * c * reach.qsum), 0.25));
   out.node_spacing = h;
-  const double s0 = 0.5 * std::log(rw2_min);
-
-  // Union of the kept sources' step times, and their rate increments on it (row r: kept[r]).
-  std::vector<double> tau;
-  for (std::size_t w : kept) tau.insert(tau.end(), sources[w].start->begin(), sources[w].start->end());
-  std::sort(tau.begin(), tau.end());
-  tau.erase(std::unique(tau.begin(), tau.end()), tau.end());
-  Eigen::MatrixXd dq = Eigen::MatrixXd::Zero(Eigen::Index(kept.size()), Eigen::Index(tau.size()));
-  for (std::size_t r = 0; r < kept.size(); ++r) {
-    const Source& src = sources[kept[r]];
-    double prev = 0.0;
-    for (std::size_t j = 0; j < src.start->size(); ++j) {
-      const auto col = std::lower_bound(tau.begin(), tau.end(), (*src.start)[j]) - tau.begin();
-      dq(Eigen::Index(r), col) += src.scale * ((*src.rate)[j] - prev);
-      prev = (*src.rate)[j];
-    }
-  }
+  const NodeLayout layout{0.5 * std::log(reach.rw2_min), h, reach.rw2_min, d, u_cut, scales, reach};
+  const UnionSteps steps = union_steps(sources, reach.kept);
 
   // Output times in increasing order, processed in blocks that keep the tables in memory bounds.
-  std::vector<std::size_t> order(times.size());
-  std::iota(order.begin(), order.end(), std::size_t{0});
-  std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return times[a] < times[b]; });
-
-  // Profile nodes for cut-off radius² r2cut (≥ 2 nodes; node K−1 at or beyond R).
-  auto nodes_for = [&](double r2cut) {
-    const double smax = 0.5 * std::log(std::max(r2cut, rw2_min));
-    return static_cast<std::size_t>(std::floor((smax - s0) / h)) + 2;
-  };
-  auto cut_radius2 = [&](std::size_t w, double t) {
-    const double theta = t - first[w];
-    if (!reach[w] || theta <= 0.0) return -1.0;  // inactive
-    return 4.0 * d * theta * u_cut;
-  };
-  double bytes_per_time = 0.0;
-  for (std::size_t w : kept) bytes_per_time += 16.0 * double(nodes_for(cut_radius2(w, t_last)));
-  const std::size_t block = std::max<std::size_t>(
-      1, std::min<std::size_t>(times.size(), std::size_t(options.max_table_bytes / std::max(bytes_per_time, 1.0))));
-
-  const std::size_t tiles_x = (nx + kTile - 1) / kTile, tiles_y = (ny + kTile - 1) / kTile;
+  const std::vector<std::size_t> order = time_order(times);
+  const std::size_t block = times_per_block(layout, t_last, times.size(), options.max_table_bytes);
   for (std::size_t b0 = 0; b0 < order.size(); b0 += block) {
-    const std::size_t nt = std::min(block, order.size() - b0);
-    const double t_hi = times[order[b0 + nt - 1]];
-    std::vector<double> r2cut(ns);
-    std::vector<std::size_t> nodes(ns, 0), offset(ns + 1, 0), k0(ns, nt);
-    std::size_t k_max = 2;
-    for (std::size_t w = 0; w < ns; ++w) {
-      r2cut[w] = cut_radius2(w, t_hi);
-      // A source that stays below its share even at the well face contributes nothing here.
-      if (r2cut[w] > sources[w].rw2) nodes[w] = nodes_for(r2cut[w]);
-      k0[w] = 0;
-      while (k0[w] < nt && times[order[b0 + k0[w]]] <= first[w]) ++k0[w];
-      if (k0[w] == nt) nodes[w] = 0;
-      offset[w + 1] = offset[w] + nodes[w] * 2 * (nt - k0[w]);
-      k_max = std::max(k_max, nodes[w]);
-      out.profile_nodes += nodes[w];
-    }
-    std::vector<double> table(offset[ns], 0.0);
-
-    // Tables: for each output time, E1 and its s-derivative at every node and union step, then
-    // matrix products with the rate increments give every kept source's profile. Steps are taken
-    // in chunks to bound the scratch memory when the union of step times is long.
-#pragma omp parallel for schedule(dynamic)
-    for (std::size_t kk = 0; kk < nt; ++kk) {
-      const double t = times[order[b0 + kk]];
-      const std::size_t nj = static_cast<std::size_t>(std::lower_bound(tau.begin(), tau.end(), t) - tau.begin());
-      if (nj == 0) continue;
-      const auto cols = static_cast<Eigen::Index>(k_max);
-      Eigen::MatrixXd f = Eigen::MatrixXd::Zero(dq.rows(), cols), fd = Eigen::MatrixXd::Zero(dq.rows(), cols);
-      std::vector<double> r2n(k_max);
-      for (std::size_t n = 0; n < k_max; ++n) r2n[n] = std::exp(2.0 * (s0 + double(n) * h));
-      for (std::size_t c0 = 0; c0 < nj; c0 += kStepChunk) {
-        const std::size_t nc = std::min(kStepChunk, nj - c0);
-        RowMatrix e(static_cast<Eigen::Index>(nc), cols), g(static_cast<Eigen::Index>(nc), cols);
-        for (std::size_t jj = 0; jj < nc; ++jj) {
-          const double a = 1.0 / (4.0 * d * (t - tau[c0 + jj]));
-          double* er = e.data() + jj * k_max;
-          double* gr = g.data() + jj * k_max;
-          for (std::size_t n = 0; n < k_max; ++n) gr[n] = r2n[n] * a;  // u
-          well_function(gr, er, k_max);
-          for (std::size_t n = 0; n < k_max; ++n) gr[n] = -2.0 * h * std::exp(-gr[n]);  // h · dE1/ds
-        }
-        const auto block_cols = dq.middleCols(static_cast<Eigen::Index>(c0), static_cast<Eigen::Index>(nc));
-        f.noalias() += block_cols * e;
-        fd.noalias() += block_cols * g;
-      }
-      for (std::size_t r = 0; r < kept.size(); ++r) {
-        const std::size_t w = kept[r];
-        if (kk < k0[w] || nodes[w] == 0) continue;
-        const std::size_t m = nt - k0[w], col = kk - k0[w];
-        double* tw = table.data() + offset[w];
-        for (std::size_t n = 0; n < nodes[w]; ++n) {
-          tw[n * 2 * m + col] = c * f(Eigen::Index(r), Eigen::Index(n));
-          tw[n * 2 * m + m + col] = c * fd(Eigen::Index(r), Eigen::Index(n));
-        }
-      }
-    }
-
-    // Pixels: tiles in parallel; each pixel sums its sources in input order (deterministic).
-#pragma omp parallel for schedule(dynamic)
-    for (std::size_t tile = 0; tile < tiles_x * tiles_y; ++tile) {
-      const std::size_t i0 = (tile % tiles_x) * kTile, j0 = (tile / tiles_x) * kTile;
-      const std::size_t i1 = std::min(i0 + kTile, nx), j1 = std::min(j0 + kTile, ny);
-      const std::size_t np = (i1 - i0) * (j1 - j0);
-      std::vector<double> px(np), py(np), acc(np * nt, 0.0);
-      for (std::size_t j = j0, p = 0; j < j1; ++j)
-        for (std::size_t i = i0; i < i1; ++i, ++p) {
-          px[p] = geometry.centre_x(i);
-          py[p] = geometry.centre_y(j);
-        }
-      const double xlo = std::min(px.front(), px.back()), xhi = std::max(px.front(), px.back());
-      const double ylo = std::min(py.front(), py.back()), yhi = std::max(py.front(), py.back());
-      for (std::size_t w = 0; w < ns; ++w) {
-        if (nodes[w] == 0) continue;
-        const Source& s = sources[w];
-        const double gx = std::max({xlo - s.x, 0.0, s.x - xhi}), gy = std::max({ylo - s.y, 0.0, s.y - yhi});
-        if (gx * gx + gy * gy > r2cut[w]) continue;  // the whole tile is beyond the cut-off
-        accumulate(TileJob{px.data(), py.data(), np, s.x, s.y, s.rw2, r2cut[w], s0, 1.0 / h,
-                           nodes[w], table.data() + offset[w], k0[w], nt, acc.data()});
-      }
-      for (std::size_t kk = 0; kk < nt; ++kk) {
-        const std::size_t k = order[b0 + kk];
-        for (std::size_t j = j0, p = 0; j < j1; ++j)
-          for (std::size_t i = i0; i < i1; ++i, ++p) out.values[(k * ny + j) * nx + i] = acc[p * nt + kk];
-      }
-    }
+    const TimeBlock tb = time_block(layout, sources, times, order, b0, block);
+    for (std::size_t nodes : tb.nodes) out.profile_nodes += nodes;
+    const std::vector<double> table = profile_tables(tb, layout, steps, c);
+    evaluate_tiles(geometry, sources, tb, layout, table, out.values);
   }
   mask_outside(out, inside);
   return out;
