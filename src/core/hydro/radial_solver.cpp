@@ -146,6 +146,130 @@ double reconstruct(const Grid& g, const std::vector<double>& p, double q, double
   return p[i + 1] + flux * c / g.perm[i + 1] * std::log(g.node[i + 1] / r);
 }
 
+// Outer radius of the grid. Infinite-acting: a closed radius far beyond the diffusion length of
+// the whole run, so that its image term is below exp(-16) ~ 1e-7 of the source anywhere requested
+// (the image at distance 2 r_e − r has u ≥ (r_e − r_max)² / (4 D t) ≥ 16).
+double outer_radius(const RadialModel& model, std::span<const double> radii, double t0, double t_max) {
+  double r_e = model.zones.back().outer_radius;
+  if (model.outer == OuterBoundary::infinite) {
+    double d_max = 0.0, r_inner_last = model.well_radius;
+    for (std::size_t j = 0; j < model.zones.size(); ++j) {
+      d_max = std::max(d_max, model.zones[j].permeability / (model.viscosity * model.zones[j].storage));
+      if (j + 1 < model.zones.size()) r_inner_last = model.zones[j].outer_radius;
+    }
+    double r_max = r_inner_last;
+    for (double r : radii) r_max = std::max(r_max, r);
+    const double span = std::max(t_max - t0, 0.0);
+    r_e = std::max(2.0 * r_max, r_max + 8.0 * std::sqrt(d_max * span)) + model.well_radius;
+  }
+  return r_e;
+}
+
+// Output times in increasing order (equal times keep their input order).
+std::vector<std::size_t> time_order(std::span<const double> times) {
+  std::vector<std::size_t> order(times.size());
+  std::iota(order.begin(), order.end(), std::size_t{0});
+  std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return times[a] < times[b]; });
+  return order;
+}
+
+// First step after each rate change: the option, or automatic (0.01 Δr²/D of the innermost cell).
+double first_time_step(const Grid& g, const RadialModel& model, const RadialSolverOptions& options) {
+  const double dt_auto = [&] {
+    const double d0 = g.perm[0] / (model.viscosity * model.zones.front().storage);
+    const double dr = g.face[1] - g.face[0];
+    return 0.01 * dr * dr / d0;
+  }();
+  return options.first_step > 0.0 ? options.first_step : dt_auto;
+}
+
+// The next step from t with the planned dt. Land exactly on the next event; when it is less than
+// two steps away, split the remainder into two halves so that no step is much shorter than its
+// predecessor. `clipped`: the step is not the planned one.
+struct Step {
+  double length;
+  bool clipped;
+};
+
+Step next_step(double t, double dt, double t_event) {
+  double step = dt;
+  bool clipped = false;
+  if (t + dt >= t_event) {
+    step = t_event - t;
+    clipped = true;
+  } else if (t + 2.0 * dt > t_event) {
+    step = 0.5 * (t_event - t);
+    clipped = true;
+  }
+  return {step, clipped};
+}
+
+// Second-order variable-step BDF2 (e.g. Hairer & Wanner, Solving ODEs II, §III.5):
+//   (S/Δt_n) [α p' − β p^n + γ p^{n−1}] = −T p' + q,  ω = Δt_n/Δt_{n−1},
+//   α = (1+2ω)/(1+ω), β = 1+ω, γ = ω²/(1+ω); zero-stable for ω < 1+√2.
+// The first step after a rate change (and after a much shorter step) is backward Euler
+// (α = β = 1, γ = 0). Both conserve mass exactly within a constant-rate period.
+struct Bdf2 {
+  double alpha, beta, gamma;
+};
+
+Bdf2 bdf2_coefficients(bool have_prev, double step, double dt_prev) {
+  const double omega = have_prev ? step / dt_prev : 0.0;
+  const bool bdf2 = have_prev && omega <= 2.4;
+  const double alpha = bdf2 ? (1 + 2 * omega) / (1 + omega) : 1.0;
+  const double beta = bdf2 ? 1 + omega : 1.0;
+  const double gamma = bdf2 ? omega * omega / (1 + omega) : 0.0;
+  return {alpha, beta, gamma};
+}
+
+// Nodal Δp at the current and the previous step, and the tridiagonal system of the next step:
+// a (sub-diagonal), b (diagonal), c (super-diagonal), d (right-hand side).
+struct StepState {
+  std::vector<double> p, p_old, a, b, c, d;
+};
+
+// The implicit step of length `step` at rate q into the well-face cell: fills a, b, c, d.
+void assemble_step(const Grid& g, StepState& s, double step, const Bdf2& k, double q) {
+  const std::size_t n = s.p.size();
+  for (std::size_t i = 0; i < n; ++i) {
+    const double st = g.store[i] / step;
+    const double tw = i > 0 ? g.trans[i] : 0.0;
+    const double te = g.trans[i + 1];
+    s.a[i] = -tw;
+    s.c[i] = i + 1 < n ? -te : 0.0;
+    s.b[i] = k.alpha * st + tw + te;
+    s.d[i] = st * (k.beta * s.p[i] - k.gamma * s.p_old[i]) + (i == 0 ? q : 0.0);
+  }
+}
+
+// Thomas algorithm (diagonally dominant, no pivoting needed); the old p becomes p_old.
+void solve_tridiagonal(StepState& s) {
+  const std::size_t n = s.p.size();
+  std::vector<double>& a = s.a;
+  std::vector<double>& b = s.b;
+  std::vector<double>& c = s.c;
+  std::vector<double>& d = s.d;
+  std::vector<double>& p = s.p;
+  for (std::size_t i = 1; i < n; ++i) {
+    const double w = a[i] / b[i - 1];
+    b[i] -= w * c[i - 1];
+    d[i] -= w * d[i - 1];
+  }
+  s.p_old.swap(p);
+  p[n - 1] = d[n - 1] / b[n - 1];
+  for (std::size_t i = n - 1; i-- > 0;) p[i] = (d[i] - c[i] * p[i + 1]) / b[i];
+}
+
+// Output time k: Δp at every requested radius and the storage-weighted mean over the grid.
+void record(RadialSolution& out, std::size_t k, const Grid& g, const std::vector<double>& p, double q,
+            double total_store, const RadialModel& model) {
+  const std::size_t nr = out.radii.size();
+  for (std::size_t ir = 0; ir < nr; ++ir) out.values[k * nr + ir] = reconstruct(g, p, q, out.radii[ir], model);
+  double s = 0.0;
+  for (std::size_t i = 0; i < p.size(); ++i) s += g.store[i] * p[i];
+  out.mean_change[k] = s / total_store;
+}
+
 }  // namespace
 
 RadialSolution solve_radial_flow(const RadialModel& model, std::span<const double> radii,
@@ -161,48 +285,16 @@ RadialSolution solve_radial_flow(const RadialModel& model, std::span<const doubl
   const std::vector<double>& rates = model.history.rates();
   const double t0 = starts.empty() ? 0.0 : starts.front();
   const double t_max = times.empty() ? t0 : *std::max_element(times.begin(), times.end());
-
-  // Outer radius. Infinite-acting: a closed radius far beyond the diffusion length of the whole
-  // run, so that its image term is below exp(-16) ~ 1e-7 of the source anywhere requested
-  // (the image at distance 2 r_e − r has u ≥ (r_e − r_max)² / (4 D t) ≥ 16).
-  double r_e = model.zones.back().outer_radius;
-  if (model.outer == OuterBoundary::infinite) {
-    double d_max = 0.0, r_inner_last = model.well_radius;
-    for (std::size_t j = 0; j < model.zones.size(); ++j) {
-      d_max = std::max(d_max, model.zones[j].permeability / (model.viscosity * model.zones[j].storage));
-      if (j + 1 < model.zones.size()) r_inner_last = model.zones[j].outer_radius;
-    }
-    double r_max = r_inner_last;
-    for (double r : radii) r_max = std::max(r_max, r);
-    const double span = std::max(t_max - t0, 0.0);
-    r_e = std::max(2.0 * r_max, r_max + 8.0 * std::sqrt(d_max * span)) + model.well_radius;
-  }
+  const double r_e = outer_radius(model, radii, t0, t_max);
   const Grid g = build_grid(model, r_e, options);
   const std::size_t n = g.node.size();
   out.outer_radius = r_e;
   out.cells = n;
   const double total_store = std::accumulate(g.store.begin(), g.store.end(), 0.0);
-
-  // Output times in increasing order.
-  std::vector<std::size_t> order(times.size());
-  std::iota(order.begin(), order.end(), std::size_t{0});
-  std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return times[a] < times[b]; });
-
-  const double dt_auto = [&] {
-    const double d0 = g.perm[0] / (model.viscosity * model.zones.front().storage);
-    const double dr = g.face[1] - g.face[0];
-    return 0.01 * dr * dr / d0;
-  }();
-  const double dt_first = options.first_step > 0.0 ? options.first_step : dt_auto;
-
-  std::vector<double> p(n, 0.0), p_old(n, 0.0), a(n), b(n), c(n), d(n);
-  auto record = [&](std::size_t k, double q) {
-    for (std::size_t ir = 0; ir < radii.size(); ++ir)
-      out.values[k * radii.size() + ir] = reconstruct(g, p, q, radii[ir], model);
-    double s = 0.0;
-    for (std::size_t i = 0; i < n; ++i) s += g.store[i] * p[i];
-    out.mean_change[k] = s / total_store;
-  };
+  const std::vector<std::size_t> order = time_order(times);
+  const double dt_first = first_time_step(g, model, options);
+  StepState s{std::vector<double>(n, 0.0), std::vector<double>(n, 0.0), std::vector<double>(n),
+              std::vector<double>(n), std::vector<double>(n), std::vector<double>(n)};
 
   std::size_t next_out = 0;
   // Times before the first rate step (or with no rates at all): Δp = 0.
@@ -222,52 +314,17 @@ RadialSolution solve_radial_flow(const RadialModel& model, std::span<const doubl
     }
     const double t_out = times[order[next_out]];
     const double t_event = next_rate < starts.size() ? std::min(t_out, starts[next_rate]) : t_out;
-    // Land exactly on the next event; when it is less than two steps away, split the remainder
-    // into two halves so that no step is much shorter than its predecessor.
-    double step = dt;
-    bool clipped = false;
-    if (t + dt >= t_event) {
-      step = t_event - t;
-      clipped = true;
-    } else if (t + 2.0 * dt > t_event) {
-      step = 0.5 * (t_event - t);
-      clipped = true;
-    }
-    // Second-order variable-step BDF2 (e.g. Hairer & Wanner, Solving ODEs II, §III.5):
-    //   (S/Δt_n) [α p' − β p^n + γ p^{n−1}] = −T p' + q,  ω = Δt_n/Δt_{n−1},
-    //   α = (1+2ω)/(1+ω), β = 1+ω, γ = ω²/(1+ω); zero-stable for ω < 1+√2.
-    // The first step after a rate change (and after a much shorter step) is backward Euler
-    // (α = β = 1, γ = 0). Both conserve mass exactly within a constant-rate period.
-    const double omega = have_prev ? step / dt_prev : 0.0;
-    const bool bdf2 = have_prev && omega <= 2.4;
-    const double alpha = bdf2 ? (1 + 2 * omega) / (1 + omega) : 1.0;
-    const double beta = bdf2 ? 1 + omega : 1.0;
-    const double gamma = bdf2 ? omega * omega / (1 + omega) : 0.0;
-    for (std::size_t i = 0; i < n; ++i) {
-      const double s = g.store[i] / step;
-      const double tw = i > 0 ? g.trans[i] : 0.0;
-      const double te = g.trans[i + 1];
-      a[i] = -tw;
-      c[i] = i + 1 < n ? -te : 0.0;
-      b[i] = alpha * s + tw + te;
-      d[i] = s * (beta * p[i] - gamma * p_old[i]) + (i == 0 ? q : 0.0);
-    }
-    // Thomas algorithm (diagonally dominant, no pivoting needed).
-    for (std::size_t i = 1; i < n; ++i) {
-      const double w = a[i] / b[i - 1];
-      b[i] -= w * c[i - 1];
-      d[i] -= w * d[i - 1];
-    }
-    p_old.swap(p);
-    p[n - 1] = d[n - 1] / b[n - 1];
-    for (std::size_t i = n - 1; i-- > 0;) p[i] = (d[i] - c[i] * p[i + 1]) / b[i];
+    const Step step = next_step(t, dt, t_event);
+    assemble_step(g, s, step.length, bdf2_coefficients(have_prev, step.length, dt_prev), q);
+    solve_tridiagonal(s);
     ++out.steps;
     have_prev = true;
-    dt_prev = step;
+    dt_prev = step.length;
 
-    t = step == t_event - t ? t_event : t + step;
-    if (!clipped) dt *= options.time_step_growth;
-    while (next_out < order.size() && times[order[next_out]] <= t) record(order[next_out++], q);
+    t = step.length == t_event - t ? t_event : t + step.length;
+    if (!step.clipped) dt *= options.time_step_growth;
+    while (next_out < order.size() && times[order[next_out]] <= t)
+      record(out, order[next_out++], g, s.p, q, total_store, model);
   }
   return out;
 }
