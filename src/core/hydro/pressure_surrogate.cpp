@@ -12,13 +12,9 @@ namespace slipscreen::hydro {
 namespace {
 constexpr std::size_t kBlock = 32;       // points per build block (spatially close)
 constexpr double kBlockCell = 5000.0;    // m: cell size used to order points spatially
-}  // namespace
 
-PressureSurrogate::PressureSurrogate(const std::vector<SimilarityTable>& tables,
-                                     std::span<const PressureSource> sources,
-                                     std::span<const ObservationPoint> points, std::size_t group_count,
-                                     double d_min, double d_max, std::size_t nodes)
-    : n_points_(points.size()), n_groups_(group_count) {
+void check_inputs(const std::vector<SimilarityTable>& tables, std::span<const PressureSource> sources,
+                  std::size_t group_count, double d_min, double d_max) {
   if (tables.empty()) throw InputError("wells", "(none)", "at least one well with a rate history");
   if (!(d_min > 0.0) || !(d_max >= d_min) || !std::isfinite(d_max))
     throw InputError("diffusivity range", std::to_string(d_min) + ".." + std::to_string(d_max),
@@ -28,38 +24,51 @@ PressureSurrogate::PressureSurrogate(const std::vector<SimilarityTable>& tables,
     if (s.table >= tables.size()) throw InputError("source table", std::to_string(s.table), "an existing well table");
     if (s.group >= group_count) throw InputError("source group", std::to_string(s.group), "an existing rate group");
   }
-  n_times_ = tables.front().time_count();
+}
 
-  // Chebyshev–Lobatto nodes in ln D and their barycentric weights (−1)^d, halved at the ends.
+struct Nodes {
+  std::vector<double> ln_d, bary, inv4d;  // ln D_d, barycentric weight, 1/(4 D_d)
+};
+
+// Chebyshev–Lobatto nodes in ln D and their barycentric weights (−1)^d, halved at the ends.
+Nodes place_nodes(double d_min, double d_max, std::size_t nodes) {
   const double lo = std::log(d_min), hi = std::log(d_max);
   const std::size_t n = (hi - lo < 1e-12) ? 1 : std::max<std::size_t>(nodes, 2);
-  ln_nodes_.resize(n);
-  bary_.resize(n);
-  std::vector<double> inv4d(n);
+  Nodes out{std::vector<double>(n), std::vector<double>(n), std::vector<double>(n)};
   for (std::size_t d = 0; d < n; ++d) {
-    ln_nodes_[d] = n == 1 ? lo
-                          : 0.5 * (lo + hi) + 0.5 * (hi - lo) *
-                                std::cos(std::numbers::pi * static_cast<double>(d) / static_cast<double>(n - 1));
-    bary_[d] = ((d % 2) ? -1.0 : 1.0) * ((d == 0 || d == n - 1) ? 0.5 : 1.0);
-    inv4d[d] = 0.25 / std::exp(ln_nodes_[d]);
+    out.ln_d[d] = n == 1 ? lo
+                         : 0.5 * (lo + hi) + 0.5 * (hi - lo) *
+                               std::cos(std::numbers::pi * static_cast<double>(d) / static_cast<double>(n - 1));
+    out.bary[d] = ((d % 2) ? -1.0 : 1.0) * ((d == 0 || d == n - 1) ? 0.5 : 1.0);
+    out.inv4d[d] = 0.25 / std::exp(out.ln_d[d]);
   }
+  return out;
+}
 
-  const auto rows = static_cast<Eigen::Index>(n_times_), cols = static_cast<Eigen::Index>(n);
-  g_.assign(n_points_ * n_groups_, Eigen::MatrixXd::Zero(rows, cols));
-
-  // Points in spatial order, built in blocks: a block's points are close together, so for each
-  // source they read neighbouring rows of its similarity table (cache reuse).
-  std::vector<std::size_t> order(n_points_);
+// Point indices in spatial order (rows then columns of kBlockCell cells).
+std::vector<std::size_t> spatial_order(std::span<const ObservationPoint> points) {
+  std::vector<std::size_t> order(points.size());
   std::iota(order.begin(), order.end(), std::size_t{0});
   std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
     const auto ka = std::make_pair(std::floor(points[a].y / kBlockCell), std::floor(points[a].x / kBlockCell));
     const auto kb = std::make_pair(std::floor(points[b].y / kBlockCell), std::floor(points[b].x / kBlockCell));
     return ka < kb;
   });
-  const std::size_t n_blocks = (n_points_ + kBlock - 1) / kBlock;
+  return order;
+}
+
+// Per-node table sums G_{p,g}(t_k, D_d) = Σ_w s_w H_w(r_pw²/(4 D_d), t_k) into g (points × groups,
+// each zeroed n_times × nodes). Points in spatial order, built in blocks: a block's points are
+// close together, so for each source they read neighbouring rows of its similarity table (cache reuse).
+void sum_tables(const std::vector<SimilarityTable>& tables, std::span<const PressureSource> sources,
+                std::span<const ObservationPoint> points, std::size_t n_groups, const std::vector<double>& inv4d,
+                std::vector<Eigen::MatrixXd>& g) {
+  const std::size_t n_points = points.size(), n = inv4d.size();
+  const std::vector<std::size_t> order = spatial_order(points);
+  const std::size_t n_blocks = (n_points + kBlock - 1) / kBlock;
 #pragma omp parallel for schedule(dynamic, 1)
   for (std::size_t b = 0; b < n_blocks; ++b) {
-    const std::size_t end = std::min(n_points_, (b + 1) * kBlock);
+    const std::size_t end = std::min(n_points, (b + 1) * kBlock);
     for (const auto& s : sources) {
       const auto& table = tables[s.table];
       const double sign = s.sign;
@@ -67,28 +76,38 @@ PressureSurrogate::PressureSurrogate(const std::vector<SimilarityTable>& tables,
         const std::size_t p = order[i];
         const double dx = points[p].x - s.x, dy = points[p].y - s.y;
         const double r2 = std::max(dx * dx + dy * dy, s.radius * s.radius);
-        auto& m = g_[p * n_groups_ + s.group];
+        auto& m = g[p * n_groups + s.group];
         for (std::size_t d = 0; d < n; ++d)
           table.accumulate(table.tap(r2 * inv4d[d]), sign, m.col(static_cast<Eigen::Index>(d)).data());
       }
     }
   }
+}
 
-  col_max_.resize(n_points_ * n_groups_ * n);
-  for (std::size_t pg = 0; pg < n_points_ * n_groups_; ++pg)
+// max_k |G_{p,g}(t_k, D_d)| per (point, group) and node d.
+std::vector<double> column_maxima(const std::vector<Eigen::MatrixXd>& g, std::size_t n) {
+  std::vector<double> col_max(g.size() * n);
+  for (std::size_t pg = 0; pg < g.size(); ++pg)
     for (std::size_t d = 0; d < n; ++d)
-      col_max_[pg * n + d] = g_[pg].col(static_cast<Eigen::Index>(d)).cwiseAbs().maxCoeff();
+      col_max[pg * n + d] = g[pg].col(static_cast<Eigen::Index>(d)).cwiseAbs().maxCoeff();
+  return col_max;
+}
 
-  // Error estimate at the midpoints (in ln D) between neighbouring nodes, on a sample of about
-  // 64 points spread through the list (per point it costs as much as the table itself).
+// Error estimate at the midpoints (in ln D) between neighbouring nodes, on a sample of about
+// 64 points spread through the list (per point it costs as much as the table itself).
+double estimate_error(const PressureSurrogate& surrogate, const std::vector<SimilarityTable>& tables,
+                      std::span<const PressureSource> sources, std::span<const ObservationPoint> points,
+                      const std::vector<double>& ln_nodes) {
+  const std::size_t n_points = points.size(), n_groups = surrogate.group_count(),
+                    n_times = surrogate.time_count(), n = ln_nodes.size();
   double worst = 0.0;
-  const std::size_t stride = std::max<std::size_t>(1, n_points_ / 64);
+  const std::size_t stride = std::max<std::size_t>(1, n_points / 64);
 #pragma omp parallel for schedule(dynamic, 1) reduction(max : worst)
-  for (std::size_t p = 0; p < n_points_; p += stride) {
-    std::vector<std::vector<double>> exact(n_groups_, std::vector<double>(n_times_));
+  for (std::size_t p = 0; p < n_points; p += stride) {
+    std::vector<std::vector<double>> exact(n_groups, std::vector<double>(n_times));
     std::vector<double> ell(n);
     for (std::size_t d = 0; d + 1 < n; ++d) {
-      const double mid = std::exp(0.5 * (ln_nodes_[d] + ln_nodes_[d + 1]));
+      const double mid = std::exp(0.5 * (ln_nodes[d] + ln_nodes[d + 1]));
       for (auto& c : exact) std::fill(c.begin(), c.end(), 0.0);
       for (const auto& s : sources) {
         const double dx = points[p].x - s.x, dy = points[p].y - s.y;
@@ -96,13 +115,13 @@ PressureSurrogate::PressureSurrogate(const std::vector<SimilarityTable>& tables,
         const auto& table = tables[s.table];
         table.accumulate(table.tap(r2 * 0.25 / mid), s.sign, exact[s.group].data());
       }
-      basis(mid, ell.data());
+      surrogate.basis(mid, ell.data());
       // Error relative to the point's largest |Δp| over all rate groups (a group that barely
       // reaches the point must not inflate the estimate).
       double scale = 0.0, err = 0.0;
-      for (std::size_t g = 0; g < n_groups_; ++g) {
-        const auto& m = g_[p * n_groups_ + g];
-        for (std::size_t k = 0; k < n_times_; ++k) {
+      for (std::size_t g = 0; g < n_groups; ++g) {
+        const auto& m = surrogate.table(p, g);
+        for (std::size_t k = 0; k < n_times; ++k) {
           double v = 0.0;
           for (std::size_t e = 0; e < n; ++e) v += ell[e] * m(static_cast<Eigen::Index>(k), static_cast<Eigen::Index>(e));
           scale = std::max(scale, std::abs(exact[g][k]));
@@ -112,7 +131,26 @@ PressureSurrogate::PressureSurrogate(const std::vector<SimilarityTable>& tables,
       if (scale > 0.0) worst = std::max(worst, err / scale);
     }
   }
-  max_error_ = worst;
+  return worst;
+}
+}  // namespace
+
+PressureSurrogate::PressureSurrogate(const std::vector<SimilarityTable>& tables,
+                                     std::span<const PressureSource> sources,
+                                     std::span<const ObservationPoint> points, std::size_t group_count,
+                                     double d_min, double d_max, std::size_t nodes)
+    : n_points_(points.size()), n_groups_(group_count) {
+  check_inputs(tables, sources, group_count, d_min, d_max);
+  n_times_ = tables.front().time_count();
+  Nodes placed = place_nodes(d_min, d_max, nodes);
+  ln_nodes_ = std::move(placed.ln_d);
+  bary_ = std::move(placed.bary);
+  const std::size_t n = ln_nodes_.size();
+  g_.assign(n_points_ * n_groups_,
+            Eigen::MatrixXd::Zero(static_cast<Eigen::Index>(n_times_), static_cast<Eigen::Index>(n)));
+  sum_tables(tables, sources, points, n_groups_, placed.inv4d, g_);
+  col_max_ = column_maxima(g_, n);
+  max_error_ = estimate_error(*this, tables, sources, points, ln_nodes_);
 }
 
 void PressureSurrogate::basis(double diffusivity, double* out) const {

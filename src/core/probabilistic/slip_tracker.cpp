@@ -10,6 +10,145 @@ namespace slipscreen::probabilistic {
 namespace {
 constexpr std::size_t kBlock = 256;  // realizations per matrix product
 constexpr std::size_t kChunk = 24;   // tracking times per chunk of the first-crossing search
+
+// The inputs shared by every segment of one track_slip call.
+struct TrackInputs {
+  const hydro::PressureSurrogate& surrogate;
+  const PressureDraws& draws;
+  const Eigen::MatrixXf& dp_crit;
+  const std::vector<Eigen::Index>& out_rows;
+  const Eigen::MatrixXd& abs_basis;
+  std::size_t n_times, n_groups, n_chunks;
+  Eigen::Index n_nodes, n_real;
+};
+
+// One thread's buffers, reused from segment to segment (no allocation once they have grown).
+struct Workspace {
+  std::vector<Eigen::MatrixXd> g_out, block;  // per (point, group): output rows; per group: basis × scale
+  Eigen::MatrixXd series, best, chunk_max, chunk_bound, b;
+  std::vector<Eigen::Index> all, active, in_chunk;
+};
+
+void check_track_inputs(std::size_t n_seg, Eigen::Index n_real, const Eigen::MatrixXf& dp_crit,
+                        std::size_t n_times, std::span<const std::size_t> output_index) {
+  if ((dp_crit.rows() != static_cast<Eigen::Index>(n_seg) && dp_crit.rows() != 1) || dp_crit.cols() != n_real)
+    throw InputError("dp_crit", std::to_string(dp_crit.rows()) + "x" + std::to_string(dp_crit.cols()),
+                     "one Δp_crit per segment and realization");
+  for (std::size_t o : output_index)
+    if (o >= n_times) throw InputError("output index", std::to_string(o), "a tracking-time index");
+}
+
+// Δp_crit of segment s in realization r (one shared row when dp_crit has a single row).
+double critical_dp(const Eigen::MatrixXf& dp_crit, std::size_t s, Eigen::Index r) {
+  return double(dp_crit(dp_crit.rows() == 1 ? 0 : static_cast<Eigen::Index>(s), r));
+}
+
+// Bound on |Δp| per chunk and realization (max over check points) into ws.chunk_bound:
+// Σ_g |scale_g| Σ_d |ℓ_d| max_{k in chunk} |G_{p,g}(t_k, D_d)| (triangle inequality).
+void bound_chunks(const TrackInputs& in, const std::vector<std::size_t>& pts, Workspace& ws) {
+  for (std::size_t i = 0; i < pts.size(); ++i) {
+    ws.b.setZero(static_cast<Eigen::Index>(in.n_chunks), in.n_real);
+    for (std::size_t g = 0; g < in.n_groups; ++g) {
+      const Eigen::MatrixXd& t = in.surrogate.table(pts[i], g);
+      ws.chunk_max.resize(static_cast<Eigen::Index>(in.n_chunks), in.n_nodes);
+      for (std::size_t q = 0; q < in.n_chunks; ++q) {
+        const auto k0 = static_cast<Eigen::Index>(q * kChunk);
+        const auto len = static_cast<Eigen::Index>(std::min(kChunk, in.n_times - q * kChunk));
+        ws.chunk_max.row(static_cast<Eigen::Index>(q)) = t.middleRows(k0, len).cwiseAbs().colwise().maxCoeff();
+      }
+      ws.b.noalias() += ((ws.chunk_max * in.abs_basis).array().rowwise() *
+                         in.draws.scale.row(static_cast<Eigen::Index>(g)).array().abs())
+                            .matrix();
+    }
+    ws.chunk_bound = i == 0 ? ws.b : ws.chunk_bound.cwiseMax(ws.b);
+  }
+}
+
+// Evaluates the rows [k0, k0 + len) (len = 0: the output rows, ws.g_out) for the realizations in
+// `list`, in blocks of kBlock, and hands each block's maximum over check points (ws.best) to `use`.
+template <class Use>
+void evaluate_series(const TrackInputs& in, const std::vector<std::size_t>& pts, Workspace& ws,
+                     const std::vector<Eigen::Index>& list, Eigen::Index k0, Eigen::Index len, const Use& use) {
+  for (std::size_t c0 = 0; c0 < list.size(); c0 += kBlock) {
+    const auto nb = static_cast<Eigen::Index>(std::min(kBlock, list.size() - c0));
+    for (std::size_t g = 0; g < in.n_groups; ++g) {
+      ws.block[g].resize(in.n_nodes, nb);
+      for (Eigen::Index c = 0; c < nb; ++c) {
+        const Eigen::Index r = list[c0 + static_cast<std::size_t>(c)];
+        ws.block[g].col(c) = in.draws.basis.col(r) * in.draws.scale(static_cast<Eigen::Index>(g), r);
+      }
+    }
+    for (std::size_t i = 0; i < pts.size(); ++i) {
+      for (std::size_t g = 0; g < in.n_groups; ++g) {
+        if (len == 0) {
+          if (g == 0) ws.series.noalias() = ws.g_out[i * in.n_groups + g] * ws.block[g];
+          else ws.series.noalias() += ws.g_out[i * in.n_groups + g] * ws.block[g];
+        } else {
+          const auto rows = in.surrogate.table(pts[i], g).middleRows(k0, len);
+          if (g == 0) ws.series.noalias() = rows * ws.block[g];
+          else ws.series.noalias() += rows * ws.block[g];
+        }
+      }
+      if (i == 0) ws.best = ws.series;
+      else ws.best = ws.best.cwiseMax(ws.series);
+    }
+    use(c0, nb);
+  }
+}
+
+// Δp at the output times for every realization.
+void pressure_at_outputs(const TrackInputs& in, const std::vector<std::size_t>& pts, Workspace& ws,
+                         SegmentOutcome& res) {
+  ws.g_out.resize(pts.size() * in.n_groups);
+  for (std::size_t i = 0; i < pts.size(); ++i)
+    for (std::size_t g = 0; g < in.n_groups; ++g)
+      ws.g_out[i * in.n_groups + g] = in.surrogate.table(pts[i], g)(in.out_rows, Eigen::all);
+  ws.block.resize(in.n_groups);
+  evaluate_series(in, pts, ws, ws.all, 0, 0, [&](std::size_t c0, Eigen::Index nb) {
+    for (Eigen::Index c = 0; c < nb; ++c) res.dp_at_output.col(ws.all[c0 + static_cast<std::size_t>(c)]) = ws.best.col(c);
+  });
+}
+
+// First crossings: chunk by chunk, only where the chunk's bound reaches Δp_crit.
+void search_first_crossings(const TrackInputs& in, const std::vector<std::size_t>& pts, Workspace& ws,
+                            SegmentOutcome& res) {
+  const std::size_t s = res.segment;
+  ws.active.clear();
+  for (Eigen::Index r = 0; r < in.n_real; ++r) {
+    const double crit = critical_dp(in.dp_crit, s, r);
+    if (crit <= 0.0) res.first_crossing[static_cast<std::size_t>(r)] = 0;  // critical before injection
+    else if (ws.chunk_bound.col(r).maxCoeff() >= crit) ws.active.push_back(r);
+  }
+  for (std::size_t q = 0; q < in.n_chunks && !ws.active.empty(); ++q) {
+    const auto qi = static_cast<Eigen::Index>(q);
+    ws.in_chunk.clear();
+    for (Eigen::Index r : ws.active)
+      if (ws.chunk_bound(qi, r) >= critical_dp(in.dp_crit, s, r)) ws.in_chunk.push_back(r);
+    const auto k0 = static_cast<Eigen::Index>(q * kChunk);
+    const auto len = static_cast<Eigen::Index>(std::min(kChunk, in.n_times - q * kChunk));
+    evaluate_series(in, pts, ws, ws.in_chunk, k0, len, [&](std::size_t c0, Eigen::Index nb) {
+      for (Eigen::Index c = 0; c < nb; ++c) {
+        const Eigen::Index r = ws.in_chunk[c0 + static_cast<std::size_t>(c)];
+        const double crit = critical_dp(in.dp_crit, s, r);
+        for (Eigen::Index k = 0; k < len; ++k)
+          if (ws.best(k, c) >= crit) {
+            res.first_crossing[static_cast<std::size_t>(r)] = static_cast<int>(k0 + k);
+            break;
+          }
+      }
+    });
+    std::erase_if(ws.active, [&](Eigen::Index r) { return res.first_crossing[static_cast<std::size_t>(r)] >= 0; });
+  }
+}
+
+// One segment's outcome: the chunk bounds, Δp at the output times, then the first crossings.
+void track_segment(const TrackInputs& in, const std::vector<std::size_t>& pts, Workspace& ws, SegmentOutcome& res) {
+  res.first_crossing.assign(static_cast<std::size_t>(in.n_real), -1);
+  res.dp_at_output.setZero(static_cast<Eigen::Index>(in.out_rows.size()), in.n_real);
+  bound_chunks(in, pts, ws);
+  pressure_at_outputs(in, pts, ws, res);
+  search_first_crossings(in, pts, ws, res);
+}
 }  // namespace
 
 PressureDraws make_pressure_draws(const hydro::PressureSurrogate& surrogate, std::span<const double> diffusivity,
@@ -37,121 +176,28 @@ void track_slip(const hydro::PressureSurrogate& surrogate, const std::vector<std
                 const std::function<void(const SegmentOutcome&)>& visit) {
   const Eigen::Index n_real = draws.basis.cols();
   const auto n_seg = segment_points.size();
-  if ((dp_crit.rows() != static_cast<Eigen::Index>(n_seg) && dp_crit.rows() != 1) || dp_crit.cols() != n_real)
-    throw InputError("dp_crit", std::to_string(dp_crit.rows()) + "x" + std::to_string(dp_crit.cols()),
-                     "one Δp_crit per segment and realization");
   const std::size_t n_times = surrogate.time_count();
-  for (std::size_t o : output_index)
-    if (o >= n_times) throw InputError("output index", std::to_string(o), "a tracking-time index");
-  const std::size_t n_groups = surrogate.group_count();
-  const auto n_nodes = static_cast<Eigen::Index>(surrogate.node_count());
+  check_track_inputs(n_seg, n_real, dp_crit, n_times, output_index);
   const std::vector<Eigen::Index> out_rows(output_index.begin(), output_index.end());
   const Eigen::MatrixXd abs_basis = draws.basis.cwiseAbs();
 
   // Tracking times in chunks; a realization's series is evaluated in a chunk only where the
   // bound on that chunk reaches its threshold, in order, until the first crossing.
-  const std::size_t n_chunks = (n_times + kChunk - 1) / kChunk;
+  const TrackInputs in{surrogate, draws, dp_crit, out_rows, abs_basis,
+                       n_times, surrogate.group_count(), (n_times + kChunk - 1) / kChunk,
+                       static_cast<Eigen::Index>(surrogate.node_count()), n_real};
   const auto n_real_u = static_cast<std::size_t>(n_real);
 
 #pragma omp parallel
   {
-    std::vector<Eigen::MatrixXd> g_out, block;  // per (point, group): output rows; per group: basis × scale
-    Eigen::MatrixXd series, best, chunk_max, chunk_bound, b;
-    std::vector<Eigen::Index> all(n_real_u), active, in_chunk;
-    for (std::size_t r = 0; r < n_real_u; ++r) all[r] = static_cast<Eigen::Index>(r);
+    Workspace ws;
+    ws.all.resize(n_real_u);
+    for (std::size_t r = 0; r < n_real_u; ++r) ws.all[r] = static_cast<Eigen::Index>(r);
 #pragma omp for schedule(dynamic, 1)
     for (std::size_t s = 0; s < n_seg; ++s) {
       SegmentOutcome res;
       res.segment = s;
-      res.first_crossing.assign(n_real_u, -1);
-      res.dp_at_output.setZero(static_cast<Eigen::Index>(output_index.size()), n_real);
-      const auto& pts = segment_points[s];
-      const auto crit_of = [&](Eigen::Index r) {
-        return double(dp_crit(dp_crit.rows() == 1 ? 0 : static_cast<Eigen::Index>(s), r));
-      };
-      // Bound on |Δp| per chunk and realization (max over check points):
-      // Σ_g |scale_g| Σ_d |ℓ_d| max_{k in chunk} |G_{p,g}(t_k, D_d)| (triangle inequality).
-      for (std::size_t i = 0; i < pts.size(); ++i) {
-        b.setZero(static_cast<Eigen::Index>(n_chunks), n_real);
-        for (std::size_t g = 0; g < n_groups; ++g) {
-          const Eigen::MatrixXd& t = surrogate.table(pts[i], g);
-          chunk_max.resize(static_cast<Eigen::Index>(n_chunks), n_nodes);
-          for (std::size_t q = 0; q < n_chunks; ++q) {
-            const auto k0 = static_cast<Eigen::Index>(q * kChunk);
-            const auto len = static_cast<Eigen::Index>(std::min(kChunk, n_times - q * kChunk));
-            chunk_max.row(static_cast<Eigen::Index>(q)) = t.middleRows(k0, len).cwiseAbs().colwise().maxCoeff();
-          }
-          b.noalias() += ((chunk_max * abs_basis).array().rowwise() *
-                          draws.scale.row(static_cast<Eigen::Index>(g)).array().abs())
-                             .matrix();
-        }
-        chunk_bound = i == 0 ? b : chunk_bound.cwiseMax(b);
-      }
-      // Δp at the output times for every realization.
-      g_out.resize(pts.size() * n_groups);
-      for (std::size_t i = 0; i < pts.size(); ++i)
-        for (std::size_t g = 0; g < n_groups; ++g) g_out[i * n_groups + g] = surrogate.table(pts[i], g)(out_rows, Eigen::all);
-      block.resize(n_groups);
-      // Evaluates the rows [k0, k0 + len) (len = 0: the output rows) for the realizations in
-      // `list`, in blocks of kBlock, and hands each block's maximum over check points to `use`.
-      const auto evaluate = [&](const std::vector<Eigen::Index>& list, Eigen::Index k0, Eigen::Index len,
-                                const auto& use) {
-        for (std::size_t c0 = 0; c0 < list.size(); c0 += kBlock) {
-          const auto nb = static_cast<Eigen::Index>(std::min(kBlock, list.size() - c0));
-          for (std::size_t g = 0; g < n_groups; ++g) {
-            block[g].resize(n_nodes, nb);
-            for (Eigen::Index c = 0; c < nb; ++c) {
-              const Eigen::Index r = list[c0 + static_cast<std::size_t>(c)];
-              block[g].col(c) = draws.basis.col(r) * draws.scale(static_cast<Eigen::Index>(g), r);
-            }
-          }
-          for (std::size_t i = 0; i < pts.size(); ++i) {
-            for (std::size_t g = 0; g < n_groups; ++g) {
-              if (len == 0) {
-                if (g == 0) series.noalias() = g_out[i * n_groups + g] * block[g];
-                else series.noalias() += g_out[i * n_groups + g] * block[g];
-              } else {
-                const auto rows = surrogate.table(pts[i], g).middleRows(k0, len);
-                if (g == 0) series.noalias() = rows * block[g];
-                else series.noalias() += rows * block[g];
-              }
-            }
-            if (i == 0) best = series;
-            else best = best.cwiseMax(series);
-          }
-          use(c0, nb);
-        }
-      };
-      evaluate(all, 0, 0, [&](std::size_t c0, Eigen::Index nb) {
-        for (Eigen::Index c = 0; c < nb; ++c) res.dp_at_output.col(all[c0 + static_cast<std::size_t>(c)]) = best.col(c);
-      });
-      // First crossings: chunk by chunk, only where the chunk's bound reaches Δp_crit.
-      active.clear();
-      for (Eigen::Index r = 0; r < n_real; ++r) {
-        const double crit = crit_of(r);
-        if (crit <= 0.0) res.first_crossing[static_cast<std::size_t>(r)] = 0;  // critical before injection
-        else if (chunk_bound.col(r).maxCoeff() >= crit) active.push_back(r);
-      }
-      for (std::size_t q = 0; q < n_chunks && !active.empty(); ++q) {
-        const auto qi = static_cast<Eigen::Index>(q);
-        in_chunk.clear();
-        for (Eigen::Index r : active)
-          if (chunk_bound(qi, r) >= crit_of(r)) in_chunk.push_back(r);
-        const auto k0 = static_cast<Eigen::Index>(q * kChunk);
-        const auto len = static_cast<Eigen::Index>(std::min(kChunk, n_times - q * kChunk));
-        evaluate(in_chunk, k0, len, [&](std::size_t c0, Eigen::Index nb) {
-          for (Eigen::Index c = 0; c < nb; ++c) {
-            const Eigen::Index r = in_chunk[c0 + static_cast<std::size_t>(c)];
-            const double crit = crit_of(r);
-            for (Eigen::Index k = 0; k < len; ++k)
-              if (best(k, c) >= crit) {
-                res.first_crossing[static_cast<std::size_t>(r)] = static_cast<int>(k0 + k);
-                break;
-              }
-          }
-        });
-        std::erase_if(active, [&](Eigen::Index r) { return res.first_crossing[static_cast<std::size_t>(r)] >= 0; });
-      }
+      track_segment(in, segment_points[s], ws, res);
       visit(res);
     }
   }
