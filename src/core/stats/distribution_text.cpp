@@ -78,8 +78,7 @@ std::map<std::string, std::string> bind_arguments(const Syntax& syn, std::string
     const std::string_view arg = arg_text;
     start = comma == std::string_view::npos ? inner.size() + 1 : comma + 1;
     if (arg.empty()) throw InputError(field, whole, "a value between every pair of commas: " + std::string(syn.usage));
-    std::string key;
-    std::string_view value;
+    std::string key, value;
     const auto eq = arg.find('=');
     if (eq == std::string_view::npos) {
       if (seen_named) throw InputError(field, whole, "positional parameters before named ones: " + std::string(syn.usage));
@@ -87,7 +86,7 @@ std::map<std::string, std::string> bind_arguments(const Syntax& syn, std::string
         throw InputError(field, whole, "at most " + std::to_string(syn.positional.size()) +
                                            " parameters: " + std::string(syn.usage));
       key = syn.positional[position++];
-      value = arg;
+      value = std::string(arg);
     } else {
       seen_named = true;
       key = lower(util::trim(arg.substr(0, eq)));
@@ -97,7 +96,7 @@ std::map<std::string, std::string> bind_arguments(const Syntax& syn, std::string
                                            util::did_you_mean(key, accepted));
     }
     if (value.empty()) throw InputError(field, whole, "a value for " + key + ": " + std::string(syn.usage));
-    if (!args.emplace(key, std::string(value)).second)
+    if (!args.emplace(key, value).second)
       throw InputError(field, whole, "each parameter once, but '" + key + "' is given twice");
   }
   return args;
