@@ -9,15 +9,10 @@
 #include "formats/table/iso_time.hpp"
 #include "core/util/number_text.hpp"
 #include "outputs/catalog_summary_json.hpp"
+#include "outputs/output_text.hpp"
 #include "outputs/rt_tables.hpp"
 
 namespace slipscreen::outputs {
-namespace {
-
-constexpr double kMPa = 1e6;
-
-}  // namespace
-
 using formats::csv_field;
 using util::fixed_decimals;
 using formats::format_iso8601_utc;

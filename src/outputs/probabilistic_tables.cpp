@@ -9,6 +9,7 @@
 #include "formats/files/text_file.hpp"
 #include "formats/gis/geotiff.hpp"
 #include "formats/table/csv.hpp"
+#include "outputs/output_text.hpp"
 #include "core/util/number_text.hpp"
 
 namespace slipscreen::outputs {
@@ -17,7 +18,6 @@ using util::fixed_decimals;
 
 namespace {
 
-constexpr double kMPa = 1.0e6;
 
 // What every table and raster of the probabilistic screen needs.
 struct Context {

@@ -68,9 +68,13 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
     review = screening::review_catalog(s, prepared, result, prob ? &*prob : nullptr);
   }
 
-  stage("writing outputs");
   std::optional<screening::PressureMap> pressure;
-  if (s.output.rasters) pressure = screening::pressure_map(s, prepared);
+  if (s.output.rasters) {
+    stage("pressure map");
+    pressure = screening::pressure_map(s, prepared);
+  }
+
+  stage("writing outputs");
   formats::RunFolder folder(target, formats::RunFolderOptions{o.force});
   outputs::write_run_outputs(folder, s,
                              {prepared, result, pressure ? &*pressure : nullptr, prob ? &*prob : nullptr,

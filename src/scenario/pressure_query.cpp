@@ -2,12 +2,11 @@
 // TOML layer (formats/toml/toml_section.hpp).
 #include "scenario/pressure_query.hpp"
 
-#include <iomanip>
-#include <sstream>
 #include <string_view>
 
 #include "core/errors.hpp"
 #include "core/units/units.hpp"
+#include "core/util/number_text.hpp"
 #include "formats/files/path_policy.hpp"
 #include "formats/toml/toml_section.hpp"
 
@@ -21,13 +20,6 @@ namespace {
 constexpr auto each_entry = formats::Section::TableArrayCheck::each_entry;
 
 std::string indexed(const std::string& path, std::size_t i) { return path + "[" + std::to_string(i) + "]"; }
-
-// A bare TOML number as the command shows it (17 significant digits, as it always has).
-std::string number_text(const toml::node& n) {
-  std::ostringstream o;
-  o << std::setprecision(17) << n.value<double>().value();
-  return o.str();
-}
 
 // The text of a quantity as written, checked for its dimension: a string with its unit, or a
 // bare number for a dimensionless value.
@@ -43,7 +35,8 @@ std::string quantity_text(const toml::node& n, Dimension d, const std::string& p
   } catch (const InputError& e) {
     throw e.located(where);
   }
-  return n.is_number() ? number_text(n) : checked;
+  // a bare number as the command shows it: 17 significant digits, as it always has
+  return n.is_number() ? util::number_text(n.value<double>().value(), 17) : checked;
 }
 
 // The value of `key` as text (see quantity_text), or `fallback` when the table lacks it.

@@ -4,14 +4,11 @@
 #include <cmath>
 #include <map>
 #include <set>
-#include <sstream>
 
-#include "core/caution.hpp"
 #include "core/errors.hpp"
 #include "core/hydro/pressure_field.hpp"
 #include "core/seismo/nearest_fault.hpp"
 #include "core/stats/wilson_interval.hpp"
-#include "core/units/units.hpp"
 #include "formats/gis/crs.hpp"
 #include "formats/table/iso_time.hpp"
 #include "screening/probabilistic_screen.hpp"
@@ -19,8 +16,6 @@
 namespace slipscreen::screening {
 
 namespace {
-
-constexpr double kMPa = 1e6;
 
 double total_volume(const std::vector<scenario::WellSpec>& wells, double t) {
   double v = 0.0;

@@ -2,13 +2,8 @@
 
 #include <algorithm>
 #include <cmath>
-#include <fstream>
 #include <map>
-#include <nlohmann/json.hpp>
-#include <sstream>
 
-#include "core/errors.hpp"
-#include "core/geomech/depth_profile.hpp"
 #include "core/screen/tracking_grid.hpp"
 #include "core/stats/wilson_interval.hpp"
 
@@ -16,7 +11,6 @@ namespace slipscreen::screening {
 namespace {
 
 using stats::Distribution;
-constexpr double kMPa = 1.0e6;
 
 Distribution fixed(double v, const char* what) { return Distribution::fixed(std::isnan(v) ? 0.0 : v, what); }
 

@@ -7,9 +7,8 @@
 namespace slipscreen::screening {
 
 RunSummary summarize_run(const scenario::ResolvedScenario& s, const PreparedRun& prepared,
-                         const screen::ScreenResult& result, const ProbabilisticRun* probabilistic,
+                         const screen::ScreenResult& result, const ProbabilisticRun* prob,
                          std::optional<CatalogReview> review) {
-  const ProbabilisticRun* prob = probabilistic;
   RunSummary summary;
   summary.fault_count = prepared.fault_count;
   summary.segment_count = prepared.segments.size();

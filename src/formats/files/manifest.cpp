@@ -1,11 +1,11 @@
 #include "formats/files/manifest.hpp"
 
 #include <ctime>
-#include <fstream>
 #include <map>
 
 #include "core/errors.hpp"
 #include "formats/files/file_hash.hpp"
+#include "formats/files/text_file.hpp"
 #include "slipscreen/version.hpp"
 
 namespace slipscreen::formats {
@@ -66,11 +66,7 @@ nlohmann::json manifest_json(const ManifestContent& c, std::chrono::system_clock
 
 void write_manifest(const fs::path& path, const ManifestContent& content, const std::optional<fs::path>& outputs_root) {
   const std::string text = manifest_json(content, std::chrono::system_clock::now(), outputs_root).dump(2) + "\n";
-  std::ofstream out(path, std::ios::binary | std::ios::trunc);
-  if (!out) throw IoError(path.string() + ": cannot create the manifest");
-  out << text;
-  out.close();
-  if (!out) throw IoError(path.string() + ": cannot write the manifest");
+  write_text_file(path, text);
 }
 
 }  // namespace slipscreen::formats
