@@ -1,5 +1,5 @@
-// `slipscreen catalog`: the earthquake-catalog review on its own. Reads a CSV (with a column
-// mapping) or QuakeML catalog, applies filters, and reports Mc, b-value, counts, unusable rows,
+// `slipscreen catalog`: the earthquake-catalog review on its own. Reads a CSV (common header
+// spellings, or a column mapping), FDSN text or QuakeML catalog, applies filters, and reports Mc, b-value, counts, unusable rows,
 // bounds on the largest magnitude, the seismogenic index and forecasts — as a readable summary
 // or JSON — and optionally writes a folder with the summary, the kept events and an r-t table
 // around a chosen well.
@@ -165,9 +165,12 @@ int run_catalog(const CatalogOptions& o, Context& ctx) {
 void register_catalog_command(CLI::App& app, Context& ctx) {
   auto o = std::make_shared<CatalogOptions>();
   CLI::App* sub = app.add_subcommand("catalog", "Review an earthquake catalog: completeness, b-value, bounds, seismogenic index, forecasts");
-  sub->add_option("file", o->file, "Catalog file: CSV or QuakeML 1.2")->required();
-  sub->add_option("--format", o->format, "auto (by extension), csv or quakeml")->default_val("auto");
-  sub->add_option("--columns", o->columns, "CSV column mapping, e.g. 'time=origin_time;depth=z;depth_unit=m' (docs/catalogs.md)");
+  sub->add_option("file", o->file, "Catalog file: CSV, FDSN event service text, or QuakeML 1.2")->required();
+  sub->add_option("--format", o->format, "auto (by extension and header), csv (also FDSN text, told by its header) or quakeml")
+      ->default_val("auto");
+  sub->add_option("--columns", o->columns,
+                  "CSV column mapping for headers without the common spellings (time, lat/latitude, lon/long/longitude, "
+                  "depth in km, mag/magnitude, magType, id), e.g. 'time=origin;depth=z;depth_unit=m' (docs/catalogs.md)");
   sub->add_flag("--strict", o->strict, "Unusable rows and unknown magnitude types (with --magnitude-type) are errors");
   sub->add_option("--from", o->from, "Keep events at or after this ISO 8601 UTC time");
   sub->add_option("--to", o->to, "Keep events before this ISO 8601 UTC time");

@@ -19,6 +19,7 @@ void read_and_filter(json& j, const formats::CatalogReadResult& read, const seis
   for (const auto& r : read.rejected) rejected.push_back({{"line", r.line}, {"reason", r.reason}});
   j["catalog"] = {{"path", read.path},
                   {"format", read.format},
+                  {"columns", read.columns.empty() ? json(nullptr) : json(read.columns)},
                   {"description", read.catalog.description},
                   {"crs", read.catalog.crs},
                   {"records", read.records},

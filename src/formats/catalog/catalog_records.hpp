@@ -20,7 +20,8 @@ struct CatalogReadResult {
   std::vector<std::string> warnings;  // e.g. preferred origin not found, first one used
   std::size_t records = 0;            // data records (CSV rows / QuakeML events) seen
   std::string path;
-  std::string format;                 // "csv" or "quakeml"
+  std::string format;                 // "csv", "fdsn_text" or "quakeml"
+  std::string columns;                // table formats: the columns read, as a mapping text (CatalogTableLayout::columns_used)
 };
 
 // Throws the strict-mode error for a result that has rejected records (used by both readers).

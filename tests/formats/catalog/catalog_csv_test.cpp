@@ -2,8 +2,11 @@
 
 #include <doctest/doctest.h>
 
+#include <fstream>
+
 #include "core/errors.hpp"
 #include "formats/catalog/catalog_file.hpp"
+#include "support/temp_dir.hpp"
 
 using namespace slipscreen;
 
@@ -11,23 +14,6 @@ namespace {
 const std::string kDir = std::string(SLIPSCREEN_TEST_DATA) + "/catalog/";
 const char* kFixtureMap = "id=event_id;time=origin_time;depth=depth_km;depth_unit=km";
 }  // namespace
-
-TEST_CASE("column mapping text") {
-  const auto c = formats::parse_catalog_columns(kFixtureMap);
-  CHECK(c.time == "origin_time");
-  CHECK(c.id == "event_id");
-  CHECK(c.depth_explicit);
-  CHECK(c.magnitude == "magnitude");  // default kept
-  const auto p = formats::parse_catalog_columns("x=easting,y=northing,crs=EPSG:32614,magtype=-,magtype_default=ML");
-  CHECK(p.x == "easting");
-  CHECK(p.crs == "EPSG:32614");
-  CHECK(p.magnitude_type.empty());
-  CHECK(p.magnitude_type_default == "ML");
-  CHECK_THROWS_WITH_AS(formats::parse_catalog_columns("tme=origin"), doctest::Contains("did you mean 'time'"), InputError);
-  CHECK_THROWS_WITH_AS(formats::parse_catalog_columns("x=e;y=n"), doctest::Contains("crs"), InputError);
-  CHECK_THROWS_AS(formats::parse_catalog_columns("x=e"), InputError);
-  CHECK_THROWS_AS(formats::parse_catalog_columns("depth_unit=furlong"), InputError);
-}
 
 TEST_CASE("the CSV fixture reads with its mapping") {
   const auto r = formats::read_catalog_csv(kDir + "fixture_catalog.csv", formats::parse_catalog_columns(kFixtureMap));
@@ -46,6 +32,8 @@ TEST_CASE("the CSV fixture reads with its mapping") {
   CHECK(e.source.find("line 4") != std::string::npos);
   CHECK(r.catalog.description.find("Fictional") != std::string::npos);
   CHECK(r.catalog.kind == seismo::CoordinateKind::geographic);
+  CHECK(r.columns == "time=origin_time; lat=latitude; lon=longitude; depth=depth_km (km); mag=magnitude; "
+                     "magtype=magnitude_type; id=event_id");
 }
 
 TEST_CASE("unusable rows are reported with line numbers, never dropped silently") {
@@ -76,6 +64,12 @@ TEST_CASE("unusable rows are reported with line numbers, never dropped silently"
 TEST_CASE("header problems and missing files") {
   CHECK_THROWS_WITH_AS(formats::read_catalog_csv(kDir + "fixture_catalog.csv", formats::parse_catalog_columns("time=orign_time")),
                        doctest::Contains("did you mean 'origin_time'"), InputError);
+  // A column the mapping names but the header lacks: the message shows the header as written.
+  CHECK_THROWS_WITH_AS(formats::read_catalog_csv(kDir + "fixture_catalog.csv", formats::parse_catalog_columns("mag=ml")),
+                       doctest::Contains("fixture_catalog.csv line 3: field 'magnitude column' = 'ml': expected a column "
+                                         "of that name in the header 'event_id,origin_time,latitude,longitude,depth_km,"
+                                         "magnitude,magnitude_type'"),
+                       InputError);
   CHECK_THROWS_AS(formats::read_catalog_csv(kDir + "no_such_file.csv", formats::CatalogColumns{}), IoError);
   const auto r = formats::read_catalog_csv(kDir + "empty.csv", formats::parse_catalog_columns(kFixtureMap));
   CHECK(r.records == 0);
@@ -87,4 +81,25 @@ TEST_CASE("a UTF-8 byte-order mark before the first line is ignored") {
   CHECK(r.rejected.empty());
   CHECK(r.catalog.events.size() == 2);
   CHECK(r.catalog.description.find("Fictional") != std::string::npos);
+}
+
+TEST_CASE("the fixture reads without a mapping: its header uses common spellings") {
+  const auto mapped = formats::read_catalog_csv(kDir + "fixture_catalog.csv", formats::parse_catalog_columns(kFixtureMap));
+  const auto plain = formats::read_catalog_csv(kDir + "fixture_catalog.csv", formats::CatalogColumns{});
+  REQUIRE(plain.catalog.events.size() == 12);
+  CHECK(plain.columns == mapped.columns);
+  CHECK(plain.warnings.empty());
+}
+
+TEST_CASE("a header without a depth column gives a warning, not an error; depth=- gives none") {
+  test::TempDir dir("catalog-nodepth");
+  std::ofstream(dir / "c.csv") << "id,time,lat,lon,mag\nd1,2024-01-03T04:12:09Z,35.5,-98.2,1.2\n";
+  const auto r = formats::read_catalog_csv((dir / "c.csv").string(), formats::CatalogColumns{});
+  REQUIRE(r.catalog.events.size() == 1);
+  CHECK_FALSE(r.catalog.events[0].depth);
+  REQUIRE(r.warnings.size() == 1);
+  CHECK(r.warnings[0].find("no depth column (looked for 'depth' or 'depth_km')") != std::string::npos);
+  const auto quiet = formats::read_catalog_csv((dir / "c.csv").string(), formats::parse_catalog_columns("depth=-"));
+  CHECK(quiet.warnings.empty());
+  CHECK(quiet.columns.find("depth=-") != std::string::npos);
 }
