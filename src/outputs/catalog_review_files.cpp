@@ -29,7 +29,7 @@ nlohmann::json catalog_review_json(const scenario::ResolvedScenario& s, const sc
   nlohmann::json fronts = nlohmann::json::array();
   if (v.rt)
     for (std::size_t i = 0; i < v.rt->diffusivities.size(); ++i)
-      fronts.push_back({{"diffusivity_m2_s", v.rt->diffusivities[i]}, {"fraction_inside", v.rt->fraction_inside[i]}});
+      fronts.push_back({{"diffusivity_m2_per_s", v.rt->diffusivities[i]}, {"fraction_inside", v.rt->fraction_inside[i]}});
   j["against_model"] = {
       {"scenario", s.file},
       {"working_crs", p.working.authority()},
@@ -107,7 +107,7 @@ std::string events_csv(const scenario::ResolvedScenario& s, const screening::Pre
   std::ostringstream ev;
   ev << "event_id,time,x_m,y_m,depth_m,magnitude,magnitude_type,in_study_area,dp_MPa,in_footprint,"
         "footprint_area_fraction,nearest_segment,nearest_fault,distance_m,segment_dp_MPa,segment_dp_crit_MPa,"
-        "segment_reached_dp_crit,p_slip,p_slip_low,p_slip_high,p_slip_date,rt_days_since_start,rt_distance_m,source\n";
+        "segment_reached_dp_crit,p_slip,p_slip_low,p_slip_high,p_slip_date,rt_time_since_start_days,rt_distance_m,source\n";
   for (std::size_t i = 0; i < v.events.size(); ++i) {
     const auto& e = v.catalog.events[i];
     const auto& m = v.events[i];
@@ -175,6 +175,23 @@ void write_rate_tables(const formats::RunFolder& folder, const scenario::Resolve
 }
 
 }  // namespace
+
+std::vector<ReadmeFile> catalog_review_readme(const screening::CatalogReview& v) {
+  std::vector<ReadmeFile> files = {
+      {"catalog_summary.json", "catalog review: counts, completeness, b-value, bounds, seismogenic index, forecasts, "
+                               "the footprint against chance, assumptions"},
+      {"catalog_events.csv", "catalog review: one row per kept event against the model (dp, nearest fault segment, "
+                             "its dp_crit, P(slip), r-t values), coordinates in the working CRS"},
+      {"seismicity_rate.csv", "seismicity rate (Dieterich 1994) per fault segment and output time against the "
+                              "background"},
+      {"seismicity_rate_faults.csv", "seismicity rate (Dieterich 1994) per fault and output time, summed over its "
+                                     "segments"}};
+  if (v.rt) {
+    files.push_back({"rt_events.csv", rt_events_description(*v.rt)});
+    files.push_back({"rt_fronts.csv", rt_fronts_description(*v.rt)});
+  }
+  return files;
+}
 
 void write_catalog_review(const formats::RunFolder& folder, const scenario::ResolvedScenario& s, const screening::PreparedRun& p,
                           const screening::CatalogReview& v) {

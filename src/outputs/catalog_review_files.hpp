@@ -5,6 +5,7 @@
 #include <nlohmann/json.hpp>
 
 #include "formats/files/run_folder.hpp"
+#include "outputs/run_readme.hpp"
 #include "scenario/scenario.hpp"
 #include "screening/catalog_review.hpp"
 #include "screening/prepare.hpp"
@@ -13,6 +14,9 @@ namespace slipscreen::outputs {
 
 void write_catalog_review(const formats::RunFolder& folder, const scenario::ResolvedScenario& s,
                           const screening::PreparedRun& p, const screening::CatalogReview& review);
+
+// Their lines in README.txt.
+std::vector<ReadmeFile> catalog_review_readme(const screening::CatalogReview& review);
 
 // The resolved [catalog] settings and counts for the manifest.
 nlohmann::json catalog_manifest(const screening::CatalogReview& review);

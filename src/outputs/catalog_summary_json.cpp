@@ -112,8 +112,8 @@ json catalog_summary_json(const formats::CatalogReadResult& read, const seismo::
   if (s.mcgarr_moment)
     j["mcgarr_bound"] = {{"method", "McGarr (2014) M0 <= G dV; Mw = (2/3)(log10 M0 - 9.1) (IASPEI 2013)"},
                          {"net_volume_m3", s.net_volume},
-                         {"shear_modulus_pa", s.shear_modulus},
-                         {"max_moment_nm", finite(*s.mcgarr_moment)},
+                         {"shear_modulus_Pa", s.shear_modulus},
+                         {"max_moment_N_m", finite(*s.mcgarr_moment)},
                          {"max_mw", s.mcgarr_mw ? finite(*s.mcgarr_mw) : json(nullptr)}};
   else
     j["mcgarr_bound"] = nullptr;

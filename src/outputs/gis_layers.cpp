@@ -44,7 +44,7 @@ VectorLayer earthquake_layer(const ResolvedScenario& s, const PreparedRun& p, co
                      {"segment_dp_crit_MPa", FieldType::real}, {"segment_reached", FieldType::integer},
                      {"footprint_area_fraction", FieldType::real}, {"p_slip", FieldType::real},
                      {"p_slip_low", FieldType::real},        {"p_slip_high", FieldType::real},
-                     {"p_slip_date", FieldType::date},       {"rt_days_since_start", FieldType::real},
+                     {"p_slip_date", FieldType::date},       {"rt_time_since_start_days", FieldType::real},
                      {"rt_distance_m", FieldType::real}},
                     "Earthquakes of the reviewed catalog against the model (screening estimate)");
   const FieldValue none = std::monostate{};
@@ -73,6 +73,13 @@ VectorLayer earthquake_layer(const ResolvedScenario& s, const PreparedRun& p, co
 }
 
 }  // namespace
+
+ReadmeFile gis_layers_readme(const ResolvedScenario& s, bool probabilistic, bool review) {
+  return {s.output.files.geopackage,
+          std::string("GeoPackage: layers fault_segments (the screen's results") +
+              (probabilistic ? " and P(slip) per output time" : "") + "), wells (injected volumes)" +
+              (review ? ", earthquakes (the reviewed events against the model)" : "")};
+}
 
 void write_gis_layers(const RunFolder& folder, const ResolvedScenario& s, const PreparedRun& p,
                   const screen::ScreenResult& r, bool reproducible, const ProbabilisticRun* prob,

@@ -4,6 +4,7 @@
 // catalog review's events against the model) (docs/outputs.md, docs/gis.md).
 #include "core/screen/deterministic_screen.hpp"
 #include "formats/files/run_folder.hpp"
+#include "outputs/run_readme.hpp"
 #include "scenario/scenario.hpp"
 #include "screening/catalog_review.hpp"
 #include "screening/prepare.hpp"
@@ -15,5 +16,8 @@ namespace slipscreen::outputs {
 void write_gis_layers(const formats::RunFolder& folder, const scenario::ResolvedScenario& s,
                       const screening::PreparedRun& p, const screen::ScreenResult& r, bool reproducible,
                       const screening::ProbabilisticRun* prob, const screening::CatalogReview* review);
+
+// Its line in README.txt.
+ReadmeFile gis_layers_readme(const scenario::ResolvedScenario& s, bool probabilistic, bool review);
 
 }  // namespace slipscreen::outputs

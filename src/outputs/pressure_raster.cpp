@@ -6,6 +6,11 @@
 
 namespace slipscreen::outputs {
 
+ReadmeFile pressure_raster_readme(const scenario::ResolvedScenario& s) {
+  return {s.output.files.pressure_raster,
+          "pressure map: GeoTIFF of the pore-pressure change dp (MPa) over the output grid, one band per output time"};
+}
+
 void write_pressure_raster(const formats::RunFolder& folder, const scenario::ResolvedScenario& s,
                            const screening::PreparedRun& p, const screening::PressureMap& map) {
   std::vector<formats::RasterBand> bands(map.dp.size());

@@ -2,6 +2,7 @@
 // pressure_change.tif: Δp (MPa) over the output grid, one Float32 band per output time, band
 // descriptions = ISO dates (docs/outputs.md).
 #include "formats/files/run_folder.hpp"
+#include "outputs/run_readme.hpp"
 #include "scenario/scenario.hpp"
 #include "screening/pressure_map.hpp"
 #include "screening/prepare.hpp"
@@ -10,5 +11,8 @@ namespace slipscreen::outputs {
 
 void write_pressure_raster(const formats::RunFolder& folder, const scenario::ResolvedScenario& s,
                            const screening::PreparedRun& p, const screening::PressureMap& map);
+
+// Its line in README.txt.
+ReadmeFile pressure_raster_readme(const scenario::ResolvedScenario& s);
 
 }  // namespace slipscreen::outputs

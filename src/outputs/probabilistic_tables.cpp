@@ -206,6 +206,22 @@ void write_probabilistic_outputs(const formats::RunFolder& folder, const scenari
   if (s.output.rasters && !run.result.map_dangerous.empty()) write_probability_rasters(c);
 }
 
+std::vector<ReadmeFile> probabilistic_readme(const screening::ProbabilisticRun& run) {
+  const std::string n = std::to_string(run.result.realizations) + " realizations";
+  return {{"segment_probability.csv", "probabilistic screen: P(slip by date) per fault segment and output time with "
+                                      "its Wilson interval, and dp percentiles (MPa), over " + n},
+          {"segment_probability_summary.csv", "probabilistic screen: per fault segment, dp_crit percentiles (MPa), the "
+                                              "final P(slip) and the first date each threshold is reached"},
+          {"sensitivity.csv", "probabilistic screen: per fault, Spearman's rho of each sampled input against the slip "
+                              "margin, ranked"},
+          {"median_well_shares.csv", "probabilistic screen: the wells that make the median realization's dp, per fault "
+                                     "segment and output time"},
+          {"slip_probability_dangerous.tif", "probabilistic screen: GeoTIFF of P(slip) of a fault of the most dangerous "
+                                             "orientation, one band per output time"},
+          {"slip_probability_oriented.tif", "probabilistic screen: GeoTIFF of P(slip) of a fault of the orientation of "
+                                            "[uncertainty.maps], one band per output time"}};
+}
+
 nlohmann::json probabilistic_manifest(const screening::ProbabilisticRun& run) {
   const auto& r = run.result;
   return {{"uncertainty", scenario::to_json(run.spec)},

@@ -5,6 +5,7 @@
 #include <nlohmann/json.hpp>
 
 #include "formats/files/run_folder.hpp"
+#include "outputs/run_readme.hpp"
 #include "scenario/scenario.hpp"
 #include "screening/prepare.hpp"
 #include "screening/probabilistic_screen.hpp"
@@ -13,6 +14,9 @@ namespace slipscreen::outputs {
 
 void write_probabilistic_outputs(const formats::RunFolder& folder, const scenario::ResolvedScenario& s,
                                  const screening::PreparedRun& p, const screening::ProbabilisticRun& run);
+
+// Their lines in README.txt.
+std::vector<ReadmeFile> probabilistic_readme(const screening::ProbabilisticRun& run);
 
 // The probabilistic block of the manifest.
 nlohmann::json probabilistic_manifest(const screening::ProbabilisticRun& run);

@@ -1,31 +1,23 @@
 #include "outputs/rt_tables.hpp"
 
 #include <algorithm>
-#include <cstdio>
 #include <sstream>
 
-#include "core/caution.hpp"
 #include "core/seismo/triggering_front.hpp"
 #include "core/units/units.hpp"
+#include "core/util/number_text.hpp"
 #include "formats/table/csv.hpp"
 #include "formats/table/iso_time.hpp"
-#include "core/util/number_text.hpp"
 
 namespace slipscreen::outputs {
-namespace {
-
-}  // namespace
 
 using formats::csv_field;
-using util::fixed_decimals;
 using formats::format_iso8601_utc;
+using util::fixed_decimals;
 
 std::string rt_events_csv(const seismo::Catalog& c, const screening::RtView& v) {
   std::ostringstream t;
-  t << "# r-t view: distance from " << (v.well.empty() ? "the point" : "well " + v.well) << " at ("
-    << util::number_text(v.position[0], 10) << ", " << util::number_text(v.position[1], 10) << ") against time since "
-    << format_iso8601_utc(v.start) << ". " << kScreeningCaution << "\n";
-  t << "event_id,time,days_since_start,distance_m,magnitude,diffusivity_through_point_m2_s\n";
+  t << "event_id,time,time_since_start_days,distance_m,magnitude,diffusivity_through_point_m2_per_s\n";
   for (const auto& p : v.points) {
     const auto& e = c.events[p.event];
     t << csv_field(e.id) << "," << format_iso8601_utc(e.time) << "," << fixed_decimals(p.t / units::kDay, 4) << ","
@@ -35,22 +27,33 @@ std::string rt_events_csv(const seismo::Catalog& c, const screening::RtView& v) 
 }
 
 std::string rt_fronts_csv(const screening::RtView& v) {
-  std::ostringstream fc;
-  fc << "# Triggering fronts r = sqrt(4 pi D t) (Shapiro et al. 1997). " << kScreeningCaution << "\n";
-  fc << "days_since_start";
-  for (double d : v.diffusivities) fc << ",front_m_D_" << util::number_text(d, 4) << "_m2_s";
-  fc << "\n";
   double t_max = 0.0;
   for (const auto& p : v.points) t_max = std::max(t_max, p.t);
   if (t_max <= 0.0) t_max = 365.25 * units::kDay;
   const int n = 200;
-  for (int k = 0; k <= n; ++k) {
-    const double tt = t_max * k / n;
-    fc << fixed_decimals(tt / units::kDay, 4);
-    for (double d : v.diffusivities) fc << "," << fixed_decimals(seismo::front_radius(d, tt), 1);
-    fc << "\n";
-  }
+  std::ostringstream fc;
+  fc << "diffusivity_m2_per_s,time_since_start_days,front_radius_m\n";
+  for (double d : v.diffusivities)
+    for (int k = 0; k <= n; ++k) {
+      const double tt = t_max * k / n;
+      fc << util::number_text(d, 4) << "," << fixed_decimals(tt / units::kDay, 4) << ","
+         << fixed_decimals(seismo::front_radius(d, tt), 1) << "\n";
+    }
   return fc.str();
+}
+
+std::string rt_events_description(const screening::RtView& v) {
+  return "r-t view: each event's distance from " + (v.well.empty() ? std::string("the point") : "well " + v.well) +
+         " at (" + util::number_text(v.position[0], 10) + ", " + util::number_text(v.position[1], 10) +
+         ") against time since " + format_iso8601_utc(v.start) +
+         ", with the diffusivity whose front passes through the event";
+}
+
+std::string rt_fronts_description(const screening::RtView& v) {
+  std::string ds;
+  for (double d : v.diffusivities) ds += (ds.empty() ? "" : ", ") + util::number_text(d, 4);
+  return "r-t view: triggering-front radius r = sqrt(4 pi D t) (Shapiro et al. 1997) against time since " +
+         format_iso8601_utc(v.start) + ", one row per diffusivity (" + ds + " m2/s) and time";
 }
 
 }  // namespace slipscreen::outputs

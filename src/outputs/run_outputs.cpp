@@ -7,6 +7,7 @@
 #include "outputs/output_text.hpp"
 #include "outputs/pressure_raster.hpp"
 #include "outputs/probabilistic_tables.hpp"
+#include "outputs/run_readme.hpp"
 #include "outputs/screen_tables.hpp"
 
 namespace slipscreen::outputs {
@@ -21,11 +22,46 @@ nlohmann::json run_block(const screening::PreparedRun& p, const screen::ScreenRe
           {"segments", p.segments.size()},
           {"wells", p.wells.size()},
           {"meridian_convergence_deg", p.convergence_rad * kRadToDeg},
-          {"stress_at_reference_depth_Pa",
-           {{"sv", st.sv}, {"shmax", st.shmax}, {"shmin", st.shmin}, {"pore_pressure", st.pore_pressure}}},
+          {"stress_at_reference_depth",
+           {{"sv_Pa", st.sv}, {"shmax_Pa", st.shmax}, {"shmin_Pa", st.shmin}, {"pore_pressure_Pa", st.pore_pressure}}},
           {"theis", {{"diffusivity_m2_per_s", p.inputs.formation.diffusivity},
                      {"pressure_per_rate_Pa_s_per_m3", p.inputs.formation.pressure_per_rate}}},
           {"well_radius_clamped", r.radius_clamped}};
+}
+
+// Which screens ran, for the manifest and README.txt.
+nlohmann::json screens_json(const RunResults& r) {
+  return {{"deterministic", true},
+          {"probabilistic", r.probabilistic != nullptr},
+          {"pressure_map", r.pressure != nullptr},
+          {"catalog_review", r.review != nullptr},
+          {"rt_view", r.review != nullptr && r.review->rt.has_value()}};
+}
+
+std::string screens_text(const RunResults& r) {
+  std::string t = "deterministic screen";
+  if (r.probabilistic) t += "; probabilistic screen (" + std::to_string(r.probabilistic->result.realizations) + " realizations)";
+  if (r.pressure) t += "; pressure map";
+  if (r.review) t += "; catalog review";
+  if (r.review && r.review->rt) t += "; r-t view";
+  return t;
+}
+
+ReadmeContent run_readme(const scenario::ResolvedScenario& s, const RunResults& r) {
+  ReadmeContent c;
+  c.title = "slipscreen run: " + (s.title.empty() ? s.file : s.title);
+  std::string dates;
+  for (const auto& d : s.output.dates) dates += (dates.empty() ? "" : ", ") + util::format_iso_date(d);
+  c.facts = {"Scenario: " + s.file, "Screens run: " + screens_text(r), "Output times: " + dates};
+  const std::string crs = r.prepared.working.authority();
+  if (!crs.empty()) c.facts.push_back("Working CRS: " + crs + " (coordinates in metres)");
+  c.files = screen_tables_readme(s);
+  c.files.push_back(pressure_raster_readme(s));
+  c.files.push_back(gis_layers_readme(s, r.probabilistic != nullptr, r.review != nullptr));
+  if (r.probabilistic) for (auto& f : probabilistic_readme(*r.probabilistic)) c.files.push_back(std::move(f));
+  if (r.review) for (auto& f : catalog_review_readme(*r.review)) c.files.push_back(std::move(f));
+  c.manifest = s.output.files.manifest;
+  return c;
 }
 
 }  // namespace
@@ -39,8 +75,11 @@ void write_run_outputs(const formats::RunFolder& folder, const scenario::Resolve
   if (r.probabilistic) write_probabilistic_outputs(folder, s, p, *r.probabilistic);
   if (r.review) write_catalog_review(folder, s, p, *r.review);
 
+  write_readme(folder, run_readme(s, r));
+
   formats::ManifestContent m;
   m.command_line = o.command_line;
+  m.screens = screens_json(r);
   m.seed = s.seed;
   m.caution = kScreeningCaution;
   m.include_timestamp = !o.reproducible;

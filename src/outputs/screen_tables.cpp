@@ -16,6 +16,25 @@ using formats::RunFolder;
 using scenario::ResolvedScenario;
 using screening::PreparedRun;
 
+namespace {
+
+// well_shares.csv, beside segment_times.csv.
+std::string well_shares_path(const ResolvedScenario& s) {
+  return (std::filesystem::path(s.output.files.segment_times).parent_path() / "well_shares.csv").generic_string();
+}
+
+}  // namespace
+
+std::vector<ReadmeFile> screen_tables_readme(const ResolvedScenario& s) {
+  return {{s.output.files.segment_times,
+           "deterministic screen: one row per fault segment and output time: dp, dp_crit and their margin (MPa), "
+           "the leading well"},
+          {well_shares_path(s), "deterministic screen: one row per fault segment, output time and well: the well's "
+                                "part of dp (MPa) and its share"},
+          {s.output.files.segments, "deterministic screen: one row per fault segment: stress on its plane, slip "
+                                    "tendency, dp_crit, peak dp and the first date dp reaches dp_crit"}};
+}
+
 void write_screen_tables(const RunFolder& folder, const ResolvedScenario& s, const PreparedRun& p,
                   const screen::ScreenResult& r) {
   const std::size_t W = p.wells.size(), K = s.output.times.size();
@@ -40,8 +59,7 @@ void write_screen_tables(const RunFolder& folder, const ResolvedScenario& s, con
     t.close();
   }
   {
-    const std::filesystem::path name = std::filesystem::path(s.output.files.segment_times).parent_path() / "well_shares.csv";
-    formats::TextFileWriter t(folder.output("output.files.segment_times", name.generic_string()));
+    formats::TextFileWriter t(folder.output("output.files.segment_times", well_shares_path(s)));
     t.row({"segment_id", "date", "well_id", "dp_MPa", "share"});
     // W rows per segment and time (8 million in a regional screen): formatted into one buffer.
     std::vector<std::string> dates, wells;

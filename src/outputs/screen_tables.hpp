@@ -5,6 +5,7 @@
 //   segments.csv        one row per fault segment: stress, Δp_crit, peak Δp, first crossing
 #include "core/screen/deterministic_screen.hpp"
 #include "formats/files/run_folder.hpp"
+#include "outputs/run_readme.hpp"
 #include "scenario/scenario.hpp"
 #include "screening/prepare.hpp"
 
@@ -12,5 +13,8 @@ namespace slipscreen::outputs {
 
 void write_screen_tables(const formats::RunFolder& folder, const scenario::ResolvedScenario& s,
                          const screening::PreparedRun& p, const screen::ScreenResult& r);
+
+// Their lines in README.txt.
+std::vector<ReadmeFile> screen_tables_readme(const scenario::ResolvedScenario& s);
 
 }  // namespace slipscreen::outputs

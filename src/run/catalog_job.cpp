@@ -31,7 +31,9 @@ CatalogJobResult run_catalog_job(const CatalogJob& job) {
   r.json["rt_view"] = r.rt ? outputs::rt_view_json(*r.rt) : nlohmann::json(nullptr);
   if (!job.out.empty()) {
     formats::RunFolder folder(job.out, formats::RunFolderOptions{job.force});
-    outputs::write_catalog_folder(folder, r.json, r.filtered.catalog, r.rt);
+    outputs::CatalogFolderRecord record{job.command_line, {{"catalog", job.file, ""}}};
+    if (!job.volume_history.empty()) record.inputs.push_back({"volume history", job.volume_history, ""});
+    outputs::write_catalog_folder(folder, r.json, r.filtered.catalog, r.rt, record);
     folder.commit();
   }
   return r;

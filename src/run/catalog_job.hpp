@@ -35,6 +35,7 @@ struct CatalogJob {
   std::optional<RtRequest> rt;
   std::filesystem::path out;             // "" = no folder
   bool force = false;
+  std::vector<std::string> command_line; // for the folder's manifest
 };
 
 struct CatalogJobResult {

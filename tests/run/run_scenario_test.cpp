@@ -45,7 +45,7 @@ TEST_CASE("the tiny scenario writes every output into its run folder") {
   const fs::path out = t.dir() / "runs" / "tiny";
   const RunSummary r = run_scenario(s, options_into(out));
   CHECK(r.folder == out);
-  const std::vector<std::string> expected = {"manifest.json", "pressure_change.tif", "screen.gpkg",
+  const std::vector<std::string> expected = {"README.txt", "manifest.json", "pressure_change.tif", "screen.gpkg",
                                              "segment_times.csv", "segments.csv", "well_shares.csv"};
   CHECK(r.files == expected);
   CHECK(r.fault_count == 2);

@@ -1,12 +1,14 @@
 #include "formats/files/manifest.hpp"
 
 #include <ctime>
+#include <fstream>
 #include <map>
 
 #include "core/errors.hpp"
+#include "formats/files/build_info.hpp"
 #include "formats/files/file_hash.hpp"
 #include "formats/files/text_file.hpp"
-#include "slipscreen/version.hpp"
+#include "formats/table/csv_fields.hpp"
 
 namespace slipscreen::formats {
 
@@ -30,6 +32,31 @@ nlohmann::json file_entry(const fs::path& path, const std::string& shown) {
   return {{"path", shown}, {"bytes", static_cast<std::uint64_t>(bytes)}, {"sha256", sha256_file(path)}};
 }
 
+// A CSV output's header names and its count of data records (RFC 4180: a line feed inside
+// quotes does not end a record).
+void add_table_shape(nlohmann::json& entry, const fs::path& path) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw IoError(path.string() + ": cannot read the table to record it in the manifest");
+  std::string header;
+  std::getline(in, header);
+  if (!header.empty() && header.back() == '\r') header.pop_back();
+  std::uint64_t records = 0;
+  bool quoted = false, open_record = false;
+  char c = 0;
+  while (in.get(c)) {
+    if (c == '"') quoted = !quoted;
+    if (c == '\n' && !quoted) {
+      ++records;
+      open_record = false;
+    } else {
+      open_record = true;
+    }
+  }
+  if (in.bad()) throw IoError(path.string() + ": cannot read the table to record it in the manifest");
+  entry["columns"] = header.empty() ? std::vector<std::string>{} : split_csv_record(header);
+  entry["rows"] = records + (open_record ? 1 : 0);
+}
+
 }  // namespace
 
 nlohmann::json manifest_json(const ManifestContent& c, std::chrono::system_clock::time_point now,
@@ -38,7 +65,11 @@ nlohmann::json manifest_json(const ManifestContent& c, std::chrono::system_clock
   if (!c.parameters.is_object())
     throw InputError("parameters", c.parameters.type_name(), "a JSON object of resolved parameters");
   nlohmann::json j = nlohmann::json::object();
-  j["tool"] = {{"name", "slipscreen"}, {"version", kVersion}};
+  if (!c.screens.is_object())
+    throw InputError("screens", c.screens.type_name(), "a JSON object naming each screen with true or false");
+  j["tool"] = build_json();
+  j["tool"]["name"] = "slipscreen";
+  if (!c.screens.empty()) j["screens"] = c.screens;
   j["caution"] = c.caution;
   j["command_line"] = c.command_line;
   j["parameters"] = c.parameters;
@@ -59,7 +90,11 @@ nlohmann::json manifest_json(const ManifestContent& c, std::chrono::system_clock
       files.emplace(rel, entry.path());
     }
     j["outputs"] = nlohmann::json::array();
-    for (const auto& [rel, full] : files) j["outputs"].push_back(file_entry(full, rel));
+    for (const auto& [rel, full] : files) {
+      nlohmann::json e = file_entry(full, rel);
+      if (full.extension() == ".csv") add_table_shape(e, full);
+      j["outputs"].push_back(std::move(e));
+    }
   }
   return j;
 }

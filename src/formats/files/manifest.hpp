@@ -8,14 +8,21 @@
 //     "created_utc":  "2031-01-01T12:00:00Z"   (omitted when include_timestamp is false),
 //     "inputs":       [{"role": "fault map", "path": "faults.gpkg", "bytes": 12345,
 //                       "sha256": "<64 hex>"}, ...]                    (in the order given),
-//     "outputs":      [{"path": "tables/summary.csv", "bytes": ..., "sha256": ...}, ...]
-//                                                                       (sorted by path; optional),
+//     "outputs":      [{"path": "tables/summary.csv", "bytes": ..., "sha256": ...,
+//                       "columns": ["segment_id", ...], "rows": 120}, ...]
+//                     (sorted by path; optional; "columns" (the header) and "rows" (data records)
+//                      for .csv files only),
 //     "parameters":   the resolved parameters, as given by the caller (any JSON object),
+//     "screens":      {"deterministic": true, "probabilistic": false, ...}: which screens ran
+//                     (omitted when the caller gives none),
 //     "seed":         the random seed (omitted when none),
-//     "tool":         {"name": "slipscreen", "version": kVersion}
+//     "tool":         {"name": "slipscreen", "version": kVersion, "git_commit": ..., "compiler": ...,
+//                      "libraries": {"gdal": ..., "proj": ..., "eigen": ..., "boost": ...}}
+//                     (formats/files/build_info.hpp: the only build-dependent fields of a run)
 //   }
-// Written as 2-space indented JSON with a final newline. Given the same inputs, a rerun differs
-// only in "created_utc"; with include_timestamp = false the file is byte-identical.
+// Written as 2-space indented JSON with a final newline. Given the same inputs and the same
+// build, a rerun differs only in "created_utc"; with include_timestamp = false the file is
+// byte-identical. Another build differs in "tool" (and nothing outside the manifest does).
 #include <chrono>
 #include <cstdint>
 #include <filesystem>
@@ -38,6 +45,7 @@ struct ManifestContent {
   nlohmann::json parameters = nlohmann::json::object();
   std::optional<std::uint64_t> seed;
   std::vector<ManifestInput> inputs;
+  nlohmann::json screens = nlohmann::json::object();  // screen name -> ran (true/false); {} = not recorded
   std::string caution;           // the screening caution (required, non-empty)
   bool include_timestamp = true;
 };
@@ -47,7 +55,7 @@ std::string utc_iso_time(std::chrono::system_clock::time_point t);
 
 // The manifest as JSON. Hashes every input (IoError naming the file when one cannot be read)
 // and, when `outputs_root` is given, every regular file under it except manifest.json itself.
-// Throws InputError when the caution is empty or parameters is not an object.
+// Throws InputError when the caution is empty or parameters or screens is not an object.
 nlohmann::json manifest_json(const ManifestContent& content,
                              std::chrono::system_clock::time_point now = std::chrono::system_clock::now(),
                              const std::optional<std::filesystem::path>& outputs_root = std::nullopt);
