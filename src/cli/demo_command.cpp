@@ -25,10 +25,15 @@ std::string demo_scenario() {
 
 void register_demo_command(CLI::App& app, Context& ctx) {
   auto opts = std::make_shared<RunCommandOptions>();
-  CLI::App* sub = app.add_subcommand("demo", "Run the bundled demo (the fictional Marrowick Basin) into runs/demo");
+  CLI::App* sub = app.add_subcommand(
+      "demo", "Run the bundled demo scenario (the fictional Marrowick Basin, regions/marrowick) with every screen into "
+              "runs/demo, as `run` does");
+  sub->footer("The demo scenario has wells with monthly volumes, a planned well, mapped faults, [uncertainty] and a\n"
+              "synthetic [catalog], so every screen runs.\n\n" + run_footer());
   sub->add_option("--out", opts->out, "Run folder")->default_val("runs/demo");
-  sub->add_flag("--force", opts->force, "Replace an existing run folder (only once the new run is complete)");
-  sub->add_flag("--reproducible", opts->reproducible, "Byte-identical reruns (no creation time in the manifest)");
+  sub->add_flag("--force", opts->force, "Replace an existing run folder; the old one stays until the new run is complete");
+  sub->add_flag("--reproducible", opts->reproducible,
+                "Leave the creation time out of the manifest and fix the GeoPackage timestamp (byte-identical reruns)");
   sub->callback([opts, &ctx] {
     ctx.action = [opts, &ctx] {
       RunCommandOptions o = *opts;

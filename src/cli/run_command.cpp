@@ -7,12 +7,31 @@
 
 namespace slipscreen::cli {
 
+// What `run` does today (run/run_scenario.cpp), in its order; `demo` shows the same.
+std::string run_footer() {
+  return "What run does, in order:\n"
+         "  1. reads and checks every input the scenario names (region, wells, histories, fault map, catalog);\n"
+         "     bad input stops it here with one message, before anything is computed or written\n"
+         "  2. deterministic screen: Theis pore-pressure change at every fault segment against its Coulomb\n"
+         "     dp_crit, and the first date it is reached\n"
+         "  3. with [uncertainty]: probabilistic screen, P(slip) by each output time with Wilson intervals\n"
+         "  4. with [catalog]: catalog review (Mc, b-value, bounds, seismogenic index), the events against\n"
+         "     the model, and the r-t view around a well\n"
+         "  5. with [output] rasters: pressure map of the pore-pressure change\n"
+         "  6. writes the CSV tables, GeoTIFFs and screen.gpkg that [output] asks for, README.txt and\n"
+         "     manifest.json into a staging folder, then renames it to the run folder (--out, else\n"
+         "     [output] folder): all or nothing.\n"
+         "An existing run folder is refused unless --force. Outputs: docs/outputs.md.";
+}
+
 void register_run_command(CLI::App& app, Context& ctx) {
   auto opts = std::make_shared<RunCommandOptions>();
-  CLI::App* sub = app.add_subcommand("run", "Run a scenario: deterministic screen into a run folder");
+  CLI::App* sub = app.add_subcommand(
+      "run", "Run a scenario: every screen it asks for, written into one run folder (what it does: below)");
+  sub->footer(run_footer());
   sub->add_option("scenario", opts->scenario, "Scenario file (TOML), see docs/scenario.md")->required();
   sub->add_option("--out", opts->out, "Run folder (default: [output] folder of the scenario)");
-  sub->add_flag("--force", opts->force, "Replace an existing run folder (only once the new run is complete)");
+  sub->add_flag("--force", opts->force, "Replace an existing run folder; the old one stays until the new run is complete");
   sub->add_flag("--allow-network", opts->allow_network, "Allow GDAL network paths (/vsicurl/ ...) in the scenario");
   sub->add_flag("--reproducible", opts->reproducible,
                 "Leave the creation time out of the manifest and fix the GeoPackage timestamp (byte-identical reruns)");

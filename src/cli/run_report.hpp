@@ -20,4 +20,7 @@ struct RunCommandOptions {
 // Loads, runs and reports; returns the exit code (typed errors propagate to cli::run).
 int run_and_report(const RunCommandOptions& o, Context& ctx);
 
+// What `run` does, in order, for the help of `run` and `demo` (defined in run_command.cpp).
+std::string run_footer();
+
 }  // namespace slipscreen::cli

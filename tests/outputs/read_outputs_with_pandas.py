@@ -2,8 +2,9 @@
 """Reads every CSV of a run folder the way users read them (pandas.read_csv with its defaults)
 and checks each against the run's manifest: the columns and the number of rows it records, that
 columns named with a unit are numbers and date columns dates, that no CSV has a comment line or
-the caution, that README.txt lists every file once, and that every CSV column and JSON key spells
-its unit the one way (docs/outputs.md, "Units in names").
+the caution, that README.txt lists every file once, that no file but the manifest holds the
+build (compiler, git commit), and that every CSV column and JSON key spells its unit the one way
+(docs/outputs.md, "Units in names").
 
     read_outputs_with_pandas.py SLIPSCREEN SOURCE_DIR WORK_DIR
 
@@ -127,6 +128,16 @@ def check_folder(folder):
     if files != listed:
         fail(f"{folder}: the manifest lists {listed}, the folder holds {files}")
     check_readme(folder, files)
+    # The build is recorded in the manifest only: no other output changes with the build.
+    build = [manifest["tool"]["compiler"], "slipscreen " + manifest["tool"]["version"]]
+    if manifest["tool"]["git_commit"] != "unknown":
+        build.append(manifest["tool"]["git_commit"])
+    for name in files:
+        if name != "manifest.json":
+            data = (folder / name).read_bytes()
+            for text in build:
+                if text.encode() in data:
+                    fail(f"{folder}/{name} holds the build-dependent text '{text}' (only the manifest may)")
     check_keys(json_keys(manifest), f"{folder}/manifest.json")
     for extra in folder.glob("*.json"):
         check_keys(json_keys(json.loads(extra.read_text(encoding="utf-8"))), str(extra))

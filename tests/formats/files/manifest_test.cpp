@@ -4,7 +4,12 @@
 
 #include <fstream>
 
+#include <Eigen/Core>
+#include <boost/version.hpp>
+#include <gdal.h>
+
 #include "core/errors.hpp"
+#include "slipscreen/build_info.hpp"
 #include "slipscreen/version.hpp"
 #include "support/temp_dir.hpp"
 
@@ -89,6 +94,48 @@ TEST_CASE("outputs are listed with hashes, sorted, without the manifest itself")
   CHECK(j["outputs"][0]["path"] == "a.tif");
   CHECK(j["outputs"][1]["path"] == "tables/z.csv");
   CHECK(j["outputs"][1]["sha256"] == "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad");
+  // A CSV output also gets its header names and its count of data records.
+  CHECK(j["outputs"][1]["columns"] == nlohmann::json::array({"abc"}));
+  CHECK(j["outputs"][1]["rows"] == 0);
+  CHECK_FALSE(j["outputs"][0].contains("rows"));
+}
+
+TEST_CASE("a CSV output's columns and rows: quoted line feeds stay in their record, a last line may lack one") {
+  test::TempDir dir("manifest-shape");
+  auto c = sample(dir);
+  const fs::path run = dir / "run";
+  fs::create_directories(run);
+  std::ofstream(run / "t.csv", std::ios::binary) << "id,\"note, long\",dp_MPa\r\nW-1,\"two\nlines\",1.5\nW-2,x,2";
+  const auto j = formats::manifest_json(c, std::chrono::system_clock::now(), run);
+  REQUIRE(j["outputs"].size() == 1);
+  CHECK(j["outputs"][0]["columns"] == nlohmann::json::array({"id", "note, long", "dp_MPa"}));
+  CHECK(j["outputs"][0]["rows"] == 2);
+}
+
+TEST_CASE("the manifest records the build and the screens that ran") {
+  test::TempDir dir("manifest-build");
+  auto c = sample(dir);
+  c.screens = {{"deterministic", true}, {"probabilistic", false}};
+  const auto j = formats::manifest_json(c);
+  CHECK(j["tool"]["version"] == kVersion);
+  CHECK(j["tool"]["git_commit"] == kGitCommit);
+  CHECK(!j["tool"]["git_commit"].get<std::string>().empty());
+  CHECK(j["tool"]["compiler"] == std::string(kCompilerId) + " " + kCompilerVersion);
+  // Library versions as the library itself reports them (GDAL) or as compiled (Eigen, Boost).
+  CHECK(j["tool"]["libraries"]["gdal"] == GDALVersionInfo("RELEASE_NAME"));
+  CHECK(j["tool"]["libraries"]["eigen"] == std::to_string(EIGEN_WORLD_VERSION) + "." + std::to_string(EIGEN_MAJOR_VERSION) +
+                                               "." + std::to_string(EIGEN_MINOR_VERSION));
+  const std::string boost = j["tool"]["libraries"]["boost"];
+  CHECK(boost.rfind(std::string(BOOST_LIB_VERSION).replace(1, 1, ".") + ".", 0) == 0);  // "1_74" -> "1.74."
+  const std::string proj = j["tool"]["libraries"]["proj"];
+  CHECK(proj.find('.') != std::string::npos);
+  CHECK(proj.rfind("0.", 0) != 0);  // a real PROJ major version
+  CHECK(j["screens"]["deterministic"] == true);
+  CHECK(j["screens"]["probabilistic"] == false);
+  c.screens = nlohmann::json::object();
+  CHECK_FALSE(formats::manifest_json(c).contains("screens"));
+  c.screens = nlohmann::json::array();
+  CHECK_THROWS_AS(formats::manifest_json(c), InputError);
 }
 
 TEST_CASE("manifest errors") {
