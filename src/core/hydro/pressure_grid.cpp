@@ -10,6 +10,7 @@
 #include "core/errors.hpp"
 #include "core/hydro/well_function.hpp"
 #include "core/util/number_text.hpp"
+#include "core/util/parallel_errors.hpp"
 
 namespace slipscreen::hydro {
 namespace {
@@ -365,41 +366,44 @@ std::vector<double> profile_tables(const TimeBlock& tb, const NodeLayout& layout
   const std::vector<std::size_t>& kept = layout.reach.kept;
   const std::size_t nt = tb.nt, k_max = tb.k_max;
   const double s0 = layout.s0, h = layout.h, d = layout.d;
+  util::ParallelErrors errors;
 #pragma omp parallel for schedule(dynamic)
-  for (std::size_t kk = 0; kk < nt; ++kk) {
-    const double t = tb.time(kk);
-    const std::size_t nj = static_cast<std::size_t>(std::lower_bound(tau.begin(), tau.end(), t) - tau.begin());
-    if (nj == 0) continue;
-    const auto cols = static_cast<Eigen::Index>(k_max);
-    Eigen::MatrixXd f = Eigen::MatrixXd::Zero(steps.dq.rows(), cols), fd = Eigen::MatrixXd::Zero(steps.dq.rows(), cols);
-    std::vector<double> r2n(k_max);
-    for (std::size_t n = 0; n < k_max; ++n) r2n[n] = std::exp(2.0 * (s0 + double(n) * h));
-    for (std::size_t c0 = 0; c0 < nj; c0 += kStepChunk) {
-      const std::size_t nc = std::min(kStepChunk, nj - c0);
-      RowMatrix e(static_cast<Eigen::Index>(nc), cols), g(static_cast<Eigen::Index>(nc), cols);
-      for (std::size_t jj = 0; jj < nc; ++jj) {
-        const double a = 1.0 / (4.0 * d * (t - tau[c0 + jj]));
-        double* er = e.data() + jj * k_max;
-        double* gr = g.data() + jj * k_max;
-        for (std::size_t n = 0; n < k_max; ++n) gr[n] = r2n[n] * a;  // u
-        well_function(gr, er, k_max);
-        for (std::size_t n = 0; n < k_max; ++n) gr[n] = -2.0 * h * std::exp(-gr[n]);  // h · dE1/ds
+  for (std::size_t kk = 0; kk < nt; ++kk)
+    errors.iteration(kk, [&] {
+      const double t = tb.time(kk);
+      const std::size_t nj = static_cast<std::size_t>(std::lower_bound(tau.begin(), tau.end(), t) - tau.begin());
+      if (nj == 0) return;
+      const auto cols = static_cast<Eigen::Index>(k_max);
+      Eigen::MatrixXd f = Eigen::MatrixXd::Zero(steps.dq.rows(), cols), fd = Eigen::MatrixXd::Zero(steps.dq.rows(), cols);
+      std::vector<double> r2n(k_max);
+      for (std::size_t n = 0; n < k_max; ++n) r2n[n] = std::exp(2.0 * (s0 + double(n) * h));
+      for (std::size_t c0 = 0; c0 < nj; c0 += kStepChunk) {
+        const std::size_t nc = std::min(kStepChunk, nj - c0);
+        RowMatrix e(static_cast<Eigen::Index>(nc), cols), g(static_cast<Eigen::Index>(nc), cols);
+        for (std::size_t jj = 0; jj < nc; ++jj) {
+          const double a = 1.0 / (4.0 * d * (t - tau[c0 + jj]));
+          double* er = e.data() + jj * k_max;
+          double* gr = g.data() + jj * k_max;
+          for (std::size_t n = 0; n < k_max; ++n) gr[n] = r2n[n] * a;  // u
+          well_function(gr, er, k_max);
+          for (std::size_t n = 0; n < k_max; ++n) gr[n] = -2.0 * h * std::exp(-gr[n]);  // h · dE1/ds
+        }
+        const auto block_cols = steps.dq.middleCols(static_cast<Eigen::Index>(c0), static_cast<Eigen::Index>(nc));
+        f.noalias() += block_cols * e;
+        fd.noalias() += block_cols * g;
       }
-      const auto block_cols = steps.dq.middleCols(static_cast<Eigen::Index>(c0), static_cast<Eigen::Index>(nc));
-      f.noalias() += block_cols * e;
-      fd.noalias() += block_cols * g;
-    }
-    for (std::size_t r = 0; r < kept.size(); ++r) {
-      const std::size_t w = kept[r];
-      if (kk < tb.k0[w] || tb.nodes[w] == 0) continue;
-      const std::size_t m = nt - tb.k0[w], col = kk - tb.k0[w];
-      double* tw = table.data() + tb.offset[w];
-      for (std::size_t n = 0; n < tb.nodes[w]; ++n) {
-        tw[n * 2 * m + col] = c * f(Eigen::Index(r), Eigen::Index(n));
-        tw[n * 2 * m + m + col] = c * fd(Eigen::Index(r), Eigen::Index(n));
+      for (std::size_t r = 0; r < kept.size(); ++r) {
+        const std::size_t w = kept[r];
+        if (kk < tb.k0[w] || tb.nodes[w] == 0) continue;
+        const std::size_t m = nt - tb.k0[w], col = kk - tb.k0[w];
+        double* tw = table.data() + tb.offset[w];
+        for (std::size_t n = 0; n < tb.nodes[w]; ++n) {
+          tw[n * 2 * m + col] = c * f(Eigen::Index(r), Eigen::Index(n));
+          tw[n * 2 * m + m + col] = c * fd(Eigen::Index(r), Eigen::Index(n));
+        }
       }
-    }
-  }
+    });
+  errors.rethrow();
   return table;
 }
 
@@ -409,33 +413,36 @@ void evaluate_tiles(const GridGeometry& geometry, const std::vector<Source>& sou
   const std::size_t nx = geometry.nx, ny = geometry.ny, ns = sources.size(), nt = tb.nt;
   const std::size_t tiles_x = (nx + kTile - 1) / kTile, tiles_y = (ny + kTile - 1) / kTile;
   const double s0 = layout.s0, h = layout.h;
+  util::ParallelErrors errors;
 #pragma omp parallel for schedule(dynamic)
-  for (std::size_t tile = 0; tile < tiles_x * tiles_y; ++tile) {
-    const std::size_t i0 = (tile % tiles_x) * kTile, j0 = (tile / tiles_x) * kTile;
-    const std::size_t i1 = std::min(i0 + kTile, nx), j1 = std::min(j0 + kTile, ny);
-    const std::size_t np = (i1 - i0) * (j1 - j0);
-    std::vector<double> px(np), py(np), acc(np * nt, 0.0);
-    for (std::size_t j = j0, p = 0; j < j1; ++j)
-      for (std::size_t i = i0; i < i1; ++i, ++p) {
-        px[p] = geometry.centre_x(i);
-        py[p] = geometry.centre_y(j);
-      }
-    const double xlo = std::min(px.front(), px.back()), xhi = std::max(px.front(), px.back());
-    const double ylo = std::min(py.front(), py.back()), yhi = std::max(py.front(), py.back());
-    for (std::size_t w = 0; w < ns; ++w) {
-      if (tb.nodes[w] == 0) continue;
-      const Source& s = sources[w];
-      const double gx = std::max({xlo - s.x, 0.0, s.x - xhi}), gy = std::max({ylo - s.y, 0.0, s.y - yhi});
-      if (gx * gx + gy * gy > tb.r2cut[w]) continue;  // the whole tile is beyond the cut-off
-      accumulate(TileJob{px.data(), py.data(), np, s.x, s.y, s.rw2, tb.r2cut[w], s0, 1.0 / h,
-                         tb.nodes[w], table.data() + tb.offset[w], tb.k0[w], nt, acc.data()});
-    }
-    for (std::size_t kk = 0; kk < nt; ++kk) {
-      const std::size_t k = tb.order[tb.b0 + kk];
+  for (std::size_t tile = 0; tile < tiles_x * tiles_y; ++tile)
+    errors.iteration(tile, [&] {
+      const std::size_t i0 = (tile % tiles_x) * kTile, j0 = (tile / tiles_x) * kTile;
+      const std::size_t i1 = std::min(i0 + kTile, nx), j1 = std::min(j0 + kTile, ny);
+      const std::size_t np = (i1 - i0) * (j1 - j0);
+      std::vector<double> px(np), py(np), acc(np * nt, 0.0);
       for (std::size_t j = j0, p = 0; j < j1; ++j)
-        for (std::size_t i = i0; i < i1; ++i, ++p) values[(k * ny + j) * nx + i] = acc[p * nt + kk];
-    }
-  }
+        for (std::size_t i = i0; i < i1; ++i, ++p) {
+          px[p] = geometry.centre_x(i);
+          py[p] = geometry.centre_y(j);
+        }
+      const double xlo = std::min(px.front(), px.back()), xhi = std::max(px.front(), px.back());
+      const double ylo = std::min(py.front(), py.back()), yhi = std::max(py.front(), py.back());
+      for (std::size_t w = 0; w < ns; ++w) {
+        if (tb.nodes[w] == 0) continue;
+        const Source& s = sources[w];
+        const double gx = std::max({xlo - s.x, 0.0, s.x - xhi}), gy = std::max({ylo - s.y, 0.0, s.y - yhi});
+        if (gx * gx + gy * gy > tb.r2cut[w]) continue;  // the whole tile is beyond the cut-off
+        accumulate(TileJob{px.data(), py.data(), np, s.x, s.y, s.rw2, tb.r2cut[w], s0, 1.0 / h,
+                           tb.nodes[w], table.data() + tb.offset[w], tb.k0[w], nt, acc.data()});
+      }
+      for (std::size_t kk = 0; kk < nt; ++kk) {
+        const std::size_t k = tb.order[tb.b0 + kk];
+        for (std::size_t j = j0, p = 0; j < j1; ++j)
+          for (std::size_t i = i0; i < i1; ++i, ++p) values[(k * ny + j) * nx + i] = acc[p * nt + kk];
+      }
+    });
+  errors.rethrow();
 }
 
 // The fast path proper, on validated input; pixels with inside == 0 become NaN.

@@ -2,11 +2,11 @@
 
 #include <algorithm>
 #include <cmath>
-#include <exception>
 #include <string>
 
 #include "core/errors.hpp"
 #include "core/hydro/well_function.hpp"
+#include "core/util/parallel_errors.hpp"
 
 namespace slipscreen::hydro {
 namespace {
@@ -38,18 +38,25 @@ LagKernel::LagKernel(const SimilarityGrid& grid, double quantum, std::size_t max
   values_.assign((max_lag + 1) * n_nodes_, 0.0f);
   std::vector<double> x(n_nodes_);
   for (std::size_t i = 0; i < n_nodes_; ++i) x[i] = std::exp(grid.ln_x(i));
+  util::ParallelErrors errors;
 #pragma omp parallel
   {
-    std::vector<double> u(n_nodes_), w(n_nodes_);
+    std::vector<double> u, w;
+    errors.setup([&] {
+      u.resize(n_nodes_);
+      w.resize(n_nodes_);
+    });
 #pragma omp for schedule(static)
-    for (std::size_t lag = 1; lag <= max_lag; ++lag) {
-      const double dt = static_cast<double>(lag) * quantum;
-      const std::size_t n = live_nodes(grid, n_nodes_, dt);
-      for (std::size_t i = 0; i < n; ++i) u[i] = x[i] / dt;
-      hydro::well_function(u.data(), w.data(), n);
-      for (std::size_t i = 0; i < n; ++i) values_[lag * n_nodes_ + i] = static_cast<float>(w[i]);
-    }
+    for (std::size_t lag = 1; lag <= max_lag; ++lag)
+      errors.iteration(lag, [&] {
+        const double dt = static_cast<double>(lag) * quantum;
+        const std::size_t n = live_nodes(grid, n_nodes_, dt);
+        for (std::size_t i = 0; i < n; ++i) u[i] = x[i] / dt;
+        hydro::well_function(u.data(), w.data(), n);
+        for (std::size_t i = 0; i < n; ++i) values_[lag * n_nodes_ + i] = static_cast<float>(w[i]);
+      });
   }
+  errors.rethrow();
 }
 
 void SimilarityTable::check(const RateSteps& steps, std::span<const double> tracking_times) const {
@@ -171,31 +178,19 @@ std::vector<SimilarityTable> build_tables(const std::vector<RateSteps>& steps,
       first = std::min(first, t);
     }
   std::vector<SimilarityTable> tables(steps.size());
-  std::exception_ptr failure;  // an exception must not leave an OpenMP region
+  util::ParallelErrors errors;
   if (lattice && !tracking_times.empty()) {
     const auto max_lag = static_cast<std::size_t>(std::llround((tracking_times.back() - first) / kDay)) + 1;
     const LagKernel kernel(grid, kDay, max_lag);
 #pragma omp parallel for schedule(dynamic, 1)
-    for (std::size_t w = 0; w < steps.size(); ++w) {
-      try {
-        tables[w] = SimilarityTable(steps[w], tracking_times, grid, kernel);
-      } catch (...) {
-#pragma omp critical(similarity_failure)
-        if (!failure) failure = std::current_exception();
-      }
-    }
+    for (std::size_t w = 0; w < steps.size(); ++w)
+      errors.iteration(w, [&] { tables[w] = SimilarityTable(steps[w], tracking_times, grid, kernel); });
   } else {
 #pragma omp parallel for schedule(dynamic, 1)
-    for (std::size_t w = 0; w < steps.size(); ++w) {
-      try {
-        tables[w] = SimilarityTable(steps[w], tracking_times, grid);
-      } catch (...) {
-#pragma omp critical(similarity_failure)
-        if (!failure) failure = std::current_exception();
-      }
-    }
+    for (std::size_t w = 0; w < steps.size(); ++w)
+      errors.iteration(w, [&] { tables[w] = SimilarityTable(steps[w], tracking_times, grid); });
   }
-  if (failure) std::rethrow_exception(failure);
+  errors.rethrow();
   return tables;
 }
 
