@@ -20,6 +20,7 @@ namespace {
 constexpr double kHermiteFactor = 16.0 * kProfileFourthDerivativeIntegral / 384.0;
 constexpr std::size_t kTile = 16;        // pixels per tile side
 constexpr std::size_t kStepChunk = 256;  // union steps per matrix product in the table build
+constexpr double kMaxProfileNodes = 1e5;  // per source (typical rates need a few hundred)
 
 using RowMatrix = Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>;
 
@@ -267,11 +268,13 @@ struct NodeLayout {
   const RateScales& scales;
   const Reach& reach;
 
-  // Profile nodes for cut-off radius² r2cut (≥ 2 nodes; node K−1 at or beyond R).
-  std::size_t nodes_for(double r2cut) const {
+  // Profile nodes for cut-off radius² r2cut (≥ 2 nodes; node K−1 at or beyond R), as a double
+  // (unbounded: check_table_size bounds it before any cast).
+  double node_estimate(double r2cut) const {
     const double smax = 0.5 * std::log(std::max(r2cut, rw2_min));
-    return static_cast<std::size_t>(std::floor((smax - s0) / h)) + 2;
+    return std::floor((smax - s0) / h) + 2.0;
   }
+  std::size_t nodes_for(double r2cut) const { return static_cast<std::size_t>(node_estimate(r2cut)); }
   double cut_radius2(std::size_t w, double t) const {
     const double theta = t - scales.first[w];
     if (!reach.reach[w] || theta <= 0.0) return -1.0;  // inactive
@@ -302,6 +305,27 @@ UnionSteps union_steps(const std::vector<Source>& sources, const std::vector<std
     }
   }
   return out;
+}
+
+// Refuses tables that cannot fit before anything is allocated: the node spacing that reaches ε
+// shrinks as (ε / (C Σ max|q|))^¼, so absurd rates ask for millions of nodes per source. Bounds:
+// kMaxProfileNodes per source (each thread's scratch holds about 8 (2 sources + 513) bytes per
+// node) and one output time's tables within max_table_bytes (a block holds at least one time).
+void check_table_size(const NodeLayout& layout, double t_last, double max_table_bytes, double eps) {
+  double worst = 0.0, total = 0.0;
+  for (std::size_t w : layout.reach.kept) {
+    const double n = layout.node_estimate(layout.cut_radius2(w, t_last));
+    worst = std::max(worst, n);
+    total += n;
+  }
+  const double bytes = 16.0 * total;
+  if (worst <= kMaxProfileNodes && bytes <= max_table_bytes) return;
+  throw NumericalError("pressure grid: reaching its error bound of " + number_text(eps, 3) + " Pa with injection rates of " +
+                       number_text(layout.reach.qsum, 3) + " m3/s in total needs " + number_text(worst, 3) +
+                       " profile nodes per source and " + number_text(bytes, 3) +
+                       " bytes of tables per output time (limits " + number_text(kMaxProfileNodes, 3) + " nodes and " +
+                       number_text(max_table_bytes, 3) +
+                       " bytes); rates this large are far outside the range of the pressure model");
 }
 
 // Output times in increasing order (equal times keep their input order).
@@ -473,6 +497,7 @@ PressureGrid fast_grid(const GridGeometry& geometry, double c, double d, const s
   const double h = std::min(0.05, std::pow(0.5 * eps / (kHermiteFactor * c * reach.qsum), 0.25));
   out.node_spacing = h;
   const NodeLayout layout{0.5 * std::log(reach.rw2_min), h, reach.rw2_min, d, u_cut, scales, reach};
+  check_table_size(layout, t_last, options.max_table_bytes, eps);
   const UnionSteps steps = union_steps(sources, reach.kept);
 
   // Output times in increasing order, processed in blocks that keep the tables in memory bounds.

@@ -2,10 +2,12 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 #include <string>
 
 #include "core/errors.hpp"
 #include "core/hydro/well_function.hpp"
+#include "core/util/number_text.hpp"
 #include "core/util/parallel_errors.hpp"
 
 namespace slipscreen::hydro {
@@ -24,6 +26,18 @@ std::size_t live_nodes(const SimilarityGrid& g, std::size_t n_nodes, double lag)
 bool whole_quanta(double t, double quantum) {
   const double q = t / quantum;
   return std::abs(q - std::round(q)) <= 1e-9 * std::max(1.0, std::abs(q));
+}
+
+// Stores one tracking time's column of H in the single-precision table (node-major). A value
+// beyond single precision (about 3.4e38 m³/s) cannot be stored: NumericalError, never inf.
+void store_column(const std::vector<double>& column, std::size_t k, std::size_t n_times, std::vector<float>& values) {
+  for (std::size_t i = 0; i < column.size(); ++i) {
+    if (!(std::fabs(column[i]) <= std::numeric_limits<float>::max()))
+      throw NumericalError("Theis similarity table: the superposed rate sum reaches " + util::number_text(column[i], 3) +
+                           " m3/s, beyond the single-precision range of the table (3.4e38); injection rates this "
+                           "large are far outside the range of the pressure model");
+    values[i * n_times + k] = static_cast<float>(column[i]);
+  }
 }
 
 }  // namespace
@@ -69,6 +83,11 @@ void SimilarityTable::check(const RateSteps& steps, std::span<const double> trac
                      "a finite increasing range of ln x with a positive step");
   if (steps.time.size() != steps.delta_rate.size())
     throw InputError("rate steps", std::to_string(steps.time.size()), "one rate increment per step time");
+  for (std::size_t j = 0; j < steps.delta_rate.size(); ++j)
+    if (!std::isfinite(steps.time[j]) || !std::isfinite(steps.delta_rate[j]))
+      throw InputError("rate step " + std::to_string(j + 1),
+                       util::number_text(steps.time[j]) + " s, " + util::number_text(steps.delta_rate[j]) + " m3/s",
+                       "a finite step time and rate change");
 }
 
 SimilarityTable::SimilarityTable(const RateSteps& steps, std::span<const double> tracking_times,
@@ -90,7 +109,7 @@ SimilarityTable::SimilarityTable(const RateSteps& steps, std::span<const double>
       const double dq = steps.delta_rate[j];
       for (std::size_t i = 0; i < n; ++i) column[i] += dq * w[i];
     }
-    for (std::size_t i = 0; i < n_nodes_; ++i) values_[i * n_times_ + k] = static_cast<float>(column[i]);
+    store_column(column, k, n_times_, values_);
   }
 }
 
@@ -115,7 +134,7 @@ SimilarityTable::SimilarityTable(const RateSteps& steps, std::span<const double>
       const double dq = steps.delta_rate[j];
       for (std::size_t i = 0; i < n_nodes_; ++i) column[i] += dq * e[i];
     }
-    for (std::size_t i = 0; i < n_nodes_; ++i) values_[i * n_times_ + k] = static_cast<float>(column[i]);
+    store_column(column, k, n_times_, values_);
   }
 }
 
