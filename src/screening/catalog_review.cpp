@@ -24,8 +24,12 @@ double total_volume(const std::vector<scenario::WellSpec>& wells, double t) {
 }
 
 // Summed cumulative volume of every scenario well, sampled at every rate change up to t_end
-// (exact: rates are constant between changes, so the curve is piecewise linear).
-std::optional<seismo::VolumeHistory> volume_history(const std::vector<scenario::WellSpec>& wells, double t_end) {
+// (exact: rates are constant between changes, so the curve is piecewise linear). With a catalog
+// reviewed from a date after injection began ([catalog] from), the history starts there, at
+// the volume injected by then: Σ counts the events from that date, so it takes the volume
+// injected from that date too (seismogenic_index.hpp).
+std::optional<seismo::VolumeHistory> volume_history(const std::vector<scenario::WellSpec>& wells,
+                                                    std::optional<double> from, double t_end) {
   std::set<double> times;
   for (const auto& w : wells)
     for (const auto& per : w.periods) {
@@ -33,6 +37,10 @@ std::optional<seismo::VolumeHistory> volume_history(const std::vector<scenario::
       if (per.end < t_end) times.insert(per.end);
     }
   times.insert(t_end);
+  if (from && *from > *times.begin()) {
+    times.erase(times.begin(), times.lower_bound(*from));
+    if (*from < t_end) times.insert(*from);
+  }
   seismo::VolumeHistory h;
   for (double t : times) {
     h.time.push_back(t);
@@ -242,7 +250,7 @@ seismo::SummaryOptions summary_options(const CatalogReview& v, const scenario::R
   so.seed = s.seed;
   so.net_volume = total_volume(p.wells, t_end);
   so.shear_modulus = c.shear_modulus;
-  so.volume_history = volume_history(p.wells, std::min(v.catalog_end, t_end));  // Σ: volume while the catalog ran
+  so.volume_history = volume_history(p.wells, c.from, std::min(v.catalog_end, t_end));  // Σ: volume while the catalog ran
   so.planned_volume = std::max(0.0, total_volume(p.wells, t_end) - total_volume(p.wells, std::min(v.catalog_end, t_end)));
   so.forecast_magnitudes = c.forecast_magnitudes;
   std::map<std::string, double> lengths;

@@ -6,7 +6,9 @@
 
 #include <cmath>
 #include <filesystem>
+#include <iomanip>
 #include <memory>
+#include <sstream>
 
 #include <gdal_priv.h>
 #include <nlohmann/json.hpp>
@@ -227,4 +229,37 @@ TEST_CASE("an empty catalog gives a documented result: notes, no NaN, no events 
   CHECK(nlohmann::json::parse(json)["b_value"]["b"].is_null());
   const CsvTable ev = read_csv(out / "catalog_events.csv", "catalog_events.csv");
   CHECK(ev.rows.empty());
+}
+
+TEST_CASE("[catalog] from: the seismogenic index takes the volume injected from that date, not since injection began") {
+  // Invented events: 20 at or above Mc = 1 between 2021-08 and 2022-06, and one before `from`.
+  TinyScenario t;
+  std::string csv = "id,time,x,y,depth,magnitude,magnitude_type\n"
+                    "E0,2021-03-01T00:00:00Z,500500,6120500,3000,2.0,ML\n";
+  for (int i = 0; i < 20; ++i) {
+    std::ostringstream row;  // day i % 10 + 1 of August or December 2021
+    row << "E" << i + 1 << ",2021-" << (i < 10 ? "08" : "12") << "-" << std::setw(2) << std::setfill('0') << i % 10 + 1
+        << "T00:00:00Z,500500,6120500,3000," << 1.0 + 0.1 * (i % 7) << ",ML\n";
+    csv += row.str();
+  }
+  t.write("catalog.csv", csv);
+  t.append("scenario.toml",
+           "\n[catalog]\nfile = \"catalog.csv\"\ncolumns = \"x=x;y=y;crs=EPSG:32708;depth_unit=m\"\n"
+           "from = \"2021-07-01\"\nto = \"2022-07-01\"\nmc = 1.0\n");
+  const ResolvedScenario s = load_scenario(t.scenario());
+  const fs::path out = t.dir() / "runs" / "from";
+  const RunSummary r = run_scenario(s, options_into(out));
+  REQUIRE(r.catalog);
+  const auto& sum = r.catalog->summary;
+  REQUIRE(sum.b.has_value());
+  REQUIRE(sum.seismogenic_index.has_value());
+  const auto& f = *sum.seismogenic_index;
+  CHECK(f.events == 20);
+  // From 2021-07-01 to 2022-07-01 only the proposed well P1 injects (the fixture's scenario):
+  // 5000 bbl/d for 184 days, then 8000 bbl/d for 181 days = 2,368,000 bbl, with
+  // 1 bbl = 0.158987294928 m3 (common practice). The wells W1 and W2 injected in 2020 only.
+  const double v = (5000.0 * 184 + 8000.0 * 181) * 0.158987294928;
+  CHECK(std::abs(f.volume - v) <= 1e-9 * v);
+  // Shapiro et al. (2010): Σ = log10 N − log10 V + b Mc, evaluated here by hand.
+  CHECK(std::abs(f.sigma - (std::log10(20.0) - std::log10(v) + sum.b->b * 1.0)) < 1e-9);
 }

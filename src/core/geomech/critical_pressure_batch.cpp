@@ -5,6 +5,7 @@
 #include <string>
 
 #include "core/errors.hpp"
+#include "core/util/parallel_errors.hpp"
 
 namespace slipscreen::geomech {
 namespace {
@@ -159,13 +160,16 @@ void critical_pressure_grid(const PlaneBatch& planes, const StressBatch& states,
   const std::size_t k = states.size();
   check_sizes(planes, states, out.size(), m * k);
   const long long kk = static_cast<long long>(k);
+  util::ParallelErrors errors;
 #pragma omp parallel for schedule(static)
-  for (long long s = 0; s < kk; ++s) {
-    const State st = state_at(states, static_cast<std::size_t>(s));
-    double* row = out.data() + static_cast<std::size_t>(s) * m;
-    if (st.kappa == 0.0) row_plain(planes.nx.data(), planes.ny.data(), planes.nz.data(), m, st, row);
-    else row_path(planes.nx.data(), planes.ny.data(), planes.nz.data(), m, st, row);
-  }
+  for (long long s = 0; s < kk; ++s)
+    errors.iteration(static_cast<std::size_t>(s), [&] {
+      const State st = state_at(states, static_cast<std::size_t>(s));
+      double* row = out.data() + static_cast<std::size_t>(s) * m;
+      if (st.kappa == 0.0) row_plain(planes.nx.data(), planes.ny.data(), planes.nz.data(), m, st, row);
+      else row_path(planes.nx.data(), planes.ny.data(), planes.nz.data(), m, st, row);
+    });
+  errors.rethrow();
 }
 
 void critical_pressure_paired(const PlaneBatch& planes, const StressBatch& states, std::span<double> out) {
@@ -173,13 +177,16 @@ void critical_pressure_paired(const PlaneBatch& planes, const StressBatch& state
   if (states.size() != n) throw InputError("stress batch", std::to_string(states.size()), std::to_string(n) + " states (one per plane)");
   check_sizes(planes, states, out.size(), n);
   const long long nn = static_cast<long long>(n);
+  util::ParallelErrors errors;
 #pragma omp parallel for schedule(static)
-  for (long long i = 0; i < nn; ++i) {
-    const std::size_t j = static_cast<std::size_t>(i);
-    const State st = state_at(states, j);
-    out[j] = st.kappa == 0.0 ? one(planes.nx[j], planes.ny[j], planes.nz[j], st)
-                             : one_path(planes.nx[j], planes.ny[j], planes.nz[j], st);
-  }
+  for (long long i = 0; i < nn; ++i)
+    errors.iteration(static_cast<std::size_t>(i), [&] {
+      const std::size_t j = static_cast<std::size_t>(i);
+      const State st = state_at(states, j);
+      out[j] = st.kappa == 0.0 ? one(planes.nx[j], planes.ny[j], planes.nz[j], st)
+                               : one_path(planes.nx[j], planes.ny[j], planes.nz[j], st);
+    });
+  errors.rethrow();
 }
 
 }  // namespace slipscreen::geomech

@@ -6,6 +6,7 @@
 
 #include "core/errors.hpp"
 #include "core/util/number_text.hpp"
+#include "core/util/parallel_errors.hpp"
 #include "core/hydro/well_function.hpp"
 
 namespace slipscreen::hydro {
@@ -102,40 +103,43 @@ PressureResult PressureField::evaluate(const PreparedPoints& pts, std::span<cons
   if (per_well) res.by_well.assign(P * T * W, 0.0);
   const double inv4D = 1.0 / (4.0 * params.diffusivity);
 
+  util::ParallelErrors errors;
 #pragma omp parallel
   {
     std::vector<double> u, weight, e1;
 #pragma omp for schedule(dynamic, 16)
-    for (std::size_t p = 0; p < P; ++p) {
-      for (std::size_t ti = 0; ti < T; ++ti) {
-        const double t = times[ti];
-        double sum = 0.0;
-        for (std::size_t w = 0; w < W; ++w) {
-          const std::size_t b = pts.offset[p * W + w], e = pts.offset[p * W + w + 1];
-          u.clear();
-          weight.clear();
-          for (const RateChange& c : changes_[w]) {
-            if (!(c.time < t)) break;  // sorted: later changes have not happened yet
-            const double k = inv4D / (t - c.time);
-            for (std::size_t s = b; s < e; ++s) {
-              u.push_back(pts.r2[s] * k);
-              weight.push_back(c.delta * pts.sign[s]);
+    for (std::size_t p = 0; p < P; ++p)
+      errors.iteration(p, [&] {
+        for (std::size_t ti = 0; ti < T; ++ti) {
+          const double t = times[ti];
+          double sum = 0.0;
+          for (std::size_t w = 0; w < W; ++w) {
+            const std::size_t b = pts.offset[p * W + w], e = pts.offset[p * W + w + 1];
+            u.clear();
+            weight.clear();
+            for (const RateChange& c : changes_[w]) {
+              if (!(c.time < t)) break;  // sorted: later changes have not happened yet
+              const double k = inv4D / (t - c.time);
+              for (std::size_t s = b; s < e; ++s) {
+                u.push_back(pts.r2[s] * k);
+                weight.push_back(c.delta * pts.sign[s]);
+              }
             }
+            if (u.empty()) continue;
+            e1.resize(u.size());
+            well_function(u.data(), e1.data(), u.size());
+            double acc = 0.0;
+            for (std::size_t i = 0; i < u.size(); ++i) acc += weight[i] * e1[i];
+            const double f = rate_factors.empty() ? 1.0 : rate_factors[w];
+            const double dp = params.pressure_per_rate * f * acc;
+            sum += dp;
+            if (per_well) res.by_well[(p * T + ti) * W + w] = dp;
           }
-          if (u.empty()) continue;
-          e1.resize(u.size());
-          well_function(u.data(), e1.data(), u.size());
-          double acc = 0.0;
-          for (std::size_t i = 0; i < u.size(); ++i) acc += weight[i] * e1[i];
-          const double f = rate_factors.empty() ? 1.0 : rate_factors[w];
-          const double dp = params.pressure_per_rate * f * acc;
-          sum += dp;
-          if (per_well) res.by_well[(p * T + ti) * W + w] = dp;
+          res.total[p * T + ti] = sum;
         }
-        res.total[p * T + ti] = sum;
-      }
-    }
+      });
   }
+  errors.rethrow();
   return res;
 }
 
@@ -152,22 +156,25 @@ std::vector<double> PressureField::evaluate_each(const PreparedPoints& pts, std:
   // Inputs are checked above, so nothing inside the parallel loop throws on them.
   // Points with equal times share nothing, so each is one evaluate() of a single point; the
   // work is spread over threads here instead of inside each call.
+  util::ParallelErrors errors;
 #pragma omp parallel for schedule(dynamic, 8)
-  for (std::size_t p = 0; p < pts.point_count; ++p) {
-    PreparedPoints one;
-    one.point_count = 1;
-    one.well_count = pts.well_count;
-    const std::size_t W = pts.well_count;
-    const std::size_t b = pts.offset[p * W];
-    one.offset.push_back(0);
-    for (std::size_t w = 0; w < W; ++w) one.offset.push_back(pts.offset[p * W + w + 1] - b);
-    one.r2.assign(pts.r2.begin() + static_cast<std::ptrdiff_t>(b),
-                  pts.r2.begin() + static_cast<std::ptrdiff_t>(pts.offset[p * W + W]));
-    one.sign.assign(pts.sign.begin() + static_cast<std::ptrdiff_t>(b),
-                    pts.sign.begin() + static_cast<std::ptrdiff_t>(pts.offset[p * W + W]));
-    one.clamped.assign(W, 0);
-    out[p] = evaluate(one, times.subspan(p, 1), params).total[0];
-  }
+  for (std::size_t p = 0; p < pts.point_count; ++p)
+    errors.iteration(p, [&] {
+      PreparedPoints one;
+      one.point_count = 1;
+      one.well_count = pts.well_count;
+      const std::size_t W = pts.well_count;
+      const std::size_t b = pts.offset[p * W];
+      one.offset.push_back(0);
+      for (std::size_t w = 0; w < W; ++w) one.offset.push_back(pts.offset[p * W + w + 1] - b);
+      one.r2.assign(pts.r2.begin() + static_cast<std::ptrdiff_t>(b),
+                    pts.r2.begin() + static_cast<std::ptrdiff_t>(pts.offset[p * W + W]));
+      one.sign.assign(pts.sign.begin() + static_cast<std::ptrdiff_t>(b),
+                      pts.sign.begin() + static_cast<std::ptrdiff_t>(pts.offset[p * W + W]));
+      one.clamped.assign(W, 0);
+      out[p] = evaluate(one, times.subspan(p, 1), params).total[0];
+    });
+  errors.rethrow();
   return out;
 }
 

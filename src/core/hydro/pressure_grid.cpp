@@ -10,6 +10,7 @@
 #include "core/errors.hpp"
 #include "core/hydro/well_function.hpp"
 #include "core/util/number_text.hpp"
+#include "core/util/parallel_errors.hpp"
 
 namespace slipscreen::hydro {
 namespace {
@@ -19,6 +20,7 @@ namespace {
 constexpr double kHermiteFactor = 16.0 * kProfileFourthDerivativeIntegral / 384.0;
 constexpr std::size_t kTile = 16;        // pixels per tile side
 constexpr std::size_t kStepChunk = 256;  // union steps per matrix product in the table build
+constexpr double kMaxProfileNodes = 1e5;  // per source (typical rates need a few hundred)
 
 using RowMatrix = Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic, Eigen::RowMajor>;
 
@@ -266,11 +268,13 @@ struct NodeLayout {
   const RateScales& scales;
   const Reach& reach;
 
-  // Profile nodes for cut-off radius² r2cut (≥ 2 nodes; node K−1 at or beyond R).
-  std::size_t nodes_for(double r2cut) const {
+  // Profile nodes for cut-off radius² r2cut (≥ 2 nodes; node K−1 at or beyond R), as a double
+  // (unbounded: check_table_size bounds it before any cast).
+  double node_estimate(double r2cut) const {
     const double smax = 0.5 * std::log(std::max(r2cut, rw2_min));
-    return static_cast<std::size_t>(std::floor((smax - s0) / h)) + 2;
+    return std::floor((smax - s0) / h) + 2.0;
   }
+  std::size_t nodes_for(double r2cut) const { return static_cast<std::size_t>(node_estimate(r2cut)); }
   double cut_radius2(std::size_t w, double t) const {
     const double theta = t - scales.first[w];
     if (!reach.reach[w] || theta <= 0.0) return -1.0;  // inactive
@@ -301,6 +305,27 @@ UnionSteps union_steps(const std::vector<Source>& sources, const std::vector<std
     }
   }
   return out;
+}
+
+// Refuses tables that cannot fit before anything is allocated: the node spacing that reaches ε
+// shrinks as (ε / (C Σ max|q|))^¼, so absurd rates ask for millions of nodes per source. Bounds:
+// kMaxProfileNodes per source (each thread's scratch holds about 8 (2 sources + 513) bytes per
+// node) and one output time's tables within max_table_bytes (a block holds at least one time).
+void check_table_size(const NodeLayout& layout, double t_last, double max_table_bytes, double eps) {
+  double worst = 0.0, total = 0.0;
+  for (std::size_t w : layout.reach.kept) {
+    const double n = layout.node_estimate(layout.cut_radius2(w, t_last));
+    worst = std::max(worst, n);
+    total += n;
+  }
+  const double bytes = 16.0 * total;
+  if (worst <= kMaxProfileNodes && bytes <= max_table_bytes) return;
+  throw NumericalError("pressure grid: reaching its error bound of " + number_text(eps, 3) + " Pa with injection rates of " +
+                       number_text(layout.reach.qsum, 3) + " m3/s in total needs " + number_text(worst, 3) +
+                       " profile nodes per source and " + number_text(bytes, 3) +
+                       " bytes of tables per output time (limits " + number_text(kMaxProfileNodes, 3) + " nodes and " +
+                       number_text(max_table_bytes, 3) +
+                       " bytes); rates this large are far outside the range of the pressure model");
 }
 
 // Output times in increasing order (equal times keep their input order).
@@ -365,41 +390,44 @@ std::vector<double> profile_tables(const TimeBlock& tb, const NodeLayout& layout
   const std::vector<std::size_t>& kept = layout.reach.kept;
   const std::size_t nt = tb.nt, k_max = tb.k_max;
   const double s0 = layout.s0, h = layout.h, d = layout.d;
+  util::ParallelErrors errors;
 #pragma omp parallel for schedule(dynamic)
-  for (std::size_t kk = 0; kk < nt; ++kk) {
-    const double t = tb.time(kk);
-    const std::size_t nj = static_cast<std::size_t>(std::lower_bound(tau.begin(), tau.end(), t) - tau.begin());
-    if (nj == 0) continue;
-    const auto cols = static_cast<Eigen::Index>(k_max);
-    Eigen::MatrixXd f = Eigen::MatrixXd::Zero(steps.dq.rows(), cols), fd = Eigen::MatrixXd::Zero(steps.dq.rows(), cols);
-    std::vector<double> r2n(k_max);
-    for (std::size_t n = 0; n < k_max; ++n) r2n[n] = std::exp(2.0 * (s0 + double(n) * h));
-    for (std::size_t c0 = 0; c0 < nj; c0 += kStepChunk) {
-      const std::size_t nc = std::min(kStepChunk, nj - c0);
-      RowMatrix e(static_cast<Eigen::Index>(nc), cols), g(static_cast<Eigen::Index>(nc), cols);
-      for (std::size_t jj = 0; jj < nc; ++jj) {
-        const double a = 1.0 / (4.0 * d * (t - tau[c0 + jj]));
-        double* er = e.data() + jj * k_max;
-        double* gr = g.data() + jj * k_max;
-        for (std::size_t n = 0; n < k_max; ++n) gr[n] = r2n[n] * a;  // u
-        well_function(gr, er, k_max);
-        for (std::size_t n = 0; n < k_max; ++n) gr[n] = -2.0 * h * std::exp(-gr[n]);  // h · dE1/ds
+  for (std::size_t kk = 0; kk < nt; ++kk)
+    errors.iteration(kk, [&] {
+      const double t = tb.time(kk);
+      const std::size_t nj = static_cast<std::size_t>(std::lower_bound(tau.begin(), tau.end(), t) - tau.begin());
+      if (nj == 0) return;
+      const auto cols = static_cast<Eigen::Index>(k_max);
+      Eigen::MatrixXd f = Eigen::MatrixXd::Zero(steps.dq.rows(), cols), fd = Eigen::MatrixXd::Zero(steps.dq.rows(), cols);
+      std::vector<double> r2n(k_max);
+      for (std::size_t n = 0; n < k_max; ++n) r2n[n] = std::exp(2.0 * (s0 + double(n) * h));
+      for (std::size_t c0 = 0; c0 < nj; c0 += kStepChunk) {
+        const std::size_t nc = std::min(kStepChunk, nj - c0);
+        RowMatrix e(static_cast<Eigen::Index>(nc), cols), g(static_cast<Eigen::Index>(nc), cols);
+        for (std::size_t jj = 0; jj < nc; ++jj) {
+          const double a = 1.0 / (4.0 * d * (t - tau[c0 + jj]));
+          double* er = e.data() + jj * k_max;
+          double* gr = g.data() + jj * k_max;
+          for (std::size_t n = 0; n < k_max; ++n) gr[n] = r2n[n] * a;  // u
+          well_function(gr, er, k_max);
+          for (std::size_t n = 0; n < k_max; ++n) gr[n] = -2.0 * h * std::exp(-gr[n]);  // h · dE1/ds
+        }
+        const auto block_cols = steps.dq.middleCols(static_cast<Eigen::Index>(c0), static_cast<Eigen::Index>(nc));
+        f.noalias() += block_cols * e;
+        fd.noalias() += block_cols * g;
       }
-      const auto block_cols = steps.dq.middleCols(static_cast<Eigen::Index>(c0), static_cast<Eigen::Index>(nc));
-      f.noalias() += block_cols * e;
-      fd.noalias() += block_cols * g;
-    }
-    for (std::size_t r = 0; r < kept.size(); ++r) {
-      const std::size_t w = kept[r];
-      if (kk < tb.k0[w] || tb.nodes[w] == 0) continue;
-      const std::size_t m = nt - tb.k0[w], col = kk - tb.k0[w];
-      double* tw = table.data() + tb.offset[w];
-      for (std::size_t n = 0; n < tb.nodes[w]; ++n) {
-        tw[n * 2 * m + col] = c * f(Eigen::Index(r), Eigen::Index(n));
-        tw[n * 2 * m + m + col] = c * fd(Eigen::Index(r), Eigen::Index(n));
+      for (std::size_t r = 0; r < kept.size(); ++r) {
+        const std::size_t w = kept[r];
+        if (kk < tb.k0[w] || tb.nodes[w] == 0) continue;
+        const std::size_t m = nt - tb.k0[w], col = kk - tb.k0[w];
+        double* tw = table.data() + tb.offset[w];
+        for (std::size_t n = 0; n < tb.nodes[w]; ++n) {
+          tw[n * 2 * m + col] = c * f(Eigen::Index(r), Eigen::Index(n));
+          tw[n * 2 * m + m + col] = c * fd(Eigen::Index(r), Eigen::Index(n));
+        }
       }
-    }
-  }
+    });
+  errors.rethrow();
   return table;
 }
 
@@ -409,33 +437,36 @@ void evaluate_tiles(const GridGeometry& geometry, const std::vector<Source>& sou
   const std::size_t nx = geometry.nx, ny = geometry.ny, ns = sources.size(), nt = tb.nt;
   const std::size_t tiles_x = (nx + kTile - 1) / kTile, tiles_y = (ny + kTile - 1) / kTile;
   const double s0 = layout.s0, h = layout.h;
+  util::ParallelErrors errors;
 #pragma omp parallel for schedule(dynamic)
-  for (std::size_t tile = 0; tile < tiles_x * tiles_y; ++tile) {
-    const std::size_t i0 = (tile % tiles_x) * kTile, j0 = (tile / tiles_x) * kTile;
-    const std::size_t i1 = std::min(i0 + kTile, nx), j1 = std::min(j0 + kTile, ny);
-    const std::size_t np = (i1 - i0) * (j1 - j0);
-    std::vector<double> px(np), py(np), acc(np * nt, 0.0);
-    for (std::size_t j = j0, p = 0; j < j1; ++j)
-      for (std::size_t i = i0; i < i1; ++i, ++p) {
-        px[p] = geometry.centre_x(i);
-        py[p] = geometry.centre_y(j);
-      }
-    const double xlo = std::min(px.front(), px.back()), xhi = std::max(px.front(), px.back());
-    const double ylo = std::min(py.front(), py.back()), yhi = std::max(py.front(), py.back());
-    for (std::size_t w = 0; w < ns; ++w) {
-      if (tb.nodes[w] == 0) continue;
-      const Source& s = sources[w];
-      const double gx = std::max({xlo - s.x, 0.0, s.x - xhi}), gy = std::max({ylo - s.y, 0.0, s.y - yhi});
-      if (gx * gx + gy * gy > tb.r2cut[w]) continue;  // the whole tile is beyond the cut-off
-      accumulate(TileJob{px.data(), py.data(), np, s.x, s.y, s.rw2, tb.r2cut[w], s0, 1.0 / h,
-                         tb.nodes[w], table.data() + tb.offset[w], tb.k0[w], nt, acc.data()});
-    }
-    for (std::size_t kk = 0; kk < nt; ++kk) {
-      const std::size_t k = tb.order[tb.b0 + kk];
+  for (std::size_t tile = 0; tile < tiles_x * tiles_y; ++tile)
+    errors.iteration(tile, [&] {
+      const std::size_t i0 = (tile % tiles_x) * kTile, j0 = (tile / tiles_x) * kTile;
+      const std::size_t i1 = std::min(i0 + kTile, nx), j1 = std::min(j0 + kTile, ny);
+      const std::size_t np = (i1 - i0) * (j1 - j0);
+      std::vector<double> px(np), py(np), acc(np * nt, 0.0);
       for (std::size_t j = j0, p = 0; j < j1; ++j)
-        for (std::size_t i = i0; i < i1; ++i, ++p) values[(k * ny + j) * nx + i] = acc[p * nt + kk];
-    }
-  }
+        for (std::size_t i = i0; i < i1; ++i, ++p) {
+          px[p] = geometry.centre_x(i);
+          py[p] = geometry.centre_y(j);
+        }
+      const double xlo = std::min(px.front(), px.back()), xhi = std::max(px.front(), px.back());
+      const double ylo = std::min(py.front(), py.back()), yhi = std::max(py.front(), py.back());
+      for (std::size_t w = 0; w < ns; ++w) {
+        if (tb.nodes[w] == 0) continue;
+        const Source& s = sources[w];
+        const double gx = std::max({xlo - s.x, 0.0, s.x - xhi}), gy = std::max({ylo - s.y, 0.0, s.y - yhi});
+        if (gx * gx + gy * gy > tb.r2cut[w]) continue;  // the whole tile is beyond the cut-off
+        accumulate(TileJob{px.data(), py.data(), np, s.x, s.y, s.rw2, tb.r2cut[w], s0, 1.0 / h,
+                           tb.nodes[w], table.data() + tb.offset[w], tb.k0[w], nt, acc.data()});
+      }
+      for (std::size_t kk = 0; kk < nt; ++kk) {
+        const std::size_t k = tb.order[tb.b0 + kk];
+        for (std::size_t j = j0, p = 0; j < j1; ++j)
+          for (std::size_t i = i0; i < i1; ++i, ++p) values[(k * ny + j) * nx + i] = acc[p * nt + kk];
+      }
+    });
+  errors.rethrow();
 }
 
 // The fast path proper, on validated input; pixels with inside == 0 become NaN.
@@ -466,6 +497,7 @@ PressureGrid fast_grid(const GridGeometry& geometry, double c, double d, const s
   const double h = std::min(0.05, std::pow(0.5 * eps / (kHermiteFactor * c * reach.qsum), 0.25));
   out.node_spacing = h;
   const NodeLayout layout{0.5 * std::log(reach.rw2_min), h, reach.rw2_min, d, u_cut, scales, reach};
+  check_table_size(layout, t_last, options.max_table_bytes, eps);
   const UnionSteps steps = union_steps(sources, reach.kept);
 
   // Output times in increasing order, processed in blocks that keep the tables in memory bounds.

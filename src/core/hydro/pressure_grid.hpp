@@ -77,7 +77,8 @@ struct PressureGridOptions {
   double threshold = 1e3;            // Pa: the relative accuracy holds where |Δp| ≥ threshold
   double relative_tolerance = 1e-4;  // relative error allowed there; ε = product (absolute)
   double max_table_bytes = 512e6;    // memory for profile tables; output times are processed
-                                     // in blocks to stay below it
+                                     // in blocks to stay below it (NumericalError when even
+                                     // one output time's tables exceed it)
 };
 
 struct PressureGrid {
@@ -96,7 +97,10 @@ struct PressureGrid {
 // Fast path: Δp on the grid at `times` from every well of `field` and its images, within
 // `error_bound` of the direct sum (see above). `rate_factors`: one per well, or empty for all 1.
 // Times at or before a well's first step get 0 from it. Throws InputError for an invalid raster,
-// TheisParameters, rate factors or times (non-finite), or options out of range.
+// TheisParameters, rate factors or times (non-finite), or options out of range. Memory is
+// bounded before anything is allocated: the node spacing h shrinks as (ε / (C Σ max|q|))^¼, and
+// NumericalError refuses a grid that would need more than 1e5 profile nodes per source or more
+// than max_table_bytes of tables for one output time (absurd rates, such as 1e25 bbl/d).
 PressureGrid pressure_grid(const GridGeometry& geometry, const PressureField& field,
                            const TheisParameters& params, std::span<const double> times,
                            std::span<const double> rate_factors = {},

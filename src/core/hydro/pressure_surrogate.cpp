@@ -7,6 +7,7 @@
 #include <string>
 
 #include "core/errors.hpp"
+#include "core/util/parallel_errors.hpp"
 
 namespace slipscreen::hydro {
 namespace {
@@ -66,22 +67,25 @@ void sum_tables(const std::vector<SimilarityTable>& tables, std::span<const Pres
   const std::size_t n_points = points.size(), n = inv4d.size();
   const std::vector<std::size_t> order = spatial_order(points);
   const std::size_t n_blocks = (n_points + kBlock - 1) / kBlock;
+  util::ParallelErrors errors;
 #pragma omp parallel for schedule(dynamic, 1)
-  for (std::size_t b = 0; b < n_blocks; ++b) {
-    const std::size_t end = std::min(n_points, (b + 1) * kBlock);
-    for (const auto& s : sources) {
-      const auto& table = tables[s.table];
-      const double sign = s.sign;
-      for (std::size_t i = b * kBlock; i < end; ++i) {
-        const std::size_t p = order[i];
-        const double dx = points[p].x - s.x, dy = points[p].y - s.y;
-        const double r2 = std::max(dx * dx + dy * dy, s.radius * s.radius);
-        auto& m = g[p * n_groups + s.group];
-        for (std::size_t d = 0; d < n; ++d)
-          table.accumulate(table.tap(r2 * inv4d[d]), sign, m.col(static_cast<Eigen::Index>(d)).data());
+  for (std::size_t b = 0; b < n_blocks; ++b)
+    errors.iteration(b, [&] {
+      const std::size_t end = std::min(n_points, (b + 1) * kBlock);
+      for (const auto& s : sources) {
+        const auto& table = tables[s.table];
+        const double sign = s.sign;
+        for (std::size_t i = b * kBlock; i < end; ++i) {
+          const std::size_t p = order[i];
+          const double dx = points[p].x - s.x, dy = points[p].y - s.y;
+          const double r2 = std::max(dx * dx + dy * dy, s.radius * s.radius);
+          auto& m = g[p * n_groups + s.group];
+          for (std::size_t d = 0; d < n; ++d)
+            table.accumulate(table.tap(r2 * inv4d[d]), sign, m.col(static_cast<Eigen::Index>(d)).data());
+        }
       }
-    }
-  }
+    });
+  errors.rethrow();
 }
 
 // max_k |G_{p,g}(t_k, D_d)| per (point, group) and node d.
@@ -102,35 +106,38 @@ double estimate_error(const PressureSurrogate& surrogate, const std::vector<Simi
                     n_times = surrogate.time_count(), n = ln_nodes.size();
   double worst = 0.0;
   const std::size_t stride = std::max<std::size_t>(1, n_points / 64);
+  util::ParallelErrors errors;
 #pragma omp parallel for schedule(dynamic, 1) reduction(max : worst)
-  for (std::size_t p = 0; p < n_points; p += stride) {
-    std::vector<std::vector<double>> exact(n_groups, std::vector<double>(n_times));
-    std::vector<double> ell(n);
-    for (std::size_t d = 0; d + 1 < n; ++d) {
-      const double mid = std::exp(0.5 * (ln_nodes[d] + ln_nodes[d + 1]));
-      for (auto& c : exact) std::fill(c.begin(), c.end(), 0.0);
-      for (const auto& s : sources) {
-        const double dx = points[p].x - s.x, dy = points[p].y - s.y;
-        const double r2 = std::max(dx * dx + dy * dy, s.radius * s.radius);
-        const auto& table = tables[s.table];
-        table.accumulate(table.tap(r2 * 0.25 / mid), s.sign, exact[s.group].data());
-      }
-      surrogate.basis(mid, ell.data());
-      // Error relative to the point's largest |Δp| over all rate groups (a group that barely
-      // reaches the point must not inflate the estimate).
-      double scale = 0.0, err = 0.0;
-      for (std::size_t g = 0; g < n_groups; ++g) {
-        const auto& m = surrogate.table(p, g);
-        for (std::size_t k = 0; k < n_times; ++k) {
-          double v = 0.0;
-          for (std::size_t e = 0; e < n; ++e) v += ell[e] * m(static_cast<Eigen::Index>(k), static_cast<Eigen::Index>(e));
-          scale = std::max(scale, std::abs(exact[g][k]));
-          err = std::max(err, std::abs(v - exact[g][k]));
+  for (std::size_t p = 0; p < n_points; p += stride)
+    errors.iteration(p, [&] {
+      std::vector<std::vector<double>> exact(n_groups, std::vector<double>(n_times));
+      std::vector<double> ell(n);
+      for (std::size_t d = 0; d + 1 < n; ++d) {
+        const double mid = std::exp(0.5 * (ln_nodes[d] + ln_nodes[d + 1]));
+        for (auto& c : exact) std::fill(c.begin(), c.end(), 0.0);
+        for (const auto& s : sources) {
+          const double dx = points[p].x - s.x, dy = points[p].y - s.y;
+          const double r2 = std::max(dx * dx + dy * dy, s.radius * s.radius);
+          const auto& table = tables[s.table];
+          table.accumulate(table.tap(r2 * 0.25 / mid), s.sign, exact[s.group].data());
         }
+        surrogate.basis(mid, ell.data());
+        // Error relative to the point's largest |Δp| over all rate groups (a group that barely
+        // reaches the point must not inflate the estimate).
+        double scale = 0.0, err = 0.0;
+        for (std::size_t g = 0; g < n_groups; ++g) {
+          const auto& m = surrogate.table(p, g);
+          for (std::size_t k = 0; k < n_times; ++k) {
+            double v = 0.0;
+            for (std::size_t e = 0; e < n; ++e) v += ell[e] * m(static_cast<Eigen::Index>(k), static_cast<Eigen::Index>(e));
+            scale = std::max(scale, std::abs(exact[g][k]));
+            err = std::max(err, std::abs(v - exact[g][k]));
+          }
+        }
+        if (scale > 0.0) worst = std::max(worst, err / scale);
       }
-      if (scale > 0.0) worst = std::max(worst, err / scale);
-    }
-  }
+    });
+  errors.rethrow();
   return worst;
 }
 }  // namespace

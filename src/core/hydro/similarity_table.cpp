@@ -2,11 +2,13 @@
 
 #include <algorithm>
 #include <cmath>
-#include <exception>
+#include <limits>
 #include <string>
 
 #include "core/errors.hpp"
 #include "core/hydro/well_function.hpp"
+#include "core/util/number_text.hpp"
+#include "core/util/parallel_errors.hpp"
 
 namespace slipscreen::hydro {
 namespace {
@@ -26,6 +28,18 @@ bool whole_quanta(double t, double quantum) {
   return std::abs(q - std::round(q)) <= 1e-9 * std::max(1.0, std::abs(q));
 }
 
+// Stores one tracking time's column of H in the single-precision table (node-major). A value
+// beyond single precision (about 3.4e38 m³/s) cannot be stored: NumericalError, never inf.
+void store_column(const std::vector<double>& column, std::size_t k, std::size_t n_times, std::vector<float>& values) {
+  for (std::size_t i = 0; i < column.size(); ++i) {
+    if (!(std::fabs(column[i]) <= std::numeric_limits<float>::max()))
+      throw NumericalError("Theis similarity table: the superposed rate sum reaches " + util::number_text(column[i], 3) +
+                           " m3/s, beyond the single-precision range of the table (3.4e38); injection rates this "
+                           "large are far outside the range of the pressure model");
+    values[i * n_times + k] = static_cast<float>(column[i]);
+  }
+}
+
 }  // namespace
 
 std::size_t SimilarityGrid::node_count() const {
@@ -38,18 +52,25 @@ LagKernel::LagKernel(const SimilarityGrid& grid, double quantum, std::size_t max
   values_.assign((max_lag + 1) * n_nodes_, 0.0f);
   std::vector<double> x(n_nodes_);
   for (std::size_t i = 0; i < n_nodes_; ++i) x[i] = std::exp(grid.ln_x(i));
+  util::ParallelErrors errors;
 #pragma omp parallel
   {
-    std::vector<double> u(n_nodes_), w(n_nodes_);
+    std::vector<double> u, w;
+    errors.setup([&] {
+      u.resize(n_nodes_);
+      w.resize(n_nodes_);
+    });
 #pragma omp for schedule(static)
-    for (std::size_t lag = 1; lag <= max_lag; ++lag) {
-      const double dt = static_cast<double>(lag) * quantum;
-      const std::size_t n = live_nodes(grid, n_nodes_, dt);
-      for (std::size_t i = 0; i < n; ++i) u[i] = x[i] / dt;
-      hydro::well_function(u.data(), w.data(), n);
-      for (std::size_t i = 0; i < n; ++i) values_[lag * n_nodes_ + i] = static_cast<float>(w[i]);
-    }
+    for (std::size_t lag = 1; lag <= max_lag; ++lag)
+      errors.iteration(lag, [&] {
+        const double dt = static_cast<double>(lag) * quantum;
+        const std::size_t n = live_nodes(grid, n_nodes_, dt);
+        for (std::size_t i = 0; i < n; ++i) u[i] = x[i] / dt;
+        hydro::well_function(u.data(), w.data(), n);
+        for (std::size_t i = 0; i < n; ++i) values_[lag * n_nodes_ + i] = static_cast<float>(w[i]);
+      });
   }
+  errors.rethrow();
 }
 
 void SimilarityTable::check(const RateSteps& steps, std::span<const double> tracking_times) const {
@@ -62,6 +83,11 @@ void SimilarityTable::check(const RateSteps& steps, std::span<const double> trac
                      "a finite increasing range of ln x with a positive step");
   if (steps.time.size() != steps.delta_rate.size())
     throw InputError("rate steps", std::to_string(steps.time.size()), "one rate increment per step time");
+  for (std::size_t j = 0; j < steps.delta_rate.size(); ++j)
+    if (!std::isfinite(steps.time[j]) || !std::isfinite(steps.delta_rate[j]))
+      throw InputError("rate step " + std::to_string(j + 1),
+                       util::number_text(steps.time[j]) + " s, " + util::number_text(steps.delta_rate[j]) + " m3/s",
+                       "a finite step time and rate change");
 }
 
 SimilarityTable::SimilarityTable(const RateSteps& steps, std::span<const double> tracking_times,
@@ -83,7 +109,7 @@ SimilarityTable::SimilarityTable(const RateSteps& steps, std::span<const double>
       const double dq = steps.delta_rate[j];
       for (std::size_t i = 0; i < n; ++i) column[i] += dq * w[i];
     }
-    for (std::size_t i = 0; i < n_nodes_; ++i) values_[i * n_times_ + k] = static_cast<float>(column[i]);
+    store_column(column, k, n_times_, values_);
   }
 }
 
@@ -108,7 +134,7 @@ SimilarityTable::SimilarityTable(const RateSteps& steps, std::span<const double>
       const double dq = steps.delta_rate[j];
       for (std::size_t i = 0; i < n_nodes_; ++i) column[i] += dq * e[i];
     }
-    for (std::size_t i = 0; i < n_nodes_; ++i) values_[i * n_times_ + k] = static_cast<float>(column[i]);
+    store_column(column, k, n_times_, values_);
   }
 }
 
@@ -171,31 +197,19 @@ std::vector<SimilarityTable> build_tables(const std::vector<RateSteps>& steps,
       first = std::min(first, t);
     }
   std::vector<SimilarityTable> tables(steps.size());
-  std::exception_ptr failure;  // an exception must not leave an OpenMP region
+  util::ParallelErrors errors;
   if (lattice && !tracking_times.empty()) {
     const auto max_lag = static_cast<std::size_t>(std::llround((tracking_times.back() - first) / kDay)) + 1;
     const LagKernel kernel(grid, kDay, max_lag);
 #pragma omp parallel for schedule(dynamic, 1)
-    for (std::size_t w = 0; w < steps.size(); ++w) {
-      try {
-        tables[w] = SimilarityTable(steps[w], tracking_times, grid, kernel);
-      } catch (...) {
-#pragma omp critical(similarity_failure)
-        if (!failure) failure = std::current_exception();
-      }
-    }
+    for (std::size_t w = 0; w < steps.size(); ++w)
+      errors.iteration(w, [&] { tables[w] = SimilarityTable(steps[w], tracking_times, grid, kernel); });
   } else {
 #pragma omp parallel for schedule(dynamic, 1)
-    for (std::size_t w = 0; w < steps.size(); ++w) {
-      try {
-        tables[w] = SimilarityTable(steps[w], tracking_times, grid);
-      } catch (...) {
-#pragma omp critical(similarity_failure)
-        if (!failure) failure = std::current_exception();
-      }
-    }
+    for (std::size_t w = 0; w < steps.size(); ++w)
+      errors.iteration(w, [&] { tables[w] = SimilarityTable(steps[w], tracking_times, grid); });
   }
-  if (failure) std::rethrow_exception(failure);
+  errors.rethrow();
   return tables;
 }
 

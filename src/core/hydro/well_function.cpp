@@ -27,7 +27,8 @@
 #include <bit>
 #include <cstdint>
 #include <limits>
-#include <stdexcept>
+
+#include "core/errors.hpp"
 
 namespace slipscreen::hydro {
 namespace {
@@ -285,7 +286,7 @@ bool well_function_build_available(WellFunctionBuild build) {
 
 void well_function_with(WellFunctionBuild build, const double* u, double* out, std::size_t n) {
   if (!well_function_build_available(build))
-    throw std::invalid_argument("well_function_with: this CPU cannot run the requested build");
+    throw RefusedError("well function: this CPU cannot run the requested instruction-set build");
   switch (build) {
     case WellFunctionBuild::portable: well_function_portable(u, out, n); return;
     case WellFunctionBuild::avx2_fma: well_function_avx2(u, out, n); return;

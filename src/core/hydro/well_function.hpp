@@ -36,7 +36,7 @@ void well_function(const double* u, double* out, std::size_t n);
 // here so the tests can check every build the machine can run against the same reference.
 enum class WellFunctionBuild { portable, avx2_fma, avx512 };
 bool well_function_build_available(WellFunctionBuild build);
-// Throws std::invalid_argument when the CPU cannot run `build`.
+// Throws RefusedError (core/errors.hpp) when the CPU cannot run `build`.
 void well_function_with(WellFunctionBuild build, const double* u, double* out, std::size_t n);
 
 inline void well_function(std::span<const double> u, std::span<double> out) {

@@ -3,7 +3,6 @@
 
 #include <algorithm>
 #include <cmath>
-#include <exception>
 #include <limits>
 #include <numbers>
 #include <optional>
@@ -19,6 +18,7 @@
 #include "core/geomech/stress_state.hpp"
 #include "core/hydro/theis.hpp"
 #include "core/stats/random_stream.hpp"
+#include "core/util/parallel_errors.hpp"
 
 namespace slipscreen::probabilistic {
 namespace {
@@ -205,23 +205,19 @@ SampledRealizations sample_realizations(const UncertainModel& model, const Input
                   Eigen::MatrixXf(static_cast<Eigen::Index>(segments.size()), cols),
                   Eigen::MatrixXf::Constant(2, cols, std::numeric_limits<float>::infinity())};
   std::vector<Draw> draws(n_all);
-  std::exception_ptr failure;
+  util::ParallelErrors errors;
 #pragma omp parallel
   {
     Scratch s;
-    s.v.resize(list.inputs.size());
-    s.dp.resize(segments.size());
+    errors.setup([&] {
+      s.v.resize(list.inputs.size());
+      s.dp.resize(segments.size());
+    });
 #pragma omp for schedule(dynamic, 64)
-    for (std::uint64_t i = 0; i < n_all; ++i) {
-      try {
-        draws[i] = draw_realization(job, i, s);
-      } catch (...) {
-#pragma omp critical(probabilistic_failure)
-        if (!failure) failure = std::current_exception();
-      }
-    }
+    for (std::uint64_t i = 0; i < n_all; ++i)
+      errors.iteration(static_cast<std::size_t>(i), [&] { draws[i] = draw_realization(job, i, s); });
   }
-  if (failure) std::rethrow_exception(failure);
+  errors.rethrow();
 
   SampledRealizations out;
   out.drawn = n_all;

@@ -5,6 +5,7 @@
 #include <string>
 
 #include "core/errors.hpp"
+#include "core/util/parallel_errors.hpp"
 
 namespace slipscreen::probabilistic {
 namespace {
@@ -188,19 +189,24 @@ void track_slip(const hydro::PressureSurrogate& surrogate, const std::vector<std
                        static_cast<Eigen::Index>(surrogate.node_count()), n_real};
   const auto n_real_u = static_cast<std::size_t>(n_real);
 
+  util::ParallelErrors errors;
 #pragma omp parallel
   {
     Workspace ws;
-    ws.all.resize(n_real_u);
-    for (std::size_t r = 0; r < n_real_u; ++r) ws.all[r] = static_cast<Eigen::Index>(r);
+    errors.setup([&] {
+      ws.all.resize(n_real_u);
+      for (std::size_t r = 0; r < n_real_u; ++r) ws.all[r] = static_cast<Eigen::Index>(r);
+    });
 #pragma omp for schedule(dynamic, 1)
-    for (std::size_t s = 0; s < n_seg; ++s) {
-      SegmentOutcome res;
-      res.segment = s;
-      track_segment(in, segment_points[s], ws, res);
-      visit(res);
-    }
+    for (std::size_t s = 0; s < n_seg; ++s)
+      errors.iteration(s, [&] {
+        SegmentOutcome res;
+        res.segment = s;
+        track_segment(in, segment_points[s], ws, res);
+        visit(res);
+      });
   }
+  errors.rethrow();
 }
 
 }  // namespace slipscreen::probabilistic

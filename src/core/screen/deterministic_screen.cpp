@@ -2,7 +2,6 @@
 
 #include <algorithm>
 #include <cmath>
-#include <exception>
 #include <limits>
 #include <span>
 
@@ -10,6 +9,7 @@
 #include "core/geomech/fault_plane.hpp"
 #include "core/hydro/pressure_field.hpp"
 #include "core/hydro/similarity_table.hpp"
+#include "core/util/parallel_errors.hpp"
 
 namespace slipscreen::screen {
 
@@ -140,14 +140,17 @@ void table_series(const TabulatedField& tf, const hydro::PreparedPoints& prepare
   const std::size_t W = tf.in.wells.size();
   const std::size_t G = tf.tracked_times.size();
   series.assign(n_pts * G, 0.0);
+  util::ParallelErrors errors;
 #pragma omp parallel for schedule(dynamic, 4)
-  for (std::size_t p = 0; p < n_pts; ++p) {
-    double* row = &series[p * G];
-    for (std::size_t w = 0; w < W; ++w)
-      for (std::size_t j = prepared.offset[p * W + w]; j < prepared.offset[p * W + w + 1]; ++j)
-        tf.tables[w].accumulate(tf.tables[w].tap(prepared.r2[j] * tf.inv4d), prepared.sign[j], row);
-    for (std::size_t g = 0; g < G; ++g) row[g] *= tf.in.formation.pressure_per_rate;
-  }
+  for (std::size_t p = 0; p < n_pts; ++p)
+    errors.iteration(p, [&] {
+      double* row = &series[p * G];
+      for (std::size_t w = 0; w < W; ++w)
+        for (std::size_t j = prepared.offset[p * W + w]; j < prepared.offset[p * W + w + 1]; ++j)
+          tf.tables[w].accumulate(tf.tables[w].tap(prepared.r2[j] * tf.inv4d), prepared.sign[j], row);
+      for (std::size_t g = 0; g < G; ++g) row[g] *= tf.in.formation.pressure_per_rate;
+    });
+  errors.rethrow();
 }
 
 // Exact Δp at the output times, at the check points [pa, pb) of one segment that can hold the
@@ -217,19 +220,15 @@ bool screen_block(const TabulatedField& tf, const CheckPoints& cps, std::size_t 
   const hydro::PreparedPoints prepared = tf.field.prepare(pts);
   table_series(tf, prepared, n_pts, series);
 
-  std::exception_ptr failure;  // an exception must not leave an OpenMP region
+  util::ParallelErrors errors;
 #pragma omp parallel for schedule(dynamic, 1)
-  for (std::size_t s = s0; s < s1; ++s) {
-    try {
+  for (std::size_t s = s0; s < s1; ++s)
+    errors.iteration(s, [&] {
       const std::size_t pa = cps.first[s] - first, pb = cps.first[s + 1] - first;
       exact_output_dp(tf, pts, series, pa, pb, segments[s]);
       track_peak_and_crossing(tf, series, pa, pb, segments[s]);
-    } catch (...) {
-#pragma omp critical(screen_failure)
-      if (!failure) failure = std::current_exception();
-    }
-  }
-  if (failure) std::rethrow_exception(failure);
+    });
+  errors.rethrow();
   return prepared.any_clamped();
 }
 

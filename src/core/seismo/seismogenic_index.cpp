@@ -57,7 +57,9 @@ SeismogenicIndexFit fit_seismogenic_index(std::span<const double> event_times,
   SeismogenicIndexFit f;
   f.window_start = history.time.front();
   f.window_end = history.time.back();
-  f.volume = history.volume.back();
+  // The volume injected within the window in which the events are counted (a history may
+  // start after injection began, at a cumulative volume above zero).
+  f.volume = history.volume.back() - history.volume.front();
   f.mc = mc;
   f.b = b;
   const double tol = 1e-9 * std::max(1.0, std::abs(mc));
@@ -66,6 +68,9 @@ SeismogenicIndexFit fit_seismogenic_index(std::span<const double> event_times,
   if (f.events == 0)
     throw InputError("events at or above Mc = " + util::number_text(mc, 6) + " during injection", "0",
                      "at least one event to fit the seismogenic index");
+  if (!(f.volume > 0.0))
+    throw InputError("volume injected from the first to the last history sample", util::number_text(f.volume, 6),
+                     "a positive volume in m3 to fit the seismogenic index");
   const double n = static_cast<double>(f.events);
   f.sigma = seismogenic_index(n, f.volume, b, mc);
   f.sigma_count_se = 1.0 / (std::numbers::ln10 * std::sqrt(n));

@@ -337,3 +337,36 @@ TEST_CASE("bad grid input is a clear InputError") {
   bad([](GridGeometry&, P&, V&, V&, O& o) { o.relative_tolerance = 2; }, "relative_tolerance");
   bad([](GridGeometry&, P&, V&, V&, O& o) { o.max_table_bytes = 10; }, "max_table_bytes");
 }
+
+TEST_CASE("absurd rates are refused with a NumericalError before the tables are allocated") {
+  // 1 bbl = 0.158987294928 m³ (common practice), so 1 bbl/d = 1.8401e-6 m³/s.
+  const GridGeometry g = small_grid();
+  const TheisParameters p = formation();
+  const std::vector<double> times = {12 * kMonth, 24 * kMonth};
+  for (double bbl_per_day : {1e25, 1e30, 1e40, 1e70, 1e300}) {
+    CAPTURE(bbl_per_day);
+    const double q = bbl_per_day * 0.158987294928 / 86400.0;
+    const PressureField field({constant_well(g.origin_x + 5000, g.origin_y - 4000, q)});
+    // Before the bound, 1e25 bbl/d asked for about 1e8 profile nodes per source (gigabytes per
+    // thread) and 1e30 bbl/d exhausted the memory; the check comes before any table exists.
+    CHECK_THROWS_WITH_AS(pressure_grid(g, field, p, times), doctest::Contains("profile nodes per source"),
+                         NumericalError);
+  }
+  // A large but physical rate, 2e5 bbl/d (0.368 m³/s), still gives its map within the bound.
+  const double q = 2e5 * 0.158987294928 / 86400.0;
+  const PressureField field({constant_well(g.origin_x + 5000, g.origin_y - 4000, q)});
+  const PressureGrid m = pressure_grid(g, field, p, times);
+  CHECK(m.profile_nodes < 20000);
+  CHECK(std::abs(m.at(1, 10, 10) - direct_at(field, p, g.centre_x(10), g.centre_y(10), times[1])) <= m.error_bound);
+}
+
+TEST_CASE("one output time's tables beyond max_table_bytes are refused, not allocated anyway") {
+  const GridGeometry g = small_grid();
+  std::vector<WellSource> wells;
+  for (int w = 0; w < 200; ++w) wells.push_back(constant_well(g.origin_x + 40.0 * w, g.origin_y - 3000, 0.01));
+  const PressureField field(wells);
+  PressureGridOptions o;
+  o.max_table_bytes = 1e6;  // 200 sources × a few hundred nodes × 16 bytes exceeds it
+  CHECK_THROWS_WITH_AS(pressure_grid(g, field, formation(), std::vector<double>{12 * kMonth}, {}, o),
+                       doctest::Contains("bytes of tables per output time"), NumericalError);
+}

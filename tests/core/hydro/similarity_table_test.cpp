@@ -72,6 +72,27 @@ TEST_CASE("similarity table rejects bad input") {
   CHECK_THROWS_AS(SimilarityTable(steps, t, SimilarityGrid{1.0, 0.0, 0.05}), slipscreen::InputError);
 }
 
+TEST_CASE("rates beyond the table's single precision are a NumericalError, never inf") {
+  // 1e70 bbl/d is 1.84e65 m³/s: H = Δq E1 is far beyond float's 3.4e38 (IEEE 754 binary32).
+  RateSteps steps;
+  steps.time = {0.0};
+  steps.delta_rate = {1.84e65};
+  const std::vector<double> times = {10 * kDay, 20 * kDay};
+  const SimilarityGrid grid{std::log(1e-3), std::log(1e9), 0.05};
+  CHECK_THROWS_WITH_AS(SimilarityTable(steps, times, grid), doctest::Contains("single-precision range"),
+                       slipscreen::NumericalError);
+  CHECK_THROWS_WITH_AS(build_tables({test_history(), steps}, times, grid), doctest::Contains("single-precision range"),
+                       slipscreen::NumericalError);  // the lattice build, inside its OpenMP region
+  // 1e25 bbl/d (1.84e20 m³/s) still fits, and the table keeps its relative accuracy.
+  steps.delta_rate = {1.84e20};
+  const SimilarityTable big(steps, times, grid);
+  const double x = 1e4;
+  const double exact = SimilarityTable::direct(steps, x, times[1]);
+  CHECK(std::abs(big.value(big.tap(x), 1) - exact) <= 1e-6 * big.scale(1));
+  steps.delta_rate = {INFINITY};
+  CHECK_THROWS_WITH_AS(SimilarityTable(steps, times, grid), doctest::Contains("rate step 1"), slipscreen::InputError);
+}
+
 TEST_CASE("lattice build over whole days equals the direct build") {
   const RateSteps steps = test_history();  // steps every 30 days: whole days
   std::vector<double> times;

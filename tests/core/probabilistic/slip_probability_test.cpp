@@ -183,6 +183,22 @@ TEST_CASE("bad input is rejected with the field named") {
                        doctest::Contains("physical stress state"), InputError);
 }
 
+TEST_CASE("extreme rates end in a typed error on the calling thread, with 1 or 2 threads") {
+  // 1e70 bbl/d (1.84e65 m³/s; 1 bbl = 0.158987294928 m³, common practice). Before, the
+  // similarity tables overflowed to inf, a NaN reached a quantile sketch inside the OpenMP
+  // region of track_slip and the run ended in "internal error".
+  const int threads = omp_get_max_threads();
+  for (int n : {1, 2}) {
+    omp_set_num_threads(n);
+    Case c;
+    c.settings.realizations = 16;
+    c.wells[0].steps.delta_rate = {1.84e65, -1.84e65};
+    CHECK_THROWS_WITH_AS(run_probabilistic(c.model, c.wells, c.segments, c.settings),
+                         doctest::Contains("single-precision range"), NumericalError);
+  }
+  omp_set_num_threads(threads);
+}
+
 TEST_CASE("probability maps: a pixel with a mapped fault's orientation matches that fault; the most dangerous orientation is never safer") {
   Case c;
   c.model.friction = Distribution::normal(0.6, 0.08);

@@ -263,3 +263,22 @@ TEST_CASE("bad inputs are refused") {
   in.output_times = {2 * kYear, kYear};
   CHECK_THROWS_AS(deterministic_screen(in), InputError);
 }
+
+TEST_CASE("extreme rates: exact where representable, a NumericalError (not a crash) beyond") {
+  // 1 bbl = 0.158987294928 m³ (common practice).
+  const double bbl_per_day = 0.158987294928 / 86400.0;
+  ScreenInputs in = base_inputs();
+  in.segments.push_back({"F:0", 50.0 * kPi / 180, 85.0 * kPi / 180, {{1000, 0}}, std::nullopt});
+  in.output_times = {kYear};
+  for (int m = 1; m <= 12; ++m) in.tracking_times.push_back(m * kYear / 12);
+  // 1e25 bbl/d: Δp is absurd but finite, and still the Theis solution (linear in q).
+  const double q = 1e25 * bbl_per_day;
+  in.wells.push_back(well_at(0, 0, {0.0}, {q}));
+  const ScreenResult r = deterministic_screen(in);
+  const double expected = q * 2.0e5 * e1(1.0e6 / (4 * 0.4 * kYear));  // Theis (1935), Boost.Math E1
+  CHECK(std::abs(r.segments[0].dp[0] - expected) < 1e-9 * expected);
+  // 1e70 bbl/d: the similarity tables (single precision) cannot hold it; the error is typed and
+  // leaves the OpenMP region that builds the tables on the calling thread.
+  in.wells[0] = well_at(0, 0, {0.0}, {1e70 * bbl_per_day});
+  CHECK_THROWS_WITH_AS(deterministic_screen(in), doctest::Contains("single-precision range"), NumericalError);
+}

@@ -82,3 +82,32 @@ TEST_CASE("no event above Mc during injection is a clear input error") {
   const std::vector<double> t = {5.0, 50.0}, m = {0.5, 3.0};
   CHECK_THROWS_WITH_AS(fit_seismogenic_index(t, m, h, 1.0, 1.0), doctest::Contains("at least one event"), InputError);
 }
+
+TEST_CASE("a history that does not start at zero: Σ uses the volume injected within the fitted span") {
+  // Events are counted from the first history sample (cumulative 1e6 m3) to the last (3e6 m3),
+  // so the volume that produced them is 3e6 − 1e6 = 2e6 m3. Independent closed form, Shapiro et
+  // al. (2010): Σ = log10 N(>=M) − log10 V + b M, here with N = 200, V = 2e6, b = 1.1, M = Mc = 1.
+  const VolumeHistory h{{1e7, 2e7, 4e7}, {1e6, 1.5e6, 3e6}};
+  const double mc = 1.0, b = 1.1;
+  std::vector<double> t, m;
+  for (int i = 0; i < 200; ++i) {
+    t.push_back(1e7 + 1e5 * (i + 1));
+    m.push_back(mc + 0.1 * (i % 9));
+  }
+  t.push_back(5e6);  // before the span: not counted
+  m.push_back(2.0);
+  const auto f = fit_seismogenic_index(t, m, h, mc, b);
+  CHECK(f.events == 200);
+  CHECK(f.volume == 2e6);
+  const double expected = std::log10(200.0) - std::log10(2e6) + b * mc;  // = -2.9
+  CHECK(std::abs(f.sigma - expected) < 1e-12);
+  // The cumulative volume at the end (3e6) would have made Σ low by log10(3/2) = 0.176.
+  CHECK(std::abs((std::log10(200.0) - std::log10(3e6) + b * mc) - f.sigma + std::log10(1.5)) < 1e-12);
+  // Forecast: a further 1e6 m3 gives half the events of the fitted span above Mc, 100, and
+  // 100 · 10^(−b·1) above M = 2 (the Gutenberg-Richter scaling).
+  CHECK(std::abs(expected_event_count(f.sigma, b, mc, 1e6) - 100.0) < 1e-9);
+  CHECK(std::abs(expected_event_count(f.sigma, b, 2.0, 1e6) - 100.0 * std::pow(10.0, -b)) < 1e-9);
+  // No volume injected within the span: a clear input error, not an infinite Σ.
+  const VolumeHistory flat{{1e7, 4e7}, {1e6, 1e6}};
+  CHECK_THROWS_WITH_AS(fit_seismogenic_index(t, m, flat, mc, b), doctest::Contains("a positive volume"), InputError);
+}
