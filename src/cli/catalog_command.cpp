@@ -151,12 +151,14 @@ int run_catalog(const CatalogOptions& o, Context& ctx) {
   job.rt = build_rt(o);
   job.out = o.out;
   job.force = o.force;
+  job.command_line = ctx.command_line;
+  job.notice = [&ctx](const std::string& line) { ctx.err << "slipscreen: " << line << "\n"; };
   const run::CatalogJobResult r = run::run_catalog_job(job);
   if (o.json) ctx.out << r.json.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) << "\n";
   else print_catalog_summary(ctx.out, r.read, r.filtered.counts, r.summary, r.rt);
   if (!o.out.empty() && !o.json)
     ctx.out << "\nWrote " << o.out << "/ (catalog_summary.json, catalog_events.csv"
-            << (r.rt ? ", rt_events.csv, rt_fronts.csv" : "") << ")\n";
+            << (r.rt ? ", rt_events.csv, rt_fronts.csv" : "") << ", manifest.json)\n";
   return kExitOk;
 }
 
