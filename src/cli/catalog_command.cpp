@@ -152,6 +152,7 @@ int run_catalog(const CatalogOptions& o, Context& ctx) {
   job.out = o.out;
   job.force = o.force;
   job.command_line = ctx.command_line;
+  job.notice = [&ctx](const std::string& line) { ctx.err << "slipscreen: " << line << "\n"; };
   const run::CatalogJobResult r = run::run_catalog_job(job);
   if (o.json) ctx.out << r.json.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) << "\n";
   else print_catalog_summary(ctx.out, r.read, r.filtered.counts, r.summary, r.rt);

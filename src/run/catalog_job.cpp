@@ -8,6 +8,20 @@
 
 namespace slipscreen::run {
 
+namespace {
+
+// The folder's rules: the catalog and the volume history protect the folders holding them.
+formats::RunFolderOptions folder_options(const CatalogJob& job) {
+  formats::RunFolderOptions f;
+  f.force = job.force;
+  f.notice = job.notice;
+  f.inputs.push_back(job.file);
+  if (!job.volume_history.empty()) f.inputs.push_back(job.volume_history);
+  return f;
+}
+
+}  // namespace
+
 CatalogJobResult run_catalog_job(const CatalogJob& job) {
   seismo::SummaryOptions so = job.summary;
   if (!job.volume_history.empty()) so.volume_history = formats::read_volume_history_csv(job.volume_history);
@@ -17,10 +31,9 @@ CatalogJobResult run_catalog_job(const CatalogJob& job) {
     else if (so.volume_history) rt_start = so.volume_history->time.front();
     else throw InputError("--start", "", "the injection start time (ISO 8601) for the r-t view, or --volume-history");
   }
-  // Refuse an existing folder before reading (RunFolder checks again when created).
-  if (!job.out.empty() && !job.force && std::filesystem::exists(job.out))
-    throw RefusedError("output folder '" + job.out.generic_string() +
-                       "' exists; choose another or add --force to replace it");
+  // Refuse the folder before reading (RunFolder checks again when created and when committed).
+  const formats::RunFolderOptions folder_rules = folder_options(job);
+  if (!job.out.empty()) formats::RunFolder::check_target(job.out, folder_rules);
 
   CatalogJobResult r;
   r.read = formats::read_catalog(job.file, job.format, job.columns, job.strict);
@@ -30,7 +43,7 @@ CatalogJobResult run_catalog_job(const CatalogJob& job) {
   r.json = outputs::catalog_summary_json(r.read, r.filtered.counts, r.summary);
   r.json["rt_view"] = r.rt ? outputs::rt_view_json(*r.rt) : nlohmann::json(nullptr);
   if (!job.out.empty()) {
-    formats::RunFolder folder(job.out, formats::RunFolderOptions{job.force});
+    formats::RunFolder folder(job.out, folder_rules);
     outputs::CatalogFolderRecord record{job.command_line, {{"catalog", job.file, ""}}};
     if (!job.volume_history.empty()) record.inputs.push_back({"volume history", job.volume_history, ""});
     outputs::write_catalog_folder(folder, r.json, r.filtered.catalog, r.rt, record);

@@ -1,10 +1,12 @@
 #pragma once
 // `slipscreen catalog` end to end: read the catalog (and a volume history), filter, summarize,
 // build the r-t view, and write the --out folder through a RunFolder (the same "nothing is
-// lost" rule as a scenario run: an existing folder is replaced only with force, and only once
-// the new one is complete).
+// lost" rule as a scenario run, formats/files/run_folder.hpp: an existing folder is replaced only
+// with force, only when it is an earlier run of slipscreen, and only once the new one is
+// complete). The folder holds a manifest.json (the inputs' SHA-256 and the command line).
 #include <array>
 #include <filesystem>
+#include <functional>
 #include <optional>
 #include <string>
 #include <vector>
@@ -36,6 +38,8 @@ struct CatalogJob {
   std::filesystem::path out;             // "" = no folder
   bool force = false;
   std::vector<std::string> command_line; // for the folder's manifest
+  // One line per stale leftover of a killed run cleaned beside the folder (stale_runs.hpp).
+  std::function<void(const std::string& line)> notice;
 };
 
 struct CatalogJobResult {

@@ -31,6 +31,18 @@ void report(double fraction, void* user) {
   if (b->options->progress) b->options->progress("pressure at fault segments", fraction);
 }
 
+// The run folder's rules for this run: every input read protects the folders holding it.
+formats::RunFolderOptions folder_options(const scenario::ResolvedScenario& s, const screening::PreparedRun& p,
+                                         const RunOptions& o) {
+  formats::RunFolderOptions f;
+  f.force = o.force;
+  f.notice = o.notice;
+  f.inputs.push_back(s.path);
+  f.inputs.insert(f.inputs.end(), s.inputs.begin(), s.inputs.end());
+  for (const auto& in : p.manifest_inputs) f.inputs.push_back(in.path);
+  return f;
+}
+
 std::vector<std::string> files_in(const std::filesystem::path& folder) {
   std::vector<std::string> files;
   for (const auto& e : std::filesystem::recursive_directory_iterator(folder))
@@ -48,10 +60,9 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
   };
   stage("reading faults and wells");
   const screening::PreparedRun prepared = screening::prepare_run(s, o.allow_network);
-  // Refuse an existing folder before computing (RunFolder checks again when created).
-  if (!o.force && std::filesystem::exists(target))
-    throw RefusedError("run folder '" + target.generic_string() +
-                       "' exists: choose another folder or give --force to replace it");
+  // Refuse the folder before computing (RunFolder checks again when created and when committed).
+  const formats::RunFolderOptions folder_rules = folder_options(s, prepared, o);
+  formats::RunFolder::check_target(target, folder_rules);
   const scenario::UncertaintySpec& spec = s.uncertainty;
 
   ProgressBridge bridge{&o};
@@ -75,7 +86,7 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
   }
 
   stage("writing outputs");
-  formats::RunFolder folder(target, formats::RunFolderOptions{o.force});
+  formats::RunFolder folder(target, folder_rules);
   outputs::write_run_outputs(folder, s,
                              {prepared, result, pressure ? &*pressure : nullptr, prob ? &*prob : nullptr,
                               review ? &*review : nullptr},

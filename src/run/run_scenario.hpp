@@ -14,12 +14,14 @@ namespace slipscreen::run {
 
 struct RunOptions {
   std::filesystem::path out;   // run folder; empty: the scenario's output.folder (from the working directory)
-  bool force = false;          // replace an existing run folder
+  bool force = false;          // replace an earlier run of slipscreen (formats/files/run_folder.hpp)
   bool allow_network = false;  // GDAL network paths in the scenario
   bool reproducible = false;   // no creation time in the manifest, fixed GeoPackage timestamp
   std::vector<std::string> command_line;
   // Progress: a stage name and the fraction of the pressure computation done.
   std::function<void(const std::string& stage, double fraction)> progress;
+  // One line per stale leftover of a killed run cleaned beside the run folder (stale_runs.hpp).
+  std::function<void(const std::string& line)> notice;
 };
 
 using screening::RunSummary;

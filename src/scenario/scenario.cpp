@@ -31,6 +31,50 @@ void check_output_name(const formats::Section& s, std::string_view key, const st
   }
 }
 
+// How relative output path `a` clashes with `b`: "" when it does not; else the same file, a
+// folder holding it, or a path inside it.
+std::string clash(const fs::path& a, const fs::path& b) {
+  auto ai = a.begin(), bi = b.begin();
+  for (; ai != a.end() && bi != b.end(); ++ai, ++bi)
+    if (*ai != *bi) return "";
+  if (ai == a.end() && bi == b.end()) return "the same file as ";
+  return ai == a.end() ? "a folder holding " : "a path inside ";
+}
+
+// [output.files] names that would overwrite each other or a file the run writes itself
+// (manifest.json, README.txt), compared after normalising: refused naming the keys and values.
+void check_distinct_output_names(const formats::Section& s, const OutputFiles& files) {
+  const std::vector<std::pair<std::string_view, const std::string*>> named = {
+      {"segment_times", &files.segment_times}, {"segments", &files.segments},
+      {"pressure_raster", &files.pressure_raster}, {"geopackage", &files.geopackage}};
+  const auto refuse = [&](std::string_view key, const std::string& value, const std::string& why) {
+    const auto f = s.find(key);
+    throw RefusedError(s.where(*f) + ": refused: key " + s.key_path(*f, key) + " = '" + value + "': " + why +
+                       "; each output needs its own file name in the run folder");
+  };
+  // Another output as the user reads it: its key path, or the default it keeps.
+  const auto shown = [&](std::string_view key, const std::string& value, std::string_view reported) {
+    if (const auto f = s.find(key)) return s.key_path(*f, key) + " = '" + value + "'";
+    const std::string path = s.key_path(*s.find(reported), reported);
+    return path.substr(0, path.size() - reported.size()) + std::string(key) + " (default '" + value + "')";
+  };
+  for (std::size_t i = 0; i < named.size(); ++i) {
+    const auto& [key, value] = named[i];
+    const fs::path norm = fs::path(*value).lexically_normal();
+    for (const char* own : {"manifest.json", "README.txt"}) {
+      const std::string how = clash(norm, own);
+      if (!how.empty()) refuse(key, *value, how + "the run's own " + own);
+    }
+    for (std::size_t j = 0; j < i; ++j) {
+      const auto& [other, other_value] = named[j];
+      const fs::path other_norm = fs::path(*other_value).lexically_normal();
+      if (clash(norm, other_norm).empty()) continue;
+      if (s.has(key)) refuse(key, *value, clash(norm, other_norm) + shown(other, *other_value, key));
+      refuse(other, *other_value, clash(other_norm, norm) + shown(key, *value, other));
+    }
+  }
+}
+
 struct Step {
   int months = 0;
   int days = 0;
@@ -156,6 +200,7 @@ OutputSpec read_output(const formats::Section& s) {
   name("segments", o.files.segments);
   name("pressure_raster", o.files.pressure_raster);
   name("geopackage", o.files.geopackage);
+  check_distinct_output_names(f, o.files);
   return o;
 }
 

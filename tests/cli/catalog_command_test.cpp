@@ -73,12 +73,18 @@ TEST_CASE("catalog --out writes the summary, events and r-t tables") {
   }
   // --force with a catalog that cannot be read keeps the earlier folder as it was (the folder is
   // replaced only once the new one is complete: formats/files/run_folder.hpp).
-  std::ofstream(dir / "notes.txt") << "kept";
+  const std::string summary = slurp(dir / "catalog_summary.json");
   auto bad = forced;
   bad[1] = std::string(SLIPSCREEN_SOURCE_DIR) + "/tests/data/catalog/no-such-catalog.csv";
   std::ostringstream out3, err3;
   CHECK(slipscreen::cli::run(bad, out3, err3) == 4);
+  CHECK(slurp(dir / "catalog_summary.json") == summary);
+  // A file the user added makes it no longer a run of slipscreen: --force refuses it.
+  std::ofstream(dir / "notes.txt") << "kept";
+  std::ostringstream out4, err4;
+  CHECK(slipscreen::cli::run(forced, out4, err4) == 5);
+  CHECK(err4.str().find("'notes.txt'") != std::string::npos);
   CHECK(slurp(dir / "notes.txt") == "kept");
-  CHECK(fs::exists(dir / "catalog_summary.json"));
+  CHECK(slurp(dir / "catalog_summary.json") == summary);
   fs::remove_all(dir);
 }

@@ -6,6 +6,7 @@
 
 #include <filesystem>
 #include <fstream>
+#include <map>
 #include <sstream>
 
 #include <gdal_priv.h>
@@ -180,4 +181,55 @@ TEST_CASE("inputs found bad from the fault map or the catalog stop the run befor
                        Error);
   CHECK_THROWS_WITH_AS(load_scenario(bad / "catalog_mapping_key.toml"), doctest::Contains("did you mean 'time'"),
                        InputError);
+}
+
+namespace {
+
+// Every path under `dir` with its bytes (folders as ""), to show that nothing changed.
+std::map<std::string, std::string> snapshot(const fs::path& dir) {
+  std::map<std::string, std::string> files;
+  for (const auto& e : fs::recursive_directory_iterator(dir))
+    files[e.path().lexically_relative(dir).generic_string()] = e.is_regular_file() ? slurp(e.path()) : "";
+  return files;
+}
+
+}  // namespace
+
+TEST_CASE("run scenario.toml --out . --force in the scenario's own folder is refused and deletes nothing") {
+  TinyScenario t;
+  t.write("notes.txt", "the user's notes");
+  const ResolvedScenario s = load_scenario(t.scenario());
+  const auto before = snapshot(t.dir());
+  const fs::path previous = fs::current_path();
+  fs::current_path(t.dir());
+  RunOptions here = options_into(".");
+  here.force = true;
+  CHECK_THROWS_WITH_AS(run_scenario(s, here), doctest::Contains("run folder '.' is the working directory"),
+                       RefusedError);
+  fs::current_path(previous);
+  CHECK(snapshot(t.dir()) == before);
+
+  // Named from elsewhere, the scenario's folder is still refused: it holds the run's inputs.
+  RunOptions there = options_into(t.dir());
+  there.force = true;
+  CHECK_THROWS_WITH_AS(run_scenario(s, there), doctest::Contains("holds the input file"), RefusedError);
+  CHECK(snapshot(t.dir()) == before);
+}
+
+TEST_CASE("a run cleans the stale staging folder of a killed run beside its folder, saying so") {
+  TinyScenario t;
+  const ResolvedScenario s = load_scenario(t.scenario());
+  const fs::path out = t.dir() / "runs" / "tiny";
+  // A staging folder of a run that no longer exists (above the largest pid: no such process).
+  fs::create_directories(out.parent_path() / "tiny.partial-999999999");
+  std::ofstream(out.parent_path() / "tiny.partial-999999999" / "segments.csv") << "half";
+  RunOptions o = options_into(out);
+  std::vector<std::string> notes;
+  o.notice = [&](const std::string& line) { notes.push_back(line); };
+  run_scenario(s, o);
+  REQUIRE(notes.size() == 1);
+  CHECK(notes[0].find("removed") == 0);
+  CHECK(notes[0].find("tiny.partial-999999999") != std::string::npos);
+  CHECK(entries(out.parent_path()) == 1);
+  CHECK(fs::exists(out / "manifest.json"));
 }

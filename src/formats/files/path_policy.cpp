@@ -38,6 +38,10 @@ bool is_network_path(std::string_view path) {
   return has_driver_prefix(p);
 }
 
+bool is_virtual_or_network_path(std::string_view path) {
+  return lower(path).rfind("/vsi", 0) == 0 || is_network_path(path);
+}
+
 void require_local_path(std::string_view path, bool allow_network, std::string_view field) {
   if (allow_network || !is_network_path(path)) return;
   throw RefusedError(std::string(field) + " = '" + std::string(path) +
@@ -45,13 +49,41 @@ void require_local_path(std::string_view path, bool allow_network, std::string_v
                      "be read) unless network access is explicitly allowed");
 }
 
+bool has_control_character(std::string_view text) {
+  return std::any_of(text.begin(), text.end(), [](char c) {
+    const auto u = static_cast<unsigned char>(c);
+    return u < 0x20 || u == 0x7f;
+  });
+}
+
+std::string escaped_text(std::string_view text) {
+  std::string out;
+  for (char c : text) {
+    const auto u = static_cast<unsigned char>(c);
+    if (c == '\n') out += "\\n";
+    else if (c == '\t') out += "\\t";
+    else if (c == '\r') out += "\\r";
+    else if (c == '\0') out += "\\0";
+    else if (u < 0x20 || u == 0x7f) {
+      static constexpr char kHex[] = "0123456789abcdef";
+      out += "\\x";
+      out += kHex[u >> 4];
+      out += kHex[u & 0xf];
+    } else {
+      out += c;
+    }
+  }
+  return out;
+}
+
 std::filesystem::path safe_relative_output(std::string_view key, std::string_view value) {
   const std::string k(key), v(value);
   auto refuse = [&](const std::string& why) {
-    throw RefusedError(k + " = '" + v + "': " + why +
+    throw RefusedError(k + " = '" + escaped_text(v) + "': " + why +
                        "; output paths must be relative paths inside the run folder");
   };
   if (v.empty()) refuse("empty path");
+  if (has_control_character(v)) refuse("a control character (newline, tab, NUL, ...) in a file name");
   if (is_network_path(v)) refuse("a network path or connection string");
   const std::filesystem::path p(v);
   if (p.is_absolute() || p.has_root_name() || p.has_root_directory()) refuse("an absolute path");

@@ -31,3 +31,25 @@ TEST_CASE("safe relative outputs") {
                        RefusedError);
   CHECK_THROWS_AS(formats::safe_relative_output("k", "https://h/x.csv"), RefusedError);
 }
+
+TEST_CASE("control characters in an output name are refused, shown escaped") {
+  CHECK_THROWS_WITH_AS(formats::safe_relative_output("output.files.segments", "seg\nments.csv"),
+                       doctest::Contains("output.files.segments = 'seg\\nments.csv': a control character"),
+                       RefusedError);
+  CHECK_THROWS_AS(formats::safe_relative_output("k", "a\tb.csv"), RefusedError);
+  CHECK_THROWS_AS(formats::safe_relative_output("k", std::string("a\0b.csv", 7)), RefusedError);
+  CHECK_THROWS_AS(formats::safe_relative_output("k", "a\x7f.csv"), RefusedError);
+  CHECK(formats::escaped_text(std::string("a\tb\0c\x01\r", 7)) == "a\\tb\\0c\\x01\\r");
+  CHECK(formats::safe_relative_output("k", "résumé.csv") == std::filesystem::path("résumé.csv"));  // UTF-8 is fine
+}
+
+TEST_CASE("GDAL virtual paths are told from local ones") {
+  for (const char* p : {"/vsimem/run", "/vsizip/a.zip/run", "/VSIMEM/x", "/vsistdout/", "https://h/x", "PG:db"}) {
+    CAPTURE(p);
+    CHECK(formats::is_virtual_or_network_path(p));
+  }
+  for (const char* p : {"runs/demo", "/tmp/vsimem/run", "vsimem/run", "/home/u/run"}) {
+    CAPTURE(p);
+    CHECK_FALSE(formats::is_virtual_or_network_path(p));
+  }
+}
