@@ -201,7 +201,7 @@ void register_catalog_command(CLI::App& app, Context& ctx) {
   sub->add_option("--diffusivity", o->diffusivities, "Diffusivities for the front curves (default 0.01, 0.1, 1 m2/s)");
   sub->add_flag("--json", o->json, "Print the summary as JSON");
   sub->add_option("--out", o->out, "Write a folder with the summary, kept events and r-t tables");
-  sub->add_flag("--force", o->force, "Replace an existing --out folder");
+  sub->add_flag("--force", o->force, "Replace an earlier slipscreen catalog folder at --out (one holding only what its manifest lists)");
   sub->callback([o, &ctx] { ctx.action = [o, &ctx] { return run_catalog(*o, ctx); }; });
 }
 

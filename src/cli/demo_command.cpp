@@ -31,7 +31,7 @@ void register_demo_command(CLI::App& app, Context& ctx) {
   sub->footer("The demo scenario has wells with monthly volumes, a planned well, mapped faults, [uncertainty] and a\n"
               "synthetic [catalog], so every screen runs.\n\n" + run_footer());
   sub->add_option("--out", opts->out, "Run folder")->default_val("runs/demo");
-  sub->add_flag("--force", opts->force, "Replace an existing run folder; the old one stays until the new run is complete");
+  sub->add_flag("--force", opts->force, "Replace an earlier slipscreen run folder (one holding only what its manifest lists); the old one stays until the new run is complete");
   sub->add_flag("--reproducible", opts->reproducible,
                 "Leave the creation time out of the manifest and fix the GeoPackage timestamp (byte-identical reruns)");
   sub->callback([opts, &ctx] {

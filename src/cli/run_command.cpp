@@ -31,7 +31,7 @@ void register_run_command(CLI::App& app, Context& ctx) {
   sub->footer(run_footer());
   sub->add_option("scenario", opts->scenario, "Scenario file (TOML), see docs/scenario.md")->required();
   sub->add_option("--out", opts->out, "Run folder (default: [output] folder of the scenario)");
-  sub->add_flag("--force", opts->force, "Replace an existing run folder; the old one stays until the new run is complete");
+  sub->add_flag("--force", opts->force, "Replace an earlier slipscreen run folder (one holding only what its manifest lists); the old one stays until the new run is complete");
   sub->add_flag("--allow-network", opts->allow_network, "Allow GDAL network paths (/vsicurl/ ...) in the scenario");
   sub->add_flag("--reproducible", opts->reproducible,
                 "Leave the creation time out of the manifest and fix the GeoPackage timestamp (byte-identical reruns)");
