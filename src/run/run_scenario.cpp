@@ -48,6 +48,10 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
   };
   stage("reading faults and wells");
   const screening::PreparedRun prepared = screening::prepare_run(s, o.allow_network);
+  const screening::RunCost cost = screening::estimate_run_cost(s, prepared);
+  const double memory_limit = screening::memory_limit_bytes(s);
+  screening::refuse_beyond_memory(cost, memory_limit, s.file);
+  if (o.cost) o.cost(cost, memory_limit);
   // Refuse an existing folder before computing (RunFolder checks again when created).
   if (!o.force && std::filesystem::exists(target))
     throw RefusedError("run folder '" + target.generic_string() +

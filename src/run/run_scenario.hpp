@@ -8,6 +8,7 @@
 #include <vector>
 
 #include "scenario/scenario.hpp"
+#include "screening/run_cost.hpp"
 #include "screening/run_summary.hpp"
 
 namespace slipscreen::run {
@@ -20,6 +21,9 @@ struct RunOptions {
   std::vector<std::string> command_line;
   // Progress: a stage name and the fraction of the pressure computation done.
   std::function<void(const std::string& stage, double fraction)> progress;
+  // The cost estimate (screening/run_cost.hpp), once the inputs are prepared and before any
+  // computing; a run beyond the memory limit is refused before this is called.
+  std::function<void(const screening::RunCost& cost, double memory_limit)> cost;
 };
 
 using screening::RunSummary;

@@ -9,6 +9,7 @@
 #include "formats/table/iso_time.hpp"
 #include "scenario/catalog_section.hpp"
 #include "formats/toml/toml_section.hpp"
+#include "scenario/plausibility.hpp"
 
 namespace slipscreen::scenario {
 
@@ -48,11 +49,7 @@ std::vector<double> number_list(const formats::Section& s, std::string_view key,
   return out;
 }
 
-// The value of `key` as written in the TOML file.
-std::string written(const formats::Section& s, std::string_view key) {
-  const auto f = s.find(key);
-  return f ? formats::toml_value_text(*f->node) : "(missing)";
-}
+using plausible::written;
 
 void require_positive(const formats::Section& s, std::string_view key, double v) {
   if (!(v > 0 && std::isfinite(v))) s.fail(key, written(s, key), "a value greater than zero");

@@ -115,9 +115,13 @@ bool plausible_date(const util::CivilDate& d);
 // written as if they were metres (or feet).
 bool looks_like_degrees(double x, double y);
 
-// The shortest text that reads back as v ("501500", "1e+30", "-0.5"), for values known only
-// as numbers (the TOML value of a key is echoed as written).
+// The shortest text that reads back as v ("501500", "1e+30", "-35.1"), for values known only
+// as numbers: fixed notation from 1e-4 to 1e16, scientific beyond.
 std::string number_as_read(double v);
+
+// The value of `key` as the user wrote it: a string's text, an integer's digits, a float's
+// shortest text ("-35.1", where the TOML library prints -35.100000000000001); "(missing)".
+std::string written(const formats::Section& s, std::string_view key);
 
 // Reads nothing: checks the value of `key` (already read, in SI) and refuses it with the key's
 // place and its value as written in the TOML file.

@@ -26,12 +26,7 @@ double checked_or(const formats::Section& s, std::string_view key, Dimension d, 
   return s.has(key) ? checked(s, key, d, range) : fallback;
 }
 
-// The value of `key` as written in the TOML file (for messages about a value in range but
-// inconsistent with another).
-std::string written(const formats::Section& s, std::string_view key) {
-  const auto f = s.find(key);
-  return f ? formats::toml_value_text(*f->node) : "(missing)";
-}
+using plausible::written;
 
 constexpr plausible::Range kFriction{0.01, 2.0, false, false, "a friction coefficient from 0.01 to 2"};
 

@@ -158,8 +158,7 @@ OutputGrid read_grid(const formats::Section& s) {
     if (!(g.xmax > g.xmin && g.ymax > g.ymin)) s.fail("extent", formats::toml_value_text(*f->node), "xmax > xmin and ymax > ymin");
     const double cells = std::ceil((g.xmax - g.xmin) / g.cell_size) * std::ceil((g.ymax - g.ymin) / g.cell_size);
     if (cells > 2.5e7)
-      s.fail(s.has("cell_size") ? "cell_size" : "extent",
-             formats::toml_value_text(*s.find(s.has("cell_size") ? "cell_size" : "extent")->node),
+      s.fail(s.has("cell_size") ? "cell_size" : "extent", plausible::written(s, s.has("cell_size") ? "cell_size" : "extent"),
              "at most 25 million cells over the extent (" + util::number_text(cells, 3) + " cells)");
   }
   return g;
@@ -226,7 +225,7 @@ void read_location(const formats::Section& s, const std::string& default_crs, We
   plausible::check(s, kx, w.x, plausible::kProjectedCoordinate);
   plausible::check(s, ky, w.y, plausible::kProjectedCoordinate);
   if (kind == CrsKind::projected && plausible::looks_like_degrees(w.x, w.y))
-    s.fail(kx, formats::toml_value_text(*s.find(kx)->node) + ", " + formats::toml_value_text(*s.find(ky)->node),
+    s.fail(kx, plausible::written(s, kx) + ", " + plausible::written(s, ky),
            "x and y in " + w.crs + " (a projected CRS): |x| <= 180 and |y| <= 90 look like longitude and latitude "
            "in degrees; write lon = ..., lat = ... (WGS 84) or give x and y in the CRS's unit");
 }
@@ -243,8 +242,7 @@ WellSpec read_proposed(const formats::Section& s, const std::string& default_crs
   w.bottom = s.quantity("bottom", Dimension::length);
   plausible::check(s, "bottom", w.bottom, plausible::kWellBottom);
   if (!(w.bottom > w.top))
-    s.fail("bottom", formats::toml_value_text(*s.find("bottom")->node),
-           "a depth below 'top' (" + formats::toml_value_text(*s.find("top")->node) + ")");
+    s.fail("bottom", plausible::written(s, "bottom"), "a depth below 'top' (" + plausible::written(s, "top") + ")");
   w.radius = s.quantity("radius", Dimension::length);
   plausible::check(s, "radius", w.radius, plausible::kWellRadius);
   const auto f = *s.find("id");
