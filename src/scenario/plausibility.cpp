@@ -23,7 +23,12 @@ std::string number_as_read(double v) {
 std::string written(const formats::Section& s, std::string_view key) {
   const auto f = s.find(key);
   if (!f) return "(missing)";
-  if (const auto* d = f->node->as_floating_point()) return number_as_read(d->get());
+  if (const auto* d = f->node->as_floating_point()) {
+    const double v = d->get();
+    // A TOML float is written with a point: 235.0 stays "235.0", -35.1 is not -35.100000000000001.
+    const bool whole = std::isfinite(v) && v == std::floor(v) && std::abs(v) < 1e16;
+    return number_as_read(v) + (whole ? ".0" : "");
+  }
   return formats::toml_value_text(*f->node);
 }
 

@@ -52,7 +52,7 @@ inline constexpr Range kWellRadius{0.0, 1.0, true, false, "a well radius in (0, 
 // The injected formation. Permeability of rocks spans about 1e-20 m² (intact shale) to 1e-9 m²
 // (gravel) (Bear 1972, Dynamics of Fluids in Porous Media, table of permeability ranges; from
 // memory); the bounds add a decade each side.
-inline constexpr Range kPermeability{9.869233e-23, 9.869233e-10, false, false,
+inline constexpr Range kPermeability{1e-7 * 9.869233e-16, 1e6 * 9.869233e-16, false, false,
                                      "a permeability from 1e-7 mD to 1e6 mD (about 1e-22 to 1e-9 m2)"};
 inline constexpr Range kThickness{0.1, 5000.0, false, false, "a formation thickness from 0.1 m to 5 km"};
 inline constexpr Range kPorosity{1e-4, 0.6, false, false, "a porosity from 0.0001 to 0.6"};

@@ -15,6 +15,7 @@
 #include "core/hydro/well_function.hpp"
 #include "core/probabilistic/screen_inputs.hpp"
 #include "core/screen/tracking_grid.hpp"
+#include "core/stats/sampler.hpp"
 #include "core/util/number_text.hpp"
 #include "screening/probabilistic_screen.hpp"
 
@@ -58,16 +59,49 @@ std::size_t table_nodes(double ln_lo, double ln_hi) {
   return hydro::SimilarityGrid{ln_lo, ln_hi, kTableStep}.node_count();
 }
 
-// The range of D over N realizations: every input at its 1/(2N) and 1 − 1/(2N) quantiles,
-// combined at their worst (an upper bound on the sampled range).
-std::pair<double, double> diffusivity_range(const probabilistic::UncertainModel& m, std::uint64_t n) {
-  const double lo = 0.5 / static_cast<double>(n), hi = 1.0 - lo;
+// The range of D over N realizations, bounded from every input's 0.01/N and 1 − 0.01/N quantiles
+// (the extreme of N draws, Monte Carlo or Latin hypercube, lies beyond with a chance of about
+// 1%) combined at their worst.
+std::pair<double, double> quantile_range(const probabilistic::UncertainModel& m, std::uint64_t n) {
+  const double lo = 0.01 / static_cast<double>(n), hi = 1.0 - lo;
   if (m.from_transmissivity)
     return {m.transmissivity.quantile(lo) / m.storativity.quantile(hi), m.transmissivity.quantile(hi) / m.storativity.quantile(lo)};
   const auto denominator = [&](double u) {
     return m.viscosity.quantile(u) * m.porosity.quantile(u) * m.total_compressibility.quantile(u);
   };
   return {m.permeability.quantile(lo) / denominator(hi), m.permeability.quantile(hi) / denominator(lo)};
+}
+
+// Up to this many realizations the range of D is drawn exactly as the run draws it.
+constexpr std::uint64_t kDrawnRange = 1000000;
+
+// The range of D the run will sample: its own draws of the formation inputs (the sampler's first
+// inputs, core/probabilistic/screen_inputs.hpp, drawn from the streams (seed, i) as the run draws
+// them), D from hydro::theis_parameters; realizations the engine rejects for their hydrogeology
+// are skipped, so the range holds the run's. Beyond kDrawnRange realizations, quantile_range.
+std::pair<double, double> diffusivity_range(const probabilistic::UncertainModel& m, const scenario::ResolvedScenario& s,
+                                            std::uint64_t n) {
+  if (n > kDrawnRange) return quantile_range(m, n);
+  const probabilistic::InputList l = probabilistic::make_inputs(m, {}, 0);
+  const std::size_t first = m.from_transmissivity ? std::max(l.t, l.s) : std::max({l.k, l.h, l.phi, l.ct, l.mu_f});
+  std::vector<stats::UncertainInput> formation(l.inputs.begin(), l.inputs.begin() + static_cast<std::ptrdiff_t>(first + 1));
+  const stats::Sampler sampler(formation, s.uncertainty.sampler, s.seed,
+                               stats::RealizationCount(static_cast<std::int64_t>(n), "realizations"));
+  double d_min = kInf, d_max = 0.0;
+  std::vector<double> v(formation.size());
+  for (std::uint64_t i = 0; i < n; ++i) {
+    sampler.draw(i, v);
+    try {
+      const double dv = m.from_transmissivity
+                            ? hydro::theis_parameters(hydro::Aquifer{v[l.t], v[l.s], m.fluid_density}).diffusivity
+                            : hydro::theis_parameters(hydro::Formation{v[l.k], v[l.h], v[l.mu_f], v[l.phi], v[l.ct]})
+                                  .diffusivity;
+      d_min = std::min(d_min, dv), d_max = std::max(d_max, dv);
+    } catch (const InputError&) {
+      // rejected by the engine too
+    }
+  }
+  return d_max > 0.0 ? std::make_pair(d_min, d_max) : quantile_range(m, n);
 }
 
 // u with E1(u) = target (bisection in ln u; E1 decreases).
@@ -157,10 +191,11 @@ void probabilistic_part(const scenario::ResolvedScenario& s, const PreparedRun& 
       std::count_if(m.well_rate_factor.begin(), m.well_rate_factor.end(), [](const auto& f) { return f.has_value(); }));
   z.sampled_inputs = probabilistic::make_inputs(m, {}, fault_ids.size()).inputs.size() + own;
   z.rate_groups = 1 + own;
+  z.latin_hypercube = spec.sampler == stats::SamplingMethod::latin_hypercube;
   std::vector<double> tracked = screen::tracking_grid(w.change_times, s.output.times);
   z.mc_times = tracked.empty() ? s.output.times.size() : tracked.size();
 
-  const auto [d_min, d_max] = diffusivity_range(m, z.realizations);
+  const auto [d_min, d_max] = diffusivity_range(m, s, z.realizations);
   const double spread = std::log(d_max / d_min);
   z.surrogate_nodes =
       spread < 1e-12 ? 1 : std::clamp<std::size_t>(static_cast<std::size_t>(std::ceil(8.0 * spread)), 4, 64);
@@ -222,7 +257,9 @@ CostPart probabilistic_cost(const RunSizes& z, double& results) {
   const double P = d(z.check_points), M = d(z.map_points), groups = d(z.rate_groups), nd = d(z.surrogate_nodes);
   const double chunks = std::ceil(G / kTrackChunk);
   const double matrices = N * (d(z.sampled_inputs) * 8.0 + (2.0 * d(z.faults) + S + 2.0) * 4.0);
-  const double sampling = 2.0 * matrices + N * 24.0;
+  // The Latin hypercube keeps one permutation of N per input while sampling.
+  const double permutations = z.latin_hypercube ? d(z.sampled_inputs) * N * 4.0 : 0.0;
+  const double sampling = 2.0 * matrices + N * 24.0 + permutations;
   const double kept = matrices + N * 24.0;
   const double tables = W * d(z.mc_table_nodes) * G * 4.0;
   const double kernel = (d(z.lags) + 1.0) * d(z.mc_table_nodes) * 4.0;
@@ -311,7 +348,7 @@ std::string bytes_text(double bytes) {
   static const char* const kUnits[] = {"B", "kB", "MB", "GB", "TB", "PB", "EB"};
   int u = 0;
   while (bytes >= 1000.0 && u < 6) bytes /= 1000.0, ++u;
-  return util::number_text(bytes, bytes < 10.0 && u > 0 ? 2 : 3) + " " + kUnits[u];
+  return util::number_text(bytes, 3) + " " + kUnits[u];
 }
 
 std::string cost_line(const RunCost& cost, double limit) {

@@ -10,7 +10,8 @@
 //     results              S × (K·W + G + 2K) × 8 B  (each well's share at every output time)
 //     one block of 64 segments: P_b × (W + 2·sources) × 8 B + P_b × G × 8 B
 //   probabilistic screen (core/probabilistic/*)
-//     realizations         N × (inputs × 8 + (2F + S + 2) × 4 + 24) B, twice while sampled
+//     realizations         N × (inputs × 8 + (2F + S + 2) × 4 + 24) B, twice while sampled,
+//                          and a Latin hypercube's permutations, inputs × N × 4 B
 //     similarity tables    W × n_x' × G' × 4 B and the lag kernel, over the sampled range of D
 //     surrogate            P × groups × G' × n_d × 8 B (segments), M × groups × G' × n_d × 8 B (maps)
 //     tracking, per thread (2K + 2⌈G'/24⌉ + 6) × N × 8 B; results S × (K + 1) sketches
@@ -25,10 +26,11 @@
 // N realizations, F faults, n_d Chebyshev nodes in ln D, M map pixels, C raster cells, n_r
 // radial profile nodes.
 //
-// Accuracy: the array sizes are exact where the engines' sizes are known before computing;
-// where they depend on the sampled realizations the estimate is an upper bound: the range of D
-// is taken from every input's quantiles at 1/(2N) and 1 − 1/(2N) (the extremes of N draws)
-// combined at their worst; r_max is taken from the bounding boxes of the wells and check
+// Accuracy: the array sizes are exact where the engines' sizes are known before computing. The
+// range of D, which sets the probabilistic screen's node counts, is drawn as the run draws it
+// (the same sampler, seed and streams) up to 1e6 realizations; beyond, it is bounded by every
+// input's quantiles at 0.01/N and 1 − 0.01/N (the extremes of N draws lie beyond with a chance
+// of about 1%) combined at their worst. r_max is taken from the bounding boxes of the wells and check
 // points (at most ln 2 more in ln r², under 30 extra similarity nodes). Small objects (strings,
 // per-segment headers, the catalog) are left out. Operations count multiply-adds and E1
 // evaluations alike; they rank runs and show growth, not seconds.
@@ -61,6 +63,7 @@ struct RunSizes {
   std::uint64_t realizations = 0;     // N
   std::size_t sampled_inputs = 0;
   std::size_t rate_groups = 1;
+  bool latin_hypercube = false;       // the sampler keeps a permutation of N per input
   std::size_t mc_times = 0;           // G'
   std::size_t mc_table_nodes = 0;     // n_x' over the sampled range of D
   std::size_t map_table_nodes = 0;    // n_x' reaching the farthest map pixel (0: the same tables)
