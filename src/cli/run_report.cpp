@@ -107,6 +107,9 @@ run::RunOptions run_options(const RunCommandOptions& o, Context& ctx) {
   ro.notice = [&ctx](const std::string& line) {
     ctx.err << (ctx.err_is_terminal ? "\r\033[K" : "") << "slipscreen: " << line << "\n";
   };
+  ro.cost = [&ctx](const screening::RunCost& cost, double limit) {
+    ctx.out << screening::cost_line(cost, limit) << "\n" << std::flush;
+  };
   if (ctx.err_is_terminal) {
     ro.progress = [&ctx](const std::string& stage, double f) {
       if (f < 0) ctx.err << "\r\033[K" << stage << " ..." << std::flush;

@@ -12,6 +12,7 @@
 
 #include "core/geomech/frictional_limit.hpp"
 #include "screening/prepare.hpp"
+#include "screening/run_cost.hpp"
 #include "scenario/scenario.hpp"
 
 namespace slipscreen::cli {
@@ -26,6 +27,8 @@ int run_validate(const ValidateOptions& o, Context& ctx) {
   const scenario::ResolvedScenario s = scenario::load_scenario(o.scenario);
   // Everything a run checks before computing: CRSs, the fault map, stresses, formation, grid.
   const screening::PreparedRun p = screening::prepare_run(s, o.allow_network);
+  const screening::RunCost cost = screening::estimate_run_cost(s, p);
+  screening::refuse_beyond_memory(cost, screening::memory_limit_bytes(s), s.file);
   print_scenario_summary(s, ctx.out);
   ctx.out << "Faults     " << p.fault_count << " faults in " << p.segments.size() << " segments (working CRS "
           << p.working.name() << "); " << p.inputs.tracking_times.size() << " tracking times\n";
@@ -43,6 +46,8 @@ int run_validate(const ValidateOptions& o, Context& ctx) {
   }
   if (s.output.rasters)
     ctx.out << "  raster: " << p.grid.columns << " x " << p.grid.rows << " cells\n";
+  ctx.out << screening::cost_line(cost, screening::memory_limit_bytes(s)) << "\n";
+  ctx.out << "  by part: " << screening::cost_parts_text(cost) << "\n";
   ctx.out << "scenario is valid: " << s.file << "\n";
   return kExitOk;
 }

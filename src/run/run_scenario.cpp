@@ -63,6 +63,10 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
   // Refuse the folder before computing (RunFolder checks again when created and when committed).
   const formats::RunFolderOptions folder_rules = folder_options(s, prepared, o);
   formats::RunFolder::check_target(target, folder_rules);
+  const screening::RunCost cost = screening::estimate_run_cost(s, prepared);
+  const double memory_limit = screening::memory_limit_bytes(s);
+  screening::refuse_beyond_memory(cost, memory_limit, s.file);
+  if (o.cost) o.cost(cost, memory_limit);
   const scenario::UncertaintySpec& spec = s.uncertainty;
 
   ProgressBridge bridge{&o};

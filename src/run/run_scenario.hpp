@@ -8,6 +8,7 @@
 #include <vector>
 
 #include "scenario/scenario.hpp"
+#include "screening/run_cost.hpp"
 #include "screening/run_summary.hpp"
 
 namespace slipscreen::run {
@@ -22,6 +23,9 @@ struct RunOptions {
   std::function<void(const std::string& stage, double fraction)> progress;
   // One line per stale leftover of a killed run cleaned beside the run folder (stale_runs.hpp).
   std::function<void(const std::string& line)> notice;
+  // The cost estimate (screening/run_cost.hpp), once the inputs are prepared and before any
+  // computing; a run beyond the memory limit is refused before this is called.
+  std::function<void(const screening::RunCost& cost, double memory_limit)> cost;
 };
 
 using screening::RunSummary;

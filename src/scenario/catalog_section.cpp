@@ -9,6 +9,7 @@
 #include "formats/table/iso_time.hpp"
 #include "scenario/catalog_section.hpp"
 #include "formats/toml/toml_section.hpp"
+#include "scenario/plausibility.hpp"
 
 namespace slipscreen::scenario {
 
@@ -48,8 +49,10 @@ std::vector<double> number_list(const formats::Section& s, std::string_view key,
   return out;
 }
 
-void require_positive(const formats::Section& s, std::string_view key, double v, const char* unit) {
-  if (!(v > 0 && std::isfinite(v))) s.fail(key, std::to_string(v) + " " + unit, "a value greater than zero");
+using plausible::written;
+
+void require_positive(const formats::Section& s, std::string_view key, double v) {
+  if (!(v > 0 && std::isfinite(v))) s.fail(key, written(s, key), "a value greater than zero");
 }
 
 // The catalog file and how to read it: file, format, columns, strict.
@@ -110,21 +113,21 @@ void read_filters(const formats::Section& s, CatalogSpec& c) {
   c.depth_min = s.optional_quantity("depth_min", Dimension::length);
   c.depth_max = s.optional_quantity("depth_max", Dimension::length);
   if (c.depth_min && c.depth_max && !(*c.depth_max >= *c.depth_min))
-    s.fail("depth_max", std::to_string(*c.depth_max) + " m", "a depth at or below 'depth_min'");
+    s.fail("depth_max", written(s, "depth_max"), "a depth at or below 'depth_min' (" + written(s, "depth_min") + ")");
   if (s.has("magnitude_types"))
     for (const auto& [v, w] : s.string_list("magnitude_types")) c.magnitude_types.push_back(v);
   c.well_buffer = s.optional_quantity("well_buffer", Dimension::length);
-  if (c.well_buffer) require_positive(s, "well_buffer", *c.well_buffer, "m");
+  if (c.well_buffer) require_positive(s, "well_buffer", *c.well_buffer);
   c.polygon = read_polygon(s);
 }
 
 // Magnitude statistics: binning, Mc, bootstrap, seismic moment, forecasts, rupture length.
 void read_statistics(const formats::Section& s, CatalogSpec& c) {
   c.bin_width = s.quantity_or("bin_width", Dimension::dimensionless, 0.1);
-  if (!(c.bin_width > 0 && c.bin_width <= 1)) s.fail("bin_width", std::to_string(c.bin_width), "a bin width in (0, 1]");
+  if (!(c.bin_width > 0 && c.bin_width <= 1)) s.fail("bin_width", written(s, "bin_width"), "a bin width in (0, 1]");
   c.mc_correction = s.quantity_or("mc_correction", Dimension::dimensionless, 0.0);
   if (!(c.mc_correction >= 0 && c.mc_correction <= 1))
-    s.fail("mc_correction", std::to_string(c.mc_correction), "a correction between 0 and 1 (usual: 0.2)");
+    s.fail("mc_correction", written(s, "mc_correction"), "a correction between 0 and 1 (usual: 0.2)");
   if (s.has("mc")) c.mc = s.quantity("mc", Dimension::dimensionless);
   if (auto b = s.optional_integer("bootstrap")) {
     if (*b < 0 || *b > 100000) s.fail("bootstrap", std::to_string(*b), "a resample count from 0 to 100000");
@@ -132,9 +135,9 @@ void read_statistics(const formats::Section& s, CatalogSpec& c) {
   }
   c.bootstrap_confidence = s.quantity_or("bootstrap_confidence", Dimension::dimensionless, 0.95);
   if (!(c.bootstrap_confidence > 0 && c.bootstrap_confidence < 1))
-    s.fail("bootstrap_confidence", std::to_string(c.bootstrap_confidence), "a confidence level in (0, 1)");
+    s.fail("bootstrap_confidence", written(s, "bootstrap_confidence"), "a confidence level in (0, 1)");
   c.shear_modulus = s.quantity_or("shear_modulus", Dimension::pressure, 3.0e10);
-  require_positive(s, "shear_modulus", c.shear_modulus, "Pa");
+  require_positive(s, "shear_modulus", c.shear_modulus);
   if (s.has("forecast_magnitudes"))
     c.forecast_magnitudes = number_list(s, "forecast_magnitudes", -2.0, 10.0, "magnitudes between -2 and 10");
   c.length_regression = s.optional_string("length_regression").value_or("surface");
@@ -145,7 +148,7 @@ void read_statistics(const formats::Section& s, CatalogSpec& c) {
 // The models compared with the catalog: pressure footprint, r-t view, rate-and-state.
 void read_models(const formats::Section& s, const std::vector<WellSpec>& wells, CatalogSpec& c) {
   c.footprint_threshold = s.quantity_or("footprint_threshold", Dimension::pressure, 0.1e6);
-  require_positive(s, "footprint_threshold", c.footprint_threshold, "Pa");
+  require_positive(s, "footprint_threshold", c.footprint_threshold);
   c.rt_well = s.optional_string("rt_well").value_or("");
   if (!c.rt_well.empty()) {
     std::vector<std::string> ids;
@@ -167,11 +170,11 @@ void read_models(const formats::Section& s, const std::vector<WellSpec>& wells, 
     rs.allow({"background_rate_per_km", "a_sigma", "aftershock_duration"});
     c.rate_state = true;
     c.background_rate_per_m = rs.quantity("background_rate_per_km", Dimension::inverse_time) / 1000.0;
-    require_positive(rs, "background_rate_per_km", c.background_rate_per_m * 1000.0, "1/s");
+    require_positive(rs, "background_rate_per_km", c.background_rate_per_m * 1000.0);
     c.a_sigma = rs.quantity("a_sigma", Dimension::pressure);
-    require_positive(rs, "a_sigma", c.a_sigma, "Pa");
+    require_positive(rs, "a_sigma", c.a_sigma);
     c.aftershock_duration = rs.quantity("aftershock_duration", Dimension::time);
-    require_positive(rs, "aftershock_duration", c.aftershock_duration, "s");
+    require_positive(rs, "aftershock_duration", c.aftershock_duration);
   }
 }
 

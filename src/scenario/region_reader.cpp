@@ -6,6 +6,7 @@
 #include "core/errors.hpp"
 #include "formats/files/path_policy.hpp"
 #include "formats/toml/toml_section.hpp"
+#include "scenario/plausibility.hpp"
 
 namespace slipscreen::scenario {
 
@@ -13,13 +14,21 @@ using units::Dimension;
 
 namespace {
 
-void require_positive(const formats::Section& s, std::string_view key, double v) {
-  if (!(v > 0)) s.fail(key, std::to_string(v), "a value greater than zero");
+// A quantity checked against its physical range (scenario/plausibility.hpp), echoed as written.
+double checked(const formats::Section& s, std::string_view key, Dimension d, const plausible::Range& range) {
+  const double v = s.quantity(key, d);
+  plausible::check(s, key, v, range);
+  return v;
 }
 
-void require_range(const formats::Section& s, std::string_view key, double v, double lo, double hi, const std::string& what) {
-  if (!(v >= lo && v <= hi)) s.fail(key, std::to_string(v), what);
+double checked_or(const formats::Section& s, std::string_view key, Dimension d, double fallback,
+                  const plausible::Range& range) {
+  return s.has(key) ? checked(s, key, d, range) : fallback;
 }
+
+using plausible::written;
+
+constexpr plausible::Range kFriction{0.01, 2.0, false, false, "a friction coefficient from 0.01 to 2"};
 
 // The vertical stress: exactly one of a gradient, an overburden density or density layers.
 void read_vertical_stress(const formats::Section& s, StressSpec& st) {
@@ -28,23 +37,22 @@ void read_vertical_stress(const formats::Section& s, StressSpec& st) {
     s.fail(s.has("overburden_density") ? "overburden_density" : "vertical_gradient", sv_forms ? "(several)" : "(missing)",
            "exactly one of vertical_gradient, overburden_density or density_layers");
   if (s.has("overburden_density")) {
-    st.vertical_gradient = s.quantity("overburden_density", Dimension::density) * units::kStandardGravity;
-    require_positive(s, "overburden_density", st.vertical_gradient);
+    st.vertical_gradient = checked(s, "overburden_density", Dimension::density, plausible::kRockDensity) *
+                           units::kStandardGravity;
     return;
   }
   if (s.has("vertical_gradient")) {
-    st.vertical_gradient = s.quantity("vertical_gradient", Dimension::pressure_gradient);
-    require_positive(s, "vertical_gradient", st.vertical_gradient);
+    st.vertical_gradient = checked(s, "vertical_gradient", Dimension::pressure_gradient, plausible::kVerticalGradient);
     return;
   }
   const auto layers = s.table_array("density_layers", "an array of tables {top = \"0 m\", density = \"2300 kg/m3\"}");
   for (std::size_t i = 0; i < layers.size(); ++i) {
     const formats::Section& ls = layers[i];
     ls.allow({"top", "density"});
-    StressSpec::DensityLayer l{ls.quantity("top", Dimension::length), ls.quantity("density", Dimension::density)};
-    if (i == 0 && l.top != 0) ls.fail("top", std::to_string(l.top) + " m", "0 m for the first layer");
-    if (i > 0 && !(l.top > st.density_layers.back().top)) ls.fail("top", std::to_string(l.top) + " m", "a top below the previous layer's");
-    require_positive(ls, "density", l.density);
+    StressSpec::DensityLayer l{checked(ls, "top", Dimension::length, plausible::kLayerTop),
+                               checked(ls, "density", Dimension::density, plausible::kRockDensity)};
+    if (i == 0 && l.top != 0) ls.fail("top", written(ls, "top"), "0 m for the first layer");
+    if (i > 0 && !(l.top > st.density_layers.back().top)) ls.fail("top", written(ls, "top"), "a top below the previous layer's");
     st.density_layers.push_back(l);
   }
 }
@@ -61,34 +69,30 @@ void read_horizontal_stress(const formats::Section& s, const std::string& model,
     case StressModel::gradients:
       forbid(uniaxial_keys);
       forbid({"a_phi", "equilibrium_friction"});
-      st.shmax_gradient = s.quantity("shmax_gradient", Dimension::pressure_gradient);
-      st.shmin_gradient = s.quantity("shmin_gradient", Dimension::pressure_gradient);
-      require_positive(s, "shmin_gradient", st.shmin_gradient);
+      st.shmax_gradient = checked(s, "shmax_gradient", Dimension::pressure_gradient, plausible::kHorizontalGradient);
+      st.shmin_gradient = checked(s, "shmin_gradient", Dimension::pressure_gradient, plausible::kHorizontalGradient);
       if (st.shmax_gradient < st.shmin_gradient)
-        s.fail("shmax_gradient", std::to_string(st.shmax_gradient) + " Pa/m", "SHmax >= Shmin (shmin_gradient)");
+        s.fail("shmax_gradient", written(s, "shmax_gradient"),
+               "SHmax >= Shmin (shmin_gradient = " + written(s, "shmin_gradient") + ")");
       break;
     case StressModel::uniaxial_strain:
       forbid({"shmax_gradient", "shmin_gradient", "a_phi", "equilibrium_friction"});
-      st.poisson_ratio = s.quantity("poisson_ratio", Dimension::dimensionless);
-      require_range(s, "poisson_ratio", st.poisson_ratio, 0.0, 0.4999, "a Poisson ratio in [0, 0.5)");
-      st.biot = s.quantity_or("biot", Dimension::dimensionless, 1.0);
-      require_range(s, "biot", st.biot, 0.0, 1.0, "a Biot coefficient in [0, 1]");
-      st.young_modulus = s.quantity_or("young_modulus", Dimension::pressure, 0.0);
-      st.strain_shmin = s.quantity_or("strain_shmin", Dimension::dimensionless, 0.0);
-      st.strain_shmax = s.quantity_or("strain_shmax", Dimension::dimensionless, 0.0);
+      st.poisson_ratio = checked(s, "poisson_ratio", Dimension::dimensionless,
+                                 {0.0, 0.4999, false, false, "a Poisson ratio in [0, 0.5)"});
+      st.biot = checked_or(s, "biot", Dimension::dimensionless, 1.0, {0.0, 1.0, false, false, "a Biot coefficient in [0, 1]"});
+      st.young_modulus = checked_or(s, "young_modulus", Dimension::pressure, 0.0, plausible::kYoungModulus);
+      st.strain_shmin = checked_or(s, "strain_shmin", Dimension::dimensionless, 0.0, plausible::kTectonicStrain);
+      st.strain_shmax = checked_or(s, "strain_shmax", Dimension::dimensionless, 0.0, plausible::kTectonicStrain);
       if ((st.strain_shmin != 0 || st.strain_shmax != 0) && !(st.young_modulus > 0))
-        s.fail("young_modulus", s.has("young_modulus") ? std::to_string(st.young_modulus) : "(missing)",
-               "a Young's modulus > 0 (needed with tectonic strains)");
-      st.tectonic_shmin = s.quantity_or("tectonic_shmin", Dimension::pressure, 0.0);
-      st.tectonic_shmax = s.quantity_or("tectonic_shmax", Dimension::pressure, 0.0);
+        s.fail("young_modulus", written(s, "young_modulus"), "a Young's modulus > 0 (needed with tectonic strains)");
+      st.tectonic_shmin = checked_or(s, "tectonic_shmin", Dimension::pressure, 0.0, plausible::kTectonicStress);
+      st.tectonic_shmax = checked_or(s, "tectonic_shmax", Dimension::pressure, 0.0, plausible::kTectonicStress);
       break;
     case StressModel::a_phi:
       forbid(uniaxial_keys);
       forbid({"shmax_gradient", "shmin_gradient"});
-      st.a_phi = s.quantity("a_phi", Dimension::dimensionless);
-      require_range(s, "a_phi", st.a_phi, 0.0, 3.0, "A_phi in [0, 3] (Simpson 1997)");
-      st.equilibrium_friction = s.quantity_or("equilibrium_friction", Dimension::dimensionless, fault_friction);
-      require_positive(s, "equilibrium_friction", st.equilibrium_friction);
+      st.a_phi = checked(s, "a_phi", Dimension::dimensionless, {0.0, 3.0, false, false, "A_phi in [0, 3] (Simpson 1997)"});
+      st.equilibrium_friction = checked_or(s, "equilibrium_friction", Dimension::dimensionless, fault_friction, kFriction);
       break;
   }
 }
@@ -104,7 +108,7 @@ StressSpec read_stress(const formats::Section& s, double fault_friction) {
   else if (model == "a_phi") st.model = StressModel::a_phi;
   else s.fail("model", model, "one of 'gradients', 'uniaxial_strain', 'a_phi'");
   read_vertical_stress(s, st);
-  st.shmax_azimuth = s.quantity("shmax_azimuth", Dimension::angle);
+  st.shmax_azimuth = checked(s, "shmax_azimuth", Dimension::angle, plausible::kAzimuth);
   read_horizontal_stress(s, model, fault_friction, st);
   return st;
 }
@@ -114,8 +118,8 @@ FaultMapSpec read_faults(const formats::Section& s) {
   FaultMapSpec f;
   // A path is relative to the file that names it (region file or scenario override). A GDAL
   // network path is kept as written: the fault reader refuses it unless --allow-network.
-  const std::string written = s.string("file");
-  f.path = formats::is_network_path(written) ? std::filesystem::path(written) : s.input_path("file");
+  const std::string file_text = s.string("file");
+  f.path = formats::is_network_path(file_text) ? std::filesystem::path(file_text) : s.input_path("file");
   f.layer = s.optional_string("layer").value_or("");
   f.crs = s.optional_string("crs").value_or("");
   const formats::Section a = s.child("attributes");
@@ -126,19 +130,15 @@ FaultMapSpec read_faults(const formats::Section& s) {
   f.dips_to_attribute = a.optional_string("dips_to").value_or(f.dips_to_attribute);
   f.friction_attribute = a.optional_string("friction").value_or(f.friction_attribute);
   if (a.has("default_dip")) {
-    f.default_dip = a.quantity("default_dip", Dimension::angle);
-    if (!(f.default_dip > 0 && f.default_dip <= 1.5707963267948966 + 1e-12))
-      a.fail("default_dip", std::to_string(f.default_dip) + " rad", "a dip in (0, 90] degrees");
+    f.default_dip = checked(a, "default_dip", Dimension::angle,
+                            {0.0, 1.5707963267948966 + 1e-12, true, false, "a dip in (0, 90] degrees"});
   }
-  f.friction = s.quantity_or("friction", Dimension::dimensionless, 0.6);
-  require_range(s, "friction", f.friction, 0.01, 2.0, "a friction coefficient in [0.01, 2]");
-  f.cohesion = s.quantity_or("cohesion", Dimension::pressure, 0.0);
-  if (f.cohesion < 0) s.fail("cohesion", std::to_string(f.cohesion), "a cohesion >= 0");
-  f.segment_length = s.quantity_or("segment_length", Dimension::length, 2000.0);
-  require_positive(s, "segment_length", f.segment_length);
-  f.check_points = static_cast<int>(s.optional_integer("check_points").value_or(5));
-  if (f.check_points < 1 || f.check_points > 101)
-    s.fail("check_points", std::to_string(f.check_points), "an integer from 1 to 101");
+  f.friction = checked_or(s, "friction", Dimension::dimensionless, 0.6, kFriction);
+  f.cohesion = checked_or(s, "cohesion", Dimension::pressure, 0.0, plausible::kCohesion);
+  f.segment_length = checked_or(s, "segment_length", Dimension::length, 2000.0, plausible::kSegmentLength);
+  const std::int64_t check_points = s.optional_integer("check_points").value_or(5);
+  if (check_points < 1 || check_points > 101) s.fail("check_points", written(s, "check_points"), "an integer from 1 to 101");
+  f.check_points = static_cast<int>(check_points);
   return f;
 }
 
@@ -151,25 +151,17 @@ FormationSpec read_formation(const formats::Section& s) {
   if (f.from_transmissivity) {
     for (auto k : {"permeability", "porosity", "total_compressibility", "viscosity"})
       if (s.has(k)) s.fail(k, "(set)", "either k, phi, c_t, mu or transmissivity and storativity, not both");
-    f.transmissivity = s.quantity("transmissivity", Dimension::diffusivity);
-    f.storativity = s.quantity("storativity", Dimension::dimensionless);
-    f.fluid_density = s.quantity_or("fluid_density", Dimension::density, 1000.0);
-    f.thickness = s.quantity_or("thickness", Dimension::length, kUnset);
-    require_positive(s, "transmissivity", f.transmissivity);
-    require_positive(s, "storativity", f.storativity);
-    require_positive(s, "fluid_density", f.fluid_density);
+    f.transmissivity = checked(s, "transmissivity", Dimension::diffusivity, plausible::kTransmissivity);
+    f.storativity = checked(s, "storativity", Dimension::dimensionless, plausible::kStorativity);
+    f.fluid_density = checked_or(s, "fluid_density", Dimension::density, 1000.0, plausible::kFluidDensity);
+    f.thickness = checked_or(s, "thickness", Dimension::length, kUnset, plausible::kThickness);
   } else {
-    f.permeability = s.quantity("permeability", Dimension::permeability);
-    f.thickness = s.quantity("thickness", Dimension::length);
-    f.porosity = s.quantity("porosity", Dimension::dimensionless);
-    f.total_compressibility = s.quantity("total_compressibility", Dimension::compressibility);
-    f.viscosity = s.quantity("viscosity", Dimension::viscosity);
-    f.fluid_density = s.quantity_or("fluid_density", Dimension::density, 1000.0);
-    require_positive(s, "permeability", f.permeability);
-    require_positive(s, "thickness", f.thickness);
-    require_range(s, "porosity", f.porosity, 1e-4, 0.6, "a porosity in (0, 0.6]");
-    require_positive(s, "total_compressibility", f.total_compressibility);
-    require_positive(s, "viscosity", f.viscosity);
+    f.permeability = checked(s, "permeability", Dimension::permeability, plausible::kPermeability);
+    f.thickness = checked(s, "thickness", Dimension::length, plausible::kThickness);
+    f.porosity = checked(s, "porosity", Dimension::dimensionless, plausible::kPorosity);
+    f.total_compressibility = checked(s, "total_compressibility", Dimension::compressibility, plausible::kCompressibility);
+    f.viscosity = checked(s, "viscosity", Dimension::viscosity, plausible::kViscosity);
+    f.fluid_density = checked_or(s, "fluid_density", Dimension::density, 1000.0, plausible::kFluidDensity);
   }
   for (const formats::Section& bs : s.table_array("boundary", "an array of tables [[formation.boundary]]")) {
     bs.allow({"kind", "from", "to"});
@@ -184,6 +176,9 @@ FormationSpec read_formation(const formats::Section& s) {
       if (!xy || xy->size() != 2 || !xy->get(0)->is_number() || !xy->get(1)->is_number())
         bs.fail(key, p ? formats::toml_value_text(*p->node) : "(missing)", "a point [x, y] in the working CRS");
       const double x = xy->get(0)->value<double>().value(), y = xy->get(1)->value<double>().value();
+      if (!plausible::kProjectedCoordinate.contains(x) || !plausible::kProjectedCoordinate.contains(y))
+        bs.fail(key, formats::toml_value_text(*p->node),
+                std::string("a point [x, y] in the working CRS, each ") + plausible::kProjectedCoordinate.expected);
       if (std::string_view(key) == "from") bd.x1 = x, bd.y1 = y;
       else bd.x2 = x, bd.y2 = y;
     }
@@ -208,10 +203,9 @@ RegionSpec load_region(const std::filesystem::path& path, const std::string& fil
   r.file = file;
   r.name = s.optional_string("name").value_or(path.parent_path().filename().string());
   r.crs = s.string("crs");
-  r.reference_depth = s.quantity("reference_depth", Dimension::length);
-  require_positive(s, "reference_depth", r.reference_depth);
-  r.pore_pressure_gradient = s.quantity("pore_pressure_gradient", Dimension::pressure_gradient);
-  require_positive(s, "pore_pressure_gradient", r.pore_pressure_gradient);
+  r.reference_depth = checked(s, "reference_depth", Dimension::length, plausible::kReferenceDepth);
+  r.pore_pressure_gradient =
+      checked(s, "pore_pressure_gradient", Dimension::pressure_gradient, plausible::kPorePressureGradient);
   r.faults = read_faults(s.child("faults"));
   r.stress = read_stress(s.child("stress"), r.faults.friction);
   r.formation = read_formation(s.child("formation"));

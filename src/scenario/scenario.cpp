@@ -5,10 +5,13 @@
 #include <nlohmann/json.hpp>
 
 #include "core/errors.hpp"
+#include "core/util/number_text.hpp"
 #include "core/util/trim.hpp"
 #include "formats/files/path_policy.hpp"
 #include "formats/toml/toml_section.hpp"
 #include "scenario/catalog_section.hpp"
+#include "formats/gis/crs.hpp"
+#include "scenario/plausibility.hpp"
 #include "scenario/region_reader.hpp"
 #include "scenario/uncertainty_reader.hpp"
 #include "scenario/wells.hpp"
@@ -92,6 +95,13 @@ Step parse_step(const formats::Section& s, std::string_view key) {
   }
   std::string unit = util::trim(std::string_view(text).substr(pos));
   if (n <= 0) s.fail(key, text, "a positive whole number of days, weeks, months or years");
+  // The plausible dates span 301 years: a longer step gives one output time, a much longer one
+  // overflows the calendar arithmetic.
+  const int max_n = (unit == "year" || unit == "years" || unit == "yr") ? 300
+                    : (unit == "month" || unit == "months" || unit == "mo") ? 3600
+                    : (unit == "week" || unit == "weeks") ? 15700
+                                                          : 110000;
+  if (n > max_n) s.fail(key, text, "a step of at most 300 years");
   if (unit == "year" || unit == "years" || unit == "yr") return {12 * n, 0};
   if (unit == "month" || unit == "months" || unit == "mo") return {n, 0};
   if (unit == "week" || unit == "weeks") return {0, 7 * n};
@@ -99,9 +109,26 @@ Step parse_step(const formats::Section& s, std::string_view key) {
   s.fail(key, text, expected);
 }
 
+// A date within the plausible span (scenario/plausibility.hpp), refused with its text as written.
+util::CivilDate plausible_date(const util::CivilDate& d, const std::string& text, const std::string& where,
+                               const std::string& field) {
+  if (!plausible::plausible_date(d)) throw InputError(field, text, plausible::kDateExpected, where);
+  return d;
+}
+
 util::CivilDate parse_date_value(const std::string& text, const std::string& where, const std::string& field) {
-  if (auto d = util::parse_iso_date(text)) return *d;
+  if (auto d = util::parse_iso_date(text)) return plausible_date(*d, text, where, field);
   throw InputError(field, text, "a date as YYYY-MM-DD, e.g. 2030-01-01", where);
+}
+
+// A TOML local date (2030-01-01 without quotes) or a date string.
+std::optional<util::CivilDate> toml_date(const toml::node& n, const std::string& where, const std::string& field) {
+  if (auto d = n.as_date()) {
+    const util::CivilDate c{d->get().year, d->get().month, d->get().day};
+    return plausible_date(c, formats::toml_value_text(n), where, field);
+  }
+  if (auto str = n.as_string()) return parse_date_value(str->get(), where, field);
+  return std::nullopt;
 }
 
 std::vector<util::CivilDate> read_times(const formats::Section& s) {
@@ -117,8 +144,7 @@ std::vector<util::CivilDate> read_times(const formats::Section& s) {
         const toml::node& n = *arr->get(i);
         const std::string w = formats::toml_where(f.layer->file, n.source());
         const std::string field = s.key_path(f, "dates") + "[" + std::to_string(i) + "]";
-        if (auto d = n.as_date()) dates.push_back({d->get().year, d->get().month, d->get().day});
-        else if (auto str = n.as_string()) dates.push_back(parse_date_value(str->get(), w, field));
+        if (auto d = toml_date(n, w, field)) dates.push_back(*d);
         else throw InputError(field, formats::toml_value_text(n), "a date YYYY-MM-DD", w);
       }
     } else {
@@ -128,7 +154,7 @@ std::vector<util::CivilDate> read_times(const formats::Section& s) {
     const auto date_of = [&](std::string_view key) -> util::CivilDate {
       const auto f = s.find(key);
       if (!f) throw Error(ErrorCategory::input, s.where_missing(key) + ": missing (expected 'dates', or 'start', 'end' and 'step')");
-      if (auto d = f->node->as_date()) return {d->get().year, d->get().month, d->get().day};
+      if (auto d = toml_date(*f->node, s.where(*f), s.key_path(*f, key))) return *d;
       return parse_date_value(s.string(key), s.where(*f), s.key_path(*f, key));
     };
     const util::CivilDate start = date_of("start");
@@ -154,16 +180,20 @@ OutputGrid read_grid(const formats::Section& s) {
   s.allow({"extent", "margin", "cell_size", "crs"});
   OutputGrid g;
   g.cell_size = s.quantity_or("cell_size", Dimension::length, g.cell_size);
-  if (!(g.cell_size > 0)) s.fail("cell_size", std::to_string(g.cell_size), "a cell size greater than zero");
+  plausible::check(s, "cell_size", g.cell_size, plausible::kCellSize);
   g.margin = s.quantity_or("margin", Dimension::length, g.margin);
-  if (g.margin < 0) s.fail("margin", std::to_string(g.margin), "a margin >= 0");
+  plausible::check(s, "margin", g.margin, plausible::kGridMargin);
   g.crs = s.optional_string("crs").value_or("");
   if (auto f = s.find("extent")) {
     if (auto str = f->node->as_string(); str && str->get() == "auto") return g;
     const toml::array* a = f->node->as_array();
     bool ok = a && a->size() == 4;
-    for (std::size_t i = 0; ok && i < 4; ++i) ok = a->get(i)->is_number();
-    if (!ok) s.fail("extent", formats::toml_value_text(*f->node), "\"auto\" or [xmin, ymin, xmax, ymax] in the grid CRS");
+    for (std::size_t i = 0; ok && i < 4; ++i)
+      ok = a->get(i)->is_number() && plausible::kProjectedCoordinate.contains(a->get(i)->value<double>().value());
+    if (!ok)
+      s.fail("extent", formats::toml_value_text(*f->node),
+             std::string("\"auto\" or [xmin, ymin, xmax, ymax] in the grid CRS, each ") +
+                 plausible::kProjectedCoordinate.expected);
     g.automatic_extent = false;
     g.xmin = a->get(0)->value<double>().value();
     g.ymin = a->get(1)->value<double>().value();
@@ -171,7 +201,9 @@ OutputGrid read_grid(const formats::Section& s) {
     g.ymax = a->get(3)->value<double>().value();
     if (!(g.xmax > g.xmin && g.ymax > g.ymin)) s.fail("extent", formats::toml_value_text(*f->node), "xmax > xmin and ymax > ymin");
     const double cells = std::ceil((g.xmax - g.xmin) / g.cell_size) * std::ceil((g.ymax - g.ymin) / g.cell_size);
-    if (cells > 2.5e7) s.fail("cell_size", std::to_string(g.cell_size) + " m", "at most 25 million cells over the extent");
+    if (cells > 2.5e7)
+      s.fail(s.has("cell_size") ? "cell_size" : "extent", plausible::written(s, s.has("cell_size") ? "cell_size" : "extent"),
+             "at most 25 million cells over the extent (" + util::number_text(cells, 3) + " cells)");
   }
   return g;
 }
@@ -204,21 +236,60 @@ OutputSpec read_output(const formats::Section& s) {
   return o;
 }
 
+// The kind of a CRS as written: projected, geographic, or unknown (text OSR does not know; the
+// run names it when it reprojects the well).
+enum class CrsKind { projected, geographic, unknown };
+CrsKind crs_kind(const std::string& crs) {
+  try {
+    const formats::Crs c = formats::Crs::from_user_string(crs);
+    return c.is_projected() ? CrsKind::projected : c.is_geographic() ? CrsKind::geographic : CrsKind::unknown;
+  } catch (const InputError&) {
+    return CrsKind::unknown;
+  }
+}
+
+// A proposed well's location: lon/lat (degrees, geographic CRS only) or x/y in `crs`, each
+// within its CRS's range; x/y that look like degrees under a projected CRS are refused.
+void read_location(const formats::Section& s, const std::string& default_crs, WellSpec& w) {
+  const bool lonlat = s.has("lon") || s.has("lat");
+  const char* kx = lonlat ? "lon" : "x";
+  const char* ky = lonlat ? "lat" : "y";
+  w.x = s.number(kx);
+  w.y = s.number(ky);
+  w.crs = s.optional_string("crs").value_or(lonlat ? "EPSG:4326" : default_crs);
+  const CrsKind kind = crs_kind(w.crs);
+  if (lonlat && kind == CrsKind::projected)
+    s.fail("crs", w.crs,
+           "a geographic CRS (such as EPSG:4326) with 'lon' and 'lat', or 'x' and 'y' in this projected CRS "
+           "(lon and lat are degrees, never metres)");
+  if (lonlat || kind == CrsKind::geographic) {
+    plausible::check(s, kx, w.x, plausible::kLongitude);
+    plausible::check(s, ky, w.y, plausible::kLatitude);
+    return;
+  }
+  plausible::check(s, kx, w.x, plausible::kProjectedCoordinate);
+  plausible::check(s, ky, w.y, plausible::kProjectedCoordinate);
+  if (kind == CrsKind::projected && plausible::looks_like_degrees(w.x, w.y))
+    s.fail(kx, plausible::written(s, kx) + ", " + plausible::written(s, ky),
+           "x and y in " + w.crs + " (a projected CRS): |x| <= 180 and |y| <= 90 look like longitude and latitude "
+           "in degrees; write lon = ..., lat = ... (WGS 84) or give x and y in the CRS's unit");
+}
+
 WellSpec read_proposed(const formats::Section& s, const std::string& default_crs) {
   s.allow({"id", "x", "y", "lon", "lat", "crs", "top", "bottom", "radius", "schedule"});
   WellSpec w;
   w.id = s.string("id");
   w.proposed = true;
   w.status = WellStatus::proposed;
-  const bool lonlat = s.has("lon") || s.has("lat");
-  w.x = s.number(lonlat ? "lon" : "x");
-  w.y = s.number(lonlat ? "lat" : "y");
-  w.crs = s.optional_string("crs").value_or(lonlat ? "EPSG:4326" : default_crs);
+  read_location(s, default_crs, w);
   w.top = s.quantity("top", Dimension::length);
+  plausible::check(s, "top", w.top, plausible::kWellTop);
   w.bottom = s.quantity("bottom", Dimension::length);
-  if (!(w.bottom > w.top)) s.fail("bottom", std::to_string(w.bottom) + " m", "a depth below 'top'");
+  plausible::check(s, "bottom", w.bottom, plausible::kWellBottom);
+  if (!(w.bottom > w.top))
+    s.fail("bottom", plausible::written(s, "bottom"), "a depth below 'top' (" + plausible::written(s, "top") + ")");
   w.radius = s.quantity("radius", Dimension::length);
-  if (!(w.radius > 0 && w.radius < 5)) s.fail("radius", std::to_string(w.radius) + " m", "a well radius between 0 and 5 m");
+  plausible::check(s, "radius", w.radius, plausible::kWellRadius);
   const auto f = *s.find("id");
   w.source = s.where(f);
   const auto entries = s.string_list("schedule");
@@ -227,6 +298,31 @@ WellSpec read_proposed(const formats::Section& s, const std::string& default_crs
                                              s.key_path(f, "schedule") + "[" + std::to_string(i) + "]"));
   check_periods(w);
   return w;
+}
+
+// `memory_limit = "8 GB"`: bytes, with a decimal (kB, MB, GB, TB) or binary (KiB ... TiB) unit.
+double read_memory_limit(const formats::Section& s) {
+  const std::string text = s.string("memory_limit");
+  const char* expected = "a memory size such as '8 GB' or '512 MiB' (B, kB, MB, GB, TB, KiB, MiB, GiB, TiB), at least 1 MB";
+  std::size_t pos = 0;
+  double n = 0;
+  try {
+    n = std::stod(text, &pos);
+  } catch (...) {
+    s.fail("memory_limit", text, expected);
+  }
+  const std::string unit = util::trim(std::string_view(text).substr(pos));
+  static const std::pair<const char*, double> kUnits[] = {{"B", 1.0},     {"kB", 1e3},          {"MB", 1e6},
+                                                         {"GB", 1e9},    {"TB", 1e12},         {"KiB", 1024.0},
+                                                         {"MiB", 1048576.0}, {"GiB", 1073741824.0},
+                                                         {"TiB", 1099511627776.0}};
+  for (const auto& [symbol, factor] : kUnits)
+    if (unit == symbol) {
+      const double bytes = n * factor;
+      if (!(bytes >= 1e6 && bytes <= 1e18)) s.fail("memory_limit", text, expected);
+      return bytes;
+    }
+  s.fail("memory_limit", text, expected);
 }
 
 UncertaintyContext uncertainty_context(const ResolvedScenario& sc) {
@@ -255,8 +351,9 @@ void read_region(const formats::Section& top, const fs::path& dir, ResolvedScena
 // as written ("" when the file names its own).
 std::string read_existing_wells(const formats::Section& top, ResolvedScenario& sc) {
   const formats::Section wells = top.child("wells");
-  wells.allow({"file", "crs"});
+  wells.allow({"file", "crs", "allow_outside"});
   const std::string wells_crs = wells.optional_string("crs").value_or("");
+  sc.allow_outside = wells.boolean_or("allow_outside", false);
   if (wells.has("file")) {
     const fs::path p = wells.input_path("file");
     sc.wells_file = formats::display_name(p);
@@ -276,9 +373,8 @@ std::string read_existing_wells(const formats::Section& top, ResolvedScenario& s
   }
   if (auto f = hist.find("continue_active_until")) {
     const std::string text = hist.string("continue_active_until");
-    const auto d = util::parse_iso_date(text);
-    if (!d) throw InputError(hist.key_path(*f, "continue_active_until"), text, "a date as YYYY-MM-DD", hist.where(*f));
-    continue_active_wells(sc.wells, util::to_seconds(*d), hist.where(*f));
+    const util::CivilDate d = parse_date_value(text, hist.where(*f), hist.key_path(*f, "continue_active_until"));
+    continue_active_wells(sc.wells, util::to_seconds(d), hist.where(*f));
   }
   return wells_crs;
 }
@@ -303,13 +399,14 @@ ResolvedScenario load_scenario(const fs::path& path) {
   sc.inputs.push_back(path);
   const fs::path dir = path.parent_path();
   const formats::Section top({{doc.root.get(), sc.file, "", dir}});
-  top.allow({"title", "seed", "region", "wells", "histories", "proposed_well", "output", "uncertainty",
-             "catalog"});
+  top.allow({"title", "seed", "memory_limit", "region", "wells", "histories", "proposed_well", "output",
+             "uncertainty", "catalog"});
   sc.title = top.optional_string("title").value_or("");
   if (auto seed = top.optional_integer("seed")) {
     if (*seed < 0) top.fail("seed", std::to_string(*seed), "a seed >= 0");
     sc.seed = static_cast<std::uint64_t>(*seed);
   }
+  if (top.has("memory_limit")) sc.memory_limit = read_memory_limit(top);
 
   read_region(top, dir, sc);
   const std::string wells_crs = read_existing_wells(top, sc);
@@ -446,7 +543,7 @@ json output_json(const OutputSpec& o, const std::string& region_crs) {
 
 nlohmann::json to_json(const ResolvedScenario& s) {
   const auto& r = s.region;
-  return {{"scenario", s.file},
+  nlohmann::json j = {{"scenario", s.file},
           {"title", s.title},
           {"seed", s.seed},
           {"region", {{"name", r.name}, {"file", r.file}, {"crs", r.crs},
@@ -457,6 +554,8 @@ nlohmann::json to_json(const ResolvedScenario& s) {
           {"wells", wells_json(s.wells)},
           {"output", output_json(s.output, s.region.crs)},
           {"uncertainty_given", s.uncertainty.given}};
+  if (s.allow_outside) j["wells_allow_outside"] = true;  // only when set (earlier manifests stay unchanged)
+  return j;
 }
 
 }  // namespace slipscreen::scenario

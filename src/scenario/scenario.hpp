@@ -63,6 +63,8 @@ struct ResolvedScenario {
   std::string wells_file, histories_file;  // display names (empty if none)
   std::filesystem::path wells_path, histories_path;
   std::vector<WellSpec> wells;   // existing wells, then proposed wells
+  bool allow_outside = false;    // [wells] allow_outside: wells may lie outside the study area
+  double memory_limit = 0;       // bytes (memory_limit); 0: the machine's physical memory
   OutputSpec output;
   std::vector<std::filesystem::path> inputs;  // every file read (for the manifest hashes)
   std::optional<CatalogSpec> catalog;           // [catalog]: the review runs with the screen

@@ -14,6 +14,7 @@
 #include "core/util/number_text.hpp"
 #include "core/util/suggest.hpp"
 #include "formats/toml/toml_section.hpp"
+#include "scenario/plausibility.hpp"
 
 namespace slipscreen::scenario {
 namespace {
@@ -31,10 +32,24 @@ struct Range {
 };
 constexpr Range kAny{};
 constexpr Range kPositive{0.0, kInf, true, false, "positive values"};
-constexpr Range kNonNegative{0.0, kInf, false, false, "values >= 0"};
-constexpr Range kPorosity{0.0, 1.0, true, false, "values in (0, 1]"};
 constexpr Range kPoisson{0.0, 0.5, true, true, "values in (0, 0.5)"};
 constexpr Range kAPhi{0.0, 3.0, false, false, "values in [0, 3]"};
+// The physical ranges of scenario/plausibility.hpp (docs/scenario.md, "Plausible ranges").
+constexpr Range of(const plausible::Range& r, const char* what) { return {r.lo, r.hi, r.lo_open, r.hi_open, what}; }
+constexpr Range kPermeability = of(plausible::kPermeability, "permeabilities from 1e-7 mD to 1e6 mD");
+constexpr Range kThickness = of(plausible::kThickness, "thicknesses from 0.1 m to 5 km");
+constexpr Range kPorosityRange = of(plausible::kPorosity, "porosities from 0.0001 to 0.6");
+constexpr Range kCompressibility = of(plausible::kCompressibility, "compressibilities from 1e-11 to 1e-6 1/Pa");
+constexpr Range kViscosity = of(plausible::kViscosity, "viscosities from 0.01 cP to 1000 cP");
+constexpr Range kTransmissivity = of(plausible::kTransmissivity, "transmissivities from 1e-12 to 10 m2/s");
+constexpr Range kStorativity = of(plausible::kStorativity, "storativities from 1e-8 to 0.5");
+constexpr Range kPoreGradient = of(plausible::kPorePressureGradient, "pore-pressure gradients in (0, 35 MPa/km]");
+constexpr Range kVerticalGradient = of(plausible::kVerticalGradient, "vertical stress gradients from 9.8 to 35 MPa/km");
+constexpr Range kHorizontalGradient = of(plausible::kHorizontalGradient, "horizontal stress gradients in (0, 60 MPa/km]");
+constexpr Range kCohesion = of(plausible::kCohesion, "cohesions from 0 to 100 MPa");
+// A rate factor scales reported or planned rates: a factor above 10 is no longer an uncertainty
+// of the same well.
+constexpr Range kRateFactor{0.0, 10.0, false, false, "rate factors from 0 to 10"};
 
 using Model = probabilistic::UncertainModel;
 
@@ -50,28 +65,28 @@ struct KeySpec {
 // (docs/uncertainty.md). The stress keys, which depend on the region's stress model, are in
 // read_stress below.
 const std::vector<KeySpec> kTopKeys = {
-    {"pore_pressure_gradient", Dimension::pressure_gradient, kPositive, &Model::pore_pressure_gradient},
-    {"rate_factor", Dimension::dimensionless, kNonNegative, &Model::rate_factor},
+    {"pore_pressure_gradient", Dimension::pressure_gradient, kPoreGradient, &Model::pore_pressure_gradient},
+    {"rate_factor", Dimension::dimensionless, kRateFactor, &Model::rate_factor},
 };
 const std::vector<KeySpec> kPermeabilityFormKeys = {
-    {"permeability", Dimension::permeability, kPositive, &Model::permeability},
-    {"thickness", Dimension::length, kPositive, &Model::thickness},
-    {"porosity", Dimension::dimensionless, kPorosity, &Model::porosity},
-    {"total_compressibility", Dimension::compressibility, kPositive, &Model::total_compressibility},
-    {"viscosity", Dimension::viscosity, kPositive, &Model::viscosity},
+    {"permeability", Dimension::permeability, kPermeability, &Model::permeability},
+    {"thickness", Dimension::length, kThickness, &Model::thickness},
+    {"porosity", Dimension::dimensionless, kPorosityRange, &Model::porosity},
+    {"total_compressibility", Dimension::compressibility, kCompressibility, &Model::total_compressibility},
+    {"viscosity", Dimension::viscosity, kViscosity, &Model::viscosity},
 };
 const std::vector<KeySpec> kTransmissivityFormKeys = {
-    {"transmissivity", Dimension::diffusivity, kPositive, &Model::transmissivity},
-    {"storativity", Dimension::dimensionless, kPositive, &Model::storativity},
+    {"transmissivity", Dimension::diffusivity, kTransmissivity, &Model::transmissivity},
+    {"storativity", Dimension::dimensionless, kStorativity, &Model::storativity},
 };
 const std::vector<KeySpec> kFaultKeys = {
     {"friction", Dimension::dimensionless, kPositive, &Model::friction},
-    {"cohesion", Dimension::pressure, kNonNegative, &Model::cohesion},
+    {"cohesion", Dimension::pressure, kCohesion, &Model::cohesion},
     {"strike_perturbation", Dimension::angle, kAny, &Model::strike_perturbation},
     {"dip_perturbation", Dimension::angle, kAny, &Model::dip_perturbation},
 };
 const KeySpec kOneFaultFriction{"friction", Dimension::dimensionless, kPositive};  // [uncertainty.fault."id"]
-const KeySpec kOneWellRateFactor{"rate_factor", Dimension::dimensionless, kNonNegative};  // [uncertainty.well."id"]
+const KeySpec kOneWellRateFactor{"rate_factor", Dimension::dimensionless, kRateFactor};  // [uncertainty.well."id"]
 
 std::vector<std::string_view> key_names(const std::vector<KeySpec>& keys,
                                         std::initializer_list<std::string_view> more = {}) {
@@ -143,10 +158,10 @@ void read_stress(const formats::Section& stress, const UncertaintyContext& ctx, 
   constexpr int kAll = 7, kGrad = 1 << static_cast<int>(StressModel::gradients),
                 kUni = 1 << static_cast<int>(StressModel::uniaxial_strain), kAphi = 1 << static_cast<int>(StressModel::a_phi);
   const std::vector<StressKey> keys = {
-      {{"vertical_gradient", Dimension::pressure_gradient, kPositive, &Model::vertical_gradient}, kAll},
+      {{"vertical_gradient", Dimension::pressure_gradient, kVerticalGradient, &Model::vertical_gradient}, kAll},
       {{"shmax_azimuth", Dimension::angle, kAny, &Model::shmax_azimuth}, kAll},
-      {{"shmax_gradient", Dimension::pressure_gradient, kPositive, &Model::shmax_gradient}, kGrad},
-      {{"shmin_gradient", Dimension::pressure_gradient, kPositive, &Model::shmin_gradient}, kGrad},
+      {{"shmax_gradient", Dimension::pressure_gradient, kHorizontalGradient, &Model::shmax_gradient}, kGrad},
+      {{"shmin_gradient", Dimension::pressure_gradient, kHorizontalGradient, &Model::shmin_gradient}, kGrad},
       {{"poisson_ratio", Dimension::dimensionless, kPoisson, &Model::poisson_ratio}, kUni},
       {{"a_phi", Dimension::dimensionless, kAPhi, &Model::a_phi}, kAphi},
   };
@@ -274,14 +289,14 @@ void read_wells(const formats::Section& top, const UncertaintyContext& ctx, Unce
 void read_maps(const formats::Section& maps, UncertaintySpec& spec) {
   maps.allow({"cell_size", "strike", "dip"});
   spec.map_cell_size = maps.quantity_or("cell_size", units::Dimension::length, 0.0);
-  if (spec.map_cell_size < 0.0) maps.fail("cell_size", std::to_string(spec.map_cell_size) + " m", "a cell size > 0");
+  if (maps.has("cell_size")) plausible::check(maps, "cell_size", spec.map_cell_size, plausible::kCellSize);
   if (maps.has("strike") != maps.has("dip"))
     maps.fail(maps.has("strike") ? "dip" : "strike", "(missing)", "both the strike and the dip of the map orientation");
   if (maps.has("strike")) {
     spec.map_strike = maps.quantity("strike", units::Dimension::angle);
+    plausible::check(maps, "strike", *spec.map_strike, plausible::kAzimuth);
     spec.map_dip = maps.quantity("dip", units::Dimension::angle);
-    if (!(*spec.map_dip >= 0.0 && *spec.map_dip <= 1.5707963267948966 + 1e-12))
-      maps.fail("dip", std::to_string(*spec.map_dip * 57.29577951308232) + " deg", "a dip from 0 to 90 deg");
+    plausible::check(maps, "dip", *spec.map_dip, {0.0, 1.5707963267948966 + 1e-12, false, false, "a dip from 0 to 90 deg"});
   }
 }
 

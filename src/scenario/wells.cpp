@@ -9,7 +9,10 @@
 #include "core/util/trim.hpp"
 #include "core/units/units.hpp"
 #include "core/util/civil_date.hpp"
+#include "core/util/number_text.hpp"
 #include "core/util/suggest.hpp"
+#include "formats/gis/crs.hpp"
+#include "scenario/plausibility.hpp"
 
 namespace slipscreen::scenario {
 
@@ -44,7 +47,55 @@ util::CivilDate parse_date_cell(const formats::CsvTable& t, const formats::CsvRo
     throw InputError(formats::split_header_unit(t.header[col]).name, s,
                      month ? "a month as YYYY-MM, e.g. 2019-07" : "a date as YYYY-MM-DD, e.g. 2019-07-01",
                      t.where(row, col));
+  if (!plausible::plausible_date(*d))
+    throw InputError(formats::split_header_unit(t.header[col]).name, s,
+                     month ? "a month from 1900-01 to 2200-12" : plausible::kDateExpected, t.where(row, col));
   return *d;
+}
+
+// A cell's quantity within its physical range (scenario/plausibility.hpp), echoed as written.
+double checked_cell(const formats::CsvTable& t, const formats::CsvRow& row, std::size_t col, units::Dimension d,
+                    const plausible::Range& range) {
+  const double v = formats::cell_quantity(t, row, col, d);
+  if (!range.contains(v))
+    throw InputError(formats::split_header_unit(t.header[col]).name, util::trim(row.fields[col]), range.expected,
+                     t.where(row, col));
+  return v;
+}
+
+// A coordinate cell: within the range of its CRS's kind (degrees or projected units).
+double coordinate_cell(const formats::CsvTable& t, const formats::CsvRow& row, std::size_t col,
+                       const plausible::Range& range) {
+  const double v = cell_number(t, row, col);
+  if (!range.contains(v))
+    throw InputError(formats::split_header_unit(t.header[col]).name, util::trim(row.fields[col]), range.expected,
+                     t.where(row, col));
+  return v;
+}
+
+// True when `crs` names a projected CRS; false for a geographic one and for text OSR does not
+// know (the run names an unknown CRS when it reprojects the wells).
+bool is_projected(const std::string& crs) {
+  try {
+    return formats::Crs::from_user_string(crs).is_projected();
+  } catch (const InputError&) {
+    return false;
+  }
+}
+
+// Every well of a file with a projected CRS at |x| <= 180 and |y| <= 90: degrees written as if
+// they were projected coordinates.
+void refuse_degrees_as_projected(const formats::CsvTable& t, const std::vector<WellSpec>& wells, std::size_t c_x,
+                                 std::size_t c_y, const std::string& crs) {
+  for (const auto& w : wells)
+    if (!plausible::looks_like_degrees(w.x, w.y)) return;
+  if (!is_projected(crs)) return;
+  const formats::CsvRow& row = t.rows.front();
+  throw InputError("x, y", util::trim(row.fields[c_x]) + ", " + util::trim(row.fields[c_y]),
+                   "coordinates in " + crs + " (a projected CRS): every well has |x| <= 180 and |y| <= 90, "
+                   "which look like longitude and latitude in degrees; write them in 'lon' and 'lat' columns "
+                   "(WGS 84) or give x and y in the CRS's unit",
+                   t.where(row, c_x));
 }
 
 WellStatus parse_status(const std::string& s, const std::string& field, const std::string& where) {
@@ -99,6 +150,11 @@ std::vector<WellSpec> read_wells(const formats::CsvTable& t, const std::string& 
     throw InputError("crs", crs, "the same CRS as the scenario's wells.crs ('" + scenario_crs + "')",
                      t.file + " (header comment)");
   if (crs.empty()) crs = scenario_crs;
+  if (lonlat && is_projected(crs))
+    throw InputError("crs", crs,
+                     "a geographic CRS such as EPSG:4326 for 'lon' and 'lat' columns (degrees), or 'x' and 'y' "
+                     "columns for a projected CRS",
+                     t.file + (t.comment_value("crs") ? " (header comment)" : ""));
   if (crs.empty()) {
     if (!lonlat)
       throw InputError("crs", "(missing)", "a '# crs: EPSG:....' line before the header, or wells.crs in the scenario",
@@ -116,24 +172,21 @@ std::vector<WellSpec> read_wells(const formats::CsvTable& t, const std::string& 
       throw InputError("id", w.id, "a well id not used before (first on line " + std::to_string(it->second) + ")",
                        t.where(row, c_id));
     seen.emplace(w.id, row.line);
-    w.x = cell_number(t, row, c_x);
-    w.y = cell_number(t, row, c_y);
-    if (lonlat && (w.y < -90 || w.y > 90))
-      throw InputError("lat", util::trim(row.fields[c_y]), "a latitude in [-90, 90] degrees", t.where(row, c_y));
+    w.x = coordinate_cell(t, row, c_x, lonlat ? plausible::kLongitude : plausible::kProjectedCoordinate);
+    w.y = coordinate_cell(t, row, c_y, lonlat ? plausible::kLatitude : plausible::kProjectedCoordinate);
     w.crs = crs;
-    w.top = formats::cell_quantity(t, row, c_top, Dimension::length);
-    w.bottom = formats::cell_quantity(t, row, c_bottom, Dimension::length);
+    w.top = checked_cell(t, row, c_top, Dimension::length, plausible::kWellTop);
+    w.bottom = checked_cell(t, row, c_bottom, Dimension::length, plausible::kWellBottom);
     if (!(w.bottom > w.top))
       throw InputError("bottom", util::trim(row.fields[c_bottom]), "a depth below the top of the interval", t.where(row, c_bottom));
-    w.radius = formats::cell_quantity(t, row, c_radius, Dimension::length);
-    if (!(w.radius > 0 && w.radius < 5))
-      throw InputError("radius", util::trim(row.fields[c_radius]), "a well radius between 0 and 5 m", t.where(row, c_radius));
+    w.radius = checked_cell(t, row, c_radius, Dimension::length, plausible::kWellRadius);
     if (c_status) w.status = parse_status(util::trim(row.fields[*c_status]), "status", t.where(row, *c_status));
     w.proposed = w.status == WellStatus::proposed;
     w.source = t.where(row);
     wells.push_back(std::move(w));
   }
   if (wells.empty()) throw InputError("rows", "(none)", "at least one well", t.file);
+  if (!lonlat) refuse_degrees_as_projected(t, wells, c_x, c_y, crs);
   return wells;
 }
 
@@ -151,6 +204,18 @@ void check_periods(WellSpec& w) {
                        b.source);
   }
 }
+
+namespace {
+
+// The largest volume of a period: the largest plausible rate over its duration.
+std::string volume_expected(double duration) {
+  const double days = duration / units::kDay;
+  return "a volume from 0 to " + util::number_text(plausible::kMaxRate * duration / units::kBarrel, 3) +
+         " bbl for this " + util::number_text(days, 6) + "-day period (a mean rate of at most 1e6 bbl/d, 1.84 m3/s: a " +
+         "larger rate is not one injection well)";
+}
+
+}  // namespace
 
 void read_histories(const formats::CsvTable& t, std::vector<WellSpec>& wells) {
   const std::size_t c_well = need_column(t, "well", {"well_id", "id"});
@@ -194,6 +259,9 @@ void read_histories(const formats::CsvTable& t, std::vector<WellSpec>& wells) {
     if (v < 0)
       throw InputError(formats::split_header_unit(t.header[c]).name, util::trim(row.fields[c]), "a value >= 0 (injection)", t.where(row, c));
     p.rate = c_volume ? v / (p.end - p.start) : v;
+    if (!plausible::kInjectionRate.contains(p.rate))
+      throw InputError(formats::split_header_unit(t.header[c]).name, util::trim(row.fields[c]),
+                       c_volume ? volume_expected(p.end - p.start) : plausible::kInjectionRate.expected, t.where(row, c));
     p.source = t.where(row);
     it->second->periods.push_back(p);
   }
@@ -234,9 +302,12 @@ RatePeriod parse_schedule_entry(std::string_view text, const std::string& where,
     throw e.located(where);
   }
   if (p.rate < 0) throw InputError(field, s, "a rate >= 0 (injection)", where);
+  if (!plausible::kInjectionRate.contains(p.rate)) throw InputError(field, s, plausible::kInjectionRate.expected, where);
   const auto d0 = util::parse_iso_date(util::trim(s.substr(f + 6, t - f - 6)));
   const auto d1 = util::parse_iso_date(util::trim(s.substr(t + 4)));
   if (!d0 || !d1) throw InputError(field, s, expected, where);
+  if (!plausible::plausible_date(*d0) || !plausible::plausible_date(*d1))
+    throw InputError(field, s, std::string("dates from 1900-01-01 to 2200-12-31"), where);
   p.start = util::to_seconds(*d0);
   p.end = util::to_seconds(*d1);
   if (!(p.end > p.start)) throw InputError(field, s, "an end date after the start date", where);

@@ -15,6 +15,8 @@
 #include "formats/files/path_policy.hpp"
 #include "core/screen/tracking_grid.hpp"
 #include "formats/gis/fault_table.hpp"
+#include "scenario/plausibility.hpp"
+#include "screening/study_area.hpp"
 
 namespace slipscreen::screening {
 
@@ -124,6 +126,15 @@ std::vector<scenario::WellSpec> wells_in(const formats::Crs& working, const scen
       if (it == transformers.end())
         it = transformers.emplace(w.crs, formats::Transformer(formats::Crs::from_user_string(w.crs, "crs"), working)).first;
       const geometry::Point2 p = it->second({w.x, w.y}, "well location");
+      // A transformation outside a projection's domain may give no finite place at all.
+      if (!scenario::plausible::kProjectedCoordinate.contains(p.x) ||
+          !scenario::plausible::kProjectedCoordinate.contains(p.y))
+        throw InputError("location", scenario::plausible::number_as_read(w.x) + ", " +
+                                         scenario::plausible::number_as_read(w.y) + " (" + w.crs + ")",
+                         "a place that " + s.region.crs + " can hold (" +
+                             scenario::plausible::kProjectedCoordinate.expected + "); it became (" +
+                             scenario::plausible::number_as_read(p.x) + ", " + scenario::plausible::number_as_read(p.y) +
+                             ")");
       w.x = p.x;
       w.y = p.y;
       w.crs = s.region.crs;
@@ -234,6 +245,9 @@ PreparedRun prepare_run(const scenario::ResolvedScenario& s, bool allow_network)
   PreparedRun run{working_crs_of(s.region), {}, {}, {}, {}, 0.0, {}, 0, std::nullopt};
   run.wells = wells_in(run.working, s);
   read_faults(s, allow_network, run);
+  if (!s.allow_outside)
+    check_wells_in_area(study_area(run.segments, s.output.grid, scenario::plausible::kStudyAreaMargin), s.wells,
+                        run.wells, s.region.crs, run.segments);
   run.inputs = screen_inputs(s, run);
   if (s.output.rasters) run.grid = output_grid(s, run);
   add_manifest_inputs_and_catalog(s, run);
