@@ -7,6 +7,7 @@
 #include "core/errors.hpp"
 #include "core/util/trim.hpp"
 #include "formats/files/path_policy.hpp"
+#include "formats/table/iso_time.hpp"
 #include "formats/toml/toml_section.hpp"
 #include "scenario/catalog_section.hpp"
 #include "scenario/region_reader.hpp"
@@ -57,7 +58,7 @@ Step parse_step(const formats::Section& s, std::string_view key) {
 
 util::CivilDate parse_date_value(const std::string& text, const std::string& where, const std::string& field) {
   if (auto d = util::parse_iso_date(text)) return *d;
-  throw InputError(field, text, "a date as YYYY-MM-DD, e.g. 2030-01-01", where);
+  throw InputError(field, text, formats::date_expectation(text, "a date as YYYY-MM-DD, e.g. 2030-01-01"), where);
 }
 
 std::vector<util::CivilDate> read_times(const formats::Section& s) {
@@ -232,7 +233,9 @@ std::string read_existing_wells(const formats::Section& top, ResolvedScenario& s
   if (auto f = hist.find("continue_active_until")) {
     const std::string text = hist.string("continue_active_until");
     const auto d = util::parse_iso_date(text);
-    if (!d) throw InputError(hist.key_path(*f, "continue_active_until"), text, "a date as YYYY-MM-DD", hist.where(*f));
+    if (!d)
+      throw InputError(hist.key_path(*f, "continue_active_until"), text,
+                       formats::date_expectation(text, "a date as YYYY-MM-DD"), hist.where(*f));
     continue_active_wells(sc.wells, util::to_seconds(*d), hist.where(*f));
   }
   return wells_crs;
