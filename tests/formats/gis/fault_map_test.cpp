@@ -348,22 +348,23 @@ TEST_CASE("an empty collection has no fault features; coordinates are checked wh
                        doctest::Contains("empty.geojson: field 'features' = 'none: the fault map has no fault features"),
                        InputError);
 
-  write_gpkg(dir / "nan.gpkg", "F9", {{600000, 4000000}, {NAN, 4001000}});
-  CHECK_THROWS_WITH_AS(formats::read_fault_segments(dir / "nan.gpkg", utm),
-                       doctest::Contains("nan.gpkg layer 'faults' feature FID 1 (fault 'F9'): field 'geometry vertex 2 "
-                                         "of 2' = '(nan, 4001000)': expected finite x and y coordinates"),
-                       InputError);
-  write_gpkg(dir / "huge.gpkg", "F8", {{600000, 4000000}, {1e308, 4001000}});
-  CHECK_THROWS_WITH_AS(formats::read_fault_segments(dir / "huge.gpkg", utm),
-                       doctest::Contains("huge.gpkg layer 'faults' feature FID 1 (fault 'F8'): field 'trace vertex 2' = "
-                                         "'(1e+308, 4001000)': expected projected coordinates within 1e8 m"),
-                       InputError);
-  // 1e12 m long: refused by its length before any segment is made (it would be 2e8 segments).
-  write_gpkg(dir / "long.gpkg", "F7", {{0, 0}, {0, 9e7}, {9e7, 9e7}});
-  CHECK_THROWS_WITH_AS(formats::read_fault_segments(dir / "long.gpkg", utm),
-                       doctest::Contains("(fault 'F7'): field 'trace length' = '1.8e+08 m': expected a fault trace of "
-                                         "at most 1000 km"),
-                       InputError);
+  // Each file holds one trace with one implausible vertex or length; the message names it.
+  const auto refused = [&](const std::string& file, const std::vector<geometry::Point2>& points,
+                           const std::string& expected) {
+    CAPTURE(file);
+    write_gpkg(dir / file, "F9", points);
+    CHECK_THROWS_WITH_AS(formats::read_fault_segments(dir / file, utm), doctest::Contains(expected.c_str()), InputError);
+  };
+  refused("nan.gpkg", {{600000, 4000000}, {NAN, 4001000}},
+          "nan.gpkg layer 'faults' feature FID 1 (fault 'F9'): field 'geometry vertex 2 of 2' = '(nan, 4001000)': "
+          "expected finite x and y coordinates");
+  refused("huge.gpkg", {{600000, 4000000}, {1e308, 4001000}},
+          "huge.gpkg layer 'faults' feature FID 1 (fault 'F9'): field 'trace vertex 2' = '(1e+308, 4001000)': expected "
+          "projected coordinates within 1e8 m");
+  // 180,000 km of trace inside the coordinate bounds: refused by its length before any segment
+  // is made (it would be 180,000 segments of 1 km).
+  refused("long.gpkg", {{0, 0}, {0, 9e7}, {9e7, 9e7}},
+          "(fault 'F9'): field 'trace length' = '1.8e+08 m': expected a fault trace of at most 1000 km");
 }
 
 TEST_CASE("text from the fault map is UTF-8, checked where it is read") {
