@@ -1,6 +1,7 @@
 #include "formats/toml/toml_section.hpp"
 
 #include <algorithm>
+#include <cmath>
 #include <fstream>
 #include <sstream>
 
@@ -237,14 +238,15 @@ std::optional<std::int64_t> Section::optional_integer(std::string_view key) cons
 
 std::optional<double> toml_number(const toml::node& n) {
   if (auto i = n.as_integer()) return static_cast<double>(i->get());
-  if (auto x = n.as_floating_point()) return x->get();
+  if (auto x = n.as_floating_point())
+    if (std::isfinite(x->get())) return x->get();  // TOML's nan and inf are no coordinate or magnitude
   return std::nullopt;
 }
 
 double Section::number(std::string_view key) const {
   const Found f = require(key, "a number");
   if (const auto v = toml_number(*f.node)) return *v;
-  throw InputError(key_path(f, key), toml_value_text(*f.node), "a number (without quotes)", where(f));
+  throw InputError(key_path(f, key), toml_value_text(*f.node), "a finite number (without quotes)", where(f));
 }
 
 std::vector<std::pair<std::string, std::string>> Section::string_list(std::string_view key) const {

@@ -101,3 +101,13 @@ TEST_CASE("TOML syntax errors in plain words, with the line and a caret") {
   CHECK_MESSAGE(other.find("not valid TOML: ") != std::string::npos, other);
   CHECK_MESSAGE(other.find("Error while parsing") == std::string::npos, other);
 }
+
+TEST_CASE("TOML's nan and inf are not numbers for a coordinate") {
+  const TomlDocument doc = parse_toml_text("x = nan\ny = -inf\nz = 1e300\nn = 7\n", "s.toml");
+  const Section s({{doc.root.get(), "s.toml", "well", "."}});
+  CHECK(input_error([&] { s.number("x"); }) == "s.toml line 1, column 5: field 'well.x' = 'nan': expected a finite number "
+                                                "(without quotes)");
+  CHECK(input_error([&] { s.number("y"); }).find("field 'well.y' = '-inf'") != std::string::npos);
+  CHECK(s.number("z") == 1e300);
+  CHECK(s.number("n") == 7.0);
+}
