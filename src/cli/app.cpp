@@ -8,6 +8,7 @@
 #include "cli/exit_codes.hpp"
 #include "core/caution.hpp"
 #include "core/errors.hpp"
+#include "core/util/suggest.hpp"
 #include "slipscreen/version.hpp"
 
 namespace slipscreen::cli {
@@ -21,6 +22,52 @@ int exit_code_for(ErrorCategory c) {
     case ErrorCategory::numerical: return kExitNumerical;
   }
   return kExitInternal;
+}
+
+// The subcommand named on the command line, if any (the first word that names one).
+CLI::App* chosen_subcommand(CLI::App& app, const std::vector<std::string>& args) {
+  for (const auto& a : args) {
+    if (a == "--") break;
+    if (!a.empty() && a[0] == '-') continue;
+    for (CLI::App* sub : app.get_subcommands({}))
+      if (sub->check_name(a)) return sub;
+  }
+  return nullptr;
+}
+
+std::vector<std::string> long_option_names(const CLI::App& app) {
+  std::vector<std::string> names;
+  for (const CLI::Option* o : app.get_options())
+    for (const auto& l : o->get_lnames()) names.push_back("--" + l);
+  return names;
+}
+
+// CLI11 says an option is unknown; this adds the nearest option name of the subcommand (edit
+// distance, core/util/suggest.hpp), or the nearest subcommand for an unknown first word.
+void suggest_names(CLI::App& app, const std::vector<std::string>& args, std::ostream& err) {
+  CLI::App* sub = chosen_subcommand(app, args);
+  std::vector<std::string> options = long_option_names(app);
+  if (sub) {
+    const auto more = long_option_names(*sub);
+    options.insert(options.end(), more.begin(), more.end());
+  }
+  std::vector<std::string> subcommands;
+  for (const CLI::App* s : app.get_subcommands({})) subcommands.push_back(s->get_name());
+  bool first_word = true;
+  for (const auto& a : args) {
+    if (a == "--") break;
+    if (a.rfind("--", 0) == 0 && a.size() > 2) {
+      const std::string name = a.substr(0, a.find('='));
+      if (std::find(options.begin(), options.end(), name) != options.end()) continue;
+      const std::string where = sub ? " of '" + sub->get_name() + "'" : "";
+      const std::string hint = util::did_you_mean(name, options);
+      err << "slipscreen: '" << name << "' is not an option" << where
+          << (hint.empty() ? " (see 'slipscreen " + (sub ? sub->get_name() + " " : "") + "--help')" : hint) << "\n";
+    } else if (first_word && !a.empty() && a[0] != '-') {
+      first_word = false;
+      if (!sub) err << "slipscreen: '" << a << "' is not a command" << util::did_you_mean(a, subcommands) << "\n";
+    }
+  }
 }
 
 }  // namespace
@@ -45,6 +92,7 @@ int run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
     app.parse(reversed);
   } catch (const CLI::ParseError& e) {
     const int code = app.exit(e, out, err);
+    if (code != 0) suggest_names(app, args, err);
     return code == 0 ? kExitOk : kExitUsage;
   }
   if (!ctx.action) return kExitUsage;

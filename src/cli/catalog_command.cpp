@@ -12,6 +12,7 @@
 
 #include "cli/commands.hpp"
 #include "cli/exit_codes.hpp"
+#include "cli/option_range.hpp"
 #include "core/errors.hpp"
 #include "core/seismo/catalog_filter.hpp"
 #include "core/seismo/catalog_summary.hpp"
@@ -182,12 +183,21 @@ void register_catalog_command(CLI::App& app, Context& ctx) {
   sub->add_option("--depth-min", o->depth_min, "Minimum depth, e.g. '1 km'");
   sub->add_option("--depth-max", o->depth_max, "Maximum depth, e.g. '8 km'");
   sub->add_option("--magnitude-type", o->magnitude_types, "Keep these magnitude types (repeatable or comma list)");
-  sub->add_option("--bin", o->bin, "Magnitude bin width")->default_val(0.1);
-  sub->add_option("--mc-correction", o->mc_correction, "Added to the maximum-curvature Mc (usual: 0.2)")->default_val(0.0);
-  sub->add_option("--mc", o->mc, "Use this magnitude of completeness instead of estimating it");
-  sub->add_option("--bootstrap", o->bootstrap, "Bootstrap resamples for a b-value interval (0: none)")->default_val(0);
-  sub->add_option("--confidence", o->confidence, "Bootstrap interval confidence")->default_val(0.95);
-  sub->add_option("--seed", o->seed, "Seed of the bootstrap")->default_val(1);
+  sub->add_option("--bin", o->bin, "Magnitude bin width")
+      ->default_val(0.1)
+      ->check(in_range(0, 1, "a magnitude bin width", Ends::open_low));
+  sub->add_option("--mc-correction", o->mc_correction, "Added to the maximum-curvature Mc (usual: 0.2)")
+      ->default_val(0.0)
+      ->check(in_range(0, 1, "a magnitude correction"));
+  sub->add_option("--mc", o->mc, "Use this magnitude of completeness instead of estimating it")
+      ->check(in_range(-2, 10, "a magnitude"));
+  sub->add_option("--bootstrap", o->bootstrap, "Bootstrap resamples for a b-value interval (0: none)")
+      ->default_val(0)
+      ->check(in_range(0, 100000, "a number of resamples"));
+  sub->add_option("--confidence", o->confidence, "Bootstrap interval confidence")
+      ->default_val(0.95)
+      ->check(strictly_between(0, 1, "a confidence level"));
+  sub->add_option("--seed", o->seed, "Seed of the bootstrap")->default_val(1)->check(whole_number("a seed"));
   sub->add_option("--net-volume", o->net_volume, "Net injected volume for the McGarr bound, e.g. '1e6 m3'");
   sub->add_option("--shear-modulus", o->shear_modulus, "Shear modulus for the McGarr bound")->default_val("30 GPa");
   sub->add_option("--volume-history", o->volume_history, "CSV of time,cumulative_volume for the seismogenic index");

@@ -3,6 +3,7 @@
 #include <memory>
 
 #include "cli/commands.hpp"
+#include "cli/option_range.hpp"
 #include "cli/run_report.hpp"
 
 namespace slipscreen::cli {
@@ -35,7 +36,9 @@ void register_run_command(CLI::App& app, Context& ctx) {
   sub->add_flag("--allow-network", opts->allow_network, "Allow GDAL network paths (/vsicurl/ ...) in the scenario");
   sub->add_flag("--reproducible", opts->reproducible,
                 "Leave the creation time out of the manifest and fix the GeoPackage timestamp (byte-identical reruns)");
-  sub->add_option("--closest", opts->closest, "Number of faults listed in the summary")->default_val(10);
+  sub->add_option("--closest", opts->closest, "Number of faults listed in the summary")
+      ->default_val(10)
+      ->check(in_range(0, 10000, "a number of faults"));
   sub->callback([opts, &ctx] { ctx.action = [opts, &ctx] { return run_and_report(*opts, ctx); }; });
 }
 

@@ -54,6 +54,7 @@ struct FaultMapSpec {
   double cohesion = 0.0;        // Pa
   double segment_length = 2000; // m, longest segment after splitting polylines
   int check_points = 5;         // points per segment where dp is evaluated (max is used)
+  bool allow_folded = false;    // accept traces that fold back on themselves (docs/gis.md)
 };
 
 struct BoundarySpec {

@@ -114,7 +114,8 @@ StressSpec read_stress(const formats::Section& s, double fault_friction) {
 }
 
 FaultMapSpec read_faults(const formats::Section& s) {
-  s.allow({"file", "layer", "crs", "attributes", "friction", "cohesion", "segment_length", "check_points"});
+  s.allow({"file", "layer", "crs", "attributes", "friction", "cohesion", "segment_length", "check_points",
+           "allow_folded"});
   FaultMapSpec f;
   // A path is relative to the file that names it (region file or scenario override). A GDAL
   // network path is kept as written: the fault reader refuses it unless --allow-network.
@@ -139,6 +140,7 @@ FaultMapSpec read_faults(const formats::Section& s) {
   const std::int64_t check_points = s.optional_integer("check_points").value_or(5);
   if (check_points < 1 || check_points > 101) s.fail("check_points", written(s, "check_points"), "an integer from 1 to 101");
   f.check_points = static_cast<int>(check_points);
+  f.allow_folded = s.boolean_or("allow_folded", false);
   return f;
 }
 

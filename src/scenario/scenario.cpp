@@ -8,6 +8,7 @@
 #include "core/util/number_text.hpp"
 #include "core/util/trim.hpp"
 #include "formats/files/path_policy.hpp"
+#include "formats/table/iso_time.hpp"
 #include "formats/toml/toml_section.hpp"
 #include "scenario/catalog_section.hpp"
 #include "formats/gis/crs.hpp"
@@ -118,7 +119,7 @@ util::CivilDate plausible_date(const util::CivilDate& d, const std::string& text
 
 util::CivilDate parse_date_value(const std::string& text, const std::string& where, const std::string& field) {
   if (auto d = util::parse_iso_date(text)) return plausible_date(*d, text, where, field);
-  throw InputError(field, text, "a date as YYYY-MM-DD, e.g. 2030-01-01", where);
+  throw InputError(field, text, formats::date_expectation(text, "a date as YYYY-MM-DD, e.g. 2030-01-01"), where);
 }
 
 // A TOML local date (2030-01-01 without quotes) or a date string.

@@ -13,6 +13,7 @@
 #include "core/util/suggest.hpp"
 #include "formats/gis/crs.hpp"
 #include "scenario/plausibility.hpp"
+#include "formats/table/iso_time.hpp"
 
 namespace slipscreen::scenario {
 
@@ -45,7 +46,8 @@ util::CivilDate parse_date_cell(const formats::CsvTable& t, const formats::CsvRo
   const auto d = month ? util::parse_iso_month(s) : util::parse_iso_date(s);
   if (!d)
     throw InputError(formats::split_header_unit(t.header[col]).name, s,
-                     month ? "a month as YYYY-MM, e.g. 2019-07" : "a date as YYYY-MM-DD, e.g. 2019-07-01",
+                     month ? "a month as YYYY-MM, e.g. 2019-07"
+                           : formats::date_expectation(s, "a date as YYYY-MM-DD, e.g. 2019-07-01"),
                      t.where(row, col));
   if (!plausible::plausible_date(*d))
     throw InputError(formats::split_header_unit(t.header[col]).name, s,
@@ -303,9 +305,10 @@ RatePeriod parse_schedule_entry(std::string_view text, const std::string& where,
   }
   if (p.rate < 0) throw InputError(field, s, "a rate >= 0 (injection)", where);
   if (!plausible::kInjectionRate.contains(p.rate)) throw InputError(field, s, plausible::kInjectionRate.expected, where);
-  const auto d0 = util::parse_iso_date(util::trim(s.substr(f + 6, t - f - 6)));
-  const auto d1 = util::parse_iso_date(util::trim(s.substr(t + 4)));
-  if (!d0 || !d1) throw InputError(field, s, expected, where);
+  const std::string from = util::trim(s.substr(f + 6, t - f - 6)), to = util::trim(s.substr(t + 4));
+  const auto d0 = util::parse_iso_date(from);
+  const auto d1 = util::parse_iso_date(to);
+  if (!d0 || !d1) throw InputError(field, s, formats::date_expectation(d0 ? to : from, expected), where);
   if (!plausible::plausible_date(*d0) || !plausible::plausible_date(*d1))
     throw InputError(field, s, std::string("dates from 1900-01-01 to 2200-12-31"), where);
   p.start = util::to_seconds(*d0);

@@ -14,6 +14,7 @@
 #include "core/geomech/horizontal_stress.hpp"
 #include "formats/files/path_policy.hpp"
 #include "core/screen/tracking_grid.hpp"
+#include "core/util/number_text.hpp"
 #include "formats/gis/fault_table.hpp"
 #include "scenario/plausibility.hpp"
 #include "screening/study_area.hpp"
@@ -64,7 +65,7 @@ geomech::AndersonianStress stress_at_reference_depth(const scenario::RegionSpec&
     geomech::check(s);
     return s;
   } catch (const InputError& e) {
-    throw e.located(r.file + " [stress] at reference_depth " + std::to_string(static_cast<long long>(z)) + " m");
+    throw e.located(r.file + " [stress] at reference_depth " + util::number_text(z) + " m");
   }
 }
 
@@ -161,6 +162,7 @@ void read_faults(const scenario::ResolvedScenario& s, bool allow_network, Prepar
   fo.max_segment_length_m = r.faults.segment_length;
   fo.check_points = r.faults.check_points;
   fo.allow_network = allow_network;
+  fo.allow_folded = r.faults.allow_folded;
   run.segments = formats::is_fault_table(r.faults.path)
                      ? formats::read_fault_table(r.faults.path, formats::display_name(r.faults.path), run.working,
                                                  r.faults.crs, r.faults.segment_length, r.faults.check_points)

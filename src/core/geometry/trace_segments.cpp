@@ -6,6 +6,7 @@
 
 #include "core/errors.hpp"
 #include "core/geometry/azimuth.hpp"
+#include "core/util/number_text.hpp"
 
 namespace slipscreen::geometry {
 
@@ -55,30 +56,75 @@ std::vector<Point2> check_points(const std::vector<Point2>& vertices, int k) {
 
 std::vector<Point2> straight_trace(Point2 centre, double strike_rad, double length_m) {
   if (!(length_m > 0.0) || !std::isfinite(length_m))
-    throw InputError("length", std::to_string(length_m), "a positive fault length");
+    throw InputError("length", util::number_text(length_m) + " m", "a positive fault length");
   const double hx = 0.5 * length_m * std::sin(strike_rad), hy = 0.5 * length_m * std::cos(strike_rad);
   return {{centre.x - hx, centre.y - hy}, {centre.x + hx, centre.y + hy}};
 }
 
-std::vector<TraceSegment> split_trace(const std::vector<Point2>& vertices, double max_length_m,
-                                      int k_check_points) {
-  if (!(max_length_m > 0.0) || !std::isfinite(max_length_m))
-    throw InputError("max_segment_length", std::to_string(max_length_m), "a positive length");
-  if (k_check_points < 1)
-    throw InputError("check_points", std::to_string(k_check_points), "at least 1 check point per segment");
+std::string point_text(const Point2& p) {
+  std::string s = "(";
+  s += util::number_text(p.x, 12);
+  s += ", ";
+  s += util::number_text(p.y, 12);
+  s += ")";
+  return s;
+}
+
+namespace {
+
+// The trace without repeated consecutive vertices, after checking every coordinate.
+std::vector<Point2> distinct_vertices(const std::vector<Point2>& vertices) {
   std::vector<Point2> v;
   v.reserve(vertices.size());
-  for (const Point2& p : vertices) {
+  for (std::size_t i = 0; i < vertices.size(); ++i) {
+    const Point2& p = vertices[i];
+    const std::string field = "trace vertex " + std::to_string(i + 1);
     if (!std::isfinite(p.x) || !std::isfinite(p.y))
-      throw InputError("trace", "a non-finite coordinate", "finite x and y");
+      throw InputError(field, point_text(p), "finite x and y coordinates");
+    if (std::abs(p.x) > kMaxCoordinateM || std::abs(p.y) > kMaxCoordinateM)
+      throw InputError(field, point_text(p),
+                       "projected coordinates within 1e8 m of the origin (no place on Earth is farther)");
     if (v.empty() || !(p == v.back())) v.push_back(p);
   }
   if (v.size() < 2)
     throw InputError("trace", std::to_string(v.size()) + " distinct vertex",
                      "a line with at least two distinct vertices");
+  return v;
+}
 
+void check_max_length(double max_length_m) {
+  if (!(max_length_m > 0.0) || !std::isfinite(max_length_m))
+    throw InputError("max_segment_length", util::number_text(max_length_m) + " m", "a positive length");
+}
+
+// n = ceil(L / max_length) for a checked trace, bounded before anyone allocates n segments.
+std::size_t count_for(double length_m, double max_length_m) {
+  if (!(length_m <= kMaxTraceLengthM))
+    throw InputError("trace length", util::number_text(length_m, 6) + " m",
+                     "a fault trace of at most 1000 km (a longer one is a coordinate typo or the wrong CRS)");
+  const double n = std::max(1.0, std::ceil(length_m / max_length_m * (1.0 - 1e-12)));
+  if (!(n <= static_cast<double>(kMaxSegmentsPerTrace)))
+    throw InputError("max_segment_length", util::number_text(max_length_m, 6) + " m",
+                     "a segment length giving at most 100000 segments on a trace of " +
+                         util::number_text(length_m, 6) + " m (it gives " + util::number_text(n, 6) + ")");
+  return static_cast<std::size_t>(n);
+}
+
+}  // namespace
+
+std::size_t segment_count(const std::vector<Point2>& vertices, double max_length_m) {
+  check_max_length(max_length_m);
+  return count_for(polyline_length(distinct_vertices(vertices)), max_length_m);
+}
+
+std::vector<TraceSegment> split_trace(const std::vector<Point2>& vertices, double max_length_m,
+                                      int k_check_points) {
+  check_max_length(max_length_m);
+  if (k_check_points < 1)
+    throw InputError("check_points", std::to_string(k_check_points), "at least 1 check point per segment");
+  const std::vector<Point2> v = distinct_vertices(vertices);
   const double L = polyline_length(v);
-  const auto n = static_cast<std::size_t>(std::max(1.0, std::ceil(L / max_length_m * (1.0 - 1e-12))));
+  const std::size_t n = count_for(L, max_length_m);
   std::vector<TraceSegment> out(n);
   for (std::size_t i = 0; i < n; ++i) {
     TraceSegment& s = out[i];

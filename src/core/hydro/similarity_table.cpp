@@ -44,7 +44,13 @@ void store_column(const std::vector<double>& column, std::size_t k, std::size_t 
 
 std::size_t SimilarityGrid::node_count() const {
   // One node below and two above the range so every interior point has 4 Lagrange nodes.
-  return static_cast<std::size_t>(std::ceil((ln_x_max - ln_x_min) / step)) + 4;
+  const double intervals = std::ceil((ln_x_max - ln_x_min) / step);
+  // Checked before the cast (an infinite range, e.g. from a point 1e308 m away, is undefined as
+  // an integer): the same refusal as SimilarityTable::check.
+  if (!(intervals >= 0.0 && intervals < 1e9))
+    throw InputError("similarity range", std::to_string(ln_x_min) + ".." + std::to_string(ln_x_max),
+                     "a finite increasing range of ln x with a positive step");
+  return static_cast<std::size_t>(intervals) + 4;
 }
 
 LagKernel::LagKernel(const SimilarityGrid& grid, double quantum, std::size_t max_lag)

@@ -67,8 +67,10 @@ PressureModel build_pressure_model(const std::vector<WellInput>& wells, const st
   m.tables = hydro::build_tables(m.steps, settings.tracking_times, m.grid);
   m.nodes = settings.surrogate_nodes > 0
                 ? settings.surrogate_nodes
-                : std::clamp<std::size_t>(
-                      static_cast<std::size_t>(std::ceil(8.0 * std::log(m.diffusivity_max / m.diffusivity_min))), 4, 64);
+                // Clamped as a double before the cast (fmin/fmax also take NaN to a bound), so no
+                // ratio of diffusivities can make the float-to-integer cast undefined.
+                : static_cast<std::size_t>(
+                      std::fmax(4.0, std::fmin(64.0, std::ceil(8.0 * std::log(m.diffusivity_max / m.diffusivity_min)))));
   m.surrogate.emplace(m.tables, m.sources, points, m.groups, m.diffusivity_min, m.diffusivity_max, m.nodes);
   m.factor = rate_factors(m, list, r.inputs);
   m.draws = make_pressure_draws(*m.surrogate, r.diffusivity, r.prefactor, m.factor);

@@ -15,9 +15,13 @@
 #include "core/util/trim.hpp"
 #include "core/errors.hpp"
 #include "core/geometry/azimuth.hpp"
+#include "core/geometry/trace_fold.hpp"
 #include "core/units/units.hpp"
+#include "core/util/number_text.hpp"
 #include "core/util/suggest.hpp"
+#include "core/util/utf8.hpp"
 #include "formats/gis/gdal_errors.hpp"
+#include "formats/files/input_file.hpp"
 #include "formats/files/path_policy.hpp"
 
 namespace slipscreen::formats {
@@ -56,6 +60,14 @@ bool is_untyped(OGRwkbGeometryType t) {
   return f == wkbUnknown || f == wkbGeometryCollection;
 }
 
+// A text attribute as read, checked as UTF-8 without control characters (core/util/utf8.hpp).
+std::string text_field(OGRFeature& f, int idx, const std::string& name, const std::string& where) {
+  const std::string text = f.GetFieldAsString(idx);
+  if (const auto problem = util::text_problem(text))
+    throw InputError(name, util::printable(text), "UTF-8 text without control characters (" + *problem + ")", where);
+  return text;
+}
+
 std::vector<std::string> field_names(OGRFeatureDefn& defn) {
   std::vector<std::string> names;
   for (int i = 0; i < defn.GetFieldCount(); ++i) names.emplace_back(defn.GetFieldDefn(i)->GetNameRef());
@@ -86,7 +98,7 @@ std::optional<double> number_field(OGRFeature& f, int idx, const std::string& na
   if (idx < 0 || !f.IsFieldSetAndNotNull(idx)) return std::nullopt;
   const OGRFieldType type = f.GetFieldDefnRef(idx)->GetType();
   if (type == OFTInteger || type == OFTInteger64 || type == OFTReal) return f.GetFieldAsDouble(idx);
-  const std::string text = util::trim(f.GetFieldAsString(idx));
+  const std::string text = util::trim(text_field(f, idx, name, where));
   if (text.empty()) return std::nullopt;
   double v = 0.0;
   const auto [end, ec] = std::from_chars(text.data(), text.data() + text.size(), v);
@@ -118,11 +130,17 @@ struct Reader {
   const FaultFileOptions& opt;
   std::vector<FaultSegment> out;
   std::map<std::string, std::size_t> next_index;
+  std::map<std::string, std::string> feature_of_id;  // fault id -> "FID n of layer 'x'"
   std::size_t line_features = 0;
 
   void read_layer(OGRLayer& layer) {
     const std::string layer_name = layer.GetName();
-    const std::string where_layer = path.string() + " layer '" + layer_name + "'";
+    const std::string where_layer = path.string() + " layer '" + util::printable(layer_name) + "'";
+    if (const auto problem = util::text_problem(layer_name))
+      throw InputError("layer name", util::printable(layer_name),
+                       "UTF-8 text without control characters (" + *problem + ")", path.string());
+    // A layer without features has nothing to map (an empty GeoJSON has no fields either).
+    if (layer.GetFeatureCount(TRUE) == 0) return;
     const FaultAttributeMap& a = opt.attributes;
     OGRFeatureDefn& defn = *layer.GetLayerDefn();
     const int id_idx = mapped_field(defn, a.id, true, "fault id", where_layer);
@@ -143,6 +161,44 @@ struct Reader {
     layer.ResetReading();
     for (std::unique_ptr<OGRFeature> f(layer.GetNextFeature()); f; f.reset(layer.GetNextFeature()))
       read_feature(*f, layer_name, where_layer, to_working, id_idx, dip_idx, dd_idx, side_idx, mu_idx);
+  }
+
+  // One fault id, one feature: a second feature with the same id is most often a copy-paste
+  // slip, and merging the two would give one fault the segments of another.
+  void claim_id(const std::string& id, const std::string& layer_name, long long fid, const std::string& where) {
+    const std::string feature = "FID " + std::to_string(fid) + " of layer '" + util::printable(layer_name) + "'";
+    const auto [it, fresh] = feature_of_id.emplace(id, feature);
+    if (!fresh)
+      throw InputError(opt.attributes.id, id,
+                       "a fault id on one feature only: " + it->second + " has it too (a fault mapped in "
+                       "several pieces is one MultiLineString feature)",
+                       where);
+  }
+
+  // The vertices of one part as written, each coordinate finite.
+  static std::vector<geometry::Point2> part_vertices(const OGRLineString& part, const std::string& where) {
+    std::vector<geometry::Point2> v;
+    v.reserve(static_cast<std::size_t>(part.getNumPoints()));
+    for (int i = 0; i < part.getNumPoints(); ++i) {
+      const geometry::Point2 p{part.getX(i), part.getY(i)};
+      if (!std::isfinite(p.x) || !std::isfinite(p.y))
+        throw InputError("geometry vertex " + std::to_string(i + 1) + " of " + std::to_string(part.getNumPoints()),
+                         geometry::point_text(p),
+                         "finite x and y coordinates", where);
+      v.push_back(p);
+    }
+    return v;
+  }
+
+  // A trace that folds back on itself is refused (geometry/trace_fold.hpp) unless accepted.
+  void check_fold(const std::vector<geometry::Point2>& working_vertices, const std::string& where) const {
+    if (opt.allow_folded) return;
+    const auto fold = geometry::find_fold(working_vertices);
+    if (!fold) return;
+    throw InputError("geometry", "the trace " + geometry::describe(*fold, working_vertices.size()) + " (working CRS)",
+                     "a trace that does not fold back on itself (no turn sharper than 150 deg, no crossing); "
+                     "fix the vertex order, or accept it with allow_folded = true under [faults]",
+                     where);
   }
 
   void read_feature(OGRFeature& f, const std::string& layer_name, const std::string& where_layer,
@@ -175,13 +231,15 @@ struct Reader {
     // Attributes.
     if (!f.IsFieldSetAndNotNull(id_idx) || util::trim(f.GetFieldAsString(id_idx)).empty())
       throw InputError(a.id, "(empty)", "a fault id", where);
-    const std::string id = util::trim(f.GetFieldAsString(id_idx));
+    const std::string id = util::trim(text_field(f, id_idx, a.id, where));
+    claim_id(id, layer_name, fid, where);
+    const std::string where_fault = where + " (fault '" + id + "')";
     const std::string dip_expected = "a dip in degrees, 0 < dip <= 90 (e.g. 60 or '60 deg')";
     std::optional<double> dip_deg = number_field(f, dip_idx, a.dip, dip_expected, true, where);
     double dip_rad = 0.0;
     if (dip_deg) {
       if (!(*dip_deg > 0.0 && *dip_deg <= 90.0))
-        throw InputError(a.dip, f.GetFieldAsString(dip_idx), dip_expected, where);
+        throw InputError(a.dip, util::printable(f.GetFieldAsString(dip_idx)), dip_expected, where);
       dip_rad = *dip_deg * kDeg;
     } else if (a.default_dip_rad) {
       dip_rad = *a.default_dip_rad;
@@ -191,7 +249,7 @@ struct Reader {
     std::optional<double> dip_direction;
     if (dd_idx >= 0 && f.IsFieldSetAndNotNull(dd_idx)) {
       const OGRFieldType t = f.GetFieldDefnRef(dd_idx)->GetType();
-      const std::string text = util::trim(f.GetFieldAsString(dd_idx));
+      const std::string text = util::trim(text_field(f, dd_idx, a.dip_direction, where));
       if (t == OFTInteger || t == OFTInteger64 || t == OFTReal) {
         const double v = f.GetFieldAsDouble(dd_idx);
         if (!(v >= 0.0 && v <= 360.0))
@@ -207,27 +265,39 @@ struct Reader {
     }
     bool dips_left = false;
     if (!dip_direction && side_idx >= 0 && f.IsFieldSetAndNotNull(side_idx)) {
-      const std::string side = lower(util::trim(f.GetFieldAsString(side_idx)));
+      const std::string written = text_field(f, side_idx, a.dips_to, where);
+      const std::string side = lower(util::trim(written));
       if (side == "left" || side == "l") dips_left = true;
       else if (side != "right" && side != "r" && !side.empty())
-        throw InputError(a.dips_to, f.GetFieldAsString(side_idx),
+        throw InputError(a.dips_to, written,
                          "'right' or 'left' (side of the digitising direction the fault dips to)", where);
     }
     std::optional<double> friction =
         number_field(f, mu_idx, a.friction, "a friction coefficient > 0 (e.g. 0.6)", false, where);
     if (friction && !(*friction > 0.0 && std::isfinite(*friction)))
-      throw InputError(a.friction, f.GetFieldAsString(mu_idx), "a friction coefficient > 0 (e.g. 0.6)", where);
+      throw InputError(a.friction, util::printable(f.GetFieldAsString(mu_idx)), "a friction coefficient > 0 (e.g. 0.6)",
+                       where);
 
-    for (const OGRLineString* part : parts) {
-      std::vector<geometry::Point2> v;
-      v.reserve(static_cast<std::size_t>(part->getNumPoints()));
-      for (int i = 0; i < part->getNumPoints(); ++i) v.push_back({part->getX(i), part->getY(i)});
-      to_working.apply(v, where);
+    for (std::size_t k = 0; k < parts.size(); ++k) {
+      const std::string where_part =
+          parts.size() == 1 ? where_fault : where_fault + " part " + std::to_string(k + 1) + " of " + std::to_string(parts.size());
+      std::vector<geometry::Point2> v = part_vertices(*parts[k], where_part);
+      try {
+        to_working.apply(v, "trace coordinates");
+      } catch (const InputError& e) {
+        throw e.located(where_part);
+      }
       std::vector<geometry::TraceSegment> pieces;
       try {
+        const std::size_t n = geometry::segment_count(v, opt.max_segment_length_m);
+        if (out.size() + n > kMaxSegmentsPerMap)
+          throw InputError("segments", "more than " + std::to_string(kMaxSegmentsPerMap) + " by this trace",
+                           "at most " + std::to_string(kMaxSegmentsPerMap) +
+                               " segments in a fault map (a longer segment_length gives fewer)");
+        check_fold(v, where_part);
         pieces = geometry::split_trace(v, opt.max_segment_length_m, opt.check_points);
       } catch (const InputError& e) {
-        throw e.located(where);
+        throw e.where().empty() ? e.located(where_part) : e;
       }
       for (auto& piece : pieces) {
         FaultSegment s;
@@ -236,7 +306,7 @@ struct Reader {
         s.segment_id = id + ":" + std::to_string(s.index);
         s.layer = layer_name;
         s.fid = fid;
-        s.strike_rad = strike_for(piece, dip_direction, dips_left, a.dip_direction, where);
+        s.strike_rad = strike_for(piece, dip_direction, dips_left, a.dip_direction, where_fault);
         s.dip_rad = dip_rad;
         s.friction = friction;
         s.trace = std::move(piece);
@@ -275,8 +345,11 @@ std::vector<FaultSegment> read_fault_segments(const fs::path& path, const Crs& w
   const std::string name = path.string();
   require_local_path(name, opt.allow_network, "fault file");
   if (!is_network_path(name)) {
+    // A folder may be a dataset (Shapefiles, OpenFileGDB); a named pipe or device is refused
+    // before GDAL waits on it.
     std::error_code ec;
-    if (!fs::exists(path, ec)) throw IoError(name + ": fault file not found");
+    const auto problem = input_file_problem(path);
+    if (problem && !fs::is_directory(path, ec)) throw IoError(name + ": cannot open the fault map (" + *problem + ")");
   }
   GdalErrorScope errors(name);
   std::unique_ptr<GDALDataset, DatasetCloser> ds(GDALDataset::Open(
@@ -284,12 +357,24 @@ std::vector<FaultSegment> read_fault_segments(const fs::path& path, const Crs& w
   if (!ds)
     errors.throw_io("cannot open as a fault map (GeoPackage, GeoJSON, Shapefile, FlatGeobuf, KML, MapInfo, "
                     "OpenFileGDB)");
+  // GDAL opens a file whose declared CRS PROJ does not know and falls back to a default (WGS 84
+  // for GeoJSON): refused here, so no later message blames coordinates "in WGS 84".
+  if (errors.has_error()) {
+    const std::string gdal = errors.message();
+    if (gdal.find("PROJ") != std::string::npos || gdal.find("crs") != std::string::npos ||
+        gdal.find("CRS") != std::string::npos || gdal.find("SRS") != std::string::npos)
+      throw InputError("crs", "declared in the file but unknown (GDAL: " + util::printable(gdal) + ")",
+                       "a coordinate reference system PROJ knows, such as EPSG:32614 (the file's CRS is not "
+                       "replaced by a default)",
+                       name);
+    errors.throw_io("error while opening the fault map");
+  }
 
-  Reader reader{path, working, opt, {}, {}, 0};
+  Reader reader{path, working, opt, {}, {}, {}, 0};
   std::vector<std::string> seen;  // "name (type)" of every layer, for messages
   std::vector<OGRLayer*> layers;
   for (OGRLayer* layer : ds->GetLayers()) {
-    seen.push_back(std::string(layer->GetName()) + " (" + OGRGeometryTypeToName(wkbFlatten(layer->GetGeomType())) + ")");
+    seen.push_back(util::printable(layer->GetName()) + " (" + OGRGeometryTypeToName(wkbFlatten(layer->GetGeomType())) + ")");
     if (!opt.layer.empty()) continue;
     if (is_line_type(layer->GetGeomType()) || is_untyped(layer->GetGeomType())) layers.push_back(layer);
   }
@@ -307,8 +392,15 @@ std::vector<FaultSegment> read_fault_segments(const fs::path& path, const Crs& w
                        name + " layer '" + opt.layer + "'");
     layers.push_back(layer);
   }
-  for (OGRLayer* layer : layers) reader.read_layer(*layer);
+  long long features = 0;
+  for (OGRLayer* layer : layers) {
+    features += std::max<GIntBig>(0, layer->GetFeatureCount(TRUE));
+    reader.read_layer(*layer);
+  }
   errors.throw_if_error("error while reading the fault map");
+  if (!layers.empty() && features == 0)
+    throw InputError("features", "none: the fault map has no fault features (layers: " + join(seen) + ")",
+                     "at least one LineString or MultiLineString fault trace", name);
   if (reader.line_features == 0)
     throw InputError("geometry", "no line features (layers: " + join(seen) + ")",
                      "LineString or MultiLineString fault traces", name);

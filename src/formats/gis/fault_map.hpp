@@ -12,7 +12,9 @@
 // feature of another geometry type, or none, is an InputError naming its FID.
 //
 // Attribute mapping (field names are case-insensitive, as in OGR; "" disables a field):
-//   id             required  text or integer; the fault's id (several features may share it)
+//   id             required  text or integer; the fault's id, one feature per id (a fault mapped
+//                            in several pieces is one MultiLineString feature): an id on two
+//                            features is an InputError naming both
 //   dip            required  dip angle in degrees, 0 < dip ≤ 90 (a number, or text such as
 //                            "60" or "60 deg"); may be absent when default_dip_rad is set
 //   dip_direction  optional  dip direction: azimuth in degrees from north (0–360) or a compass
@@ -23,6 +25,12 @@
 // Optional fields are used when the layer has a field of that name. Without dip direction or
 // dips_to, the file follows the right-hand rule: the fault dips to the right of the direction
 // the line was digitised in.
+//
+// Checks (docs/gis.md): every coordinate is finite (named by feature, part and vertex); a trace
+// that folds back on itself (geometry::find_fold: a turn of more than 150° or a crossing) is an
+// InputError naming the fault and the vertex unless allow_folded; text attributes and layer
+// names are UTF-8 without control characters; a layer without features is skipped, and a file
+// without any is an InputError saying so; at most kMaxSegmentsPerMap segments in all.
 //
 // Segments: each trace is reprojected into the working CRS, then split by
 // geometry::split_trace (at most max_segment_length_m, check_points per segment). A segment's
@@ -40,6 +48,10 @@
 
 namespace slipscreen::formats {
 
+// At most this many segments from one fault map (about 0.5 GB of segments): a regional review
+// of thousands of faults at a few segments each stays far below it.
+inline constexpr std::size_t kMaxSegmentsPerMap = 1000000;
+
 struct FaultAttributeMap {
   std::string id = "fault_id";
   std::string dip = "dip";
@@ -56,6 +68,7 @@ struct FaultFileOptions {
   double max_segment_length_m = 1000.0;
   int check_points = 3;
   bool allow_network = false;
+  bool allow_folded = false;  // accept traces that fold back on themselves (scenario: [faults] allow_folded)
 };
 
 struct FaultSegment {

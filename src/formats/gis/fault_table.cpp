@@ -60,11 +60,15 @@ std::vector<FaultSegment> read_fault_table(const std::filesystem::path& path, co
   for (const auto& row : t.rows) {
     const std::string id = util::trim(row.fields[c_id]);
     if (id.empty()) throw InputError("id", "", "a fault id", t.where(row, c_id));
-    if (!seen.emplace(id, row.line).second)
-      throw InputError("id", id, "a fault id not used before in the table", t.where(row, c_id));
+    if (const auto [first, fresh] = seen.emplace(id, row.line); !fresh)
+      throw InputError("id", id, "a fault id not used before in the table (line " + std::to_string(first->second) +
+                                     " has it)", t.where(row, c_id));
     geometry::Point2 centre{plain_number(t, row, c_x), plain_number(t, row, c_y)};
     try {
       centre = to_working(centre, "fault centre");
+      if (std::abs(centre.x) > geometry::kMaxCoordinateM || std::abs(centre.y) > geometry::kMaxCoordinateM)
+        throw InputError("fault centre", geometry::point_text(centre) + " in the working CRS",
+                         "projected coordinates within 1e8 m of the origin (no place on Earth is farther)");
     } catch (const InputError& e) {
       throw e.located(t.where(row));
     }
@@ -73,20 +77,27 @@ std::vector<FaultSegment> read_fault_table(const std::filesystem::path& path, co
     if (!(dip > 0 && dip <= 1.5707963267948966 + 1e-12))
       throw InputError("dip", util::trim(row.fields[c_dip]), "a dip in (0, 90] degrees", t.where(row, c_dip));
     const double length = cell_quantity(t, row, c_len, units::Dimension::length);
-    if (!(length > 0)) throw InputError("length", util::trim(row.fields[c_len]), "a length > 0", t.where(row, c_len));
+    if (!(length > 0 && length <= geometry::kMaxTraceLengthM))
+      throw InputError("length", util::trim(row.fields[c_len]), "a fault length > 0 and at most 1000 km",
+                       t.where(row, c_len));
     std::optional<double> mu;
     if (c_mu && !util::trim(row.fields[*c_mu]).empty()) {
       mu = plain_number(t, row, *c_mu);
       if (!(*mu > 0)) throw InputError("friction", util::trim(row.fields[*c_mu]), "a friction > 0", t.where(row, *c_mu));
     }
     // The table's strike is a true azimuth; the map works in grid azimuths (+ convergence).
-    const double strike_grid = strike_true + grid_convergence_rad(working, centre);
     std::vector<geometry::TraceSegment> pieces;
+    double strike_grid = 0.0;
     try {
-      pieces = geometry::split_trace(geometry::straight_trace(centre, strike_grid, length), max_segment_length_m,
-                                     check_points);
+      strike_grid = strike_true + grid_convergence_rad(working, centre);
+      const std::vector<geometry::Point2> trace = geometry::straight_trace(centre, strike_grid, length);
+      if (out.size() + geometry::segment_count(trace, max_segment_length_m) > kMaxSegmentsPerMap)
+        throw InputError("segments", "more than " + std::to_string(kMaxSegmentsPerMap) + " by this fault",
+                         "at most " + std::to_string(kMaxSegmentsPerMap) +
+                             " segments in a fault map (a longer segment_length gives fewer)");
+      pieces = geometry::split_trace(trace, max_segment_length_m, check_points);
     } catch (const InputError& e) {
-      throw e.located(t.where(row));
+      throw e.located(t.where(row) + " (fault '" + id + "')");
     }
     for (auto& piece : pieces) {
       FaultSegment s;

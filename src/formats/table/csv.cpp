@@ -7,7 +7,9 @@
 #include <sstream>
 
 #include "core/util/trim.hpp"
+#include "core/util/utf8.hpp"
 #include "core/errors.hpp"
+#include "formats/files/input_file.hpp"
 
 namespace slipscreen::formats {
 
@@ -22,7 +24,21 @@ std::string lower(std::string_view s) {
 
 InputError csv_error(const std::string& file, std::size_t line, const std::string& field,
                      const std::string& value, const std::string& expected) {
-  return InputError(field, value, expected, file + " line " + std::to_string(line));
+  return InputError(field, util::printable(value), expected, file + " line " + std::to_string(line));
+}
+
+constexpr const char* kTextExpected = "UTF-8 text without control characters";
+
+// Text read from the file is checked where it is read: valid UTF-8, no NUL or other control
+// character (core/util/utf8.hpp), so nothing later meets a byte it cannot show.
+void check_text(std::string_view text, const std::string& where, const std::string& field) {
+  const auto problem = util::text_problem(text);
+  if (!problem) return;
+  const bool encoding = problem->find("UTF-8") != std::string::npos;
+  throw InputError(field, util::printable(text),
+                   std::string(kTextExpected) + " (" + *problem + "; " +
+                       (encoding ? "save the file as UTF-8" : "the file may be damaged, or not a text file") + ")",
+                   where);
 }
 
 // A position in the text being parsed, with its 1-based line number.
@@ -36,7 +52,7 @@ struct Cursor {
 
 // At the start of a record: skips a blank line, or a comment line (its text goes to `comments`).
 // False when a record starts here.
-bool skip_blank_or_comment(Cursor& c, std::vector<std::string>& comments) {
+bool skip_blank_or_comment(Cursor& c, std::vector<std::string>& comments, const std::string& file) {
   const std::string_view text = c.text;
   if (text[c.i] == '\n' || (text[c.i] == '\r' && c.i + 1 < text.size() && text[c.i + 1] == '\n')) {
     c.i += text[c.i] == '\r' ? 2 : 1;
@@ -46,6 +62,7 @@ bool skip_blank_or_comment(Cursor& c, std::vector<std::string>& comments) {
   if (text[c.i] != '#') return false;
   const auto end = text.find('\n', c.i);
   comments.push_back(util::trim(text.substr(c.i + 1, (end == std::string_view::npos ? text.size() : end) - c.i - 1)));
+  check_text(comments.back(), file + " line " + std::to_string(c.line), "comment");
   if (end == std::string_view::npos) {
     c.i = text.size();  // a comment on the last line, without a line end
   } else {
@@ -162,9 +179,12 @@ CsvTable parse_csv(std::string_view text, const std::string& file) {
   Cursor c{text};
   bool have_header = false;
   while (c.i < text.size()) {
-    if (skip_blank_or_comment(c, table.comments)) continue;
+    if (skip_blank_or_comment(c, table.comments, file)) continue;
     CsvRow row = read_record(c, file);
     if (!have_header) {
+      for (std::size_t col = 0; col < row.fields.size(); ++col)
+        check_text(row.fields[col], file + " line " + std::to_string(row.line) + ", column " + std::to_string(col + 1),
+                   "header column " + std::to_string(col + 1));
       check_header(row, file);
       table.header = std::move(row.fields);
       table.header_line = row.line;
@@ -173,6 +193,8 @@ CsvTable parse_csv(std::string_view text, const std::string& file) {
       if (row.fields.size() != table.header.size())
         throw csv_error(file, row.line, "row", std::to_string(row.fields.size()) + " fields",
                         std::to_string(table.header.size()) + " fields, as in the header");
+      for (std::size_t col = 0; col < row.fields.size(); ++col)
+        check_text(row.fields[col], table.where(row, col), split_header_unit(table.header[col]).name);
       table.rows.push_back(std::move(row));
     }
   }
@@ -181,6 +203,7 @@ CsvTable parse_csv(std::string_view text, const std::string& file) {
 }
 
 CsvTable read_csv(const std::filesystem::path& path, const std::string& file) {
+  require_input_file(path, file);
   std::ifstream in(path, std::ios::binary);
   if (!in) throw IoError(file + ": cannot open the file for reading");
   std::ostringstream ss;

@@ -3,6 +3,7 @@
 #include <chrono>
 #include <cmath>
 #include <cstdio>
+#include <string>
 
 #include "core/errors.hpp"
 
@@ -29,12 +30,33 @@ struct Cursor {
   }
 };
 
+constexpr const char* kMonthNames[] = {"January", "February", "March",     "April",   "May",      "June",
+                                       "July",    "August",   "September", "October", "November", "December"};
+
 }  // namespace
+
+std::optional<std::string> impossible_date_reason(std::string_view text) {
+  while (!text.empty() && (text.front() == ' ' || text.front() == '\t')) text.remove_prefix(1);
+  Cursor c{text};
+  int y = 0, mo = 0, d = 0;
+  if (!c.digits(4, y) || !c.expect('-') || !c.digits(2, mo) || !c.expect('-') || !c.digits(2, d)) return std::nullopt;
+  if (mo < 1 || mo > 12 || d < 1) return std::nullopt;  // not a calendar date at all: a format error
+  const std::chrono::year_month_day_last last{std::chrono::year{y} / std::chrono::month{static_cast<unsigned>(mo)} /
+                                              std::chrono::last};
+  const auto days = static_cast<int>(static_cast<unsigned>(last.day()));
+  if (d <= days) return std::nullopt;
+  return std::string(kMonthNames[mo - 1]) + " " + std::to_string(y) + " has " + std::to_string(days) + " days";
+}
+
+std::string date_expectation(std::string_view text, const std::string& format_expected) {
+  if (const auto reason = impossible_date_reason(text)) return "a day that exists (" + *reason + ")";
+  return format_expected;
+}
 
 double parse_iso8601_utc(std::string_view text, std::string_view field) {
   const auto fail = [&]() -> InputError {
     return InputError(std::string(field), std::string(text),
-                      "an ISO 8601 UTC time such as '2024-03-05T14:22:31.5Z' or '2024-03-05'");
+                      date_expectation(text, "an ISO 8601 UTC time such as '2024-03-05T14:22:31.5Z' or '2024-03-05'"));
   };
   while (!text.empty() && (text.front() == ' ' || text.front() == '\t')) text.remove_prefix(1);
   while (!text.empty() && (text.back() == ' ' || text.back() == '\t' || text.back() == '\r')) text.remove_suffix(1);

@@ -1,9 +1,15 @@
 #include "formats/toml/toml_section.hpp"
 
+#include <algorithm>
+#include <cmath>
+#include <fstream>
 #include <sstream>
 
 #include "core/errors.hpp"
 #include "core/util/suggest.hpp"
+#include "core/util/utf8.hpp"
+#include "formats/table/iso_time.hpp"
+#include "formats/files/input_file.hpp"
 #include "formats/files/path_policy.hpp"
 
 namespace slipscreen::formats {
@@ -21,22 +27,79 @@ std::string join_key(const std::string& prefix, std::string_view key) {
 
 }  // namespace
 
-TomlDocument parse_toml_file(const std::filesystem::path& path, const std::string& file) {
-  std::error_code ec;
-  if (!std::filesystem::is_regular_file(path, ec))
-    throw IoError(file + ": cannot open the file for reading (no such file)");
-  try {
-    return {file, path, std::make_shared<toml::table>(toml::parse_file(path.string()))};
-  } catch (const toml::parse_error& e) {
-    throw Error(ErrorCategory::input, toml_where(file, e.source()) + ": TOML syntax: " + std::string(e.description()));
+namespace {
+
+// Line `line` (1-based) of `text`, without its line end.
+std::string_view line_of(std::string_view text, std::size_t line) {
+  std::size_t start = 0;
+  for (std::size_t l = 1; l < line && start != std::string_view::npos; ++l) {
+    start = text.find('\n', start);
+    if (start != std::string_view::npos) ++start;
   }
+  if (start == std::string_view::npos || start > text.size()) return {};
+  const std::size_t end = text.find('\n', start);
+  std::string_view l = text.substr(start, end == std::string_view::npos ? std::string_view::npos : end - start);
+  if (!l.empty() && l.back() == '\r') l.remove_suffix(1);
+  return l;
+}
+
+// The first date "YYYY-MM-DD" on the line that names no real day, and why.
+std::optional<std::string> impossible_date_on(std::string_view line) {
+  for (std::size_t i = 0; i + 10 <= line.size(); ++i)
+    if (const auto reason = impossible_date_reason(line.substr(i, 10)))
+      return "the date " + std::string(line.substr(i, 10)) + " does not exist: " + *reason;
+  return std::nullopt;
+}
+
+// toml++'s description of a syntax error in plain words where a common slip is recognised
+// (a string left open, a day that does not exist), else as toml++ words it.
+std::string plain_words(std::string_view description, std::string_view line) {
+  const bool in_string = description.find("parsing string") != std::string_view::npos;
+  if (in_string && description.find("end-of-file") != std::string_view::npos)
+    return "a string is not closed: its closing quote is missing before the end of the file";
+  if (in_string && description.find("control characters") != std::string_view::npos)
+    return "a string is not closed on its line: its closing quote is missing (a string on several lines "
+           "needs triple quotes)";
+  if (description.find("parsing date") != std::string_view::npos)
+    if (const auto date = impossible_date_on(line)) return *date;
+  std::string d(description);
+  if (d.rfind("Error while parsing ", 0) == 0) {
+    const auto colon = d.find(": ");
+    if (colon != std::string::npos) d = d.substr(colon + 2) + " (in a " + d.substr(20, colon - 20) + ")";
+  }
+  return "not valid TOML: " + d;
+}
+
+Error syntax_error(const std::string& file, std::string_view text, const toml::parse_error& e) {
+  const toml::source_position at = e.source().begin;
+  const std::string_view line = line_of(text, at.line);
+  std::string m = toml_where(file, e.source()) + ": " + plain_words(e.description(), line);
+  if (!line.empty() && at.column >= 1) {
+    std::string shown = util::printable(line);
+    std::replace(shown.begin(), shown.end(), '\t', ' ');
+    m += "\n    " + shown + "\n    " + std::string(std::min<std::size_t>(at.column - 1, shown.size()), ' ') + "^";
+  }
+  return Error(ErrorCategory::input, m);
+}
+
+}  // namespace
+
+TomlDocument parse_toml_file(const std::filesystem::path& path, const std::string& file) {
+  require_input_file(path, file);
+  std::ifstream in(path, std::ios::binary);
+  std::ostringstream text;
+  text << in.rdbuf();
+  if (!in || in.bad()) throw IoError(file + ": read error");
+  TomlDocument doc = parse_toml_text(text.str(), file);
+  doc.path = path;
+  return doc;
 }
 
 TomlDocument parse_toml_text(std::string_view text, const std::string& file) {
   try {
     return {file, file, std::make_shared<toml::table>(toml::parse(text, std::string_view(file)))};
   } catch (const toml::parse_error& e) {
-    throw Error(ErrorCategory::input, toml_where(file, e.source()) + ": TOML syntax: " + std::string(e.description()));
+    throw syntax_error(file, text, e);
   }
 }
 
@@ -175,14 +238,15 @@ std::optional<std::int64_t> Section::optional_integer(std::string_view key) cons
 
 std::optional<double> toml_number(const toml::node& n) {
   if (auto i = n.as_integer()) return static_cast<double>(i->get());
-  if (auto x = n.as_floating_point()) return x->get();
+  if (auto x = n.as_floating_point())
+    if (std::isfinite(x->get())) return x->get();  // TOML's nan and inf are no coordinate or magnitude
   return std::nullopt;
 }
 
 double Section::number(std::string_view key) const {
   const Found f = require(key, "a number");
   if (const auto v = toml_number(*f.node)) return *v;
-  throw InputError(key_path(f, key), toml_value_text(*f.node), "a number (without quotes)", where(f));
+  throw InputError(key_path(f, key), toml_value_text(*f.node), "a finite number (without quotes)", where(f));
 }
 
 std::vector<std::pair<std::string, std::string>> Section::string_list(std::string_view key) const {
@@ -236,10 +300,9 @@ std::filesystem::path Section::input_path(std::string_view key) const {
                        "': scenario inputs are local files (network paths are never read)");
   }
   const std::filesystem::path p = path(key);
-  std::error_code ec;
-  if (!std::filesystem::is_regular_file(p, ec)) {
+  if (const auto problem = input_file_problem(p)) {
     const Found f = *find(key);
-    throw IoError(where(f) + ": key '" + key_path(f, key) + "' = '" + string(key) + "': no such file (" +
+    throw IoError(where(f) + ": key '" + key_path(f, key) + "' = '" + string(key) + "': " + *problem + " (" +
                   p.generic_string() + ")");
   }
   return p;

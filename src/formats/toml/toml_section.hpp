@@ -70,7 +70,7 @@ class Section {
   bool boolean_or(std::string_view key, bool fallback) const;
   std::int64_t integer(std::string_view key) const;
   std::optional<std::int64_t> optional_integer(std::string_view key) const;
-  double number(std::string_view key) const;  // a plain TOML number (coordinates)
+  double number(std::string_view key) const;  // a plain, finite TOML number (coordinates)
   // An array of strings (a single string is taken as an array of one).
   std::vector<std::pair<std::string, std::string>> string_list(std::string_view key) const;  // (value, where)
   // A path string resolved against the directory of the layer that sets it.
@@ -108,7 +108,7 @@ class Section {
 // The text of a scalar TOML value for messages.
 std::string toml_value_text(const toml::node& n);
 
-// A TOML integer or float as a double; empty for any other node.
+// A TOML integer or finite float as a double; empty for any other node (nan and inf too).
 std::optional<double> toml_number(const toml::node& n);
 
 }  // namespace slipscreen::formats

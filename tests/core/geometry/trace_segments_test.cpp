@@ -107,3 +107,27 @@ TEST_CASE("a straight trace from centre, strike and length") {
   CHECK(near(segs[0].end, {1000, 1000}));
   CHECK_THROWS_AS(straight_trace({0, 0}, 0.0, 0.0), slipscreen::InputError);
 }
+
+TEST_CASE("implausible traces are refused before anything is allocated, naming the vertex") {
+  // 1e12 m: the trace a coordinate typo makes; it would be 5e8 segments at 2 km.
+  CHECK_THROWS_WITH_AS(split_trace({{0, 0}, {0, 9e7}, {9e7, 9e7}}, 2000.0, 1),
+                       doctest::Contains("field 'trace length' = '1.8e+08 m': expected a fault trace of at most 1000 km"),
+                       slipscreen::InputError);
+  CHECK_THROWS_WITH_AS(segment_count({{0, 0}, {1e12, 0}}, 2000.0), doctest::Contains("trace vertex 2"),
+                       slipscreen::InputError);
+  CHECK_THROWS_WITH_AS(split_trace({{0, 0}, {0, 1}, {-1e308, 1e308}}, 2000.0, 1),
+                       doctest::Contains("field 'trace vertex 3' = '(-1e+308, 1e+308)': expected projected coordinates"),
+                       slipscreen::InputError);
+  CHECK_THROWS_WITH_AS(split_trace({{0, 0}, {INFINITY, 1}}, 2000.0, 1),
+                       doctest::Contains("field 'trace vertex 2' = '(inf, 1)': expected finite x and y"),
+                       slipscreen::InputError);
+  // 1000 km at 1 m segments would be 1e6 segments: more than 100 000 per trace.
+  CHECK_THROWS_WITH_AS(split_trace({{0, 0}, {0, 1e6}}, 1.0, 1),
+                       doctest::Contains("field 'max_segment_length' = '1 m': expected a segment length giving at most "
+                                         "100000 segments on a trace of 1e+06 m (it gives 1e+06)"),
+                       slipscreen::InputError);
+  // The limits themselves are accepted: 1000 km in 100 000 segments of 10 m.
+  CHECK(segment_count({{0, 0}, {0, 1e6}}, 10.0) == 100000);
+  CHECK(segment_count({{0, 0}, {0, 1e6}, {0, 1e6}}, 2000.0) == 500);
+  CHECK(segment_count({{-1e8, 0}, {-1e8 + 10, 0}}, 2000.0) == 1);
+}

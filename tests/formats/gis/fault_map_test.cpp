@@ -3,6 +3,7 @@
 #include <doctest/doctest.h>
 #include <gdal_utils.h>
 #include <gdal_priv.h>
+#include <ogrsf_frmts.h>
 
 #include <cmath>
 #include <fstream>
@@ -161,7 +162,7 @@ TEST_CASE("bad fault files get one clear message") {
 
   SUBCASE("missing file") {
     CHECK_THROWS_WITH_AS(formats::read_fault_segments(dir / "nope.gpkg", utm),
-                         doctest::Contains("nope.gpkg: fault file not found"), IoError);
+                         doctest::Contains("nope.gpkg: cannot open the fault map (no such file)"), IoError);
   }
   SUBCASE("network path") {
     CHECK_THROWS_WITH_AS(formats::read_fault_segments("/vsicurl/https://example.org/faults.fgb", utm),
@@ -257,4 +258,140 @@ TEST_CASE("dip direction parsing") {
   CHECK_THROWS_AS(formats::parse_dip_direction("400", "d"), InputError);
   CHECK_THROWS_AS(formats::parse_dip_direction("north", "d"), InputError);
   CHECK_THROWS_AS(formats::parse_dip_direction("", "d"), InputError);
+}
+
+namespace {
+
+// A one-layer GeoPackage in UTM 14N written through OGR, for content GeoJSON cannot carry
+// (NaN coordinates, bytes that are not UTF-8).
+void write_gpkg(const fs::path& path, const std::string& id, const std::vector<geometry::Point2>& points) {
+  formats::ensure_gdal_registered();
+  GDALDriver* driver = GetGDALDriverManager()->GetDriverByName("GPKG");
+  REQUIRE(driver != nullptr);
+  std::unique_ptr<GDALDataset> ds(driver->Create(path.string().c_str(), 0, 0, 0, GDT_Unknown, nullptr));
+  REQUIRE(ds != nullptr);
+  OGRSpatialReference srs;
+  srs.importFromEPSG(32614);
+  OGRLayer* layer = ds->CreateLayer("faults", &srs, wkbLineString, nullptr);
+  REQUIRE(layer != nullptr);
+  OGRFieldDefn id_field("fault_id", OFTString), dip_field("dip", OFTReal);
+  REQUIRE(layer->CreateField(&id_field) == OGRERR_NONE);
+  REQUIRE(layer->CreateField(&dip_field) == OGRERR_NONE);
+  OGRFeature f(layer->GetLayerDefn());
+  f.SetField("fault_id", id.c_str());
+  f.SetField("dip", 60.0);
+  OGRLineString line;
+  for (const auto& p : points) line.addPoint(p.x, p.y);
+  f.SetGeometry(&line);
+  REQUIRE(layer->CreateFeature(&f) == OGRERR_NONE);
+}
+
+std::string two_features(const std::string& id1, const std::string& coords1, const std::string& id2,
+                         const std::string& coords2) {
+  return R"({"type": "FeatureCollection", "features": [
+    {"type": "Feature", "properties": {"fault_id": ")" + id1 + R"(", "dip": 60},
+     "geometry": {"type": "LineString", "coordinates": )" + coords1 + R"(}},
+    {"type": "Feature", "properties": {"fault_id": ")" + id2 + R"(", "dip": 60},
+     "geometry": {"type": "LineString", "coordinates": )" + coords2 + R"(}}]})";
+}
+
+}  // namespace
+
+TEST_CASE("one fault id, one feature: a repeated id names both features") {
+  test::TempDir dir("faults-dup");
+  const formats::Crs utm = formats::working_crs("EPSG:32614");
+  write_text(dir / "dup.geojson", two_features("F1", "[[-97.6, 35.9], [-97.5, 36.0]]", "F1", "[[-97.7, 35.9], [-97.6, 36.0]]"));
+  CHECK_THROWS_WITH_AS(formats::read_fault_segments(dir / "dup.geojson", utm),
+                       doctest::Contains("dup.geojson layer 'dup' feature FID 1: field 'fault_id' = 'F1': expected a "
+                                         "fault id on one feature only: FID 0 of layer 'dup' has it too"),
+                       InputError);
+  // Two pieces of one fault as one MultiLineString feature stay one fault (the first fixture).
+  write_text(dir / "ok.geojson", two_features("F1", "[[-97.6, 35.9], [-97.5, 36.0]]", "F2", "[[-97.7, 35.9], [-97.6, 36.0]]"));
+  CHECK(formats::read_fault_segments(dir / "ok.geojson", utm, options()).size() == 6);
+}
+
+TEST_CASE("a trace that folds back is refused naming the fault and the vertex, unless accepted") {
+  test::TempDir dir("faults-fold");
+  const formats::Crs utm = formats::working_crs("EPSG:32614");
+  // UTM coordinates (the file declares EPSG:32614): 4 km east, then 3.9 km back west 200 m north
+  // of it: a turn of 180 - atan(200/3900) = 177.06 degrees at vertex 2 (plain trigonometry).
+  const std::string hairpin = R"({"type": "FeatureCollection",
+    "crs": {"type": "name", "properties": {"name": "urn:ogc:def:crs:EPSG::32614"}}, "features": [
+    {"type": "Feature", "properties": {"fault_id": "HP", "dip": 60},
+     "geometry": {"type": "LineString", "coordinates": [[600000, 4000000], [604000, 4000000], [600100, 4000200]]}}]})";
+  write_text(dir / "fold.geojson", hairpin);
+  CHECK_THROWS_WITH_AS(formats::read_fault_segments(dir / "fold.geojson", utm, options()),
+                       doctest::Contains("fold.geojson layer 'fold' feature FID 0 (fault 'HP'): field 'geometry' = "
+                                         "'the trace turns back by 177.1 deg at vertex 2 of 3 (604000, 4000000)"),
+                       InputError);
+  auto o = options();
+  o.allow_folded = true;
+  CHECK(formats::read_fault_segments(dir / "fold.geojson", utm, o).size() == 2);  // 7.9 km / 5 km
+
+  // A trace whose third edge comes back across its first (turns of 90 and 135 degrees only): the
+  // edge from vertex 3 meets the edge from vertex 1 at (602000, 4000000) (plain geometry).
+  write_text(dir / "cross.geojson", R"({"type": "FeatureCollection",
+    "crs": {"type": "name", "properties": {"name": "urn:ogc:def:crs:EPSG::32614"}}, "features": [
+    {"type": "Feature", "properties": {"fault_id": "X", "dip": 60},
+     "geometry": {"type": "LineString", "coordinates": [[600000, 4000000], [604000, 4000000], [604000, 4002000], [601000, 3999000]]}}]})");
+  CHECK_THROWS_WITH_AS(formats::read_fault_segments(dir / "cross.geojson", utm, options()),
+                       doctest::Contains("(fault 'X'): field 'geometry' = 'the trace crosses itself: the edge from "
+                                         "vertex 3 of 4 meets the edge from vertex 1 at (602000, 4000000)"),
+                       InputError);
+}
+
+TEST_CASE("an empty collection has no fault features; coordinates are checked where they are read") {
+  test::TempDir dir("faults-empty");
+  const formats::Crs utm = formats::working_crs("EPSG:32614");
+  write_text(dir / "empty.geojson", R"({"type": "FeatureCollection", "features": []})");
+  CHECK_THROWS_WITH_AS(formats::read_fault_segments(dir / "empty.geojson", utm),
+                       doctest::Contains("empty.geojson: field 'features' = 'none: the fault map has no fault features"),
+                       InputError);
+
+  // Each file holds one trace with one implausible vertex or length; the message names it.
+  const auto refused = [&](const std::string& file, const std::vector<geometry::Point2>& points,
+                           const std::string& expected) {
+    CAPTURE(file);
+    write_gpkg(dir / file, "F9", points);
+    CHECK_THROWS_WITH_AS(formats::read_fault_segments(dir / file, utm), doctest::Contains(expected.c_str()), InputError);
+  };
+  refused("nan.gpkg", {{600000, 4000000}, {NAN, 4001000}},
+          "nan.gpkg layer 'faults' feature FID 1 (fault 'F9'): field 'geometry vertex 2 of 2' = '(nan, 4001000)': "
+          "expected finite x and y coordinates");
+  refused("huge.gpkg", {{600000, 4000000}, {1e308, 4001000}},
+          "huge.gpkg layer 'faults' feature FID 1 (fault 'F9'): field 'trace vertex 2' = '(1e+308, 4001000)': expected "
+          "projected coordinates within 1e8 m");
+  // 180,000 km of trace inside the coordinate bounds: refused by its length before any segment
+  // is made (it would be 180,000 segments of 1 km).
+  refused("long.gpkg", {{0, 0}, {0, 9e7}, {9e7, 9e7}},
+          "(fault 'F9'): field 'trace length' = '1.8e+08 m': expected a fault trace of at most 1000 km");
+}
+
+TEST_CASE("text from the fault map is UTF-8, checked where it is read") {
+  test::TempDir dir("faults-utf8");
+  const formats::Crs utm = formats::working_crs("EPSG:32614");
+  write_gpkg(dir / "latin1.gpkg", "Fall\xE9", {{600000, 4000000}, {601000, 4001000}});
+  CHECK_THROWS_WITH_AS(formats::read_fault_segments(dir / "latin1.gpkg", utm),
+                       doctest::Contains("latin1.gpkg layer 'faults' feature FID 1: field 'fault_id' = 'Fall\\xE9': "
+                                         "expected UTF-8 text without control characters (byte 0xE9 at position 5 "
+                                         "is not UTF-8)"),
+                       InputError);
+  write_gpkg(dir / "utf8.gpkg", "Fall\xC3\xA9", {{600000, 4000000}, {601000, 4001000}});
+  CHECK(formats::read_fault_segments(dir / "utf8.gpkg", utm).front().fault_id == "Fall\xC3\xA9");
+}
+
+TEST_CASE("a CRS the file declares but PROJ does not know is not taken as WGS 84") {
+  test::TempDir dir("faults-crs999");
+  write_text(dir / "crs.geojson", R"({"type": "FeatureCollection",
+    "crs": {"type": "name", "properties": {"name": "EPSG:999999"}}, "features": [
+    {"type": "Feature", "properties": {"fault_id": "A", "dip": 60},
+     "geometry": {"type": "LineString", "coordinates": [[600000, 4000000], [601000, 4001000]]}}]})");
+  try {
+    formats::read_fault_segments(dir / "crs.geojson", formats::working_crs("EPSG:32614"));
+    FAIL("an unknown CRS was accepted");
+  } catch (const InputError& e) {
+    const std::string m = e.what();
+    CHECK_MESSAGE(m.find("crs.geojson: field 'crs' = 'declared in the file but unknown") != std::string::npos, m);
+    CHECK_MESSAGE(m.find("WGS 84") == std::string::npos, m);
+  }
 }

@@ -48,3 +48,26 @@ TEST_CASE("bad rows of a fault table name file, line and column") {
   CHECK(is_fault_table("a/B.CSV"));
   CHECK_FALSE(is_fault_table("a/b.gpkg"));
 }
+
+TEST_CASE("implausible fault tables are refused with file, line and field") {
+  const test::TempDir dir("fault-table-plausible");
+  const Crs working = working_crs("EPSG:32708");
+  const auto read = [&](const std::string& rows) {
+    std::ofstream(dir / "t.csv") << "# crs: EPSG:32708\nid,x,y,strike [deg],dip [deg],length [km]\n" << rows;
+    return read_fault_table(dir / "t.csv", "t.csv", working, "", 1000.0, 3);
+  };
+  CHECK_THROWS_WITH_AS(read("F1,501000,6120000,45,80,6\nF2,502000,6120000,45,80,6\nF1,503000,6120000,45,80,6\n"),
+                       doctest::Contains("t.csv line 5, column 1 ('id'): field 'id' = 'F1': expected a fault id not used "
+                                         "before in the table (line 3 has it)"),
+                       InputError);
+  CHECK_THROWS_WITH_AS(read("F1,1e308,6120000,45,80,6\n"),
+                       doctest::Contains("t.csv line 3: field 'fault centre' = '(1e+308, 6120000) in the working CRS': "
+                                         "expected projected coordinates within 1e8 m"),
+                       InputError);
+  CHECK_THROWS_WITH_AS(read("F1,nan,6120000,45,80,6\n"), doctest::Contains("t.csv line 3, column 2 ('x'): field 'x' = 'nan'"),
+                       InputError);
+  CHECK_THROWS_WITH_AS(read("F1,501000,6120000,45,80,1e7\n"),
+                       doctest::Contains("t.csv line 3, column 6 ('length [km]'): field 'length' = '1e7': expected a fault "
+                                         "length > 0 and at most 1000 km"),
+                       InputError);
+}

@@ -46,3 +46,24 @@ TEST_CASE("malformed CSV names file and line") {
   CHECK_THROWS_WITH_AS(parse_csv("# only a comment\n", "x.csv"), doctest::Contains("header"), InputError);
   CHECK_THROWS_AS(read_csv("/nonexistent/file.csv", "file.csv"), IoError);
 }
+
+TEST_CASE("cells are UTF-8 without control characters, checked where they are read") {
+  // A NUL byte in a well id is blamed on this file, line and column (not on a later file whose
+  // ids no longer match).
+  const std::string nul = std::string("id,x\nW1,1\nW2\0,2\n", 17);
+  CHECK_THROWS_WITH_AS(parse_csv(nul, "wells.csv"),
+                       doctest::Contains("wells.csv line 3, column 1 ('id'): field 'id' = 'W2\\x00': expected UTF-8 "
+                                         "text without control characters (a NUL byte (0x00) at position 3"),
+                       InputError);
+  CHECK_THROWS_WITH_AS(parse_csv("id,name\nW1,Pe\xF1" "a\n", "wells.csv"),
+                       doctest::Contains("wells.csv line 2, column 2 ('name'): field 'name' = 'Pe\\xF1a': expected "
+                                         "UTF-8 text without control characters (byte 0xF1 at position 3 is not UTF-8"),
+                       InputError);
+  CHECK_THROWS_WITH_AS(parse_csv("id,t\xE9te\n", "h.csv"), doctest::Contains("h.csv line 1, column 2"), InputError);
+  CHECK_THROWS_WITH_AS(parse_csv("# crs: EPSG\x01\nid\n", "c.csv"), doctest::Contains("c.csv line 1: field 'comment'"),
+                       InputError);
+  // UTF-8 text, tabs and line breaks inside quotes are fine.
+  const CsvTable t = parse_csv("id,name\nW1,\"Pe\xC3\xB1" "a\tnorth\nside\"\n", "ok.csv");
+  REQUIRE(t.rows.size() == 1);
+  CHECK(t.rows[0].fields[1] == "Pe\xC3\xB1" "a\tnorth\nside");
+}

@@ -66,3 +66,48 @@ TEST_CASE("table_array: anything but an array of tables is refused at the key, w
         "s.toml line 1, column 23: field 'well[1]' = '2': expected a well table [[well]]");
   CHECK(refused("well = []\n", Check::each_entry).empty());
 }
+
+namespace {
+
+// The message of the Error (any category) that parsing `text` throws ("" when it throws none).
+std::string syntax_message(const std::string& text) {
+  try {
+    parse_toml_text(text, "s.toml");
+  } catch (const Error& e) {
+    CHECK(e.category() == ErrorCategory::input);
+    return e.what();
+  }
+  return "";
+}
+
+}  // namespace
+
+TEST_CASE("TOML syntax errors in plain words, with the line and a caret") {
+  // An unclosed string: its line ends inside the string.
+  const std::string open = syntax_message("title = \"fine\"\nname = \"Marrowick\nseed = 1\n");
+  CHECK_MESSAGE(open.find("s.toml line 2, column 18: a string is not closed on its line: its closing quote is "
+                          "missing") != std::string::npos,
+                open);
+  CHECK_MESSAGE(open.find("\n    name = \"Marrowick\n                     ^") != std::string::npos, open);
+  CHECK(syntax_message("name = \"Marrowick").find("a string is not closed: its closing quote is missing before the end "
+                                                  "of the file") != std::string::npos);
+  // A TOML date that does not exist (Gregorian calendar, common practice).
+  const std::string date = syntax_message("[times]\ndates = [2027-01-01, 2027-02-30]\n");
+  CHECK_MESSAGE(date.find("s.toml line 2, column") != std::string::npos, date);
+  CHECK_MESSAGE(date.find("the date 2027-02-30 does not exist: February 2027 has 28 days") != std::string::npos, date);
+  // Anything else keeps toml++'s reason, without its "Error while parsing" frame.
+  const std::string other = syntax_message("seed = = 42\n");
+  CHECK_MESSAGE(other.find("s.toml line 1, column") != std::string::npos, other);
+  CHECK_MESSAGE(other.find("not valid TOML: ") != std::string::npos, other);
+  CHECK_MESSAGE(other.find("Error while parsing") == std::string::npos, other);
+}
+
+TEST_CASE("TOML's nan and inf are not numbers for a coordinate") {
+  const TomlDocument doc = parse_toml_text("x = nan\ny = -inf\nz = 1e300\nn = 7\n", "s.toml");
+  const Section s({{doc.root.get(), "s.toml", "well", "."}});
+  CHECK(input_error([&] { s.number("x"); }) == "s.toml line 1, column 5: field 'well.x' = 'nan': expected a finite number "
+                                                "(without quotes)");
+  CHECK(input_error([&] { s.number("y"); }).find("field 'well.y' = '-inf'") != std::string::npos);
+  CHECK(s.number("z") == 1e300);
+  CHECK(s.number("n") == 7.0);
+}
