@@ -104,7 +104,7 @@ TEST_CASE("every scenario quantity is refused outside its range, with the value 
       {"scenario.toml", "extent = [494000.0, 6116000.0, 506000.0, 6126000.0]", "extent = [494000.0, 6116000.0, inf, 6126000.0]",
        "field 'output.grid.extent'"},
       // coordinates
-      {"scenario.toml", "x = 501500.0", "x = nan", "field 'proposed_well[0].x' = 'nan': expected a projected coordinate"},
+      {"scenario.toml", "x = 501500.0", "x = nan", "field 'proposed_well[0].x' = 'nan': expected a finite number"},
       {"scenario.toml", "y = 6119000.0", "y = 1e308", "field 'proposed_well[0].y' = '1e+308': expected a projected coordinate"},
       {"scenario.toml", "x = 501500.0\ny = 6119000.0", "x = 135.0182\ny = -35.0871",
        "field 'proposed_well[0].x' = '135.0182, -35.0871': expected x and y in EPSG:32708 (a projected CRS): |x| <= 180 and |y| <= 90 look like longitude and latitude"},
