@@ -4,6 +4,7 @@
 #include <optional>
 
 #include "core/errors.hpp"
+#include "formats/files/input_file.hpp"
 #include "core/util/trim.hpp"
 #include "formats/table/csv_fields.hpp"
 
@@ -43,6 +44,7 @@ void read_row(const std::string& line, std::size_t lineno, const std::string& wh
 }  // namespace
 
 CatalogReadResult read_catalog_csv(const std::string& path, const CatalogColumns& cols) {
+  if (auto problem = input_file_problem(path)) throw IoError("cannot read catalog file '" + path + "': " + *problem);
   std::ifstream in(path);
   if (!in) throw IoError("cannot read catalog file '" + path + "'");
   CatalogReadResult r;

@@ -6,6 +6,7 @@
 #include <optional>
 
 #include "core/errors.hpp"
+#include "formats/files/input_file.hpp"
 #include "core/util/trim.hpp"
 #include "formats/catalog/catalog_columns.hpp"
 
@@ -44,6 +45,7 @@ bool is_fdsn_text_header(std::string_view line) {
 }
 
 CatalogReadResult read_catalog_fdsn_text(const std::string& path) {
+  if (auto problem = input_file_problem(path)) throw IoError("cannot read catalog file '" + path + "': " + *problem);
   std::ifstream in(path);
   if (!in) throw IoError("cannot read catalog file '" + path + "'");
   CatalogReadResult r;

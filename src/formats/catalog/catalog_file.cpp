@@ -6,6 +6,7 @@
 #include <fstream>
 
 #include "core/errors.hpp"
+#include "formats/files/input_file.hpp"
 #include "core/util/trim.hpp"
 #include "formats/catalog/catalog_fdsn_text.hpp"
 #include "formats/catalog/catalog_quakeml.hpp"
@@ -15,6 +16,7 @@ namespace {
 
 // The first non-blank line of the file (without a UTF-8 byte-order mark).
 std::string first_line(const std::string& path) {
+  if (auto problem = input_file_problem(path)) throw IoError("cannot read catalog file '" + path + "': " + *problem);
   std::ifstream in(path);
   if (!in) throw IoError("cannot read catalog file '" + path + "'");
   std::string line;

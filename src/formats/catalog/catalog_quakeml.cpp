@@ -10,6 +10,7 @@
 #include <sstream>
 
 #include "core/errors.hpp"
+#include "formats/files/input_file.hpp"
 #include "formats/catalog/catalog_records.hpp"
 #include "formats/table/iso_time.hpp"
 
@@ -82,6 +83,7 @@ pugi::xml_node preferred(const std::vector<pugi::xml_node>& items, const std::st
 }
 
 std::string read_whole_file(const std::string& path) {
+  if (auto problem = input_file_problem(path)) throw IoError("cannot read catalog file '" + path + "': " + *problem);
   std::ifstream in(path, std::ios::binary);
   if (!in) throw IoError("cannot read catalog file '" + path + "'");
   std::stringstream ss;

@@ -3,6 +3,7 @@
 #include <fstream>
 
 #include "core/errors.hpp"
+#include "formats/files/input_file.hpp"
 #include "core/units/units.hpp"
 #include "formats/table/csv_fields.hpp"
 #include "formats/table/iso_time.hpp"
@@ -10,6 +11,7 @@
 namespace slipscreen::formats {
 
 seismo::VolumeHistory read_volume_history_csv(const std::string& path) {
+  if (auto problem = input_file_problem(path)) throw IoError("cannot read volume history '" + path + "': " + *problem);
   std::ifstream in(path);
   if (!in) throw IoError("cannot read volume history '" + path + "'");
   seismo::VolumeHistory h;
