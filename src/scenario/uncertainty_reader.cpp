@@ -174,7 +174,8 @@ void read_stress(const formats::Section& stress, const UncertaintyContext& ctx, 
   for (const auto& layer : stress.layers()) {
     if (!layer.table) continue;
     for (const auto& [name, node] : *layer.table) {
-      const auto it = std::find_if(keys.begin(), keys.end(), [&](const StressKey& k) { return k.spec.key == name.str(); });
+      const std::string_view key = name.str();  // clang 15 cannot capture a structured binding
+      const auto it = std::find_if(keys.begin(), keys.end(), [&](const StressKey& k) { return k.spec.key == key; });
       const std::string path = "uncertainty.stress." + std::string(name.str());
       const std::string where = formats::toml_where(layer.file, node.source());
       if (it == keys.end())
