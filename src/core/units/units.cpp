@@ -223,7 +223,11 @@ double parse(std::string_view text, Dimension expected, std::string_view field) 
     throw InputError(std::string(field), std::string(s),
                      expectation + " (the unit is missing)");
   }
-  return value * lookup(unit, expected, field).to_si;
+  const double si = value * lookup(unit, expected, field).to_si;
+  if (!std::isfinite(si))
+    throw InputError(std::string(field), std::string(s),
+                     "a value that stays finite when converted to " + std::string(si_symbol(expected)) + " (this one overflows)");
+  return si;
 }
 
 double to_unit(double si_value, std::string_view unit, Dimension expected) {

@@ -46,4 +46,7 @@ TEST_CASE("unknown, missing and incompatible units are clear errors") {
   CHECK_THROWS_AS(units::parse("abc psi", Dimension::pressure, "p"), InputError);
   CHECK_THROWS_AS(units::parse("nan psi", Dimension::pressure, "p"), InputError);
   CHECK_THROWS_AS(units::parse("", Dimension::pressure, "p"), InputError);
+  // A finite number whose SI value overflows (1e308 km is 1e311 m) is refused, not returned as inf.
+  CHECK_THROWS_WITH_AS(units::parse("1e308 km", Dimension::length, "depth"),
+                       doctest::Contains("field 'depth' = '1e308 km'"), InputError);
 }
