@@ -238,6 +238,8 @@ std::optional<std::string> CatalogTableLayout::read_event(const std::vector<std:
   if (depth_.index && !f[*depth_.index].empty()) {
     const std::string& cell = f[*depth_.index];
     if (const auto v = parse_number(cell)) {
+      if (!std::isfinite(*v * depth_factor_))
+        return "field '" + depth_.name + "' = '" + cell + "': expected a depth that stays finite in metres";
       e.depth = *v * depth_factor_;
     } else {
       try {  // a cell may state its own unit ("4100 m")
