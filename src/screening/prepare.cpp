@@ -212,8 +212,9 @@ screen::ScreenInputs screen_inputs(const scenario::ResolvedScenario& s, const Pr
     for (double t : sw.history.start_times()) changes.push_back(t);
     in.wells.push_back(std::move(sw));
   }
+  const formats::MeridianConvergence convergence(run.working);
   for (const auto& seg : run.segments) {
-    const double conv = formats::grid_convergence_rad(run.working, seg.trace.centre);
+    const double conv = convergence(seg.trace.centre);
     in.segments.push_back({seg.segment_id, seg.strike_rad - conv, seg.dip_rad, seg.trace.check_points, seg.friction});
   }
   in.output_times = s.output.times;

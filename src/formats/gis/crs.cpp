@@ -135,19 +135,30 @@ void Transformer::apply(std::vector<geometry::Point2>& points, std::string_view 
   for (std::size_t i = 0; i < points.size(); ++i) points[i] = {xs[i], ys[i]};
 }
 
-double grid_convergence_rad(const Crs& crs, geometry::Point2 p) {
+namespace {
+Crs geographic_of(const Crs& crs) {
   if (!crs.is_projected())
     throw InputError("crs", crs.name(), "a projected CRS to compute the meridian convergence");
   OGRSpatialReference geog;
   geog.CopyGeogCSFrom(&crs.osr());
-  const Crs g = Crs::from_osr(geog);
-  const Transformer to_geo(crs, g), to_grid(g, crs);
-  geometry::Point2 ll = to_geo(p, "convergence point");
+  return Crs::from_osr(geog);
+}
+}  // namespace
+
+MeridianConvergence::MeridianConvergence(const Crs& crs) : MeridianConvergence(crs, geographic_of(crs)) {}
+
+MeridianConvergence::MeridianConvergence(const Crs& crs, const Crs& geographic)
+    : to_geo_(crs, geographic), to_grid_(geographic, crs) {}
+
+double MeridianConvergence::operator()(geometry::Point2 p) const {
+  geometry::Point2 ll = to_geo_(p, "convergence point");
   ll.y += 1e-5;  // degrees north along the meridian
-  const geometry::Point2 q = to_grid(ll, "convergence point");
+  const geometry::Point2 q = to_grid_(ll, "convergence point");
   double a = geometry::azimuth(p, q);
   if (a > std::numbers::pi) a -= 2.0 * std::numbers::pi;
   return a;
 }
+
+double grid_convergence_rad(const Crs& crs, geometry::Point2 p) { return MeridianConvergence(crs)(p); }
 
 }  // namespace slipscreen::formats
