@@ -1,4 +1,5 @@
-// Fuzz target: a catalog CSV with its column mapping (formats/catalog/catalog_csv.hpp).
+// Fuzz target: a catalog table with its column mapping (formats/catalog/catalog_file.hpp): CSV
+// (catalog_csv.hpp, catalog_columns.hpp) or, by its header line, the FDSN event text format.
 // Input: "<catalog.csv>" (default columns) or "<mapping>\n%%%%\n<catalog.csv>" with the mapping
 // text as written after --columns ("time=origin_time;lat=lat_deg;..."; fuzz_support.hpp).
 // Promise checked beyond the typed errors: every accepted event has finite numbers (the reader

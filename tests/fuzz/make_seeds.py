@@ -93,8 +93,11 @@ def catalog_seeds():
     event_id_columns = b"id=event_id;time=origin_time;depth=depth_km"
     for name in ["fixture_catalog", "bad_rows", "empty"]:
         write("catalog_csv", name, event_id_columns + SEP + read(f"tests/data/catalog/{name}.csv"))
-    for name in ["bom_latin1", "unknown_type"]:
-        write("catalog_csv", name, read(f"tests/data/catalog/{name}.csv"))
+    # The rest with the default columns (common header spellings) or, for FDSN text, none.
+    for path in sorted((ROOT / "tests/data/catalog").glob("*")):
+        if path.suffix in (".csv", ".txt") and path.stem not in ("fixture_catalog", "bad_rows", "empty",
+                                                                 "volume_history"):
+            write("catalog_csv", path.stem, path.read_bytes())
     write("catalog_csv", "demo-head", head_lines(read("catalogs/demo/demo_catalog.csv"), 40))
     write("catalog_csv", "projected", b"x=x;y=y;crs=EPSG:32708;depth_unit=m" + SEP + PROJECTED_CATALOG)
     write("catalog_csv", "semicolon",
