@@ -22,6 +22,7 @@
 
 #include "core/errors.hpp"
 #include "core/seismo/catalog.hpp"
+#include "core/units/units.hpp"
 
 namespace slipscreen::fuzz {
 
@@ -44,6 +45,12 @@ int expect_typed_errors(Read&& read) {
     }
   }
   return 0;
+}
+
+// The dimension chosen by an input's first byte (units::Dimension in declaration order).
+inline units::Dimension dimension_of(std::uint8_t byte) {
+  constexpr int kDimensions = static_cast<int>(units::Dimension::inverse_time) + 1;
+  return static_cast<units::Dimension>(byte % kDimensions);
 }
 
 // A documented promise of a reader; a broken one is a finding.

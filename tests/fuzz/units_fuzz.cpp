@@ -8,13 +8,9 @@
 
 using namespace slipscreen;
 
-namespace {
-constexpr int kDimensions = static_cast<int>(units::Dimension::inverse_time) + 1;
-}
-
 extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
   if (size < 1) return 0;
-  const auto dimension = static_cast<units::Dimension>(data[0] % kDimensions);
+  const units::Dimension dimension = fuzz::dimension_of(data[0]);
   const std::string_view text = fuzz::as_text(data + 1, size - 1);
   return fuzz::expect_typed_errors([&] {
     const double si = units::parse(text, dimension, "fuzz");
