@@ -1,0 +1,334 @@
+#include "formats/drawing/canvas.hpp"
+
+#include <cairo-pdf.h>
+#include <cairo-svg.h>
+#include <cairo.h>
+#include <pango/pangocairo.h>
+
+#include <cmath>
+#include <numbers>
+
+#include "core/errors.hpp"
+#include "formats/files/text_file.hpp"
+
+namespace slipscreen::formats {
+
+struct Canvas::Impl {
+  cairo_surface_t* surface = nullptr;  // the output surface (SVG, PDF) or the PNG's image
+  cairo_t* cr = nullptr;
+  std::string bytes;
+  bool finished = false;
+
+  ~Impl() {
+    if (cr) cairo_destroy(cr);
+    if (surface) cairo_surface_destroy(surface);
+  }
+
+  static cairo_status_t append(void* closure, const unsigned char* data, unsigned int length) {
+    static_cast<Impl*>(closure)->bytes.append(reinterpret_cast<const char*>(data), length);
+    return CAIRO_STATUS_SUCCESS;
+  }
+
+  void check(const char* what) const {
+    const cairo_status_t s = cr ? cairo_status(cr) : cairo_surface_status(surface);
+    if (s != CAIRO_STATUS_SUCCESS)
+      throw IoError(std::string("drawing failed while ") + what + ": " + cairo_status_to_string(s));
+  }
+  void alive() const {
+    if (finished) throw std::logic_error("Canvas: drawing after finish()");
+  }
+};
+
+namespace {
+
+void set_colour(cairo_t* cr, const Colour& c) { cairo_set_source_rgba(cr, c.r, c.g, c.b, c.a); }
+
+void set_stroke(cairo_t* cr, const Stroke& s) {
+  set_colour(cr, s.colour);
+  cairo_set_line_width(cr, s.width);
+  cairo_set_line_join(cr, CAIRO_LINE_JOIN_ROUND);
+  cairo_set_line_cap(cr, CAIRO_LINE_CAP_BUTT);
+  cairo_set_dash(cr, s.dash.empty() ? nullptr : s.dash.data(), static_cast<int>(s.dash.size()), 0);
+}
+
+void fill_and_outline(cairo_t* cr, const std::optional<Colour>& fill, const std::optional<Stroke>& outline) {
+  if (fill) {
+    set_colour(cr, *fill);
+    if (outline) cairo_fill_preserve(cr); else cairo_fill(cr);
+  }
+  if (outline) {
+    set_stroke(cr, *outline);
+    cairo_stroke(cr);
+  }
+  cairo_new_path(cr);
+}
+
+void trace(cairo_t* cr, const std::vector<Point>& points) {
+  for (std::size_t i = 0; i < points.size(); ++i)
+    if (i == 0) cairo_move_to(cr, points[i].x, points[i].y); else cairo_line_to(cr, points[i].x, points[i].y);
+}
+
+// A Pango layout for `markup`; the caller unrefs it.
+PangoLayout* make_layout(cairo_t* cr, std::string_view markup, const TextStyle& st) {
+  PangoLayout* layout = pango_cairo_create_layout(cr);
+  PangoFontDescription* font = pango_font_description_new();
+  pango_font_description_set_family(font, "DejaVu Sans");
+  pango_font_description_set_absolute_size(font, st.size * PANGO_SCALE);
+  pango_font_description_set_weight(font, st.bold ? PANGO_WEIGHT_BOLD : PANGO_WEIGHT_NORMAL);
+  pango_font_description_set_style(font, st.italic ? PANGO_STYLE_ITALIC : PANGO_STYLE_NORMAL);
+  pango_layout_set_font_description(layout, font);
+  pango_font_description_free(font);
+  // Metrics independent of the surface's hinting, so SVG, PNG and PDF lay text out alike.
+  PangoContext* context = pango_layout_get_context(layout);
+  cairo_font_options_t* options = cairo_font_options_create();
+  cairo_font_options_set_hint_metrics(options, CAIRO_HINT_METRICS_OFF);
+  cairo_font_options_set_hint_style(options, CAIRO_HINT_STYLE_NONE);
+  pango_cairo_context_set_font_options(context, options);
+  cairo_font_options_destroy(options);
+  pango_layout_context_changed(layout);
+  if (st.wrap_width > 0) {
+    pango_layout_set_width(layout, static_cast<int>(st.wrap_width * PANGO_SCALE));
+    pango_layout_set_wrap(layout, PANGO_WRAP_WORD_CHAR);
+  }
+  pango_layout_set_alignment(layout, st.h == HAlign::centre  ? PANGO_ALIGN_CENTER
+                                     : st.h == HAlign::right ? PANGO_ALIGN_RIGHT
+                                                             : PANGO_ALIGN_LEFT);
+  GError* error = nullptr;
+  const std::string text(markup);
+  if (!pango_parse_markup(text.c_str(), -1, 0, nullptr, nullptr, nullptr, &error)) {
+    const std::string why = error ? error->message : "unknown";
+    if (error) g_error_free(error);
+    g_object_unref(layout);
+    // Markup is built by the program from escaped text: a parse failure is a bug, not bad input.
+    throw std::logic_error("figure text is not valid Pango markup (" + why + "): " + text);
+  }
+  pango_layout_set_markup(layout, text.c_str(), -1);
+  return layout;
+}
+
+}  // namespace
+
+std::string markup_escape(std::string_view text) {
+  std::string out;
+  out.reserve(text.size());
+  for (char c : text) {
+    switch (c) {
+      case '&': out += "&amp;"; break;
+      case '<': out += "&lt;"; break;
+      case '>': out += "&gt;"; break;
+      case '\'': out += "&apos;"; break;
+      case '"': out += "&quot;"; break;
+      default: out += c;
+    }
+  }
+  return out;
+}
+
+Canvas::Canvas(DrawingFormat format, double width_pt, double height_pt, double png_dpi,
+               const std::string& pdf_creation_date)
+    : impl_(std::make_unique<Impl>()), format_(format), width_(width_pt), height_(height_pt) {
+  if (!(width_pt > 0 && height_pt > 0 && width_pt < 1e5 && height_pt < 1e5))
+    throw std::logic_error("Canvas: size out of range");
+  switch (format) {
+    case DrawingFormat::svg:
+      impl_->surface = cairo_svg_surface_create_for_stream(&Impl::append, impl_.get(), width_pt, height_pt);
+      if (cairo_surface_status(impl_->surface) == CAIRO_STATUS_SUCCESS) {
+        cairo_svg_surface_restrict_to_version(impl_->surface, CAIRO_SVG_VERSION_1_1);
+        cairo_svg_surface_set_document_unit(impl_->surface, CAIRO_SVG_UNIT_PT);
+      }
+      break;
+    case DrawingFormat::pdf:
+      impl_->surface = cairo_pdf_surface_create_for_stream(&Impl::append, impl_.get(), width_pt, height_pt);
+      if (cairo_surface_status(impl_->surface) == CAIRO_STATUS_SUCCESS) {
+        // Cairo stamps the current time unless told otherwise; an empty date keeps files reproducible.
+        cairo_pdf_surface_set_metadata(impl_->surface, CAIRO_PDF_METADATA_CREATE_DATE, pdf_creation_date.c_str());
+        cairo_pdf_surface_set_metadata(impl_->surface, CAIRO_PDF_METADATA_CREATOR, "slipscreen");
+      }
+      break;
+    case DrawingFormat::png: {
+      const double scale = png_dpi / 72.0;
+      const int w = static_cast<int>(std::ceil(width_pt * scale));
+      const int h = static_cast<int>(std::ceil(height_pt * scale));
+      impl_->surface = cairo_image_surface_create(CAIRO_FORMAT_ARGB32, w, h);
+      impl_->cr = cairo_create(impl_->surface);
+      impl_->check("creating the PNG image");
+      cairo_set_source_rgb(impl_->cr, 1, 1, 1);
+      cairo_paint(impl_->cr);
+      cairo_scale(impl_->cr, scale, scale);
+      break;
+    }
+  }
+  if (!impl_->cr) {
+    impl_->check("creating the drawing surface");
+    impl_->cr = cairo_create(impl_->surface);
+  }
+  impl_->check("starting the drawing");
+}
+
+Canvas::~Canvas() = default;
+
+void Canvas::line(const std::vector<Point>& points, const Stroke& s) {
+  impl_->alive();
+  if (points.size() < 2) return;
+  trace(impl_->cr, points);
+  fill_and_outline(impl_->cr, std::nullopt, s);
+}
+
+void Canvas::polygon(const std::vector<Point>& points, std::optional<Colour> fill, std::optional<Stroke> outline) {
+  rings({points}, fill, outline);
+}
+
+void Canvas::rings(const std::vector<std::vector<Point>>& rings, std::optional<Colour> fill,
+                   std::optional<Stroke> outline) {
+  impl_->alive();
+  cairo_set_fill_rule(impl_->cr, CAIRO_FILL_RULE_EVEN_ODD);
+  for (const auto& r : rings) {
+    if (r.size() < 3) continue;
+    trace(impl_->cr, r);
+    cairo_close_path(impl_->cr);
+  }
+  fill_and_outline(impl_->cr, fill, outline);
+}
+
+void Canvas::rectangle(const Box& b, std::optional<Colour> fill, std::optional<Stroke> outline) {
+  impl_->alive();
+  cairo_rectangle(impl_->cr, b.x, b.y, b.w, b.h);
+  fill_and_outline(impl_->cr, fill, outline);
+}
+
+void Canvas::circle(Point centre, double radius, std::optional<Colour> fill, std::optional<Stroke> outline) {
+  impl_->alive();
+  cairo_new_sub_path(impl_->cr);
+  cairo_arc(impl_->cr, centre.x, centre.y, radius, 0, 2 * std::numbers::pi);
+  fill_and_outline(impl_->cr, fill, outline);
+}
+
+Box Canvas::measure(std::string_view markup, const TextStyle& style) {
+  impl_->alive();
+  PangoLayout* layout = make_layout(impl_->cr, markup, style);
+  PangoRectangle logical;
+  pango_layout_get_extents(layout, nullptr, &logical);
+  g_object_unref(layout);
+  return {0, 0, static_cast<double>(logical.width) / PANGO_SCALE, static_cast<double>(logical.height) / PANGO_SCALE};
+}
+
+Box Canvas::text(Point at, std::string_view markup, const TextStyle& style) {
+  impl_->alive();
+  cairo_t* cr = impl_->cr;
+  PangoLayout* layout = make_layout(cr, markup, style);
+  PangoRectangle logical;
+  pango_layout_get_extents(layout, nullptr, &logical);
+  const double w = static_cast<double>(logical.width) / PANGO_SCALE;
+  const double h = static_cast<double>(logical.height) / PANGO_SCALE;
+  const double baseline = static_cast<double>(pango_layout_get_baseline(layout)) / PANGO_SCALE;
+  const double box_w = style.wrap_width > 0 ? style.wrap_width : w;
+  double dx = style.h == HAlign::left ? 0 : style.h == HAlign::centre ? -box_w / 2 : -box_w;
+  double dy = 0;
+  switch (style.v) {
+    case VAlign::top: dy = 0; break;
+    case VAlign::middle: dy = -h / 2; break;
+    case VAlign::baseline: dy = -baseline; break;
+    case VAlign::bottom: dy = -h; break;
+  }
+  cairo_save(cr);
+  cairo_translate(cr, at.x, at.y);
+  if (style.angle_deg != 0) cairo_rotate(cr, -style.angle_deg * std::numbers::pi / 180.0);
+  cairo_move_to(cr, dx, dy);
+  set_colour(cr, style.colour);
+  pango_cairo_show_layout(cr, layout);
+  cairo_restore(cr);
+  g_object_unref(layout);
+  impl_->check("drawing text");
+  return {at.x + dx, at.y + dy, box_w, h};
+}
+
+void Canvas::image(const Image& img, const Box& into) {
+  impl_->alive();
+  if (img.width <= 0 || img.height <= 0 ||
+      img.rgba.size() != 4u * static_cast<std::size_t>(img.width) * static_cast<std::size_t>(img.height))
+    throw std::logic_error("Canvas::image: size does not match the pixels");
+  cairo_surface_t* s = cairo_image_surface_create(CAIRO_FORMAT_ARGB32, img.width, img.height);
+  if (cairo_surface_status(s) != CAIRO_STATUS_SUCCESS) {
+    cairo_surface_destroy(s);
+    throw IoError("drawing failed: could not hold an image of " + std::to_string(img.width) + " x " +
+                  std::to_string(img.height) + " pixels");
+  }
+  cairo_surface_flush(s);
+  unsigned char* data = cairo_image_surface_get_data(s);
+  const int stride = cairo_image_surface_get_stride(s);
+  for (int row = 0; row < img.height; ++row) {
+    auto* out = reinterpret_cast<std::uint32_t*>(data + static_cast<std::ptrdiff_t>(row) * stride);
+    for (int col = 0; col < img.width; ++col) {
+      const std::size_t i = 4u * (static_cast<std::size_t>(row) * img.width + col);
+      const unsigned a = img.rgba[i + 3];
+      auto pre = [a](unsigned c) { return (c * a + 127u) / 255u; };  // Cairo stores premultiplied alpha
+      out[col] = (a << 24) | (pre(img.rgba[i]) << 16) | (pre(img.rgba[i + 1]) << 8) | pre(img.rgba[i + 2]);
+    }
+  }
+  cairo_surface_mark_dirty(s);
+  cairo_t* cr = impl_->cr;
+  cairo_save(cr);
+  cairo_rectangle(cr, into.x, into.y, into.w, into.h);
+  cairo_clip(cr);
+  cairo_translate(cr, into.x, into.y);
+  cairo_scale(cr, into.w / img.width, into.h / img.height);
+  cairo_set_source_surface(cr, s, 0, 0);
+  cairo_pattern_set_filter(cairo_get_source(cr), CAIRO_FILTER_NEAREST);
+  cairo_paint(cr);
+  cairo_restore(cr);
+  cairo_surface_destroy(s);
+  impl_->check("drawing an image");
+}
+
+void Canvas::begin_group(Point origin, double scale) {
+  impl_->alive();
+  cairo_save(impl_->cr);
+  cairo_translate(impl_->cr, origin.x, origin.y);
+  cairo_scale(impl_->cr, scale, scale);
+}
+
+void Canvas::end_group() {
+  impl_->alive();
+  cairo_restore(impl_->cr);
+}
+
+void Canvas::clip(const Box& b) {
+  impl_->alive();
+  cairo_save(impl_->cr);
+  cairo_rectangle(impl_->cr, b.x, b.y, b.w, b.h);
+  cairo_clip(impl_->cr);
+}
+
+void Canvas::unclip() {
+  impl_->alive();
+  cairo_restore(impl_->cr);
+}
+
+void Canvas::next_page() {
+  impl_->alive();
+  if (format_ != DrawingFormat::pdf) throw std::logic_error("Canvas::next_page: only a PDF has pages");
+  cairo_show_page(impl_->cr);
+  ++pages_;
+  impl_->check("starting a new page");
+}
+
+const std::string& Canvas::finish() {
+  if (impl_->finished) return impl_->bytes;
+  impl_->check("finishing the drawing");
+  cairo_destroy(impl_->cr);
+  impl_->cr = nullptr;
+  if (format_ == DrawingFormat::png) {
+    cairo_surface_flush(impl_->surface);
+    const cairo_status_t s = cairo_surface_write_to_png_stream(impl_->surface, &Impl::append, impl_.get());
+    if (s != CAIRO_STATUS_SUCCESS) throw IoError(std::string("PNG encoding failed: ") + cairo_status_to_string(s));
+  } else {
+    cairo_surface_finish(impl_->surface);
+    impl_->check("writing the drawing");
+  }
+  impl_->finished = true;
+  return impl_->bytes;
+}
+
+void Canvas::save(const std::filesystem::path& path) { write_text_file(path, finish()); }
+
+}  // namespace slipscreen::formats

@@ -1,0 +1,41 @@
+#pragma once
+// A report figure (docs/report.md): what it is called, how it draws itself on any canvas, and the
+// numbers behind it. One Figure becomes figures/<name>.svg, figures/<name>.png and
+// figures/<name>.csv, is inlined as SVG in report.html and drawn on a page of report.pdf.
+//
+// A figure is built from the run folder's files only (run_table.hpp); it computes nothing the run
+// did not write, so every number it shows can be checked against a table of the run.
+#include <filesystem>
+#include <functional>
+#include <string>
+#include <vector>
+
+#include "formats/drawing/canvas.hpp"
+#include "outputs/report/plot.hpp"
+
+namespace slipscreen::outputs::report {
+
+// figures/<name>.csv: a header and rows of text fields, as they will be written.
+struct FigureData {
+  std::vector<std::string> header;
+  std::vector<std::vector<std::string>> rows;
+};
+
+struct Figure {
+  std::string name;     // file stem, [a-z0-9_]+ ("area_map", "slip_probability_curves")
+  std::string title;    // plain text, for the report's caption and the HTML alt text
+  std::string reading;  // one or two sentences: how to read it (plain text)
+  double width = kFigureWidth, height = kFigureHeight;  // points
+  // Draws the whole figure page (title, plot, legend, footer with the caution) on a canvas of
+  // width × height points, from the top-left corner.
+  std::function<void(formats::Canvas&)> draw;
+  FigureData data;
+};
+
+// Writes figures/<name>.svg, .png and .csv into `figures_dir` (checked writes).
+void write_figure_files(const Figure& f, const std::filesystem::path& figures_dir);
+
+// The figure as an SVG document (for inlining in HTML).
+std::string figure_svg(const Figure& f);
+
+}  // namespace slipscreen::outputs::report
