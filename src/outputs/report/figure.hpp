@@ -10,10 +10,19 @@
 #include <string>
 #include <vector>
 
+#include <nlohmann/json.hpp>
+
 #include "formats/drawing/canvas.hpp"
 #include "outputs/report/plot.hpp"
 
 namespace slipscreen::outputs::report {
+
+// What every figure builder reads: the finished run folder and its manifest.
+struct ReportSource {
+  std::filesystem::path folder;  // the run folder (or its staging folder while a run finishes)
+  nlohmann::json manifest;       // its manifest.json
+  std::size_t top_segments = 5;  // how many segments the "top segments" figures show
+};
 
 // figures/<name>.csv: a header and rows of text fields, as they will be written.
 struct FigureData {
