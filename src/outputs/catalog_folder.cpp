@@ -51,8 +51,8 @@ void write_catalog_folder(const formats::RunFolder& folder, const nlohmann::json
                                            "seismogenic index, forecasts, assumptions"},
                   {"catalog_events.csv", "the kept events, coordinates in " + c.crs}};
   if (rt) {
-    formats::write_text_file(folder.output("catalog", "rt_events.csv"), rt_events_csv(c, *rt));
-    formats::write_text_file(folder.output("catalog", "rt_fronts.csv"), rt_fronts_csv(*rt));
+    formats::write_text_file(folder.output("catalog", "rt_events.csv"), rt_events_csv(c, *rt, OutputUnits()));
+    formats::write_text_file(folder.output("catalog", "rt_fronts.csv"), rt_fronts_csv(*rt, OutputUnits()));
     readme.files.push_back({"rt_events.csv", rt_events_description(*rt)});
     readme.files.push_back({"rt_fronts.csv", rt_fronts_description(*rt)});
   }
