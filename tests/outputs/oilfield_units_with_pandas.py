@@ -21,12 +21,13 @@ the fictional Marrowick Basin (regions/marrowick), reduced as in read_outputs_wi
 (100 realizations, output times every 5 years) so that each run takes a few seconds.
 """
 import json
-import shutil
-import subprocess
 import sys
 from pathlib import Path
 
 import pandas as pd
+
+sys.dont_write_bytecode = True  # no __pycache__ in the source tree
+from read_outputs_with_pandas import fail, reduced_demo, run  # noqa: E402 (the shared demo copy)
 
 PSI = 6894.757293168361
 FT = 0.3048
@@ -44,33 +45,8 @@ CONVERTED = {
 CRS_COORDINATES = {"x_m", "y_m", "centre_x_m", "centre_y_m"}
 
 
-def fail(message):
-    print("FAIL: " + message)
-    sys.exit(1)
-
-
-def run(cmd, cwd):
-    done = subprocess.run(cmd, cwd=cwd, capture_output=True, text=True)
-    if done.returncode != 0:
-        fail(f"{' '.join(map(str, cmd))} exited {done.returncode}:\n{done.stderr}")
-    return done.stdout
-
-
-def patched(text, old, new):
-    if text.count(old) != 1:
-        fail(f"the demo scenario no longer has exactly one line '{old}'")
-    return text.replace(old, new)
-
-
 def make_runs(slipscreen, source, work):
-    shutil.rmtree(work, ignore_errors=True)
-    shutil.copytree(source / "regions" / "marrowick", work / "regions" / "marrowick")
-    shutil.copytree(source / "catalogs" / "demo", work / "catalogs" / "demo")
-    scenario = work / "regions" / "marrowick" / "scenario.toml"
-    text = scenario.read_text()
-    text = patched(text, "realizations = 2000", "realizations = 100")
-    text = patched(text, 'step = "1 year"', 'step = "5 years"')
-    scenario.write_text(text)
+    reduced_demo(source, work)
     base = [slipscreen, "run", "regions/marrowick/scenario.toml", "--reproducible"]
     si_out = run(base + ["--out", "si"], work)
     oil_out = run(base + ["--out", "oilfield", "--units", "oilfield"], work)
