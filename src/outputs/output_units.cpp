@@ -96,6 +96,11 @@ void OutputUnits::append(std::string& out, double si, Quantity q, int si_decimal
   util::append_fixed(out, value(si, q), decimals(q, si_decimals));
 }
 
+std::string readme_units_line(const OutputUnits& u, std::string_view rest) {
+  return "Units: " + std::string(u.system_name()) + " (tables: pressures in " + std::string(u.symbol(Quantity::pressure)) +
+         ", depths and distances in " + std::string(u.symbol(Quantity::length)) + "; " + std::string(rest) + ")";
+}
+
 ColumnUnit column_unit(std::string_view header) {
   ColumnUnit best{std::string(header), "", 1.0};
   const auto consider = [&](std::string_view suffix, double to_si) {

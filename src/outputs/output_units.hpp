@@ -58,6 +58,10 @@ class OutputUnits {
   units::UnitSystem system_;
 };
 
+// README.txt's line naming the unit system of the tables: "Units: SI (tables: pressures in MPa,
+// depths and distances in m; <rest>)".
+std::string readme_units_line(const OutputUnits& u, std::string_view rest);
+
 // A table header read back: `dp_psi` is base "dp" with unit "psi", 6894.757293168361 Pa per psi.
 struct ColumnUnit {
   std::string base;    // the name without its unit suffix (the whole name when it has none)

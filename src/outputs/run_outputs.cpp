@@ -48,22 +48,14 @@ std::string screens_text(const RunResults& r) {
   return t;
 }
 
-// The README line that says which unit system the tables are in.
-std::string units_fact(units::UnitSystem system) {
-  const OutputUnits u(system);
-  using Q = Quantity;
-  return "Units: " + std::string(u.system_name()) + " (tables: pressures in " + std::string(u.symbol(Q::pressure)) +
-         ", depths and distances in " + std::string(u.symbol(Q::length)) +
-         "; coordinates in the working CRS's unit; screen.gpkg, the GeoTIFFs and the JSON files in SI)";
-}
-
 ReadmeContent run_readme(const scenario::ResolvedScenario& s, const RunResults& r) {
   ReadmeContent c;
   c.title = "slipscreen run: " + (s.title.empty() ? s.file : s.title);
   std::string dates;
   for (const auto& d : s.output.dates) dates += (dates.empty() ? "" : ", ") + util::format_iso_date(d);
   c.facts = {"Scenario: " + s.file, "Screens run: " + screens_text(r), "Output times: " + dates,
-             units_fact(s.output.units)};
+             readme_units_line(OutputUnits(s.output.units), "coordinates in the working CRS's unit; screen.gpkg, the "
+                                                            "GeoTIFFs and the JSON files in SI")};
   const std::string crs = r.prepared.working.authority();
   if (!crs.empty()) c.facts.push_back("Working CRS: " + crs + " (coordinates in metres)");
   c.files = screen_tables_readme(s);
