@@ -41,6 +41,7 @@ struct CatalogOptions {
   std::string net_volume, shear_modulus = "30 GPa", volume_history, planned_volume;
   std::string length_regression = "surface";
   std::string out, well, start;
+  std::string units = "SI";
 };
 
 double parse_plain_number(const std::string& text, const std::string& field, const std::string& expected) {
@@ -152,11 +153,14 @@ int run_catalog(const CatalogOptions& o, Context& ctx) {
   job.rt = build_rt(o);
   job.out = o.out;
   job.force = o.force;
+  if (!o.units.empty()) job.units = *units::unit_system_named(o.units);
   job.command_line = ctx.command_line;
   job.notice = [&ctx](const std::string& line) { ctx.err << "slipscreen: " << line << "\n"; };
   const run::CatalogJobResult r = run::run_catalog_job(job);
   if (o.json) ctx.out << r.json.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) << "\n";
-  else print_catalog_summary(ctx.out, r.read, r.filtered.counts, r.summary, r.rt);
+  else
+    print_catalog_summary(ctx.out, r.read, r.filtered.counts, r.summary, r.rt, static_cast<std::size_t>(-1),
+                          outputs::OutputUnits(job.units));
   if (!o.out.empty() && !o.json)
     ctx.out << "\nWrote " << o.out << "/ (catalog_summary.json, catalog_events.csv"
             << (r.rt ? ", rt_events.csv, rt_fronts.csv" : "") << ", README.txt, manifest.json)\n";
@@ -211,6 +215,9 @@ void register_catalog_command(CLI::App& app, Context& ctx) {
   sub->add_option("--diffusivity", o->diffusivities, "Diffusivities for the front curves (default 0.01, 0.1, 1 m2/s)");
   sub->add_flag("--json", o->json, "Print the summary as JSON");
   sub->add_option("--out", o->out, "Write a folder with the summary, kept events and r-t tables");
+  sub->add_option("--units", o->units, "Units of the --out tables and the summary: SI (m3, m, km) or oilfield (bbl, ft, mi)")
+      ->default_val("SI")
+      ->check(unit_system_name());
   sub->add_flag("--force", o->force, "Replace an earlier slipscreen catalog folder at --out (one holding only what its manifest lists)");
   sub->callback([o, &ctx] { ctx.action = [o, &ctx] { return run_catalog(*o, ctx); }; });
 }

@@ -23,10 +23,18 @@ std::string fixed(double v, int decimals) {
 namespace {
 
 // The McGarr (2014) bound and the rupture-length bounds of the largest mapped faults.
-void print_magnitude_bounds(std::ostream& out, const seismo::CatalogSummary& s, std::size_t max_fault_bounds) {
+using outputs::Quantity;
+
+// A volume or length in the console's units, `digits` significant digits, with its unit.
+std::string in_units(const outputs::OutputUnits& u, double si, Quantity q, int digits) {
+  return util::number_text(u.value(si, q), digits) + " " + std::string(u.symbol(q));
+}
+
+void print_magnitude_bounds(std::ostream& out, const seismo::CatalogSummary& s, std::size_t max_fault_bounds,
+                            const outputs::OutputUnits& u) {
   out << "\nLargest-magnitude bounds\n";
   if (s.mcgarr_moment) {
-    out << "  McGarr (2014), net volume " << util::number_text(s.net_volume, 4) << " m3, G = " << util::number_text(s.shear_modulus / 1e9, 3)
+    out << "  McGarr (2014), net volume " << in_units(u, s.net_volume, Quantity::volume, 4) << ", G = " << util::number_text(s.shear_modulus / 1e9, 3)
         << " GPa: M0 <= " << util::number_text(*s.mcgarr_moment, 4) << " N·m";
     if (s.mcgarr_mw) out << ", Mw <= " << fixed(*s.mcgarr_mw, 2) << " (IASPEI 2013)";
     out << "\n";
@@ -43,7 +51,7 @@ void print_magnitude_bounds(std::ostream& out, const seismo::CatalogSummary& s, 
   }
   for (const seismo::FaultBound* bound : bounds) {
     const seismo::FaultBound& f = *bound;
-    out << "  " << f.name << ", " << util::number_text(f.length / 1000.0, 3) << " km: M " << fixed(f.estimate.magnitude, 2) << " ± "
+    out << "  " << f.name << ", " << in_units(u, f.length, Quantity::distance_long, 3) << ": M " << fixed(f.estimate.magnitude, 2) << " ± "
         << fixed(f.estimate.sd, 2) << (f.estimate.extrapolated ? " (length outside the regression's data, extrapolated)" : "")
         << "\n";
   }
@@ -53,18 +61,19 @@ void print_magnitude_bounds(std::ostream& out, const seismo::CatalogSummary& s, 
 }
 
 // The seismogenic index (Shapiro et al. 2010) and the forecasts for further injection.
-void print_seismogenic_index(std::ostream& out, const seismo::CatalogSummary& s) {
+void print_seismogenic_index(std::ostream& out, const seismo::CatalogSummary& s, const outputs::OutputUnits& u) {
   out << "\nSeismogenic index (Shapiro et al. 2010): ";
   if (s.seismogenic_index) {
     const auto& f = *s.seismogenic_index;
     out << "Σ = " << fixed(f.sigma, 2) << " ± " << fixed(f.sigma_count_se, 2) << " (count) ± " << fixed(f.sigma_b_se, 2)
-        << " (b), from " << f.events << " events >= Mc while " << util::number_text(f.volume, 4) << " m3 were injected ("
+        << " (b), from " << f.events << " events >= Mc while " << in_units(u, f.volume, Quantity::volume, 4) << " were injected ("
         << formats::format_iso8601_utc(f.window_start) << " to " << formats::format_iso8601_utc(f.window_end) << ")\n";
   } else {
     out << "not fitted (" << s.seismogenic_index_note << ")\n";
   }
   if (!s.forecasts.empty()) {
-    out << "Forecast for a further " << util::number_text(s.forecasts.front().planned_volume, 4) << " m3 injected:\n";
+    out << "Forecast for a further " << in_units(u, s.forecasts.front().planned_volume, Quantity::volume, 4)
+        << " injected:\n";
     for (const auto& f : s.forecasts)
       out << "  M >= " << fixed(f.magnitude, 1) << ": expected " << util::number_text(f.expected, 3) << " events, P(at least one) = "
           << util::number_text(100.0 * f.probability, 3) << " %\n";
@@ -78,7 +87,7 @@ void print_seismogenic_index(std::ostream& out, const seismo::CatalogSummary& s)
 
 void print_catalog_summary(std::ostream& out, const formats::CatalogReadResult& read, const seismo::FilterCounts& c,
                    const seismo::CatalogSummary& s, const std::optional<screening::RtView>& rt,
-                           std::size_t max_fault_bounds) {
+                           std::size_t max_fault_bounds, const outputs::OutputUnits& u) {
   out << "Catalog review: " << read.path << " (" << read.format << ")\n";
   out << kScreeningCaution << "\n";
   if (!read.catalog.description.empty()) out << "File says: " << read.catalog.description << "\n";
@@ -126,8 +135,8 @@ void print_catalog_summary(std::ostream& out, const formats::CatalogReadResult& 
     out << "not estimated (" << s.b_note << ")\n";
   }
 
-  print_magnitude_bounds(out, s, max_fault_bounds);
-  print_seismogenic_index(out, s);
+  print_magnitude_bounds(out, s, max_fault_bounds, u);
+  print_seismogenic_index(out, s, u);
 
   if (rt) {
     out << "\nr-t view around " << (rt->well.empty() ? "the well" : "well " + rt->well) << " at (" << util::number_text(rt->position[0], 8)

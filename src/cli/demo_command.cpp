@@ -5,6 +5,7 @@
 #include <memory>
 
 #include "cli/commands.hpp"
+#include "cli/option_range.hpp"
 #include "cli/run_report.hpp"
 #include "core/errors.hpp"
 
@@ -34,6 +35,10 @@ void register_demo_command(CLI::App& app, Context& ctx) {
   sub->add_flag("--force", opts->force, "Replace an earlier slipscreen run folder (one holding only what its manifest lists); the old one stays until the new run is complete");
   sub->add_flag("--reproducible", opts->reproducible,
                 "Leave the creation time out of the manifest and fix the GeoPackage timestamp (byte-identical reruns)");
+  sub->add_option("--units", opts->units,
+                  "Units of the tables and the summary: SI (MPa, m) or oilfield (psi, ft, bbl); default: the "
+                  "scenario's [output] units, else SI")
+      ->check(unit_system_name());
   sub->callback([opts, &ctx] {
     ctx.action = [opts, &ctx] {
       RunCommandOptions o = *opts;

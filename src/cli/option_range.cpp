@@ -5,7 +5,9 @@
 #include <cstdint>
 #include <limits>
 
+#include "core/units/units.hpp"
 #include "core/util/number_text.hpp"
+#include "core/util/suggest.hpp"
 
 namespace slipscreen::cli {
 
@@ -46,6 +48,16 @@ CLI::Validator whole_number(const std::string& what) {
                std::to_string(std::numeric_limits<std::uint64_t>::max()) + ": expected " + what;
       },
       "a whole number >= 0");
+}
+
+CLI::Validator unit_system_name() {
+  return CLI::Validator(
+      [](std::string& input) -> std::string {
+        if (units::unit_system_named(input)) return {};
+        return "'" + input + "' is not a unit system: expected SI or oilfield" +
+               util::did_you_mean(input, units::unit_system_names());
+      },
+      "SI|oilfield");
 }
 
 }  // namespace slipscreen::cli

@@ -36,6 +36,10 @@ void register_run_command(CLI::App& app, Context& ctx) {
   sub->add_flag("--allow-network", opts->allow_network, "Allow GDAL network paths (/vsicurl/ ...) in the scenario");
   sub->add_flag("--reproducible", opts->reproducible,
                 "Leave the creation time out of the manifest and fix the GeoPackage timestamp (byte-identical reruns)");
+  sub->add_option("--units", opts->units,
+                  "Units of the tables and the summary: SI (MPa, m) or oilfield (psi, ft, bbl); default: the "
+                  "scenario's [output] units, else SI")
+      ->check(unit_system_name());
   sub->add_option("--closest", opts->closest, "Number of faults listed in the summary")
       ->default_val(10)
       ->check(in_range(0, 10000, "a number of faults"));

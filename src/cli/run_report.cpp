@@ -13,16 +13,26 @@
 #include "cli/scenario_summary.hpp"
 #include "screening/catalog_review.hpp"
 #include "formats/table/iso_time.hpp"
+#include "outputs/output_units.hpp"
 #include "run/run_scenario.hpp"
 #include "scenario/scenario.hpp"
 
 namespace slipscreen::cli {
 namespace {
 
-std::string mpa(double pa) {
-  char buf[32];
-  std::snprintf(buf, sizeof buf, "%.2f", pa / 1e6);
+using outputs::OutputUnits;
+using outputs::Quantity;
+
+// A value on the console in the run's units, with the decimals of `si_decimals` in SI
+// (outputs/output_units.hpp): pressures print 2 decimals of MPa or 0 of psi.
+std::string shown(const OutputUnits& u, double si, Quantity q, int si_decimals) {
+  char buf[48];
+  std::snprintf(buf, sizeof buf, "%.*f", u.decimals(q, si_decimals), u.value(si, q));
   return buf;
+}
+
+std::string with_unit(const std::string& label, const OutputUnits& u, Quantity q) {
+  return label + " " + std::string(u.symbol(q));
 }
 
 std::string pad(std::string s, std::size_t n) {
@@ -34,14 +44,16 @@ std::string pad(std::string s, std::size_t n) {
 void print_review_against_model(std::ostream& out, const scenario::ResolvedScenario& s, const screening::CatalogReview& v,
                                 int shown_max) {
   out << "\n";
-  print_catalog_summary(out, v.read, v.counts, v.summary, v.rt, static_cast<std::size_t>(std::max(shown_max, 1)));
+  const OutputUnits u(s.output.units);
+  print_catalog_summary(out, v.read, v.counts, v.summary, v.rt, static_cast<std::size_t>(std::max(shown_max, 1)), u);
   char line[320];
   out << "\nEvents against the model (" << v.events.size() << " events kept):\n";
   const auto& f = v.footprint;
   std::snprintf(line, sizeof line,
-                "  %zu of %zu events in the study area had modelled dp >= %.3g MPa at their place and time; "
+                "  %zu of %zu events in the study area had modelled dp >= %.3g %s at their place and time; "
                 "%.1f expected by chance (mean area fraction %.3f), one-sided p = %.2g\n",
-                f.inside, f.events, v.spec.footprint_threshold / 1e6, v.footprint_expected, f.area_fraction, f.p_value);
+                f.inside, f.events, u.value(v.spec.footprint_threshold, Quantity::pressure),
+                std::string(u.symbol(Quantity::pressure)).c_str(), v.footprint_expected, f.area_fraction, f.p_value);
   out << line;
   std::size_t reached = 0;
   for (const auto& e : v.events) reached += e.segment_reached;
@@ -54,17 +66,18 @@ void print_review_against_model(std::ostream& out, const scenario::ResolvedScena
     return v.catalog.events[a].magnitude > v.catalog.events[b].magnitude;
   });
   if (!idx.empty()) {
-    out << "  Largest events:\n  " << pad("date", 12) << pad("M", 6) << pad("dp MPa", 9) << pad("nearest segment", 17)
-        << pad("distance km", 13) << "P(slip) by then\n";
+    out << "  Largest events:\n  " << pad("date", 12) << pad("M", 6) << pad(with_unit("dp", u, Quantity::pressure), 9)
+        << pad("nearest segment", 17) << pad(with_unit("distance", u, Quantity::distance_long), 13)
+        << "P(slip) by then\n";
     for (std::size_t n = 0; n < idx.size() && static_cast<int>(n) < shown_max; ++n) {
       const auto& e = v.catalog.events[idx[n]];
       const auto& m = v.events[idx[n]];
-      char mag[16], dist[24], p[64];
+      char mag[16], p[64];
       std::snprintf(mag, sizeof mag, "%.1f", e.magnitude);
-      std::snprintf(dist, sizeof dist, "%.2f", m.distance / 1000.0);
+      const std::string dist = shown(u, m.distance, Quantity::distance_long, 2);
       if (m.probability_time) std::snprintf(p, sizeof p, "%.3f [%.3f, %.3f]", m.p_slip, m.p_low, m.p_high);
       else std::snprintf(p, sizeof p, "-");
-      out << "  " << pad(formats::format_iso8601_utc(e.time).substr(0, 10), 12) << pad(mag, 6) << pad(mpa(m.dp), 9)
+      out << "  " << pad(formats::format_iso8601_utc(e.time).substr(0, 10), 12) << pad(mag, 6) << pad(shown(u, m.dp, Quantity::pressure, 2), 9)
           << pad(v.segment_ids.empty() ? "-" : v.segment_ids[m.segment], 17) << pad(dist, 13) << p
           << "\n";
     }
@@ -131,17 +144,20 @@ void print_deterministic(std::ostream& out, const scenario::ResolvedScenario& s,
   if (r.radius_clamped) out << "  note: some check points lie within a well radius; they are evaluated at the radius\n";
 
   std::set<std::string> listed;
+  const OutputUnits u(s.output.units);
+  constexpr Quantity P = Quantity::pressure;
   out << "\nFaults closest to failure (margin = dp_crit - peak dp; negative: reached):\n";
-  out << "  " << pad("fault", 10) << pad("segment", 12) << pad("dp_crit MPa", 13) << pad("peak dp MPa", 13)
-      << pad("margin MPa", 12) << pad("first reached", 15) << "leading well (share)\n";
+  out << "  " << pad("fault", 10) << pad("segment", 12) << pad(with_unit("dp_crit", u, P), 13)
+      << pad(with_unit("peak dp", u, P), 13) << pad(with_unit("margin", u, P), 12) << pad("first reached", 15)
+      << "leading well (share)\n";
   for (const auto& line : r.closest) {
     if (static_cast<int>(listed.size()) >= closest) break;
     if (!listed.insert(line.fault_id).second) continue;
     const bool critical = line.status == geomech::CriticalStatus::already_critical;
     char share[32];
     std::snprintf(share, sizeof share, "%.0f%%", line.leading_share * 100);
-    out << "  " << pad(line.fault_id, 10) << pad(line.segment_id, 12) << pad(mpa(line.dp_crit), 13)
-        << pad(mpa(line.peak_dp), 13) << pad(mpa(line.dp_crit - line.peak_dp), 12)
+    out << "  " << pad(line.fault_id, 10) << pad(line.segment_id, 12) << pad(shown(u, line.dp_crit, P, 2), 13)
+        << pad(shown(u, line.peak_dp, P, 2), 13) << pad(shown(u, line.dp_crit - line.peak_dp, P, 2), 12)
         << pad(critical ? "before injection" : line.first_crossing.value_or("-"), 15)
         << (line.leading_well.empty() ? "-" : line.leading_well + " (" + share + ")") << "\n";
   }
@@ -195,7 +211,9 @@ void print_probabilistic(std::ostream& out, const screening::ProbabilisticSummar
 }  // namespace
 
 int run_and_report(const RunCommandOptions& o, Context& ctx) {
-  const scenario::ResolvedScenario s = scenario::load_scenario(o.scenario);
+  scenario::ResolvedScenario s = scenario::load_scenario(o.scenario);
+  // --units overrides [output] units (CLI11 has checked the name); the manifest records the result.
+  if (!o.units.empty()) s.output.units = *units::unit_system_named(o.units);
   const screening::RunSummary r = run::run_scenario(s, run_options(o, ctx));
   if (ctx.err_is_terminal) ctx.err << "\r\033[K" << std::flush;
 

@@ -15,6 +15,7 @@ struct RunCommandOptions {
   bool allow_network = false;
   bool reproducible = false;
   int closest = 10;  // faults listed in the summary
+  std::string units;  // "SI" or "oilfield" (--units, checked by CLI11); empty: the scenario's [output] units
 };
 
 // Loads, runs and reports; returns the exit code (typed errors propagate to cli::run).

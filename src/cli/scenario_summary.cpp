@@ -9,6 +9,7 @@
 
 #include "core/units/units.hpp"
 #include "formats/files/path_policy.hpp"
+#include "outputs/output_units.hpp"
 
 namespace slipscreen::cli {
 namespace {
@@ -28,20 +29,27 @@ const char* model_name(scenario::StressModel m) {
   return "?";
 }
 
+// A quantity in the scenario's [output] units with its unit, `si_decimals` decimals in SI.
+std::string quantity(const outputs::OutputUnits& u, double si, outputs::Quantity q, int si_decimals) {
+  return fixed(u.value(si, q), u.decimals(q, si_decimals)) + " " + std::string(u.symbol(q));
+}
+
 }  // namespace
 
 void print_scenario_summary(const scenario::ResolvedScenario& s, std::ostream& out) {
   const auto& r = s.region;
+  const outputs::OutputUnits u(s.output.units);
+  using Q = outputs::Quantity;
   out << "Scenario   " << s.file << (s.title.empty() ? "" : "  (" + s.title + ")") << "\n";
   out << "Region     " << r.name << "  [" << r.file << "]\n";
-  out << "  working CRS " << r.crs << ", reference depth " << fixed(r.reference_depth, 0) << " m, pore-pressure gradient "
-      << fixed(r.pore_pressure_gradient / 1000, 2) << " MPa/km\n";
+  out << "  working CRS " << r.crs << ", reference depth " << quantity(u, r.reference_depth, Q::length, 0)
+      << ", pore-pressure gradient " << quantity(u, r.pore_pressure_gradient, Q::pressure_gradient, 2) << "\n";
   out << "  stress: " << model_name(r.stress.model);
   if (r.stress.model == scenario::StressModel::a_phi) out << " = " << fixed(r.stress.a_phi, 2);
   out << ", SHmax azimuth " << fixed(r.stress.shmax_azimuth * 180 / 3.14159265358979323846, 1) << " deg\n";
-  out << "  faults: " << formats::display_name(r.faults.path) << ", friction " << fixed(r.faults.friction, 2) << ", cohesion "
-      << fixed(r.faults.cohesion / 1e6, 2) << " MPa, segments <= " << fixed(r.faults.segment_length, 0) << " m, "
-      << r.faults.check_points << " check points each\n";
+  out << "  faults: " << formats::display_name(r.faults.path) << ", friction " << fixed(r.faults.friction, 2)
+      << ", cohesion " << quantity(u, r.faults.cohesion, Q::pressure, 2) << ", segments <= "
+      << quantity(u, r.faults.segment_length, Q::length, 0) << ", " << r.faults.check_points << " check points each\n";
   const auto& f = r.formation;
   out << "  formation: " << (f.name.empty() ? "(unnamed)" : f.name) << ", diffusivity " << std::setprecision(3)
       << scenario::theis_parameters_of(f).diffusivity << " m2/s\n";
@@ -65,17 +73,17 @@ void print_scenario_summary(const scenario::ResolvedScenario& s, std::ostream& o
   const auto& o = s.output;
   out << "Output     " << o.dates.size() << (o.dates.size() == 1 ? " time from " : " times from ") << util::format_iso_date(o.dates.front()) << " to "
       << util::format_iso_date(o.dates.back()) << "\n";
-  out << "  grid: " << (o.grid.automatic_extent ? "automatic extent (margin " + fixed(o.grid.margin, 0) + " m)"
+  out << "  grid: " << (o.grid.automatic_extent ? "automatic extent (margin " + quantity(u, o.grid.margin, Q::length, 0) + ")"
                                                  : "extent [" + fixed(o.grid.xmin, 0) + ", " + fixed(o.grid.ymin, 0) +
                                                        ", " + fixed(o.grid.xmax, 0) + ", " + fixed(o.grid.ymax, 0) + "]")
-      << ", cell " << fixed(o.grid.cell_size, 0) << " m, CRS " << (o.grid.crs.empty() ? r.crs : o.grid.crs) << "\n";
+      << ", cell " << quantity(u, o.grid.cell_size, Q::length, 0) << ", CRS " << (o.grid.crs.empty() ? r.crs : o.grid.crs) << "\n";
   out << "  writes:" << (o.tables ? " tables" : "") << (o.rasters ? (o.cog ? " raster (COG)" : " raster") : "")
-      << (o.geopackage ? " geopackage" : "") << " manifest, into " << (o.folder.empty() ? "(--out)" : o.folder) << "\n";
+      << (o.geopackage ? " geopackage" : "") << " manifest (tables in " << u.system_name() << " units), into " << (o.folder.empty() ? "(--out)" : o.folder) << "\n";
   out << "  seed " << s.seed << (s.uncertainty.given ? ", [uncertainty] given" : ", no [uncertainty] (deterministic screen)")
       << "\n";
   if (s.catalog)
     out << "Catalog    " << s.catalog->file << " (reviewed with the run; footprint threshold "
-        << fixed(s.catalog->footprint_threshold / 1e6, 3) << " MPa"
+        << quantity(u, s.catalog->footprint_threshold, Q::pressure, 3)
         << (s.catalog->rate_state ? ", seismicity-rate response" : "") << ")\n";
 }
 

@@ -24,15 +24,15 @@ nlohmann::json rt_view_json(const screening::RtView& v) {
   return j;
 }
 
-std::string catalog_events_csv(const seismo::Catalog& c) {
+std::string catalog_events_csv(const seismo::Catalog& c, const OutputUnits& u) {
   using formats::csv_field;
   const bool geographic = c.kind == seismo::CoordinateKind::geographic;
   std::ostringstream ev;
   ev << "event_id,time," << (geographic ? "longitude_deg,latitude_deg" : "x_m,y_m")
-     << ",depth_m,magnitude,magnitude_type\n";
+     << ',' << u.column("depth", Quantity::length) << ",magnitude,magnitude_type\n";
   for (const auto& e : c.events)
     ev << csv_field(e.id) << "," << formats::format_iso8601_utc(e.time) << "," << util::number_text(e.x, 10) << ","
-       << util::number_text(e.y, 10) << "," << (e.depth ? util::number_text(*e.depth, 8) : "") << ","
+       << util::number_text(e.y, 10) << "," << (e.depth ? util::number_text(u.value(*e.depth, Quantity::length), 8) : "") << ","
        << util::number_text(e.magnitude, 4) << "," << csv_field(e.magnitude_type) << "\n";
   return ev.str();
 }
@@ -41,18 +41,21 @@ void write_catalog_folder(const formats::RunFolder& folder, const nlohmann::json
                           const std::optional<screening::RtView>& rt, const CatalogFolderRecord& record) {
   formats::write_text_file(folder.output("catalog", "catalog_summary.json"),
                            summary.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) + "\n");
-  formats::write_text_file(folder.output("catalog", "catalog_events.csv"), catalog_events_csv(c));
+  const OutputUnits u(record.units);
+  formats::write_text_file(folder.output("catalog", "catalog_events.csv"), catalog_events_csv(c, u));
   ReadmeContent readme;
   readme.title = "slipscreen catalog review";
   readme.facts = {"Catalog: " + summary["catalog"]["path"].get<std::string>() + " (" +
                       summary["catalog"]["format"].get<std::string>() + ", coordinates in " + c.crs + ")",
-                  std::string("Screens run: catalog review") + (rt ? "; r-t view" : "")};
+                  std::string("Screens run: catalog review") + (rt ? "; r-t view" : ""),
+                  readme_units_line(u, "coordinates in the catalog's; the JSON files in SI")};
+  readme.oilfield_units = record.units == units::UnitSystem::oilfield;
   readme.files = {{"catalog_summary.json", "catalog review: counts, unusable records, completeness, b-value, bounds, "
                                            "seismogenic index, forecasts, assumptions"},
                   {"catalog_events.csv", "the kept events, coordinates in " + c.crs}};
   if (rt) {
-    formats::write_text_file(folder.output("catalog", "rt_events.csv"), rt_events_csv(c, *rt));
-    formats::write_text_file(folder.output("catalog", "rt_fronts.csv"), rt_fronts_csv(*rt));
+    formats::write_text_file(folder.output("catalog", "rt_events.csv"), rt_events_csv(c, *rt, u));
+    formats::write_text_file(folder.output("catalog", "rt_fronts.csv"), rt_fronts_csv(*rt, u));
     readme.files.push_back({"rt_events.csv", rt_events_description(*rt)});
     readme.files.push_back({"rt_fronts.csv", rt_fronts_description(*rt)});
   }
@@ -64,7 +67,8 @@ void write_catalog_folder(const formats::RunFolder& folder, const nlohmann::json
   m.inputs = record.inputs;
   m.screens = {{"deterministic", false}, {"probabilistic", false}, {"pressure_map", false},
                {"catalog_review", true}, {"rt_view", rt.has_value()}};
-  m.parameters = {{"catalog", {{"format", summary["catalog"]["format"]}, {"columns", summary["catalog"]["columns"]}}}};
+  m.parameters = {{"catalog", {{"format", summary["catalog"]["format"]}, {"columns", summary["catalog"]["columns"]}}},
+                  {"units", std::string(units::unit_system_name(record.units))}};
   formats::write_manifest(folder.output("manifest", "manifest.json"), m, folder.staging());
 }
 

@@ -11,6 +11,7 @@
 #include "core/seismo/catalog.hpp"
 #include "formats/files/manifest.hpp"
 #include "formats/files/run_folder.hpp"
+#include "outputs/output_units.hpp"
 #include "screening/rt_view.hpp"
 
 namespace slipscreen::outputs {
@@ -22,12 +23,13 @@ nlohmann::json rt_view_json(const screening::RtView& v);
 struct CatalogFolderRecord {
   std::vector<std::string> command_line;
   std::vector<formats::ManifestInput> inputs;  // the catalog and the volume history
+  units::UnitSystem units = units::UnitSystem::si;  // of the tables (depths, distances)
 };
 
 // catalog_events.csv: event_id,time,<coordinates>,depth_m,magnitude,magnitude_type, where the
 // coordinates are longitude_deg,latitude_deg for a geographic catalog and x_m,y_m for a
-// projected one.
-std::string catalog_events_csv(const seismo::Catalog& c);
+// projected one; depth_ft in oilfield units.
+std::string catalog_events_csv(const seismo::Catalog& c, const OutputUnits& u);
 
 void write_catalog_folder(const formats::RunFolder& folder, const nlohmann::json& summary, const seismo::Catalog& c,
                           const std::optional<screening::RtView>& rt, const CatalogFolderRecord& record);

@@ -10,6 +10,7 @@
 #include "core/util/number_text.hpp"
 #include "outputs/catalog_summary_json.hpp"
 #include "outputs/output_text.hpp"
+#include "outputs/output_units.hpp"
 #include "outputs/rt_tables.hpp"
 
 namespace slipscreen::outputs {
@@ -104,22 +105,27 @@ std::string yes_no(bool b) { return b ? "yes" : "no"; }
 std::string events_csv(const scenario::ResolvedScenario& s, const screening::PreparedRun& p,
                        const screening::CatalogReview& v) {
   const bool seg = !p.segments.empty();
+  const OutputUnits u(s.output.units);
+  constexpr Quantity P = Quantity::pressure, L = Quantity::length;
   std::ostringstream ev;
-  ev << "event_id,time,x_m,y_m,depth_m,magnitude,magnitude_type,in_study_area,dp_MPa,in_footprint,"
-        "footprint_area_fraction,nearest_segment,nearest_fault,distance_m,segment_dp_MPa,segment_dp_crit_MPa,"
-        "segment_reached_dp_crit,p_slip,p_slip_low,p_slip_high,p_slip_date,rt_time_since_start_days,rt_distance_m,source\n";
+  // x_m, y_m: working-CRS coordinates, in the CRS's unit in either system.
+  ev << "event_id,time,x_m,y_m," << u.column("depth", L) << ",magnitude,magnitude_type,in_study_area,"
+     << u.column("dp", P) << ",in_footprint,footprint_area_fraction,nearest_segment,nearest_fault,"
+     << u.column("distance", L) << ',' << u.column("segment_dp", P) << ',' << u.column("segment_dp_crit", P)
+     << ",segment_reached_dp_crit,p_slip,p_slip_low,p_slip_high,p_slip_date,rt_time_since_start_days,"
+     << u.column("rt_distance", L) << ",source\n";
   for (std::size_t i = 0; i < v.events.size(); ++i) {
     const auto& e = v.catalog.events[i];
     const auto& m = v.events[i];
     ev << csv_field(e.id) << "," << format_iso8601_utc(e.time) << "," << fixed_decimals(m.x, 1) << ","
-       << fixed_decimals(m.y, 1) << "," << (e.depth ? fixed_decimals(*e.depth, 1) : "") << ","
+       << fixed_decimals(m.y, 1) << "," << (e.depth ? u.text(*e.depth, L, 1) : "") << ","
        << fixed_decimals(e.magnitude, 2) << "," << csv_field(e.magnitude_type) << "," << yes_no(m.in_study_area) << ","
-       << fixed_decimals(m.dp / kMPa, 6) << "," << yes_no(m.dp >= v.spec.footprint_threshold) << ","
+       << u.text(m.dp, P, 6) << "," << yes_no(m.dp >= v.spec.footprint_threshold) << ","
        << fixed_decimals(m.footprint_fraction, 6) << ",";
     if (seg)
       ev << csv_field(p.segments[m.segment].segment_id) << "," << csv_field(p.segments[m.segment].fault_id) << ","
-         << fixed_decimals(m.distance, 1) << "," << fixed_decimals(m.segment_dp / kMPa, 6) << ","
-         << fixed_decimals(m.segment_dp_crit / kMPa, 6) << "," << yes_no(m.segment_reached) << ",";
+         << u.text(m.distance, L, 1) << "," << u.text(m.segment_dp, P, 6) << ","
+         << u.text(m.segment_dp_crit, P, 6) << "," << yes_no(m.segment_reached) << ",";
     else
       ev << ",,,,,,";
     if (m.probability_time)
@@ -128,7 +134,7 @@ std::string events_csv(const scenario::ResolvedScenario& s, const screening::Pre
     else
       ev << ",,,,";
     ev << (m.rt_time ? fixed_decimals(*m.rt_time / units::kDay, 4) : "") << ","
-       << (m.rt_distance ? fixed_decimals(*m.rt_distance, 1) : "") << "," << csv_field(e.source) << "\n";
+       << (m.rt_distance ? u.text(*m.rt_distance, L, 1) : "") << "," << csv_field(e.source) << "\n";
   }
   return ev.str();
 }
@@ -139,9 +145,11 @@ void write_rate_tables(const formats::RunFolder& folder, const scenario::Resolve
                        const screening::PreparedRun& p, const screening::CatalogReview& v) {
   const double yr = units::kYear;
   const std::size_t K = s.output.times.size();
+  const OutputUnits u(s.output.units);
+  constexpr Quantity P = Quantity::pressure;
   std::ostringstream t;
-  t << "segment_id,fault_id,date,dcff_MPa,background_rate_per_year,rate_per_year,rate_ratio,"
-       "expected_events,background_expected_events\n";
+  t << "segment_id,fault_id,date," << u.column("dcff", P)
+    << ",background_rate_per_year,rate_per_year,rate_ratio,expected_events,background_expected_events\n";
   for (std::size_t i = 0; i < v.rates.size(); ++i) {
     const auto& r = v.rates[i];
     const auto& sg = p.segments[i];
@@ -153,20 +161,20 @@ void write_rate_tables(const formats::RunFolder& folder, const scenario::Resolve
         continue;
       }
       const auto& q = r.samples[k];
-      t << fixed_decimals(r.dcff[k] / kMPa, 6) << "," << fixed_decimals(r.background_rate * yr, 6) << ","
+      t << u.text(r.dcff[k], P, 6) << "," << fixed_decimals(r.background_rate * yr, 6) << ","
         << fixed_decimals(q.rate * yr, 6) << "," << fixed_decimals(q.rate / r.background_rate, 6) << ","
         << fixed_decimals(q.expected, 6) << "," << fixed_decimals(r.background_expected[k], 6) << "\n";
     }
   }
   write_text_file(folder.output("catalog", "seismicity_rate.csv"), t.str());
   std::ostringstream ft;
-  ft << "fault_id,date,max_dcff_MPa,background_rate_per_year,rate_per_year,rate_ratio,expected_events,"
-        "background_expected_events\n";
+  ft << "fault_id,date," << u.column("max_dcff", P)
+     << ",background_rate_per_year,rate_per_year,rate_ratio,expected_events,background_expected_events\n";
   for (const auto& f : v.fault_rates)
     for (std::size_t k = 0; k < K; ++k) {
       const auto& a = f.samples[k];
       ft << csv_field(f.fault_id) << "," << util::format_iso_date(s.output.dates[k]) << ","
-         << fixed_decimals(a.max_dcff / kMPa, 6) << "," << fixed_decimals(a.background_rate * yr, 6) << ","
+         << u.text(a.max_dcff, P, 6) << "," << fixed_decimals(a.background_rate * yr, 6) << ","
          << fixed_decimals(a.rate * yr, 6) << ","
          << (a.background_rate > 0 ? fixed_decimals(a.rate / a.background_rate, 6) : "") << ","
          << fixed_decimals(a.expected, 6) << "," << fixed_decimals(a.background_expected, 6) << "\n";
@@ -199,8 +207,9 @@ void write_catalog_review(const formats::RunFolder& folder, const scenario::Reso
              catalog_review_json(s, p, v).dump(2, ' ', false, nlohmann::json::error_handler_t::replace) + "\n");
   write_text_file(folder.output("catalog", "catalog_events.csv"), events_csv(s, p, v));
   if (v.rt) {
-    write_text_file(folder.output("catalog", "rt_events.csv"), rt_events_csv(v.catalog, *v.rt));
-    write_text_file(folder.output("catalog", "rt_fronts.csv"), rt_fronts_csv(*v.rt));
+    const OutputUnits u(s.output.units);
+    write_text_file(folder.output("catalog", "rt_events.csv"), rt_events_csv(v.catalog, *v.rt, u));
+    write_text_file(folder.output("catalog", "rt_fronts.csv"), rt_fronts_csv(*v.rt, u));
   }
   if (!v.rates.empty()) write_rate_tables(folder, s, p, v);
 }

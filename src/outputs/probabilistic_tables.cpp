@@ -10,6 +10,7 @@
 #include "formats/gis/geotiff.hpp"
 #include "formats/table/csv.hpp"
 #include "outputs/output_text.hpp"
+#include "outputs/output_units.hpp"
 #include "core/util/number_text.hpp"
 
 namespace slipscreen::outputs {
@@ -28,18 +29,19 @@ struct Context {
   double n;       // valid realizations
   double z;       // z of the Wilson interval's confidence
   std::size_t K;  // output times
+  OutputUnits units;
 };
 
+constexpr Quantity P = Quantity::pressure;
 std::string f3(double v) { return fixed_decimals(v, 4); }
-std::string mpa(double v) { return fixed_decimals(v / kMPa, 4); }
 
 // segment_probability.csv: P(slip by t) per segment and output time with its interval.
 void write_segment_probability(const Context& c) {
-  const auto& [folder, s, p, run, n, z, K] = c;
+  const auto& [folder, s, p, run, n, z, K, u] = c;
   const auto& res = run.result;
   std::ostringstream t;
-  t << "segment_id,fault_id,date,p_slip,p_slip_ci_low,p_slip_ci_high,p_already_critical,dp_p05_MPa,dp_p50_MPa,"
-       "dp_p95_MPa,thresholds_reached\n";
+  t << "segment_id,fault_id,date,p_slip,p_slip_ci_low,p_slip_ci_high,p_already_critical," << u.column("dp_p05", P)
+    << ',' << u.column("dp_p50", P) << ',' << u.column("dp_p95", P) << ",thresholds_reached\n";
   for (std::size_t i = 0; i < res.segments.size(); ++i) {
     const auto& seg = res.segments[i];
     for (std::size_t k = 0; k < K; ++k) {
@@ -53,8 +55,8 @@ void write_segment_probability(const Context& c) {
       t << csv_field(p.segments[i].segment_id) << ',' << csv_field(p.segments[i].fault_id) << ','
         << util::format_iso_date(s.output.dates[k]) << ',' << f3(ci.estimate) << ',' << f3(ci.lower) << ','
         << f3(ci.upper) << ',' << f3(static_cast<double>(seg.already_critical) / n) << ','
-        << mpa(seg.dp[k].quantile(0.05)) << ',' << mpa(seg.dp[k].quantile(0.5)) << ','
-        << mpa(seg.dp[k].quantile(0.95)) << ',' << reached << '\n';
+        << u.text(seg.dp[k].quantile(0.05), P, 4) << ',' << u.text(seg.dp[k].quantile(0.5), P, 4) << ','
+        << u.text(seg.dp[k].quantile(0.95), P, 4) << ',' << reached << '\n';
     }
   }
   formats::write_text_file(folder.output("output.files.segment_probability", "segment_probability.csv"), t.str());
@@ -62,36 +64,37 @@ void write_segment_probability(const Context& c) {
 
 // segment_probability_summary.csv: per segment, Δp_crit percentiles, final P and first dates.
 void write_probability_summary(const Context& c) {
-  const auto& [folder, s, p, run, n, z, K] = c;
+  const auto& [folder, s, p, run, n, z, K, u] = c;
   const auto& res = run.result;
-  std::ostringstream u;
-  u << "segment_id,fault_id,dp_crit_p05_MPa,dp_crit_p50_MPa,dp_crit_p95_MPa,p_already_critical,p_never_critical,"
-       "p_slip_final,p_slip_final_ci_low,p_slip_final_ci_high";
-  for (double th : run.thresholds) u << ",first_date_p_" << fixed_decimals(th, 3);
-  u << '\n';
+  std::ostringstream t;
+  t << "segment_id,fault_id," << u.column("dp_crit_p05", P) << ',' << u.column("dp_crit_p50", P) << ','
+    << u.column("dp_crit_p95", P)
+    << ",p_already_critical,p_never_critical,p_slip_final,p_slip_final_ci_low,p_slip_final_ci_high";
+  for (double th : run.thresholds) t << ",first_date_p_" << fixed_decimals(th, 3);
+  t << '\n';
   for (std::size_t i = 0; i < res.segments.size(); ++i) {
     const auto& seg = res.segments[i];
     const auto ci = stats::wilson_interval(seg.slipped_by[K - 1], res.realizations, z);
     const bool any = !seg.dp_crit.empty();
-    u << csv_field(p.segments[i].segment_id) << ',' << csv_field(p.segments[i].fault_id) << ','
-      << (any ? mpa(seg.dp_crit.quantile(0.05)) : "") << ',' << (any ? mpa(seg.dp_crit.quantile(0.5)) : "") << ','
-      << (any ? mpa(seg.dp_crit.quantile(0.95)) : "") << ',' << f3(static_cast<double>(seg.already_critical) / n)
+    const auto dp_crit = [&](double q) { return any ? u.text(seg.dp_crit.quantile(q), P, 4) : ""; };
+    t << csv_field(p.segments[i].segment_id) << ',' << csv_field(p.segments[i].fault_id) << ',' << dp_crit(0.05)
+      << ',' << dp_crit(0.5) << ',' << dp_crit(0.95) << ',' << f3(static_cast<double>(seg.already_critical) / n)
       << ',' << f3(static_cast<double>(seg.never_critical) / n) << ',' << f3(ci.estimate) << ',' << f3(ci.lower)
       << ',' << f3(ci.upper);
     for (double th : run.thresholds) {
       std::string first;
       for (std::size_t k = 0; k < K && first.empty(); ++k)
         if (static_cast<double>(seg.slipped_by[k]) / n >= th) first = util::format_iso_date(s.output.dates[k]);
-      u << ',' << first;
+      t << ',' << first;
     }
-    u << '\n';
+    t << '\n';
   }
-  formats::write_text_file(folder.output("output.files.segment_probability_summary", "segment_probability_summary.csv"), u.str());
+  formats::write_text_file(folder.output("output.files.segment_probability_summary", "segment_probability_summary.csv"), t.str());
 }
 
 // sensitivity.csv: per fault, at its segment with the highest final probability (ties: file order).
 void write_sensitivity(const Context& c) {
-  const auto& [folder, s, p, run, n, z, K] = c;
+  const auto& [folder, s, p, run, n, z, K, u] = c;
   const auto& res = run.result;
   // Sensitivity per fault, at its segment with the highest final probability (ties: lowest
   // median Δp_crit margin, then file order).
@@ -120,12 +123,13 @@ void write_sensitivity(const Context& c) {
 
 // median_well_shares.csv: each well's share of the median realization's Δp.
 void write_median_well_shares(const Context& c) {
-  const auto& [folder, s, p, run, n, z, K] = c;
+  const auto& [folder, s, p, run, n, z, K, u] = c;
   const auto& res = run.result;
   // Well attribution of the median Δp: per segment and output time, the wells with a share of
   // at least screening::kMedianShareMin (largest first, ties in file order), then one row for the rest.
   std::string m;
-  m = "segment_id,fault_id,date,median_realization,dp_MPa,check_point,well_id,wells,well_dp_MPa,share\n";
+  m = "segment_id,fault_id,date,median_realization," + u.column("dp", P) + ",check_point,well_id,wells," +
+      u.column("well_dp", P) + ",share\n";
   for (std::size_t i = 0; i < res.segments.size(); ++i)
     for (std::size_t k = 0; k < res.segments[i].median.size(); ++k) {
       const auto& a = res.segments[i].median[k];
@@ -138,7 +142,7 @@ void write_median_well_shares(const Context& c) {
                        [&](std::size_t x, std::size_t y) { return a.well_dp[x] > a.well_dp[y]; });
       const std::string head = csv_field(p.segments[i].segment_id) + ',' + csv_field(p.segments[i].fault_id) + ',' +
                                util::format_iso_date(s.output.dates[k]) + ',' + std::to_string(a.realization) + ',' +
-                               fixed_decimals(a.dp / kMPa, 6) + ',' + std::to_string(a.check_point) + ',';
+                               u.text(a.dp, P, 6) + ',' + std::to_string(a.check_point) + ',';
       double rest = 0.0;
       std::size_t rest_count = 0;
       for (std::size_t w : order) {
@@ -148,11 +152,11 @@ void write_median_well_shares(const Context& c) {
           ++rest_count;
           continue;
         }
-        m += head + csv_field(p.wells[w].id) + ",1," + fixed_decimals(a.well_dp[w] / kMPa, 6) + ',' +
+        m += head + csv_field(p.wells[w].id) + ",1," + u.text(a.well_dp[w], P, 6) + ',' +
              fixed_decimals(share, 6) + '\n';
       }
       if (rest_count > 0)
-        m += head + ',' + std::to_string(rest_count) + ',' + fixed_decimals(rest / kMPa, 6) + ',' +
+        m += head + ',' + std::to_string(rest_count) + ',' + u.text(rest, P, 6) + ',' +
              fixed_decimals(rest / total, 6) + '\n';
     }
   formats::write_text_file(folder.output("output.files.median_well_shares", "median_well_shares.csv"), m);
@@ -160,7 +164,7 @@ void write_median_well_shares(const Context& c) {
 
 // slip_probability_dangerous.tif and slip_probability_oriented.tif.
 void write_probability_rasters(const Context& c) {
-  const auto& [folder, s, p, run, n, z, K] = c;
+  const auto& [folder, s, p, run, n, z, K, u] = c;
   const auto& res = run.result;
   const auto raster = [&](const std::vector<std::uint64_t>& counts, const char* file, const char* key,
                           const std::string& what) {
@@ -196,7 +200,7 @@ void write_probability_rasters(const Context& c) {
 void write_probabilistic_outputs(const formats::RunFolder& folder, const scenario::ResolvedScenario& s,
                                  const screening::PreparedRun& p, const screening::ProbabilisticRun& run) {
   const Context c{folder, s, p, run, static_cast<double>(run.result.realizations),
-                  stats::z_for_confidence(run.confidence), s.output.times.size()};
+                  stats::z_for_confidence(run.confidence), s.output.times.size(), OutputUnits(s.output.units)};
   if (s.output.tables) {
     write_segment_probability(c);
     write_probability_summary(c);
@@ -206,12 +210,13 @@ void write_probabilistic_outputs(const formats::RunFolder& folder, const scenari
   if (s.output.rasters && !run.result.map_dangerous.empty()) write_probability_rasters(c);
 }
 
-std::vector<ReadmeFile> probabilistic_readme(const screening::ProbabilisticRun& run) {
+std::vector<ReadmeFile> probabilistic_readme(const screening::ProbabilisticRun& run, units::UnitSystem system) {
   const std::string n = std::to_string(run.result.realizations) + " realizations";
+  const std::string pressure(OutputUnits(system).symbol(Quantity::pressure));
   return {{"segment_probability.csv", "probabilistic screen: P(slip by date) per fault segment and output time with "
-                                      "its Wilson interval, and dp percentiles (MPa), over " + n},
-          {"segment_probability_summary.csv", "probabilistic screen: per fault segment, dp_crit percentiles (MPa), the "
-                                              "final P(slip) and the first date each threshold is reached"},
+                                      "its Wilson interval, and dp percentiles (" + pressure + "), over " + n},
+          {"segment_probability_summary.csv", "probabilistic screen: per fault segment, dp_crit percentiles (" + pressure +
+                                              "), the final P(slip) and the first date each threshold is reached"},
           {"sensitivity.csv", "probabilistic screen: per fault, Spearman's rho of each sampled input against the slip "
                               "margin, ranked"},
           {"median_well_shares.csv", "probabilistic screen: the wells that make the median realization's dp, per fault "

@@ -16,7 +16,7 @@ void write_probabilistic_outputs(const formats::RunFolder& folder, const scenari
                                  const screening::PreparedRun& p, const screening::ProbabilisticRun& run);
 
 // Their lines in README.txt.
-std::vector<ReadmeFile> probabilistic_readme(const screening::ProbabilisticRun& run);
+std::vector<ReadmeFile> probabilistic_readme(const screening::ProbabilisticRun& run, units::UnitSystem system);
 
 // The probabilistic block of the manifest.
 nlohmann::json probabilistic_manifest(const screening::ProbabilisticRun& run);

@@ -15,29 +15,30 @@ using formats::csv_field;
 using formats::format_iso8601_utc;
 using util::fixed_decimals;
 
-std::string rt_events_csv(const seismo::Catalog& c, const screening::RtView& v) {
+std::string rt_events_csv(const seismo::Catalog& c, const screening::RtView& v, const OutputUnits& u) {
   std::ostringstream t;
-  t << "event_id,time,time_since_start_days,distance_m,magnitude,diffusivity_through_point_m2_per_s\n";
+  t << "event_id,time,time_since_start_days," << u.column("distance", Quantity::length)
+    << ",magnitude,diffusivity_through_point_m2_per_s\n";
   for (const auto& p : v.points) {
     const auto& e = c.events[p.event];
     t << csv_field(e.id) << "," << format_iso8601_utc(e.time) << "," << fixed_decimals(p.t / units::kDay, 4) << ","
-      << fixed_decimals(p.r, 1) << "," << util::number_text(e.magnitude, 4) << "," << util::number_text(p.d_fit, 6) << "\n";
+      << u.text(p.r, Quantity::length, 1) << "," << util::number_text(e.magnitude, 4) << "," << util::number_text(p.d_fit, 6) << "\n";
   }
   return t.str();
 }
 
-std::string rt_fronts_csv(const screening::RtView& v) {
+std::string rt_fronts_csv(const screening::RtView& v, const OutputUnits& u) {
   double t_max = 0.0;
   for (const auto& p : v.points) t_max = std::max(t_max, p.t);
   if (t_max <= 0.0) t_max = 365.25 * units::kDay;
   const int n = 200;
   std::ostringstream fc;
-  fc << "diffusivity_m2_per_s,time_since_start_days,front_radius_m\n";
+  fc << "diffusivity_m2_per_s,time_since_start_days," << u.column("front_radius", Quantity::length) << "\n";
   for (double d : v.diffusivities)
     for (int k = 0; k <= n; ++k) {
       const double tt = t_max * k / n;
       fc << util::number_text(d, 4) << "," << fixed_decimals(tt / units::kDay, 4) << ","
-         << fixed_decimals(seismo::front_radius(d, tt), 1) << "\n";
+         << u.text(seismo::front_radius(d, tt), Quantity::length, 1) << "\n";
     }
   return fc.str();
 }

@@ -5,6 +5,7 @@
 #include "outputs/catalog_review_files.hpp"
 #include "outputs/gis_layers.hpp"
 #include "outputs/output_text.hpp"
+#include "outputs/output_units.hpp"
 #include "outputs/pressure_raster.hpp"
 #include "outputs/probabilistic_tables.hpp"
 #include "outputs/run_readme.hpp"
@@ -52,15 +53,18 @@ ReadmeContent run_readme(const scenario::ResolvedScenario& s, const RunResults& 
   c.title = "slipscreen run: " + (s.title.empty() ? s.file : s.title);
   std::string dates;
   for (const auto& d : s.output.dates) dates += (dates.empty() ? "" : ", ") + util::format_iso_date(d);
-  c.facts = {"Scenario: " + s.file, "Screens run: " + screens_text(r), "Output times: " + dates};
+  c.facts = {"Scenario: " + s.file, "Screens run: " + screens_text(r), "Output times: " + dates,
+             readme_units_line(OutputUnits(s.output.units), "coordinates in the working CRS's unit; screen.gpkg, the "
+                                                            "GeoTIFFs and the JSON files in SI")};
   const std::string crs = r.prepared.working.authority();
   if (!crs.empty()) c.facts.push_back("Working CRS: " + crs + " (coordinates in metres)");
   c.files = screen_tables_readme(s);
   c.files.push_back(pressure_raster_readme(s));
   c.files.push_back(gis_layers_readme(s, r.probabilistic != nullptr, r.review != nullptr));
-  if (r.probabilistic) for (auto& f : probabilistic_readme(*r.probabilistic)) c.files.push_back(std::move(f));
+  if (r.probabilistic) for (auto& f : probabilistic_readme(*r.probabilistic, s.output.units)) c.files.push_back(std::move(f));
   if (r.review) for (auto& f : catalog_review_readme(*r.review)) c.files.push_back(std::move(f));
   c.manifest = s.output.files.manifest;
+  c.oilfield_units = s.output.units == units::UnitSystem::oilfield;
   return c;
 }
 

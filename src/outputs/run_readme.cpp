@@ -56,9 +56,14 @@ std::string readme_text(const ReadmeContent& c, const std::vector<std::string>& 
     if (it == what.end()) throw std::logic_error("README.txt: no description of the output '" + p + "'");
     t += p + std::string(width - p.size() + 2, ' ') + it->second + "\n";
   }
-  t += "\nTables are CSV (RFC 4180) with one header line and no comment lines. Column and JSON key names\n"
-       "end in their unit (_Pa, _MPa, _m, _m2_per_s, _m3, _s, _deg, _days, _per_year, ...); dates and\n"
-       "times are ISO 8601, UTC.\n";
+  if (c.oilfield_units)
+    t += "\nTables are CSV (RFC 4180) with one header line and no comment lines. Column and JSON key names\n"
+         "end in their unit (tables: _psi, _ft, _bbl, _bbl_per_d, _psi_per_ft, _mD, _m2_per_s, _deg, _days,\n"
+         "_per_year, ...; JSON keys in SI: _Pa, _MPa, _m, _m3, _s, ...); dates and times are ISO 8601, UTC.\n";
+  else
+    t += "\nTables are CSV (RFC 4180) with one header line and no comment lines. Column and JSON key names\n"
+         "end in their unit (_Pa, _MPa, _m, _m2_per_s, _m3, _s, _deg, _days, _per_year, ...); dates and\n"
+         "times are ISO 8601, UTC.\n";
   return t;
 }
 

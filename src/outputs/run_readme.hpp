@@ -19,6 +19,7 @@ struct ReadmeContent {
   std::vector<std::string> facts;  // "Scenario: ...", "Screens run: ..."
   std::vector<ReadmeFile> files;   // descriptions of the files the run may write
   std::string manifest = "manifest.json";  // the manifest's name, written after README.txt
+  bool oilfield_units = false;     // the tables are in oilfield units (psi, ft, bbl; docs/outputs.md)
 };
 
 // The text: title, facts, the caution, then one line per file in `listed` (sorted by path).

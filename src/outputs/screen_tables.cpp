@@ -6,10 +6,10 @@
 #include "formats/table/csv.hpp"
 #include "core/util/number_text.hpp"
 #include "outputs/output_text.hpp"
+#include "outputs/output_units.hpp"
 
 namespace slipscreen::outputs {
 
-using util::append_fixed;
 using formats::csv_field;
 using util::fixed_decimals;
 using formats::RunFolder;
@@ -26,11 +26,12 @@ std::string well_shares_path(const ResolvedScenario& s) {
 }  // namespace
 
 std::vector<ReadmeFile> screen_tables_readme(const ResolvedScenario& s) {
+  const std::string pressure(OutputUnits(s.output.units).symbol(Quantity::pressure));
   return {{s.output.files.segment_times,
-           "deterministic screen: one row per fault segment and output time: dp, dp_crit and their margin (MPa), "
-           "the leading well"},
+           "deterministic screen: one row per fault segment and output time: dp, dp_crit and their margin (" +
+               pressure + "), the leading well"},
           {well_shares_path(s), "deterministic screen: one row per fault segment, output time and well: the well's "
-                                "part of dp (MPa) and its share"},
+                                "part of dp (" + pressure + ") and its share"},
           {s.output.files.segments, "deterministic screen: one row per fault segment: stress on its plane, slip "
                                     "tendency, dp_crit, peak dp and the first date dp reaches dp_crit"}};
 }
@@ -38,9 +39,13 @@ std::vector<ReadmeFile> screen_tables_readme(const ResolvedScenario& s) {
 void write_screen_tables(const RunFolder& folder, const ResolvedScenario& s, const PreparedRun& p,
                   const screen::ScreenResult& r) {
   const std::size_t W = p.wells.size(), K = s.output.times.size();
+  const OutputUnits u(s.output.units);
+  constexpr Quantity P = Quantity::pressure;
+  constexpr Quantity L = Quantity::length;
   {
     formats::TextFileWriter t(folder.output("output.files.segment_times", s.output.files.segment_times));
-    t.row({"segment_id", "fault_id", "date", "dp_MPa", "dp_crit_MPa", "margin_MPa", "dp_reaches_dp_crit",
+    t.row({"segment_id", "fault_id", "date", u.column("dp", P), u.column("dp_crit", P), u.column("margin", P),
+           "dp_reaches_dp_crit",
            "check_point", "leading_well", "leading_well_share"});
     for (std::size_t i = 0; i < r.segments.size(); ++i) {
       const auto& g = r.segments[i];
@@ -50,8 +55,8 @@ void write_screen_tables(const RunFolder& folder, const ResolvedScenario& s, con
           if (g.well_share[k * W + w] > g.well_share[k * W + lead]) lead = w;
         const bool has = W > 0 && g.dp[k] > 0;
         t.row({p.segments[i].segment_id, p.segments[i].fault_id, util::format_iso_date(s.output.dates[k]),
-               fixed_decimals(g.dp[k] / kMPa, 6), fixed_decimals(g.dp_crit / kMPa, 6),
-               fixed_decimals((g.dp_crit - g.dp[k]) / kMPa, 6), g.dp[k] >= g.dp_crit ? "yes" : "no",
+               u.text(g.dp[k], P, 6), u.text(g.dp_crit, P, 6), u.text(g.dp_crit - g.dp[k], P, 6),
+               g.dp[k] >= g.dp_crit ? "yes" : "no",
                std::to_string(g.dp_point[k]), has ? p.wells[lead].id : "",
                has ? fixed_decimals(g.well_share[k * W + lead], 6) : ""});
       }
@@ -60,7 +65,7 @@ void write_screen_tables(const RunFolder& folder, const ResolvedScenario& s, con
   }
   {
     formats::TextFileWriter t(folder.output("output.files.segment_times", well_shares_path(s)));
-    t.row({"segment_id", "date", "well_id", "dp_MPa", "share"});
+    t.row({"segment_id", "date", "well_id", u.column("dp", P), "share"});
     // W rows per segment and time (8 million in a regional screen): formatted into one buffer.
     std::vector<std::string> dates, wells;
     for (const auto& d : s.output.dates) dates.push_back(csv_field(util::format_iso_date(d)) + ',');
@@ -74,9 +79,9 @@ void write_screen_tables(const RunFolder& folder, const ResolvedScenario& s, con
           buf += seg;
           buf += dates[k];
           buf += wells[w];
-          append_fixed(buf, g.dp[k] * g.well_share[k * W + w] / kMPa, 6);
+          u.append(buf, g.dp[k] * g.well_share[k * W + w], P, 6);
           buf += ',';
-          append_fixed(buf, g.well_share[k * W + w], 6);
+          util::append_fixed(buf, g.well_share[k * W + w], 6);
           buf += '\n';
         }
       if (buf.size() > (1u << 20)) {
@@ -89,23 +94,23 @@ void write_screen_tables(const RunFolder& folder, const ResolvedScenario& s, con
   }
   {
     formats::TextFileWriter t(folder.output("output.files.segments", s.output.files.segments));
-    t.row({"segment_id", "fault_id", "segment_index", "length_m", "centre_x_m", "centre_y_m", "strike_deg",
-           "dip_deg", "friction", "sigma_n_MPa", "sigma_n_eff_MPa", "tau_MPa", "slip_tendency", "dilation_tendency",
-           "slip_sense", "dp_crit_MPa", "status", "dp_final_MPa", "peak_dp_MPa", "peak_date", "margin_MPa",
-           "first_crossing_date"});
+    // centre_x_m, centre_y_m: working-CRS coordinates, in the CRS's unit in either system.
+    t.row({"segment_id", "fault_id", "segment_index", u.column("length", L), "centre_x_m", "centre_y_m",
+           "strike_deg", "dip_deg", "friction", u.column("sigma_n", P), u.column("sigma_n_eff", P), u.column("tau", P),
+           "slip_tendency", "dilation_tendency", "slip_sense", u.column("dp_crit", P), "status", u.column("dp_final", P),
+           u.column("peak_dp", P), "peak_date", u.column("margin", P), "first_crossing_date"});
     for (std::size_t i = 0; i < r.segments.size(); ++i) {
       const auto& g = r.segments[i];
       const auto& seg = p.segments[i];
       double strike = p.inputs.segments[i].strike * kRadToDeg;
       strike = std::fmod(strike + 360.0, 360.0);
-      t.row({seg.segment_id, seg.fault_id, std::to_string(seg.index), fixed_decimals(seg.trace.length_m, 1),
+      t.row({seg.segment_id, seg.fault_id, std::to_string(seg.index), u.text(seg.trace.length_m, L, 1),
              fixed_decimals(seg.trace.centre.x, 1), fixed_decimals(seg.trace.centre.y, 1), fixed_decimals(strike, 2),
              fixed_decimals(seg.dip_rad * kRadToDeg, 2), fixed_decimals(g.friction, 3),
-             fixed_decimals(g.normal_stress / kMPa, 4), fixed_decimals(g.effective_normal_stress / kMPa, 4),
-             fixed_decimals(g.shear_stress / kMPa, 4), fixed_decimals(g.slip_tendency, 4),
-             fixed_decimals(g.dilation_tendency, 4), geomech::to_string(g.sense), fixed_decimals(g.dp_crit / kMPa, 6),
-             status_text(g.status), fixed_decimals(g.dp.back() / kMPa, 6), fixed_decimals(g.peak_dp / kMPa, 6),
-             g.peak_dp > 0 ? date_of(g.peak_time) : "", fixed_decimals((g.dp_crit - g.peak_dp) / kMPa, 6),
+             u.text(g.normal_stress, P, 4), u.text(g.effective_normal_stress, P, 4), u.text(g.shear_stress, P, 4),
+             fixed_decimals(g.slip_tendency, 4), fixed_decimals(g.dilation_tendency, 4), geomech::to_string(g.sense),
+             u.text(g.dp_crit, P, 6), status_text(g.status), u.text(g.dp.back(), P, 6), u.text(g.peak_dp, P, 6),
+             g.peak_dp > 0 ? date_of(g.peak_time) : "", u.text(g.dp_crit - g.peak_dp, P, 6),
              g.first_crossing ? date_of(*g.first_crossing) : ""});
     }
     t.close();

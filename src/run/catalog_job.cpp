@@ -44,7 +44,7 @@ CatalogJobResult run_catalog_job(const CatalogJob& job) {
   r.json["rt_view"] = r.rt ? outputs::rt_view_json(*r.rt) : nlohmann::json(nullptr);
   if (!job.out.empty()) {
     formats::RunFolder folder(job.out, folder_rules);
-    outputs::CatalogFolderRecord record{job.command_line, {{"catalog", job.file, ""}}};
+    outputs::CatalogFolderRecord record{job.command_line, {{"catalog", job.file, ""}}, job.units};
     if (!job.volume_history.empty()) record.inputs.push_back({"volume history", job.volume_history, ""});
     outputs::write_catalog_folder(folder, r.json, r.filtered.catalog, r.rt, record);
     folder.commit();

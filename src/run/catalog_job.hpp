@@ -15,6 +15,7 @@
 
 #include "core/seismo/catalog_filter.hpp"
 #include "core/seismo/catalog_summary.hpp"
+#include "core/units/units.hpp"
 #include "formats/catalog/catalog_file.hpp"
 #include "screening/rt_view.hpp"
 
@@ -37,6 +38,7 @@ struct CatalogJob {
   std::optional<RtRequest> rt;
   std::filesystem::path out;             // "" = no folder
   bool force = false;
+  units::UnitSystem units = units::UnitSystem::si;  // of the folder's tables
   std::vector<std::string> command_line; // for the folder's manifest
   // One line per stale leftover of a killed run cleaned beside the folder (stale_runs.hpp).
   std::function<void(const std::string& line)> notice;

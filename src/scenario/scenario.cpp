@@ -6,6 +6,7 @@
 
 #include "core/errors.hpp"
 #include "core/util/number_text.hpp"
+#include "core/util/suggest.hpp"
 #include "core/util/trim.hpp"
 #include "formats/files/path_policy.hpp"
 #include "formats/table/iso_time.hpp"
@@ -210,7 +211,7 @@ OutputGrid read_grid(const formats::Section& s) {
 }
 
 OutputSpec read_output(const formats::Section& s) {
-  s.allow({"folder", "tables", "rasters", "geopackage", "cog", "times", "grid", "files"});
+  s.allow({"folder", "tables", "rasters", "geopackage", "cog", "units", "times", "grid", "files"});
   OutputSpec o;
   o.folder = s.optional_string("folder").value_or("");
   if (!o.folder.empty()) check_output_name(s, "folder", o.folder);
@@ -219,6 +220,11 @@ OutputSpec read_output(const formats::Section& s) {
   o.geopackage = s.boolean_or("geopackage", true);
   o.cog = s.boolean_or("cog", false);
   if (o.cog && !o.rasters) s.fail("cog", "true", "rasters = true (a COG is a raster output)");
+  if (const auto u = s.optional_string("units")) {
+    const auto system = units::unit_system_named(*u);
+    if (!system) s.fail("units", *u, "\"SI\" or \"oilfield\"" + util::did_you_mean(*u, units::unit_system_names()));
+    o.units = *system;
+  }
   o.dates = read_times(s.child("times"));
   for (const auto& d : o.dates) o.times.push_back(util::to_seconds(d));
   o.grid = read_grid(s.child("grid"));
@@ -534,7 +540,7 @@ json output_json(const OutputSpec& o, const std::string& region_crs) {
     grid["extent"] = {g.xmin, g.ymin, g.xmax, g.ymax};
   }
   return {{"folder", o.folder}, {"tables", o.tables}, {"rasters", o.rasters},
-          {"geopackage", o.geopackage}, {"cog", o.cog}, {"dates", dates}, {"grid", grid},
+          {"geopackage", o.geopackage}, {"cog", o.cog}, {"units", std::string(units::unit_system_name(o.units))}, {"dates", dates}, {"grid", grid},
           {"files", {{"segment_times", o.files.segment_times}, {"segments", o.files.segments},
                      {"pressure_raster", o.files.pressure_raster},
                      {"geopackage", o.files.geopackage}}}};

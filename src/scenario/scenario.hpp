@@ -18,6 +18,7 @@
 
 #include <nlohmann/json_fwd.hpp>
 
+#include "core/units/units.hpp"
 #include "core/util/civil_date.hpp"
 #include "scenario/catalog_spec.hpp"
 #include "scenario/region.hpp"
@@ -47,6 +48,7 @@ struct OutputFiles {
 struct OutputSpec {
   std::string folder;            // run folder as written (relative to the working directory)
   bool tables = true, rasters = true, geopackage = true, cog = false;
+  units::UnitSystem units = units::UnitSystem::si;  // of the tables and the console (docs/outputs.md)
   std::vector<util::CivilDate> dates;
   std::vector<double> times;     // seconds, strictly increasing
   OutputGrid grid;

@@ -43,6 +43,7 @@ def run(cmd, cwd):
     done = subprocess.run(cmd, cwd=cwd, capture_output=True, text=True)
     if done.returncode != 0:
         fail(f"{' '.join(map(str, cmd))} exited {done.returncode}:\n{done.stderr}")
+    return done.stdout
 
 
 def patched(text, old, new):
@@ -51,7 +52,9 @@ def patched(text, old, new):
     return text.replace(old, new)
 
 
-def make_runs(slipscreen, source, work):
+def reduced_demo(source, work):
+    """The demo scenario and catalog copied into WORK (emptied first), with 100 realizations and
+    output times every 5 years; the runs start in WORK with regions/marrowick/scenario.toml."""
     shutil.rmtree(work, ignore_errors=True)
     shutil.copytree(source / "regions" / "marrowick", work / "regions" / "marrowick")
     shutil.copytree(source / "catalogs" / "demo", work / "catalogs" / "demo")
@@ -60,6 +63,10 @@ def make_runs(slipscreen, source, work):
     text = patched(text, "realizations = 2000", "realizations = 100")
     text = patched(text, 'step = "1 year"', 'step = "5 years"')
     scenario.write_text(text)
+
+
+def make_runs(slipscreen, source, work):
+    reduced_demo(source, work)
     run([slipscreen, "run", "regions/marrowick/scenario.toml", "--out", "run", "--reproducible"], work)
     run([slipscreen, "catalog", "catalogs/demo/demo_catalog.csv", "--well", "-135.0,-35.3", "--start",
          "2011-04-01", "--out", "catalog"], work)

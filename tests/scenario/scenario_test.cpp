@@ -269,3 +269,22 @@ TEST_CASE("output paths that escape the run folder are refused") {
   n.replace("scenario.toml", "file = \"wells.csv\"", "file = \"/vsicurl/https://example.invalid/wells.csv\"");
   CHECK_THROWS_WITH_AS(load_scenario(n.scenario()), doctest::Contains("scenario inputs are local files"), RefusedError);
 }
+
+TEST_CASE("[output] units: SI by default, oilfield when asked, a misspelt name refused with its place") {
+  TinyScenario t;
+  CHECK(load_scenario(t.scenario()).output.units == units::UnitSystem::si);
+  CHECK(to_json(load_scenario(t.scenario()))["output"]["units"] == "SI");
+  TinyScenario o;
+  o.replace("scenario.toml", "cog = false", "cog = false\nunits = \"oilfield\"");
+  CHECK(load_scenario(o.scenario()).output.units == units::UnitSystem::oilfield);
+  CHECK(to_json(load_scenario(o.scenario()))["output"]["units"] == "oilfield");
+  TinyScenario m;
+  m.replace("scenario.toml", "cog = false", "cog = false\nunits = \"oilfeild\"");
+  CHECK_THROWS_WITH_AS(load_scenario(m.scenario()),
+                       doctest::Contains("scenario.toml line 29, column 9: field 'output.units' = 'oilfeild': expected "
+                                         "\"SI\" or \"oilfield\" (did you mean 'oilfield'?)"),
+                       InputError);
+  TinyScenario n;
+  n.replace("scenario.toml", "cog = false", "cog = false\nunits = 3");
+  CHECK_THROWS_AS(load_scenario(n.scenario()), InputError);
+}

@@ -53,6 +53,7 @@ const std::array kUnits = {
     Unit{"MPa/m", D::pressure_gradient, 1.0e6},
     Unit{"bar/m", D::pressure_gradient, kBar},
     Unit{"psi/ft", D::pressure_gradient, kPsi / kFoot},
+    Unit{"ppg", D::pressure_gradient, kPoundPerGallonGradient},  // mud weight, see units.hpp
 
     Unit{"m2", D::permeability, 1.0},
     Unit{"m²", D::permeability, 1.0},
@@ -84,6 +85,7 @@ const std::array kUnits = {
     Unit{"L/s", D::volume_rate, 1.0e-3},
     Unit{"bbl/d", D::volume_rate, kBarrel / kDay},
     Unit{"bbl/day", D::volume_rate, kBarrel / kDay},
+    Unit{"bpd", D::volume_rate, kBarrel / kDay},
     Unit{"Mbbl/d", D::volume_rate, 1.0e3 * kBarrel / kDay},
 
     Unit{"m3", D::volume, 1.0},
@@ -118,7 +120,7 @@ std::string example_for(Dimension d) {
     case D::length: return "'3000 ft' or '2.5 km'";
     case D::time: return "'30 d' or '10 yr'";
     case D::pressure: return "'25 MPa' or '3500 psi'";
-    case D::pressure_gradient: return "'0.7 psi/ft' or '23 MPa/km'";
+    case D::pressure_gradient: return "'0.7 psi/ft', '23 MPa/km' or '9 ppg'";
     case D::permeability: return "'10 mD' or '1e-14 m2'";
     case D::viscosity: return "'0.5 cP' or '5e-4 Pa.s'";
     case D::compressibility: return "'1e-9 1/Pa' or '6e-6 1/psi'";
@@ -229,6 +231,16 @@ double parse(std::string_view text, Dimension expected, std::string_view field) 
                      "a value that stays finite when converted to " + std::string(si_symbol(expected)) + " (this one overflows)");
   return si;
 }
+
+std::string_view unit_system_name(UnitSystem u) { return u == UnitSystem::oilfield ? "oilfield" : "SI"; }
+
+std::optional<UnitSystem> unit_system_named(std::string_view name) {
+  if (name == "SI") return UnitSystem::si;
+  if (name == "oilfield") return UnitSystem::oilfield;
+  return std::nullopt;
+}
+
+std::vector<std::string> unit_system_names() { return {"SI", "oilfield"}; }
 
 double to_unit(double si_value, std::string_view unit, Dimension expected) {
   return si_value / lookup(unit, expected, "unit").to_si;

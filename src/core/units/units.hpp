@@ -3,8 +3,16 @@
 // become SI doubles, and SI doubles are reported in any known unit of the same dimension.
 //
 // Internal units (SI): m, s, Pa, Pa/m, m², Pa·s, 1/Pa, m³/s, m³, kg/m³, m²/s, rad.
-// Conversion factors are exact definitions where one exists (ft = 0.3048 m, psi from lbf and
-// in, bbl = 42 US gal, cP = 1e-3 Pa·s); the darcy is 9.869233e-13 m² (common practice).
+// Conversion factors are exact definitions where one exists (NIST SP 811, 2008 edition,
+// Appendix B: ft = 0.3048 m, lbf = 4.4482216152605 N, so psi = lbf/in² = 6894.757293168 Pa;
+// bbl = 42 US gal = 0.158987294928 m³; US gal = 231 in³ = 3.785411784e-3 m³; lb = 0.45359237 kg;
+// cP = 1e-3 Pa·s); the darcy is 9.869233e-13 m² (common practice).
+//
+// Mud weight: `ppg` (pounds per US gallon) is read as the pressure gradient of a fluid column of
+// that density under standard gravity, g · 0.45359237 kg / 3.785411784e-3 m³ = 1175.0958 Pa/m,
+// which is 12/231 = 0.0519481 psi/ft exactly. The rounded 0.052 psi/ft of common practice is
+// 0.1 % larger; the exact value is used (docs/scenario.md).
+#include <optional>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -68,5 +76,18 @@ inline constexpr double kYear = 365.25 * 86400.0;             // s (Julian year)
 inline constexpr double kMilliDarcy = 9.869233e-16;           // m² (common practice)
 inline constexpr double kCentiPoise = 1.0e-3;                 // Pa·s
 inline constexpr double kStandardGravity = 9.80665;           // m/s² (CGPM 1901)
+inline constexpr double kPound = 0.45359237;                  // kg (NIST SP 811, exact)
+inline constexpr double kUsGallon = 3.785411784e-3;           // m³ (231 in³, exact)
+inline constexpr double kPoundPerGallonGradient = kStandardGravity * kPound / kUsGallon;  // Pa/m per ppg
+
+// The unit systems a run's outputs can be written in (docs/outputs.md, "Units in names").
+enum class UnitSystem { si, oilfield };
+
+// "SI" or "oilfield".
+std::string_view unit_system_name(UnitSystem u);
+// The system named `name` ("SI" or "oilfield", exactly as written); nothing for other text.
+std::optional<UnitSystem> unit_system_named(std::string_view name);
+// Every accepted name, for messages: {"SI", "oilfield"}.
+std::vector<std::string> unit_system_names();
 
 }  // namespace slipscreen::units

@@ -2,6 +2,8 @@
 
 #include <doctest/doctest.h>
 
+#include <cmath>
+
 #include "core/errors.hpp"
 
 using namespace slipscreen;
@@ -49,4 +51,40 @@ TEST_CASE("unknown, missing and incompatible units are clear errors") {
   // A finite number whose SI value overflows (1e308 km is 1e311 m) is refused, not returned as inf.
   CHECK_THROWS_WITH_AS(units::parse("1e308 km", Dimension::length, "depth"),
                        doctest::Contains("field 'depth' = '1e308 km'"), InputError);
+}
+
+TEST_CASE("mud weight in ppg is the gradient of that fluid column under standard gravity") {
+  // NIST SP 811 Appendix B: lb = 0.45359237 kg, US gal = 3.785411784e-3 m3 (both exact), and
+  // g = 9.80665 m/s2 (CGPM 1901): 1 ppg = 9.80665 * 0.45359237 / 3.785411784e-3 Pa/m
+  // = 1175.0958334 Pa/m (arithmetic, python3).
+  CHECK(units::parse("1 ppg", Dimension::pressure_gradient, "g") ==
+        doctest::Approx(1175.0958334472443).epsilon(1e-14));
+  // Since 1 US gal = 231 in3 (exact), 1 ppg is 12/231 psi/ft exactly; the field's rounding of it
+  // is 0.052 psi/ft (common practice), 0.1 % above the exact value used here.
+  CHECK(units::to_unit(units::parse("1 ppg", Dimension::pressure_gradient, "g"), "psi/ft",
+                       Dimension::pressure_gradient) == doctest::Approx(12.0 / 231.0).epsilon(1e-14));
+  const double ppg_in_psi_per_ft =
+      units::to_unit(units::parse("9 ppg", Dimension::pressure_gradient, "g"), "psi/ft", Dimension::pressure_gradient) / 9;
+  CHECK(std::abs(ppg_in_psi_per_ft - 0.052) / 0.052 < 1.0e-3);
+  CHECK(std::abs(ppg_in_psi_per_ft - 0.052) / 0.052 > 0.9e-3);  // exact, not the rounding
+  // A mud weight is a gradient, never a density or a volume rate.
+  CHECK_THROWS_WITH_AS(units::parse("9 ppg", Dimension::density, "rho"),
+                       doctest::Contains("not a pressure gradient unit"), InputError);
+}
+
+TEST_CASE("bpd is barrels per day") {
+  CHECK(units::parse("2e4 bpd", Dimension::volume_rate, "q") == units::parse("2e4 bbl/d", Dimension::volume_rate, "q"));
+  // 2e4 bbl/d = 0.036802614566 m3/s (arithmetic from NIST SP 811's barrel, as above).
+  CHECK(units::parse("2e4 bpd", Dimension::volume_rate, "q") == doctest::Approx(0.036802614566).epsilon(1e-10));
+  CHECK_THROWS_WITH_AS(units::parse("100 bpd", Dimension::volume, "v"), doctest::Contains("not a volume rate unit"),
+                       InputError);
+}
+
+TEST_CASE("unit systems are named SI and oilfield") {
+  CHECK(units::unit_system_named("SI") == units::UnitSystem::si);
+  CHECK(units::unit_system_named("oilfield") == units::UnitSystem::oilfield);
+  CHECK_FALSE(units::unit_system_named("si").has_value());
+  CHECK_FALSE(units::unit_system_named("imperial").has_value());
+  CHECK(units::unit_system_name(units::UnitSystem::oilfield) == "oilfield");
+  CHECK(units::unit_system_name(units::UnitSystem::si) == "SI");
 }
