@@ -1,6 +1,9 @@
 #include "outputs/screen_tables.hpp"
 
+#include <algorithm>
+#include <array>
 #include <cmath>
+#include <functional>
 
 #include "formats/files/text_file.hpp"
 #include "formats/table/csv.hpp"
@@ -31,8 +34,9 @@ std::vector<ReadmeFile> screen_tables_readme(const ResolvedScenario& s) {
            "the leading well"},
           {well_shares_path(s), "deterministic screen: one row per fault segment, output time and well: the well's "
                                 "part of dp (MPa) and its share"},
-          {s.output.files.segments, "deterministic screen: one row per fault segment: stress on its plane, slip "
-                                    "tendency, dp_crit, peak dp and the first date dp reaches dp_crit"}};
+          {s.output.files.segments, "deterministic screen: one row per fault segment: the principal stresses, "
+                                    "pore pressure, friction and cohesion it is resolved with, stress on its plane, "
+                                    "slip tendency, dp_crit, peak dp and the first date dp reaches dp_crit"}};
 }
 
 void write_screen_tables(const RunFolder& folder, const ResolvedScenario& s, const PreparedRun& p,
@@ -90,9 +94,15 @@ void write_screen_tables(const RunFolder& folder, const ResolvedScenario& s, con
   {
     formats::TextFileWriter t(folder.output("output.files.segments", s.output.files.segments));
     t.row({"segment_id", "fault_id", "segment_index", "length_m", "centre_x_m", "centre_y_m", "strike_deg",
-           "dip_deg", "friction", "sigma_n_MPa", "sigma_n_eff_MPa", "tau_MPa", "slip_tendency", "dilation_tendency",
+           "dip_deg", "depth_m", "s1_MPa", "s2_MPa", "s3_MPa", "pore_pressure_MPa", "friction", "cohesion_MPa",
+           "sigma_n_MPa", "sigma_n_eff_MPa", "tau_MPa", "slip_tendency", "dilation_tendency",
            "slip_sense", "dp_crit_MPa", "status", "dp_final_MPa", "peak_dp_MPa", "peak_date", "margin_MPa",
            "first_crossing_date"});
+    // The Mohr circles' stresses (docs/outputs.md): the Andersonian principal stresses at the
+    // reference depth, where every segment's stress is resolved, sorted S1 >= S2 >= S3.
+    const auto& st = p.inputs.stress;
+    std::array<double, 3> principal = {st.sv, st.shmax, st.shmin};
+    std::sort(principal.begin(), principal.end(), std::greater<>());
     for (std::size_t i = 0; i < r.segments.size(); ++i) {
       const auto& g = r.segments[i];
       const auto& seg = p.segments[i];
@@ -100,7 +110,10 @@ void write_screen_tables(const RunFolder& folder, const ResolvedScenario& s, con
       strike = std::fmod(strike + 360.0, 360.0);
       t.row({seg.segment_id, seg.fault_id, std::to_string(seg.index), fixed_decimals(seg.trace.length_m, 1),
              fixed_decimals(seg.trace.centre.x, 1), fixed_decimals(seg.trace.centre.y, 1), fixed_decimals(strike, 2),
-             fixed_decimals(seg.dip_rad * kRadToDeg, 2), fixed_decimals(g.friction, 3),
+             fixed_decimals(seg.dip_rad * kRadToDeg, 2), fixed_decimals(s.region.reference_depth, 1),
+             fixed_decimals(principal[0] / kMPa, 4), fixed_decimals(principal[1] / kMPa, 4),
+             fixed_decimals(principal[2] / kMPa, 4), fixed_decimals(st.pore_pressure / kMPa, 4),
+             fixed_decimals(g.friction, 3), fixed_decimals(p.inputs.friction.cohesion / kMPa, 4),
              fixed_decimals(g.normal_stress / kMPa, 4), fixed_decimals(g.effective_normal_stress / kMPa, 4),
              fixed_decimals(g.shear_stress / kMPa, 4), fixed_decimals(g.slip_tendency, 4),
              fixed_decimals(g.dilation_tendency, 4), geomech::to_string(g.sense), fixed_decimals(g.dp_crit / kMPa, 6),
