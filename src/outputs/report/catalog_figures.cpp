@@ -7,6 +7,7 @@
 
 #include "core/errors.hpp"
 #include "core/util/civil_date.hpp"
+#include "core/util/number_text.hpp"
 #include "formats/drawing/canvas.hpp"
 #include "formats/gis/read_back.hpp"
 #include "outputs/report/figure_support.hpp"
@@ -66,7 +67,7 @@ Colour front_colour(std::size_t i) {
   return category_colour(kHues[i % 5]);
 }
 
-std::string mag_text(double m) { return data_number(std::round(m * 100) / 100); }
+std::string mag_text(double m) { return util::fixed_decimals(m, 2); }
 
 Figure magnitude_time(const std::vector<Event>& events, double mc) {
   Figure f;
@@ -135,7 +136,7 @@ Figure frequency_magnitude(const json& summary) {
     std::vector<LegendEntry> legend = {{"events per bin", kIncremental, LegendEntry::Mark::band},
                                        {"events ≥ M", kCumulative, LegendEntry::Mark::dot},
                                        {"Mc", kMc}};
-    if (fit) legend.push_back({"log<sub>10</sub> N = a − bM", kFit});
+    if (fit) legend.push_back({"log₁₀ N = a − bM", kFit});
     page.legend_right(legend);
     const double lo_m = bins.front().m - width, hi_m = bins.back().m + width;
     Plot plot(c, page.body(), nice_axis(lo_m, hi_m, "magnitude"),
@@ -215,7 +216,7 @@ Figure volume_figure(const std::vector<Event>& events, const RunTable& vol, cons
     page.legend_right(legend);
     const double scale = 1e6;  // shown in 10⁶ m³
     const double y_hi = std::max(static_cast<double>(counted.size()), fit ? v_max * per_m3 : 0.0);
-    Plot plot(c, page.body(), nice_axis(0, v_max / scale, "volume injected since " + window + " [10<sup>6</sup> m³]"),
+    Plot plot(c, page.body(), nice_axis(0, v_max / scale, "volume injected since " + window + " [10⁶ m³]"),
               nice_axis(0, std::max(1.0, y_hi), "events ≥ Mc"));
     plot.axes();
     if (fit) plot.line({0, v_max / scale}, {0, v_max * per_m3}, {.colour = kFit, .width = 1.2, .dash = {5, 3}});
@@ -293,9 +294,11 @@ Figure event_map(const std::vector<Event>& events, const formats::RasterBandRead
   double dp_max = threshold;
   for (double v : dp.values)
     if (std::isfinite(v)) dp_max = std::max(dp_max, v);
-  auto in_print = [&](int col, int row) {
-    if (col < 0 || row < 0 || col >= g.columns || row >= g.rows) return false;
-    const double v = dp.values[g.index(col, row)];
+  // Whether a cell is inside the footprint (false outside the grid). Takes the band, so that the
+  // drawing below holds no reference to this function's arguments.
+  const auto in_print = [threshold](const formats::RasterBandRead& b, int col, int row) {
+    if (col < 0 || row < 0 || col >= b.grid.columns || row >= b.grid.rows) return false;
+    const double v = b.values[b.grid.index(col, row)];
     return std::isfinite(v) && v >= threshold;
   };
   Figure f;
@@ -311,7 +314,7 @@ Figure event_map(const std::vector<Event>& events, const formats::RasterBandRead
     for (int col = 0; col < g.columns; ++col) {
       const auto centre = g.cell_centre(col, r);
       const double v = dp.values[g.index(col, r)];
-      f.data.rows.push_back({"cell", "", data_number(centre.x), data_number(centre.y), "", in_print(col, r) ? "yes" : "no",
+      f.data.rows.push_back({"cell", "", data_number(centre.x), data_number(centre.y), "", in_print(dp, col, r) ? "yes" : "no",
                              data_number(v)});
     }
   for (const auto& e : events)
@@ -351,9 +354,9 @@ Figure event_map(const std::vector<Event>& events, const formats::RasterBandRead
     for (int r = 0; r <= g.rows; ++r)
       for (int col = 0; col <= g.columns; ++col) {
         const double ex = x0 + col * cs, ny = y1 - r * cs;
-        if (in_print(col, r) != in_print(col - 1, r) && r < g.rows)
+        if (in_print(dp, col, r) != in_print(dp, col - 1, r) && r < g.rows)
           plot.line({ex, ex}, {ny, ny - cs}, {.width = 1.2});
-        if (in_print(col, r) != in_print(col, r - 1) && col < g.columns)
+        if (in_print(dp, col, r) != in_print(dp, col, r - 1) && col < g.columns)
           plot.line({ex, ex + cs}, {ny, ny}, {.width = 1.2});
       }
     for (const auto& fault : faults)

@@ -127,16 +127,16 @@ Figure mohr_figure(const std::string& fault, const std::vector<SegmentRow>& segs
   }
 
   std::string subtitle = "At " + data_number(std::round(first.depth)) + " m: " + std::to_string(segs.size()) +
-                         (segs.size() == 1 ? " segment" : " segments") + "; smallest Δp<sub>crit</sub> " +
+                         (segs.size() == 1 ? " segment" : " segments") + "; smallest Δp_crit " +
                          (std::isfinite(closest->dp_crit) ? pressure_text(closest->dp_crit, u) : "none") + " (" +
                          formats::markup_escape(closest->id) + "), largest peak Δp " + pressure_text(peak, u);
   f.draw = [=](Canvas& c) {
     FigurePage page(c, "Mohr diagram, fault " + formats::markup_escape(fault), subtitle);
     std::vector<LegendEntry> legend = {{"principal circles", kCircle},
-                                       {"Coulomb line τ = c + μσ′<sub>n</sub>", kCoulomb},
+                                       {"Coulomb line τ = c + μσn′", kCoulomb},
                                        {"segment before injection", kBefore, LegendEntry::Mark::dot},
                                        {"at peak Δp", kAtPeak, LegendEntry::Mark::dot},
-                                       {"Δp<sub>crit</sub> (to the line)", kCritical}};
+                                       {"Δp_crit (to the line)", kCritical}};
     if (peak > 0) legend.insert(legend.begin() + 1, {"S1–S3 circle at peak Δp", kCircle.with_alpha(0.5)});
     page.legend_right(legend);
     // Equal scales on both axes, so that the circles are round: fit the x range, then give the
@@ -148,7 +148,7 @@ Figure mohr_figure(const std::string& fault, const std::vector<SegmentRow>& segs
     }
     const double x_hi = s1 - p0;
     const Axis xa = nice_axis(u.shown(x_lo), u.shown(x_hi) * 1.04,
-                              "effective normal stress σ′<sub>n</sub> [" + u.suffix + "]");
+                              "effective normal stress σn′ [" + u.suffix + "]");
     const Plot probe(c, page.body(), xa, {0, 1, ""});
     const double per_pt = (xa.hi - xa.lo) / probe.frame().w;
     const Axis ya{0, per_pt * probe.frame().h, "shear stress τ [" + u.suffix + "]"};
@@ -220,7 +220,7 @@ Figure dp_crit_figure(const RunTable& q, const RunTable& prob, std::size_t n) {
     f.data.rows.push_back({cv.id, "dp_p50", "", last_date, data_number(u.shown(cv.dp_median))});
   }
   f.draw = [=](Canvas& c) {
-    FigurePage page(c, "Δp<sub>crit</sub> across realizations, top segments",
+    FigurePage page(c, "Δp_crit across realizations, top segments",
                     "Cumulative distribution; dashed: median modelled Δp at " + last_date);
     std::vector<LegendEntry> legend;
     double lo = 0, hi = 0;
@@ -230,14 +230,17 @@ Figure dp_crit_figure(const RunTable& q, const RunTable& prob, std::size_t n) {
       if (std::isfinite(curves[i].dp_median)) hi = std::max(hi, curves[i].dp_median);
     }
     page.legend_right(legend, "segment");
-    Plot plot(c, page.body(), nice_axis(u.shown(lo), u.shown(hi), "Δp<sub>crit</sub> [" + u.suffix + "]"),
+    Plot plot(c, page.body(), nice_axis(u.shown(lo), u.shown(hi), "Δp_crit [" + u.suffix + "]"),
               {0, 1, "share of realizations"});
     plot.axes();
     for (std::size_t i = 0; i < curves.size(); ++i) {
       std::vector<double> x;
       for (double v : curves[i].value) x.push_back(u.shown(v));
       plot.vline(u.shown(curves[i].dp_median), {.colour = category_colour(i), .width = 1.0, .dash = {4, 3}});
-      plot.line(x, curves[i].level, {.colour = category_colour(i), .width = 1.6});
+      // Segments of one fault often share their distribution: the higher-ranked curves are drawn
+      // first and wider, so that an identical curve above leaves them visible at its edges.
+      const double width = 1.4 + 0.7 * static_cast<double>(curves.size() - 1 - i);
+      plot.line(x, curves[i].level, {.colour = category_colour(i), .width = width});
     }
     page.footer();
   };
@@ -281,7 +284,7 @@ Figure sensitivity_figure(const RunTable& t, std::size_t n) {
   f.reading = "Spearman's rank correlation of each sampled input with the slip margin (dp_crit - dp) at the last output "
               "time, at each fault's segment with the highest final P(slip). Bars to the right: a larger value of the "
               "input keeps the fault further from failure; to the left: it brings failure closer.";
-  f.height = std::max(kFigureHeight, 120.0 + 12.0 * static_cast<double>(inputs.size() * std::max<std::size_t>(1, faults.size())));
+  f.height = std::max(kFigureHeight, 110.0 + 5.5 * static_cast<double>(inputs.size() * std::max<std::size_t>(1, faults.size())));
   f.data.header = {"fault_id", "segment_id", "p_slip_final", "input", "spearman_rho"};
   for (const auto& in : inputs)
     for (const auto& fr : faults)
