@@ -93,7 +93,7 @@ Figure magnitude_time(const std::vector<Event>& events, double mc) {
     Plot plot(c, page.body(), {t0 - pad, t1 + pad, "origin time", AxisKind::date},
               nice_axis(std::min(m0, mc) - 0.2, m1 + 0.2, "magnitude"));
     plot.axes();
-    plot.hline(mc, {.colour = kMc, .width = 1.0, .dash = {4, 3}}, "Mc " + mag_text(mc));
+    plot.hline(mc, {.colour = kMc, .width = 1.0, .dash = {4, 3}});
     for (const auto& e : events)
       plot.dots({e.days}, {e.magnitude}, 1.6 + 1.1 * std::max(0.0, e.magnitude - m0), e.inside ? kInside : kOutside,
                 Stroke{.colour = formats::kPaper, .width = 0.4});
