@@ -182,6 +182,15 @@ void write_rate_tables(const formats::RunFolder& folder, const scenario::Resolve
   write_text_file(folder.output("catalog", "seismicity_rate_faults.csv"), ft.str());
 }
 
+// injected_volume.csv: the summed cumulative volume the seismogenic index was fitted to, at
+// every rate change of every well (exact: the curve is linear in between).
+std::string injected_volume_csv(const seismo::VolumeHistory& h, const OutputUnits& u) {
+  std::string t = "time," + u.column("volume", Quantity::volume) + "\n";
+  for (std::size_t i = 0; i < h.time.size(); ++i)
+    t += format_iso8601_utc(h.time[i]) + ',' + u.text(h.volume[i], Quantity::volume, 3) + '\n';
+  return t;
+}
+
 }  // namespace
 
 std::vector<ReadmeFile> catalog_review_readme(const screening::CatalogReview& v) {
@@ -194,6 +203,9 @@ std::vector<ReadmeFile> catalog_review_readme(const screening::CatalogReview& v)
                               "background"},
       {"seismicity_rate_faults.csv", "seismicity rate (Dieterich 1994) per fault and output time, summed over its "
                                      "segments"}};
+  if (v.volume_history)
+    files.push_back({"injected_volume.csv", "catalog review: cumulative volume (m3) injected by all scenario wells while the "
+                                            "catalog ran, at every rate change (the seismogenic index's history)"});
   if (v.rt) {
     files.push_back({"rt_events.csv", rt_events_description(*v.rt)});
     files.push_back({"rt_fronts.csv", rt_fronts_description(*v.rt)});
@@ -206,6 +218,9 @@ void write_catalog_review(const formats::RunFolder& folder, const scenario::Reso
   write_text_file(folder.output("catalog", "catalog_summary.json"),
              catalog_review_json(s, p, v).dump(2, ' ', false, nlohmann::json::error_handler_t::replace) + "\n");
   write_text_file(folder.output("catalog", "catalog_events.csv"), events_csv(s, p, v));
+  if (v.volume_history)
+    write_text_file(folder.output("catalog", "injected_volume.csv"),
+                    injected_volume_csv(*v.volume_history, OutputUnits(s.output.units)));
   if (v.rt) {
     const OutputUnits u(s.output.units);
     write_text_file(folder.output("catalog", "rt_events.csv"), rt_events_csv(v.catalog, *v.rt, u));

@@ -92,6 +92,34 @@ void write_probability_summary(const Context& c) {
   formats::write_text_file(folder.output("output.files.segment_probability_summary", "segment_probability_summary.csv"), t.str());
 }
 
+// dp_crit_quantiles.csv: the distribution of Δp_crit over the realizations for the segments
+// closest to slipping (docs/outputs.md), read from the same quantile sketches as the P5/P50/P95
+// of segment_probability_summary.csv.
+void write_dp_crit_quantiles(const Context& c) {
+  const auto& [folder, s, p, run, n, z, K, u] = c;
+  const auto& res = run.result;
+  std::vector<std::size_t> order;
+  for (std::size_t i = 0; i < res.segments.size(); ++i)
+    if (!res.segments[i].dp_crit.empty()) order.push_back(i);
+  std::vector<double> median(res.segments.size(), 0.0);
+  for (std::size_t i : order) median[i] = res.segments[i].dp_crit.quantile(0.5);
+  // Highest final P(slip) first; ties: lowest median Δp_crit, then file order.
+  std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
+    const auto pa = res.segments[a].slipped_by[K - 1], pb = res.segments[b].slipped_by[K - 1];
+    return pa != pb ? pa > pb : median[a] < median[b];
+  });
+  if (order.size() > kDpCritQuantileSegments) order.resize(kDpCritQuantileSegments);
+  std::string t = "segment_id,fault_id,rank,quantile," + u.column("dp_crit", P) + "\n";
+  for (std::size_t r = 0; r < order.size(); ++r) {
+    const auto& seg = res.segments[order[r]];
+    const std::string head = csv_field(p.segments[order[r]].segment_id) + ',' +
+                             csv_field(p.segments[order[r]].fault_id) + ',' + std::to_string(r + 1) + ',';
+    for (int q = 1; q <= 99; ++q)
+      t += head + fixed_decimals(q / 100.0, 2) + ',' + u.text(seg.dp_crit.quantile(q / 100.0), P, 6) + '\n';
+  }
+  formats::write_text_file(folder.output("output.files.dp_crit_quantiles", "dp_crit_quantiles.csv"), t);
+}
+
 // sensitivity.csv: per fault, at its segment with the highest final probability (ties: file order).
 void write_sensitivity(const Context& c) {
   const auto& [folder, s, p, run, n, z, K, u] = c;
@@ -204,6 +232,7 @@ void write_probabilistic_outputs(const formats::RunFolder& folder, const scenari
   if (s.output.tables) {
     write_segment_probability(c);
     write_probability_summary(c);
+    write_dp_crit_quantiles(c);
     write_sensitivity(c);
     write_median_well_shares(c);
   }
@@ -217,6 +246,9 @@ std::vector<ReadmeFile> probabilistic_readme(const screening::ProbabilisticRun& 
                                       "its Wilson interval, and dp percentiles (" + pressure + "), over " + n},
           {"segment_probability_summary.csv", "probabilistic screen: per fault segment, dp_crit percentiles (" + pressure +
                                               "), the final P(slip) and the first date each threshold is reached"},
+          {"dp_crit_quantiles.csv", "probabilistic screen: quantiles 0.01 to 0.99 of dp_crit (" + pressure + ") over the "
+                                    "realizations, for the " + std::to_string(kDpCritQuantileSegments) +
+                                    " fault segments with the highest final P(slip)"},
           {"sensitivity.csv", "probabilistic screen: per fault, Spearman's rho of each sampled input against the slip "
                               "margin, ranked"},
           {"median_well_shares.csv", "probabilistic screen: the wells that make the median realization's dp, per fault "

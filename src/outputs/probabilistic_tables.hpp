@@ -1,7 +1,8 @@
 #pragma once
 // The probabilistic screen's files in a run folder (screening/probabilistic_screen.hpp;
 // docs/outputs.md): segment_probability.csv, segment_probability_summary.csv, sensitivity.csv,
-// median_well_shares.csv, slip_probability_dangerous.tif and slip_probability_oriented.tif.
+// median_well_shares.csv, dp_crit_quantiles.csv,
+// slip_probability_dangerous.tif and slip_probability_oriented.tif.
 #include <nlohmann/json.hpp>
 
 #include "formats/files/run_folder.hpp"
@@ -11,6 +12,9 @@
 #include "screening/probabilistic_screen.hpp"
 
 namespace slipscreen::outputs {
+
+// How many segments dp_crit_quantiles.csv covers (those with the highest final P(slip)).
+inline constexpr std::size_t kDpCritQuantileSegments = 20;
 
 void write_probabilistic_outputs(const formats::RunFolder& folder, const scenario::ResolvedScenario& s,
                                  const screening::PreparedRun& p, const screening::ProbabilisticRun& run);

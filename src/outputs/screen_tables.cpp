@@ -1,6 +1,9 @@
 #include "outputs/screen_tables.hpp"
 
+#include <algorithm>
+#include <array>
 #include <cmath>
+#include <functional>
 
 #include "formats/files/text_file.hpp"
 #include "formats/table/csv.hpp"
@@ -32,8 +35,9 @@ std::vector<ReadmeFile> screen_tables_readme(const ResolvedScenario& s) {
                pressure + "), the leading well"},
           {well_shares_path(s), "deterministic screen: one row per fault segment, output time and well: the well's "
                                 "part of dp (" + pressure + ") and its share"},
-          {s.output.files.segments, "deterministic screen: one row per fault segment: stress on its plane, slip "
-                                    "tendency, dp_crit, peak dp and the first date dp reaches dp_crit"}};
+          {s.output.files.segments, "deterministic screen: one row per fault segment: the principal stresses, "
+                                    "pore pressure, friction and cohesion it is resolved with, stress on its plane, "
+                                    "slip tendency, dp_crit, peak dp and the first date dp reaches dp_crit"}};
 }
 
 void write_screen_tables(const RunFolder& folder, const ResolvedScenario& s, const PreparedRun& p,
@@ -96,9 +100,16 @@ void write_screen_tables(const RunFolder& folder, const ResolvedScenario& s, con
     formats::TextFileWriter t(folder.output("output.files.segments", s.output.files.segments));
     // centre_x_m, centre_y_m: working-CRS coordinates, in the CRS's unit in either system.
     t.row({"segment_id", "fault_id", "segment_index", u.column("length", L), "centre_x_m", "centre_y_m",
-           "strike_deg", "dip_deg", "friction", u.column("sigma_n", P), u.column("sigma_n_eff", P), u.column("tau", P),
-           "slip_tendency", "dilation_tendency", "slip_sense", u.column("dp_crit", P), "status", u.column("dp_final", P),
-           u.column("peak_dp", P), "peak_date", u.column("margin", P), "first_crossing_date"});
+           "strike_deg", "dip_deg", u.column("depth", L), u.column("s1", P), u.column("s2", P), u.column("s3", P),
+           u.column("pore_pressure", P), "friction", u.column("cohesion", P), u.column("sigma_n", P),
+           u.column("sigma_n_eff", P), u.column("tau", P), "slip_tendency", "dilation_tendency", "slip_sense",
+           u.column("dp_crit", P), "status", u.column("dp_final", P), u.column("peak_dp", P), "peak_date",
+           u.column("margin", P), "first_crossing_date"});
+    // The Mohr circles' stresses (docs/outputs.md): the Andersonian principal stresses at the
+    // reference depth, where every segment's stress is resolved, sorted S1 >= S2 >= S3.
+    const auto& st = p.inputs.stress;
+    std::array<double, 3> principal = {st.sv, st.shmax, st.shmin};
+    std::sort(principal.begin(), principal.end(), std::greater<>());
     for (std::size_t i = 0; i < r.segments.size(); ++i) {
       const auto& g = r.segments[i];
       const auto& seg = p.segments[i];
@@ -106,7 +117,9 @@ void write_screen_tables(const RunFolder& folder, const ResolvedScenario& s, con
       strike = std::fmod(strike + 360.0, 360.0);
       t.row({seg.segment_id, seg.fault_id, std::to_string(seg.index), u.text(seg.trace.length_m, L, 1),
              fixed_decimals(seg.trace.centre.x, 1), fixed_decimals(seg.trace.centre.y, 1), fixed_decimals(strike, 2),
-             fixed_decimals(seg.dip_rad * kRadToDeg, 2), fixed_decimals(g.friction, 3),
+             fixed_decimals(seg.dip_rad * kRadToDeg, 2), u.text(s.region.reference_depth, L, 1),
+             u.text(principal[0], P, 4), u.text(principal[1], P, 4), u.text(principal[2], P, 4),
+             u.text(st.pore_pressure, P, 4), fixed_decimals(g.friction, 3), u.text(p.inputs.friction.cohesion, P, 4),
              u.text(g.normal_stress, P, 4), u.text(g.effective_normal_stress, P, 4), u.text(g.shear_stress, P, 4),
              fixed_decimals(g.slip_tendency, 4), fixed_decimals(g.dilation_tendency, 4), geomech::to_string(g.sense),
              u.text(g.dp_crit, P, 6), status_text(g.status), u.text(g.dp.back(), P, 6), u.text(g.peak_dp, P, 6),

@@ -332,7 +332,9 @@ CatalogReview review_catalog(const scenario::ResolvedScenario& s, const Prepared
   v.catalog = std::move(kept.catalog);
 
   v.catalog_end = c.to ? *c.to : (v.catalog.events.empty() ? s.output.times.front() : seismo::times(v.catalog).back());
-  v.summary = seismo::summarize_catalog(v.catalog, summary_options(v, s, p));
+  const seismo::SummaryOptions options = summary_options(v, s, p);
+  v.volume_history = options.volume_history;
+  v.summary = seismo::summarize_catalog(v.catalog, options);
 
   review_events(v, s, p, r, prob);
   review_rt(v, p, prob);

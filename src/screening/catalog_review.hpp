@@ -91,6 +91,9 @@ struct CatalogReview {
   std::vector<FaultRate> fault_rates;  // per fault in order of first appearance, with rates
   std::vector<std::string> segment_ids, segment_faults;  // of the prepared run's segments
   double catalog_end = 0;              // s: the end of the reviewed period (for forecasts)
+  // The summed cumulative volume of the scenario wells while the catalog ran, the history the
+  // seismogenic index was fitted to (empty when there is none).
+  std::optional<seismo::VolumeHistory> volume_history;
   std::vector<std::string> assumptions;
 };
 
