@@ -8,6 +8,10 @@
 //   whose origin is the top-left corner of the top-left pixel (GDAL "pixel is area"); see
 //   core/geometry/raster_grid.hpp. Row 0 is the northern row.
 // - Nodata: options.nodata is set on every band; NaN values in the input are written as it.
+// - Every band: colour interpretation gray index (PHOTOMETRIC=MINISBLACK; a GIS does not read
+//   three dates as red, green and blue) and exact statistics (STATISTICS_MINIMUM, _MAXIMUM,
+//   _MEAN, _STDDEV: GDAL's ComputeStatistics over the valid cells, stored in the file's GDAL
+//   metadata so nothing is written beside it; none for a band without a valid cell).
 // - Plain GeoTIFF: tiled 256×256, DEFLATE with the floating-point predictor (PREDICTOR=3).
 // - Cloud-Optimized GeoTIFF (options.cloud_optimized): written with GDAL's COG driver
 //   (CreateCopy from an in-memory dataset), DEFLATE + predictor, 256×256 tiles, overviews by
