@@ -56,6 +56,12 @@ void fill(GDALDataset& ds, const geometry::RasterGrid& grid, const Crs& crs,
 
 }  // namespace
 
+std::filesystem::path band_sidecar(const std::filesystem::path& path) {
+  std::filesystem::path p = path;
+  p += ".aux.xml";
+  return p;
+}
+
 void write_geotiff(const std::filesystem::path& path, const geometry::RasterGrid& grid, const Crs& crs,
                    const std::vector<RasterBand>& bands, const GeoTiffOptions& options) {
   const std::string where = path.string();

@@ -94,9 +94,18 @@ std::string symbol(SymbolKind kind, const SymbolLook& look, const std::string& n
            {"outline_width", number(look.size_mm)}, {"outline_width_unit", "MM"}, {"joinstyle", "round"}};
       break;
   }
+  std::string layers;
+  if (kind == SymbolKind::line && look.casing_mm > 0) {  // a darker, wider line drawn first
+    const Properties casing = {{"line_color", rgba(look.outline)}, {"line_width", number(look.size_mm + look.casing_mm)},
+                               {"line_width_unit", "MM"}, {"line_style", "solid"}, {"capstyle", "round"},
+                               {"joinstyle", "round"}};
+    layers += "        <layer class=\"SimpleLine\" enabled=\"1\" locked=\"0\" pass=\"0\">\n" +
+              properties(casing, "          ") + "        </layer>\n";
+  }
+  layers += "        <layer" + attr("class", cls) + " enabled=\"1\" locked=\"0\" pass=\"0\">\n" +
+            properties(p, "          ") + "        </layer>\n";
   return "      <symbol" + attr("type", type) + attr("name", name) +
-         " alpha=\"1\" clip_to_extent=\"1\" force_rhr=\"0\">\n        <layer" + attr("class", cls) +
-         " enabled=\"1\" locked=\"0\" pass=\"0\">\n" + properties(p, "          ") + "        </layer>\n      </symbol>\n";
+         " alpha=\"1\" clip_to_extent=\"1\" force_rhr=\"0\">\n" + layers + "      </symbol>\n";
 }
 
 const char* kHeader = "<!DOCTYPE qgis PUBLIC 'http://mrcc.com/qgis.dtd' 'SYSTEM'>\n";
@@ -173,8 +182,7 @@ std::string vector_style_qml(const VectorStyle& s) {
   if (!s.aliases.empty()) {
     x += "  <aliases>\n";
     for (std::size_t i = 0; i < s.aliases.size(); ++i)
-      x += "    <alias" + attr("field", s.aliases[i].field) + attr("index", std::to_string(i)) +
-           attr("name", s.aliases[i].alias) + "/>\n";
+      x += "    <alias" + attr("field", s.aliases[i].field) + attr("name", s.aliases[i].alias) + "/>\n";
     x += "  </aliases>\n";
   }
   x += "  <blendMode>0</blendMode>\n  <featureBlendMode>0</featureBlendMode>\n  <layerOpacity>1</layerOpacity>\n";
@@ -197,7 +205,8 @@ std::string raster_style_qml(const RasterPseudocolour& s) {
        "        <extent>WholeRaster</extent>\n        <statAccuracy>Exact</statAccuracy>\n"
        "        <cumulativeCutLower>0.02</cumulativeCutLower>\n        <cumulativeCutUpper>0.98</cumulativeCutUpper>\n"
        "        <stdDevFactor>2</stdDevFactor>\n      </minMaxOrigin>\n      <rastershader>\n"
-       "        <colorrampshader colorRampType=\"INTERPOLATED\" classificationMode=\"1\" clip=\"0\"" +
+       "        <colorrampshader" + attr("colorRampType", s.discrete ? "DISCRETE" : "INTERPOLATED") +
+       " classificationMode=\"1\" clip=\"0\"" +
        attr("minimumValue", lo) + attr("maximumValue", hi) + " labelPrecision=\"2\">\n";
   for (const auto& stop : s.stops)
     x += "          <item" + attr("value", number(stop.value)) + attr("color", hex(stop.colour)) +

@@ -41,8 +41,9 @@ struct SymbolLook {
   Rgb colour;
   double size_mm = 0.6;      // line width, marker diameter, or fill outline width
   MarkerShape shape = MarkerShape::circle;
-  Rgb outline{35, 35, 35};   // markers and fills
+  Rgb outline{35, 35, 35};   // markers, fills, and a line's casing
   double outline_mm = 0.2;   // markers
+  double casing_mm = 0;      // lines: a casing in the outline colour this much wider, drawn below
 };
 
 struct RangeClass {
@@ -93,9 +94,11 @@ struct ColourStop {
 };
 
 // A raster drawn as one band in pseudocolour: colours interpolated linearly between stops
-// (sorted by value; values outside the first and last stop take their colours).
+// (sorted by value; values outside the first and last stop take their colours), or, when
+// `discrete`, classes: a value takes the colour of the first stop whose value is >= it.
 struct RasterPseudocolour {
   int band = 1;
+  bool discrete = false;
   std::vector<ColourStop> stops;  // at least two, increasing values
 };
 
