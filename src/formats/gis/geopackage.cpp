@@ -230,11 +230,14 @@ void GeoPackageWriter::add_layer(const VectorLayer& layer) {
   if (ds_->GetLayerByName(layer.name.c_str()) || lower(layer.name) == "layer_styles")
     throw InputError("layer name", layer.name, "a layer name not used before in this file (nor 'layer_styles')",
                      path_.string());
-  std::set<std::string> names{"fid", "geom"};
-  for (const auto& f : layer.fields)
+  std::set<std::string> names{"fid", "geom"}, aliases;
+  for (const auto& f : layer.fields) {
     if (f.name.empty() || !names.insert(lower(f.name)).second)
       throw InputError("field name", f.name, "a non-empty field name, unique in the layer and not 'fid' or 'geom'",
                        where_layer);
+    if (!f.alias.empty() && !aliases.insert(f.alias).second)
+      throw InputError("alias of field '" + f.name + "'", f.alias, "an alias unique in the layer", where_layer);
+  }
 
   GdalErrorScope errors(where_layer);
   ScopedConfig date("OGR_CURRENT_DATE", options_.timestamp);
@@ -253,6 +256,7 @@ void GeoPackageWriter::add_layer(const VectorLayer& layer) {
     if (!spec.alias.empty()) defn.SetAlternativeName(spec.alias.c_str());
     if (out->CreateField(&defn) != OGRERR_NONE) errors.throw_io("cannot create field '" + spec.name + "'");
   }
+  write_aliases(layer, errors);
   if (ds_->StartTransaction() != OGRERR_NONE) errors.throw_io("cannot start a transaction");
   try {
     for (std::size_t i = 0; i < layer.features.size(); ++i) {
@@ -274,6 +278,36 @@ void GeoPackageWriter::add_layer(const VectorLayer& layer) {
   }
   errors.throw_if_error("error while writing the layer");
   for (std::size_t i = 0; i < layer.styles.size(); ++i) styles_.push_back({layer.name, layer.styles[i], i == 0});
+}
+
+// Aliases in gpkg_data_columns (the GeoPackage "Schema" extension, GeoPackage 1.3 §F.9): GDAL
+// writes the alternative names there itself only from 3.7, so they are written here (INSERT OR
+// REPLACE keeps one row when GDAL writes the same).
+void GeoPackageWriter::write_aliases(const VectorLayer& layer, GdalErrorScope& errors) {
+  bool any = false;
+  for (const auto& f : layer.fields) any = any || !f.alias.empty();
+  if (!any) return;
+  const auto quote = [](const std::string& s) {
+    std::string q = "'";
+    for (char c : s) q += c == '\'' ? std::string("''") : std::string(1, c);
+    return q + "'";
+  };
+  const auto exec = [&](const std::string& sql) {
+    ds_->ExecuteSQL(sql.c_str(), nullptr, nullptr);  // statements without a result set return null
+    errors.throw_if_error("cannot record the field aliases");
+  };
+  exec("CREATE TABLE IF NOT EXISTS gpkg_data_columns (table_name TEXT NOT NULL, column_name TEXT NOT NULL, "
+       "name TEXT, title TEXT, description TEXT, mime_type TEXT, constraint_name TEXT, "
+       "CONSTRAINT pk_gdc PRIMARY KEY (table_name, column_name), CONSTRAINT gdc_tn UNIQUE (table_name, name))");
+  exec("CREATE TABLE IF NOT EXISTS gpkg_extensions (table_name TEXT, column_name TEXT, extension_name TEXT NOT NULL, "
+       "definition TEXT NOT NULL, scope TEXT NOT NULL, "
+       "CONSTRAINT ge_tce UNIQUE (table_name, column_name, extension_name))");
+  exec("INSERT OR IGNORE INTO gpkg_extensions (table_name, column_name, extension_name, definition, scope) VALUES "
+       "('gpkg_data_columns', NULL, 'gpkg_schema', 'http://www.geopackage.org/spec/#extension_schema', 'read-write')");
+  for (const auto& f : layer.fields)
+    if (!f.alias.empty())
+      exec("INSERT OR REPLACE INTO gpkg_data_columns (table_name, column_name, name, title) VALUES (" +
+           quote(layer.name) + ", " + quote(f.name) + ", " + quote(f.alias) + ", " + quote(f.alias) + ")");
 }
 
 // The table QGIS reads default styles from (QgsOgrProviderUtils; the columns QGIS creates when it

@@ -12,8 +12,9 @@
 // GeoPackage DATE), datetime (seconds since 1970-01-01 UTC, stored as a GeoPackage DATETIME,
 // "YYYY-MM-DDTHH:MM:SS.sssZ"; OGR reads it as OFTDateTime), boolean (0 or 1, an OFTInteger with
 // the OFSTBoolean subtype; GeoPackage BOOLEAN). A value std::monostate{} (or a NaN real) is
-// written as NULL. A field's alias (its name for people, with its unit) is GDAL's alternative
-// name, which the GPKG driver stores in gpkg_data_columns.
+// written as NULL. A field's alias (its name for people, with its unit; unique in the layer) is
+// set as GDAL's alternative name and written to gpkg_data_columns.name and .title (the
+// GeoPackage schema extension, registered in gpkg_extensions).
 // Geometry: point = one vertex; line_string = ≥ 2 vertices; polygon = the exterior ring
 // (≥ 3 vertices; it is closed if the last vertex differs from the first); multi_polygon = the
 // feature's `polygons` (each an exterior ring then its holes; an empty list is a NULL geometry).
@@ -43,6 +44,10 @@
 #include "formats/gis/crs.hpp"
 
 class GDALDataset;
+
+namespace slipscreen::formats {
+class GdalErrorScope;
+}
 
 namespace slipscreen::formats {
 
@@ -136,6 +141,7 @@ class GeoPackageWriter {
   };
   std::vector<StyleRow> styles_;
   void write_styles();
+  void write_aliases(const VectorLayer& layer, GdalErrorScope& errors);
 };
 
 // Convenience: create, add every layer, close.
