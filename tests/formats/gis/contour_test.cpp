@@ -70,9 +70,8 @@ TEST_CASE("the area at or above a Theis level matches pi r^2 where dp(r) = level
   // interpolation misplaces the crossing by ~ h^2 |dp''| / (8 |dp'|) ~ h^2 / (8 r*) (< 0.2 m),
   // ~2e-4 of the area. 1e-3 holds both with room, and fails for a contour one cell off
   // (2 h / r* ~ 4 %).
-  CHECK(std::abs(area - expected) / expected < 1e-3);
-  MESSAGE("Theis disc: contour area " << area << " m2, pi r*^2 " << expected << " m2, relative difference "
-                                      << (area - expected) / expected);
+  INFO("Theis disc: contour area " << area << " m2, pi r*^2 " << expected << " m2");
+  CHECK(std::abs(area - expected) / expected < 1e-3);  // 2.7e-5 seen
   // The centre of the area is the well (the disc is symmetric), within a cell.
   OGRPolygon poly;
   auto* ring = new OGRLinearRing;
