@@ -269,3 +269,20 @@ TEST_CASE("output paths that escape the run folder are refused") {
   n.replace("scenario.toml", "file = \"wells.csv\"", "file = \"/vsicurl/https://example.invalid/wells.csv\"");
   CHECK_THROWS_WITH_AS(load_scenario(n.scenario()), doctest::Contains("scenario inputs are local files"), RefusedError);
 }
+
+TEST_CASE("[output] footprint: a pressure above zero, 0.1 MPa when not given") {
+  TinyScenario t;
+  CHECK(load_scenario(t.scenario()).output.footprint == 0.1e6);  // the documented default (docs/scenario.md)
+  CHECK_FALSE(load_scenario(t.scenario()).output.footprint_given);
+  TinyScenario g;
+  g.replace("scenario.toml", "cog = false\n", "cog = false\nfootprint = \"50 kPa\"\n");
+  CHECK(load_scenario(g.scenario()).output.footprint == 5e4);
+  TinyScenario z;
+  z.replace("scenario.toml", "cog = false\n", "cog = false\nfootprint = \"0 MPa\"\n");
+  CHECK_THROWS_WITH_AS(load_scenario(z.scenario()),
+                       doctest::Contains("field 'output.footprint' = '0 MPa': expected a pressure change above zero"),
+                       InputError);
+  TinyScenario u;
+  u.replace("scenario.toml", "cog = false\n", "cog = false\nfootprint = \"0.1 m\"\n");
+  CHECK_THROWS_WITH_AS(load_scenario(u.scenario()), doctest::Contains("output.footprint"), InputError);
+}
