@@ -256,6 +256,7 @@ void GeoPackageWriter::add_layer(const VectorLayer& layer) {
     if (!spec.alias.empty()) defn.SetAlternativeName(spec.alias.c_str());
     if (out->CreateField(&defn) != OGRERR_NONE) errors.throw_io("cannot create field '" + spec.name + "'");
   }
+  errors.throw_if_error("cannot write the layer's definition");
   write_aliases(layer, errors);
   if (ds_->StartTransaction() != OGRERR_NONE) errors.throw_io("cannot start a transaction");
   try {
