@@ -13,8 +13,8 @@ and checks that each opens styled (docs/gis.md, "How the layers open"):
 
     open_outputs_in_qgis.py SLIPSCREEN SOURCE_DIR WORK_DIR
 
-The run: the demo scenario (the fictional Marrowick Basin) copied into WORK_DIR with 100
-realizations and output times every 5 years, so that it takes a few seconds.
+The run: the reduced demo (reduced_demo.py: the fictional Marrowick Basin with 100 realizations
+and output times every 5 years, a few seconds).
 
 Layers are made as QGIS Desktop makes them (QgsAppLayerHandling::postProcessAddedLayer in QGIS's
 source): without the default style, which is then loaded with loadDefaultStyle(). A layer made
@@ -22,11 +22,12 @@ with the default style in its constructor gets its temporal settings reset from 
 afterwards, so that path would not show what a user sees.
 """
 import os
-import sqlite3
-import subprocess
 import shutil
+import sqlite3
 import sys
 from pathlib import Path
+
+from reduced_demo import reduced_demo_run
 
 os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
 
@@ -39,24 +40,6 @@ from qgis.PyQt.QtCore import QDate, QDateTime, QTime, Qt  # noqa: E402
 def fail(message):
     print("FAIL: " + message)
     sys.exit(1)
-
-
-def make_run(slipscreen, source, work):
-    shutil.rmtree(work, ignore_errors=True)
-    shutil.copytree(source / "regions" / "marrowick", work / "regions" / "marrowick")
-    shutil.copytree(source / "catalogs" / "demo", work / "catalogs" / "demo")
-    scenario = work / "regions" / "marrowick" / "scenario.toml"
-    text = scenario.read_text()
-    for old, new in (("realizations = 2000", "realizations = 100"), ('step = "1 year"', 'step = "5 years"')):
-        if text.count(old) != 1:
-            fail(f"the demo scenario no longer has exactly one line '{old}'")
-        text = text.replace(old, new)
-    scenario.write_text(text)
-    done = subprocess.run([slipscreen, "run", "regions/marrowick/scenario.toml", "--out", "run", "--reproducible"],
-                          cwd=work, capture_output=True, text=True)
-    if done.returncode != 0:
-        fail(f"slipscreen run exited {done.returncode}:\n{done.stderr}")
-    return work / "run"
 
 
 def vector_layer(gpkg, name):
@@ -189,7 +172,7 @@ def main():
     if len(sys.argv) != 4:
         fail("usage: open_outputs_in_qgis.py SLIPSCREEN SOURCE_DIR WORK_DIR")
     slipscreen, source, work = (Path(a).resolve() for a in sys.argv[1:])
-    run = make_run(slipscreen, source, work)
+    run = reduced_demo_run(slipscreen, source, work, fail)
     runtime = work / "xdg-runtime"  # Qt wants a private runtime folder
     runtime.mkdir(mode=0o700, exist_ok=True)
     os.environ["XDG_RUNTIME_DIR"] = str(runtime)
@@ -211,6 +194,7 @@ def main():
         rasters = check_in_qgis(run, gpkg, last_date, segments)
     finally:
         app.exitQgis()
+    shutil.rmtree(work, ignore_errors=True)
     print(f"QGIS opened {len(layers)} styled layers and {rasters} rasters as designed")
 
 
