@@ -5,8 +5,11 @@
 
 #include "core/stats/wilson_interval.hpp"
 #include "core/units/units.hpp"
+#include "core/util/number_text.hpp"
+#include "formats/gis/contour.hpp"
 #include "formats/gis/geopackage.hpp"
 #include "formats/table/iso_time.hpp"
+#include "outputs/gis_styles.hpp"
 #include "outputs/output_text.hpp"
 
 namespace slipscreen::outputs {
@@ -25,6 +28,57 @@ using screening::ProbabilisticRun;
 
 namespace {
 
+// The fields of the layers, with the kind of quantity each holds: the one place that names a
+// field's unit (in its alias) and converts its SI value, so another unit system changes only
+// unit_of() and in_unit() below.
+enum class Quantity { none, pressure, length, volume, volume_bbl, angle, duration_days };
+
+struct Field {
+  std::string name;
+  FieldType type;
+  Quantity quantity = Quantity::none;
+  std::string label;  // for people; the alias is "<label> (<unit>)"
+};
+
+const char* unit_of(Quantity q) {
+  switch (q) {
+    case Quantity::none: return "";
+    case Quantity::pressure: return "MPa";
+    case Quantity::length: return "m";
+    case Quantity::volume: return "m³";
+    case Quantity::volume_bbl: return "bbl";
+    case Quantity::angle: return "°";
+    case Quantity::duration_days: return "days";
+  }
+  return "";
+}
+
+// An SI value in the field's unit (pressure in Pa, length in m, volume in m³, angle in rad,
+// duration in s).
+double in_unit(Quantity q, double si) {
+  switch (q) {
+    case Quantity::pressure: return si / kMPa;
+    case Quantity::volume_bbl: return si / units::kBarrel;
+    case Quantity::angle: return si * kRadToDeg;
+    case Quantity::duration_days: return si / units::kDay;
+    case Quantity::none:
+    case Quantity::length:
+    case Quantity::volume: return si;
+  }
+  return si;
+}
+
+std::vector<FieldSpec> specs(const std::vector<Field>& fields) {
+  std::vector<FieldSpec> out;
+  for (const auto& f : fields)
+    out.emplace_back(f.name, f.type,
+                     f.label.empty() ? "" : f.quantity == Quantity::none ? f.label : f.label + " (" + unit_of(f.quantity) + ")");
+  return out;
+}
+
+FieldValue si(Quantity q, double v) { return in_unit(q, v); }
+FieldValue flag(bool b) { return static_cast<std::int64_t>(b); }
+
 std::string gpkg_date_field(const util::CivilDate& d) {
   std::string s = util::format_iso_date(d);
   for (char& c : s)
@@ -34,18 +88,29 @@ std::string gpkg_date_field(const util::CivilDate& d) {
 
 // The reviewed catalog's events with their attributes against the model (catalog_review.hpp).
 VectorLayer earthquake_layer(const ResolvedScenario& s, const PreparedRun& p, const CatalogReview& v) {
+  using Q = Quantity;
   VectorLayer layer("earthquakes", GeometryType::point,
-                    {{"event_id", FieldType::string},        {"time_utc", FieldType::string},
-                     {"depth_m", FieldType::real},           {"magnitude", FieldType::real},
-                     {"magnitude_type", FieldType::string},  {"in_study_area", FieldType::integer},
-                     {"dp_MPa", FieldType::real},            {"in_footprint", FieldType::integer},
-                     {"nearest_segment", FieldType::string}, {"nearest_fault", FieldType::string},
-                     {"distance_m", FieldType::real},        {"segment_dp_MPa", FieldType::real},
-                     {"segment_dp_crit_MPa", FieldType::real}, {"segment_reached", FieldType::integer},
-                     {"footprint_area_fraction", FieldType::real}, {"p_slip", FieldType::real},
-                     {"p_slip_low", FieldType::real},        {"p_slip_high", FieldType::real},
-                     {"p_slip_date", FieldType::date},       {"rt_time_since_start_days", FieldType::real},
-                     {"rt_distance_m", FieldType::real}},
+                    specs({{"event_id", FieldType::string, Q::none, "event"},
+                           {"time_utc", FieldType::datetime, Q::none, "time (UTC)"},
+                           {"depth_m", FieldType::real, Q::length, "depth"},
+                           {"magnitude", FieldType::real, Q::none, "magnitude"},
+                           {"magnitude_type", FieldType::string, Q::none, "magnitude type"},
+                           {"in_study_area", FieldType::boolean, Q::none, "in the study area"},
+                           {"dp_MPa", FieldType::real, Q::pressure, "Δp at the event"},
+                           {"in_footprint", FieldType::boolean, Q::none, "inside the Δp footprint"},
+                           {"nearest_segment", FieldType::string, Q::none, "nearest fault segment"},
+                           {"nearest_fault", FieldType::string, Q::none, "nearest fault"},
+                           {"distance_m", FieldType::real, Q::length, "distance to that segment"},
+                           {"segment_dp_MPa", FieldType::real, Q::pressure, "segment Δp"},
+                           {"segment_dp_crit_MPa", FieldType::real, Q::pressure, "segment Δp_crit"},
+                           {"segment_reached", FieldType::boolean, Q::none, "segment Δp reached Δp_crit"},
+                           {"footprint_area_fraction", FieldType::real, Q::none, "footprint share of the area"},
+                           {"p_slip", FieldType::real, Q::none, "segment P(slip)"},
+                           {"p_slip_low", FieldType::real, Q::none, "segment P(slip), interval low"},
+                           {"p_slip_high", FieldType::real, Q::none, "segment P(slip), interval high"},
+                           {"p_slip_date", FieldType::date, Q::none, "date of that P(slip)"},
+                           {"rt_time_since_start_days", FieldType::real, Q::duration_days, "r–t: time since start"},
+                           {"rt_distance_m", FieldType::real, Q::length, "r–t: distance"}}),
                     "Earthquakes of the reviewed catalog against the model (screening estimate)");
   const FieldValue none = std::monostate{};
   for (std::size_t i = 0; i < v.events.size(); ++i) {
@@ -54,64 +119,163 @@ VectorLayer earthquake_layer(const ResolvedScenario& s, const PreparedRun& p, co
     const bool seg = !p.segments.empty();
     VectorFeature f;
     f.geometry = {{m.x, m.y}};
-    f.values = {e.id, formats::format_iso8601_utc(e.time), e.depth ? FieldValue(*e.depth) : none, e.magnitude,
-                e.magnitude_type, static_cast<std::int64_t>(m.in_study_area), m.dp / kMPa,
-                static_cast<std::int64_t>(m.dp >= v.spec.footprint_threshold),
+    f.values = {e.id, e.time, e.depth ? si(Q::length, *e.depth) : none, e.magnitude,
+                e.magnitude_type, flag(m.in_study_area), si(Q::pressure, m.dp),
+                flag(m.dp >= v.spec.footprint_threshold),
                 seg ? FieldValue(p.segments[m.segment].segment_id) : none,
-                seg ? FieldValue(p.segments[m.segment].fault_id) : none, seg ? FieldValue(m.distance) : none,
-                seg ? FieldValue(m.segment_dp / kMPa) : none,
-                seg && std::isfinite(m.segment_dp_crit) ? FieldValue(m.segment_dp_crit / kMPa) : none,
-                static_cast<std::int64_t>(m.segment_reached), m.footprint_fraction,
+                seg ? FieldValue(p.segments[m.segment].fault_id) : none, seg ? si(Q::length, m.distance) : none,
+                seg ? si(Q::pressure, m.segment_dp) : none,
+                seg && std::isfinite(m.segment_dp_crit) ? si(Q::pressure, m.segment_dp_crit) : none,
+                flag(m.segment_reached), m.footprint_fraction,
                 m.probability_time ? FieldValue(m.p_slip) : none, m.probability_time ? FieldValue(m.p_low) : none,
                 m.probability_time ? FieldValue(m.p_high) : none,
                 m.probability_time ? FieldValue(util::format_iso_date(s.output.dates[*m.probability_time])) : none,
-                m.rt_time ? FieldValue(*m.rt_time / units::kDay) : none,
-                m.rt_distance ? FieldValue(*m.rt_distance) : none};
+                m.rt_time ? si(Q::duration_days, *m.rt_time) : none,
+                m.rt_distance ? si(Q::length, *m.rt_distance) : none};
     layer.features.push_back(std::move(f));
   }
+  layer.styles.push_back(earthquakes_by_magnitude(layer));
+  return layer;
+}
+
+// Each output time's validity for the time-aware layers: from its date until the next output
+// time's (the last open: NULL).
+FieldValue valid_until(const ResolvedScenario& s, std::size_t k) {
+  return k + 1 < s.output.times.size() ? FieldValue(s.output.times[k + 1]) : FieldValue(std::monostate{});
+}
+
+const formats::TemporalFields kTime{"date", "valid_until"};
+
+// Long form: one line per fault segment and output time, time-aware in QGIS.
+VectorLayer segment_times_layer(const ResolvedScenario& s, const PreparedRun& p, const screen::ScreenResult& r,
+                                const ProbabilisticRun* prob) {
+  using Q = Quantity;
+  std::vector<Field> fields = {{"segment_id", FieldType::string, Q::none, "fault segment"},
+                               {"fault_id", FieldType::string, Q::none, "fault"},
+                               {"date", FieldType::datetime, Q::none, "output time (UTC)"},
+                               {"valid_until", FieldType::datetime, Q::none, "next output time (UTC)"},
+                               {"dp_MPa", FieldType::real, Q::pressure, "Δp"},
+                               {"dp_crit_MPa", FieldType::real, Q::pressure, "Δp_crit"},
+                               {"margin_MPa", FieldType::real, Q::pressure, "margin Δp_crit − Δp"},
+                               {"dp_reaches_dp_crit", FieldType::boolean, Q::none, "Δp reaches Δp_crit"}};
+  if (prob) {
+    fields.push_back({"p_slip", FieldType::real, Q::none, "P(slip by the date)"});
+    fields.push_back({"p_slip_ci_low", FieldType::real, Q::none, "P(slip), interval low"});
+    fields.push_back({"p_slip_ci_high", FieldType::real, Q::none, "P(slip), interval high"});
+  }
+  VectorLayer layer("segment_times", GeometryType::line_string, specs(fields),
+                    "Fault segments at each output time (long form, time-aware; screening estimate)");
+  const double nan = std::numeric_limits<double>::quiet_NaN();
+  for (std::size_t i = 0; i < r.segments.size(); ++i) {
+    const auto& g = r.segments[i];
+    const bool finite = std::isfinite(g.dp_crit);
+    for (std::size_t k = 0; k < s.output.times.size(); ++k) {
+      VectorFeature f(p.segments[i].trace.vertices, {});
+      f.values = {p.segments[i].segment_id, p.segments[i].fault_id, s.output.times[k], valid_until(s, k),
+                  si(Q::pressure, g.dp[k]), finite ? si(Q::pressure, g.dp_crit) : nan,
+                  finite ? si(Q::pressure, g.dp_crit - g.dp[k]) : nan, flag(g.dp[k] >= g.dp_crit)};
+      if (prob) {
+        const auto ci = stats::wilson_interval(prob->result.segments[i].slipped_by[k], prob->result.realizations,
+                                               stats::z_for_confidence(prob->confidence));
+        f.values.insert(f.values.end(), {slip_probability(*prob, i, k), ci.lower, ci.upper});
+      }
+      layer.features.push_back(std::move(f));
+    }
+  }
+  if (prob) {
+    layer.styles.push_back(segments_by_probability(layer, "p_slip", "P(slip by the date), time-aware", kTime));
+    layer.styles.push_back(lines_by_dp(layer, "dp_MPa", "Δp at the date, time-aware", kTime));
+  } else {
+    layer.styles.push_back(lines_by_dp(layer, "dp_MPa", "Δp at the date, time-aware", kTime));
+  }
+  return layer;
+}
+
+// The area where Δp ≥ the footprint threshold at each output time, from the Δp raster.
+VectorLayer footprint_layer(const ResolvedScenario& s, const PreparedRun& p, const screening::PressureMap& map) {
+  using Q = Quantity;
+  VectorLayer layer("dp_footprint", GeometryType::multi_polygon,
+                    specs({{"date", FieldType::datetime, Q::none, "output time (UTC)"},
+                           {"valid_until", FieldType::datetime, Q::none, "next output time (UTC)"},
+                           {"threshold_MPa", FieldType::real, Q::pressure, "footprint threshold Δp"},
+                           {"area_km2", FieldType::real, Q::none, "area (km²)"}}),
+                    "Where dp >= the footprint threshold at each output time (contours of the dp raster; "
+                    "screening estimate)");
+  for (std::size_t k = 0; k < map.dp.size(); ++k) {
+    VectorFeature f;
+    f.polygons = formats::area_at_or_above(p.grid, map.dp[k], s.output.footprint);
+    double area = 0;
+    for (const auto& poly : f.polygons)
+      for (std::size_t ring = 0; ring < poly.rings.size(); ++ring) {
+        const auto& v = poly.rings[ring];
+        double twice = 0;  // shoelace: exterior counter-clockwise or not, holes subtract
+        for (std::size_t j = 0; j + 1 < v.size(); ++j) twice += v[j].x * v[j + 1].y - v[j + 1].x * v[j].y;
+        area += (ring == 0 ? 1.0 : -1.0) * std::abs(twice) / 2.0;
+      }
+    f.values = {s.output.times[k], valid_until(s, k), si(Q::pressure, s.output.footprint), area / 1e6};
+    layer.features.push_back(std::move(f));
+  }
+  layer.styles.push_back(footprint_style(layer, kTime));
   return layer;
 }
 
 }  // namespace
 
-ReadmeFile gis_layers_readme(const ResolvedScenario& s, bool probabilistic, bool review) {
+ReadmeFile gis_layers_readme(const ResolvedScenario& s, bool probabilistic, bool review, bool footprint) {
   return {s.output.files.geopackage,
-          std::string("GeoPackage: layers fault_segments (the screen's results") +
-              (probabilistic ? " and P(slip) per output time" : "") + "), wells (injected volumes)" +
+          std::string("GeoPackage, styled for QGIS (layer_styles): layers fault_segments (the screen's results") +
+              (probabilistic ? " and P(slip) per output time" : "") + "), segment_times (one line per segment and " +
+              "output time, time-aware" + (probabilistic ? ", with P(slip)" : "") + "), wells (injected volumes)" +
+              (footprint ? ", dp_footprint (where dp >= " + util::number_text(s.output.footprint / kMPa, 6) +
+                               " MPa at each output time)"
+                         : "") +
               (review ? ", earthquakes (the reviewed events against the model)" : "")};
 }
 
 void write_gis_layers(const RunFolder& folder, const ResolvedScenario& s, const PreparedRun& p,
-                  const screen::ScreenResult& r, bool reproducible, const ProbabilisticRun* prob,
-                  const CatalogReview* review) {
-  std::vector<FieldSpec> fields = {
-      {"segment_id", FieldType::string},   {"fault_id", FieldType::string},      {"segment_index", FieldType::integer},
-      {"strike_deg", FieldType::real},     {"dip_deg", FieldType::real},         {"friction", FieldType::real},
-      {"sigma_n_eff_MPa", FieldType::real}, {"tau_MPa", FieldType::real},        {"slip_tendency", FieldType::real},
-      {"dp_crit_MPa", FieldType::real},    {"status", FieldType::string},        {"peak_dp_MPa", FieldType::real},
-      {"margin_MPa", FieldType::real},     {"first_crossing", FieldType::date}};
-  for (const auto& d : s.output.dates) fields.push_back({"dp_" + gpkg_date_field(d) + "_MPa", FieldType::real});
+                      const screen::ScreenResult& r, bool reproducible, const ProbabilisticRun* prob,
+                      const CatalogReview* review, const screening::PressureMap* pressure) {
+  using Q = Quantity;
+  std::vector<Field> fields = {
+      {"segment_id", FieldType::string, Q::none, "fault segment"},
+      {"fault_id", FieldType::string, Q::none, "fault"},
+      {"segment_index", FieldType::integer, Q::none, "segment along the fault"},
+      {"strike_deg", FieldType::real, Q::angle, "strike (true north)"},
+      {"dip_deg", FieldType::real, Q::angle, "dip"},
+      {"friction", FieldType::real, Q::none, "friction coefficient"},
+      {"sigma_n_eff_MPa", FieldType::real, Q::pressure, "effective normal stress"},
+      {"tau_MPa", FieldType::real, Q::pressure, "shear stress"},
+      {"slip_tendency", FieldType::real, Q::none, "slip tendency"},
+      {"dp_crit_MPa", FieldType::real, Q::pressure, "Δp_crit"},
+      {"status", FieldType::string, Q::none, "status"},
+      {"peak_dp_MPa", FieldType::real, Q::pressure, "peak Δp"},
+      {"margin_MPa", FieldType::real, Q::pressure, "margin Δp_crit − peak Δp"},
+      {"first_crossing", FieldType::date, Q::none, "first date Δp reaches Δp_crit"}};
+  for (const auto& d : s.output.dates)
+    fields.push_back({"dp_" + gpkg_date_field(d) + "_MPa", FieldType::real, Q::pressure, "Δp on " + util::format_iso_date(d)});
   if (prob) {  // probabilistic screen: one probability column per output time, ready to style
-    for (const auto& d : s.output.dates) fields.push_back({"p_slip_" + gpkg_date_field(d), FieldType::real});
-    fields.push_back({"p_slip_final_ci_high", FieldType::real});
-    fields.push_back({"p_already_critical", FieldType::real});
-    fields.push_back({"dp_crit_p50_MPa", FieldType::real});
+    for (const auto& d : s.output.dates)
+      fields.push_back({"p_slip_" + gpkg_date_field(d), FieldType::real, Q::none, "P(slip by " + util::format_iso_date(d) + ")"});
+    fields.push_back({"p_slip_final_ci_high", FieldType::real, Q::none, "P(slip by the last date), interval high"});
+    fields.push_back({"p_already_critical", FieldType::real, Q::none, "P(critical before injection)"});
+    fields.push_back({"dp_crit_p50_MPa", FieldType::real, Q::pressure, "Δp_crit, median"});
   }
-  VectorLayer segs("fault_segments", GeometryType::line_string, fields,
+  VectorLayer segs("fault_segments", GeometryType::line_string, specs(fields),
                    "Fault segments with the deterministic screen (screening estimate)");
+  const double nan = std::numeric_limits<double>::quiet_NaN();
   for (std::size_t i = 0; i < r.segments.size(); ++i) {
     const auto& g = r.segments[i];
     const auto& seg = p.segments[i];
+    const bool finite = std::isfinite(g.dp_crit);
     double strike = std::fmod(p.inputs.segments[i].strike * kRadToDeg + 360.0, 360.0);
     VectorFeature f;
     f.geometry = seg.trace.vertices;
-    f.values = {seg.segment_id, seg.fault_id, static_cast<std::int64_t>(seg.index), strike, seg.dip_rad * kRadToDeg,
-                g.friction, g.effective_normal_stress / kMPa, g.shear_stress / kMPa, g.slip_tendency,
-                std::isinf(g.dp_crit) ? std::numeric_limits<double>::quiet_NaN() : g.dp_crit / kMPa,
-                status_text(g.status), g.peak_dp / kMPa,
-                std::isinf(g.dp_crit) ? std::numeric_limits<double>::quiet_NaN() : (g.dp_crit - g.peak_dp) / kMPa,
+    f.values = {seg.segment_id, seg.fault_id, static_cast<std::int64_t>(seg.index), strike, si(Q::angle, seg.dip_rad),
+                g.friction, si(Q::pressure, g.effective_normal_stress), si(Q::pressure, g.shear_stress), g.slip_tendency,
+                finite ? si(Q::pressure, g.dp_crit) : nan, status_text(g.status), si(Q::pressure, g.peak_dp),
+                finite ? si(Q::pressure, g.dp_crit - g.peak_dp) : nan,
                 g.first_crossing ? FieldValue(date_of(*g.first_crossing)) : FieldValue(std::monostate{})};
-    for (double v : g.dp) f.values.emplace_back(v / kMPa);
+    for (double v : g.dp) f.values.push_back(si(Q::pressure, v));
     if (prob) {
       const auto& ps = prob->result.segments[i];
       const auto n = prob->result.realizations;
@@ -119,34 +283,55 @@ void write_gis_layers(const RunFolder& folder, const ResolvedScenario& s, const 
       f.values.emplace_back(
           stats::wilson_interval(ps.slipped_by.back(), n, stats::z_for_confidence(prob->confidence)).upper);
       f.values.emplace_back(static_cast<double>(ps.already_critical) / static_cast<double>(n));
-      f.values.emplace_back(ps.dp_crit.empty() ? std::numeric_limits<double>::quiet_NaN()
-                                               : ps.dp_crit.quantile(0.5) / kMPa);
+      f.values.push_back(ps.dp_crit.empty() ? FieldValue(nan) : si(Q::pressure, ps.dp_crit.quantile(0.5)));
     }
     segs.features.push_back(std::move(f));
   }
+  const std::string last = util::format_iso_date(s.output.dates.back());
+  if (prob) {
+    segs.styles.push_back(segments_by_probability(segs, "p_slip_" + gpkg_date_field(s.output.dates.back()),
+                                                  "P(slip by " + last + "), the last output time"));
+    segs.styles.push_back(segments_by_margin(segs, "margin_MPa", "Margin Δp_crit − peak Δp (deterministic)"));
+  } else {
+    segs.styles.push_back(segments_by_margin(segs, "margin_MPa", "Margin Δp_crit − peak Δp (deterministic)"));
+  }
+
   const double t_end = s.output.times.back();
   VectorLayer wells("wells", GeometryType::point,
-                    {{"well_id", FieldType::string}, {"status", FieldType::string}, {"proposed", FieldType::integer},
-                     {"top_m", FieldType::real}, {"bottom_m", FieldType::real}, {"radius_m", FieldType::real},
-                     {"first_injection", FieldType::date}, {"last_injection", FieldType::date},
-                     {"volume_until", FieldType::date}, {"volume_m3", FieldType::real}, {"volume_bbl", FieldType::real},
-                     {"volume_reported_bbl", FieldType::real}},
+                    specs({{"well_id", FieldType::string, Q::none, "well"},
+                           {"status", FieldType::string, Q::none, "status"},
+                           {"proposed", FieldType::boolean, Q::none, "proposed"},
+                           {"top_m", FieldType::real, Q::length, "injection interval top"},
+                           {"bottom_m", FieldType::real, Q::length, "injection interval bottom"},
+                           {"radius_m", FieldType::real, Q::length, "well radius"},
+                           {"first_injection", FieldType::date, Q::none, "first injection"},
+                           {"last_injection", FieldType::date, Q::none, "last injection"},
+                           {"volume_until", FieldType::date, Q::none, "volumes up to"},
+                           {"volume_m3", FieldType::real, Q::volume, "injected volume"},
+                           {"volume_bbl", FieldType::real, Q::volume_bbl, "injected volume"},
+                           {"volume_reported_bbl", FieldType::real, Q::volume_bbl, "reported volume"}}),
                     "Wells with injected volumes up to the last output time (reported, planned and assumed)");
   for (const auto& w : p.wells) {
     VectorFeature f;
     f.geometry = {{w.x, w.y}};
     const bool any = !w.periods.empty();
     const double v = w.volume_until(t_end);
-    f.values = {w.id, std::string(status_name(w.status)), static_cast<std::int64_t>(w.proposed), w.top, w.bottom,
-                w.radius, any ? FieldValue(date_of(w.periods.front().start)) : FieldValue(std::monostate{}),
-                any ? FieldValue(date_of(w.periods.back().end - 1.0)) : FieldValue(std::monostate{}),
-                util::format_iso_date(s.output.dates.back()), v, v / units::kBarrel,
-                w.reported_volume_until(t_end) / units::kBarrel};
+    f.values = {w.id, std::string(status_name(w.status)), flag(w.proposed), si(Q::length, w.top),
+                si(Q::length, w.bottom), si(Q::length, w.radius),
+                any ? FieldValue(date_of(w.periods.front().start)) : FieldValue(std::monostate{}),
+                any ? FieldValue(date_of(w.periods.back().end - 1.0)) : FieldValue(std::monostate{}), last,
+                si(Q::volume, v), si(Q::volume_bbl, v), si(Q::volume_bbl, w.reported_volume_until(t_end))};
     wells.features.push_back(std::move(f));
   }
+  wells.styles.push_back(wells_by_status(wells));
+
   formats::GeoPackageOptions go;
-  if (reproducible) go.timestamp = util::format_iso_date(s.output.dates.back()) + "T00:00:00Z";
-  std::vector<VectorLayer> layers{std::move(segs), std::move(wells)};
+  if (reproducible) go.timestamp = last + "T00:00:00Z";
+  std::vector<VectorLayer> layers;
+  layers.push_back(std::move(segs));
+  layers.push_back(segment_times_layer(s, p, r, prob));
+  layers.push_back(std::move(wells));
+  if (pressure) layers.push_back(footprint_layer(s, p, *pressure));
   if (review) layers.push_back(earthquake_layer(s, p, *review));
   write_geopackage(folder.output("output.files.geopackage", s.output.files.geopackage), p.working, layers, go);
 }

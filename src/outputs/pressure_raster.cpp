@@ -2,13 +2,18 @@
 
 #include "core/caution.hpp"
 #include "formats/gis/geotiff.hpp"
+#include "outputs/gis_styles.hpp"
 #include "outputs/output_text.hpp"
+#include "outputs/styled_raster.hpp"
 
 namespace slipscreen::outputs {
 
-ReadmeFile pressure_raster_readme(const scenario::ResolvedScenario& s) {
-  return {s.output.files.pressure_raster,
-          "pressure map: GeoTIFF of the pore-pressure change dp (MPa) over the output grid, one band per output time"};
+std::vector<ReadmeFile> pressure_raster_readme(const scenario::ResolvedScenario& s) {
+  std::vector<ReadmeFile> r{
+      {s.output.files.pressure_raster,
+       "pressure map: GeoTIFF of the pore-pressure change dp (MPa) over the output grid, one band per output time"}};
+  for (auto& f : style_sidecar_readme(s.output.files.pressure_raster)) r.push_back(std::move(f));
+  return r;
 }
 
 void write_pressure_raster(const formats::RunFolder& folder, const scenario::ResolvedScenario& s,
@@ -25,8 +30,8 @@ void write_pressure_raster(const formats::RunFolder& folder, const scenario::Res
   opt.metadata = {{"QUANTITY", "pore-pressure change from injection (Theis superposition), MPa"},
                   {"CAUTION", kScreeningCaution},
                   {"SCENARIO", s.file}};
-  formats::write_geotiff(folder.output("output.files.pressure_raster", s.output.files.pressure_raster), p.grid,
-                         p.working, bands, opt);
+  write_styled_geotiff(folder, "output.files.pressure_raster", s.output.files.pressure_raster, p.grid, p.working,
+                       bands, opt, pressure_raster_qml(static_cast<int>(bands.size())));
 }
 
 }  // namespace slipscreen::outputs

@@ -8,6 +8,8 @@
 #include "core/stats/wilson_interval.hpp"
 #include "formats/files/text_file.hpp"
 #include "formats/gis/geotiff.hpp"
+#include "outputs/gis_styles.hpp"
+#include "outputs/styled_raster.hpp"
 #include "formats/table/csv.hpp"
 #include "outputs/output_text.hpp"
 #include "outputs/output_units.hpp"
@@ -210,7 +212,8 @@ void write_probability_rasters(const Context& c) {
                     {"REALIZATIONS", std::to_string(res.realizations)},
                     {"CAUTION", kScreeningCaution},
                     {"SCENARIO", s.file}};
-    formats::write_geotiff(folder.output(key, file), run.map_grid, p.working, bands, opt);
+    write_styled_geotiff(folder, key, file, run.map_grid, p.working, bands, opt,
+                         probability_raster_qml(static_cast<int>(K)));
   };
   raster(res.map_dangerous, "slip_probability_dangerous.tif", "output.files.slip_probability_dangerous",
          "probability that a fault of the most dangerous orientation has slipped by the band date "
@@ -242,7 +245,7 @@ void write_probabilistic_outputs(const formats::RunFolder& folder, const scenari
 std::vector<ReadmeFile> probabilistic_readme(const screening::ProbabilisticRun& run, units::UnitSystem system) {
   const std::string n = std::to_string(run.result.realizations) + " realizations";
   const std::string pressure(OutputUnits(system).symbol(Quantity::pressure));
-  return {{"segment_probability.csv", "probabilistic screen: P(slip by date) per fault segment and output time with "
+  std::vector<ReadmeFile> files{{"segment_probability.csv", "probabilistic screen: P(slip by date) per fault segment and output time with "
                                       "its Wilson interval, and dp percentiles (" + pressure + "), over " + n},
           {"segment_probability_summary.csv", "probabilistic screen: per fault segment, dp_crit percentiles (" + pressure +
                                               "), the final P(slip) and the first date each threshold is reached"},
@@ -257,6 +260,9 @@ std::vector<ReadmeFile> probabilistic_readme(const screening::ProbabilisticRun& 
                                              "orientation, one band per output time"},
           {"slip_probability_oriented.tif", "probabilistic screen: GeoTIFF of P(slip) of a fault of the orientation of "
                                             "[uncertainty.maps], one band per output time"}};
+  for (const char* raster : {"slip_probability_dangerous.tif", "slip_probability_oriented.tif"})
+    for (auto& f : style_sidecar_readme(raster)) files.push_back(std::move(f));
+  return files;
 }
 
 nlohmann::json probabilistic_manifest(const screening::ProbabilisticRun& run) {

@@ -59,8 +59,9 @@ ReadmeContent run_readme(const scenario::ResolvedScenario& s, const RunResults& 
   const std::string crs = r.prepared.working.authority();
   if (!crs.empty()) c.facts.push_back("Working CRS: " + crs + " (coordinates in metres)");
   c.files = screen_tables_readme(s);
-  c.files.push_back(pressure_raster_readme(s));
-  c.files.push_back(gis_layers_readme(s, r.probabilistic != nullptr, r.review != nullptr));
+  for (auto& f : pressure_raster_readme(s)) c.files.push_back(std::move(f));
+  if (s.output.geopackage)
+    c.files.push_back(gis_layers_readme(s, r.probabilistic != nullptr, r.review != nullptr, r.pressure != nullptr));
   if (r.probabilistic) for (auto& f : probabilistic_readme(*r.probabilistic, s.output.units)) c.files.push_back(std::move(f));
   if (r.review) for (auto& f : catalog_review_readme(*r.review)) c.files.push_back(std::move(f));
   c.manifest = s.output.files.manifest;
@@ -75,7 +76,8 @@ void write_run_outputs(const formats::RunFolder& folder, const scenario::Resolve
   const auto& p = r.prepared;
   if (s.output.tables) write_screen_tables(folder, s, p, r.screen);
   if (s.output.rasters && r.pressure) write_pressure_raster(folder, s, p, *r.pressure);
-  if (s.output.geopackage) write_gis_layers(folder, s, p, r.screen, o.reproducible, r.probabilistic, r.review);
+  if (s.output.geopackage)
+    write_gis_layers(folder, s, p, r.screen, o.reproducible, r.probabilistic, r.review, r.pressure);
   if (r.probabilistic) write_probabilistic_outputs(folder, s, p, *r.probabilistic);
   if (r.review) write_catalog_review(folder, s, p, *r.review);
 

@@ -211,7 +211,7 @@ OutputGrid read_grid(const formats::Section& s) {
 }
 
 OutputSpec read_output(const formats::Section& s) {
-  s.allow({"folder", "tables", "rasters", "geopackage", "cog", "units", "times", "grid", "files"});
+  s.allow({"folder", "tables", "rasters", "geopackage", "cog", "units", "footprint", "times", "grid", "files"});
   OutputSpec o;
   o.folder = s.optional_string("folder").value_or("");
   if (!o.folder.empty()) check_output_name(s, "folder", o.folder);
@@ -224,6 +224,12 @@ OutputSpec read_output(const formats::Section& s) {
     const auto system = units::unit_system_named(*u);
     if (!system) s.fail("units", *u, "\"SI\" or \"oilfield\"" + util::did_you_mean(*u, units::unit_system_names()));
     o.units = *system;
+  }
+  if (s.has("footprint")) {
+    o.footprint = s.quantity_or("footprint", Dimension::pressure, o.footprint);
+    if (!(o.footprint > 0))
+      s.fail("footprint", plausible::written(s, "footprint"), "a pressure change above zero (e.g. '0.1 MPa')");
+    o.footprint_given = true;
   }
   o.dates = read_times(s.child("times"));
   for (const auto& d : o.dates) o.times.push_back(util::to_seconds(d));
@@ -426,6 +432,14 @@ ResolvedScenario load_scenario(const fs::path& path) {
   if (top.has("catalog")) {
     sc.catalog = read_catalog_spec(top.child("catalog"), sc.wells);
     sc.inputs.push_back(sc.catalog->path);
+    // One footprint per run: the catalog review's threshold is the map's unless [output] names
+    // the same value (two different footprints would make the map contradict the review).
+    if (!sc.output.footprint_given) sc.output.footprint = sc.catalog->footprint_threshold;
+    else if (sc.output.footprint != sc.catalog->footprint_threshold)
+      top.child("output").fail("footprint", plausible::written(top.child("output"), "footprint"),
+                               "the catalog review's footprint_threshold (" +
+                                   util::number_text(sc.catalog->footprint_threshold / 1e6, 6) +
+                                   " MPa) or no footprint under [output] (it then follows [catalog])");
   }
 
   const toml::table* uncertainty = nullptr;
@@ -540,7 +554,8 @@ json output_json(const OutputSpec& o, const std::string& region_crs) {
     grid["extent"] = {g.xmin, g.ymin, g.xmax, g.ymax};
   }
   return {{"folder", o.folder}, {"tables", o.tables}, {"rasters", o.rasters},
-          {"geopackage", o.geopackage}, {"cog", o.cog}, {"units", std::string(units::unit_system_name(o.units))}, {"dates", dates}, {"grid", grid},
+          {"geopackage", o.geopackage}, {"cog", o.cog}, {"units", std::string(units::unit_system_name(o.units))},
+          {"footprint_Pa", o.footprint}, {"dates", dates}, {"grid", grid},
           {"files", {{"segment_times", o.files.segment_times}, {"segments", o.files.segments},
                      {"pressure_raster", o.files.pressure_raster},
                      {"geopackage", o.files.geopackage}}}};

@@ -49,6 +49,10 @@ struct OutputSpec {
   std::string folder;            // run folder as written (relative to the working directory)
   bool tables = true, rasters = true, geopackage = true, cog = false;
   units::UnitSystem units = units::UnitSystem::si;  // of the tables and the console (docs/outputs.md)
+  // Pa: the Δp footprint drawn as contour polygons in screen.gpkg ([output] footprint, else the
+  // catalog review's footprint_threshold, else 0.1 MPa; docs/outputs.md)
+  double footprint = 0.1e6;
+  bool footprint_given = false;  // written under [output]
   std::vector<util::CivilDate> dates;
   std::vector<double> times;     // seconds, strictly increasing
   OutputGrid grid;

@@ -27,7 +27,8 @@ from pathlib import Path
 import pandas as pd
 
 sys.dont_write_bytecode = True  # no __pycache__ in the source tree
-from read_outputs_with_pandas import fail, reduced_demo, run  # noqa: E402 (the shared demo copy)
+from read_outputs_with_pandas import fail  # noqa: E402
+from reduced_demo import reduced_demo, run_checked  # noqa: E402 (the shared demo copy)
 
 PSI = 6894.757293168361
 FT = 0.3048
@@ -46,10 +47,10 @@ CRS_COORDINATES = {"x_m", "y_m", "centre_x_m", "centre_y_m"}
 
 
 def make_runs(slipscreen, source, work):
-    reduced_demo(source, work)
+    reduced_demo(source, work, fail)
     base = [slipscreen, "run", "regions/marrowick/scenario.toml", "--reproducible"]
-    si_out = run(base + ["--out", "si"], work)
-    oil_out = run(base + ["--out", "oilfield", "--units", "oilfield"], work)
+    si_out = run_checked(base + ["--out", "si"], work, fail)
+    oil_out = run_checked(base + ["--out", "oilfield", "--units", "oilfield"], work, fail)
     if "dp_crit MPa" not in si_out or "dp_crit psi" not in oil_out:
         fail("the console summaries do not name MPa (SI) and psi (oilfield)")
     return work / "si", work / "oilfield"

@@ -8,18 +8,19 @@ build (compiler, git commit), and that every CSV column and JSON key spells its 
 
     read_outputs_with_pandas.py SLIPSCREEN SOURCE_DIR WORK_DIR
 
-The runs: the demo scenario (the fictional Marrowick Basin, regions/marrowick, with the demo
-catalog) copied into WORK_DIR with 100 realizations and output times every 5 years so that it
-runs in a few seconds, and `slipscreen catalog --out` on the demo catalog with an r-t view.
+The runs: the reduced demo (reduced_demo.py: the fictional Marrowick Basin with 100
+realizations and output times every 5 years, a few seconds), and `slipscreen catalog --out` on
+the demo catalog with an r-t view.
 """
 import json
 import re
 import shutil
-import subprocess
 import sys
 from pathlib import Path
 
 import pandas as pd
+
+from reduced_demo import reduced_demo_run, run_checked
 
 # Units as names end in them (docs/outputs.md). A column ending in one holds numbers.
 UNIT_SUFFIXES = ("_Pa", "_MPa", "_m", "_km", "_m2", "_m3", "_bbl", "_s", "_days", "_years", "_deg", "_rad",
@@ -39,38 +40,11 @@ def fail(message):
     sys.exit(1)
 
 
-def run(cmd, cwd):
-    done = subprocess.run(cmd, cwd=cwd, capture_output=True, text=True)
-    if done.returncode != 0:
-        fail(f"{' '.join(map(str, cmd))} exited {done.returncode}:\n{done.stderr}")
-    return done.stdout
-
-
-def patched(text, old, new):
-    if text.count(old) != 1:
-        fail(f"the demo scenario no longer has exactly one line '{old}'")
-    return text.replace(old, new)
-
-
-def reduced_demo(source, work):
-    """The demo scenario and catalog copied into WORK (emptied first), with 100 realizations and
-    output times every 5 years; the runs start in WORK with regions/marrowick/scenario.toml."""
-    shutil.rmtree(work, ignore_errors=True)
-    shutil.copytree(source / "regions" / "marrowick", work / "regions" / "marrowick")
-    shutil.copytree(source / "catalogs" / "demo", work / "catalogs" / "demo")
-    scenario = work / "regions" / "marrowick" / "scenario.toml"
-    text = scenario.read_text()
-    text = patched(text, "realizations = 2000", "realizations = 100")
-    text = patched(text, 'step = "1 year"', 'step = "5 years"')
-    scenario.write_text(text)
-
-
 def make_runs(slipscreen, source, work):
-    reduced_demo(source, work)
-    run([slipscreen, "run", "regions/marrowick/scenario.toml", "--out", "run", "--reproducible"], work)
-    run([slipscreen, "catalog", "catalogs/demo/demo_catalog.csv", "--well", "-135.0,-35.3", "--start",
-         "2011-04-01", "--out", "catalog"], work)
-    return [work / "run", work / "catalog"]
+    run = reduced_demo_run(slipscreen, source, work, fail)
+    run_checked([slipscreen, "catalog", "catalogs/demo/demo_catalog.csv", "--well", "-135.0,-35.3", "--start",
+                 "2011-04-01", "--out", "catalog"], work, fail)
+    return [run, work / "catalog"]
 
 
 def check_keys(names, where):

@@ -46,8 +46,11 @@ TEST_CASE("the tiny scenario writes every output into its run folder") {
   const fs::path out = t.dir() / "runs" / "tiny";
   const RunSummary r = run_scenario(s, options_into(out));
   CHECK(r.folder == out);
-  const std::vector<std::string> expected = {"README.txt", "manifest.json", "pressure_change.tif", "screen.gpkg",
-                                             "segment_times.csv", "segments.csv", "well_shares.csv"};
+  const std::vector<std::string> expected = {"README.txt",          "manifest.json",
+                                             "pressure_change.qml", "pressure_change.tif",
+                                             "pressure_change.tif.aux.xml", "screen.gpkg",
+                                             "segment_times.csv",   "segments.csv",
+                                             "well_shares.csv"};
   CHECK(r.files == expected);
   CHECK(r.fault_count == 2);
   CHECK(r.well_count == 3);

@@ -287,4 +287,19 @@ TEST_CASE("[output] units: SI by default, oilfield when asked, a misspelt name r
   TinyScenario n;
   n.replace("scenario.toml", "cog = false", "cog = false\nunits = 3");
   CHECK_THROWS_AS(load_scenario(n.scenario()), InputError);
+TEST_CASE("[output] footprint: a pressure above zero, 0.1 MPa when not given") {
+  TinyScenario t;
+  CHECK(load_scenario(t.scenario()).output.footprint == 0.1e6);  // the documented default (docs/scenario.md)
+  CHECK_FALSE(load_scenario(t.scenario()).output.footprint_given);
+  TinyScenario g;
+  g.replace("scenario.toml", "cog = false\n", "cog = false\nfootprint = \"50 kPa\"\n");
+  CHECK(load_scenario(g.scenario()).output.footprint == 5e4);
+  TinyScenario z;
+  z.replace("scenario.toml", "cog = false\n", "cog = false\nfootprint = \"0 MPa\"\n");
+  CHECK_THROWS_WITH_AS(load_scenario(z.scenario()),
+                       doctest::Contains("field 'output.footprint' = '0 MPa': expected a pressure change above zero"),
+                       InputError);
+  TinyScenario u;
+  u.replace("scenario.toml", "cog = false\n", "cog = false\nfootprint = \"0.1 m\"\n");
+  CHECK_THROWS_WITH_AS(load_scenario(u.scenario()), doctest::Contains("output.footprint"), InputError);
 }

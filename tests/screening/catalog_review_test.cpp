@@ -263,3 +263,16 @@ TEST_CASE("[catalog] from: the seismogenic index takes the volume injected from 
   // Shapiro et al. (2010): Σ = log10 N − log10 V + b Mc, evaluated here by hand.
   CHECK(std::abs(f.sigma - (std::log10(20.0) - std::log10(v) + sum.b->b * 1.0)) < 1e-9);
 }
+
+TEST_CASE("the run's footprint follows the catalog review's threshold; a different [output] footprint is refused") {
+  CatalogScenario same;
+  CHECK(load_scenario(same.scenario()).output.footprint == 0.05e6);  // from [catalog] footprint_threshold
+  same.replace("scenario.toml", "cog = false\n", "cog = false\nfootprint = \"50 kPa\"\n");
+  CHECK(load_scenario(same.scenario()).output.footprint == 0.05e6);  // the same value, written twice
+  CatalogScenario other;
+  other.replace("scenario.toml", "cog = false\n", "cog = false\nfootprint = \"0.2 MPa\"\n");
+  CHECK_THROWS_WITH_AS(load_scenario(other.scenario()),
+                       doctest::Contains("field 'output.footprint' = '0.2 MPa': expected the catalog review's "
+                                         "footprint_threshold (0.05 MPa)"),
+                       InputError);
+}

@@ -3,6 +3,7 @@
 #include <gdal_priv.h>
 #include <ogr_spatialref.h>
 
+#include <algorithm>
 #include <cmath>
 #include <memory>
 
@@ -41,11 +42,25 @@ void fill(GDALDataset& ds, const geometry::RasterGrid& grid, const Crs& crs,
     if (band->RasterIO(GF_Write, 0, 0, grid.columns, grid.rows, buffer.data(), grid.columns, grid.rows,
                        GDT_Float32, 0, 0, nullptr) != CE_None)
       errors.throw_io("cannot write band " + std::to_string(b + 1));
+    if (band->SetColorInterpretation(GCI_GrayIndex) != CE_None)
+      errors.throw_io("cannot set the colour interpretation of band " + std::to_string(b + 1));
+    // Exact statistics (GDAL's own, over every valid cell), kept as the band's STATISTICS_*
+    // metadata, which the copy below writes into the file. A band with no valid cell has none.
+    const bool any = std::any_of(buffer.begin(), buffer.end(), [&](float v) { return v != options.nodata; });
+    double mn = 0, mx = 0, mean = 0, sd = 0;
+    if (any && band->ComputeStatistics(FALSE, &mn, &mx, &mean, &sd, nullptr, nullptr) != CE_None)
+      errors.throw_io("cannot compute the statistics of band " + std::to_string(b + 1));
   }
   errors.throw_if_error("could not write the GeoTIFF");
 }
 
 }  // namespace
+
+std::filesystem::path band_sidecar(const std::filesystem::path& path) {
+  std::filesystem::path p = path;
+  p += ".aux.xml";
+  return p;
+}
 
 void write_geotiff(const std::filesystem::path& path, const geometry::RasterGrid& grid, const Crs& crs,
                    const std::vector<RasterBand>& bands, const GeoTiffOptions& options) {
@@ -62,30 +77,23 @@ void write_geotiff(const std::filesystem::path& path, const geometry::RasterGrid
 
   GdalErrorScope errors(where);
   const int nbands = static_cast<int>(bands.size());
-  if (!options.cloud_optimized) {
-    GDALDriver* gtiff = GetGDALDriverManager()->GetDriverByName("GTiff");
-    if (!gtiff) errors.throw_io("GDAL has no GTiff driver");
-    const char* const create_options[] = {"TILED=YES",       "BLOCKXSIZE=256", "BLOCKYSIZE=256",
-                                          "COMPRESS=DEFLATE", "PREDICTOR=3",    nullptr};
-    DatasetPtr ds(gtiff->Create(where.c_str(), grid.columns, grid.rows, nbands, GDT_Float32,
-                                const_cast<char**>(create_options)));
-    if (!ds) errors.throw_io("cannot create the GeoTIFF");
-    fill(*ds, grid, crs, bands, options, errors);
-    close_checked(ds, errors);
-    return;
-  }
-
+  // Both layouts are staged in memory (where the statistics are computed) and copied out.
   GDALDriver* mem = GetGDALDriverManager()->GetDriverByName("MEM");
-  GDALDriver* cog = GetGDALDriverManager()->GetDriverByName("COG");
-  if (!mem || !cog) errors.throw_io("GDAL has no MEM or COG driver (GDAL 3.1 or later is needed)");
+  GDALDriver* out_driver = GetGDALDriverManager()->GetDriverByName(options.cloud_optimized ? "COG" : "GTiff");
+  if (!mem || !out_driver)
+    errors.throw_io(options.cloud_optimized ? "GDAL has no MEM or COG driver (GDAL 3.1 or later is needed)"
+                                            : "GDAL has no MEM or GTiff driver");
   DatasetPtr staging(mem->Create("", grid.columns, grid.rows, nbands, GDT_Float32, nullptr));
   if (!staging) errors.throw_io("cannot create the in-memory raster");
   fill(*staging, grid, crs, bands, options, errors);
+  const char* const gtiff_options[] = {"TILED=YES",   "BLOCKXSIZE=256",        "BLOCKYSIZE=256", "COMPRESS=DEFLATE",
+                                       "PREDICTOR=3", "PHOTOMETRIC=MINISBLACK", nullptr};
   const char* const cog_options[] = {"COMPRESS=DEFLATE", "PREDICTOR=YES", "BLOCKSIZE=256",
                                      "RESAMPLING=AVERAGE", "OVERVIEWS=AUTO", nullptr};
-  DatasetPtr out(cog->CreateCopy(where.c_str(), staging.get(), FALSE, const_cast<char**>(cog_options),
-                                 nullptr, nullptr));
-  if (!out) errors.throw_io("cannot write the Cloud-Optimized GeoTIFF");
+  DatasetPtr out(out_driver->CreateCopy(where.c_str(), staging.get(), FALSE,
+                                        const_cast<char**>(options.cloud_optimized ? cog_options : gtiff_options),
+                                        nullptr, nullptr));
+  if (!out) errors.throw_io(options.cloud_optimized ? "cannot write the Cloud-Optimized GeoTIFF" : "cannot create the GeoTIFF");
   close_checked(out, errors);
 }
 

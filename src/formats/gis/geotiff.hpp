@@ -8,6 +8,13 @@
 //   whose origin is the top-left corner of the top-left pixel (GDAL "pixel is area"); see
 //   core/geometry/raster_grid.hpp. Row 0 is the northern row.
 // - Nodata: options.nodata is set on every band; NaN values in the input are written as it.
+// - Every band: colour interpretation gray index (a GIS does not read three dates as red, green
+//   and blue) and exact statistics (STATISTICS_MINIMUM, _MAXIMUM, _MEAN, _STDDEV: GDAL's
+//   ComputeStatistics over the valid cells, stored in the file's GDAL metadata; none for a band
+//   without a valid cell). TIFF can say "gray" only of the first band (PHOTOMETRIC=MINISBLACK);
+//   GDAL (3.6) keeps the gray index of bands 2, 3, ... in its sidecar `<path>.aux.xml`
+//   (band_sidecar(path)), which every GDAL reader (QGIS too) reads with the file. A one-band
+//   raster has no sidecar.
 // - Plain GeoTIFF: tiled 256×256, DEFLATE with the floating-point predictor (PREDICTOR=3).
 // - Cloud-Optimized GeoTIFF (options.cloud_optimized): written with GDAL's COG driver
 //   (CreateCopy from an in-memory dataset), DEFLATE + predictor, 256×256 tiles, overviews by
@@ -38,6 +45,9 @@ struct GeoTiffOptions {
   std::string unit;                               // band unit type, e.g. "Pa"; empty = none
   std::map<std::string, std::string> metadata;    // dataset metadata items
 };
+
+// "<path>.aux.xml": where GDAL keeps the colour interpretation of bands 2, 3, ...
+std::filesystem::path band_sidecar(const std::filesystem::path& path);
 
 // Throws InputError when a band has the wrong number of values or there are no bands, and
 // IoError naming `path` when GDAL cannot create or write the file.

@@ -176,3 +176,140 @@ TEST_CASE("GeoPackage input errors name layer, feature and field") {
                          IoError);
   }
 }
+
+TEST_CASE("GeoPackage: aliases, DateTime and boolean fields, multi-polygons and layer_styles rows") {
+  test::TempDir dir("gpkg-styled");
+  const auto path = dir / "styled.gpkg";
+  const formats::Crs utm = formats::working_crs("EPSG:32614");
+  formats::VectorLayer events{"events", formats::GeometryType::point,
+                              {{"time_utc", formats::FieldType::datetime, "time (UTC)"},
+                               {"felt", formats::FieldType::boolean, "felt"},
+                               {"depth_m", formats::FieldType::real, "depth (m)"}}};
+  // 2031-06-30T12:34:56.5Z = 22,460 days (Python's datetime.date difference) and 45,296.5 s
+  // after 1970-01-01.
+  const double t = 22460.0 * 86400.0 + 45296.5;
+  events.features.emplace_back(std::vector<geometry::Point2>{{630000, 3980000}},
+                               std::vector<formats::FieldValue>{t, std::int64_t{1}, 4200.0});
+  events.features.emplace_back(std::vector<geometry::Point2>{{631000, 3981000}},
+                               std::vector<formats::FieldValue>{std::monostate{}, std::int64_t{0}, 10.0});
+  events.styles.push_back({"by time", "<qgis>one</qgis>", "the default"});
+  events.styles.push_back({"other", "<qgis>two</qgis>", "an alternative"});
+  formats::VectorLayer areas{"areas", formats::GeometryType::multi_polygon, {{"name", formats::FieldType::string}}};
+  formats::VectorFeature donut;
+  donut.values = {std::string("donut")};
+  donut.polygons.push_back({{{{0, 0}, {10, 0}, {10, 10}, {0, 10}}, {{4, 4}, {6, 4}, {6, 6}, {4, 6}}}});
+  donut.polygons.push_back({{{{20, 0}, {21, 0}, {21, 1}}}});
+  areas.features.push_back(donut);
+  formats::VectorFeature nothing;  // no polygon: NULL geometry
+  nothing.values = {std::string("none")};
+  areas.features.push_back(nothing);
+  formats::write_geopackage(path, utm, {events, areas}, {.timestamp = "2031-01-01T00:00:00Z"});
+
+  std::unique_ptr<GDALDataset, Closer> ds(
+      GDALDataset::Open(path.string().c_str(), GDAL_OF_VECTOR | GDAL_OF_READONLY, nullptr, nullptr, nullptr));
+  REQUIRE(ds);
+  OGRLayer* ev = ds->GetLayerByName("events");
+  REQUIRE(ev);
+  OGRFeatureDefn* d = ev->GetLayerDefn();
+  CHECK(d->GetFieldDefn(0)->GetType() == OFTDateTime);
+  CHECK(d->GetFieldDefn(1)->GetType() == OFTInteger);
+  CHECK(d->GetFieldDefn(1)->GetSubType() == OFSTBoolean);
+#if GDAL_VERSION_NUM >= GDAL_COMPUTE_VERSION(3, 7, 0)  // GDAL reads gpkg_data_columns.name from 3.7
+  CHECK(std::string(d->GetFieldDefn(0)->GetAlternativeNameRef()) == "time (UTC)");
+  CHECK(std::string(d->GetFieldDefn(2)->GetAlternativeNameRef()) == "depth (m)");
+#endif
+  std::unique_ptr<OGRFeature> f(ev->GetFeature(1));
+  REQUIRE(f);
+  int y = 0, m = 0, day = 0, h = 0, mi = 0, tz = 0;
+  float s = 0;
+  REQUIRE(f->GetFieldAsDateTime(0, &y, &m, &day, &h, &mi, &s, &tz));
+  CHECK(y == 2031);
+  CHECK(m == 6);
+  CHECK(day == 30);
+  CHECK(h == 12);
+  CHECK(mi == 34);
+  CHECK(s == 56.5f);
+  CHECK(tz == 100);  // UTC
+  CHECK(f->GetFieldAsInteger(1) == 1);
+  f.reset(ev->GetFeature(2));
+  CHECK(f->IsFieldNull(0));
+  CHECK(f->GetFieldAsInteger(1) == 0);
+
+  OGRLayer* ar = ds->GetLayerByName("areas");
+  REQUIRE(ar);
+  CHECK(wkbFlatten(ar->GetGeomType()) == wkbMultiPolygon);
+  f.reset(ar->GetFeature(1));
+  REQUIRE(f);
+  const OGRGeometry* g = f->GetGeometryRef();
+  REQUIRE(g);
+  CHECK(g->toMultiPolygon()->getNumGeometries() == 2);
+  CHECK(std::abs(g->toMultiPolygon()->get_Area() - (100.0 - 4.0 + 0.5)) < 1e-9);  // hole subtracted (GDAL)
+  f.reset(ar->GetFeature(2));
+  CHECK(f->GetGeometryRef() == nullptr);
+
+  // The aliases are stored where GeoPackage keeps them (gpkg_data_columns, the GPKG spec's table).
+  OGRLayer* sql = ds->ExecuteSQL("SELECT name FROM gpkg_data_columns WHERE table_name = 'events' AND column_name = 'depth_m'",
+                                 nullptr, nullptr);
+  REQUIRE(sql);
+  std::unique_ptr<OGRFeature> row(sql->GetNextFeature());
+  REQUIRE(row);
+  CHECK(std::string(row->GetFieldAsString(0)) == "depth (m)");
+  row.reset();
+  ds->ReleaseResultSet(sql);
+  sql = ds->ExecuteSQL("SELECT count(*) FROM gpkg_extensions WHERE table_name = 'gpkg_data_columns' AND "
+                       "extension_name = 'gpkg_schema'", nullptr, nullptr);
+  REQUIRE(sql);
+  row.reset(sql->GetNextFeature());
+  REQUIRE(row);
+  CHECK(row->GetFieldAsInteger(0) == 1);
+  row.reset();
+  ds->ReleaseResultSet(sql);
+
+  // layer_styles: QGIS's columns, one row per style, the first the default.
+  OGRLayer* styles = ds->GetLayerByName("layer_styles");
+  REQUIRE(styles);
+  CHECK(wkbFlatten(styles->GetGeomType()) == wkbNone);
+  CHECK(styles->GetFeatureCount() == 2);
+  for (const char* col : {"f_table_catalog", "f_table_schema", "f_table_name", "f_geometry_column", "styleName",
+                          "styleQML", "styleSLD", "useAsDefault", "description", "owner", "ui", "update_time"})
+    CHECK_MESSAGE(styles->GetLayerDefn()->GetFieldIndex(col) >= 0, col);
+  CHECK(styles->GetLayerDefn()->GetFieldDefn(styles->GetLayerDefn()->GetFieldIndex("useAsDefault"))->GetSubType() ==
+        OFSTBoolean);
+  std::unique_ptr<OGRFeature> first(styles->GetFeature(1)), second(styles->GetFeature(2));
+  REQUIRE(first);
+  REQUIRE(second);
+  CHECK(std::string(first->GetFieldAsString("f_table_name")) == "events");
+  CHECK(std::string(first->GetFieldAsString("f_geometry_column")) == "geom");
+  CHECK(std::string(first->GetFieldAsString("styleName")) == "by time");
+  CHECK(std::string(first->GetFieldAsString("styleQML")) == "<qgis>one</qgis>");
+  CHECK(first->GetFieldAsInteger("useAsDefault") == 1);
+  CHECK(second->GetFieldAsInteger("useAsDefault") == 0);
+  CHECK(std::string(first->GetFieldAsString("update_time")).rfind("2031/01/01", 0) == 0);
+  CHECK(ds->GetLayerByName("areas") != nullptr);
+}
+
+TEST_CASE("GeoPackage: bad booleans and times, and the style table's name, are refused") {
+  test::TempDir dir("gpkg-bad2");
+  const formats::Crs utm = formats::working_crs("EPSG:32614");
+  formats::VectorLayer l{"l", formats::GeometryType::point,
+                         {{"b", formats::FieldType::boolean}, {"t", formats::FieldType::datetime}}};
+  const auto one = [&](formats::FieldValue b, formats::FieldValue t) {
+    l.features.clear();
+    l.features.emplace_back(std::vector<geometry::Point2>{{0, 0}}, std::vector<formats::FieldValue>{});
+    l.features[0].values.push_back(std::move(b));
+    l.features[0].values.push_back(std::move(t));
+  };
+  one(std::int64_t{2}, 0.0);
+  CHECK_THROWS_WITH_AS(formats::write_geopackage(dir / "a.gpkg", utm, {l}), doctest::Contains("field 'b' = '2'"),
+                       InputError);
+  one(std::int64_t{1}, std::string("2031-01-01"));
+  CHECK_THROWS_WITH_AS(formats::write_geopackage(dir / "b.gpkg", utm, {l}), doctest::Contains("field 't'"), InputError);
+  one(std::int64_t{1}, 1e300);
+  CHECK_THROWS_AS(formats::write_geopackage(dir / "c.gpkg", utm, {l}), InputError);
+  one(std::int64_t{1}, 0.0);
+  l.name = "layer_styles";
+  CHECK_THROWS_AS(formats::write_geopackage(dir / "d.gpkg", utm, {l}), InputError);
+  l.name = "l";
+  l.fields[0].alias = l.fields[1].alias = "the same";  // gpkg_data_columns: names unique per table
+  CHECK_THROWS_WITH_AS(formats::write_geopackage(dir / "e.gpkg", utm, {l}), doctest::Contains("the same"), InputError);
+}

@@ -4,6 +4,7 @@
 #include <gdal_priv.h>
 #include <ogr_spatialref.h>
 
+#include <algorithm>
 #include <cmath>
 #include <fstream>
 #include <limits>
@@ -145,4 +146,58 @@ TEST_CASE("GeoTIFF input errors") {
   CHECK_THROWS_AS(formats::write_geotiff(dir / "x.tif", f.grid, f.crs, {}), InputError);
   CHECK_THROWS_WITH_AS(formats::write_geotiff(dir / "no-such-folder" / "x.tif", f.grid, f.crs, f.bands),
                        doctest::Contains("no-such-folder"), IoError);
+}
+
+TEST_CASE("every band is gray index with its statistics stored, equal to GDAL's ComputeStatistics") {
+  const Fixture f;
+  test::TempDir dir("tif-stats");
+  for (bool cog : {false, true}) {
+    CAPTURE(cog);
+    const auto path = dir / (cog ? "cog.tif" : "plain.tif");
+    formats::GeoTiffOptions o;
+    o.cloud_optimized = cog;
+    formats::write_geotiff(path, f.grid, f.crs, f.bands, o);
+    // TIFF says gray for band 1 only; GDAL keeps band 2's in its sidecar (geotiff.hpp).
+    CHECK(std::filesystem::exists(formats::band_sidecar(path)));
+    auto ds = open_raster(path);
+    REQUIRE(ds);
+    for (int b = 1; b <= 2; ++b) {
+      CAPTURE(b);
+      GDALRasterBand* band = ds->GetRasterBand(b);
+      CHECK(band->GetColorInterpretation() == GCI_GrayIndex);
+      const auto stored = [&](const char* key) {
+        const char* v = band->GetMetadataItem(key);
+        REQUIRE(v != nullptr);
+        return std::stod(v);
+      };
+      const double mn = stored("STATISTICS_MINIMUM"), mx = stored("STATISTICS_MAXIMUM"),
+                   mean = stored("STATISTICS_MEAN"), sd = stored("STATISTICS_STDDEV");
+      // Reference: GDAL's own exact statistics of the band as read back from the file.
+      double rmn = 0, rmx = 0, rmean = 0, rsd = 0;
+      REQUIRE(band->ComputeStatistics(FALSE, &rmn, &rmx, &rmean, &rsd, nullptr, nullptr) == CE_None);
+      // Stored as text with 14 significant digits (GDAL): equal within 1e-12 of the value.
+      CHECK(std::abs(mn - rmn) <= 1e-12 * std::max(1.0, std::abs(rmn)));
+      CHECK(std::abs(mx - rmx) <= 1e-12 * std::max(1.0, std::abs(rmx)));
+      CHECK(std::abs(mean - rmean) <= 1e-12 * std::max(1.0, std::abs(rmean)));
+      CHECK(std::abs(sd - rsd) <= 1e-12 * std::max(1.0, std::abs(rsd)));
+      // And by hand: band 1 holds 10 r + c (r 0..2, c 0..4): 0..24, mean 12; band 2 holds
+      // 100 + 10 r + c without the nodata cell (r 2, c 4, 124): 100..123, mean (1680 − 124) / 14.
+      CHECK(mn == (b == 1 ? 0.0 : 100.0));
+      CHECK(mx == (b == 1 ? 24.0 : 123.0));
+      CHECK(std::abs(mean - (b == 1 ? 12.0 : (1680.0 - 124.0) / 14)) < 1e-9);
+    }
+  }
+}
+
+TEST_CASE("a band without a valid cell is written without statistics") {
+  Fixture f;
+  f.bands.resize(1);
+  std::fill(f.bands[0].values.begin(), f.bands[0].values.end(), std::numeric_limits<float>::quiet_NaN());
+  test::TempDir dir("tif-empty");
+  formats::write_geotiff(dir / "empty.tif", f.grid, f.crs, f.bands);
+  CHECK_FALSE(std::filesystem::exists(formats::band_sidecar(dir / "empty.tif")));  // one band: TIFF says gray
+  auto ds = open_raster(dir / "empty.tif");
+  REQUIRE(ds);
+  CHECK(ds->GetRasterBand(1)->GetColorInterpretation() == GCI_GrayIndex);
+  CHECK(ds->GetRasterBand(1)->GetMetadataItem("STATISTICS_MEAN") == nullptr);
 }
