@@ -287,6 +287,8 @@ TEST_CASE("[output] units: SI by default, oilfield when asked, a misspelt name r
   TinyScenario n;
   n.replace("scenario.toml", "cog = false", "cog = false\nunits = 3");
   CHECK_THROWS_AS(load_scenario(n.scenario()), InputError);
+}
+
 TEST_CASE("[output] footprint: a pressure above zero, 0.1 MPa when not given") {
   TinyScenario t;
   CHECK(load_scenario(t.scenario()).output.footprint == 0.1e6);  // the documented default (docs/scenario.md)

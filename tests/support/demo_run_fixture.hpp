@@ -15,7 +15,11 @@ namespace slipscreen::test {
 inline const std::filesystem::path& demo_run_folder() {
   static const std::unique_ptr<TempDir> dir = std::make_unique<TempDir>("demo-run");
   static const std::filesystem::path folder = [] {
-    const auto s = scenario::load_scenario(std::filesystem::path(SLIPSCREEN_SOURCE_DIR) / "regions/marrowick/scenario.toml");
+    auto s = scenario::load_scenario(std::filesystem::path(SLIPSCREEN_SOURCE_DIR) / "regions/marrowick/scenario.toml");
+    // Reduced so that a test process pays a second or two, not the whole demo: fewer
+    // realizations and catalog bootstrap resamples (the figures' shape, not their precision, is tested).
+    s.uncertainty.realizations = stats::RealizationCount(200);
+    if (s.catalog && s.catalog->bootstrap > 100) s.catalog->bootstrap = 100;
     const std::filesystem::path out = dir->path() / "demo";
     run::run_scenario(s, options_into(out));
     return out;
