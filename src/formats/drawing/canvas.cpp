@@ -68,12 +68,33 @@ void trace(cairo_t* cr, const std::vector<Point>& points) {
     if (i == 0) cairo_move_to(cr, points[i].x, points[i].y); else cairo_line_to(cr, points[i].x, points[i].y);
 }
 
+// <sub> and <sup> as explicit spans: Pango 1.50's own subscript scaling enlarges the text on
+// layouts whose size is given in points (seen with Debian 12's 1.50.12), so the size (70 %) and
+// the baseline shift (a quarter and a third of the font size) are spelt out in Pango units.
+std::string explicit_scripts(std::string_view markup, double size_pt) {
+  const int small = static_cast<int>(0.7 * size_pt * PANGO_SCALE);
+  const std::string sub = "<span size=\"" + std::to_string(small) + "\" rise=\"" +
+                          std::to_string(-static_cast<int>(0.25 * size_pt * PANGO_SCALE)) + "\">";
+  const std::string sup = "<span size=\"" + std::to_string(small) + "\" rise=\"" +
+                          std::to_string(static_cast<int>(0.35 * size_pt * PANGO_SCALE)) + "\">";
+  std::string out;
+  out.reserve(markup.size() + 64);
+  for (std::size_t i = 0; i < markup.size();) {
+    auto at = [&](std::string_view tag) { return markup.substr(i, tag.size()) == tag; };
+    if (at("<sub>")) { out += sub; i += 5; }
+    else if (at("<sup>")) { out += sup; i += 5; }
+    else if (at("</sub>") || at("</sup>")) { out += "</span>"; i += 6; }
+    else out += markup[i++];
+  }
+  return out;
+}
+
 // A Pango layout for `markup`; the caller unrefs it.
 PangoLayout* make_layout(cairo_t* cr, std::string_view markup, const TextStyle& st) {
   PangoLayout* layout = pango_cairo_create_layout(cr);
   PangoFontDescription* font = pango_font_description_new();
   pango_font_description_set_family(font, "DejaVu Sans");
-  pango_font_description_set_absolute_size(font, st.size * PANGO_SCALE);
+  pango_font_description_set_size(font, static_cast<int>(st.size * PANGO_SCALE));
   pango_font_description_set_weight(font, st.bold ? PANGO_WEIGHT_BOLD : PANGO_WEIGHT_NORMAL);
   pango_font_description_set_style(font, st.italic ? PANGO_STYLE_ITALIC : PANGO_STYLE_NORMAL);
   pango_layout_set_font_description(layout, font);
@@ -84,6 +105,9 @@ PangoLayout* make_layout(cairo_t* cr, std::string_view markup, const TextStyle& 
   cairo_font_options_set_hint_metrics(options, CAIRO_HINT_METRICS_OFF);
   cairo_font_options_set_hint_style(options, CAIRO_HINT_STYLE_NONE);
   pango_cairo_context_set_font_options(context, options);
+  // 72 dpi: a point of font size is one unit of the canvas; relative markup (<sub>, <small>)
+  // then scales from the given size.
+  pango_cairo_context_set_resolution(context, 72.0);
   cairo_font_options_destroy(options);
   pango_layout_context_changed(layout);
   if (st.wrap_width > 0) {
@@ -94,7 +118,7 @@ PangoLayout* make_layout(cairo_t* cr, std::string_view markup, const TextStyle& 
                                      : st.h == HAlign::right ? PANGO_ALIGN_RIGHT
                                                              : PANGO_ALIGN_LEFT);
   GError* error = nullptr;
-  const std::string text(markup);
+  const std::string text = explicit_scripts(markup, st.size);
   if (!pango_parse_markup(text.c_str(), -1, 0, nullptr, nullptr, nullptr, &error)) {
     const std::string why = error ? error->message : "unknown";
     if (error) g_error_free(error);

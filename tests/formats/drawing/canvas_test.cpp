@@ -89,3 +89,11 @@ TEST_CASE("save writes the finished bytes") {
   c.save(dir.path() / "x.svg");
   CHECK(std::filesystem::file_size(dir.path() / "x.svg") == c.finish().size());
 }
+
+TEST_CASE("subscripts are smaller than the text they follow") {
+  Canvas c(DrawingFormat::svg, 400, 300);
+  const double plain = c.measure("Δpcrit", {.size = 10}).w;
+  const double sub = c.measure("Δp<sub>crit</sub>", {.size = 10}).w;
+  CHECK(sub < 0.9 * plain);
+  CHECK(c.measure("10<sup>3</sup>", {.size = 10}).w < c.measure("103", {.size = 10}).w);
+}
