@@ -210,7 +210,7 @@ OutputGrid read_grid(const formats::Section& s) {
 }
 
 OutputSpec read_output(const formats::Section& s) {
-  s.allow({"folder", "tables", "rasters", "geopackage", "cog", "times", "grid", "files"});
+  s.allow({"folder", "tables", "rasters", "geopackage", "cog", "report", "page", "times", "grid", "files"});
   OutputSpec o;
   o.folder = s.optional_string("folder").value_or("");
   if (!o.folder.empty()) check_output_name(s, "folder", o.folder);
@@ -219,6 +219,12 @@ OutputSpec read_output(const formats::Section& s) {
   o.geopackage = s.boolean_or("geopackage", true);
   o.cog = s.boolean_or("cog", false);
   if (o.cog && !o.rasters) s.fail("cog", "true", "rasters = true (a COG is a raster output)");
+  o.report = s.boolean_or("report", o.tables);  // the report is drawn from the run's tables
+  if (o.report && !o.tables) s.fail("report", "true", "tables = true (the report is drawn from the run's tables)");
+  if (const auto page = s.optional_string("page")) {
+    if (*page != "A4" && *page != "Letter") s.fail("page", *page, "\"A4\" or \"Letter\" (the PDF report's page size)");
+    o.page = *page;
+  }
   o.dates = read_times(s.child("times"));
   for (const auto& d : o.dates) o.times.push_back(util::to_seconds(d));
   o.grid = read_grid(s.child("grid"));
@@ -534,7 +540,8 @@ json output_json(const OutputSpec& o, const std::string& region_crs) {
     grid["extent"] = {g.xmin, g.ymin, g.xmax, g.ymax};
   }
   return {{"folder", o.folder}, {"tables", o.tables}, {"rasters", o.rasters},
-          {"geopackage", o.geopackage}, {"cog", o.cog}, {"dates", dates}, {"grid", grid},
+          {"geopackage", o.geopackage}, {"cog", o.cog}, {"report", o.report}, {"page", o.page},
+          {"dates", dates}, {"grid", grid},
           {"files", {{"segment_times", o.files.segment_times}, {"segments", o.files.segments},
                      {"pressure_raster", o.files.pressure_raster},
                      {"geopackage", o.files.geopackage}}}};

@@ -47,6 +47,8 @@ struct OutputFiles {
 struct OutputSpec {
   std::string folder;            // run folder as written (relative to the working directory)
   bool tables = true, rasters = true, geopackage = true, cog = false;
+  bool report = true;            // report.html, report.pdf and figures/ (docs/report.md)
+  std::string page = "A4";       // the PDF report's page size: "A4" or "Letter"
   std::vector<util::CivilDate> dates;
   std::vector<double> times;     // seconds, strictly increasing
   OutputGrid grid;
