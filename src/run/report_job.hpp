@@ -16,7 +16,7 @@
 namespace slipscreen::run {
 
 struct ReportJobOptions {
-  std::string page;           // "A4" or "Letter"; "" = the scenario's [output] page (A4 when absent)
+  std::string page = "";      // "A4" or "Letter"; "" = the scenario's [output] page (A4 when absent)
   bool reproducible = false;  // no build time in the report (a rebuild gives the same bytes)
   std::size_t top = 5;        // segments in the "top segments" tables and figures
 };

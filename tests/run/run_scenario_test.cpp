@@ -4,6 +4,8 @@
 
 #include <doctest/doctest.h>
 
+#include <algorithm>
+
 #include <filesystem>
 #include <fstream>
 #include <map>
@@ -46,8 +48,13 @@ TEST_CASE("the tiny scenario writes every output into its run folder") {
   const fs::path out = t.dir() / "runs" / "tiny";
   const RunSummary r = run_scenario(s, options_into(out));
   CHECK(r.folder == out);
-  const std::vector<std::string> expected = {"README.txt", "manifest.json", "pressure_change.tif", "screen.gpkg",
-                                             "segment_times.csv", "segments.csv", "well_shares.csv"};
+  // The report (docs/report.md) of a deterministic run: the map and the three pressure histories.
+  std::vector<std::string> expected = {"README.txt", "manifest.json", "pressure_change.tif", "report.html",
+                                       "report.pdf", "screen.gpkg", "segment_pressure_history.csv",
+                                       "segment_times.csv", "segments.csv", "well_shares.csv"};
+  for (const char* f : {"area_map", "pressure_history_1", "pressure_history_2", "pressure_history_3"})
+    for (const char* ext : {".csv", ".png", ".svg"}) expected.push_back(std::string("figures/") + f + ext);
+  std::sort(expected.begin(), expected.end());
   CHECK(r.files == expected);
   CHECK(r.fault_count == 2);
   CHECK(r.well_count == 3);
