@@ -26,7 +26,7 @@ namespace {
 
 // Segments whose monthly Δp by well the run writes (segment_pressure_history.csv); the report
 // draws the first three.
-constexpr std::size_t kHistorySegments = 10;
+constexpr std::size_t kHistorySegments = 5;
 
 struct ProgressBridge {
   const RunOptions* options;

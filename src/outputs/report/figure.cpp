@@ -23,11 +23,13 @@ std::string renumber_svg_ids(std::string_view svg, const std::string& prefix) {
   out.reserve(svg.size() + svg.size() / 16);
   static constexpr std::string_view kOpeners[] = {" id=\"", "href=\"#", "url(#"};
   std::size_t i = 0;
+  std::size_t next[3] = {0, 0, 0};  // where each opener is next found at or after i (searched once each)
+  for (std::size_t k = 0; k < 3; ++k) next[k] = svg.find(kOpeners[k]);
   while (i < svg.size()) {
     std::size_t best = std::string_view::npos, which = 0;
     for (std::size_t k = 0; k < 3; ++k) {
-      const std::size_t at = svg.find(kOpeners[k], i);
-      if (at < best) best = at, which = k;
+      if (next[k] != std::string_view::npos && next[k] < i) next[k] = svg.find(kOpeners[k], i);
+      if (next[k] < best) best = next[k], which = k;
     }
     if (best == std::string_view::npos) {
       out.append(svg.substr(i));
@@ -52,14 +54,16 @@ std::string figure_svg(const Figure& f) {
   return renumber_svg_ids(c.finish(), f.name + "-");
 }
 
-void write_figure_files(const Figure& f, const std::filesystem::path& dir) {
-  formats::write_text_file(dir / (f.name + ".svg"), figure_svg(f));
+std::string write_figure_files(const Figure& f, const std::filesystem::path& dir) {
+  std::string svg = figure_svg(f);
+  formats::write_text_file(dir / (f.name + ".svg"), svg);
   {
     formats::Canvas png(formats::DrawingFormat::png, f.width, f.height, 150.0);
     f.draw(png);
     png.save(dir / (f.name + ".png"));
   }
   formats::write_text_file(dir / (f.name + ".csv"), figure_csv(f));
+  return svg;
 }
 
 std::string figure_csv(const Figure& f) {

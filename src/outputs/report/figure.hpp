@@ -41,8 +41,9 @@ struct Figure {
   FigureData data;
 };
 
-// Writes figures/<name>.svg, .png and .csv into `figures_dir` (checked writes).
-void write_figure_files(const Figure& f, const std::filesystem::path& figures_dir);
+// Writes figures/<name>.svg, .png and .csv into `figures_dir` (checked writes); returns the SVG
+// written (figure_svg), for a caller that inlines it too.
+std::string write_figure_files(const Figure& f, const std::filesystem::path& figures_dir);
 
 // The figure as an SVG document (for inlining in HTML), its element ids renumbered as
 // "<name>-1", "<name>-2", ... in order of appearance (renumber_svg_ids): the same figure gives the

@@ -52,9 +52,8 @@ std::string html_escape(std::string_view t) {
   return out;
 }
 
-// The SVG document without its XML declaration, to sit inside HTML.
-std::string inline_svg(const Figure& f) {
-  std::string svg = figure_svg(f);
+// The figure's SVG document without its XML declaration, to sit inside HTML.
+std::string inline_svg(const Figure& f, std::string svg) {
   if (svg.rfind("<?xml", 0) == 0) svg.erase(0, svg.find("?>") + 2);
   while (!svg.empty() && (svg.front() == '\n' || svg.front() == '\r')) svg.erase(0, 1);
   const auto open = svg.find("<svg");
@@ -92,7 +91,8 @@ footer { color: var(--muted); font-size: .8rem; margin-top: 3rem; border-top: 1p
 }
 )";
 
-std::string html_report(const ReportDocument& d, const std::vector<Figure>& figures, const std::string& page) {
+std::string html_report(const ReportDocument& d, const std::vector<Figure>& figures, const std::vector<std::string>& svgs,
+                        const std::string& page) {
   std::ostringstream h;
   std::string css = kCss;
   css.replace(css.find("%PAGE%"), 6, page == "Letter" ? "letter" : "A4");
@@ -133,7 +133,7 @@ std::string html_report(const ReportDocument& d, const std::vector<Figure>& figu
       case Kind::figures:
         for (std::size_t i = 0; i < figures.size(); ++i) {
           const auto& f = figures[i];
-          h << "<figure id=\"figure-" << f.name << "\">\n" << inline_svg(f) << "\n<figcaption><strong>Figure " << i + 1
+          h << "<figure id=\"figure-" << f.name << "\">\n" << inline_svg(f, svgs[i]) << "\n<figcaption><strong>Figure " << i + 1
             << ".</strong> " << html_escape(f.title) << ". " << html_escape(f.reading) << " Data: figures/" << f.name
             << ".csv.</figcaption>\n</figure>\n";
         }
@@ -304,11 +304,14 @@ std::vector<std::string> write_report(const ReportSource& source, const ReportOp
   std::error_code ec;
   fs::create_directories(dir, ec);
   if (ec) throw IoError(dir.string() + ": cannot create the figures folder: " + ec.message());
+  std::vector<std::string> svgs;
   for (const auto& f : figures) {
-    write_figure_files(f, dir);
+    if (std::any_of(figures.begin(), figures.end(), [&](const Figure& g) { return &g != &f && g.name == f.name; }))
+      throw std::logic_error("two report figures are named " + f.name);
+    svgs.push_back(write_figure_files(f, dir));
     for (const char* ext : {".csv", ".png", ".svg"}) written.push_back("figures/" + f.name + ext);
   }
-  formats::write_text_file(into / "report.html", html_report(doc, figures, o.page));
+  formats::write_text_file(into / "report.html", html_report(doc, figures, svgs, o.page));
   formats::write_text_file(into / "report.pdf", pdf_report(doc, figures, o));
   written.push_back("report.html");
   written.push_back("report.pdf");
