@@ -21,6 +21,9 @@ from pathlib import Path
 
 import pandas as pd
 
+sys.path.insert(0, str(Path(__file__).resolve().parents[1] / "support"))
+from small_demo import copy_small_demo  # noqa: E402
+
 # Units as names end in them (docs/outputs.md). A column ending in one holds numbers.
 UNIT_SUFFIXES = ("_Pa", "_MPa", "_m", "_km", "_m2", "_m3", "_bbl", "_s", "_days", "_years", "_deg", "_rad",
                  "_m2_per_s", "_per_s", "_per_year", "_N_m", "_kg_per_m3", "_Pa_per_m", "_Pa_s", "_per_Pa")
@@ -45,21 +48,8 @@ def run(cmd, cwd):
         fail(f"{' '.join(map(str, cmd))} exited {done.returncode}:\n{done.stderr}")
 
 
-def patched(text, old, new):
-    if text.count(old) != 1:
-        fail(f"the demo scenario no longer has exactly one line '{old}'")
-    return text.replace(old, new)
-
-
 def make_runs(slipscreen, source, work):
-    shutil.rmtree(work, ignore_errors=True)
-    shutil.copytree(source / "regions" / "marrowick", work / "regions" / "marrowick")
-    shutil.copytree(source / "catalogs" / "demo", work / "catalogs" / "demo")
-    scenario = work / "regions" / "marrowick" / "scenario.toml"
-    text = scenario.read_text()
-    text = patched(text, "realizations = 2000", "realizations = 100")
-    text = patched(text, 'step = "1 year"', 'step = "5 years"')
-    scenario.write_text(text)
+    copy_small_demo(source, work, fail)
     run([slipscreen, "run", "regions/marrowick/scenario.toml", "--out", "run", "--reproducible"], work)
     run([slipscreen, "catalog", "catalogs/demo/demo_catalog.csv", "--well", "-135.0,-35.3", "--start",
          "2011-04-01", "--out", "catalog"], work)

@@ -38,19 +38,8 @@ namespace {
 
 // ---- HTML ----
 
-std::string html_escape(std::string_view t) {
-  std::string out;
-  for (char c : t) {
-    switch (c) {
-      case '&': out += "&amp;"; break;
-      case '<': out += "&lt;"; break;
-      case '>': out += "&gt;"; break;
-      case '"': out += "&quot;"; break;
-      default: out += c;
-    }
-  }
-  return out;
-}
+// HTML text: the characters Pango markup escapes (&, <, >, ', ") are exactly those HTML needs.
+std::string html_escape(std::string_view t) { return formats::markup_escape(t); }
 
 // The figure's SVG document without its XML declaration, to sit inside HTML.
 std::string inline_svg(const Figure& f, std::string svg) {

@@ -33,6 +33,9 @@ from pathlib import Path
 import pandas as pd
 from PIL import Image, ImageStat
 
+sys.path.insert(0, str(Path(__file__).resolve().parents[2] / "support"))
+from small_demo import copy_small_demo  # noqa: E402
+
 CAUTION_START = "Screening estimate from simplified physics and uncertain inputs."
 SEGMENT_STROKE = "2.25"  # outputs/report/area_map.hpp, kSegmentStroke
 
@@ -47,12 +50,6 @@ def run(cmd, cwd, expect=0):
     if done.returncode != expect:
         fail(f"{' '.join(map(str, cmd))} exited {done.returncode} (expected {expect}):\n{done.stdout}\n{done.stderr}")
     return done
-
-
-def patched(text, old, new):
-    if text.count(old) != 1:
-        fail(f"the demo scenario no longer has exactly one '{old}'")
-    return text.replace(old, new)
 
 
 def hashes(folder, names):
@@ -195,14 +192,7 @@ def main():
     if len(sys.argv) != 4:
         fail(__doc__)
     slipscreen, source, work = (Path(a).resolve() for a in sys.argv[1:])
-    shutil.rmtree(work, ignore_errors=True)
-    shutil.copytree(source / "regions" / "marrowick", work / "regions" / "marrowick")
-    shutil.copytree(source / "catalogs" / "demo", work / "catalogs" / "demo")
-    scenario = work / "regions" / "marrowick" / "scenario.toml"
-    text = scenario.read_text()
-    text = patched(text, "realizations = 2000", "realizations = 100")
-    text = patched(text, 'step = "1 year"', 'step = "5 years"')
-    scenario.write_text(text)
+    copy_small_demo(source, work, fail)
     run([slipscreen, "run", "regions/marrowick/scenario.toml", "--out", "run", "--reproducible"], work)
     folder = work / "run"
     manifest = json.loads((folder / "manifest.json").read_text())
