@@ -222,13 +222,29 @@ void catalog_section(const ReportSource& s, std::vector<ReportBlock>& out) {
   ReportBlock f{.kind = Kind::facts};
   f.facts.emplace_back("Catalog", text_of(at(j, {"input", "path"}), text_of(at(s.manifest, {"parameters", "catalog", "file"}), "-")));
   f.facts.emplace_back("Events kept", text_of(at(s.manifest, {"parameters", "catalog", "events_kept"}), "-"));
-  for (const auto& [k, v] : j.items()) {
-    if (!v.is_object()) continue;
-    if (v.contains("mc") && !v["mc"].is_object()) f.facts.emplace_back("Magnitude of completeness Mc", text_of(v["mc"]));
-    if (v.contains("method") && v.contains("median") && v.contains("lower") && v.contains("upper"))
-      f.facts.emplace_back(k, text_of(v["median"]) + " (" + text_of(v["lower"]) + " – " + text_of(v["upper"]) + "), " +
-                                  text_of(v["method"]));
-  }
+  f.facts.emplace_back("Time span", text_of(at(j, {"first_time"}), "-") + " to " + text_of(at(j, {"last_time"}), "-"));
+  f.facts.emplace_back("Magnitudes", text_of(at(j, {"magnitude_min"}), "-") + " to " + text_of(at(j, {"magnitude_max"}), "-"));
+  if (!at(j, {"completeness", "mc"}).is_null())
+    f.facts.emplace_back("Magnitude of completeness Mc", text_of(at(j, {"completeness", "mc"})) + " (" +
+                                                             text_of(at(j, {"completeness", "method"})) + ", " +
+                                                             text_of(at(j, {"completeness", "events_at_or_above_mc"})) +
+                                                             " events at or above it)");
+  const json& b = at(j, {"b_value"});
+  if (!at(b, {"b"}).is_null())
+    f.facts.emplace_back("b-value", text_of(at(b, {"b"})) + ", bootstrap interval at confidence " +
+                                        text_of(at(b, {"bootstrap", "confidence"})) + ": " +
+                                        text_of(at(b, {"bootstrap", "lower"})) + " – " +
+                                        text_of(at(b, {"bootstrap", "upper"})));
+  if (!at(j, {"seismogenic_index", "sigma"}).is_null())
+    f.facts.emplace_back("Seismogenic index Σ", text_of(at(j, {"seismogenic_index", "sigma"})) + " (" +
+                                                    text_of(at(j, {"seismogenic_index", "method"})) + ")");
+  for (const auto& fc : at(j, {"forecasts"}))
+    f.facts.emplace_back("Forecast M ≥ " + text_of(at(fc, {"magnitude"})),
+                         text_of(at(fc, {"expected_events"})) + " events expected, P(at least one) = " +
+                             text_of(at(fc, {"probability_at_least_one"})));
+  if (!at(j, {"mcgarr_bound", "max_mw"}).is_null())
+    f.facts.emplace_back("Largest magnitude by injected volume", "Mw " + text_of(at(j, {"mcgarr_bound", "max_mw"})) +
+                                                                    " (" + text_of(at(j, {"mcgarr_bound", "method"})) + ")");
   const json& fp = at(j, {"against_model", "footprint"});
   if (fp.is_object())
     f.facts.emplace_back("Events in the Δp footprint",
