@@ -234,7 +234,7 @@ class PdfFlow {
     const TextStyle cs{.size = 8.5, .colour = formats::rgb(0x57606a), .v = VAlign::top, .wrap_width = width()};
     const double ch = c_.measure(caption, cs).h;
     need(f.height * scale + ch + 8);
-    c_.begin_group({kSide + (width() - f.width * scale) / 2, y_}, scale);
+    c_.begin_group({kSide + (width() - f.width * scale) / 2, y_}, scale, f.width, f.height);
     f.draw(c_);
     c_.end_group();
     y_ += f.height * scale + 4;
