@@ -4,7 +4,7 @@ reference (docs/report.md):
 
 - report.pdf with poppler: `pdfinfo` gives the pages and the page size (A4; Letter after
   `report --page Letter`), `pdftotext` shows the screening caution and the top segment's P(slip)
-  exactly as segment_probability_summary.csv holds it;
+  exactly as segment_probability_summary.csv holds it, and every word inside the page's margins;
 - every figure SVG parses as XML (Python's xml.etree), and the area map holds one path of the
   segment stroke width per fault segment of segments.csv;
 - every figure CSV equals the rows of the run table it came from, and segment_pressure_history.csv
@@ -67,6 +67,13 @@ def check_pdf(folder, page, summary):
         fail(f"report.pdf: page size {w} x {h} pt, expected {page} {expected}")
     if pages < 3:
         fail(f"report.pdf: {pages} pages; the demo's report needs at least 3 (text, tables, figures)")
+    # Every word lies inside the page's margins (a figure laid out at the page's size instead of
+    # its own would run off the page).
+    boxes = run(["pdftotext", "-bbox", folder / "report.pdf", "-"], folder).stdout
+    words = re.findall(r'<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" yMax="([\d.]+)"', boxes)
+    outside = [wd for wd in words if float(wd[0]) < 20 or float(wd[2]) > w - 20 or float(wd[3]) > h - 10]
+    if not words or outside:
+        fail(f"report.pdf: {len(outside)} of {len(words)} words lie outside the page's margins")
     text = run(["pdftotext", folder / "report.pdf", "-"], folder).stdout
     flat = " ".join(text.split())
     if CAUTION_START not in flat:
