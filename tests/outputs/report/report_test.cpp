@@ -75,7 +75,7 @@ TEST_CASE("a folder that is not a run is refused") {
   CHECK(fs::exists(other / "notes.txt"));
 }
 
-TEST_CASE("[output] report = false writes no report; page must be A4 or Letter") {
+TEST_CASE("[output] report = false writes no report, and the page must be A4 or Letter") {
   test::TinyScenario t;
   t.replace("scenario.toml", "cog = false", "cog = false\nreport = false");
   const auto s = scenario::load_scenario(t.scenario());
