@@ -11,6 +11,7 @@ const std::vector<Registrar>& registrars() {
       &register_fault_stress_command,
       &register_run_command,
       &register_demo_command,
+      &register_report_command,
   };
   return list;
 }

@@ -16,5 +16,6 @@ void register_validate_command(CLI::App& app, Context& ctx);
 void register_fault_stress_command(CLI::App& app, Context& ctx);
 void register_run_command(CLI::App& app, Context& ctx);
 void register_demo_command(CLI::App& app, Context& ctx);
+void register_report_command(CLI::App& app, Context& ctx);
 
 }  // namespace slipscreen::cli

@@ -22,6 +22,8 @@ std::string run_footer() {
          "  6. writes the CSV tables, GeoTIFFs and screen.gpkg that [output] asks for, README.txt and\n"
          "     manifest.json into a staging folder, then renames it to the run folder (--out, else\n"
          "     [output] folder): all or nothing.\n"
+         "  7. unless [output] report = false: the report drawn from those files, report.html, report.pdf and\n"
+         "     figures/ (docs/report.md), in the same staging folder; `slipscreen report` rebuilds it.\n"
          "An existing run folder is refused unless --force. Outputs: docs/outputs.md.";
 }
 

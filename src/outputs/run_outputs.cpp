@@ -6,6 +6,7 @@
 #include "outputs/gis_layers.hpp"
 #include "outputs/output_text.hpp"
 #include "outputs/output_units.hpp"
+#include "outputs/pressure_history_table.hpp"
 #include "outputs/pressure_raster.hpp"
 #include "outputs/probabilistic_tables.hpp"
 #include "outputs/run_readme.hpp"
@@ -58,7 +59,11 @@ ReadmeContent run_readme(const scenario::ResolvedScenario& s, const RunResults& 
                                                             "GeoTIFFs and the JSON files in SI")};
   const std::string crs = r.prepared.working.authority();
   if (!crs.empty()) c.facts.push_back("Working CRS: " + crs + " (coordinates in metres)");
+  if (s.output.report)
+    c.facts.push_back("Report: report.html, report.pdf and figures/, written after this file from the run's "
+                      "files (docs/report.md); the manifest lists them under \"report\"");
   c.files = screen_tables_readme(s);
+  if (s.output.tables && r.history) c.files.push_back(pressure_history_readme(s, r.history->segments.size()));
   for (auto& f : pressure_raster_readme(s)) c.files.push_back(std::move(f));
   if (s.output.geopackage)
     c.files.push_back(gis_layers_readme(s, r.probabilistic != nullptr, r.review != nullptr, r.pressure != nullptr));
@@ -75,6 +80,7 @@ void write_run_outputs(const formats::RunFolder& folder, const scenario::Resolve
                        const OutputOptions& o) {
   const auto& p = r.prepared;
   if (s.output.tables) write_screen_tables(folder, s, p, r.screen);
+  if (s.output.tables && r.history) write_pressure_history(folder, s, p, *r.history);
   if (s.output.rasters && r.pressure) write_pressure_raster(folder, s, p, *r.pressure);
   if (s.output.geopackage)
     write_gis_layers(folder, s, p, r.screen, o.reproducible, r.probabilistic, r.review, r.pressure);

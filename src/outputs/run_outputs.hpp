@@ -6,6 +6,7 @@
 //   gis_layers.hpp           screen.gpkg
 //   probabilistic_tables.hpp segment_probability*.csv, sensitivity.csv, median_well_shares.csv,
 //                            slip_probability_*.tif
+//   pressure_history_table.hpp segment_pressure_history.csv
 //   catalog_review_files.hpp catalog_summary.json, catalog_events.csv, rt_*.csv, seismicity_rate*.csv
 //   manifest.json            version, command line, resolved parameters, SHA-256 of every input
 #include <string>
@@ -16,6 +17,7 @@
 #include "scenario/scenario.hpp"
 #include "screening/catalog_review.hpp"
 #include "screening/prepare.hpp"
+#include "screening/pressure_history.hpp"
 #include "screening/pressure_map.hpp"
 #include "screening/probabilistic_screen.hpp"
 
@@ -33,6 +35,7 @@ struct RunResults {
   const screening::PressureMap* pressure = nullptr;            // when [output] rasters
   const screening::ProbabilisticRun* probabilistic = nullptr;  // when [uncertainty]
   const screening::CatalogReview* review = nullptr;            // when [catalog]
+  const screening::SegmentPressureHistory* history = nullptr;  // monthly Δp by well at the top segments
 };
 
 // Writes every output the scenario asks for. Throws IoError (nothing is committed then).

@@ -5,9 +5,11 @@
 #include "core/errors.hpp"
 #include "formats/files/run_folder.hpp"
 #include "outputs/run_outputs.hpp"
+#include "run/report_job.hpp"
 #include "scenario/uncertainty.hpp"
 #include "screening/catalog_review.hpp"
 #include "screening/prepare.hpp"
+#include "screening/pressure_history.hpp"
 #include "screening/pressure_map.hpp"
 #include "screening/probabilistic_screen.hpp"
 
@@ -21,6 +23,10 @@ std::filesystem::path run_folder_of(const scenario::ResolvedScenario& s, const R
 }
 
 namespace {
+
+// Segments whose monthly Δp by well the run writes (segment_pressure_history.csv); the report
+// draws the first three.
+constexpr std::size_t kHistorySegments = 5;
 
 struct ProgressBridge {
   const RunOptions* options;
@@ -89,12 +95,23 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
     pressure = screening::pressure_map(s, prepared);
   }
 
+  std::optional<screening::SegmentPressureHistory> history;
+  if (s.output.tables) {
+    stage("pressure history at the segments closest to failure");
+    history = screening::segment_pressure_history(prepared, result, kHistorySegments);
+  }
+
   stage("writing outputs");
   formats::RunFolder folder(target, folder_rules);
   outputs::write_run_outputs(folder, s,
                              {prepared, result, pressure ? &*pressure : nullptr, prob ? &*prob : nullptr,
-                              review ? &*review : nullptr},
+                              review ? &*review : nullptr, history ? &*history : nullptr},
                              {o.command_line, o.reproducible});
+  if (s.output.report) {
+    stage("report");
+    write_report_into(folder.staging(), {.page = s.output.page, .reproducible = o.reproducible},
+                      s.output.files.manifest);
+  }
   folder.commit();
 
   RunSummary summary = screening::summarize_run(s, prepared, result, prob ? &*prob : nullptr, std::move(review));

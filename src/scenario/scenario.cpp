@@ -211,7 +211,8 @@ OutputGrid read_grid(const formats::Section& s) {
 }
 
 OutputSpec read_output(const formats::Section& s) {
-  s.allow({"folder", "tables", "rasters", "geopackage", "cog", "units", "footprint", "times", "grid", "files"});
+  s.allow({"folder", "tables", "rasters", "geopackage", "cog", "units", "footprint", "report", "page", "times",
+           "grid", "files"});
   OutputSpec o;
   o.folder = s.optional_string("folder").value_or("");
   if (!o.folder.empty()) check_output_name(s, "folder", o.folder);
@@ -230,6 +231,12 @@ OutputSpec read_output(const formats::Section& s) {
     if (!(o.footprint > 0))
       s.fail("footprint", plausible::written(s, "footprint"), "a pressure change above zero (e.g. '0.1 MPa')");
     o.footprint_given = true;
+  }
+  o.report = s.boolean_or("report", o.tables);  // the report is drawn from the run's tables
+  if (o.report && !o.tables) s.fail("report", "true", "tables = true (the report is drawn from the run's tables)");
+  if (const auto page = s.optional_string("page")) {
+    if (*page != "A4" && *page != "Letter") s.fail("page", *page, "\"A4\" or \"Letter\" (the PDF report's page size)");
+    o.page = *page;
   }
   o.dates = read_times(s.child("times"));
   for (const auto& d : o.dates) o.times.push_back(util::to_seconds(d));
@@ -555,7 +562,7 @@ json output_json(const OutputSpec& o, const std::string& region_crs) {
   }
   return {{"folder", o.folder}, {"tables", o.tables}, {"rasters", o.rasters},
           {"geopackage", o.geopackage}, {"cog", o.cog}, {"units", std::string(units::unit_system_name(o.units))},
-          {"footprint_Pa", o.footprint}, {"dates", dates}, {"grid", grid},
+          {"footprint_Pa", o.footprint}, {"report", o.report}, {"page", o.page}, {"dates", dates}, {"grid", grid},
           {"files", {{"segment_times", o.files.segment_times}, {"segments", o.files.segments},
                      {"pressure_raster", o.files.pressure_raster},
                      {"geopackage", o.files.geopackage}}}};

@@ -53,6 +53,8 @@ struct OutputSpec {
   // catalog review's footprint_threshold, else 0.1 MPa; docs/outputs.md)
   double footprint = 0.1e6;
   bool footprint_given = false;  // written under [output]
+  bool report = true;            // report.html, report.pdf and figures/ (docs/report.md)
+  std::string page = "A4";       // the PDF report's page size: "A4" or "Letter"
   std::vector<util::CivilDate> dates;
   std::vector<double> times;     // seconds, strictly increasing
   OutputGrid grid;

@@ -104,10 +104,16 @@ def check_folder(folder):
     for key in ("name", "version", "git_commit", "compiler", "libraries"):
         if key not in manifest["tool"]:
             fail(f"{folder}/manifest.json: tool.{key} is missing")
-    files = sorted(p.relative_to(folder).as_posix() for p in folder.rglob("*") if p.is_file())
+    all_files = sorted(p.relative_to(folder).as_posix() for p in folder.rglob("*") if p.is_file())
+    # The report (report.html, report.pdf, figures/) is built after the manifest from the run's files
+    # and listed by name under "report" (docs/report.md); it shows the tool version, as the manifest.
+    report = manifest.get("report", {}).get("files", [])
+    files = [f for f in all_files if f not in report]
     listed = sorted([e["path"] for e in manifest["outputs"]] + ["manifest.json"])
     if files != listed:
         fail(f"{folder}: the manifest lists {listed}, the folder holds {files}")
+    if report and (not set(report) <= set(all_files) or "report.pdf" not in report):
+        fail(f"{folder}: the manifest's report files {report} are not all in the folder")
     check_readme(folder, files)
     # The build is recorded in the manifest only: no other output changes with the build.
     build = [manifest["tool"]["compiler"], "slipscreen " + manifest["tool"]["version"]]

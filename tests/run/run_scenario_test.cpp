@@ -4,6 +4,8 @@
 
 #include <doctest/doctest.h>
 
+#include <algorithm>
+
 #include <filesystem>
 #include <fstream>
 #include <map>
@@ -46,11 +48,23 @@ TEST_CASE("the tiny scenario writes every output into its run folder") {
   const fs::path out = t.dir() / "runs" / "tiny";
   const RunSummary r = run_scenario(s, options_into(out));
   CHECK(r.folder == out);
-  const std::vector<std::string> expected = {"README.txt",          "manifest.json",
-                                             "pressure_change.qml", "pressure_change.tif",
-                                             "pressure_change.tif.aux.xml", "screen.gpkg",
-                                             "segment_times.csv",   "segments.csv",
-                                             "well_shares.csv"};
+  // The report (docs/report.md) of a deterministic run: the map and the three pressure histories.
+  std::vector<std::string> expected = {"README.txt", "manifest.json", "pressure_change.qml", "pressure_change.tif",
+                                       "pressure_change.tif.aux.xml", "report.html", "report.pdf", "screen.gpkg",
+                                       "segment_pressure_history.csv", "segment_times.csv", "segments.csv",
+                                       "well_shares.csv"};
+  for (const char* f : {"area_map", "pressure_history_1", "pressure_history_2", "pressure_history_3"})
+    for (const char* ext : {".csv", ".png", ".svg"}) expected.push_back(std::string("figures/") + f + ext);
+  // And a Mohr diagram per most-critical fault (at most one per fault of the map).
+  std::size_t mohr = 0;
+  for (const auto& f : r.files)
+    if (f.rfind("figures/mohr_", 0) == 0) {
+      expected.push_back(f);
+      ++mohr;
+    }
+  CHECK(mohr >= 3);
+  CHECK(mohr <= 3 * r.fault_count);
+  std::sort(expected.begin(), expected.end());
   CHECK(r.files == expected);
   CHECK(r.fault_count == 2);
   CHECK(r.well_count == 3);

@@ -309,10 +309,21 @@ void Canvas::begin_group(Point origin, double scale) {
   cairo_save(impl_->cr);
   cairo_translate(impl_->cr, origin.x, origin.y);
   cairo_scale(impl_->cr, scale, scale);
+  group_sized_.push_back(false);
+}
+
+void Canvas::begin_group(Point origin, double scale, double width, double height) {
+  if (!(width > 0 && height > 0)) throw std::logic_error("Canvas::begin_group: size out of range");
+  begin_group(origin, scale);
+  group_sized_.back() = true;
+  sizes_.emplace_back(width, height);
 }
 
 void Canvas::end_group() {
   impl_->alive();
+  if (group_sized_.empty()) throw std::logic_error("Canvas::end_group without begin_group");
+  if (group_sized_.back()) sizes_.pop_back();
+  group_sized_.pop_back();
   cairo_restore(impl_->cr);
 }
 

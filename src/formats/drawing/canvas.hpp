@@ -87,8 +87,10 @@ class Canvas {
   Canvas& operator=(const Canvas&) = delete;
 
   DrawingFormat format() const { return format_; }
-  double width() const { return width_; }
-  double height() const { return height_; }
+  // The drawing's size in points: the canvas' own, or inside a sized group (begin_group with a
+  // size) that group's, so a figure lays itself out the same alone and placed on a page.
+  double width() const { return sizes_.empty() ? width_ : sizes_.back().first; }
+  double height() const { return sizes_.empty() ? height_ : sizes_.back().second; }
 
   void line(const std::vector<Point>& points, const Stroke& s);
   void polygon(const std::vector<Point>& points, std::optional<Colour> fill, std::optional<Stroke> outline);
@@ -107,6 +109,9 @@ class Canvas {
   // Draws what follows moved to `origin` and scaled by `scale` (placing a figure on a PDF page)
   // until end_group(). Groups nest.
   void begin_group(Point origin, double scale);
+  // The same, for a drawing of its own size (width × height points before scaling): width() and
+  // height() give that size until end_group().
+  void begin_group(Point origin, double scale, double width, double height);
   void end_group();
 
   // Clips every following drawing to `b` until unclip().
@@ -127,6 +132,8 @@ class Canvas {
   DrawingFormat format_;
   double width_, height_;
   int pages_ = 1;
+  std::vector<std::pair<double, double>> sizes_;  // sized groups open (innermost last)
+  std::vector<bool> group_sized_;                 // every group open: whether it has a size
 };
 
 }  // namespace slipscreen::formats

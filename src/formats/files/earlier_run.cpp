@@ -58,6 +58,14 @@ std::optional<std::string> read_listing(const fs::path& folder, Listing& listing
       if (p != entry.end() && p->is_string()) listing.add(p->get<std::string>());
     }
   }
+  // The report's files, listed by name without hashes (manifest.hpp, record_report_files).
+  const auto report = j.find("report");
+  if (report != j.end() && report->is_object()) {
+    const auto files = report->find("files");
+    if (files != report->end() && files->is_array())
+      for (const auto& f : *files)
+        if (f.is_string()) listing.add(f.get<std::string>());
+  }
   return std::nullopt;
 }
 

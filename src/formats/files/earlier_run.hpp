@@ -3,8 +3,8 @@
 // forced run (run_folder.hpp; docs/gis.md, "The run folder").
 //
 // A run folder holds manifest.json (manifest.hpp) whose "tool"."name" is "slipscreen", and nothing
-// that manifest does not list: every regular file is manifest.json itself or one of its
-// "outputs"[].path entries, and every folder is a parent of such a file. Symbolic links, FIFOs,
+// that manifest does not list: every regular file is manifest.json itself, one of its
+// "outputs"[].path entries or one of its "report"."files" (the report, manifest.hpp), and every folder is a parent of such a file. Symbolic links, FIFOs,
 // sockets and devices are never part of a run. The folder is walked in sorted order, so the entry
 // named as foreign is the same on every call, and the walk stops at the first one.
 #include <filesystem>

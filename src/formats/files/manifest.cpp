@@ -1,5 +1,6 @@
 #include "formats/files/manifest.hpp"
 
+#include <algorithm>
 #include <ctime>
 #include <fstream>
 #include <map>
@@ -97,6 +98,44 @@ nlohmann::json manifest_json(const ManifestContent& c, std::chrono::system_clock
     }
   }
   return j;
+}
+
+std::vector<std::string> report_files(const nlohmann::json& manifest) {
+  std::vector<std::string> out;
+  const auto r = manifest.find("report");
+  if (r == manifest.end() || !r->is_object()) return out;
+  const auto f = r->find("files");
+  if (f == r->end() || !f->is_array()) return out;
+  for (const auto& e : *f)
+    if (e.is_string()) out.push_back(e.get<std::string>());
+  return out;
+}
+
+void record_report_files(const fs::path& path, std::vector<std::string> files) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw IoError(path.string() + ": cannot read the manifest to record the report");
+  nlohmann::json j = nlohmann::json::parse(in, nullptr, /*allow_exceptions=*/false);
+  if (in.bad()) throw IoError(path.string() + ": cannot read the manifest to record the report");
+  if (j.is_discarded() || !j.is_object()) throw InputError("manifest", path.string(), "a JSON object (a slipscreen run manifest)");
+  std::sort(files.begin(), files.end());
+  files.erase(std::unique(files.begin(), files.end()), files.end());
+  if (files.empty()) {
+    j.erase("report");
+  } else {
+    j["report"] = {{"written_by", kReportWrittenBy},
+                   {"files", files},
+                   {"note", "built from this folder's files after this manifest; listed by name without hashes "
+                            "because the report shows this manifest's inputs and their hashes"}};
+  }
+  const fs::path temporary = path.parent_path() / (path.filename().string() + ".writing");
+  write_text_file(temporary, j.dump(2) + "\n");
+  std::error_code ec;
+  fs::rename(temporary, path, ec);
+  if (ec) {
+    std::error_code ignored;
+    fs::remove(temporary, ignored);
+    throw IoError(path.string() + ": cannot replace the manifest: " + ec.message());
+  }
 }
 
 void write_manifest(const fs::path& path, const ManifestContent& content, const std::optional<fs::path>& outputs_root) {

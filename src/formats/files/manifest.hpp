@@ -16,6 +16,10 @@
 //     "screens":      {"deterministic": true, "probabilistic": false, ...}: which screens ran
 //                     (omitted when the caller gives none),
 //     "seed":         the random seed (omitted when none),
+//     "report":       {"written_by": "slipscreen report", "files": ["figures/area_map.csv", ...,
+//                      "report.html", "report.pdf"], "note": ...}  (sorted; added by
+//                     record_report_files after the report is built: names only, no hashes, since
+//                     the report shows this manifest's inputs and hashes and is built after it),
 //     "tool":         {"name": "slipscreen", "version": kVersion, "git_commit": ..., "compiler": ...,
 //                      "libraries": {"gdal": ..., "proj": ..., "eigen": ..., "boost": ...}}
 //                     (formats/files/build_info.hpp: the only build-dependent fields of a run)
@@ -59,6 +63,18 @@ std::string utc_iso_time(std::chrono::system_clock::time_point t);
 nlohmann::json manifest_json(const ManifestContent& content,
                              std::chrono::system_clock::time_point now = std::chrono::system_clock::now(),
                              const std::optional<std::filesystem::path>& outputs_root = std::nullopt);
+
+// Who writes the files of a manifest's "report" block.
+inline constexpr const char* kReportWrittenBy = "slipscreen report";
+
+// Rewrites the manifest at `path` with its "report" block listing `files` (relative, '/'-separated;
+// an empty list removes the block); every other byte stays as it was. Written to a sibling
+// temporary file and renamed over the manifest, so the manifest is never half written.
+// IoError when it cannot be read or written; InputError when it is not a JSON object.
+void record_report_files(const std::filesystem::path& path, std::vector<std::string> files);
+
+// The files a manifest's "report" block lists (empty when none).
+std::vector<std::string> report_files(const nlohmann::json& manifest);
 
 // Writes manifest_json(...) to `path` (IoError on failure). Call it last, after every other
 // output, and pass the run folder's staging path as outputs_root to list the outputs.

@@ -51,7 +51,7 @@ void add_parts(const OGRGeometry* g, std::vector<std::vector<geometry::Point2>>&
 
 }  // namespace
 
-RasterBandRead read_raster_band(const std::filesystem::path& path, int band) {
+RasterBandRead read_band_back(const std::filesystem::path& path, int band) {
   GdalErrorScope errors(path.string());
   Dataset ds = open(path, GDAL_OF_RASTER, errors);
   RasterBandRead out;
@@ -78,7 +78,7 @@ RasterBandRead read_raster_band(const std::filesystem::path& path, int band) {
   return out;
 }
 
-std::vector<LayerFeature> read_layer_geometries(const std::filesystem::path& path, const std::string& layer,
+std::vector<LayerGeometry> read_layer_geometries(const std::filesystem::path& path, const std::string& layer,
                                                 const std::string& attribute) {
   GdalErrorScope errors(path.string() + " layer " + layer);
   Dataset ds = open(path, GDAL_OF_VECTOR, errors);
@@ -86,10 +86,10 @@ std::vector<LayerFeature> read_layer_geometries(const std::filesystem::path& pat
   if (!l) errors.throw_io("no such layer");
   const int field = l->GetLayerDefn()->GetFieldIndex(attribute.c_str());
   if (field < 0) errors.throw_io("no field '" + attribute + "'");
-  std::vector<LayerFeature> out;
+  std::vector<LayerGeometry> out;
   l->ResetReading();
   for (auto& f : *l) {
-    LayerFeature lf;
+    LayerGeometry lf;
     lf.attribute = f->GetFieldAsString(field);
     add_parts(f->GetGeometryRef(), lf.parts);
     out.push_back(std::move(lf));

@@ -3,7 +3,7 @@
 // grid, and the geometries of one vector layer with one text attribute. Strict: a file or layer
 // that is missing, or a band of another size than its grid, is an IoError naming the file.
 //
-//   const auto band = read_raster_band(run / "pressure_change.tif", -1);   // the last band
+//   const auto band = read_band_back(run / "pressure_change.tif", -1);   // the last band
 //   const auto faults = read_layer_geometries(run / "screen.gpkg", "fault_segments", "segment_id");
 #include <filesystem>
 #include <string>
@@ -23,16 +23,16 @@ struct RasterBandRead {
 };
 
 // Band `band` (1-based; −1: the last band). Throws IoError naming `path`.
-RasterBandRead read_raster_band(const std::filesystem::path& path, int band);
+RasterBandRead read_band_back(const std::filesystem::path& path, int band);
 
-struct LayerFeature {
+struct LayerGeometry {
   std::string attribute;                                // the named attribute as text
   std::vector<std::vector<geometry::Point2>> parts;     // one point list per line/point part
 };
 
 // Every feature of `layer` with its geometry's vertices (lines and multi-lines: one part per
 // line; points: one part of one point). Throws IoError naming `path` and the layer.
-std::vector<LayerFeature> read_layer_geometries(const std::filesystem::path& path, const std::string& layer,
+std::vector<LayerGeometry> read_layer_geometries(const std::filesystem::path& path, const std::string& layer,
                                                 const std::string& attribute);
 
 }  // namespace slipscreen::formats

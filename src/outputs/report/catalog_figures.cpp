@@ -192,11 +192,13 @@ Figure volume_figure(const std::vector<Event>& events, const RunTable& vol, cons
   f.reading = "The step line counts the reviewed events at or above Mc against the volume all scenario wells had injected "
               "since the start of the review window when each occurred; the straight line is the seismogenic-index "
               "relation N = dV 10^(Sigma - b Mc) (Shapiro et al. 2010) with the fitted Sigma and b.";
-  f.data.header = {"what", "event_id", "time_days_since_1970", "volume_since_start_m3", "events"};
+  // The volume column in the unit the run wrote injected_volume.csv in (m3 or bbl).
+  const DisplayUnit vu = unit_of(vol, "volume");
+  f.data.header = {"what", "event_id", "time_days_since_1970", "volume_since_start_" + vu.suffix, "events"};
   std::vector<double> xs = {0}, ys = {0};
   for (std::size_t i = 0; i < counted.size(); ++i) {
     const double v = volume_at(counted[i].first) - v0;
-    f.data.rows.push_back({"event", counted[i].second, data_number(counted[i].first), data_number(v),
+    f.data.rows.push_back({"event", counted[i].second, data_number(counted[i].first), data_number(vu.shown(v)),
                            std::to_string(i + 1)});
     xs.push_back(v), ys.push_back(static_cast<double>(i));
     xs.push_back(v), ys.push_back(static_cast<double>(i + 1));
@@ -204,7 +206,7 @@ Figure volume_figure(const std::vector<Event>& events, const RunTable& vol, cons
   xs.push_back(v_max), ys.push_back(static_cast<double>(counted.size()));
   if (fit) {
     f.data.rows.push_back({"fit", "", data_number(start), "0", "0"});
-    f.data.rows.push_back({"fit", "", data_number(end), data_number(v_max), data_number(v_max * per_m3)});
+    f.data.rows.push_back({"fit", "", data_number(end), data_number(vu.shown(v_max)), data_number(v_max * per_m3)});
   }
   const std::string window = util::format_iso_date(util::civil_from_days(static_cast<std::int64_t>(std::floor(start))));
   std::string sub = std::to_string(counted.size()) + " events ≥ Mc " + mag_text(mc_used) + " since " + window;
@@ -256,12 +258,14 @@ Figure rt_figure(const RunTable& ev, const RunTable& fr, const json& summary) {
   f.reading = "Each dot is an event after the first injection of well " + well +
               "; each curve is the triggering front r = sqrt(4 pi D t) (Shapiro et al. 1997) for one hydraulic "
               "diffusivity D. Events far outside every front are hard to explain by pressure diffusion from this well.";
-  f.data.header = {"what", "event_id", "diffusivity_m2_per_s", "time_since_start_days", "distance_m"};
+  // Distances in the unit the run wrote rt_events.csv in (m or ft).
+  const DisplayUnit du = unit_of(ev, "distance");
+  f.data.header = {"what", "event_id", "diffusivity_m2_per_s", "time_since_start_days", "distance_" + du.suffix};
   for (std::size_t i = 0; i < ids.size(); ++i)
-    f.data.rows.push_back({"event", ids[i], "", data_number(et[i]), data_number(er[i])});
+    f.data.rows.push_back({"event", ids[i], "", data_number(et[i]), data_number(du.shown(er[i]))});
   for (const auto& fo : fronts)
     for (std::size_t k = 0; k < fo.t.size(); ++k)
-      f.data.rows.push_back({"front", "", data_number(fo.d), data_number(fo.t[k]), data_number(fo.r[k])});
+      f.data.rows.push_back({"front", "", data_number(fo.d), data_number(fo.t[k]), data_number(du.shown(fo.r[k]))});
   f.draw = [=](Canvas& c) {
     FigurePage page(c, "r–t view around " + formats::markup_escape(well),
                     std::to_string(ids.size()) + " events since " + formats::markup_escape(start.substr(0, 10)));
@@ -289,7 +293,7 @@ Figure rt_figure(const RunTable& ev, const RunTable& fr, const json& summary) {
 }
 
 Figure event_map(const std::vector<Event>& events, const formats::RasterBandRead& dp, double threshold,
-                 const std::vector<formats::LayerFeature>& faults, const std::vector<formats::LayerFeature>& wells) {
+                 const std::vector<formats::LayerGeometry>& faults, const std::vector<formats::LayerGeometry>& wells) {
   const auto& g = dp.grid;
   double dp_max = threshold;
   for (double v : dp.values)
@@ -397,12 +401,12 @@ std::vector<Figure> catalog_figures(const ReportSource& src) {
                             summary));
   if (RunTable::exists(src.folder, "pressure_change.tif")) {
     const double threshold = json_number(summary, "/against_model/footprint/threshold_MPa");
-    std::vector<formats::LayerFeature> faults, wells;
+    std::vector<formats::LayerGeometry> faults, wells;
     if (RunTable::exists(src.folder, "screen.gpkg")) {
       faults = formats::read_layer_geometries(src.folder / "screen.gpkg", "fault_segments", "segment_id");
       wells = formats::read_layer_geometries(src.folder / "screen.gpkg", "wells", "well_id");
     }
-    auto band = formats::read_raster_band(src.folder / "pressure_change.tif", -1);
+    auto band = formats::read_band_back(src.folder / "pressure_change.tif", -1);
     if (std::isfinite(threshold)) out.push_back(event_map(events, band, threshold, faults, wells));
   }
   return out;

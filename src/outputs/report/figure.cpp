@@ -1,25 +1,72 @@
 #include "outputs/report/figure.hpp"
 
+#include <map>
 #include <sstream>
+#include <string_view>
 
 #include "formats/files/text_file.hpp"
 #include "formats/table/csv.hpp"
 
 namespace slipscreen::outputs::report {
 
+std::string renumber_svg_ids(std::string_view svg, const std::string& prefix) {
+  // Cairo numbers glyphs, clips, images and surfaces with counters that can run across the
+  // drawings of one process, so the same figure could come out with other ids; ids are given again
+  // in order of first appearance, which also keeps several figures apart in one HTML page.
+  std::map<std::string, std::string, std::less<>> ids;
+  const auto renamed = [&](std::string_view id) -> const std::string& {
+    auto it = ids.find(id);
+    if (it == ids.end()) it = ids.emplace(std::string(id), prefix + std::to_string(ids.size() + 1)).first;
+    return it->second;
+  };
+  std::string out;
+  out.reserve(svg.size() + svg.size() / 16);
+  static constexpr std::string_view kOpeners[] = {" id=\"", "href=\"#", "url(#"};
+  std::size_t i = 0;
+  std::size_t next[3] = {0, 0, 0};  // where each opener is next found at or after i (searched once each)
+  for (std::size_t k = 0; k < 3; ++k) next[k] = svg.find(kOpeners[k]);
+  while (i < svg.size()) {
+    std::size_t best = std::string_view::npos, which = 0;
+    for (std::size_t k = 0; k < 3; ++k) {
+      if (next[k] != std::string_view::npos && next[k] < i) next[k] = svg.find(kOpeners[k], i);
+      if (next[k] < best) best = next[k], which = k;
+    }
+    if (best == std::string_view::npos) {
+      out.append(svg.substr(i));
+      break;
+    }
+    const std::size_t start = best + kOpeners[which].size();
+    const std::size_t end = svg.find_first_of(which == 2 ? ")" : "\"", start);
+    if (end == std::string_view::npos) {
+      out.append(svg.substr(i));
+      break;
+    }
+    out.append(svg.substr(i, start - i));
+    out += renamed(svg.substr(start, end - start));
+    i = end;
+  }
+  return out;
+}
+
 std::string figure_svg(const Figure& f) {
   formats::Canvas c(formats::DrawingFormat::svg, f.width, f.height);
   f.draw(c);
-  return c.finish();
+  return renumber_svg_ids(c.finish(), f.name + "-");
 }
 
-void write_figure_files(const Figure& f, const std::filesystem::path& dir) {
-  formats::write_text_file(dir / (f.name + ".svg"), figure_svg(f));
+std::string write_figure_files(const Figure& f, const std::filesystem::path& dir) {
+  std::string svg = figure_svg(f);
+  formats::write_text_file(dir / (f.name + ".svg"), svg);
   {
     formats::Canvas png(formats::DrawingFormat::png, f.width, f.height, 150.0);
     f.draw(png);
     png.save(dir / (f.name + ".png"));
   }
+  formats::write_text_file(dir / (f.name + ".csv"), figure_csv(f));
+  return svg;
+}
+
+std::string figure_csv(const Figure& f) {
   std::ostringstream csv;
   for (std::size_t i = 0; i < f.data.header.size(); ++i) csv << (i ? "," : "") << formats::csv_field(f.data.header[i]);
   csv << '\n';
@@ -27,7 +74,7 @@ void write_figure_files(const Figure& f, const std::filesystem::path& dir) {
     for (std::size_t i = 0; i < row.size(); ++i) csv << (i ? "," : "") << formats::csv_field(row[i]);
     csv << '\n';
   }
-  formats::write_text_file(dir / (f.name + ".csv"), csv.str());
+  return csv.str();
 }
 
 }  // namespace slipscreen::outputs::report

@@ -41,10 +41,19 @@ struct Figure {
   FigureData data;
 };
 
-// Writes figures/<name>.svg, .png and .csv into `figures_dir` (checked writes).
-void write_figure_files(const Figure& f, const std::filesystem::path& figures_dir);
+// Writes figures/<name>.svg, .png and .csv into `figures_dir` (checked writes); returns the SVG
+// written (figure_svg), for a caller that inlines it too.
+std::string write_figure_files(const Figure& f, const std::filesystem::path& figures_dir);
 
-// The figure as an SVG document (for inlining in HTML).
+// The figure as an SVG document (for inlining in HTML), its element ids renumbered as
+// "<name>-1", "<name>-2", ... in order of appearance (renumber_svg_ids): the same figure gives the
+// same bytes in any process, and figures inlined in one page keep their ids apart.
 std::string figure_svg(const Figure& f);
+
+// `svg` with every id (and its href="#..." and url(#...) references) renamed `prefix` + 1, 2, ...
+std::string renumber_svg_ids(std::string_view svg, const std::string& prefix);
+
+// The numbers of a figure as figures/<name>.csv holds them (RFC 4180, a header line).
+std::string figure_csv(const Figure& f);
 
 }  // namespace slipscreen::outputs::report

@@ -71,6 +71,17 @@ std::pair<std::size_t, double> RunTable::quantity_column(std::string_view base) 
                    table_.file + " line " + std::to_string(table_.header_line));
 }
 
+std::string RunTable::quantity_unit(std::string_view base) const {
+  return table_.header[quantity_column(base).first].substr(base.size() + 1);
+}
+
+std::optional<std::size_t> RunTable::find_row(std::string_view name, std::string_view value) const {
+  const std::size_t c = column(name);
+  for (std::size_t i = 0; i < table_.rows.size(); ++i)
+    if (table_.rows[i].fields[c] == value) return i;
+  return std::nullopt;
+}
+
 const std::string& RunTable::text(std::size_t row, std::string_view name) const {
   return table_.rows.at(row).fields[column(name)];
 }

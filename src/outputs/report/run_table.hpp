@@ -10,6 +10,7 @@
 #include <optional>
 #include <string>
 #include <string_view>
+#include <vector>
 
 #include "formats/table/csv.hpp"
 
@@ -34,6 +35,11 @@ class RunTable {
   // The column `<base>_<unit>` and its factor to SI; InputError when absent.
   std::pair<std::size_t, double> quantity_column(std::string_view base) const;
   bool has_quantity(std::string_view base) const;
+  // The unit suffix of the column `<base>_<unit>` as the run wrote it ("MPa", "psi"); InputError when absent.
+  std::string quantity_unit(std::string_view base) const;
+  // The first row whose column `name` holds `value` exactly; nothing when none.
+  std::optional<std::size_t> find_row(std::string_view name, std::string_view value) const;
+  const std::vector<std::string>& header() const { return table_.header; }
 
   const std::string& text(std::size_t row, std::string_view column) const;
   const std::string& text(std::size_t row, std::size_t col) const { return table_.rows[row].fields[col]; }

@@ -97,3 +97,18 @@ TEST_CASE("subscripts are smaller than the text they follow") {
   CHECK(sub < 0.9 * plain);
   CHECK(c.measure("10<sup>3</sup>", {.size = 10}).w < c.measure("103", {.size = 10}).w);
 }
+
+TEST_CASE("a sized group gives its own size to what is drawn in it, for a figure placed on a page") {
+  Canvas c(DrawingFormat::pdf, 595.0, 842.0);
+  CHECK(c.width() == 595.0);
+  c.begin_group({50, 60}, 0.9, 480, 320);
+  CHECK(c.width() == 480.0);
+  CHECK(c.height() == 320.0);
+  c.begin_group({0, 0}, 1.0);  // an unsized group inside keeps the figure's size
+  CHECK(c.width() == 480.0);
+  c.end_group();
+  c.end_group();
+  CHECK(c.width() == 595.0);
+  CHECK(c.height() == 842.0);
+  CHECK_THROWS_AS(c.end_group(), std::logic_error);
+}

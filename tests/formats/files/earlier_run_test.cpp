@@ -88,3 +88,25 @@ TEST_CASE("a folder without a slipscreen manifest is not a run") {
   write_text(f / "x", "x");
   CHECK(formats::not_a_run(f).has_value());
 }
+
+TEST_CASE("the report's files, listed by name in the manifest's report block, belong to the run") {
+  test::TempDir dir("earlier-run-report");
+  const fs::path run = dir.path() / "run";
+  make_run(run);
+  write_text(run / "report.html", "<html></html>\n");
+  write_text(run / "figures" / "area_map.svg", "<svg/>\n");
+  REQUIRE(formats::not_a_run(run).has_value());  // not listed yet: foreign
+  formats::record_report_files(run / "manifest.json", {"report.html", "figures/area_map.svg"});
+  CHECK_FALSE(formats::not_a_run(run).has_value());
+  // The block lists names only, sorted, with who writes them; the rest of the manifest is unchanged.
+  std::ifstream in(run / "manifest.json");
+  const auto j = nlohmann::json::parse(in);
+  CHECK(j["report"]["files"] == nlohmann::json::array({"figures/area_map.svg", "report.html"}));
+  CHECK(j["report"]["written_by"] == formats::kReportWrittenBy);
+  CHECK(formats::report_files(j) == std::vector<std::string>{"figures/area_map.svg", "report.html"});
+  CHECK(j["outputs"].size() == 2);
+  // An empty list removes the block, and the files are foreign again.
+  formats::record_report_files(run / "manifest.json", {});
+  CHECK(formats::not_a_run(run).has_value());
+  CHECK_FALSE(fs::exists(run / "manifest.json.writing"));
+}

@@ -146,7 +146,7 @@ TEST_CASE("catalog figures of the demo run match the review's files") {
   SUBCASE("event map: every raster cell at the last time and every event") {
     const Figure& f = *by_name["catalog_event_map"];
     const FigureRows d{f.data};
-    const auto band = formats::read_raster_band(run / "pressure_change.tif", -1);
+    const auto band = formats::read_band_back(run / "pressure_change.tif", -1);
     const auto cells = d.where("what", "cell");
     REQUIRE(cells.size() == band.grid.cell_count());
     const double threshold = summary["against_model"]["footprint"]["threshold_MPa"].get<double>();

@@ -1,0 +1,303 @@
+#include "outputs/report/report_text.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <fstream>
+#include <map>
+
+#include "core/caution.hpp"
+#include "core/errors.hpp"
+#include "core/geomech/frictional_limit.hpp"
+#include "outputs/report/report_tables.hpp"
+#include "outputs/report/run_table.hpp"
+
+namespace slipscreen::outputs::report {
+namespace {
+
+using Kind = ReportBlock::Kind;
+using nlohmann::json;
+
+// manifest[a][b]... or a null json when a key is missing.
+const json& at(const json& j, std::initializer_list<const char*> keys) {
+  static const json kNull;
+  const json* cur = &j;
+  for (const char* k : keys) {
+    if (!cur->is_object()) return kNull;
+    const auto it = cur->find(k);
+    if (it == cur->end()) return kNull;
+    cur = &*it;
+  }
+  return *cur;
+}
+
+std::string text_of(const json& j, const std::string& fallback = "") {
+  if (j.is_string()) return j.get<std::string>();
+  if (j.is_number_integer() || j.is_number_unsigned()) return std::to_string(j.get<std::int64_t>());
+  if (j.is_number()) {
+    char buf[32];
+    std::snprintf(buf, sizeof buf, "%.6g", j.get<double>());
+    return buf;
+  }
+  if (j.is_boolean()) return j.get<bool>() ? "yes" : "no";
+  return fallback;
+}
+
+std::string fixed(double v, int decimals) {
+  char buf[48];
+  std::snprintf(buf, sizeof buf, "%.*f", decimals, v);
+  return buf;
+}
+
+// Pressures of the manifest (Pa) in the run's units: MPa, or psi for an oilfield run.
+std::string pressure(const ReportSource& s, double pa) {
+  if (text_of(at(s.manifest, {"parameters", "scenario", "output", "units"})) == "oilfield")
+    return fixed(pa / 6894.757293168361, 0) + " psi";
+  return fixed(pa / 1e6, 2) + " MPa";
+}
+std::string depth(const ReportSource& s, double m) {
+  if (text_of(at(s.manifest, {"parameters", "scenario", "output", "units"})) == "oilfield")
+    return fixed(m / 0.3048, 0) + " ft";
+  return fixed(m, 0) + " m";
+}
+
+ReportBlock heading(std::string t) { return {.kind = Kind::heading, .text = std::move(t)}; }
+ReportBlock paragraph(std::string t) { return {.kind = Kind::paragraph, .text = std::move(t)}; }
+
+void run_facts(const ReportSource& s, const std::string& built, std::vector<ReportBlock>& out) {
+  const json& m = s.manifest;
+  ReportBlock f{.kind = Kind::facts};
+  f.facts.emplace_back("Scenario file", text_of(at(m, {"parameters", "scenario", "scenario"}), "-"));
+  f.facts.emplace_back("Run date", text_of(at(m, {"created_utc"}), "not recorded (a reproducible run)"));
+  if (!built.empty()) f.facts.emplace_back("Report built", built);
+  f.facts.emplace_back("Tool", text_of(at(m, {"tool", "name"}), "slipscreen") + " " +
+                                   text_of(at(m, {"tool", "version"}), "?") + " (build " +
+                                   text_of(at(m, {"tool", "git_commit"}), "unknown") + ")");
+  f.facts.emplace_back("Seed", text_of(at(m, {"seed"}), "-"));
+  const json& valid = at(m, {"parameters", "probabilistic", "realizations_valid"});
+  const json& asked = at(m, {"parameters", "probabilistic", "uncertainty", "realizations"});
+  f.facts.emplace_back("Realizations", valid.is_null() ? "none (deterministic screen only)"
+                                                       : text_of(valid) + " valid of " + text_of(asked, "?"));
+  std::string screens;
+  for (const auto& [name, ran] : at(m, {"screens"}).items())
+    if (ran.is_boolean() && ran.get<bool>()) screens += (screens.empty() ? "" : ", ") + name;
+  f.facts.emplace_back("Screens run", screens.empty() ? "-" : screens);
+  const json& dates = at(m, {"parameters", "scenario", "output", "dates"});
+  if (dates.is_array() && !dates.empty())
+    f.facts.emplace_back("Output times", std::to_string(dates.size()) + ", from " + text_of(dates.front()) + " to " +
+                                             text_of(dates.back()));
+  f.facts.emplace_back("Working CRS", text_of(at(m, {"parameters", "scenario", "region", "crs"}), "-"));
+  out.push_back(std::move(f));
+}
+
+void inputs_table(const ReportSource& s, std::vector<ReportBlock>& out) {
+  out.push_back(heading("Inputs and their SHA-256"));
+  out.push_back(paragraph("Every file the run read, as its manifest.json records it. A file with another SHA-256 "
+                          "is not the file this report was computed from."));
+  ReportBlock t{.kind = Kind::table, .header = {"role", "file", "bytes", "SHA-256"}};
+  for (const auto& in : at(s.manifest, {"inputs"}))
+    t.rows.push_back({text_of(at(in, {"role"})), text_of(at(in, {"path"})), text_of(at(in, {"bytes"})),
+                      text_of(at(in, {"sha256"}))});
+  out.push_back(std::move(t));
+}
+
+void stress_section(const ReportSource& s, std::vector<ReportBlock>& out) {
+  const json& st = at(s.manifest, {"parameters", "run", "stress_at_reference_depth"});
+  if (!st.is_object()) return;
+  out.push_back(heading("Stress at the reference depth"));
+  const double sv = at(st, {"sv_Pa"}).get<double>(), sH = at(st, {"shmax_Pa"}).get<double>();
+  const double sh = at(st, {"shmin_Pa"}).get<double>(), p0 = at(st, {"pore_pressure_Pa"}).get<double>();
+  const json& depth_m = at(s.manifest, {"parameters", "scenario", "region", "reference_depth_m"});
+  ReportBlock f{.kind = Kind::facts};
+  if (depth_m.is_number()) f.facts.emplace_back("Reference depth", depth(s, depth_m.get<double>()));
+  f.facts.emplace_back("Vertical stress Sv", pressure(s, sv));
+  f.facts.emplace_back("Greatest horizontal stress SHmax", pressure(s, sH));
+  f.facts.emplace_back("Least horizontal stress Shmin", pressure(s, sh));
+  f.facts.emplace_back("Pore pressure p0", pressure(s, p0));
+  const json& mu = at(s.manifest, {"parameters", "scenario", "region", "faults", "friction"});
+  if (mu.is_number() && mu.get<double>() > 0) {
+    const double s1 = std::max({sv, sH, sh}), s3 = std::min({sv, sH, sh});
+    try {
+      const auto c = geomech::check_frictional_limit(s1, s3, p0, mu.get<double>());
+      f.facts.emplace_back("Frictional-limit check (Jaeger & Cook 1979; Zoback 2007)",
+                           "(S1 − p0)/(S3 − p0) = " + fixed(c.ratio, 2) + " against the limit [√(μ² + 1) + μ]² = " +
+                               fixed(c.limit, 2) + " for μ = " + text_of(mu) + ": " + geomech::to_string(c.status));
+    } catch (const InputError& e) {
+      f.facts.emplace_back("Frictional-limit check", std::string("not possible: ") + e.what());
+    }
+  }
+  out.push_back(std::move(f));
+  const json& beyond = at(s.manifest, {"parameters", "probabilistic", "realizations_beyond_frictional_limit"});
+  if (!beyond.is_null())
+    out.push_back(paragraph("Realizations of the probabilistic screen whose sampled stress lay beyond the frictional "
+                            "limit: " + text_of(beyond) + "."));
+}
+
+void segments_section(const ReportSource& s, std::vector<ReportBlock>& out) {
+  const auto top = top_segments(s, s.top_segments);
+  if (top.ids.empty()) return;
+  out.push_back(heading("Segments closest to failure"));
+  const RunTable seg = RunTable::read(s.folder, segments_file(s));
+  const std::string u = seg.quantity_unit("dp_crit");
+  ReportBlock t{.kind = Kind::table};
+  t.header = {"segment", "status", "Δp_crit [" + u + "]", "peak Δp [" + u + "]", "margin [" + u + "]",
+              "first reached"};
+  std::optional<RunTable> sum;
+  if (top.probabilistic) {
+    sum = RunTable::read(s.folder, "segment_probability_summary.csv");
+    t.header.push_back("P(slip) final");
+    t.header.push_back("95 % interval");
+    out.push_back(paragraph("The " + std::to_string(top.ids.size()) +
+                            " segments with the highest probability of slip by the last output time "
+                            "(segment_probability_summary.csv), with the deterministic screen's values (segments.csv). "
+                            "The interval is the Wilson score interval at the run's confidence."));
+  } else {
+    out.push_back(paragraph("The " + std::to_string(top.ids.size()) +
+                            " segments with the smallest margin Δp_crit − peak Δp (segments.csv); a negative margin "
+                            "means the pressure change reached the critical value."));
+  }
+  for (const auto& id : top.ids) {
+    const auto r = seg.find_row("segment_id", id);
+    if (!r) continue;
+    std::vector<std::string> row = {id, seg.text(*r, "status"), seg.text(*r, "dp_crit_" + u),
+                                    seg.text(*r, "peak_dp_" + u), seg.text(*r, "margin_" + u),
+                                    seg.text(*r, "first_crossing_date").empty() ? "never"
+                                                                                : seg.text(*r, "first_crossing_date")};
+    if (sum) {
+      const auto q = sum->find_row("segment_id", id);
+      row.push_back(q ? sum->text(*q, "p_slip_final") : "");
+      row.push_back(q ? sum->text(*q, "p_slip_final_ci_low") + " – " + sum->text(*q, "p_slip_final_ci_high") : "");
+    }
+    t.rows.push_back(std::move(row));
+  }
+  out.push_back(std::move(t));
+
+  if (!sum) return;
+  // Segments whose P(slip) reaches a threshold: the first output date of each threshold.
+  std::vector<std::string> threshold_columns;
+  ReportBlock c{.kind = Kind::table, .header = {"segment"}};
+  for (const auto& h : sum->header())
+    if (h.rfind("first_date_p_", 0) == 0) {
+      threshold_columns.push_back(h);
+      c.header.push_back("P(slip) ≥ " + h.substr(13) + " from");
+    }
+  c.header.push_back("P(slip) final");
+  c.header.push_back("95 % interval");
+  std::vector<std::pair<double, std::vector<std::string>>> rows;
+  for (std::size_t r = 0; r < sum->rows(); ++r) {
+    std::vector<std::string> row = {sum->text(r, "segment_id")};
+    bool any = false;
+    for (const auto& col : threshold_columns) {
+      row.push_back(sum->text(r, col).empty() ? "-" : sum->text(r, col));
+      any = any || !sum->text(r, col).empty();
+    }
+    if (!any) continue;
+    row.push_back(sum->text(r, "p_slip_final"));
+    row.push_back(sum->text(r, "p_slip_final_ci_low") + " – " + sum->text(r, "p_slip_final_ci_high"));
+    rows.emplace_back(-sum->number(r, sum->column("p_slip_final")), std::move(row));
+  }
+  out.push_back(heading("Segments crossing the thresholds"));
+  if (rows.empty()) {
+    out.push_back(paragraph("No segment's P(slip) reaches a threshold of the run by its last output time."));
+    return;
+  }
+  std::stable_sort(rows.begin(), rows.end(), [](const auto& a, const auto& b) { return a.first < b.first; });
+  for (auto& r : rows) c.rows.push_back(std::move(r.second));
+  out.push_back(paragraph(std::to_string(c.rows.size()) +
+                          " segments whose P(slip) reaches a threshold of the scenario by the last output time, "
+                          "with the first output date at which it does (segment_probability_summary.csv), "
+                          "highest final probability first."));
+  out.push_back(std::move(c));
+}
+
+void catalog_section(const ReportSource& s, std::vector<ReportBlock>& out) {
+  std::error_code ec;
+  const auto path = s.folder / "catalog_summary.json";
+  if (!std::filesystem::is_regular_file(path, ec)) return;
+  std::ifstream in(path, std::ios::binary);
+  const json j = json::parse(in, nullptr, false);
+  if (j.is_discarded() || !j.is_object())
+    throw InputError("catalog_summary.json", path.string(), "the run's catalog review as JSON");
+  out.push_back(heading("Catalog review"));
+  ReportBlock f{.kind = Kind::facts};
+  f.facts.emplace_back("Catalog", text_of(at(j, {"input", "path"}), text_of(at(s.manifest, {"parameters", "catalog", "file"}), "-")));
+  f.facts.emplace_back("Events kept", text_of(at(s.manifest, {"parameters", "catalog", "events_kept"}), "-"));
+  f.facts.emplace_back("Time span", text_of(at(j, {"first_time"}), "-") + " to " + text_of(at(j, {"last_time"}), "-"));
+  f.facts.emplace_back("Magnitudes", text_of(at(j, {"magnitude_min"}), "-") + " to " + text_of(at(j, {"magnitude_max"}), "-"));
+  if (!at(j, {"completeness", "mc"}).is_null())
+    f.facts.emplace_back("Magnitude of completeness Mc", text_of(at(j, {"completeness", "mc"})) + " (" +
+                                                             text_of(at(j, {"completeness", "method"})) + ", " +
+                                                             text_of(at(j, {"completeness", "events_at_or_above_mc"})) +
+                                                             " events at or above it)");
+  const json& b = at(j, {"b_value"});
+  if (!at(b, {"b"}).is_null())
+    f.facts.emplace_back("b-value", text_of(at(b, {"b"})) + ", bootstrap interval at confidence " +
+                                        text_of(at(b, {"bootstrap", "confidence"})) + ": " +
+                                        text_of(at(b, {"bootstrap", "lower"})) + " – " +
+                                        text_of(at(b, {"bootstrap", "upper"})));
+  if (!at(j, {"seismogenic_index", "sigma"}).is_null())
+    f.facts.emplace_back("Seismogenic index Σ", text_of(at(j, {"seismogenic_index", "sigma"})) + " (" +
+                                                    text_of(at(j, {"seismogenic_index", "method"})) + ")");
+  for (const auto& fc : at(j, {"forecasts"}))
+    f.facts.emplace_back("Forecast M ≥ " + text_of(at(fc, {"magnitude"})),
+                         text_of(at(fc, {"expected_events"})) + " events expected, P(at least one) = " +
+                             text_of(at(fc, {"probability_at_least_one"})));
+  if (!at(j, {"mcgarr_bound", "max_mw"}).is_null())
+    f.facts.emplace_back("Largest magnitude by injected volume", "Mw " + text_of(at(j, {"mcgarr_bound", "max_mw"})) +
+                                                                    " (" + text_of(at(j, {"mcgarr_bound", "method"})) + ")");
+  const json& fp = at(j, {"against_model", "footprint"});
+  if (fp.is_object())
+    f.facts.emplace_back("Events in the Δp footprint",
+                         text_of(at(fp, {"inside"})) + " of " + text_of(at(fp, {"events_in_study_area"})) +
+                             " with Δp ≥ " + text_of(at(fp, {"threshold_MPa"})) + " MPa; " +
+                             text_of(at(fp, {"expected_by_chance"})) + " expected by chance, one-sided p = " +
+                             text_of(at(fp, {"p_value"})));
+  out.push_back(std::move(f));
+  ReportBlock a{.kind = Kind::list};
+  for (const auto& x : at(j, {"assumptions"})) a.rows.push_back({text_of(x)});
+  if (!a.rows.empty()) {
+    out.push_back(paragraph("Assumptions of the review (catalog_summary.json):"));
+    out.push_back(std::move(a));
+  }
+}
+
+void reading_section(std::vector<ReportBlock>& out) {
+  out.push_back(heading("How to read this report"));
+  ReportBlock l{.kind = Kind::list};
+  l.rows = {
+      {"Δp is the modelled pore-pressure increase from injection (Theis 1935 line sources, superposed over wells "
+       "and rate changes). Δp_crit is the increase that would bring a fault segment to Coulomb failure with its "
+       "best-estimate stress and friction (Hubbert & Rubey 1959). The margin is Δp_crit − Δp."},
+      {"P(slip by t) is the fraction of the probabilistic screen's realizations in which the segment has reached "
+       "Δp_crit by date t through injection; its 95 % interval is the Wilson score interval, which reflects the "
+       "number of realizations, not the uncertainty of the model itself."},
+      {"A threshold line marks the probabilities the scenario flags. A segment crossing one is a reason to look "
+       "closer, not a forecast of an earthquake; a segment below every threshold is not shown to be safe."},
+      {"Every number comes from the run folder: the tables named beside each table and figure, and manifest.json. "
+       "Each figure's numbers are in figures/<name>.csv."},
+  };
+  out.push_back(std::move(l));
+}
+
+}  // namespace
+
+ReportDocument report_document(const ReportSource& s, const std::string& built, const std::vector<Figure>& figures) {
+  ReportDocument d;
+  const std::string title = text_of(at(s.manifest, {"parameters", "scenario", "title"}));
+  d.title = title.empty() ? "slipscreen run " + s.folder.filename().string() : title;
+  auto& b = d.blocks;
+  b.push_back({.kind = Kind::caution, .text = kScreeningCaution});
+  run_facts(s, built, b);
+  segments_section(s, b);
+  if (!figures.empty()) {
+    b.push_back(heading("Figures"));
+    b.push_back({.kind = Kind::figures});
+  }
+  stress_section(s, b);
+  catalog_section(s, b);
+  inputs_table(s, b);
+  reading_section(b);
+  return d;
+}
+
+}  // namespace slipscreen::outputs::report
