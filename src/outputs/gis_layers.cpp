@@ -202,9 +202,11 @@ VectorLayer segment_times_layer(const ResolvedScenario& s, const PreparedRun& p,
   }
   if (prob) {
     layer.styles.push_back(segments_by_probability(layer, "p_slip", "P(slip by the date), time-aware", kTime));
-    layer.styles.push_back(lines_by_dp(layer, u.column("dp", Quantity::pressure), "Δp at the date, time-aware", u, kTime));
+    layer.styles.push_back(
+        lines_by_dp(layer, u.column("dp", Quantity::pressure), "Δp at the date, time-aware", u, kTime));
   } else {
-    layer.styles.push_back(lines_by_dp(layer, u.column("dp", Quantity::pressure), "Δp at the date, time-aware", u, kTime));
+    layer.styles.push_back(
+        lines_by_dp(layer, u.column("dp", Quantity::pressure), "Δp at the date, time-aware", u, kTime));
   }
   return layer;
 }
@@ -247,8 +249,9 @@ ReadmeFile gis_layers_readme(const ResolvedScenario& s, bool probabilistic, bool
           std::string("GeoPackage, styled for QGIS (layer_styles): layers fault_segments (the screen's results") +
               (probabilistic ? " and P(slip) per output time" : "") + "), segment_times (one line per segment and " +
               "output time, time-aware" + (probabilistic ? ", with P(slip)" : "") + "), wells (injected volumes)" +
-              (footprint ? ", dp_footprint (where dp >= " + util::number_text(u.value(s.output.footprint, Quantity::pressure), 6) +
-                               " " + std::string(u.symbol(Quantity::pressure)) + " at each output time)"
+              (footprint ? ", dp_footprint (where dp >= " +
+                               util::number_text(u.value(s.output.footprint, Quantity::pressure), 6) + " " +
+                               std::string(u.symbol(Quantity::pressure)) + " at each output time)"
                          : "") +
               (review ? ", earthquakes (the reviewed events against the model)" : "")};
 }
@@ -314,9 +317,11 @@ void write_gis_layers(const RunFolder& folder, const ResolvedScenario& s, const 
   if (prob) {
     segs.styles.push_back(segments_by_probability(segs, "p_slip_" + gpkg_date_field(s.output.dates.back()),
                                                   "P(slip by " + last + "), the last output time"));
-    segs.styles.push_back(segments_by_margin(segs, u.column("margin", Quantity::pressure), "Margin Δp_crit − peak Δp (deterministic)", u));
+    segs.styles.push_back(segments_by_margin(segs, u.column("margin", Quantity::pressure),
+                                             "Margin Δp_crit − peak Δp (deterministic)", u));
   } else {
-    segs.styles.push_back(segments_by_margin(segs, u.column("margin", Quantity::pressure), "Margin Δp_crit − peak Δp (deterministic)", u));
+    segs.styles.push_back(segments_by_margin(segs, u.column("margin", Quantity::pressure),
+                                             "Margin Δp_crit − peak Δp (deterministic)", u));
   }
 
   const double t_end = s.output.times.back();

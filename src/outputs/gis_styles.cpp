@@ -99,8 +99,8 @@ template <std::size_t N, std::size_t M>
 std::vector<RangeClass> ranges(const std::array<double, N>& limits, const std::array<const char*, M>& labels,
                                const std::array<const char*, M>& colours) {
   static_assert(N == M + 1);
-  return ranges(std::vector<double>(limits.begin(), limits.end()), std::vector<std::string>(labels.begin(), labels.end()),
-                colours);
+  return ranges(std::vector<double>(limits.begin(), limits.end()),
+                std::vector<std::string>(labels.begin(), labels.end()), colours);
 }
 
 LayerStyle lines(const VectorLayer& layer, const std::string& field, std::vector<RangeClass> classes,
@@ -208,7 +208,8 @@ std::string pressure_raster_qml(int band) {
 
 std::string probability_raster_qml(int band) {
   return classed_raster(band, std::vector<double>(kProbabilityLimits.begin(), kProbabilityLimits.end()),
-                        std::vector<std::string>(kProbabilityLabels.begin(), kProbabilityLabels.end()), kViridis.data());
+                        std::vector<std::string>(kProbabilityLabels.begin(), kProbabilityLabels.end()),
+                        kViridis.data());
 }
 
 }  // namespace slipscreen::outputs

@@ -99,7 +99,8 @@ TEST_CASE("in oilfield units the Δp and margin classes are the MPa classes conv
     CHECK(x == ra.children("range").end());
     CHECK(n >= 6);
   };
-  check_converted(outputs::lines_by_dp(layer, "dp_MPa", "", si).qml, outputs::lines_by_dp(layer, "dp_psi", "", oilfield).qml);
+  check_converted(outputs::lines_by_dp(layer, "dp_MPa", "", si).qml,
+                  outputs::lines_by_dp(layer, "dp_psi", "", oilfield).qml);
   check_converted(outputs::segments_by_margin(layer, "margin_MPa", "", si).qml,
                   outputs::segments_by_margin(layer, "margin_psi", "", oilfield).qml);
   // The labels, written from the converted limits to 3 significant digits: 0.01 MPa = 1.4504 psi
