@@ -2,6 +2,7 @@
 
 #include <cmath>
 #include <limits>
+#include <optional>
 
 #include "core/stats/wilson_interval.hpp"
 #include "core/units/units.hpp"
@@ -11,6 +12,7 @@
 #include "formats/table/iso_time.hpp"
 #include "outputs/gis_styles.hpp"
 #include "outputs/output_text.hpp"
+#include "outputs/output_units.hpp"
 
 namespace slipscreen::outputs {
 
@@ -29,54 +31,66 @@ using screening::ProbabilisticRun;
 namespace {
 
 // The fields of the layers, with the kind of quantity each holds: the one place that names a
-// field's unit (in its alias) and converts its SI value, so another unit system changes only
-// unit_of() and in_unit() below.
-enum class Quantity { none, pressure, length, volume, volume_bbl, angle, duration_days };
+// field's unit (its name's suffix and its alias) and converts its SI value. Pressures, lengths and
+// volumes follow the run's unit system (outputs/output_units.hpp): their Field::name is the base
+// name, "<base>_<suffix>" in the layer (`dp` -> `dp_MPa` | `dp_psi`). The other kinds are written
+// the same way in both systems and their names are whole (`strike_deg`, `volume_reported_bbl`).
+enum class Kind { none, pressure, length, volume, volume_bbl, angle, duration_days };
 
 struct Field {
   std::string name;
   FieldType type;
-  Quantity quantity = Quantity::none;
+  Kind kind = Kind::none;
   std::string label;  // for people; the alias is "<label> (<unit>)"
 };
 
-const char* unit_of(Quantity q) {
-  switch (q) {
-    case Quantity::none: return "";
-    case Quantity::pressure: return "MPa";
-    case Quantity::length: return "m";
-    case Quantity::volume: return "m³";
-    case Quantity::volume_bbl: return "bbl";
-    case Quantity::angle: return "°";
-    case Quantity::duration_days: return "days";
+std::optional<Quantity> system_quantity(Kind k) {
+  switch (k) {
+    case Kind::pressure: return Quantity::pressure;
+    case Kind::length: return Quantity::length;
+    case Kind::volume: return Quantity::volume;
+    default: return std::nullopt;
+  }
+}
+
+std::string unit_of(Kind k, const OutputUnits& u) {
+  switch (k) {
+    case Kind::none: return "";
+    case Kind::pressure: return std::string(u.symbol(Quantity::pressure));
+    case Kind::length: return std::string(u.symbol(Quantity::length));
+    case Kind::volume: return u.system() == units::UnitSystem::si ? "m³" : std::string(u.symbol(Quantity::volume));
+    case Kind::volume_bbl: return "bbl";
+    case Kind::angle: return "°";
+    case Kind::duration_days: return "days";
   }
   return "";
 }
 
-// An SI value in the field's unit (pressure in Pa, length in m, volume in m³, angle in rad,
-// duration in s).
-double in_unit(Quantity q, double si) {
-  switch (q) {
-    case Quantity::pressure: return si / kMPa;
-    case Quantity::volume_bbl: return si / units::kBarrel;
-    case Quantity::angle: return si * kRadToDeg;
-    case Quantity::duration_days: return si / units::kDay;
-    case Quantity::none:
-    case Quantity::length:
-    case Quantity::volume: return si;
-  }
-  return si;
+std::string field_name(const Field& f, const OutputUnits& u) {
+  const auto q = system_quantity(f.kind);
+  return q ? u.column(f.name, *q) : f.name;
 }
 
-std::vector<FieldSpec> specs(const std::vector<Field>& fields) {
+// An SI value in the field's unit (pressure in Pa, length in m, volume in m³, angle in rad,
+// duration in s).
+double in_unit(Kind k, double si, const OutputUnits& u) {
+  if (const auto q = system_quantity(k)) return u.value(si, *q);
+  switch (k) {
+    case Kind::volume_bbl: return si / units::kBarrel;
+    case Kind::angle: return si * kRadToDeg;
+    case Kind::duration_days: return si / units::kDay;
+    default: return si;
+  }
+}
+
+std::vector<FieldSpec> specs(const std::vector<Field>& fields, const OutputUnits& u) {
   std::vector<FieldSpec> out;
   for (const auto& f : fields)
-    out.emplace_back(f.name, f.type,
-                     f.label.empty() ? "" : f.quantity == Quantity::none ? f.label : f.label + " (" + unit_of(f.quantity) + ")");
+    out.emplace_back(field_name(f, u), f.type,
+                     f.label.empty() ? "" : f.kind == Kind::none ? f.label : f.label + " (" + unit_of(f.kind, u) + ")");
   return out;
 }
 
-FieldValue si(Quantity q, double v) { return in_unit(q, v); }
 FieldValue flag(bool b) { return static_cast<std::int64_t>(b); }
 
 std::string gpkg_date_field(const util::CivilDate& d) {
@@ -88,21 +102,23 @@ std::string gpkg_date_field(const util::CivilDate& d) {
 
 // The reviewed catalog's events with their attributes against the model (catalog_review.hpp).
 VectorLayer earthquake_layer(const ResolvedScenario& s, const PreparedRun& p, const CatalogReview& v) {
-  using Q = Quantity;
+  using Q = Kind;
+  const OutputUnits u(s.output.units);
+  const auto si = [&u](Kind k, double x) { return FieldValue(in_unit(k, x, u)); };
   VectorLayer layer("earthquakes", GeometryType::point,
                     specs({{"event_id", FieldType::string, Q::none, "event"},
                            {"time_utc", FieldType::datetime, Q::none, "time (UTC)"},
-                           {"depth_m", FieldType::real, Q::length, "depth"},
+                           {"depth", FieldType::real, Q::length, "depth"},
                            {"magnitude", FieldType::real, Q::none, "magnitude"},
                            {"magnitude_type", FieldType::string, Q::none, "magnitude type"},
                            {"in_study_area", FieldType::boolean, Q::none, "in the study area"},
-                           {"dp_MPa", FieldType::real, Q::pressure, "Δp at the event"},
+                           {"dp", FieldType::real, Q::pressure, "Δp at the event"},
                            {"in_footprint", FieldType::boolean, Q::none, "inside the Δp footprint"},
                            {"nearest_segment", FieldType::string, Q::none, "nearest fault segment"},
                            {"nearest_fault", FieldType::string, Q::none, "nearest fault"},
-                           {"distance_m", FieldType::real, Q::length, "distance to that segment"},
-                           {"segment_dp_MPa", FieldType::real, Q::pressure, "segment Δp"},
-                           {"segment_dp_crit_MPa", FieldType::real, Q::pressure, "segment Δp_crit"},
+                           {"distance", FieldType::real, Q::length, "distance to that segment"},
+                           {"segment_dp", FieldType::real, Q::pressure, "segment Δp"},
+                           {"segment_dp_crit", FieldType::real, Q::pressure, "segment Δp_crit"},
                            {"segment_reached", FieldType::boolean, Q::none, "segment Δp reached Δp_crit"},
                            {"footprint_area_fraction", FieldType::real, Q::none, "footprint share of the area"},
                            {"p_slip", FieldType::real, Q::none, "segment P(slip)"},
@@ -110,7 +126,7 @@ VectorLayer earthquake_layer(const ResolvedScenario& s, const PreparedRun& p, co
                            {"p_slip_high", FieldType::real, Q::none, "segment P(slip), interval high"},
                            {"p_slip_date", FieldType::date, Q::none, "date of that P(slip)"},
                            {"rt_time_since_start_days", FieldType::real, Q::duration_days, "r–t: time since start"},
-                           {"rt_distance_m", FieldType::real, Q::length, "r–t: distance"}}),
+                           {"rt_distance", FieldType::real, Q::length, "r–t: distance"}}, u),
                     "Earthquakes of the reviewed catalog against the model (screening estimate)");
   const FieldValue none = std::monostate{};
   for (std::size_t i = 0; i < v.events.size(); ++i) {
@@ -149,21 +165,23 @@ const formats::TemporalFields kTime{"date", "valid_until"};
 // Long form: one line per fault segment and output time, time-aware in QGIS.
 VectorLayer segment_times_layer(const ResolvedScenario& s, const PreparedRun& p, const screen::ScreenResult& r,
                                 const ProbabilisticRun* prob) {
-  using Q = Quantity;
+  using Q = Kind;
+  const OutputUnits u(s.output.units);
+  const auto si = [&u](Kind k, double x) { return FieldValue(in_unit(k, x, u)); };
   std::vector<Field> fields = {{"segment_id", FieldType::string, Q::none, "fault segment"},
                                {"fault_id", FieldType::string, Q::none, "fault"},
                                {"date", FieldType::datetime, Q::none, "output time (UTC)"},
                                {"valid_until", FieldType::datetime, Q::none, "next output time (UTC)"},
-                               {"dp_MPa", FieldType::real, Q::pressure, "Δp"},
-                               {"dp_crit_MPa", FieldType::real, Q::pressure, "Δp_crit"},
-                               {"margin_MPa", FieldType::real, Q::pressure, "margin Δp_crit − Δp"},
+                               {"dp", FieldType::real, Q::pressure, "Δp"},
+                               {"dp_crit", FieldType::real, Q::pressure, "Δp_crit"},
+                               {"margin", FieldType::real, Q::pressure, "margin Δp_crit − Δp"},
                                {"dp_reaches_dp_crit", FieldType::boolean, Q::none, "Δp reaches Δp_crit"}};
   if (prob) {
     fields.push_back({"p_slip", FieldType::real, Q::none, "P(slip by the date)"});
     fields.push_back({"p_slip_ci_low", FieldType::real, Q::none, "P(slip), interval low"});
     fields.push_back({"p_slip_ci_high", FieldType::real, Q::none, "P(slip), interval high"});
   }
-  VectorLayer layer("segment_times", GeometryType::line_string, specs(fields),
+  VectorLayer layer("segment_times", GeometryType::line_string, specs(fields, u),
                     "Fault segments at each output time (long form, time-aware; screening estimate)");
   const double nan = std::numeric_limits<double>::quiet_NaN();
   for (std::size_t i = 0; i < r.segments.size(); ++i) {
@@ -184,21 +202,25 @@ VectorLayer segment_times_layer(const ResolvedScenario& s, const PreparedRun& p,
   }
   if (prob) {
     layer.styles.push_back(segments_by_probability(layer, "p_slip", "P(slip by the date), time-aware", kTime));
-    layer.styles.push_back(lines_by_dp(layer, "dp_MPa", "Δp at the date, time-aware", kTime));
+    layer.styles.push_back(
+        lines_by_dp(layer, u.column("dp", Quantity::pressure), "Δp at the date, time-aware", u, kTime));
   } else {
-    layer.styles.push_back(lines_by_dp(layer, "dp_MPa", "Δp at the date, time-aware", kTime));
+    layer.styles.push_back(
+        lines_by_dp(layer, u.column("dp", Quantity::pressure), "Δp at the date, time-aware", u, kTime));
   }
   return layer;
 }
 
 // The area where Δp ≥ the footprint threshold at each output time, from the Δp raster.
 VectorLayer footprint_layer(const ResolvedScenario& s, const PreparedRun& p, const screening::PressureMap& map) {
-  using Q = Quantity;
+  using Q = Kind;
+  const OutputUnits u(s.output.units);
+  const auto si = [&u](Kind k, double x) { return FieldValue(in_unit(k, x, u)); };
   VectorLayer layer("dp_footprint", GeometryType::multi_polygon,
                     specs({{"date", FieldType::datetime, Q::none, "output time (UTC)"},
                            {"valid_until", FieldType::datetime, Q::none, "next output time (UTC)"},
-                           {"threshold_MPa", FieldType::real, Q::pressure, "footprint threshold Δp"},
-                           {"area_km2", FieldType::real, Q::none, "area (km²)"}}),
+                           {"threshold", FieldType::real, Q::pressure, "footprint threshold Δp"},
+                           {"area_km2", FieldType::real, Q::none, "area (km²)"}}, u),
                     "Where dp >= the footprint threshold at each output time (contours of the dp raster; "
                     "screening estimate)");
   for (std::size_t k = 0; k < map.dp.size(); ++k) {
@@ -222,12 +244,14 @@ VectorLayer footprint_layer(const ResolvedScenario& s, const PreparedRun& p, con
 }  // namespace
 
 ReadmeFile gis_layers_readme(const ResolvedScenario& s, bool probabilistic, bool review, bool footprint) {
+  const OutputUnits u(s.output.units);
   return {s.output.files.geopackage,
           std::string("GeoPackage, styled for QGIS (layer_styles): layers fault_segments (the screen's results") +
               (probabilistic ? " and P(slip) per output time" : "") + "), segment_times (one line per segment and " +
               "output time, time-aware" + (probabilistic ? ", with P(slip)" : "") + "), wells (injected volumes)" +
-              (footprint ? ", dp_footprint (where dp >= " + util::number_text(s.output.footprint / kMPa, 6) +
-                               " MPa at each output time)"
+              (footprint ? ", dp_footprint (where dp >= " +
+                               util::number_text(u.value(s.output.footprint, Quantity::pressure), 6) + " " +
+                               std::string(u.symbol(Quantity::pressure)) + " at each output time)"
                          : "") +
               (review ? ", earthquakes (the reviewed events against the model)" : "")};
 }
@@ -235,7 +259,9 @@ ReadmeFile gis_layers_readme(const ResolvedScenario& s, bool probabilistic, bool
 void write_gis_layers(const RunFolder& folder, const ResolvedScenario& s, const PreparedRun& p,
                       const screen::ScreenResult& r, bool reproducible, const ProbabilisticRun* prob,
                       const CatalogReview* review, const screening::PressureMap* pressure) {
-  using Q = Quantity;
+  using Q = Kind;
+  const OutputUnits u(s.output.units);
+  const auto si = [&u](Kind k, double x) { return FieldValue(in_unit(k, x, u)); };
   std::vector<Field> fields = {
       {"segment_id", FieldType::string, Q::none, "fault segment"},
       {"fault_id", FieldType::string, Q::none, "fault"},
@@ -243,24 +269,24 @@ void write_gis_layers(const RunFolder& folder, const ResolvedScenario& s, const 
       {"strike_deg", FieldType::real, Q::angle, "strike (true north)"},
       {"dip_deg", FieldType::real, Q::angle, "dip"},
       {"friction", FieldType::real, Q::none, "friction coefficient"},
-      {"sigma_n_eff_MPa", FieldType::real, Q::pressure, "effective normal stress"},
-      {"tau_MPa", FieldType::real, Q::pressure, "shear stress"},
+      {"sigma_n_eff", FieldType::real, Q::pressure, "effective normal stress"},
+      {"tau", FieldType::real, Q::pressure, "shear stress"},
       {"slip_tendency", FieldType::real, Q::none, "slip tendency"},
-      {"dp_crit_MPa", FieldType::real, Q::pressure, "Δp_crit"},
+      {"dp_crit", FieldType::real, Q::pressure, "Δp_crit"},
       {"status", FieldType::string, Q::none, "status"},
-      {"peak_dp_MPa", FieldType::real, Q::pressure, "peak Δp"},
-      {"margin_MPa", FieldType::real, Q::pressure, "margin Δp_crit − peak Δp"},
+      {"peak_dp", FieldType::real, Q::pressure, "peak Δp"},
+      {"margin", FieldType::real, Q::pressure, "margin Δp_crit − peak Δp"},
       {"first_crossing", FieldType::date, Q::none, "first date Δp reaches Δp_crit"}};
   for (const auto& d : s.output.dates)
-    fields.push_back({"dp_" + gpkg_date_field(d) + "_MPa", FieldType::real, Q::pressure, "Δp on " + util::format_iso_date(d)});
+    fields.push_back({"dp_" + gpkg_date_field(d), FieldType::real, Q::pressure, "Δp on " + util::format_iso_date(d)});
   if (prob) {  // probabilistic screen: one probability column per output time, ready to style
     for (const auto& d : s.output.dates)
       fields.push_back({"p_slip_" + gpkg_date_field(d), FieldType::real, Q::none, "P(slip by " + util::format_iso_date(d) + ")"});
     fields.push_back({"p_slip_final_ci_high", FieldType::real, Q::none, "P(slip by the last date), interval high"});
     fields.push_back({"p_already_critical", FieldType::real, Q::none, "P(critical before injection)"});
-    fields.push_back({"dp_crit_p50_MPa", FieldType::real, Q::pressure, "Δp_crit, median"});
+    fields.push_back({"dp_crit_p50", FieldType::real, Q::pressure, "Δp_crit, median"});
   }
-  VectorLayer segs("fault_segments", GeometryType::line_string, specs(fields),
+  VectorLayer segs("fault_segments", GeometryType::line_string, specs(fields, u),
                    "Fault segments with the deterministic screen (screening estimate)");
   const double nan = std::numeric_limits<double>::quiet_NaN();
   for (std::size_t i = 0; i < r.segments.size(); ++i) {
@@ -291,25 +317,30 @@ void write_gis_layers(const RunFolder& folder, const ResolvedScenario& s, const 
   if (prob) {
     segs.styles.push_back(segments_by_probability(segs, "p_slip_" + gpkg_date_field(s.output.dates.back()),
                                                   "P(slip by " + last + "), the last output time"));
-    segs.styles.push_back(segments_by_margin(segs, "margin_MPa", "Margin Δp_crit − peak Δp (deterministic)"));
+    segs.styles.push_back(segments_by_margin(segs, u.column("margin", Quantity::pressure),
+                                             "Margin Δp_crit − peak Δp (deterministic)", u));
   } else {
-    segs.styles.push_back(segments_by_margin(segs, "margin_MPa", "Margin Δp_crit − peak Δp (deterministic)"));
+    segs.styles.push_back(segments_by_margin(segs, u.column("margin", Quantity::pressure),
+                                             "Margin Δp_crit − peak Δp (deterministic)", u));
   }
 
   const double t_end = s.output.times.back();
-  VectorLayer wells("wells", GeometryType::point,
-                    specs({{"well_id", FieldType::string, Q::none, "well"},
-                           {"status", FieldType::string, Q::none, "status"},
-                           {"proposed", FieldType::boolean, Q::none, "proposed"},
-                           {"top_m", FieldType::real, Q::length, "injection interval top"},
-                           {"bottom_m", FieldType::real, Q::length, "injection interval bottom"},
-                           {"radius_m", FieldType::real, Q::length, "well radius"},
-                           {"first_injection", FieldType::date, Q::none, "first injection"},
-                           {"last_injection", FieldType::date, Q::none, "last injection"},
-                           {"volume_until", FieldType::date, Q::none, "volumes up to"},
-                           {"volume_m3", FieldType::real, Q::volume, "injected volume"},
-                           {"volume_bbl", FieldType::real, Q::volume_bbl, "injected volume"},
-                           {"volume_reported_bbl", FieldType::real, Q::volume_bbl, "reported volume"}}),
+  // In SI the injected volume is also given in bbl (the unit volumes are reported in); in oilfield
+  // units `volume_bbl` is the volume itself, written once.
+  const bool si_units = u.system() == units::UnitSystem::si;
+  std::vector<Field> well_fields = {{"well_id", FieldType::string, Q::none, "well"},
+                                    {"status", FieldType::string, Q::none, "status"},
+                                    {"proposed", FieldType::boolean, Q::none, "proposed"},
+                                    {"top", FieldType::real, Q::length, "injection interval top"},
+                                    {"bottom", FieldType::real, Q::length, "injection interval bottom"},
+                                    {"radius", FieldType::real, Q::length, "well radius"},
+                                    {"first_injection", FieldType::date, Q::none, "first injection"},
+                                    {"last_injection", FieldType::date, Q::none, "last injection"},
+                                    {"volume_until", FieldType::date, Q::none, "volumes up to"},
+                                    {"volume", FieldType::real, Q::volume, "injected volume"}};
+  if (si_units) well_fields.push_back({"volume_bbl", FieldType::real, Q::volume_bbl, "injected volume"});
+  well_fields.push_back({"volume_reported_bbl", FieldType::real, Q::volume_bbl, "reported volume"});
+  VectorLayer wells("wells", GeometryType::point, specs(well_fields, u),
                     "Wells with injected volumes up to the last output time (reported, planned and assumed)");
   for (const auto& w : p.wells) {
     VectorFeature f;
@@ -320,7 +351,9 @@ void write_gis_layers(const RunFolder& folder, const ResolvedScenario& s, const 
                 si(Q::length, w.bottom), si(Q::length, w.radius),
                 any ? FieldValue(date_of(w.periods.front().start)) : FieldValue(std::monostate{}),
                 any ? FieldValue(date_of(w.periods.back().end - 1.0)) : FieldValue(std::monostate{}), last,
-                si(Q::volume, v), si(Q::volume_bbl, v), si(Q::volume_bbl, w.reported_volume_until(t_end))};
+                si(Q::volume, v)};
+    if (si_units) f.values.push_back(si(Q::volume_bbl, v));
+    f.values.push_back(si(Q::volume_bbl, w.reported_volume_until(t_end)));
     wells.features.push_back(std::move(f));
   }
   wells.styles.push_back(wells_by_status(wells));

@@ -3,7 +3,8 @@
 // screen's probabilities when run), segment_times (segment x output time, time-aware), wells
 // (with injected volumes), dp_footprint (contours of the Δp raster at the footprint threshold)
 // and earthquakes (the catalog review's events against the model), each with its default style
-// in layer_styles (outputs/gis_styles.hpp; docs/outputs.md, docs/gis.md).
+// in layer_styles (outputs/gis_styles.hpp; docs/outputs.md, docs/gis.md). Pressures, lengths and
+// volumes follow the run's unit system ([output] units; outputs/output_units.hpp), like the tables.
 #include "core/screen/deterministic_screen.hpp"
 #include "formats/files/run_folder.hpp"
 #include "outputs/run_readme.hpp"

@@ -2,6 +2,9 @@
 
 #include <array>
 
+#include "core/util/number_text.hpp"
+#include "outputs/output_text.hpp"
+
 namespace slipscreen::outputs {
 
 using formats::CategoryClass;
@@ -34,15 +37,40 @@ constexpr const char* kOrange = "#e69f00";
 constexpr const char* kReddishPurple = "#cc79a7";
 constexpr const char* kGrey = "#999999";
 
-// Class limits: probabilities, and Δp in MPa (the raster's colour stops are the same values).
+// Class limits: probabilities, and Δp and margin in MPa (the raster's colour stops are the same
+// values). In oilfield units the pressure limits are these converted, so that a class selects the
+// same features in either system; their legend labels are written from the converted limits.
 constexpr std::array<double, 7> kProbabilityLimits = {0.0, 0.01, 0.05, 0.1, 0.2, 0.5, 1.0};
 constexpr std::array<const char*, 6> kProbabilityLabels = {"≤ 1 %", "1–5 %", "5–10 %", "10–20 %", "20–50 %", "> 50 %"};
-constexpr std::array<double, 8> kDpLimits = {0.0, 0.01, 0.05, 0.1, 0.25, 0.5, 1.0, 1e9};
-constexpr std::array<const char*, 7> kDpLabels = {"≤ 0.01 MPa",     "0.01–0.05 MPa", "0.05–0.1 MPa", "0.1–0.25 MPa",
-                                                  "0.25–0.5 MPa", "0.5–1 MPa",     "> 1 MPa"};
-constexpr std::array<double, 7> kMarginLimits = {-1e9, 0.0, 0.5, 1.0, 2.0, 5.0, 1e9};
-constexpr std::array<const char*, 6> kMarginLabels = {"reached (≤ 0 MPa)", "0–0.5 MPa", "0.5–1 MPa",
-                                                      "1–2 MPa",           "2–5 MPa",   "> 5 MPa"};
+constexpr std::array<double, 8> kDpLimitsMPa = {0.0, 0.01, 0.05, 0.1, 0.25, 0.5, 1.0, 1e9};
+constexpr std::array<double, 7> kMarginLimitsMPa = {-1e9, 0.0, 0.5, 1.0, 2.0, 5.0, 1e9};
+
+// Pressure classes in the unit system `u`: the limits converted from MPa (a factor of exactly 1
+// in SI, so the SI limits keep their bytes) and labels "≤ a", "a–b", ..., "> z" with the unit,
+// the first one "reached (≤ a unit)" for the margin.
+struct PressureClasses {
+  std::vector<double> limits;
+  std::vector<std::string> labels;
+};
+
+template <std::size_t N>
+PressureClasses pressure_classes(const std::array<double, N>& limits_mpa, const OutputUnits& u, bool first_reached) {
+  const double factor = kMPa / u.size_in_si(Quantity::pressure);
+  const std::string unit(u.symbol(Quantity::pressure));
+  const auto t = [](double v) { return util::number_text(v, 3); };
+  PressureClasses c;
+  for (double l : limits_mpa) c.limits.push_back(l * factor);
+  const auto& l = c.limits;
+  for (std::size_t i = 0; i + 1 < N; ++i) {
+    if (i == 0)
+      c.labels.push_back(first_reached ? "reached (≤ " + t(l[1]) + " " + unit + ")" : "≤ " + t(l[1]) + " " + unit);
+    else if (i + 2 == N)
+      c.labels.push_back("> " + t(l[i]) + " " + unit);
+    else
+      c.labels.push_back(t(l[i]) + "–" + t(l[i + 1]) + " " + unit);
+  }
+  return c;
+}
 
 std::vector<formats::FieldAlias> aliases(const VectorLayer& layer) {
   std::vector<formats::FieldAlias> a;
@@ -59,13 +87,20 @@ SymbolLook line(const char* colour, double width = 0.9) {
   return l;
 }
 
+template <std::size_t M>
+std::vector<RangeClass> ranges(const std::vector<double>& limits, const std::vector<std::string>& labels,
+                               const std::array<const char*, M>& colours) {
+  std::vector<RangeClass> r;
+  for (std::size_t i = 0; i < M; ++i) r.push_back({limits.at(i), limits.at(i + 1), labels.at(i), line(colours[i])});
+  return r;
+}
+
 template <std::size_t N, std::size_t M>
 std::vector<RangeClass> ranges(const std::array<double, N>& limits, const std::array<const char*, M>& labels,
                                const std::array<const char*, M>& colours) {
   static_assert(N == M + 1);
-  std::vector<RangeClass> r;
-  for (std::size_t i = 0; i < M; ++i) r.push_back({limits[i], limits[i + 1], labels[i], line(colours[i])});
-  return r;
+  return ranges(std::vector<double>(limits.begin(), limits.end()),
+                std::vector<std::string>(labels.begin(), labels.end()), colours);
 }
 
 LayerStyle lines(const VectorLayer& layer, const std::string& field, std::vector<RangeClass> classes,
@@ -87,13 +122,16 @@ LayerStyle segments_by_probability(const VectorLayer& layer, const std::string& 
   return lines(layer, field, ranges(kProbabilityLimits, kProbabilityLabels, kViridis), "P(slip)", what, time);
 }
 
-LayerStyle segments_by_margin(const VectorLayer& layer, const std::string& field, const std::string& what) {
-  return lines(layer, field, ranges(kMarginLimits, kMarginLabels, kCividisReversed), "margin", what, std::nullopt);
+LayerStyle segments_by_margin(const VectorLayer& layer, const std::string& field, const std::string& what,
+                              const OutputUnits& u) {
+  const auto c = pressure_classes(kMarginLimitsMPa, u, true);
+  return lines(layer, field, ranges(c.limits, c.labels, kCividisReversed), "margin", what, std::nullopt);
 }
 
 LayerStyle lines_by_dp(const VectorLayer& layer, const std::string& field, const std::string& what,
-                       const std::optional<TemporalFields>& time) {
-  return lines(layer, field, ranges(kDpLimits, kDpLabels, kInferno), "dp", what, time);
+                       const OutputUnits& u, const std::optional<TemporalFields>& time) {
+  const auto c = pressure_classes(kDpLimitsMPa, u, false);
+  return lines(layer, field, ranges(c.limits, c.labels, kInferno), "dp", what, time);
 }
 
 LayerStyle wells_by_status(const VectorLayer& layer) {
@@ -154,20 +192,24 @@ LayerStyle footprint_style(const VectorLayer& layer, const TemporalFields& time)
 
 // The rasters use the classes of the vector styles: DISCRETE colour ramps whose stops are the
 // classes' upper limits, so a cell has the colour of the segment class its value falls in.
-template <std::size_t N, std::size_t M>
-std::string classed_raster(int band, const std::array<double, N>& limits, const std::array<const char*, M>& labels,
-                           const std::array<const char*, M>& colours) {
+std::string classed_raster(int band, const std::vector<double>& limits, const std::vector<std::string>& labels,
+                           const char* const* colours) {
   formats::RasterPseudocolour r;
   r.band = band;
   r.discrete = true;
-  for (std::size_t i = 0; i < M; ++i) r.stops.push_back({limits[i + 1], hex(colours[i]), labels[i]});
+  for (std::size_t i = 0; i < labels.size(); ++i) r.stops.push_back({limits.at(i + 1), hex(colours[i]), labels[i]});
   return formats::raster_style_qml(r);
 }
 
-std::string pressure_raster_qml(int band) { return classed_raster(band, kDpLimits, kDpLabels, kInferno); }
+std::string pressure_raster_qml(int band) {
+  const auto c = pressure_classes(kDpLimitsMPa, OutputUnits(units::UnitSystem::si), false);  // the raster is in MPa
+  return classed_raster(band, c.limits, c.labels, kInferno.data());
+}
 
 std::string probability_raster_qml(int band) {
-  return classed_raster(band, kProbabilityLimits, kProbabilityLabels, kViridis);
+  return classed_raster(band, std::vector<double>(kProbabilityLimits.begin(), kProbabilityLimits.end()),
+                        std::vector<std::string>(kProbabilityLabels.begin(), kProbabilityLabels.end()),
+                        kViridis.data());
 }
 
 }  // namespace slipscreen::outputs

@@ -13,6 +13,7 @@
 
 #include "formats/gis/geopackage.hpp"
 #include "formats/gis/qml.hpp"
+#include "outputs/output_units.hpp"
 
 namespace slipscreen::outputs {
 
@@ -21,12 +22,14 @@ namespace slipscreen::outputs {
 formats::LayerStyle segments_by_probability(const formats::VectorLayer& layer, const std::string& field,
                                             const std::string& what,
                                             const std::optional<formats::TemporalFields>& time = {});
-// fault_segments, graduated by the margin Δp_crit − Δp in `field` (MPa).
+// fault_segments, graduated by the margin Δp_crit − Δp in `field` (in the pressure unit of `u`:
+// the classes are the MPa classes converted, labelled in that unit).
 formats::LayerStyle segments_by_margin(const formats::VectorLayer& layer, const std::string& field,
-                                       const std::string& what);
-// A line layer graduated by Δp in `field` (MPa), the classes of the Δp raster.
+                                       const std::string& what, const OutputUnits& u);
+// A line layer graduated by Δp in `field` (in the pressure unit of `u`), the classes of the Δp
+// raster converted.
 formats::LayerStyle lines_by_dp(const formats::VectorLayer& layer, const std::string& field, const std::string& what,
-                                const std::optional<formats::TemporalFields>& time = {});
+                                const OutputUnits& u, const std::optional<formats::TemporalFields>& time = {});
 // wells, categorized by `status`, proposed wells as large stars.
 formats::LayerStyle wells_by_status(const formats::VectorLayer& layer);
 // earthquakes, graduated in size by `magnitude`.
@@ -36,7 +39,7 @@ formats::LayerStyle footprint_style(const formats::VectorLayer& layer, const for
 
 // Sidecar QML of the rasters: `band` (the last output time's) in pseudocolour, in the classes
 // and colours of the line styles.
-std::string pressure_raster_qml(int band);     // Δp, MPa
+std::string pressure_raster_qml(int band);     // Δp, MPa (the GeoTIFFs stay in SI)
 std::string probability_raster_qml(int band);  // P(slip), 0..1
 
 }  // namespace slipscreen::outputs

@@ -55,8 +55,12 @@ ReadmeContent run_readme(const scenario::ResolvedScenario& s, const RunResults& 
   std::string dates;
   for (const auto& d : s.output.dates) dates += (dates.empty() ? "" : ", ") + util::format_iso_date(d);
   c.facts = {"Scenario: " + s.file, "Screens run: " + screens_text(r), "Output times: " + dates,
-             readme_units_line(OutputUnits(s.output.units), "coordinates in the working CRS's unit; screen.gpkg, the "
-                                                            "GeoTIFFs and the JSON files in SI")};
+             readme_units_line(OutputUnits(s.output.units),
+                               s.output.units == units::UnitSystem::si
+                                   ? "coordinates in the working CRS's unit; screen.gpkg, the GeoTIFFs and the JSON "
+                                     "files in SI"
+                                   : "coordinates in the working CRS's unit; screen.gpkg in these units too; the "
+                                     "GeoTIFFs (dp in MPa) and the JSON files in SI")};
   const std::string crs = r.prepared.working.authority();
   if (!crs.empty()) c.facts.push_back("Working CRS: " + crs + " (coordinates in metres)");
   if (s.output.report)

@@ -2,8 +2,11 @@
 // line styles, every class has its own colour, and the wells' proposed class stands out.
 #include "outputs/gis_styles.hpp"
 
+#include "core/units/units.hpp"
+
 #include <doctest/doctest.h>
 
+#include <cmath>
 #include <pugixml.hpp>
 #include <set>
 #include <string>
@@ -65,8 +68,49 @@ TEST_CASE("the rasters' classes and colours are the line styles'") {
   formats::VectorLayer layer("x", formats::GeometryType::line_string, {{"p_slip", formats::FieldType::real}});
   check_same(line_classes(outputs::segments_by_probability(layer, "p_slip", "").qml),
              raster_classes(outputs::probability_raster_qml(1)));
-  check_same(line_classes(outputs::lines_by_dp(layer, "dp_MPa", "").qml),
+  check_same(line_classes(outputs::lines_by_dp(layer, "dp_MPa", "", outputs::OutputUnits()).qml),
              raster_classes(outputs::pressure_raster_qml(1)));
+}
+
+TEST_CASE("in oilfield units the Δp and margin classes are the MPa classes converted to psi, labelled in psi") {
+  formats::VectorLayer layer("x", formats::GeometryType::line_string, {{"dp_psi", formats::FieldType::real}});
+  const outputs::OutputUnits si, oilfield(units::UnitSystem::oilfield);
+  // psi = 6894.757293168361 Pa exactly (NIST SP 811, 2008, App. B): an oilfield limit times that is
+  // the SI limit in Pa, to the rounding of one division (1e-15 relative).
+  const auto check_converted = [](const std::string& si_qml, const std::string& oil_qml) {
+    pugi::xml_document a, b;
+    REQUIRE(a.load_string(si_qml.c_str()));
+    REQUIRE(b.load_string(oil_qml.c_str()));
+    const auto ra = a.child("qgis").child("renderer-v2").child("ranges");
+    const auto rb = b.child("qgis").child("renderer-v2").child("ranges");
+    auto x = ra.children("range").begin();
+    std::size_t n = 0;
+    for (auto y : rb.children("range")) {
+      REQUIRE(x != ra.children("range").end());
+      for (const char* bound : {"lower", "upper"}) {
+        const double mpa = x->attribute(bound).as_double(), psi = y.attribute(bound).as_double();
+        CHECK(std::abs(psi * 6894.757293168361 - mpa * 1e6) <= 1e-15 * std::abs(mpa * 1e6));
+      }
+      const std::string label = y.attribute("label").value();
+      CHECK(label.find(" psi") != std::string::npos);
+      CHECK(label.find("MPa") == std::string::npos);
+      ++x, ++n;
+    }
+    CHECK(x == ra.children("range").end());
+    CHECK(n >= 6);
+  };
+  check_converted(outputs::lines_by_dp(layer, "dp_MPa", "", si).qml,
+                  outputs::lines_by_dp(layer, "dp_psi", "", oilfield).qml);
+  check_converted(outputs::segments_by_margin(layer, "margin_MPa", "", si).qml,
+                  outputs::segments_by_margin(layer, "margin_psi", "", oilfield).qml);
+  // The labels, written from the converted limits to 3 significant digits: 0.01 MPa = 1.4504 psi
+  // and 1 MPa = 145.04 psi (the same factor).
+  const std::string dp = outputs::lines_by_dp(layer, "dp_psi", "", oilfield).qml;
+  CHECK(dp.find("label=\"≤ 1.45 psi\"") != std::string::npos);
+  CHECK(dp.find("label=\"&gt; 145 psi\"") != std::string::npos);
+  CHECK(dp.find("attr=\"dp_psi\"") != std::string::npos);
+  const std::string margin = outputs::segments_by_margin(layer, "margin_psi", "", oilfield).qml;
+  CHECK(margin.find("label=\"reached (≤ 0 psi)\"") != std::string::npos);
 }
 
 TEST_CASE("the wells' style marks the proposed wells larger than every other status") {

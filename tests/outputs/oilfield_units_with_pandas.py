@@ -11,7 +11,9 @@ oilfield tables are the SI tables converted (docs/outputs.md, "Units in names"):
   column printing no fewer significant decimals than the SI one allows (its step in SI units is
   at most the SI column's step);
 - every value of any other column identical as text;
-- README.txt and the manifest name the unit system.
+- README.txt and the manifest name the unit system;
+- screen.gpkg: the SI file's fields converted, and its styles classing the same features
+  (oilfield_geopackage.py, with GDAL and QGIS). The GeoTIFFs stay in SI in both runs.
 
     oilfield_units_with_pandas.py SLIPSCREEN SOURCE_DIR WORK_DIR
 
@@ -29,6 +31,7 @@ import pandas as pd
 sys.dont_write_bytecode = True  # no __pycache__ in the source tree
 from read_outputs_with_pandas import fail  # noqa: E402
 from reduced_demo import reduced_demo, run_checked  # noqa: E402 (the shared demo copy)
+from oilfield_geopackage import compare_geopackages, styles_classify_alike  # noqa: E402
 
 PSI = 6894.757293168361
 FT = 0.3048
@@ -144,7 +147,16 @@ def main():
             fail(f"{folder}/manifest.json does not record units = {system}")
         if f"Units: {system} (" not in (folder / "README.txt").read_text():
             fail(f"{folder}/README.txt does not say 'Units: {system}'")
-    print(f"ok: {len(si_files)} tables, {total} converted values within the rounding of their printed digits")
+    gpkg_values = compare_geopackages(si_run / "screen.gpkg", oil_run / "screen.gpkg", expected_name, fail)
+    if gpkg_values == 0:
+        fail("screen.gpkg: no value was converted")
+    styles, graduated, spread = styles_classify_alike(si_run / "screen.gpkg", oil_run / "screen.gpkg", expected_name,
+                                                      work, fail)
+    if spread < 2:
+        fail("screen.gpkg: a style by a pressure field puts every feature in one class; the check shows nothing")
+    print(f"ok: {len(si_files)} tables, {total} converted values within the rounding of their printed digits; "
+          f"screen.gpkg: {gpkg_values} converted values, {styles} styles load in QGIS, the {graduated} graduated "
+          f"ones put every feature in the same class in both systems")
 
 
 if __name__ == "__main__":
