@@ -34,6 +34,13 @@ std::uint64_t SlipFactorCurve::slipped(double f) const {
   return static_cast<std::uint64_t>(std::upper_bound(sorted_.begin(), sorted_.end(), f) - sorted_.begin());
 }
 
+void SlipFactorCurve::merge(const SlipFactorCurve& other) {
+  std::vector<double> both(sorted_.size() + other.sorted_.size());
+  std::merge(sorted_.begin(), sorted_.end(), other.sorted_.begin(), other.sorted_.end(), both.begin());
+  sorted_ = std::move(both);
+  n_ += other.n_;
+}
+
 double segment_limit(const SlipFactorCurve& curve, double threshold, ProbabilityBound bound, double z) {
   const std::uint64_t n = curve.realizations();
   // The largest count m within the threshold (the bound increases with the count): a binary

@@ -16,7 +16,7 @@
 //   threshold     P_max      the threshold on P(slip by T | f)
 //
 // Exact: counts are integers and the steps are the f_crit values themselves, so the answers
-// involve no search tolerance. Curves merge exactly (the f_crit lists concatenate).
+// involve no search tolerance. Curves merge exactly (SlipFactorCurve::merge: the f_crit lists and counts add).
 #include <cstddef>
 #include <cstdint>
 #include <optional>
@@ -36,6 +36,9 @@ class SlipFactorCurve {
   double probability(double f) const { return static_cast<double>(slipped(f)) / static_cast<double>(n_); }
   // The critical factors in increasing order (the steps of the curve).
   const std::vector<double>& steps() const { return sorted_; }
+  // Adds another set of realizations of the same segment (a split run's other part): the result
+  // equals the curve built from both parts' values at once.
+  void merge(const SlipFactorCurve& other);
 
  private:
   std::vector<double> sorted_;

@@ -130,6 +130,21 @@ TEST_CASE("Wilson bound: with no slip among 100 realizations the upper end is zÂ
   CHECK(segment_limit(none, 0.038, ProbabilityBound::point_estimate, stats::kZ95) == kInf);
 }
 
+TEST_CASE("a curve merged from two parts of the realizations equals the curve of all of them") {
+  std::mt19937_64 rng(3);
+  const auto a = random_factors(rng, 120), b = random_factors(rng, 80);
+  std::vector<double> all = a;
+  all.insert(all.end(), b.begin(), b.end());
+  SlipFactorCurve merged(a, 150);
+  merged.merge(SlipFactorCurve(b, 100));
+  const SlipFactorCurve whole(all, 250);
+  CHECK(merged.realizations() == whole.realizations());
+  CHECK(merged.steps() == whole.steps());
+  for (double th : {0.05, 0.2})
+    CHECK(segment_limit(merged, th, ProbabilityBound::wilson_upper, stats::kZ95) ==
+          segment_limit(whole, th, ProbabilityBound::wilson_upper, stats::kZ95));
+}
+
 TEST_CASE("curves refuse bad input") {
   CHECK_THROWS_AS(SlipFactorCurve({0.5}, 0), InputError);
   CHECK_THROWS_AS(SlipFactorCurve({0.5, 1.0}, 1), InputError);
