@@ -146,7 +146,8 @@ void print_deterministic(std::ostream& out, const scenario::ResolvedScenario& s,
   std::set<std::string> listed;
   const OutputUnits u(s.output.units);
   constexpr Quantity P = Quantity::pressure;
-  out << "\nFaults closest to failure (margin = dp_crit - peak dp; negative: reached):\n";
+  out << "\nFaults closest to failure (margin = dp_crit - peak dp; negative: reached; leading well: the largest\n"
+         "share of dp at the first crossing, or at " << r.last_date << " when not reached):\n";
   out << "  " << pad("fault", 10) << pad("segment", 12) << pad(with_unit("dp_crit", u, P), 13)
       << pad(with_unit("peak dp", u, P), 13) << pad(with_unit("margin", u, P), 12) << pad("first reached", 15)
       << "leading well (share)\n";
@@ -190,8 +191,11 @@ void print_probabilistic(std::ostream& out, const screening::ProbabilisticSummar
   out << "  Segments whose injection-induced P(slip by " << last_date << ") reaches a threshold (" << ths
       << "): " << p.flagged.size() << "\n";
   if (p.flagged.empty()) return;
-  out << "  " << pad("fault", 10) << pad("segment", 12) << pad("P(slip)", 9) << pad("interval", 18) << pad("threshold", 11)
-      << "first reached\n";
+  out << "  P(slip): slips caused by injection; P(crit0): realizations critical before injection; the two add\n"
+         "  to the total share critical by "
+      << last_date << ". First reached: the first month (tracking grid) P(slip) reaches the threshold.\n";
+  out << "  " << pad("fault", 10) << pad("segment", 12) << pad("P(slip)", 9) << pad("interval", 18) << pad("P(crit0)", 10)
+      << pad("total", 7) << pad("threshold", 11) << "threshold first reached\n";
   int shown = 0;
   for (const auto& f : p.flagged) {
     if (shown++ >= closest) {
@@ -199,12 +203,14 @@ void print_probabilistic(std::ostream& out, const screening::ProbabilisticSummar
           << " more in segment_probability_summary.csv\n";
       break;
     }
-    char pr[32], ci[48], th[32];
+    char pr[32], ci[48], th[32], pa[32], tot[32];
     std::snprintf(pr, sizeof pr, "%.3f", f.p_final);
+    std::snprintf(pa, sizeof pa, "%.3f", f.p_already_critical);
+    std::snprintf(tot, sizeof tot, "%.3f", f.p_final + f.p_already_critical);
     std::snprintf(ci, sizeof ci, "[%.3f, %.3f]", f.ci_low, f.ci_high);
     std::snprintf(th, sizeof th, "%.3g", f.threshold);
-    out << "  " << pad(f.fault_id, 10) << pad(f.segment_id, 12) << pad(pr, 9) << pad(ci, 18) << pad(th, 11)
-        << (f.first_date.empty() ? "-" : f.first_date) << "\n";
+    out << "  " << pad(f.fault_id, 10) << pad(f.segment_id, 12) << pad(pr, 9) << pad(ci, 18) << pad(pa, 10) << pad(tot, 7)
+        << pad(th, 11) << (f.first_date.empty() ? "-" : f.first_date) << "\n";
   }
 }
 

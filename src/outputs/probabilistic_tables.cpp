@@ -83,12 +83,7 @@ void write_probability_summary(const Context& c) {
       << ',' << dp_crit(0.5) << ',' << dp_crit(0.95) << ',' << f3(static_cast<double>(seg.already_critical) / n)
       << ',' << f3(static_cast<double>(seg.never_critical) / n) << ',' << f3(ci.estimate) << ',' << f3(ci.lower)
       << ',' << f3(ci.upper);
-    for (double th : run.thresholds) {
-      std::string first;
-      for (std::size_t k = 0; k < K && first.empty(); ++k)
-        if (static_cast<double>(seg.slipped_by[k]) / n >= th) first = util::format_iso_date(s.output.dates[k]);
-      t << ',' << first;
-    }
+    for (double th : run.thresholds) t << ',' << screening::first_date_reaching(run, i, th);
     t << '\n';
   }
   formats::write_text_file(folder.output("output.files.segment_probability_summary", "segment_probability_summary.csv"), t.str());
@@ -248,7 +243,7 @@ std::vector<ReadmeFile> probabilistic_readme(const screening::ProbabilisticRun& 
   std::vector<ReadmeFile> files{{"segment_probability.csv", "probabilistic screen: P(slip by date) per fault segment and output time with "
                                       "its Wilson interval, and dp percentiles (" + pressure + "), over " + n},
           {"segment_probability_summary.csv", "probabilistic screen: per fault segment, dp_crit percentiles (" + pressure +
-                                              "), the final P(slip) and the first date each threshold is reached"},
+                                              "), the final P(slip) and the first date (monthly tracking grid) each threshold is reached"},
           {"dp_crit_quantiles.csv", "probabilistic screen: quantiles 0.01 to 0.99 of dp_crit (" + pressure + ") over the "
                                     "realizations, for the " + std::to_string(kDpCritQuantileSegments) +
                                     " fault segments with the highest final P(slip)"},

@@ -6,6 +6,7 @@
 
 #include "core/screen/tracking_grid.hpp"
 #include "core/stats/wilson_interval.hpp"
+#include "core/util/civil_date.hpp"
 
 namespace slipscreen::screening {
 namespace {
@@ -173,6 +174,12 @@ ProbabilisticRun run_probabilistic_screen(const scenario::ResolvedScenario& s, c
 double slip_probability(const ProbabilisticRun& run, std::size_t segment, std::size_t k) {
   return static_cast<double>(run.result.segments[segment].slipped_by[k]) /
          static_cast<double>(run.result.realizations);
+}
+
+std::string first_date_reaching(const ProbabilisticRun& run, std::size_t segment, double threshold) {
+  const auto k = probabilistic::first_tracking_index_reaching(run.result.segments[segment], run.result.realizations,
+                                                              threshold);
+  return k ? util::format_iso_date(util::date_at(run.tracked_times.at(*k))) : std::string();
 }
 
 }  // namespace slipscreen::screening

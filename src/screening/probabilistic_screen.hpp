@@ -53,4 +53,9 @@ probabilistic::UncertainModel uncertain_model(const scenario::ResolvedScenario& 
 // P(slip by output time k) of segment i, injection-induced only.
 double slip_probability(const ProbabilisticRun& run, std::size_t segment, std::size_t k);
 
+// The first date (ISO) on the tracking grid (tracked_times: every month, rate change and output
+// time) at which segment i's injection-induced P(slip) reaches `threshold`; empty if never by
+// the last output time.
+std::string first_date_reaching(const ProbabilisticRun& run, std::size_t segment, double threshold);
+
 }  // namespace slipscreen::screening

@@ -27,11 +27,16 @@ RunSummary summarize_run(const scenario::ResolvedScenario& s, const PreparedRun&
     line.final_dp = r.dp.back();
     line.status = r.status;
     if (r.first_crossing) line.first_crossing = util::format_iso_date(util::date_at(*r.first_crossing));
-    for (std::size_t w = 0; w < W; ++w)
-      if (r.well_share[(K - 1) * W + w] > line.leading_share) {
-        line.leading_share = r.well_share[(K - 1) * W + w];
+    // At the first crossing when there is one (a well starting later is never named for it),
+    // otherwise at the last output time.
+    line.leading_at_crossing = !r.crossing_share.empty();
+    for (std::size_t w = 0; w < W; ++w) {
+      const double share = line.leading_at_crossing ? r.crossing_share[w] : r.well_share[(K - 1) * W + w];
+      if (share > line.leading_share) {
+        line.leading_share = share;
         line.leading_well = prepared.wells[w].id;
       }
+    }
     summary.crossing_count += r.first_crossing.has_value();
     summary.already_critical_count += r.status == geomech::CriticalStatus::already_critical;
     summary.closest.push_back(line);
@@ -64,9 +69,8 @@ RunSummary summarize_run(const scenario::ResolvedScenario& s, const PreparedRun&
       f.p_final = ci.estimate;
       f.ci_low = ci.lower;
       f.ci_high = ci.upper;
-      for (std::size_t k = 0; k < K && f.first_date.empty(); ++k)
-        if (slip_probability(*prob, i, k) >= prob->thresholds.front())
-          f.first_date = util::format_iso_date(s.output.dates[k]);
+      f.p_already_critical = static_cast<double>(seg.already_critical) / static_cast<double>(pr.realizations);
+      f.first_date = first_date_reaching(*prob, i, f.threshold);
       ps.flagged.push_back(std::move(f));
     }
     std::stable_sort(ps.flagged.begin(), ps.flagged.end(),

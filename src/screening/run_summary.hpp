@@ -22,8 +22,9 @@ struct SegmentLine {
   double dp_crit = 0, peak_dp = 0, final_dp = 0;  // Pa
   std::optional<std::string> first_crossing;     // ISO date
   geomech::CriticalStatus status = geomech::CriticalStatus::below_failure;
-  std::string leading_well;                       // largest share at the last output time
+  std::string leading_well;   // largest share of Δp at the first crossing (else at the last output time)
   double leading_share = 0;
+  bool leading_at_crossing = false;  // the share is taken at the first crossing
 };
 
 // One fault segment of the probabilistic screen that reaches a probability threshold.
@@ -31,7 +32,9 @@ struct FlaggedSegment {
   std::string segment_id, fault_id;
   double p_final = 0, ci_low = 0, ci_high = 0;  // P(slip by the last output time) and its interval
   double threshold = 0;                          // the highest threshold reached
-  std::string first_date;                        // first output date at which it is reached
+  double p_already_critical = 0;                 // share of realizations critical before injection
+  std::string first_date;                        // first tracking date (monthly grid) at which
+                                                 // `threshold` is reached
 };
 
 struct ProbabilisticSummary {

@@ -18,6 +18,7 @@
 #include "scenario/scenario.hpp"
 #include "support/run_options_fixture.hpp"
 #include "support/scenario_fixture.hpp"
+#include "core/util/civil_date.hpp"
 
 namespace fs = std::filesystem;
 using namespace slipscreen;
@@ -193,4 +194,45 @@ TEST_CASE("all inputs fixed: the median well attribution is the deterministic we
     ++compared;
   }
   CHECK(compared == med_share.size());
+}
+
+TEST_CASE("first dates reaching a threshold: the tracking grid's brute-force scan, never after the output dates") {
+  TinyScenario t;
+  t.append("scenario.toml", kUncertainty);
+  const ResolvedScenario s = load_scenario(t.scenario());
+  const PreparedRun p = prepare_run(s, false);
+  std::vector<std::uint64_t> all(300);
+  for (std::uint64_t i = 0; i < all.size(); ++i) all[i] = i;
+  std::vector<std::size_t> segments(p.segments.size());
+  for (std::size_t i = 0; i < segments.size(); ++i) segments[i] = i;
+  const ProbabilisticRun run = run_probabilistic_screen(s, p, s.uncertainty, all, segments);
+  const double n = static_cast<double>(run.result.realizations);
+  const std::size_t K = s.output.times.size();
+  int reached = 0, earlier = 0;
+  for (std::size_t i = 0; i < segments.size(); ++i)
+    for (double th : {0.01, 0.05, 0.1, 0.25, 0.5}) {
+      // Brute force: every valid realization's own first crossing (the audit), counted at every
+      // tracking time; injection-induced only (0 < Δp_crit < ∞).
+      std::string expected;
+      for (std::size_t k = 0; k < run.tracked_times.size() && expected.empty(); ++k) {
+        double slipped = 0;
+        for (const auto& a : run.result.audit)
+          if (a.segment == i && a.dp_crit > 0 && std::isfinite(a.dp_crit) && a.first_crossing >= 0 &&
+              static_cast<std::size_t>(a.first_crossing) <= k)
+            ++slipped;
+        if (slipped / n >= th) expected = util::format_iso_date(util::date_at(run.tracked_times[k]));
+      }
+      std::string at_output;
+      for (std::size_t k = 0; k < K && at_output.empty(); ++k)
+        if (slip_probability(run, i, k) >= th) at_output = util::format_iso_date(s.output.dates[k]);
+      CAPTURE(i);
+      CAPTURE(th);
+      CHECK(first_date_reaching(run, i, th) == expected);
+      CHECK(expected.empty() == at_output.empty());  // the grid ends at the last output time
+      CHECK(expected <= at_output);                  // ISO dates order as text
+      reached += !expected.empty();
+      earlier += !expected.empty() && expected < at_output;
+    }
+  MESSAGE("thresholds reached: " << reached << ", of which before the first output date at the threshold: " << earlier);
+  CHECK(reached >= 1);
 }

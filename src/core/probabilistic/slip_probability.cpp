@@ -97,6 +97,7 @@ std::vector<double> count_slips(const Tracking& tr, const SegmentOutcome& o, Seg
     }
     const int first = o.first_crossing[c];
     if (first < 0) continue;
+    ++res.first_slip[static_cast<std::size_t>(first)];
     for (std::size_t t = 0; t < n_out; ++t)
       if (tr.settings.output_index[t] >= static_cast<std::size_t>(first)) ++res.slipped_by[t];
   }
@@ -212,6 +213,7 @@ SegmentResult segment_result(const Tracking& tr, const SegmentOutcome& o) {
   const std::size_t n = tr.r.keep.size(), n_out = tr.settings.output_index.size();
   SegmentResult res;
   res.slipped_by.assign(n_out, 0);
+  res.first_slip.assign(tr.settings.tracking_times.size(), 0);
   res.dp.assign(n_out, stats::QuantileSketch());
   // Δp by output time, each time's realizations contiguous (column t).
   const Eigen::MatrixXd by_time = o.dp_at_output.transpose();
@@ -242,6 +244,25 @@ void track_segments(const Tracking& tr, ProbabilisticResult& out) {
 }
 
 }  // namespace
+
+std::vector<std::uint64_t> slipped_by_tracking(const SegmentResult& segment) {
+  std::vector<std::uint64_t> by(segment.first_slip.size());
+  std::uint64_t sum = 0;
+  for (std::size_t k = 0; k < by.size(); ++k) by[k] = sum += segment.first_slip[k];
+  return by;
+}
+
+std::optional<std::size_t> first_tracking_index_reaching(const SegmentResult& segment, std::uint64_t realizations,
+                                                         double threshold) {
+  if (realizations == 0) return std::nullopt;
+  const double n = static_cast<double>(realizations);
+  std::uint64_t sum = 0;
+  for (std::size_t k = 0; k < segment.first_slip.size(); ++k) {
+    sum += segment.first_slip[k];
+    if (static_cast<double>(sum) / n >= threshold) return k;
+  }
+  return std::nullopt;
+}
 
 double MedianAttribution::share(std::size_t w) const {
   double total = 0.0;

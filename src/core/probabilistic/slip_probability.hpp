@@ -60,6 +60,10 @@ struct MedianAttribution {
 
 struct SegmentResult {
   std::vector<std::uint64_t> slipped_by;  // per output time: injection-induced slips by then
+  // Per tracking time k (RunSettings::tracking_times): injection-induced slips first reached at
+  // k, a histogram of the realizations' first crossings (exact to merge: integer counts). Its
+  // running sum up to output_index[t] equals slipped_by[t]; see slipped_by_tracking().
+  std::vector<std::uint64_t> first_slip;
   std::uint64_t already_critical = 0;     // realizations with Δp_crit ≤ 0 before injection
   std::uint64_t never_critical = 0;       // realizations where CFF cannot reach 0 (Δp_crit = +∞)
   stats::QuantileSketch dp_crit;          // finite Δp_crit values (Pa)
@@ -70,6 +74,15 @@ struct SegmentResult {
   // segment, so it merges across segment splits only (realization splits must gather Δp first).
   std::vector<MedianAttribution> median;
 };
+
+// Injection-induced slips by each tracking time: the running sum of `first_slip`.
+std::vector<std::uint64_t> slipped_by_tracking(const SegmentResult& segment);
+
+// The first tracking index at which slipped / realizations ≥ threshold (the same comparison as
+// at the output times), or nothing if never by the last tracking time. `realizations` = 0 gives
+// nothing.
+std::optional<std::size_t> first_tracking_index_reaching(const SegmentResult& segment, std::uint64_t realizations,
+                                                         double threshold);
 
 struct ProbabilisticResult {
   std::vector<std::string> input_names;   // sampled inputs, then "strike perturbation", "dip perturbation"

@@ -210,6 +210,29 @@ void track_peak_and_crossing(const TabulatedField& tf, const std::vector<double>
   }
 }
 
+// Each well's share of the exact Δp at the first crossing, at the check point holding the
+// maximum there (an output time: the exact maximum's point; otherwise the table maximum's, the
+// first on ties).
+void crossing_shares(const TabulatedField& tf, std::span<const hydro::FieldPoint> pts, const std::vector<double>& series,
+                     std::size_t pa, std::size_t pb, SegmentScreen& out) {
+  if (!out.first_crossing) return;
+  const std::size_t G = tf.tracked_times.size(), W = tf.in.wells.size();
+  const auto g = static_cast<std::size_t>(
+      std::lower_bound(tf.tracked_times.begin(), tf.tracked_times.end(), *out.first_crossing) - tf.tracked_times.begin());
+  std::size_t point = pa;
+  const auto k_out = std::find(tf.out_index.begin(), tf.out_index.end(), g);
+  if (k_out != tf.out_index.end()) point = pa + out.dp_point[static_cast<std::size_t>(k_out - tf.out_index.begin())];
+  else
+    for (std::size_t p = pa + 1; p < pb; ++p)
+      if (series[p * G + g] > series[point * G + g]) point = p;
+  const hydro::PreparedPoints one = tf.field.prepare(pts.subspan(point, 1));
+  const std::vector<double> ts{*out.first_crossing};
+  const hydro::PressureResult exact = tf.field.evaluate(one, ts, tf.in.formation, {}, true);
+  const double total = exact.at(0, 0);
+  out.crossing_share.assign(W, 0.0);
+  for (std::size_t w = 0; w < W; ++w) out.crossing_share[w] = total > 0 ? exact.contribution(0, 0, w) / total : 0.0;
+}
+
 // Screens the segments [s0, s1) as one block: table Δp at their check points, then each
 // segment's exact Δp at the output times, peak and first crossing. `series` is reused between
 // blocks. Returns whether a check point of the block lay within a well radius.
@@ -227,6 +250,7 @@ bool screen_block(const TabulatedField& tf, const CheckPoints& cps, std::size_t 
       const std::size_t pa = cps.first[s] - first, pb = cps.first[s + 1] - first;
       exact_output_dp(tf, pts, series, pa, pb, segments[s]);
       track_peak_and_crossing(tf, series, pa, pb, segments[s]);
+      crossing_shares(tf, pts, series, pa, pb, segments[s]);
     });
   errors.rethrow();
   return prepared.any_clamped();

@@ -91,6 +91,8 @@ struct SegmentScreen {
   std::vector<std::size_t> dp_point;   // per output time: the check point holding the max
   std::vector<double> well_share;      // [k * wells + w]: well w's fraction of dp[k] (0 if dp = 0)
   std::optional<double> first_crossing;  // s; empty when never reached or already critical
+  std::vector<double> crossing_share;  // per well: fraction of the exact Δp at first_crossing, at the
+                                       // check point holding the maximum there (empty without a crossing)
   std::vector<double> tracked_dp;      // Pa, per tracked time (ScreenResult::tracked_times): max over check points
                                        // (similarity-table values, exact at the output times)
   double peak_dp = 0;                  // Pa, max over the tracking grid and output times

@@ -7,6 +7,7 @@
 #include <boost/math/special_functions/expint.hpp>
 #include <cmath>
 #include <numbers>
+#include <optional>
 
 #include "core/errors.hpp"
 #include "core/geomech/fault_plane.hpp"
@@ -100,6 +101,24 @@ TEST_CASE("all inputs fixed: the probabilistic screen reproduces the determinist
   }
   // The case is built so that the nearest segment slips and the farthest does not.
   CHECK(res.segments[0].slipped_by.back() == 8);
+  // The first date on the tracking grid is the deterministic first crossing (every realization
+  // alike), not the first output time after it.
+  for (std::size_t s = 0; s < c.segments.size(); ++s) {
+    const auto first = first_tracking_index_reaching(res.segments[s], res.realizations, 0.5);
+    const auto by = slipped_by_tracking(res.segments[s]);
+    REQUIRE(by.size() == c.settings.tracking_times.size());
+    if (res.segments[s].slipped_by.back() == 0) {
+      CHECK_FALSE(first.has_value());
+      continue;
+    }
+    REQUIRE(first.has_value());
+    CHECK(res.segments[s].first_slip[*first] == 8);
+    CHECK(by[*first] == 8);
+    if (*first > 0) CHECK(by[*first - 1] == 0);
+  }
+  REQUIRE(first_tracking_index_reaching(res.segments[0], res.realizations, 0.5).has_value());
+  // The nearest segment crosses between output times (not at one), so the two dates differ.
+  CHECK(*first_tracking_index_reaching(res.segments[0], res.realizations, 0.5) < c.settings.output_index[0]);
   CHECK(res.segments[2].slipped_by.back() == 0);
 }
 
@@ -148,6 +167,11 @@ TEST_CASE("same seed gives identical results with 1 and 2 threads; P never decre
   REQUIRE(one.segments.size() == two.segments.size());
   for (std::size_t s = 0; s < one.segments.size(); ++s) {
     CHECK(one.segments[s].slipped_by == two.segments[s].slipped_by);
+    CHECK(one.segments[s].first_slip == two.segments[s].first_slip);
+    // The histogram's running sum at each output time is the output time's slip count.
+    const auto by = slipped_by_tracking(one.segments[s]);
+    for (std::size_t o = 0; o < c.settings.output_index.size(); ++o)
+      CHECK(by[c.settings.output_index[o]] == one.segments[s].slipped_by[o]);
     CHECK(one.segments[s].already_critical == two.segments[s].already_critical);
     CHECK(one.segments[s].dp_crit == two.segments[s].dp_crit);
     CHECK(one.segments[s].dp == two.segments[s].dp);
@@ -165,6 +189,37 @@ TEST_CASE("same seed gives identical results with 1 and 2 threads; P never decre
   const auto it = std::find(names.begin(), names.end(), "friction");
   REQUIRE(it != names.end());
   CHECK(one.segments[1].sensitivity[static_cast<std::size_t>(it - names.begin())] > 0.3);
+}
+
+TEST_CASE("first date reaching a threshold equals a brute-force scan of every realization's first crossing") {
+  Case c;
+  c.model.friction = Distribution::normal(0.6, 0.1);
+  c.model.permeability = Distribution::lognormal(2e-14, 0.7);
+  c.settings.realizations = 300;
+  for (std::uint64_t i = 0; i < 300; ++i) c.settings.audit_realizations.push_back(i);
+  c.settings.audit_segments = {0, 1, 2};
+  const auto res = run_probabilistic(c.model, c.wells, c.segments, c.settings);
+  const std::size_t n_t = c.settings.tracking_times.size();
+  int found = 0;
+  for (std::size_t s = 0; s < c.segments.size(); ++s)
+    for (double th : {0.01, 0.05, 0.1, 0.3, 0.5}) {
+      // Brute force: count, at every tracking time, the audited realizations (all of them) with
+      // 0 < Δp_crit < ∞ whose first crossing is at or before it.
+      std::optional<std::size_t> expected;
+      for (std::size_t k = 0; k < n_t && !expected; ++k) {
+        std::uint64_t slipped = 0;
+        for (const auto& a : res.audit)
+          if (a.segment == s && a.dp_crit > 0.0 && std::isfinite(a.dp_crit) && a.first_crossing >= 0 &&
+              static_cast<std::size_t>(a.first_crossing) <= k)
+            ++slipped;
+        if (static_cast<double>(slipped) / static_cast<double>(res.realizations) >= th) expected = k;
+      }
+      CAPTURE(s);
+      CAPTURE(th);
+      CHECK(first_tracking_index_reaching(res.segments[s], res.realizations, th) == expected);
+      found += expected.has_value();
+    }
+  CHECK(found >= 3);  // the case exercises crossings
 }
 
 TEST_CASE("bad input is rejected with the field named") {

@@ -242,6 +242,39 @@ TEST_CASE("well shares: two equal wells at equal distance share the pressure equ
   CHECK(sh[2] > 0.0);
 }
 
+TEST_CASE("well shares at the first crossing: a well starting later is not part of an earlier crossing") {
+  ScreenInputs in = base_inputs();
+  const double q = 0.02;
+  in.wells.push_back(well_at(0, 0, {0.0}, {q}));                     // 1 km from the check point
+  in.wells.push_back(well_at(1500, 0, {3 * kYear}, {0.2}));         // 500 m, from year 3, ten times the rate
+  in.wells.push_back(well_at(1000, 1500, {0.0}, {q}));              // 1.5 km, from the start
+  in.wells[1].id = "P1";
+  in.wells[2].id = "W3";
+  in.segments.push_back({"F:0", 50.0 * kPi / 180, 85.0 * kPi / 180, {{1000, 0}}, std::nullopt});
+  in.output_times = {0.5 * kYear, 5 * kYear};
+  for (int m = 1; m <= 60; ++m) in.tracking_times.push_back(m * kYear / 12);
+  const auto theis = [](double r, double t) { return 0.02 * 2.0e5 * e1(r * r / (4 * 0.4 * t)); };  // Theis (1935)
+  // Δp_crit moved to the value reached at 1.05 yr by W and W3 (P1 not yet injecting).
+  const ScreenResult r0 = deterministic_screen(in);
+  const double target = theis(1000, 1.05 * kYear) + theis(1500, 1.05 * kYear);
+  in.stress.pore_pressure += r0.segments[0].dp_crit - target;
+  const ScreenResult r = deterministic_screen(in);
+  const auto& s = r.segments[0];
+  REQUIRE(s.first_crossing.has_value());
+  const double tc = 13 * kYear / 12;  // the first monthly grid time after 1.05 yr
+  CHECK(*s.first_crossing == doctest::Approx(tc).epsilon(1e-15));
+  REQUIRE(s.crossing_share.size() == 3);
+  CHECK(s.crossing_share[1] == 0.0);  // P1 starts at year 3
+  const double w1 = theis(1000, tc), w3 = theis(1500, tc);
+  CHECK(std::abs(s.crossing_share[0] - w1 / (w1 + w3)) < 1e-9);
+  CHECK(std::abs(s.crossing_share[2] - w3 / (w1 + w3)) < 1e-9);
+  // At the last output time P1 holds the largest share: the rule at the peak or the last time
+  // would name it for a crossing that happened before it started.
+  CHECK(s.well_share[1 * 3 + 1] > s.well_share[1 * 3 + 0]);
+  CHECK(s.well_share[1 * 3 + 1] > s.well_share[1 * 3 + 2]);
+  CHECK(r0.segments[0].crossing_share.empty() == !r0.segments[0].first_crossing.has_value());
+}
+
 TEST_CASE("an already critical fault is reported, with no crossing time") {
   ScreenInputs in = base_inputs();
   in.friction.mu = 0.3;  // weak fault: optimally oriented planes fail at p0
@@ -252,6 +285,7 @@ TEST_CASE("an already critical fault is reported, with no crossing time") {
   CHECK(r.segments[0].status == geomech::CriticalStatus::already_critical);
   CHECK(r.segments[0].dp_crit <= 0.0);
   CHECK_FALSE(r.segments[0].first_crossing.has_value());
+  CHECK(r.segments[0].crossing_share.empty());
 }
 
 TEST_CASE("bad inputs are refused") {
