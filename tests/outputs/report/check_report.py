@@ -33,8 +33,9 @@ from pathlib import Path
 import pandas as pd
 from PIL import Image, ImageStat
 
-sys.path.insert(0, str(Path(__file__).resolve().parents[2] / "support"))
-from small_demo import copy_small_demo  # noqa: E402
+sys.dont_write_bytecode = True  # no __pycache__ in the source tree
+sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
+from reduced_demo import reduced_demo  # noqa: E402 (the demo copy shared by the checks in tests/outputs)
 
 CAUTION_START = "Screening estimate from simplified physics and uncertain inputs."
 SEGMENT_STROKE = "2.25"  # outputs/report/area_map.hpp, kSegmentStroke
@@ -199,7 +200,7 @@ def main():
     if len(sys.argv) != 4:
         fail(__doc__)
     slipscreen, source, work = (Path(a).resolve() for a in sys.argv[1:])
-    copy_small_demo(source, work, fail)
+    reduced_demo(source, work, fail)
     run([slipscreen, "run", "regions/marrowick/scenario.toml", "--out", "run", "--reproducible"], work)
     folder = work / "run"
     manifest = json.loads((folder / "manifest.json").read_text())
