@@ -97,7 +97,9 @@ std::vector<screening::RunWell> wells_of(const json& m, const std::string& shown
 
 void read_probabilities(const fs::path& folder, const std::string& shown, screening::RunRecord& r) {
   if (!report::RunTable::exists(folder, kProbabilityTable))
-    throw InputError(kProbabilityTable, "missing", kNeedsProbabilistic, shown);
+    throw InputError(kProbabilityTable, "missing",
+                     "the P(slip) table its manifest.json lists (the probabilistic screen ran; is the folder complete?)",
+                     shown);
   const auto t = report::RunTable::read(folder, kProbabilityTable);
   const auto c_seg = t.column("segment_id"), c_fault = t.column("fault_id"), c_date = t.column("date"),
              c_p = t.column("p_slip");
