@@ -72,6 +72,8 @@ void print_wells(const screening::Comparison& c, const outputs::OutputUnits& u, 
       << date_of(c.history_end_new) << ", " << u.symbol(V) << "): ";
   std::size_t shown = 0;
   for (const auto& w : c.wells) {
+    // A removed well is named above (its history, now gone, is in comparison.json).
+    if (w.change == screening::Change::removed) continue;
     if (w.volume_reported_new == 0 && w.volume_expected_old == 0 && w.volume_revised == 0) continue;
     if (shown++ == 0) out << "\n";
     if (shown > most) continue;

@@ -61,7 +61,7 @@ json catalog_json(const screening::CatalogChange& k) {
   };
   json j;
   j["old"] = review(k.old_reviewed, k.old_last_time, k.mc_old, k.b_old, k.sigma_old);
-  j["new"] = review(k.new_reviewed, std::nullopt, k.mc_new, k.b_new, k.sigma_new);
+  j["new"] = review(k.new_reviewed, k.new_last_time, k.mc_new, k.b_new, k.sigma_new);
   if (k.old_reviewed && k.new_reviewed) {
     json ev = json::array();
     for (const auto& e : k.new_events) ev.push_back({{"event_id", e.id}, {"time", e.time}, {"magnitude", e.magnitude}});

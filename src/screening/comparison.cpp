@@ -138,6 +138,7 @@ CatalogChange catalog_change(const RunRecord& o, const RunRecord& n) {
     c.sigma_old = o.catalog->sigma;
   }
   if (n.catalog) {
+    c.new_last_time = n.catalog->last_time;
     c.mc_new = n.catalog->mc;
     c.b_new = n.catalog->b;
     c.sigma_new = n.catalog->sigma;

@@ -120,7 +120,7 @@ struct ThresholdChange {
 
 struct CatalogChange {
   bool old_reviewed = false, new_reviewed = false;
-  std::optional<std::string> old_last_time;
+  std::optional<std::string> old_last_time, new_last_time;  // each review's last kept event
   std::vector<RunCatalogEvent> new_events;  // later events after the earlier last event
   std::optional<double> mc_old, mc_new, b_old, b_new, sigma_old, sigma_new;
 };

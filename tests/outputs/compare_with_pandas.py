@@ -13,6 +13,10 @@ checked with pandas and scipy (docs/compare.md):
 - an SI run against an oilfield run of the same scenario: the same P(slip) (no change anywhere)
   and the median dp columns equal after conversion (psi = 6894.757293168361 Pa, NIST SP 811
   App. B) within the rounding of the printed values;
+- an earlier review (histories to April 2026, catalog to 2026-01-01) against the later one: each
+  well's volume between the two histories' ends is the sum of the later histories' rows for those
+  months, nothing earlier is revised, and the new events are the later catalog's kept events after
+  the earlier review's last one;
 - refusals, each with a non-zero exit and both values or the file named: runs of different
   regions or working CRSs (a copy of the run with its manifest edited), a run missing
   segment_probability.csv, a folder that is not a run; an output folder that is a run (even with
@@ -163,6 +167,62 @@ def check_units(table, summary):
         fail(f"SI against oilfield: median dp differs beyond rounding at {table[bad].segment_id.tolist()[:3]}")
 
 
+def make_earlier_review(work):
+    """WORK/early: the scenario of WORK/a as an earlier review would have run it: the histories up to
+    April 2026 (the later months assumed, as continue_active_until does) and the catalog up to
+    2026-01-01."""
+    shutil.rmtree(work / "early", ignore_errors=True)
+    shutil.copytree(work / "a" / "regions", work / "early" / "regions")
+    shutil.copytree(work / "a" / "catalogs", work / "early" / "catalogs")
+    histories = work / "early" / "regions" / "marrowick" / "histories.csv"
+    lines = histories.read_text().splitlines(keepends=True)
+    kept = [line for line in lines if not any(f",2026-{m:02d}," in line for m in range(5, 13))]
+    if len(kept) == len(lines):
+        fail("the demo histories have no month after April 2026")
+    histories.write_text("".join(kept))
+    scenario = work / "early" / "regions" / "marrowick" / "scenario.toml"
+    text = scenario.read_text()
+    if text.count("[catalog]\n") != 1:
+        fail("the demo scenario no longer has one [catalog] table")
+    scenario.write_text(text.replace("[catalog]\n", '[catalog]\nto = "2026-01-01"\n'))
+
+
+def check_later_review(work, summary):
+    """The earlier review against the later one: volumes between the histories' ends are the
+    later histories' rows of May to October 2026 (bbl = 0.158987294928 m3, NIST SP 811 App. B),
+    nothing of the earlier history is revised, and the new events are the later review's kept
+    events after the earlier review's last one."""
+    interval = summary["wells"]["volume_interval"]
+    if interval != {"from": "2026-05-01T00:00:00Z", "to": "2026-11-01T00:00:00Z"}:
+        fail(f"the histories' ends {interval}: expected 2026-05-01 to 2026-11-01")
+    h = pd.read_csv(work / "a" / "regions" / "marrowick" / "histories.csv", comment="#")
+    h = h[(h.month >= "2026-05") & (h.month <= "2026-10")]
+    expected = (h.groupby("well")["volume [bbl]"].sum() * 0.158987294928).to_dict()
+    if not expected:
+        fail("the demo histories report nothing from May to October 2026")
+    for w in summary["wells"]["wells"]:
+        want = expected.get(w["well_id"], 0.0)
+        if abs(w["volume_reported_new_m3"] - want) > 1e-9 * max(want, 1.0) or w["volume_revised_before_old_end_m3"] != 0:
+            fail(f"{w['well_id']}: reported {w['volume_reported_new_m3']} m3 between the ends (expected {want}), "
+                 f"revised {w['volume_revised_before_old_end_m3']}")
+        if w["change"] != "unchanged":
+            fail(f"{w['well_id']} is {w['change']} between two reviews of the same wells")
+        if want > 0 and not w["volume_expected_old_m3"] > 0:
+            fail(f"{w['well_id']}: the earlier run assumed no volume after its history although the well was active")
+    changed = sorted(i["role"] for i in summary["inputs"] if i["change"] != "unchanged")
+    if changed != ["histories", "scenario"]:
+        fail(f"changed inputs {changed}, expected histories and scenario")
+    catalog = summary["catalog"]
+    events = pd.read_csv(work / "a" / "run" / "catalog_events.csv")
+    later = sorted(events.loc[pd.to_datetime(events.time) > pd.to_datetime(catalog["old"]["last_event"]), "event_id"])
+    found = sorted(e["event_id"] for e in catalog["events_after_old_last_event"])
+    if not later or found != later:
+        fail(f"{len(found)} events after the earlier review's last event; the later catalog has {len(later)}")
+    if catalog["old"]["last_event"] >= "2026-01-01" or catalog["change"]["sigma"] is None:
+        fail(f"the earlier review's catalog: {catalog['old']}, change {catalog['change']}")
+    return len(found)
+
+
 def edited_copy(run, copy, edit):
     shutil.rmtree(copy, ignore_errors=True)
     shutil.copytree(run, copy)
@@ -206,20 +266,30 @@ def main():
     run_checked([slipscreen, *scenario, "run"], work / "a", fail)
     run_checked([slipscreen, *scenario, "run-oilfield", "--units", "oilfield"], work / "a", fail)
     run_checked([slipscreen, *scenario, "run"], work / "b", fail)
-    for old in ("same", "removed", "units"):
+    make_earlier_review(work)
+    run_checked([slipscreen, *scenario, "run"], work / "early", fail)
+    for old in ("same", "removed", "units", "review"):
         shutil.rmtree(work / old, ignore_errors=True)
 
     table, summary, stdout = compare(slipscreen, work, "a/run", "a/run", "same")
     check_no_change(table, summary, stdout, "a run against itself")
     table, summary, stdout = compare(slipscreen, work, "a/run", "b/run", "removed")
     moved = check_well_removed(work, table, summary)
+    last = json.loads((work / "b" / "run" / "catalog_summary.json").read_text())["last_time"]
+    if summary["catalog"]["new"]["last_event"] != last or summary["catalog"]["old"]["last_event"] != last:
+        fail(f"the catalog's last events {summary['catalog']['old']}, {summary['catalog']['new']}: expected {last}")
     for name in [REMOVED, *moved]:
         if name not in stdout:
             fail(f"the summary does not name {name}")
     table, summary, _ = compare(slipscreen, work, "a/run", "a/run-oilfield", "units", "--units", "SI")
     check_units(table, summary)
+    _, summary, stdout = compare(slipscreen, work, "early/run", "a/run", "review")
+    new_events = check_later_review(work, summary)
+    if f"Catalog: {new_events} events after" not in stdout:
+        fail("the summary does not count the new events")
     check_refusals(slipscreen, work)
-    print(f"OK: itself: no change; {REMOVED} removed: moved {', '.join(moved)}; SI against oilfield: same P(slip)")
+    print(f"OK: itself: no change; {REMOVED} removed: moved {', '.join(moved)}; SI against oilfield: same P(slip); "
+          f"earlier review: {new_events} new events, volumes from the histories")
 
 
 if __name__ == "__main__":
