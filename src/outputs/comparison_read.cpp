@@ -180,6 +180,11 @@ screening::RunRecord read_run_record(const fs::path& folder, const std::string& 
   const json& prob = m["parameters"]["probabilistic"];
   flatten(prob.value("uncertainty", json::object()), "uncertainty", r.parameters);
   if (m["parameters"].contains("catalog")) flatten(m["parameters"]["catalog"], "catalog", r.parameters);
+  // An input file's path is no parameter: the inputs are compared by content (SHA-256), and the
+  // same file named from another working directory is the same input.
+  std::erase_if(r.parameters, [&](const auto& kv) {
+    return std::any_of(r.inputs.begin(), r.inputs.end(), [&](const auto& f) { return json(f.path).dump() == kv.second; });
+  });
   std::sort(r.parameters.begin(), r.parameters.end());
   const double n = need_number(m, "/parameters/probabilistic/realizations_valid", mf, shown);
   if (!(n >= 1.0))
