@@ -35,6 +35,10 @@ struct StressSpec {
   // model = a_phi (Simpson 1997): magnitudes from frictional equilibrium at this friction
   double a_phi = kUnset;               // 0..3
   double equilibrium_friction = kUnset;  // 1, defaults to the fault friction
+  // poroelastic_path = true: the horizontal stresses follow the pore pressure by
+  // κ = α(1−2ν)/(1−ν) (Engelder & Fischer 1994) with α = biot and ν = poisson_ratio (both
+  // required keys then for models other than uniaxial_strain, which shares them).
+  bool poroelastic_path = false;
 };
 
 struct FaultMapSpec {

@@ -65,9 +65,13 @@ void read_horizontal_stress(const formats::Section& s, const std::string& model,
   };
   const std::initializer_list<std::string_view> uniaxial_keys = {"poisson_ratio", "biot", "young_modulus", "strain_shmin", "strain_shmax",
                               "tectonic_shmin", "tectonic_shmax"};
+  // The poroelastic path's α and ν are the uniaxial-strain model's own keys (the same rock).
+  const std::initializer_list<std::string_view> uniaxial_only = {"young_modulus", "strain_shmin", "strain_shmax",
+                                                                 "tectonic_shmin", "tectonic_shmax"};
+  const auto forbid_uniaxial = [&] { st.poroelastic_path ? forbid(uniaxial_only) : forbid(uniaxial_keys); };
   switch (st.model) {
     case StressModel::gradients:
-      forbid(uniaxial_keys);
+      forbid_uniaxial();
       forbid({"a_phi", "equilibrium_friction"});
       st.shmax_gradient = checked(s, "shmax_gradient", Dimension::pressure_gradient, plausible::kHorizontalGradient);
       st.shmin_gradient = checked(s, "shmin_gradient", Dimension::pressure_gradient, plausible::kHorizontalGradient);
@@ -89,19 +93,27 @@ void read_horizontal_stress(const formats::Section& s, const std::string& model,
       st.tectonic_shmax = checked_or(s, "tectonic_shmax", Dimension::pressure, 0.0, plausible::kTectonicStress);
       break;
     case StressModel::a_phi:
-      forbid(uniaxial_keys);
+      forbid_uniaxial();
       forbid({"shmax_gradient", "shmin_gradient"});
       st.a_phi = checked(s, "a_phi", Dimension::dimensionless, {0.0, 3.0, false, false, "A_phi in [0, 3] (Simpson 1997)"});
       st.equilibrium_friction = checked_or(s, "equilibrium_friction", Dimension::dimensionless, fault_friction, kFriction);
       break;
   }
+  if (!st.poroelastic_path) return;
+  // Engelder & Fischer (1994): κ = α(1−2ν)/(1−ν); α = 0 would be no path at all.
+  if (st.model != StressModel::uniaxial_strain)
+    st.poisson_ratio = checked(s, "poisson_ratio", Dimension::dimensionless,
+                               {0.0, 0.4999, false, false, "a Poisson ratio in [0, 0.5)"});
+  st.biot = checked_or(s, "biot", Dimension::dimensionless, 1.0,
+                       {0.0, 1.0, true, false, "a Biot coefficient in (0, 1] (with poroelastic_path = true)"});
 }
 
 StressSpec read_stress(const formats::Section& s, double fault_friction) {
   s.allow({"model", "vertical_gradient", "overburden_density", "density_layers", "shmax_azimuth", "shmax_gradient",
            "shmin_gradient", "poisson_ratio", "biot", "young_modulus", "strain_shmin", "strain_shmax",
-           "tectonic_shmin", "tectonic_shmax", "a_phi", "equilibrium_friction"});
+           "tectonic_shmin", "tectonic_shmax", "a_phi", "equilibrium_friction", "poroelastic_path"});
   StressSpec st;
+  st.poroelastic_path = s.boolean_or("poroelastic_path", false);
   const std::string model = s.string("model");
   if (model == "gradients") st.model = StressModel::gradients;
   else if (model == "uniaxial_strain") st.model = StressModel::uniaxial_strain;

@@ -350,6 +350,7 @@ UncertaintyContext uncertainty_context(const ResolvedScenario& sc) {
   c.file = sc.file;
   c.seed = sc.seed;
   c.stress_model = sc.region.stress.model;
+  c.poroelastic_path = sc.region.stress.poroelastic_path;
   c.density_layers = !sc.region.stress.density_layers.empty();
   c.from_transmissivity = sc.region.formation.from_transmissivity;
   for (const auto& w : sc.wells) c.well_ids.push_back(w.id);
@@ -492,6 +493,11 @@ json stress_json(const StressSpec& st) {
       stress["a_phi"] = num(st.a_phi);
       stress["equilibrium_friction"] = num(st.equilibrium_friction);
       break;
+  }
+  stress["poroelastic_path"] = st.poroelastic_path;
+  if (st.poroelastic_path && st.model != StressModel::uniaxial_strain) {
+    stress["poisson_ratio"] = num(st.poisson_ratio);
+    stress["biot"] = num(st.biot);
   }
   return stress;
 }

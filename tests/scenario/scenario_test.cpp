@@ -133,6 +133,30 @@ TEST_CASE("the three stress forms and transmissivity-storativity") {
   CHECK(std::abs(theis_parameters_of(sh.region.formation).pressure_per_rate - 1000 * 9.80665 / (4 * 3.14159265358979323846 * 0.02)) < 1e-6);  // rho g/(4 pi T)
 }
 
+TEST_CASE("[stress] poroelastic_path takes biot and poisson_ratio, checked, with any stress model") {
+  TinyScenario t;
+  t.replace("region.toml", "a_phi = 1.5", "a_phi = 1.5\nporoelastic_path = true\nbiot = 0.7\npoisson_ratio = 0.3");
+  const auto s = load_scenario(t.scenario());
+  CHECK(s.region.stress.poroelastic_path);
+  CHECK(s.region.stress.biot == 0.7);
+  CHECK(s.region.stress.poisson_ratio == 0.3);
+  CHECK_FALSE(load_scenario(TinyScenario().scenario()).region.stress.poroelastic_path);
+  const std::pair<const char*, const char*> bad[] = {
+      {"poroelastic_path = true\nbiot = 0.7", "key 'stress.poisson_ratio': missing"},
+      {"poroelastic_path = true\nbiot = 0\npoisson_ratio = 0.3", "a Biot coefficient in (0, 1]"},
+      {"poroelastic_path = true\nbiot = 1.1\npoisson_ratio = 0.3", "a Biot coefficient in (0, 1]"},
+      {"poroelastic_path = true\npoisson_ratio = 0.5", "a Poisson ratio in [0, 0.5)"},
+      {"biot = 0.7", "no 'biot' with model = 'a_phi'"},
+      {"poroelastic_path = true\npoisson_ratio = 0.3\nyoung_modulus = \"20 GPa\"", "no 'young_modulus' with model = 'a_phi'"},
+  };
+  for (const auto& [text, message] : bad) {
+    CAPTURE(text);
+    TinyScenario b;
+    b.replace("region.toml", "a_phi = 1.5", std::string("a_phi = 1.5\n") + text);
+    CHECK_THROWS_WITH(load_scenario(b.scenario()), doctest::Contains(message));
+  }
+}
+
 TEST_CASE("active wells may continue at the mean rate of their last reported months") {
   TinyScenario t;
   t.replace("scenario.toml", "file = \"histories.csv\"", "file = \"histories.csv\"\ncontinue_active_until = \"2020-06-01\"");
