@@ -80,6 +80,12 @@ struct FormationSpec {
   double storativity = kUnset;            // 1
   double fluid_density = 1000.0;          // kg/m^3
   std::vector<BoundarySpec> boundaries;
+  // model = "leaky": Hantush & Jacob (1955) leaky formation (core/hydro/hantush.hpp), with the
+  // leakage factor B given or from the aquitard, B = sqrt(k h b'/k').
+  bool leaky = false;
+  double leakage_factor = kUnset;          // m, B (given or computed)
+  double aquitard_thickness = kUnset;      // m, b'
+  double aquitard_permeability = kUnset;   // m^2, k' (vertical)
 };
 
 struct RegionSpec {
@@ -94,7 +100,8 @@ struct RegionSpec {
   FormationSpec formation;
 };
 
-// The Theis parameters (D and μ/(4π k h)) of a formation (core/hydro/theis.hpp, Theis 1935).
+// The Theis parameters (D and μ/(4π k h)) of a formation (core/hydro/theis.hpp, Theis 1935), and
+// for a leaky formation its leakage rate c_L = D/B² (Hantush & Jacob 1955).
 // Throws InputError naming the field unless the values are finite and positive.
 hydro::TheisParameters theis_parameters_of(const FormationSpec& f);
 

@@ -156,9 +156,40 @@ FaultMapSpec read_faults(const formats::Section& s) {
   return f;
 }
 
+// [formation] model = "theis" | "leaky"; a leaky formation takes its leakage factor B directly
+// (leakage_factor) or from the aquitard (leakage = {aquitard_thickness, aquitard_permeability},
+// B = sqrt(k h b'/k'), Hantush & Jacob 1955).
+void read_leakage(const formats::Section& s, FormationSpec& f) {
+  const std::string model = s.optional_string("model").value_or("theis");
+  if (model == "leaky") f.leaky = true;
+  else if (model != "theis") s.fail("model", model, "'theis' or 'leaky'");
+  const bool given = s.has("leakage"), factor = s.has("leakage_factor");
+  if (!f.leaky) {
+    if (given || factor)
+      s.fail(given ? "leakage" : "leakage_factor", "(set)", "model = 'leaky' for a leaky formation (the model is 'theis')");
+    return;
+  }
+  if (given == factor)
+    s.fail("leakage", given ? "(with leakage_factor)" : "(missing)",
+           "exactly one of leakage = {aquitard_thickness, aquitard_permeability} or leakage_factor with model = 'leaky'");
+  if (factor) {
+    f.leakage_factor = checked(s, "leakage_factor", Dimension::length,
+                               {1.0, 1e12, false, false, "a leakage factor B from 1 m to 1e12 m"});
+    return;
+  }
+  if (f.from_transmissivity)
+    s.fail("leakage", "(aquitard)", "leakage_factor for a formation given by transmissivity (B = sqrt(T b'/K') needs "
+                                     "the aquitard's hydraulic conductivity; give B directly)");
+  const formats::Section a = s.child("leakage");
+  a.allow({"aquitard_thickness", "aquitard_permeability"});
+  f.aquitard_thickness = checked(a, "aquitard_thickness", Dimension::length,
+                                 {0.1, 5000.0, false, false, "an aquitard thickness from 0.1 m to 5 km"});
+  f.aquitard_permeability = checked(a, "aquitard_permeability", Dimension::permeability, plausible::kPermeability);
+}
+
 FormationSpec read_formation(const formats::Section& s) {
   s.allow({"name", "permeability", "thickness", "porosity", "total_compressibility", "viscosity",
-           "transmissivity", "storativity", "fluid_density", "boundary"});
+           "transmissivity", "storativity", "fluid_density", "boundary", "model", "leakage", "leakage_factor"});
   FormationSpec f;
   f.name = s.optional_string("name").value_or("");
   f.from_transmissivity = s.has("transmissivity") || s.has("storativity");
@@ -177,6 +208,7 @@ FormationSpec read_formation(const formats::Section& s) {
     f.viscosity = checked(s, "viscosity", Dimension::viscosity, plausible::kViscosity);
     f.fluid_density = checked_or(s, "fluid_density", Dimension::density, 1000.0, plausible::kFluidDensity);
   }
+  read_leakage(s, f);
   for (const formats::Section& bs : s.table_array("boundary", "an array of tables [[formation.boundary]]")) {
     bs.allow({"kind", "from", "to"});
     BoundarySpec bd;

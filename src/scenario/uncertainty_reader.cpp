@@ -258,7 +258,19 @@ void read_settings(const formats::Section& top, const UncertaintyContext& ctx, U
 void read_formation(const formats::Section& formation, const UncertaintyContext& ctx, UncertaintySpec& spec) {
   const std::vector<KeySpec>& keys = ctx.from_transmissivity ? kTransmissivityFormKeys : kPermeabilityFormKeys;
   formation.allow(key_names(keys));
+  const std::size_t before = spec.values.size();
   read_keys(formation, keys, "formation.", spec);
+  // A leaky formation keeps c_L = D/B² fixed across realizations (docs/pressure.md), which holds
+  // for an uncertain k (or T) alone: B² ∝ k and D ∝ k.
+  if (ctx.leaky)
+    for (std::size_t i = before; i < spec.values.size(); ++i) {
+      const UncertainValue& v = spec.values[i];
+      if (v.key != "formation.permeability" && v.key != "formation.transmissivity")
+        throw InputError("uncertainty." + v.key, v.text,
+                         "a fixed value: with [formation] model = 'leaky' only the permeability (or transmissivity) "
+                         "may be uncertain",
+                         v.where);
+    }
 }
 
 // [uncertainty.faults] (every fault) and [uncertainty.fault."id"] (the friction of one fault;

@@ -19,6 +19,7 @@ struct UncertaintyContext {
   bool poroelastic_path = false;      // [stress] poroelastic_path: biot and poisson_ratio may be uncertain
   bool density_layers = false;        // Sv from a density table (no vertical_gradient)
   bool from_transmissivity = false;   // formation given as T and S
+  bool leaky = false;                 // [formation] model = "leaky": only k (or T) may be uncertain
   std::vector<std::string> well_ids;  // existing and proposed wells
 };
 // Reads an [uncertainty] table (null: not given, the defaults above). Throws InputError naming

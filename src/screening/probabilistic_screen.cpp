@@ -136,6 +136,7 @@ ProbabilisticRun run_probabilistic_screen(const scenario::ResolvedScenario& s, c
   set.realizations = spec.realizations.value();
   set.method = spec.sampler;
   set.boundaries = p.inputs.boundaries;
+  set.leakage_rate = p.inputs.formation.leakage_rate;  // leaky formation: c_L = D/B², fixed
   run.tracked_times = screen::tracking_grid(changes, s.output.times);
   if (run.tracked_times.empty()) run.tracked_times = s.output.times;
   set.tracking_times = run.tracked_times;

@@ -141,6 +141,18 @@ TEST_CASE("the poroelastic path's biot and poisson_ratio may be uncertain, in th
   CHECK_THROWS_WITH(scenario::load_scenario(b.scenario()), doctest::Contains("expected a distribution of values in (0, 1]"));
 }
 
+TEST_CASE("a leaky formation allows only the permeability to be uncertain") {
+  TinyScenario t;
+  t.replace("region.toml", "viscosity = \"0.5 cP\"", "viscosity = \"0.5 cP\"\nmodel = \"leaky\"\nleakage_factor = \"4 km\"");
+  t.append("scenario.toml", "\n[uncertainty]\nrealizations = 10\n[uncertainty.formation]\n"
+                            "permeability = \"lognormal(median=200 mD, sigma_ln=0.3)\"\n");
+  CHECK(scenario::load_scenario(t.scenario()).uncertainty.values.size() == 1);
+  t.append("scenario.toml", "porosity = \"uniform(0.08, 0.12)\"\n");
+  CHECK_THROWS_WITH(scenario::load_scenario(t.scenario()),
+                    doctest::Contains("field 'uncertainty.formation.porosity' = 'uniform(0.08, 0.12)': expected a fixed value: "
+                                      "with [formation] model = 'leaky'"));
+}
+
 TEST_CASE("the spec does not depend on the order of the lines") {
   const auto a = with_block("[uncertainty]\nsampler = \"lhs\"\nrealizations = 50\n[uncertainty.faults]\nfriction = \"uniform(0.5, 0.7)\"\n"
                             "cohesion = \"uniform(0 MPa, 1 MPa)\"\n");

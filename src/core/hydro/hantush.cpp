@@ -27,6 +27,14 @@ double upper_side(double u, double c) {
   return std::exp(-(u + c)) * integral;
 }
 
+// Small c = β²/(4u): W = Σ_n (−c)^n/n! E_{n+1}(u) (expanding exp(−β²/(4y)) in the integral),
+// E_{n+1} = (e^−u − u E_n)/n. Four terms; the first omitted one is below c⁴/24 · E1(u).
+double small_leakage_series(double u, double c) {
+  const double e1 = well_function(u), ex = std::exp(-u);
+  const double e2 = ex - u * e1, e3 = 0.5 * (ex - u * e2), e4 = (ex - u * e3) / 3.0;
+  return e1 - c * (e2 - 0.5 * c * (e3 - c * e4 / 3.0));
+}
+
 }  // namespace
 
 double leaky_well_function(double u, double beta) {
@@ -34,7 +42,10 @@ double leaky_well_function(double u, double beta) {
   if (!(u >= 0.0) || !(beta >= 0.0) || std::isinf(beta)) return nan;
   if (beta == 0.0) return well_function(u);
   if (u > kWellFunctionUnderflow) return 0.0;  // W(u, β) ≤ E1(u) < the smallest normal double
-  if (u >= 0.5 * beta) return upper_side(u, beta * beta / (4.0 * u));  // c = β²/(4u) ≤ u
+  if (u >= 0.5 * beta) {
+    const double c = beta * beta / (4.0 * u);  // ≤ u
+    return c <= 1e-4 ? small_leakage_series(u, c) : upper_side(u, c);
+  }
   // Reflection: W(u, β) = 2K0(β) − W(β²/(4u), β), with β²/(4u) > β/2.
   const double k0 = 2.0 * boost::math::cyl_bessel_k(0, beta);
   if (u == 0.0) return k0;

@@ -29,6 +29,11 @@
 // rounding for u ≳ 250, refining to thousands of panels). For u < β/2 the
 // reflection 2K0(β) − W(β²/(4u), β) is used (K0 from Boost.Math): there W ≥ K0(β) ≥ the
 // subtracted term, so the subtraction loses at most one bit. β = 0 returns E1 (well_function.hpp).
+// Where c = β²/(4u) ≤ 1e-4 (a nearly impervious aquitard, or early times) the series
+// W = Σ_n (−c)^n/n! E_{n+1}(u) (expanding exp(−β²/(4y)) under the integral) is summed to four
+// terms with E_{n+1} = (e^−u − u E_n)/n: the remainder is below c⁴/24 · E1 ≤ 5e-18 E1, and the
+// recurrence's growth of rounding (about u per step) is multiplied by c^n, so this path is as
+// accurate as E1 itself and costs two exponentials and one E1.
 //
 // Accuracy: ≤ 1e-12 relative against scipy.integrate.quad of the defining integral (run at test
 // time; observed 2.8e-14) over 1e-10 ≤ u ≤ 500 and 1e-6 ≤ β ≤ 20; W(u, β) equals E1(u) within

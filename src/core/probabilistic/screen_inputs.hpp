@@ -93,6 +93,9 @@ struct RunSettings {
   std::vector<double> tracking_times;    // s, increasing, every output time included
   std::vector<std::size_t> output_index; // tracking index of each output time
   std::vector<hydro::Boundary> boundaries;
+  // Leaky formation (hydro/hantush.hpp): c_L = D/B² [1/s], the same in every realization (only
+  // the permeability or transmissivity may then be uncertain: B² ∝ k, D ∝ k). 0: Theis.
+  double leakage_rate = 0.0;
   // Chebyshev nodes in ln D; 0: automatic, 8 per e-fold of D_max/D_min (at least 4, at most 64).
   std::size_t surrogate_nodes = 0;
   // Probability maps for unmapped faults: pixel centres (working CRS). For each pixel, the

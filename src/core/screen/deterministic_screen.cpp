@@ -110,7 +110,7 @@ std::vector<hydro::SimilarityTable> similarity_tables(const TabulatedField& tf,
         r2_max = std::max(r2_max, (p.x - src.x) * (p.x - src.x) + (p.y - src.y) * (p.y - src.y));
   }
   const hydro::SimilarityGrid grid{std::log(rw_min * rw_min * tf.inv4d) - 0.1, std::log(r2_max * tf.inv4d) + 0.1,
-                                   kTableStep};
+                                   kTableStep, tf.in.formation.leakage_rate};
   return hydro::build_tables(steps, tf.tracked_times, grid);
 }
 
