@@ -54,7 +54,13 @@ void print_scenario_summary(const scenario::ResolvedScenario& s, std::ostream& o
       << quantity(u, r.faults.segment_length, Q::length, 0) << ", " << r.faults.check_points << " check points each\n";
   const auto& f = r.formation;
   out << "  formation: " << (f.name.empty() ? "(unnamed)" : f.name) << ", diffusivity " << std::setprecision(3)
-      << scenario::theis_parameters_of(f).diffusivity << " m2/s\n";
+      << scenario::theis_parameters_of(f).diffusivity << " m2/s";
+  if (f.leaky) {
+    const auto tp = scenario::theis_parameters_of(f);
+    out << ", leaky (Hantush & Jacob 1955), leakage factor B = "
+        << quantity(u, std::sqrt(tp.diffusivity / tp.leakage_rate), Q::length, 0);
+  }
+  out << "\n";
 
   int existing = 0, proposed = 0, shut = 0;
   double first = std::numeric_limits<double>::infinity(), last = -first, volume = 0;
