@@ -1,6 +1,9 @@
 #include "outputs/run_outputs.hpp"
 
+#include <cmath>
+
 #include "core/caution.hpp"
+#include "core/util/number_text.hpp"
 #include "formats/files/manifest.hpp"
 #include "outputs/catalog_review_files.hpp"
 #include "outputs/gis_layers.hpp"
@@ -65,6 +68,11 @@ ReadmeContent run_readme(const scenario::ResolvedScenario& s, const RunResults& 
                                      "GeoTIFFs (dp in MPa) and the JSON files in SI")};
   if (s.region.stress.poroelastic_path)
     c.facts.push_back("Stress path: " + screening::stress_path_statement(s.region.stress));
+  if (s.region.formation.leaky)
+    c.facts.push_back("Formation: leaky (Hantush & Jacob 1955), W(u, r/B) in place of Theis's E1, leakage factor B = " +
+                      util::number_text(std::sqrt(r.prepared.inputs.formation.diffusivity /
+                                                  r.prepared.inputs.formation.leakage_rate), 6) +
+                      " m (docs/pressure.md)");
   const std::string crs = r.prepared.working.authority();
   if (!crs.empty()) c.facts.push_back("Working CRS: " + crs + " (coordinates in metres)");
   if (s.output.report)
