@@ -350,8 +350,10 @@ UncertaintyContext uncertainty_context(const ResolvedScenario& sc) {
   c.file = sc.file;
   c.seed = sc.seed;
   c.stress_model = sc.region.stress.model;
+  c.poroelastic_path = sc.region.stress.poroelastic_path;
   c.density_layers = !sc.region.stress.density_layers.empty();
   c.from_transmissivity = sc.region.formation.from_transmissivity;
+  c.leaky = sc.region.formation.leaky;
   for (const auto& w : sc.wells) c.well_ids.push_back(w.id);
   return c;
 }
@@ -493,6 +495,11 @@ json stress_json(const StressSpec& st) {
       stress["equilibrium_friction"] = num(st.equilibrium_friction);
       break;
   }
+  stress["poroelastic_path"] = st.poroelastic_path;
+  if (st.poroelastic_path && st.model != StressModel::uniaxial_strain) {
+    stress["poisson_ratio"] = num(st.poisson_ratio);
+    stress["biot"] = num(st.biot);
+  }
   return stress;
 }
 
@@ -517,6 +524,13 @@ json formation_json(const FormationSpec& fm) {
     bounds.push_back({{"kind", b.kind == BoundarySpec::Kind::no_flow ? "no_flow" : "constant_pressure"},
                       {"from", {b.x1, b.y1}}, {"to", {b.x2, b.y2}}});
   formation["boundaries"] = bounds;
+  formation["model"] = fm.leaky ? "leaky (Hantush & Jacob 1955)" : "theis";
+  if (fm.leaky) {
+    formation["leakage_factor_m"] = std::sqrt(theis.diffusivity / theis.leakage_rate);
+    formation["leakage_rate_per_s"] = theis.leakage_rate;
+    formation["aquitard_thickness_m"] = num(fm.aquitard_thickness);
+    formation["aquitard_permeability_m2"] = num(fm.aquitard_permeability);
+  }
   return formation;
 }
 
