@@ -1,13 +1,53 @@
 #include "outputs/report/figure.hpp"
 
 #include <map>
+#include <mutex>
 #include <sstream>
 #include <string_view>
 
 #include "formats/files/text_file.hpp"
 #include "formats/table/csv.hpp"
+#include "outputs/report/run_table.hpp"
 
 namespace slipscreen::outputs::report {
+
+struct RunFileCache {
+  std::mutex mutex;
+  std::map<std::string, RunTable> tables;
+  std::map<std::pair<std::string, std::string>, std::vector<formats::LayerFeature>> layers;
+  std::map<std::pair<std::string, std::string>, bool> has_layers;
+  std::map<std::string, formats::RasterBandData> last_bands;
+};
+
+std::shared_ptr<RunFileCache> new_run_file_cache() { return std::make_shared<RunFileCache>(); }
+
+const RunTable& ReportSource::table(const std::string& file) const {
+  std::lock_guard lock(cache->mutex);
+  auto it = cache->tables.find(file);
+  if (it == cache->tables.end()) it = cache->tables.emplace(file, RunTable::read(folder, file)).first;
+  return it->second;
+}
+
+bool ReportSource::has_layer(const std::string& file, const std::string& layer) const {
+  std::lock_guard lock(cache->mutex);
+  auto it = cache->has_layers.find({file, layer});
+  if (it == cache->has_layers.end()) it = cache->has_layers.emplace(std::pair{file, layer}, formats::has_layer(folder / file, layer)).first;
+  return it->second;
+}
+
+const std::vector<formats::LayerFeature>& ReportSource::layer(const std::string& file, const std::string& layer) const {
+  std::lock_guard lock(cache->mutex);
+  auto it = cache->layers.find({file, layer});
+  if (it == cache->layers.end()) it = cache->layers.emplace(std::pair{file, layer}, formats::read_layer(folder / file, layer)).first;
+  return it->second;
+}
+
+const formats::RasterBandData& ReportSource::last_band(const std::string& file) const {
+  std::lock_guard lock(cache->mutex);
+  auto it = cache->last_bands.find(file);
+  if (it == cache->last_bands.end()) it = cache->last_bands.emplace(file, formats::read_raster_band(folder / file, 0)).first;
+  return it->second;
+}
 
 std::string renumber_svg_ids(std::string_view svg, const std::string& prefix) {
   // Cairo numbers glyphs, clips, images and surfaces with counters that can run across the

@@ -51,6 +51,10 @@ std::string number_label(double v, double step) {
 
 }  // namespace
 
+void well_triangle(Canvas& c, Point p, double r, const formats::Colour& fill, const Stroke& outline) {
+  c.polygon({{p.x, p.y - r}, {p.x + r * 0.866, p.y + r * 0.5}, {p.x - r * 0.866, p.y + r * 0.5}}, fill, outline);
+}
+
 std::vector<Tick> linear_ticks(double lo, double hi, int target) {
   std::vector<Tick> out;
   if (!(hi > lo) || !std::isfinite(lo) || !std::isfinite(hi)) return out;
@@ -154,6 +158,7 @@ void FigurePage::legend_right(const std::vector<LegendEntry>& entries, const std
       case LegendEntry::Mark::band: c_.rectangle({x, cy - 4, 12, 8}, e.colour, std::nullopt); break;
       case LegendEntry::Mark::dot: c_.circle({x + 6, cy}, 3.2, e.colour, Stroke{.colour = formats::kInk, .width = 0.4}); break;
       case LegendEntry::Mark::square: c_.rectangle({x + 2, cy - 4, 8, 8}, e.colour, Stroke{.width = 0.4}); break;
+      case LegendEntry::Mark::triangle: well_triangle(c_, {x + 6, cy}, 4.6, e.colour, Stroke{.width = 0.4}); break;
     }
     const Box b = c_.text({x + 16, cy}, e.label, {.size = kTickSize, .v = VAlign::middle, .wrap_width = w - 16});
     y += std::max(kTickSize * 1.5, b.h + 2);
