@@ -167,7 +167,10 @@ void FigurePage::legend_right(const std::vector<LegendEntry>& entries, const std
 }
 
 void FigurePage::colour_bar_right(Ramp ramp, const Axis& scale) {
-  const double bar_w = 10, label_w = 44;
+  // The label sits above the bar, starting at its left edge, and the bar takes the room of the
+  // wider of its tick labels and its label, so that neither runs into the plot beside it.
+  const double bar_w = 10;
+  const double label_w = std::max(44.0, c_.measure(scale.label, {.size = kTickSize}).w + 4 - bar_w);
   const double x = body_.right() - bar_w - label_w;
   const double top = body_.y + 16, bottom = body_.bottom() - 24;
   const int steps = 64;
@@ -183,7 +186,7 @@ void FigurePage::colour_bar_right(Ramp ramp, const Axis& scale) {
     c_.line({{x + bar_w, y}, {x + bar_w + 3, y}}, {.width = 0.5});
     c_.text({x + bar_w + 5, y}, t.label, {.size = kTickSize, .v = VAlign::middle});
   }
-  c_.text({x + bar_w / 2, top - 4}, scale.label, {.size = kTickSize, .h = HAlign::centre, .v = VAlign::bottom});
+  c_.text({x, top - 4}, scale.label, {.size = kTickSize, .h = HAlign::left, .v = VAlign::bottom});
   body_.w -= bar_w + label_w + 8;
 }
 
