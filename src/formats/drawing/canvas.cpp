@@ -367,7 +367,7 @@ void png_flush(png_structp) {}
 
 // Writes Cairo's ARGB32 image (premultiplied, native-endian words) as an 8-bit PNG: RGB when
 // every pixel is opaque (a figure on paper white), else RGBA with straight alpha. libpng at
-// compression level 2 with the Sub filter: the pixels are those Cairo's own writer stores, at a
+// compression level 1 with the Sub filter: the pixels are those Cairo's own writer stores, at a
 // fraction of its time (the report's PNGs are many and mostly flat colour; docs/report.md, "Speed").
 // Only plain data lives in this frame, so that libpng's longjmp on an error skips no destructor.
 bool encode_png(png_structp png, png_infop info, const unsigned char* data, int w, int h, int stride, bool opaque,
@@ -376,7 +376,7 @@ bool encode_png(png_structp png, png_infop info, const unsigned char* data, int 
   png_set_IHDR(png, info, static_cast<png_uint_32>(w), static_cast<png_uint_32>(h), 8,
                opaque ? PNG_COLOR_TYPE_RGB : PNG_COLOR_TYPE_RGB_ALPHA, PNG_INTERLACE_NONE, PNG_COMPRESSION_TYPE_DEFAULT,
                PNG_FILTER_TYPE_DEFAULT);
-  png_set_compression_level(png, 2);
+  png_set_compression_level(png, 1);
   png_set_filter(png, PNG_FILTER_TYPE_BASE, PNG_FILTER_SUB);
   png_write_info(png, info);
   for (int y = 0; y < h; ++y) {

@@ -6,6 +6,7 @@
 #include <map>
 #include <optional>
 
+#include "core/util/number_text.hpp"
 #include "formats/gis/run_layers.hpp"
 #include "outputs/report/figure_support.hpp"
 #include "outputs/report/report_tables.hpp"
@@ -93,7 +94,7 @@ void draw_map(formats::Canvas& c, const MapData& m, const std::string& title) {
                       status_colour(st), proposed ? LegendEntry::Mark::triangle : LegendEntry::Mark::dot});
   if (!m.events.empty()) legend.push_back({"earthquake (size: magnitude)", formats::rgb(0xffffff), LegendEntry::Mark::dot});
   if (!m.footprint.empty() || m.raster)
-    legend.push_back({"Δp = " + data_number(m.footprint_level * mpa) + " " + formats::markup_escape(m.pressure.suffix),
+    legend.push_back({"Δp = " + util::number_text(m.footprint_level * mpa, 3) + " " + formats::markup_escape(m.pressure.suffix),
                       formats::rgb(0x0072b2), LegendEntry::Mark::line});
   // The map frame: the body with the data's aspect ratio (metres equal in x and y), above a
   // row of legend entries.

@@ -94,9 +94,13 @@ Figure magnitude_time(const std::vector<Event>& events, double mc) {
               nice_axis(std::min(m0, mc) - 0.2, m1 + 0.2, "magnitude"));
     plot.axes();
     plot.hline(mc, {.colour = kMc, .width = 1.0, .dash = {4, 3}});
+    // One clip for all events (a clip per dot would be one clip path per event in the SVG).
+    c.clip(plot.frame());
     for (const auto& e : events)
-      plot.dots({e.days}, {e.magnitude}, 1.6 + 1.1 * std::max(0.0, e.magnitude - m0), e.inside ? kInside : kOutside,
-                Stroke{.colour = formats::kPaper, .width = 0.4});
+      if (std::isfinite(e.days) && std::isfinite(e.magnitude))
+        c.circle(plot.to_page(e.days, e.magnitude), 1.6 + 1.1 * std::max(0.0, e.magnitude - m0), e.inside ? kInside : kOutside,
+                 Stroke{.colour = formats::kPaper, .width = 0.4});
+    c.unclip();
     page.footer();
   };
   return f;
@@ -366,20 +370,27 @@ Figure event_map(const std::vector<Event>& events, const formats::RasterBandData
     c.clip(plot.frame());
     c.lines(edges, {.width = 1.2});
     c.unclip();
+    c.clip(plot.frame());
+    std::vector<std::vector<formats::Point>> lines;
     for (const auto& fault : faults)
       for (const auto& part : fault.parts) {
-        std::vector<double> x, y;
-        for (const auto& [px, py] : part) x.push_back(px / 1000), y.push_back(py / 1000);
-        plot.line(x, y, {.colour = formats::rgb(0x3a3f45), .width = 1.3});
+        lines.emplace_back();
+        for (const auto& [px, py] : part) lines.back().push_back(plot.to_page(px / 1000, py / 1000));
       }
+    c.lines(lines, {.colour = formats::rgb(0x3a3f45), .width = 1.3});
+    c.unclip();
     for (const auto& w : wells)
       for (const auto& part : w.parts)
         for (const auto& [px, py] : part) {
           const formats::Point q = plot.to_page(px / 1000, py / 1000);
           well_triangle(c, q, 4.2, formats::kInk, Stroke{.colour = formats::kPaper, .width = 0.5});
         }
+    c.clip(plot.frame());
     for (const auto& e : events)
-      plot.dots({e.x / 1000}, {e.y / 1000}, 2.2, e.inside ? kInside : kOutside, Stroke{.colour = formats::kPaper, .width = 0.4});
+      if (std::isfinite(e.x) && std::isfinite(e.y))
+        c.circle(plot.to_page(e.x / 1000, e.y / 1000), 2.2, e.inside ? kInside : kOutside,
+                 Stroke{.colour = formats::kPaper, .width = 0.4});
+    c.unclip();
     page.footer();
   };
   return f;

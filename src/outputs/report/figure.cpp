@@ -21,32 +21,39 @@ struct RunFileCache {
 
 std::shared_ptr<RunFileCache> new_run_file_cache() { return std::make_shared<RunFileCache>(); }
 
+namespace {
+
+// The cached value of `key` in `map`, read by `read()` on first use. The read runs outside the
+// lock, so builders on other threads read other files meanwhile; when two read the same file at
+// once, the first value stored is kept (both are the same file's).
+template <class Map, class Key, class Read>
+const typename Map::mapped_type& cached(std::mutex& mutex, Map& map, const Key& key, Read&& read) {
+  {
+    std::lock_guard lock(mutex);
+    if (const auto it = map.find(key); it != map.end()) return it->second;
+  }
+  auto value = read();
+  std::lock_guard lock(mutex);
+  return map.emplace(key, std::move(value)).first->second;
+}
+
+}  // namespace
+
 const RunTable& ReportSource::table(const std::string& file) const {
-  std::lock_guard lock(cache->mutex);
-  auto it = cache->tables.find(file);
-  if (it == cache->tables.end()) it = cache->tables.emplace(file, RunTable::read(folder, file)).first;
-  return it->second;
+  return cached(cache->mutex, cache->tables, file, [&] { return RunTable::read(folder, file); });
 }
 
 bool ReportSource::has_layer(const std::string& file, const std::string& layer) const {
-  std::lock_guard lock(cache->mutex);
-  auto it = cache->has_layers.find({file, layer});
-  if (it == cache->has_layers.end()) it = cache->has_layers.emplace(std::pair{file, layer}, formats::has_layer(folder / file, layer)).first;
-  return it->second;
+  return cached(cache->mutex, cache->has_layers, std::pair{file, layer},
+                [&] { return formats::has_layer(folder / file, layer); });
 }
 
 const std::vector<formats::LayerFeature>& ReportSource::layer(const std::string& file, const std::string& layer) const {
-  std::lock_guard lock(cache->mutex);
-  auto it = cache->layers.find({file, layer});
-  if (it == cache->layers.end()) it = cache->layers.emplace(std::pair{file, layer}, formats::read_layer(folder / file, layer)).first;
-  return it->second;
+  return cached(cache->mutex, cache->layers, std::pair{file, layer}, [&] { return formats::read_layer(folder / file, layer); });
 }
 
 const formats::RasterBandData& ReportSource::last_band(const std::string& file) const {
-  std::lock_guard lock(cache->mutex);
-  auto it = cache->last_bands.find(file);
-  if (it == cache->last_bands.end()) it = cache->last_bands.emplace(file, formats::read_raster_band(folder / file, 0)).first;
-  return it->second;
+  return cached(cache->mutex, cache->last_bands, file, [&] { return formats::read_raster_band(folder / file, 0); });
 }
 
 std::string renumber_svg_ids(std::string_view svg, const std::string& prefix) {

@@ -288,9 +288,18 @@ std::string pdf_report(const ReportDocument& d, const std::vector<Figure>& figur
 std::vector<std::string> write_report(const ReportSource& source, const ReportOptions& o,
                                       const std::vector<FigureBuilder>& builders, const fs::path& into) {
   page_size(o.page);  // refuses an unknown page before anything is drawn
+  // The builders read the run's files (each once, source's cache) and are independent of each
+  // other: they run in parallel, and their figures are kept in the builders' order.
+  std::vector<std::vector<Figure>> families(builders.size());
+  {
+    util::ParallelErrors errors;
+#pragma omp parallel for schedule(dynamic, 1)
+    for (std::size_t i = 0; i < builders.size(); ++i) errors.iteration(i, [&] { families[i] = builders[i](source); });
+    errors.rethrow();
+  }
   std::vector<Figure> figures;
-  for (const auto& b : builders)
-    for (auto& f : b(source)) figures.push_back(std::move(f));
+  for (auto& family : families)
+    for (auto& f : family) figures.push_back(std::move(f));
   const ReportDocument doc = report_document(source, o.built_utc, figures);
 
   std::vector<std::string> written;
