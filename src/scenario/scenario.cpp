@@ -211,8 +211,8 @@ OutputGrid read_grid(const formats::Section& s) {
 }
 
 OutputSpec read_output(const formats::Section& s) {
-  s.allow({"folder", "tables", "rasters", "geopackage", "cog", "units", "footprint", "report", "page", "times",
-           "grid", "files"});
+  s.allow({"folder", "tables", "rasters", "geopackage", "cog", "units", "footprint", "report", "page", "report_maps",
+           "times", "grid", "files"});
   OutputSpec o;
   o.folder = s.optional_string("folder").value_or("");
   if (!o.folder.empty()) check_output_name(s, "folder", o.folder);
@@ -237,6 +237,11 @@ OutputSpec read_output(const formats::Section& s) {
   if (const auto page = s.optional_string("page")) {
     if (*page != "A4" && *page != "Letter") s.fail("page", *page, "\"A4\" or \"Letter\" (the PDF report's page size)");
     o.page = *page;
+  }
+  if (const auto maps = s.optional_string("report_maps")) {
+    if (*maps != "last" && *maps != "each")
+      s.fail("report_maps", *maps, "\"last\" or \"each\" (the report's area map at the last output time or at each)");
+    o.report_maps = *maps;
   }
   o.dates = read_times(s.child("times"));
   for (const auto& d : o.dates) o.times.push_back(util::to_seconds(d));
@@ -576,7 +581,8 @@ json output_json(const OutputSpec& o, const std::string& region_crs) {
   }
   return {{"folder", o.folder}, {"tables", o.tables}, {"rasters", o.rasters},
           {"geopackage", o.geopackage}, {"cog", o.cog}, {"units", std::string(units::unit_system_name(o.units))},
-          {"footprint_Pa", o.footprint}, {"report", o.report}, {"page", o.page}, {"dates", dates}, {"grid", grid},
+          {"footprint_Pa", o.footprint}, {"report", o.report}, {"page", o.page},
+          {"report_maps", o.report_maps}, {"dates", dates}, {"grid", grid},
           {"files", {{"segment_times", o.files.segment_times}, {"segments", o.files.segments},
                      {"pressure_raster", o.files.pressure_raster},
                      {"geopackage", o.files.geopackage}}}};
