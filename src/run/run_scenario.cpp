@@ -1,12 +1,14 @@
 #include "run/run_scenario.hpp"
 
 #include <algorithm>
+#include <memory>
 
 #include "core/errors.hpp"
 #include "formats/files/run_folder.hpp"
 #include "outputs/run_outputs.hpp"
 #include "run/report_job.hpp"
 #include "scenario/uncertainty.hpp"
+#include "screening/capacity.hpp"
 #include "screening/catalog_review.hpp"
 #include "screening/prepare.hpp"
 #include "screening/pressure_history.hpp"
@@ -83,6 +85,11 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
     stage("probabilistic screen");
     prob = screening::run_probabilistic_screen(s, prepared, spec);
   }
+  std::shared_ptr<const screening::CapacityResult> capacity;
+  if (s.capacity && prob) {
+    stage("allowable rate");
+    capacity = std::make_shared<const screening::CapacityResult>(screening::capacity_answer(s, prepared, result, *prob));
+  }
   std::optional<screening::CatalogReview> review;
   if (s.catalog) {
     stage("catalog review");
@@ -105,7 +112,7 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
   formats::RunFolder folder(target, folder_rules);
   outputs::write_run_outputs(folder, s,
                              {prepared, result, pressure ? &*pressure : nullptr, prob ? &*prob : nullptr,
-                              review ? &*review : nullptr, history ? &*history : nullptr},
+                              review ? &*review : nullptr, history ? &*history : nullptr, capacity.get()},
                              {o.command_line, o.reproducible});
   if (s.output.report) {
     stage("report");
@@ -115,6 +122,7 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
   folder.commit();
 
   RunSummary summary = screening::summarize_run(s, prepared, result, prob ? &*prob : nullptr, std::move(review));
+  summary.capacity = capacity;
   summary.folder = target;
   summary.files = files_in(target);
   return summary;

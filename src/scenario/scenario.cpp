@@ -11,6 +11,7 @@
 #include "formats/files/path_policy.hpp"
 #include "formats/table/iso_time.hpp"
 #include "formats/toml/toml_section.hpp"
+#include "scenario/capacity_section.hpp"
 #include "scenario/catalog_section.hpp"
 #include "formats/gis/crs.hpp"
 #include "scenario/plausibility.hpp"
@@ -420,7 +421,7 @@ ResolvedScenario load_scenario(const fs::path& path) {
   const fs::path dir = path.parent_path();
   const formats::Section top({{doc.root.get(), sc.file, "", dir}});
   top.allow({"title", "seed", "memory_limit", "region", "wells", "histories", "proposed_well", "output",
-             "uncertainty", "catalog"});
+             "uncertainty", "catalog", "capacity"});
   sc.title = top.optional_string("title").value_or("");
   if (auto seed = top.optional_integer("seed")) {
     if (*seed < 0) top.fail("seed", std::to_string(*seed), "a seed >= 0");
@@ -455,6 +456,13 @@ ResolvedScenario load_scenario(const fs::path& path) {
     uncertainty = u->node->as_table();
   }
   sc.uncertainty = read_uncertainty(uncertainty, uncertainty_context(sc));
+  if (top.has("capacity")) {
+    const formats::Section cap = top.child("capacity");
+    sc.capacity = read_capacity_spec(cap, sc.wells);
+    if (!sc.uncertainty.given)
+      throw InputError("capacity", "[capacity]", "an [uncertainty] table too: the allowable rate comes from the probabilistic screen",
+                       sc.capacity->where);
+  }
   return sc;
 }
 

@@ -20,6 +20,7 @@
 
 #include "core/units/units.hpp"
 #include "core/util/civil_date.hpp"
+#include "scenario/capacity_spec.hpp"
 #include "scenario/catalog_spec.hpp"
 #include "scenario/region.hpp"
 #include "scenario/uncertainty.hpp"
@@ -77,6 +78,7 @@ struct ResolvedScenario {
   std::vector<std::filesystem::path> inputs;  // every file read (for the manifest hashes)
   std::optional<CatalogSpec> catalog;           // [catalog]: the review runs with the screen
   UncertaintySpec uncertainty;                  // [uncertainty] (given = false: deterministic only)
+  std::optional<CapacitySpec> capacity;         // [capacity]: the group's allowable rate (needs [uncertainty])
 };
 
 // Loads and resolves a scenario. `file` is the display name (defaults to the path as given).

@@ -10,6 +10,7 @@
 #include <utility>
 
 #include "core/errors.hpp"
+#include "core/probabilistic/group_factors.hpp"
 #include "core/probabilistic/pressure_model.hpp"
 #include "core/probabilistic/probability_maps.hpp"
 #include "core/probabilistic/realization_sampler.hpp"
@@ -243,6 +244,20 @@ void track_segments(const Tracking& tr, ProbabilisticResult& out) {
   });
 }
 
+// The group's curves: the pressure model of the split wells with the group apart, each split
+// well taking the sampled rate factor of its origin (the same realizations as the screen's).
+std::vector<SlipFactorCurve> capacity_curves(const GroupSplit& g, const std::vector<SegmentInput>& segments,
+                                             const RunSettings& settings, const InputList& list,
+                                             const SampledRealizations& r) {
+  if (g.origin.size() != g.wells.size() || g.in_group.size() != g.wells.size())
+    throw InputError("capacity group", std::to_string(g.wells.size()) + " wells", "an origin and a flag per split well");
+  InputList split = list;
+  split.well_rate.clear();
+  for (std::size_t o : g.origin) split.well_rate.push_back(list.well_rate.at(o));
+  const PressureModel pm = build_pressure_model(g.wells, segments, settings, split, r, &g.in_group);
+  return group_factor_curves(pm, r.dp_crit, g.horizon, g.f_max);
+}
+
 }  // namespace
 
 std::vector<std::uint64_t> slipped_by_tracking(const SegmentResult& segment) {
@@ -298,6 +313,7 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
   out.diffusivity_max = pm.diffusivity_max;
   out.surrogate_error = pm.surrogate->max_relative_error();
   track_segments(prepare_tracking(wells, segments, settings, r, pm), out);
+  if (settings.capacity) out.capacity = capacity_curves(*settings.capacity, segments, settings, list, r);
 
   ProbabilityMaps maps = probability_maps(pm, r, settings);
   out.map_dangerous = std::move(maps.dangerous);

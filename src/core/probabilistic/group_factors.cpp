@@ -1,0 +1,106 @@
+// The critical factors of a group of wells; see group_factors.hpp.
+#include "core/probabilistic/group_factors.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <span>
+#include <string>
+
+#include "core/errors.hpp"
+#include "core/probabilistic/critical_factor.hpp"
+#include "core/util/parallel_errors.hpp"
+
+namespace slipscreen::probabilistic {
+namespace {
+constexpr std::size_t kBlock = 256;  // realizations per matrix product
+constexpr double kInf = std::numeric_limits<double>::infinity();
+
+// Σ over the groups on one side (apart or not) of table rows [0, K] times basis · scale_g, for
+// the realizations `cols`: (K + 1) × cols.size().
+Eigen::MatrixXd side_series(const PressureModel& pm, std::size_t point, bool apart, Eigen::Index rows,
+                            const std::vector<Eigen::Index>& cols) {
+  Eigen::MatrixXd out = Eigen::MatrixXd::Zero(rows, static_cast<Eigen::Index>(cols.size()));
+  Eigen::MatrixXd block(pm.draws.basis.rows(), static_cast<Eigen::Index>(cols.size()));
+  for (std::size_t g = 0; g < pm.groups; ++g) {
+    if (static_cast<bool>(pm.group_apart[g]) != apart) continue;
+    for (std::size_t c = 0; c < cols.size(); ++c)
+      block.col(static_cast<Eigen::Index>(c)) =
+          pm.draws.basis.col(cols[c]) * pm.draws.scale(static_cast<Eigen::Index>(g), cols[c]);
+    out.noalias() += pm.surrogate->table(point, g).topRows(rows) * block;
+  }
+  return out;
+}
+
+// Bound on |Δp| over t_k ≤ T of one side at one point, per realization.
+Eigen::VectorXd side_bound(const PressureModel& pm, std::size_t point, bool apart, Eigen::Index rows,
+                           const Eigen::MatrixXd& abs_basis) {
+  Eigen::VectorXd b = Eigen::VectorXd::Zero(abs_basis.cols());
+  for (std::size_t g = 0; g < pm.groups; ++g) {
+    if (static_cast<bool>(pm.group_apart[g]) != apart) continue;
+    const Eigen::RowVectorXd colmax = pm.surrogate->table(point, g).topRows(rows).cwiseAbs().colwise().maxCoeff();
+    b.array() += (colmax * abs_basis).transpose().array() * pm.draws.scale.row(static_cast<Eigen::Index>(g)).transpose().array().abs();
+  }
+  return b;
+}
+
+SlipFactorCurve segment_curve(const PressureModel& pm, const Eigen::MatrixXf& dp_crit, const Eigen::MatrixXd& abs_basis,
+                              std::size_t s, Eigen::Index rows, double f_max) {
+  const Eigen::Index n = dp_crit.cols();
+  const auto& pts = pm.segment_points[s];
+  // The largest Δp any f ≤ f_max can reach, over the check points (a bound, slightly widened
+  // against rounding in the bound's own sums).
+  Eigen::VectorXd reach = Eigen::VectorXd::Zero(n);
+  for (std::size_t i = 0; i < pts.size(); ++i) {
+    const Eigen::VectorXd b = side_bound(pm, pts[i], false, rows, abs_basis) + f_max * side_bound(pm, pts[i], true, rows, abs_basis);
+    reach = i == 0 ? b : reach.cwiseMax(b);
+  }
+  std::vector<double> f_crit;
+  std::vector<Eigen::Index> evaluate;
+  for (Eigen::Index r = 0; r < n; ++r) {
+    const double crit = double(dp_crit(static_cast<Eigen::Index>(s), r));
+    if (crit <= 0.0) continue;  // critical before injection: counted apart
+    if (std::isinf(crit) || reach(r) * (1.0 + 1e-9) < crit) f_crit.push_back(kInf);
+    else evaluate.push_back(r);
+  }
+  std::vector<Eigen::Index> cols;
+  for (std::size_t c0 = 0; c0 < evaluate.size(); c0 += kBlock) {
+    cols.assign(evaluate.begin() + static_cast<std::ptrdiff_t>(c0),
+                evaluate.begin() + static_cast<std::ptrdiff_t>(std::min(evaluate.size(), c0 + kBlock)));
+    std::vector<double> f(cols.size(), kInf);
+    for (std::size_t i = 0; i < pts.size(); ++i) {
+      const Eigen::MatrixXd rest = side_series(pm, pts[i], false, rows, cols);
+      const Eigen::MatrixXd group = side_series(pm, pts[i], true, rows, cols);
+      for (std::size_t c = 0; c < cols.size(); ++c) {
+        const auto ci = static_cast<Eigen::Index>(c);
+        const double crit = double(dp_crit(static_cast<Eigen::Index>(s), cols[c]));
+        const auto len = static_cast<std::size_t>(rows);
+        f[c] = std::min(f[c], critical_factor(std::span<const double>(rest.col(ci).data(), len),
+                                              std::span<const double>(group.col(ci).data(), len), crit));
+      }
+    }
+    f_crit.insert(f_crit.end(), f.begin(), f.end());
+  }
+  return SlipFactorCurve(std::move(f_crit), static_cast<std::uint64_t>(n));
+}
+}  // namespace
+
+std::vector<SlipFactorCurve> group_factor_curves(const PressureModel& pm, const Eigen::MatrixXf& dp_crit,
+                                                 std::size_t horizon, double f_max) {
+  if (!pm.surrogate || horizon >= pm.surrogate->time_count())
+    throw InputError("capacity horizon", std::to_string(horizon), "a tracking-time index");
+  if (!(f_max > 0.0)) throw InputError("capacity f_max", std::to_string(f_max), "a factor > 0");
+  if (pm.group_apart.size() != pm.groups) throw InputError("pressure model groups", "no group apart", "a model built with the group apart");
+  const std::size_t n_seg = pm.segment_points.size();
+  const Eigen::MatrixXd abs_basis = pm.draws.basis.cwiseAbs();
+  const auto rows = static_cast<Eigen::Index>(horizon + 1);
+  std::vector<SlipFactorCurve> curves(n_seg, SlipFactorCurve({}, std::max<std::uint64_t>(1, static_cast<std::uint64_t>(dp_crit.cols()))));
+  util::ParallelErrors errors;
+#pragma omp parallel for schedule(dynamic, 1)
+  for (std::size_t s = 0; s < n_seg; ++s)
+    errors.iteration(s, [&] { curves[s] = segment_curve(pm, dp_crit, abs_basis, s, rows, f_max); });
+  errors.rethrow();
+  return curves;
+}
+
+}  // namespace slipscreen::probabilistic

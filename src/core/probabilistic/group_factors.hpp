@@ -1,0 +1,31 @@
+#pragma once
+// The critical factors f_crit of a group of wells for every fault segment and realization of a
+// probabilistic run (critical_factor.hpp), from the run's pressure model with the group's wells
+// kept apart (pressure_model.hpp, `apart`): the surrogate gives, per check point p and tracking
+// time t_k ≤ T, Δp_rest,p(t_k) (the groups not apart) and Δp_G,p(t_k) (the groups apart), each
+// Σ_g P·f_g·G_{p,g}(t_k, D) over its groups. A segment's Δp is the maximum over its check points,
+// so it slips at factor f iff some (p, t_k) has Δp_rest,p + f·Δp_G,p ≥ Δp_crit, and f_crit is the
+// minimum of critical_factor() over its check points (exact, by the same linearity).
+//
+// Speed: a realization's series is evaluated only where a rigorous bound allows a crossing at a
+// factor up to f_max: max_p (B_rest,p + f_max·B_G,p) with B = Σ_g |P f_g| Σ_d |ℓ_d| max_{k≤K}
+// |G_{p,g}(t_k, D_d)| (triangle inequality, as slip_tracker.hpp). The others get f_crit = +∞,
+// which is exact for every question asked at f ≤ f_max: P(slip by T | f) is exact on [0, f_max].
+//
+// Symbol table: horizon K (tracking index of T), f_max (the largest factor resolved).
+#include <cstddef>
+#include <vector>
+
+#include "core/probabilistic/allowable_factor.hpp"
+#include "core/probabilistic/pressure_model.hpp"
+
+namespace slipscreen::probabilistic {
+
+// One SlipFactorCurve per segment over the valid realizations (N = dp_crit.cols()); realizations
+// already critical before injection (Δp_crit ≤ 0) are counted in N but carry no f_crit, as in the
+// screen's injection-induced P. `pm` must have been built with the group apart (group_apart).
+// InputError if horizon is not a tracking index or f_max is not > 0.
+std::vector<SlipFactorCurve> group_factor_curves(const PressureModel& pm, const Eigen::MatrixXf& dp_crit,
+                                                 std::size_t horizon, double f_max);
+
+}  // namespace slipscreen::probabilistic
