@@ -15,7 +15,6 @@ namespace slipscreen::scenario {
 CapacitySpec read_capacity_spec(const formats::Section& s, const std::vector<WellSpec>& wells) {
   s.allow({"wells", "from", "margin", "up_to"});
   CapacitySpec c;
-  c.where = s.where_missing("wells");
   if (s.has("wells")) {
     std::vector<std::string> ids;
     for (const auto& w : wells) ids.push_back(w.id);

@@ -459,9 +459,9 @@ ResolvedScenario load_scenario(const fs::path& path) {
   if (top.has("capacity")) {
     const formats::Section cap = top.child("capacity");
     sc.capacity = read_capacity_spec(cap, sc.wells);
+    sc.capacity->where = top.where(*top.find("capacity"));
     if (!sc.uncertainty.given)
-      throw InputError("capacity", "[capacity]", "an [uncertainty] table too: the allowable rate comes from the probabilistic screen",
-                       sc.capacity->where);
+      top.fail("capacity", "[capacity]", "an [uncertainty] table too: the allowable rate comes from the probabilistic screen");
   }
   return sc;
 }
