@@ -150,3 +150,10 @@ TEST_CASE("allowable rate, deterministic answer: the best-estimate margin at the
     else CHECK(room < 0.0);
   }
 }
+
+TEST_CASE("allowable rate of a group with the global rate factor only (a rate group of its own in the run)") {
+  const Screen r = screen_with("\n[capacity]\nwells = [\"W1\", \"W2\"]\nup_to = 100\n");
+  for (const auto& th : r.cap.thresholds)
+    MESSAGE("threshold " << th.threshold << ": f* " << th.wilson.allowed << ", point " << th.point.allowed);
+  check_against_reruns(r, -1e300);
+}

@@ -18,12 +18,12 @@ constexpr double kInf = std::numeric_limits<double>::infinity();
 
 // Σ over the groups on one side (apart or not) of table rows [0, K] times basis · scale_g, for
 // the realizations `cols`: (K + 1) × cols.size().
-Eigen::MatrixXd side_series(const PressureModel& pm, std::size_t point, bool apart, Eigen::Index rows,
-                            const std::vector<Eigen::Index>& cols) {
+Eigen::MatrixXd side_series(const PressureModel& pm, const std::vector<char>& apart, std::size_t point, bool side,
+                            Eigen::Index rows, const std::vector<Eigen::Index>& cols) {
   Eigen::MatrixXd out = Eigen::MatrixXd::Zero(rows, static_cast<Eigen::Index>(cols.size()));
   Eigen::MatrixXd block(pm.draws.basis.rows(), static_cast<Eigen::Index>(cols.size()));
   for (std::size_t g = 0; g < pm.groups; ++g) {
-    if (static_cast<bool>(pm.group_apart[g]) != apart) continue;
+    if (static_cast<bool>(apart[g]) != side) continue;
     for (std::size_t c = 0; c < cols.size(); ++c)
       block.col(static_cast<Eigen::Index>(c)) =
           pm.draws.basis.col(cols[c]) * pm.draws.scale(static_cast<Eigen::Index>(g), cols[c]);
@@ -33,18 +33,18 @@ Eigen::MatrixXd side_series(const PressureModel& pm, std::size_t point, bool apa
 }
 
 // Bound on |Δp| over t_k ≤ T of one side at one point, per realization.
-Eigen::VectorXd side_bound(const PressureModel& pm, std::size_t point, bool apart, Eigen::Index rows,
-                           const Eigen::MatrixXd& abs_basis) {
+Eigen::VectorXd side_bound(const PressureModel& pm, const std::vector<char>& apart, std::size_t point, bool side,
+                           Eigen::Index rows, const Eigen::MatrixXd& abs_basis) {
   Eigen::VectorXd b = Eigen::VectorXd::Zero(abs_basis.cols());
   for (std::size_t g = 0; g < pm.groups; ++g) {
-    if (static_cast<bool>(pm.group_apart[g]) != apart) continue;
+    if (static_cast<bool>(apart[g]) != side) continue;
     const Eigen::RowVectorXd colmax = pm.surrogate->table(point, g).topRows(rows).cwiseAbs().colwise().maxCoeff();
     b.array() += (colmax * abs_basis).transpose().array() * pm.draws.scale.row(static_cast<Eigen::Index>(g)).transpose().array().abs();
   }
   return b;
 }
 
-SlipFactorCurve segment_curve(const PressureModel& pm, const Eigen::MatrixXf& dp_crit, const Eigen::MatrixXd& abs_basis,
+SlipFactorCurve segment_curve(const PressureModel& pm, const std::vector<char>& apart, const Eigen::MatrixXf& dp_crit, const Eigen::MatrixXd& abs_basis,
                               std::size_t s, Eigen::Index rows, double f_max) {
   const Eigen::Index n = dp_crit.cols();
   const auto& pts = pm.segment_points[s];
@@ -52,7 +52,7 @@ SlipFactorCurve segment_curve(const PressureModel& pm, const Eigen::MatrixXf& dp
   // against rounding in the bound's own sums).
   Eigen::VectorXd reach = Eigen::VectorXd::Zero(n);
   for (std::size_t i = 0; i < pts.size(); ++i) {
-    const Eigen::VectorXd b = side_bound(pm, pts[i], false, rows, abs_basis) + f_max * side_bound(pm, pts[i], true, rows, abs_basis);
+    const Eigen::VectorXd b = side_bound(pm, apart, pts[i], false, rows, abs_basis) + f_max * side_bound(pm, apart, pts[i], true, rows, abs_basis);
     reach = i == 0 ? b : reach.cwiseMax(b);
   }
   std::vector<double> f_crit;
@@ -69,8 +69,8 @@ SlipFactorCurve segment_curve(const PressureModel& pm, const Eigen::MatrixXf& dp
                 evaluate.begin() + static_cast<std::ptrdiff_t>(std::min(evaluate.size(), c0 + kBlock)));
     std::vector<double> f(cols.size(), kInf);
     for (std::size_t i = 0; i < pts.size(); ++i) {
-      const Eigen::MatrixXd rest = side_series(pm, pts[i], false, rows, cols);
-      const Eigen::MatrixXd group = side_series(pm, pts[i], true, rows, cols);
+      const Eigen::MatrixXd rest = side_series(pm, apart, pts[i], false, rows, cols);
+      const Eigen::MatrixXd group = side_series(pm, apart, pts[i], true, rows, cols);
       for (std::size_t c = 0; c < cols.size(); ++c) {
         const auto ci = static_cast<Eigen::Index>(c);
         const double crit = double(dp_crit(static_cast<Eigen::Index>(s), cols[c]));
@@ -85,12 +85,13 @@ SlipFactorCurve segment_curve(const PressureModel& pm, const Eigen::MatrixXf& dp
 }
 }  // namespace
 
-std::vector<SlipFactorCurve> group_factor_curves(const PressureModel& pm, const Eigen::MatrixXf& dp_crit,
-                                                 std::size_t horizon, double f_max) {
+std::vector<SlipFactorCurve> group_factor_curves(const PressureModel& pm, const std::vector<char>& apart,
+                                                 const Eigen::MatrixXf& dp_crit, std::size_t horizon, double f_max) {
   if (!pm.surrogate || horizon >= pm.surrogate->time_count())
     throw InputError("capacity horizon", std::to_string(horizon), "a tracking-time index");
   if (!(f_max > 0.0)) throw InputError("capacity f_max", std::to_string(f_max), "a factor > 0");
-  if (pm.group_apart.size() != pm.groups) throw InputError("pressure model groups", "no group apart", "a model built with the group apart");
+  if (apart.size() != pm.groups)
+    throw InputError("groups kept apart", std::to_string(apart.size()), "one flag per rate group (" + std::to_string(pm.groups) + ")");
   const std::size_t n_seg = pm.segment_points.size();
   const Eigen::MatrixXd abs_basis = pm.draws.basis.cwiseAbs();
   const auto rows = static_cast<Eigen::Index>(horizon + 1);
@@ -98,7 +99,7 @@ std::vector<SlipFactorCurve> group_factor_curves(const PressureModel& pm, const 
   util::ParallelErrors errors;
 #pragma omp parallel for schedule(dynamic, 1)
   for (std::size_t s = 0; s < n_seg; ++s)
-    errors.iteration(s, [&] { curves[s] = segment_curve(pm, dp_crit, abs_basis, s, rows, f_max); });
+    errors.iteration(s, [&] { curves[s] = segment_curve(pm, apart, dp_crit, abs_basis, s, rows, f_max); });
   errors.rethrow();
   return curves;
 }

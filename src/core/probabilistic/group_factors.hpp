@@ -23,9 +23,11 @@ namespace slipscreen::probabilistic {
 
 // One SlipFactorCurve per segment over the valid realizations (N = dp_crit.cols()); realizations
 // already critical before injection (Δp_crit ≤ 0) are counted in N but carry no f_crit, as in the
-// screen's injection-induced P. `pm` must have been built with the group apart (group_apart).
-// InputError if horizon is not a tracking index or f_max is not > 0.
-std::vector<SlipFactorCurve> group_factor_curves(const PressureModel& pm, const Eigen::MatrixXf& dp_crit,
-                                                 std::size_t horizon, double f_max);
+// screen's injection-induced P. `apart` (per rate group of `pm`) says which groups are the
+// group's: the group's wells must not share a rate group with other wells (pressure_model.hpp,
+// `apart`, does that). InputError if horizon is not a tracking index, f_max is not > 0 or
+// `apart` does not have one flag per group.
+std::vector<SlipFactorCurve> group_factor_curves(const PressureModel& pm, const std::vector<char>& apart,
+                                                 const Eigen::MatrixXf& dp_crit, std::size_t horizon, double f_max);
 
 }  // namespace slipscreen::probabilistic
