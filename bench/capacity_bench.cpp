@@ -1,10 +1,11 @@
-// Benchmark of the allowable rate (issue 13): what [capacity] adds to the probabilistic screen's
-// time, on the FICTIONAL demo scenario (regions/marrowick: 220 segments, 14 wells, 2,000
+// Benchmark of the allowable rate and a what-if variant (issue 13): what [capacity] and one
+// [[what_if]] add to the probabilistic screen's time, on the FICTIONAL demo scenario (regions/marrowick: 220 segments, 14 wells, 2,000
 // realizations, group MW-P1). Prints the probabilistic screen's time without the group and with
 // it (the group's pressure model, f_crit for every realization and segment), the answers' time
 // (allowable factors, deterministic answer), each the best of 3 runs, and the added share
 // against the 30 % target. The baseline is the same screen without [capacity], in the same run.
-// A what-if variant is not part of this figure (not built yet).
+// With it, one what-if variant (the scenario's first [[what_if]], or half the rates of the
+// group's wells from the capacity date or 2027-02-01 when it has none).
 //   capacity_bench [SCENARIO]   (default: regions/marrowick/scenario.toml)
 #include <algorithm>
 #include <chrono>
@@ -19,6 +20,7 @@
 #include "screening/capacity.hpp"
 #include "screening/prepare.hpp"
 #include "screening/probabilistic_screen.hpp"
+#include "screening/what_if.hpp"
 
 using Clock = std::chrono::steady_clock;
 using namespace slipscreen;
@@ -41,8 +43,18 @@ int main(int argc, char** argv) try {
     std::fprintf(stderr, "capacity_bench: %s has no [capacity] and [uncertainty]\n", path.string().c_str());
     return 1;
   }
+  if (with.what_if.size() > 1) with.what_if.resize(1);
+  if (with.what_if.empty()) {
+    scenario::WhatIfSpec w;
+    w.name = "half";
+    w.wells = with.capacity->wells;
+    w.factor = 0.5;
+    w.from = with.capacity->from.value_or(1801440000.0);  // 2027-02-01T00:00:00Z
+    with.what_if.push_back(w);
+  }
   scenario::ResolvedScenario without = with;
   without.capacity.reset();
+  without.what_if.clear();
   const screening::PreparedRun p = screening::prepare_run(with, false);
   const screen::ScreenResult det = screen::deterministic_screen(p.inputs);
   std::printf("capacity_bench: %s, %zu segments, %zu wells, %llu realizations; load average before %s\n",
@@ -58,17 +70,19 @@ int main(int argc, char** argv) try {
     screen_with = std::min(screen_with, since(t0));
     t0 = Clock::now();
     const auto cap = screening::capacity_answer(with, p, det, prob);
+    const auto wi = screening::what_if_result(with, p, prob);
     answer = std::min(answer, since(t0));
     if (rep == 0)
       std::printf("  answer (upper end of the Wilson interval) at the first threshold %.3g: f <= %.4g\n",
                   cap.thresholds.front().threshold, cap.thresholds.front().wilson.allowed);
     (void)plain;
+    (void)wi;
   }
   const double added = screen_with - base + answer;
   std::printf("  probabilistic screen without [capacity] (baseline): %.3f s\n", base);
-  std::printf("  probabilistic screen with the group kept apart:     %.3f s\n", screen_with);
-  std::printf("  answers (allowable factors, deterministic answer):  %.3f s\n", answer);
-  std::printf("  added by [capacity]: %.3f s = %.1f %% of the baseline (target < 30 %%; ratio %.3f)\n", added,
+  std::printf("  with the group kept apart and one what-if variant:  %.3f s\n", screen_with);
+  std::printf("  answers (allowable factors, deterministic answer, what-if table): %.3f s\n", answer);
+  std::printf("  added by [capacity] and one [[what_if]]: %.3f s = %.1f %% of the baseline (target < 30 %%; ratio %.3f)\n", added,
               100.0 * added / base, (base + added) / base);
   std::printf("  load average after %s (the cores may be shared)\n", load_average().c_str());
   return 0;

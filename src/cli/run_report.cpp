@@ -14,6 +14,7 @@
 #include "screening/catalog_review.hpp"
 #include "formats/table/iso_time.hpp"
 #include "outputs/capacity_tables.hpp"
+#include "outputs/what_if_table.hpp"
 #include "outputs/output_units.hpp"
 #include "run/run_scenario.hpp"
 #include "scenario/scenario.hpp"
@@ -229,6 +230,10 @@ int run_and_report(const RunCommandOptions& o, Context& ctx) {
   if (r.capacity) {
     ctx.out << "\n";
     for (const auto& line : outputs::capacity_console(*r.capacity, outputs::OutputUnits(s.output.units))) ctx.out << line << "\n";
+  }
+  if (r.what_if) {
+    ctx.out << "\n";
+    for (const auto& line : outputs::what_if_console(s, *r.what_if)) ctx.out << line << "\n";
   }
   if (r.catalog) print_review_against_model(ctx.out, s, *r.catalog, o.closest);
   ctx.out << "\nOutputs in " << r.folder.generic_string() << "/:\n";

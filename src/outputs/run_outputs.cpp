@@ -3,6 +3,7 @@
 #include "core/caution.hpp"
 #include "formats/files/manifest.hpp"
 #include "outputs/capacity_tables.hpp"
+#include "outputs/what_if_table.hpp"
 #include "outputs/catalog_review_files.hpp"
 #include "outputs/gis_layers.hpp"
 #include "outputs/output_text.hpp"
@@ -39,6 +40,7 @@ nlohmann::json screens_json(const RunResults& r) {
           {"pressure_map", r.pressure != nullptr},
           {"catalog_review", r.review != nullptr},
           {"capacity", r.capacity != nullptr},
+          {"what_if", r.what_if != nullptr},
           {"rt_view", r.review != nullptr && r.review->rt.has_value()}};
 }
 
@@ -47,6 +49,7 @@ std::string screens_text(const RunResults& r) {
   if (r.probabilistic) t += "; probabilistic screen (" + std::to_string(r.probabilistic->result.realizations) + " realizations)";
   if (r.pressure) t += "; pressure map";
   if (r.capacity) t += "; allowable rate";
+  if (r.what_if) t += "; what-if rate changes";
   if (r.review) t += "; catalog review";
   if (r.review && r.review->rt) t += "; r-t view";
   return t;
@@ -76,6 +79,7 @@ ReadmeContent run_readme(const scenario::ResolvedScenario& s, const RunResults& 
     c.files.push_back(gis_layers_readme(s, r.probabilistic != nullptr, r.review != nullptr, r.pressure != nullptr));
   if (r.probabilistic) for (auto& f : probabilistic_readme(*r.probabilistic, s.output.units)) c.files.push_back(std::move(f));
   if (r.capacity) for (auto& f : capacity_readme(*r.capacity)) c.files.push_back(std::move(f));
+  if (r.what_if) for (auto& f : what_if_readme(*r.what_if)) c.files.push_back(std::move(f));
   if (r.review) for (auto& f : catalog_review_readme(*r.review)) c.files.push_back(std::move(f));
   c.manifest = s.output.files.manifest;
   c.oilfield_units = s.output.units == units::UnitSystem::oilfield;
@@ -94,6 +98,7 @@ void write_run_outputs(const formats::RunFolder& folder, const scenario::Resolve
     write_gis_layers(folder, s, p, r.screen, o.reproducible, r.probabilistic, r.review, r.pressure);
   if (r.probabilistic) write_probabilistic_outputs(folder, s, p, *r.probabilistic);
   if (r.capacity) write_capacity_tables(folder, s, *r.capacity);
+  if (r.what_if) write_what_if_table(folder, s, *r.what_if);
   if (r.review) write_catalog_review(folder, s, p, *r.review);
 
   write_readme(folder, run_readme(s, r));
@@ -108,6 +113,7 @@ void write_run_outputs(const formats::RunFolder& folder, const scenario::Resolve
   m.parameters = {{"scenario", scenario::to_json(s)}, {"run", run_block(p, r.screen)}};
   if (r.probabilistic) m.parameters["probabilistic"] = probabilistic_manifest(*r.probabilistic);
   if (r.capacity) m.parameters["capacity"] = capacity_manifest(*r.capacity);
+  if (r.what_if) m.parameters["what_if"] = what_if_manifest(*r.what_if);
   if (r.review) m.parameters["catalog"] = catalog_manifest(*r.review);
   formats::write_manifest(folder.output("output.files.manifest", s.output.files.manifest), m, folder.staging());
 }

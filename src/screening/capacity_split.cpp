@@ -6,12 +6,6 @@
 #include "core/errors.hpp"
 
 namespace slipscreen::screening {
-namespace {
-bool in_group(const scenario::ResolvedScenario& s, const std::string& id) {
-  return std::find(s.capacity->wells.begin(), s.capacity->wells.end(), id) != s.capacity->wells.end();
-}
-}  // namespace
-
 std::pair<hydro::RateSteps, hydro::RateSteps> split_steps(const hydro::RateSteps& steps, double from) {
   hydro::RateSteps before, after;
   double q_before = 0.0, q_at = 0.0;
@@ -39,22 +33,18 @@ std::pair<hydro::RateSteps, hydro::RateSteps> split_steps(const hydro::RateSteps
   return {before, after};
 }
 
-probabilistic::GroupSplit capacity_split(const scenario::ResolvedScenario& s, const std::vector<probabilistic::WellInput>& wells,
-                                         const std::vector<double>& tracked_times) {
+probabilistic::GroupSplit split_group(const std::vector<probabilistic::WellInput>& wells,
+                                      const std::vector<std::string>& ids, std::optional<double> from,
+                                      const std::string& field, const std::string& where) {
   probabilistic::GroupSplit g;
-  const auto& cap = *s.capacity;
-  g.f_max = cap.up_to;
-  const double t_end = s.output.times.back();
-  g.horizon = static_cast<std::size_t>(std::lower_bound(tracked_times.begin(), tracked_times.end(), t_end) -
-                                       tracked_times.begin());
   for (std::size_t w = 0; w < wells.size(); ++w) {
-    if (!in_group(s, wells[w].id)) {
+    if (std::find(ids.begin(), ids.end(), wells[w].id) == ids.end()) {
       g.wells.push_back(wells[w]);
       g.origin.push_back(w);
       g.in_group.push_back(0);
       continue;
     }
-    auto [before, after] = cap.from ? split_steps(wells[w].steps, *cap.from) : std::pair{hydro::RateSteps{}, wells[w].steps};
+    auto [before, after] = from ? split_steps(wells[w].steps, *from) : std::pair{hydro::RateSteps{}, wells[w].steps};
     for (int part = 0; part < 2; ++part) {
       hydro::RateSteps& st = part == 0 ? before : after;
       if (st.time.empty()) continue;
@@ -66,8 +56,19 @@ probabilistic::GroupSplit capacity_split(const scenario::ResolvedScenario& s, co
     }
   }
   if (std::find(g.in_group.begin(), g.in_group.end(), 1) == g.in_group.end())
-    throw InputError("capacity.wells", cap.wells.front(),
-                     "wells that inject after [capacity] from (the group has no rate to scale)", cap.where);
+    throw InputError(field, ids.front(), "wells that inject after the date given (the group has no rate to scale)", where);
+  return g;
+}
+
+probabilistic::GroupSplit capacity_split(const scenario::ResolvedScenario& s,
+                                         const std::vector<probabilistic::WellInput>& wells,
+                                         const std::vector<double>& tracked_times) {
+  const auto& cap = *s.capacity;
+  probabilistic::GroupSplit g = split_group(wells, cap.wells, cap.from, "capacity.wells", cap.where);
+  g.f_max = cap.up_to;
+  const double t_end = s.output.times.back();
+  g.horizon = static_cast<std::size_t>(std::lower_bound(tracked_times.begin(), tracked_times.end(), t_end) -
+                                       tracked_times.begin());
   return g;
 }
 

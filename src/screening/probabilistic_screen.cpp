@@ -8,6 +8,7 @@
 #include "core/stats/wilson_interval.hpp"
 #include "core/util/civil_date.hpp"
 #include "screening/capacity_split.hpp"
+#include "screening/what_if_split.hpp"
 
 namespace slipscreen::screening {
 namespace {
@@ -159,6 +160,7 @@ ProbabilisticRun run_probabilistic_screen(const scenario::ResolvedScenario& s, c
   set.audit_realizations = std::move(audit_realizations);
   set.audit_segments = std::move(audit_segments);
   if (s.capacity) set.capacity = capacity_split(s, wells, run.tracked_times);
+  for (const auto& w : s.what_if) set.what_if.push_back(what_if_split(w, p, wells));
   run.result = probabilistic::run_probabilistic(model, wells, segments, set);
   run.wells = std::move(wells);
   run.segments = std::move(segments);

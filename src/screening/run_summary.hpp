@@ -12,6 +12,7 @@
 #include "core/screen/deterministic_screen.hpp"
 #include "scenario/scenario.hpp"
 #include "screening/capacity.hpp"
+#include "screening/what_if.hpp"
 #include "screening/catalog_review.hpp"
 #include "screening/prepare.hpp"
 #include "screening/probabilistic_screen.hpp"
@@ -60,6 +61,7 @@ struct RunSummary {
   std::optional<ProbabilisticSummary> probabilistic;  // when the scenario has [uncertainty]
   std::shared_ptr<const CatalogReview> catalog;       // when the scenario has [catalog]
   std::shared_ptr<const CapacityResult> capacity;     // when the scenario has [capacity]
+  std::shared_ptr<const WhatIfResult> what_if;        // when the scenario has [[what_if]]
 };
 
 // The summary of the screens' results (folder and files are left to the caller).

@@ -14,6 +14,7 @@
 #include "scenario/scenario.hpp"
 #include "screening/prepare.hpp"
 #include "screening/probabilistic_screen.hpp"
+#include "support/rate_steps_fixture.hpp"
 #include "support/scenario_fixture.hpp"
 
 using namespace slipscreen;
@@ -27,31 +28,6 @@ const char* kUncertainty =
     "[uncertainty.formation]\npermeability = \"lognormal(median=200 mD, sigma_ln=0.4)\"\n"
     "[uncertainty.faults]\nfriction = \"truncnormal(mean=0.6, sd=0.05, min=0.4, max=0.8)\"\n"
     "[uncertainty.well.\"P1\"]\nrate_factor = \"uniform(0.8, 1.2)\"\n";
-
-// The group's steps with the rate from `from` on multiplied by f, built directly from the rate
-// q(t) = Σ_{t_j ≤ t} Δq_j: unchanged before `from`, a step to f·q(from) at `from`, then f·Δq_j.
-hydro::RateSteps scaled_from(const hydro::RateSteps& s, double f, double from) {
-  hydro::RateSteps out;
-  double q_before = 0.0, q_at = 0.0;
-  for (std::size_t j = 0; j < s.time.size(); ++j) {
-    if (s.time[j] < from) {
-      out.time.push_back(s.time[j]);
-      out.delta_rate.push_back(s.delta_rate[j]);
-      q_before += s.delta_rate[j];
-    }
-    if (s.time[j] <= from) q_at += s.delta_rate[j];
-  }
-  if (f * q_at - q_before != 0.0) {
-    out.time.push_back(from);
-    out.delta_rate.push_back(f * q_at - q_before);
-  }
-  for (std::size_t j = 0; j < s.time.size(); ++j)
-    if (s.time[j] > from) {
-      out.time.push_back(s.time[j]);
-      out.delta_rate.push_back(f * s.delta_rate[j]);
-    }
-  return out;
-}
 
 struct Screen {
   explicit Screen(const std::filesystem::path& scenario)
@@ -82,7 +58,7 @@ double rerun_largest_upper(const Screen& r, double f, double from, const std::ve
   auto wells = r.prob.wells;
   for (auto& w : wells)
     if (std::find(r.cap.wells.begin(), r.cap.wells.end(), w.id) != r.cap.wells.end())
-      w.steps = scaled_from(w.steps, f, from);
+      w.steps = slipscreen::test::scaled_from(w.steps, f, from);
   auto settings = r.prob.settings;
   settings.capacity.reset();
   settings.map_points.clear();

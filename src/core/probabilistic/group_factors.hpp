@@ -14,6 +14,7 @@
 //
 // Symbol table: horizon K (tracking index of T), f_max (the largest factor resolved).
 #include <cstddef>
+#include <cstdint>
 #include <vector>
 
 #include "core/probabilistic/allowable_factor.hpp"
@@ -29,5 +30,15 @@ namespace slipscreen::probabilistic {
 // `apart` does not have one flag per group.
 std::vector<SlipFactorCurve> group_factor_curves(const PressureModel& pm, const std::vector<char>& apart,
                                                  const Eigen::MatrixXf& dp_crit, std::size_t horizon, double f_max);
+
+// What-if variants by the same superposition: per segment and output time, the injection-induced
+// slips by then (as SegmentResult::slipped_by) with the group's rates multiplied by `factor` ≥ 0,
+// Δp = Δp_rest + factor·Δp_G at every check point and tracking time. As in slip_tracker.hpp, the
+// series is evaluated in chunks of 24 tracking times, in order until the first crossing, and only
+// in chunks whose bound (the one above, per chunk, with f_max = factor) reaches Δp_crit: the same
+// result as evaluating every series.
+std::vector<std::vector<std::uint64_t>> group_variant_slips(const PressureModel& pm, const std::vector<char>& apart,
+                                                            const Eigen::MatrixXf& dp_crit,
+                                                            const std::vector<std::size_t>& output_index, double factor);
 
 }  // namespace slipscreen::probabilistic

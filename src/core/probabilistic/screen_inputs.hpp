@@ -90,6 +90,7 @@ struct GroupSplit {
   std::vector<char> in_group;        // per split well
   std::size_t horizon = 0;           // tracking index of T (P(slip by T | f))
   double f_max = 10.0;               // factors resolved exactly up to here
+  double factor = 1.0;               // a what-if variant's factor on the group's rates
 };
 
 struct RunSettings {
@@ -114,6 +115,8 @@ struct RunSettings {
   bool attribute_median = true;
   // The allowable rate of a group of wells (ProbabilisticResult::capacity), when given.
   std::optional<GroupSplit> capacity;
+  // What-if variants (ProbabilisticResult::what_if): each group's rates times its factor.
+  std::vector<GroupSplit> what_if;
 };
 
 // The sampled inputs in sampler order; each slot remembers where a model input sits.

@@ -269,6 +269,19 @@ std::vector<SlipFactorCurve> capacity_curves(const GroupSplit& g, const Pressure
   return group_factor_curves(pm, pm.group_apart, r.dp_crit, g.horizon, g.f_max);
 }
 
+// A what-if variant: the pressure model of its split wells with its group apart.
+std::vector<std::vector<std::uint64_t>> variant_slips(const GroupSplit& g, const std::vector<SegmentInput>& segments,
+                                                      const RunSettings& settings, const InputList& list,
+                                                      const SampledRealizations& r) {
+  if (g.origin.size() != g.wells.size() || g.in_group.size() != g.wells.size())
+    throw InputError("what-if group", std::to_string(g.wells.size()) + " wells", "an origin and a flag per split well");
+  InputList split = list;
+  split.well_rate.clear();
+  for (std::size_t o : g.origin) split.well_rate.push_back(list.well_rate.at(o));
+  const PressureModel pm = build_pressure_model(g.wells, segments, settings, split, r, &g.in_group);
+  return group_variant_slips(pm, pm.group_apart, r.dp_crit, settings.output_index, g.factor);
+}
+
 }  // namespace
 
 std::vector<std::uint64_t> slipped_by_tracking(const SegmentResult& segment) {
@@ -325,6 +338,7 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
   out.surrogate_error = pm.surrogate->max_relative_error();
   track_segments(prepare_tracking(wells, segments, settings, r, pm), out);
   if (settings.capacity) out.capacity = capacity_curves(*settings.capacity, pm, segments, settings, list, r);
+  for (const auto& v : settings.what_if) out.what_if.push_back(variant_slips(v, segments, settings, list, r));
 
   ProbabilityMaps maps = probability_maps(pm, r, settings);
   out.map_dangerous = std::move(maps.dangerous);

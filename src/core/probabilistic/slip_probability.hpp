@@ -102,6 +102,9 @@ struct ProbabilisticResult {
   // Per segment, P(slip by T | f) of RunSettings::capacity's group (group_factors.hpp); empty
   // unless asked for.
   std::vector<SlipFactorCurve> capacity;
+  // Per RunSettings::what_if variant, per segment, per output time: injection-induced slips by
+  // then with the variant's rates (group_factors.hpp), on the same realizations.
+  std::vector<std::vector<std::vector<std::uint64_t>>> what_if;
 };
 
 // The plain method for one audited pair: every E1 term of every well, image and rate step is
