@@ -154,6 +154,19 @@ std::vector<std::uint64_t> segment_variant(const PressureModel& pm, const std::v
   }
   return slipped;
 }
+void check_apart(const PressureModel& pm, const std::vector<char>& apart) {
+  if (apart.size() != pm.groups)
+    throw InputError("groups kept apart", std::to_string(apart.size()), "one flag per rate group (" + std::to_string(pm.groups) + ")");
+}
+
+// out[s] = one(s) for every segment (OpenMP over segments; the first failure is rethrown).
+template <class T, class One>
+void per_segment(std::vector<T>& out, const One& one) {
+  util::ParallelErrors errors;
+#pragma omp parallel for schedule(dynamic, 1)
+  for (std::size_t s = 0; s < out.size(); ++s) errors.iteration(s, [&] { out[s] = one(s); });
+  errors.rethrow();
+}
 }  // namespace
 
 std::vector<std::vector<std::uint64_t>> group_variant_slips(const PressureModel& pm, const std::vector<char>& apart,
@@ -162,16 +175,10 @@ std::vector<std::vector<std::uint64_t>> group_variant_slips(const PressureModel&
   if (!pm.surrogate || output_index.empty() || output_index.back() >= pm.surrogate->time_count())
     throw InputError("what-if output times", std::to_string(output_index.size()), "tracking-time indices");
   if (!(factor >= 0.0)) throw InputError("what-if factor", std::to_string(factor), "a factor >= 0");
-  if (apart.size() != pm.groups)
-    throw InputError("groups kept apart", std::to_string(apart.size()), "one flag per rate group (" + std::to_string(pm.groups) + ")");
-  const std::size_t n_seg = pm.segment_points.size();
+  check_apart(pm, apart);
   const Eigen::MatrixXd abs_basis = pm.draws.basis.cwiseAbs();
-  std::vector<std::vector<std::uint64_t>> out(n_seg);
-  util::ParallelErrors errors;
-#pragma omp parallel for schedule(dynamic, 1)
-  for (std::size_t s = 0; s < n_seg; ++s)
-    errors.iteration(s, [&] { out[s] = segment_variant(pm, apart, dp_crit, abs_basis, s, output_index, factor); });
-  errors.rethrow();
+  std::vector<std::vector<std::uint64_t>> out(pm.segment_points.size());
+  per_segment(out, [&](std::size_t s) { return segment_variant(pm, apart, dp_crit, abs_basis, s, output_index, factor); });
   return out;
 }
 
@@ -180,17 +187,12 @@ std::vector<SlipFactorCurve> group_factor_curves(const PressureModel& pm, const 
   if (!pm.surrogate || horizon >= pm.surrogate->time_count())
     throw InputError("capacity horizon", std::to_string(horizon), "a tracking-time index");
   if (!(f_max > 0.0)) throw InputError("capacity f_max", std::to_string(f_max), "a factor > 0");
-  if (apart.size() != pm.groups)
-    throw InputError("groups kept apart", std::to_string(apart.size()), "one flag per rate group (" + std::to_string(pm.groups) + ")");
-  const std::size_t n_seg = pm.segment_points.size();
+  check_apart(pm, apart);
   const Eigen::MatrixXd abs_basis = pm.draws.basis.cwiseAbs();
   const auto rows = static_cast<Eigen::Index>(horizon + 1);
-  std::vector<SlipFactorCurve> curves(n_seg, SlipFactorCurve({}, std::max<std::uint64_t>(1, static_cast<std::uint64_t>(dp_crit.cols()))));
-  util::ParallelErrors errors;
-#pragma omp parallel for schedule(dynamic, 1)
-  for (std::size_t s = 0; s < n_seg; ++s)
-    errors.iteration(s, [&] { curves[s] = segment_curve(pm, apart, dp_crit, abs_basis, s, rows, f_max); });
-  errors.rethrow();
+  std::vector<SlipFactorCurve> curves(pm.segment_points.size(),
+                                      SlipFactorCurve({}, std::max<std::uint64_t>(1, static_cast<std::uint64_t>(dp_crit.cols()))));
+  per_segment(curves, [&](std::size_t s) { return segment_curve(pm, apart, dp_crit, abs_basis, s, rows, f_max); });
   return curves;
 }
 
