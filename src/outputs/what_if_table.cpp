@@ -42,8 +42,9 @@ void write_what_if_table(const formats::RunFolder& folder, const scenario::Resol
 }
 
 std::vector<ReadmeFile> what_if_readme(const screening::WhatIfResult& w) {
-  return {{"what_if.csv", "what-if rate changes (" + std::to_string(w.names.size()) +
-                              " variants): per fault segment and output time, P(slip) of the base and of each variant "
+  const std::size_t n = w.names.size();
+  return {{"what_if.csv", "what-if rate changes (" + std::to_string(n) + (n == 1 ? " variant" : " variants") +
+                              "): per fault segment and output time, P(slip) of the base and of each variant "
                               "and the change, on the same realizations"}};
 }
 
