@@ -11,6 +11,7 @@
 #include <random>
 #include <vector>
 
+#include "core/hydro/hantush.hpp"
 #include "core/hydro/well_function.hpp"
 
 namespace {
@@ -65,6 +66,27 @@ void run(const char* label, const std::vector<double>& u) {
               r_scalar / r_boost, worst, worst_u);
 }
 
+// The leaky well function W(u, r/B) (Hantush & Jacob 1955; core/hydro/hantush.hpp) beside the
+// scalar E1 on the same u, for several r/B: evaluations per second and the ratio.
+void run_leaky(const std::vector<double>& u_all) {
+  std::vector<double> u;
+  for (std::size_t i = 0; i < u_all.size(); i += 16) u.push_back(u_all[i]);  // 1024 arguments
+  const double t_e1 = best_seconds(5, [&] {
+    double s = 0;
+    for (double x : u) s += slipscreen::hydro::well_function(x);
+    g_sink = s;
+  });
+  for (double beta : {1e-3, 0.1, 1.0, 5.0}) {
+    const double t = best_seconds(3, [&] {
+      double s = 0;
+      for (double x : u) s += slipscreen::hydro::leaky_well_function(x, beta);
+      g_sink = s;
+    });
+    std::printf("leaky W(u, r/B = %-5g) %8.3f M/s   scalar E1 %7.1f M/s   E1/leaky %6.0fx\n", beta,
+                u.size() / t / 1e6, u.size() / t_e1 / 1e6, t / t_e1);
+  }
+}
+
 }  // namespace
 
 int main() {
@@ -78,5 +100,8 @@ int main() {
   std::shuffle(u.begin(), u.end(), std::mt19937_64(20261201));
   run("shuffled", u);
   std::printf("Target: batched >= 20x Boost.Math at 1e-13 relative accuracy.\n");
+  std::printf("Leaky well function, %zu of the same arguments (log-spaced, best of 3):\n", kN / 16);
+  std::sort(u.begin(), u.end());
+  run_leaky(u);
   return 0;
 }

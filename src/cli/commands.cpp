@@ -12,6 +12,7 @@ const std::vector<Registrar>& registrars() {
       &register_run_command,
       &register_demo_command,
       &register_report_command,
+      &register_compare_command,
   };
   return list;
 }

@@ -17,5 +17,6 @@ void register_fault_stress_command(CLI::App& app, Context& ctx);
 void register_run_command(CLI::App& app, Context& ctx);
 void register_demo_command(CLI::App& app, Context& ctx);
 void register_report_command(CLI::App& app, Context& ctx);
+void register_compare_command(CLI::App& app, Context& ctx);
 
 }  // namespace slipscreen::cli

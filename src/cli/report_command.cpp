@@ -18,11 +18,12 @@ struct ReportCommandOptions {
   std::string page;
   bool reproducible = false;
   int top = 5;
+  std::string maps;
 };
 
 int build(const ReportCommandOptions& o, Context& ctx) {
   const run::ReportJobResult r =
-      run::rebuild_report(o.folder, {.page = o.page, .reproducible = o.reproducible, .top = static_cast<std::size_t>(o.top)});
+      run::rebuild_report(o.folder, {.page = o.page, .reproducible = o.reproducible, .top = static_cast<std::size_t>(o.top), .maps = o.maps});
   ctx.out << "Report of " << r.folder.generic_string() << " written (" << r.files.size() << " files):\n";
   for (const auto& f : r.files)
     if (f.rfind("figures/", 0) != 0) ctx.out << "  " << f << "\n";
@@ -48,6 +49,10 @@ void register_report_command(CLI::App& app, Context& ctx) {
   sub->add_option("--top", opts->top, "Number of segments in the top-segment tables and figures")
       ->default_val(5)
       ->check(in_range(1, 50, "a number of segments"));
+  sub->add_option("--maps", opts->maps,
+                  "Area maps: at the last output time, or one at each output time (default: the scenario's "
+                  "[output] report_maps, else last)")
+      ->check(CLI::IsMember({"last", "each"}));
   sub->callback([opts, &ctx] { ctx.action = [opts, &ctx] { return build(*opts, ctx); }; });
 }
 

@@ -10,6 +10,7 @@
 #include "core/units/units.hpp"
 #include "formats/files/path_policy.hpp"
 #include "outputs/output_units.hpp"
+#include "screening/prepare.hpp"
 
 namespace slipscreen::cli {
 namespace {
@@ -47,12 +48,19 @@ void print_scenario_summary(const scenario::ResolvedScenario& s, std::ostream& o
   out << "  stress: " << model_name(r.stress.model);
   if (r.stress.model == scenario::StressModel::a_phi) out << " = " << fixed(r.stress.a_phi, 2);
   out << ", SHmax azimuth " << fixed(r.stress.shmax_azimuth * 180 / 3.14159265358979323846, 1) << " deg\n";
+  if (r.stress.poroelastic_path) out << "  stress path: " << screening::stress_path_statement(r.stress) << "\n";
   out << "  faults: " << formats::display_name(r.faults.path) << ", friction " << fixed(r.faults.friction, 2)
       << ", cohesion " << quantity(u, r.faults.cohesion, Q::pressure, 2) << ", segments <= "
       << quantity(u, r.faults.segment_length, Q::length, 0) << ", " << r.faults.check_points << " check points each\n";
   const auto& f = r.formation;
   out << "  formation: " << (f.name.empty() ? "(unnamed)" : f.name) << ", diffusivity " << std::setprecision(3)
-      << scenario::theis_parameters_of(f).diffusivity << " m2/s\n";
+      << scenario::theis_parameters_of(f).diffusivity << " m2/s";
+  if (f.leaky) {
+    const auto tp = scenario::theis_parameters_of(f);
+    out << ", leaky (Hantush & Jacob 1955), leakage factor B = "
+        << quantity(u, std::sqrt(tp.diffusivity / tp.leakage_rate), Q::length, 0);
+  }
+  out << "\n";
 
   int existing = 0, proposed = 0, shut = 0;
   double first = std::numeric_limits<double>::infinity(), last = -first, volume = 0;

@@ -52,7 +52,10 @@ nlohmann::json catalog_review_json(const scenario::ResolvedScenario& s, const sc
                              {"fronts", fronts},
                              {"method", "triggering front r = sqrt(4 pi D t) (Shapiro et al. 1997)"}}
             : nlohmann::json(nullptr)},
-      {"seismicity_rate", v.spec.rate_state ? nlohmann::json{{"method", "Dieterich (1994) rate-and-state, dCFF = mu dp"},
+      {"seismicity_rate", v.spec.rate_state ? nlohmann::json{{"method", v.poroelastic_path
+                                                                           ? "Dieterich (1994) rate-and-state, dCFF along "
+                                                                             "the poroelastic stress path"
+                                                                           : "Dieterich (1994) rate-and-state, dCFF = mu dp"},
                                                              {"background_rate_per_km_per_year",
                                                               v.spec.background_rate_per_m * 1000.0 * units::kYear},
                                                              {"a_sigma_MPa", v.spec.a_sigma / kMPa},

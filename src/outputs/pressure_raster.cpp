@@ -27,7 +27,9 @@ void write_pressure_raster(const formats::RunFolder& folder, const scenario::Res
   formats::GeoTiffOptions opt;
   opt.cloud_optimized = s.output.cog;
   opt.unit = "MPa";
-  opt.metadata = {{"QUANTITY", "pore-pressure change from injection (Theis superposition), MPa"},
+  opt.metadata = {{"QUANTITY", s.region.formation.leaky
+                                    ? "pore-pressure change from injection (Hantush-Jacob leaky superposition), MPa"
+                                    : "pore-pressure change from injection (Theis superposition), MPa"},
                   {"CAUTION", kScreeningCaution},
                   {"SCENARIO", s.file}};
   write_styled_geotiff(folder, "output.files.pressure_raster", s.output.files.pressure_raster, p.grid, p.working,

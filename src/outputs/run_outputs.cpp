@@ -1,6 +1,9 @@
 #include "outputs/run_outputs.hpp"
 
+#include <cmath>
+
 #include "core/caution.hpp"
+#include "core/util/number_text.hpp"
 #include "formats/files/manifest.hpp"
 #include "outputs/capacity_tables.hpp"
 #include "outputs/what_if_table.hpp"
@@ -17,7 +20,8 @@
 namespace slipscreen::outputs {
 namespace {
 
-nlohmann::json run_block(const screening::PreparedRun& p, const screen::ScreenResult& r) {
+nlohmann::json run_block(const scenario::ResolvedScenario& s, const screening::PreparedRun& p,
+                         const screen::ScreenResult& r) {
   const auto& st = p.inputs.stress;
   return {{"screen", "deterministic"},
           {"tracking_grid", screening::kTrackingGridStatement},
@@ -28,6 +32,7 @@ nlohmann::json run_block(const screening::PreparedRun& p, const screen::ScreenRe
           {"meridian_convergence_deg", p.convergence_rad * kRadToDeg},
           {"stress_at_reference_depth",
            {{"sv_Pa", st.sv}, {"shmax_Pa", st.shmax}, {"shmin_Pa", st.shmin}, {"pore_pressure_Pa", st.pore_pressure}}},
+          {"stress_path", screening::stress_path_statement(s.region.stress)},
           {"theis", {{"diffusivity_m2_per_s", p.inputs.formation.diffusivity},
                      {"pressure_per_rate_Pa_s_per_m3", p.inputs.formation.pressure_per_rate}}},
           {"well_radius_clamped", r.radius_clamped}};
@@ -67,6 +72,13 @@ ReadmeContent run_readme(const scenario::ResolvedScenario& s, const RunResults& 
                                      "files in SI"
                                    : "coordinates in the working CRS's unit; screen.gpkg in these units too; the "
                                      "GeoTIFFs (dp in MPa) and the JSON files in SI")};
+  if (s.region.stress.poroelastic_path)
+    c.facts.push_back("Stress path: " + screening::stress_path_statement(s.region.stress));
+  if (s.region.formation.leaky)
+    c.facts.push_back("Formation: leaky (Hantush & Jacob 1955), W(u, r/B) in place of Theis's E1, leakage factor B = " +
+                      util::number_text(std::sqrt(r.prepared.inputs.formation.diffusivity /
+                                                  r.prepared.inputs.formation.leakage_rate), 6) +
+                      " m (docs/pressure.md)");
   const std::string crs = r.prepared.working.authority();
   if (!crs.empty()) c.facts.push_back("Working CRS: " + crs + " (coordinates in metres)");
   if (s.output.report)
@@ -110,7 +122,7 @@ void write_run_outputs(const formats::RunFolder& folder, const scenario::Resolve
   m.caution = kScreeningCaution;
   m.include_timestamp = !o.reproducible;
   m.inputs = p.manifest_inputs;
-  m.parameters = {{"scenario", scenario::to_json(s)}, {"run", run_block(p, r.screen)}};
+  m.parameters = {{"scenario", scenario::to_json(s)}, {"run", run_block(s, p, r.screen)}};
   if (r.probabilistic) m.parameters["probabilistic"] = probabilistic_manifest(*r.probabilistic);
   if (r.capacity) m.parameters["capacity"] = capacity_manifest(*r.capacity);
   if (r.what_if) m.parameters["what_if"] = what_if_manifest(*r.what_if);

@@ -20,16 +20,25 @@ namespace {
 
 constexpr const char* kStagingPrefix = ".report-staging-";
 
-outputs::report::ReportSource read_source(const fs::path& folder, const std::string& manifest_name, std::size_t top) {
+outputs::report::ReportSource read_source(const fs::path& folder, const std::string& manifest_name,
+                                          const ReportJobOptions& o) {
   outputs::report::ReportSource src;
   src.folder = folder;
-  src.top_segments = top;
+  src.top_segments = o.top;
   const fs::path path = folder / manifest_name;
   std::ifstream in(path, std::ios::binary);
   if (!in) throw IoError(path.string() + ": cannot read the run's manifest");
   src.manifest = nlohmann::json::parse(in, nullptr, /*allow_exceptions=*/false);
   if (src.manifest.is_discarded() || !src.manifest.is_object())
     throw InputError("manifest", path.string(), "the run's manifest.json (a JSON object)");
+  std::string maps = o.maps;
+  if (maps.empty())
+    maps = src.manifest.value("parameters", nlohmann::json::object())
+               .value("scenario", nlohmann::json::object())
+               .value("output", nlohmann::json::object())
+               .value("report_maps", std::string("last"));
+  if (maps != "last" && maps != "each") throw InputError("report_maps", maps, "\"last\" or \"each\"", path.string());
+  src.maps_each = maps == "each";
   return src;
 }
 
@@ -80,7 +89,7 @@ struct StagingGuard {
 }  // namespace
 
 ReportJobResult write_report_into(const fs::path& folder, const ReportJobOptions& o, const std::string& manifest_name) {
-  const auto src = read_source(folder, manifest_name, o.top);
+  const auto src = read_source(folder, manifest_name, o);
   ReportJobResult r{folder, outputs::report::write_report(src, report_options(src, o),
                                                           outputs::report::report_figure_builders(), folder)};
   formats::record_report_files(folder / manifest_name, r.files);
@@ -94,7 +103,7 @@ ReportJobResult rebuild_report(const fs::path& folder, const ReportJobOptions& o
   clean_stale_staging(folder);
   if (const auto why = formats::not_a_run(folder))
     throw RefusedError(folder.string() + ": not a run folder of slipscreen: " + *why);
-  const auto src = read_source(folder, "manifest.json", o.top);
+  const auto src = read_source(folder, "manifest.json", o);
   const std::vector<std::string> old_files = formats::report_files(src.manifest);
 
   StagingGuard staging{folder / (kStagingPrefix + std::to_string(::getpid()))};

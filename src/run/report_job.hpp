@@ -19,6 +19,7 @@ struct ReportJobOptions {
   std::string page = "";      // "A4" or "Letter"; "" = the scenario's [output] page (A4 when absent)
   bool reproducible = false;  // no build time in the report (a rebuild gives the same bytes)
   std::size_t top = 5;        // segments in the "top segments" tables and figures
+  std::string maps = "";      // "last" or "each" (area maps); "" = the scenario's [output] report_maps (last when absent)
 };
 
 struct ReportJobResult {

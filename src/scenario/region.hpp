@@ -35,6 +35,10 @@ struct StressSpec {
   // model = a_phi (Simpson 1997): magnitudes from frictional equilibrium at this friction
   double a_phi = kUnset;               // 0..3
   double equilibrium_friction = kUnset;  // 1, defaults to the fault friction
+  // poroelastic_path = true: the horizontal stresses follow the pore pressure by
+  // κ = α(1−2ν)/(1−ν) (Engelder & Fischer 1994) with α = biot and ν = poisson_ratio (both
+  // required keys then for models other than uniaxial_strain, which shares them).
+  bool poroelastic_path = false;
 };
 
 struct FaultMapSpec {
@@ -76,6 +80,12 @@ struct FormationSpec {
   double storativity = kUnset;            // 1
   double fluid_density = 1000.0;          // kg/m^3
   std::vector<BoundarySpec> boundaries;
+  // model = "leaky": Hantush & Jacob (1955) leaky formation (core/hydro/hantush.hpp), with the
+  // leakage factor B given or from the aquitard, B = sqrt(k h b'/k').
+  bool leaky = false;
+  double leakage_factor = kUnset;          // m, B (given or computed)
+  double aquitard_thickness = kUnset;      // m, b'
+  double aquitard_permeability = kUnset;   // m^2, k' (vertical)
 };
 
 struct RegionSpec {
@@ -90,7 +100,8 @@ struct RegionSpec {
   FormationSpec formation;
 };
 
-// The Theis parameters (D and μ/(4π k h)) of a formation (core/hydro/theis.hpp, Theis 1935).
+// The Theis parameters (D and μ/(4π k h)) of a formation (core/hydro/theis.hpp, Theis 1935), and
+// for a leaky formation its leakage rate c_L = D/B² (Hantush & Jacob 1955).
 // Throws InputError naming the field unless the values are finite and positive.
 hydro::TheisParameters theis_parameters_of(const FormationSpec& f);
 

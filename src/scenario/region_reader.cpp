@@ -65,9 +65,13 @@ void read_horizontal_stress(const formats::Section& s, const std::string& model,
   };
   const std::initializer_list<std::string_view> uniaxial_keys = {"poisson_ratio", "biot", "young_modulus", "strain_shmin", "strain_shmax",
                               "tectonic_shmin", "tectonic_shmax"};
+  // The poroelastic path's α and ν are the uniaxial-strain model's own keys (the same rock).
+  const std::initializer_list<std::string_view> uniaxial_only = {"young_modulus", "strain_shmin", "strain_shmax",
+                                                                 "tectonic_shmin", "tectonic_shmax"};
+  const auto forbid_uniaxial = [&] { st.poroelastic_path ? forbid(uniaxial_only) : forbid(uniaxial_keys); };
   switch (st.model) {
     case StressModel::gradients:
-      forbid(uniaxial_keys);
+      forbid_uniaxial();
       forbid({"a_phi", "equilibrium_friction"});
       st.shmax_gradient = checked(s, "shmax_gradient", Dimension::pressure_gradient, plausible::kHorizontalGradient);
       st.shmin_gradient = checked(s, "shmin_gradient", Dimension::pressure_gradient, plausible::kHorizontalGradient);
@@ -89,19 +93,27 @@ void read_horizontal_stress(const formats::Section& s, const std::string& model,
       st.tectonic_shmax = checked_or(s, "tectonic_shmax", Dimension::pressure, 0.0, plausible::kTectonicStress);
       break;
     case StressModel::a_phi:
-      forbid(uniaxial_keys);
+      forbid_uniaxial();
       forbid({"shmax_gradient", "shmin_gradient"});
       st.a_phi = checked(s, "a_phi", Dimension::dimensionless, {0.0, 3.0, false, false, "A_phi in [0, 3] (Simpson 1997)"});
       st.equilibrium_friction = checked_or(s, "equilibrium_friction", Dimension::dimensionless, fault_friction, kFriction);
       break;
   }
+  if (!st.poroelastic_path) return;
+  // Engelder & Fischer (1994): κ = α(1−2ν)/(1−ν); α = 0 would be no path at all.
+  if (st.model != StressModel::uniaxial_strain)
+    st.poisson_ratio = checked(s, "poisson_ratio", Dimension::dimensionless,
+                               {0.0, 0.4999, false, false, "a Poisson ratio in [0, 0.5)"});
+  st.biot = checked_or(s, "biot", Dimension::dimensionless, 1.0,
+                       {0.0, 1.0, true, false, "a Biot coefficient in (0, 1] (with poroelastic_path = true)"});
 }
 
 StressSpec read_stress(const formats::Section& s, double fault_friction) {
   s.allow({"model", "vertical_gradient", "overburden_density", "density_layers", "shmax_azimuth", "shmax_gradient",
            "shmin_gradient", "poisson_ratio", "biot", "young_modulus", "strain_shmin", "strain_shmax",
-           "tectonic_shmin", "tectonic_shmax", "a_phi", "equilibrium_friction"});
+           "tectonic_shmin", "tectonic_shmax", "a_phi", "equilibrium_friction", "poroelastic_path"});
   StressSpec st;
+  st.poroelastic_path = s.boolean_or("poroelastic_path", false);
   const std::string model = s.string("model");
   if (model == "gradients") st.model = StressModel::gradients;
   else if (model == "uniaxial_strain") st.model = StressModel::uniaxial_strain;
@@ -144,9 +156,40 @@ FaultMapSpec read_faults(const formats::Section& s) {
   return f;
 }
 
+// [formation] model = "theis" | "leaky"; a leaky formation takes its leakage factor B directly
+// (leakage_factor) or from the aquitard (leakage = {aquitard_thickness, aquitard_permeability},
+// B = sqrt(k h b'/k'), Hantush & Jacob 1955).
+void read_leakage(const formats::Section& s, FormationSpec& f) {
+  const std::string model = s.optional_string("model").value_or("theis");
+  if (model == "leaky") f.leaky = true;
+  else if (model != "theis") s.fail("model", model, "'theis' or 'leaky'");
+  const bool given = s.has("leakage"), factor = s.has("leakage_factor");
+  if (!f.leaky) {
+    if (given || factor)
+      s.fail(given ? "leakage" : "leakage_factor", "(set)", "model = 'leaky' for a leaky formation (the model is 'theis')");
+    return;
+  }
+  if (given == factor)
+    s.fail("leakage", given ? "(with leakage_factor)" : "(missing)",
+           "exactly one of leakage = {aquitard_thickness, aquitard_permeability} or leakage_factor with model = 'leaky'");
+  if (factor) {
+    f.leakage_factor = checked(s, "leakage_factor", Dimension::length,
+                               {1.0, 1e12, false, false, "a leakage factor B from 1 m to 1e12 m"});
+    return;
+  }
+  if (f.from_transmissivity)
+    s.fail("leakage", "(aquitard)", "leakage_factor for a formation given by transmissivity (B = sqrt(T b'/K') needs "
+                                     "the aquitard's hydraulic conductivity; give B directly)");
+  const formats::Section a = s.child("leakage");
+  a.allow({"aquitard_thickness", "aquitard_permeability"});
+  f.aquitard_thickness = checked(a, "aquitard_thickness", Dimension::length,
+                                 {0.1, 5000.0, false, false, "an aquitard thickness from 0.1 m to 5 km"});
+  f.aquitard_permeability = checked(a, "aquitard_permeability", Dimension::permeability, plausible::kPermeability);
+}
+
 FormationSpec read_formation(const formats::Section& s) {
   s.allow({"name", "permeability", "thickness", "porosity", "total_compressibility", "viscosity",
-           "transmissivity", "storativity", "fluid_density", "boundary"});
+           "transmissivity", "storativity", "fluid_density", "boundary", "model", "leakage", "leakage_factor"});
   FormationSpec f;
   f.name = s.optional_string("name").value_or("");
   f.from_transmissivity = s.has("transmissivity") || s.has("storativity");
@@ -165,6 +208,7 @@ FormationSpec read_formation(const formats::Section& s) {
     f.viscosity = checked(s, "viscosity", Dimension::viscosity, plausible::kViscosity);
     f.fluid_density = checked_or(s, "fluid_density", Dimension::density, 1000.0, plausible::kFluidDensity);
   }
+  read_leakage(s, f);
   for (const formats::Section& bs : s.table_array("boundary", "an array of tables [[formation.boundary]]")) {
     bs.allow({"kind", "from", "to"});
     BoundarySpec bd;

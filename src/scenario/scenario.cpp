@@ -213,8 +213,8 @@ OutputGrid read_grid(const formats::Section& s) {
 }
 
 OutputSpec read_output(const formats::Section& s) {
-  s.allow({"folder", "tables", "rasters", "geopackage", "cog", "units", "footprint", "report", "page", "times",
-           "grid", "files"});
+  s.allow({"folder", "tables", "rasters", "geopackage", "cog", "units", "footprint", "report", "page", "report_maps",
+           "times", "grid", "files"});
   OutputSpec o;
   o.folder = s.optional_string("folder").value_or("");
   if (!o.folder.empty()) check_output_name(s, "folder", o.folder);
@@ -239,6 +239,11 @@ OutputSpec read_output(const formats::Section& s) {
   if (const auto page = s.optional_string("page")) {
     if (*page != "A4" && *page != "Letter") s.fail("page", *page, "\"A4\" or \"Letter\" (the PDF report's page size)");
     o.page = *page;
+  }
+  if (const auto maps = s.optional_string("report_maps")) {
+    if (*maps != "last" && *maps != "each")
+      s.fail("report_maps", *maps, "\"last\" or \"each\" (the report's area map at the last output time or at each)");
+    o.report_maps = *maps;
   }
   o.dates = read_times(s.child("times"));
   for (const auto& d : o.dates) o.times.push_back(util::to_seconds(d));
@@ -352,8 +357,10 @@ UncertaintyContext uncertainty_context(const ResolvedScenario& sc) {
   c.file = sc.file;
   c.seed = sc.seed;
   c.stress_model = sc.region.stress.model;
+  c.poroelastic_path = sc.region.stress.poroelastic_path;
   c.density_layers = !sc.region.stress.density_layers.empty();
   c.from_transmissivity = sc.region.formation.from_transmissivity;
+  c.leaky = sc.region.formation.leaky;
   for (const auto& w : sc.wells) c.well_ids.push_back(w.id);
   return c;
 }
@@ -510,6 +517,11 @@ json stress_json(const StressSpec& st) {
       stress["equilibrium_friction"] = num(st.equilibrium_friction);
       break;
   }
+  stress["poroelastic_path"] = st.poroelastic_path;
+  if (st.poroelastic_path && st.model != StressModel::uniaxial_strain) {
+    stress["poisson_ratio"] = num(st.poisson_ratio);
+    stress["biot"] = num(st.biot);
+  }
   return stress;
 }
 
@@ -534,6 +546,13 @@ json formation_json(const FormationSpec& fm) {
     bounds.push_back({{"kind", b.kind == BoundarySpec::Kind::no_flow ? "no_flow" : "constant_pressure"},
                       {"from", {b.x1, b.y1}}, {"to", {b.x2, b.y2}}});
   formation["boundaries"] = bounds;
+  formation["model"] = fm.leaky ? "leaky (Hantush & Jacob 1955)" : "theis";
+  if (fm.leaky) {
+    formation["leakage_factor_m"] = std::sqrt(theis.diffusivity / theis.leakage_rate);
+    formation["leakage_rate_per_s"] = theis.leakage_rate;
+    formation["aquitard_thickness_m"] = num(fm.aquitard_thickness);
+    formation["aquitard_permeability_m2"] = num(fm.aquitard_permeability);
+  }
   return formation;
 }
 
@@ -579,7 +598,8 @@ json output_json(const OutputSpec& o, const std::string& region_crs) {
   }
   return {{"folder", o.folder}, {"tables", o.tables}, {"rasters", o.rasters},
           {"geopackage", o.geopackage}, {"cog", o.cog}, {"units", std::string(units::unit_system_name(o.units))},
-          {"footprint_Pa", o.footprint}, {"report", o.report}, {"page", o.page}, {"dates", dates}, {"grid", grid},
+          {"footprint_Pa", o.footprint}, {"report", o.report}, {"page", o.page},
+          {"report_maps", o.report_maps}, {"dates", dates}, {"grid", grid},
           {"files", {{"segment_times", o.files.segment_times}, {"segments", o.files.segments},
                      {"pressure_raster", o.files.pressure_raster},
                      {"geopackage", o.files.geopackage}}}};

@@ -57,6 +57,7 @@ struct OutputSpec {
   bool footprint_given = false;  // written under [output]
   bool report = true;            // report.html, report.pdf and figures/ (docs/report.md)
   std::string page = "A4";       // the PDF report's page size: "A4" or "Letter"
+  std::string report_maps = "last";  // the report's area map: at the last output time, or "each" output time
   std::vector<util::CivilDate> dates;
   std::vector<double> times;     // seconds, strictly increasing
   OutputGrid grid;

@@ -34,6 +34,7 @@ constexpr Range kAny{};
 constexpr Range kPositive{0.0, kInf, true, false, "positive values"};
 constexpr Range kPoisson{0.0, 0.5, true, true, "values in (0, 0.5)"};
 constexpr Range kAPhi{0.0, 3.0, false, false, "values in [0, 3]"};
+constexpr Range kBiot{0.0, 1.0, true, false, "values in (0, 1]"};
 // The physical ranges of scenario/plausibility.hpp (docs/scenario.md, "Plausible ranges").
 constexpr Range of(const plausible::Range& r, const char* what) { return {r.lo, r.hi, r.lo_open, r.hi_open, what}; }
 constexpr Range kPermeability = of(plausible::kPermeability, "permeabilities from 1e-7 mD to 1e6 mD");
@@ -155,17 +156,19 @@ void read_stress(const formats::Section& stress, const UncertaintyContext& ctx, 
     KeySpec spec;
     int models;  // bit mask of StressModel values where the key applies
   };
-  constexpr int kAll = 7, kGrad = 1 << static_cast<int>(StressModel::gradients),
+  // kPath: the keys of the poroelastic stress path ([stress] poroelastic_path = true), any model.
+  constexpr int kAll = 7, kPath = 8, kGrad = 1 << static_cast<int>(StressModel::gradients),
                 kUni = 1 << static_cast<int>(StressModel::uniaxial_strain), kAphi = 1 << static_cast<int>(StressModel::a_phi);
   const std::vector<StressKey> keys = {
       {{"vertical_gradient", Dimension::pressure_gradient, kVerticalGradient, &Model::vertical_gradient}, kAll},
       {{"shmax_azimuth", Dimension::angle, kAny, &Model::shmax_azimuth}, kAll},
       {{"shmax_gradient", Dimension::pressure_gradient, kHorizontalGradient, &Model::shmax_gradient}, kGrad},
       {{"shmin_gradient", Dimension::pressure_gradient, kHorizontalGradient, &Model::shmin_gradient}, kGrad},
-      {{"poisson_ratio", Dimension::dimensionless, kPoisson, &Model::poisson_ratio}, kUni},
+      {{"poisson_ratio", Dimension::dimensionless, kPoisson, &Model::poisson_ratio}, kUni | kPath},
+      {{"biot", Dimension::dimensionless, kBiot, &Model::biot}, kPath},
       {{"a_phi", Dimension::dimensionless, kAPhi, &Model::a_phi}, kAphi},
   };
-  const int model = 1 << static_cast<int>(ctx.stress_model);
+  const int model = (1 << static_cast<int>(ctx.stress_model)) | (ctx.poroelastic_path ? kPath : 0);
   std::vector<std::string> applicable;
   for (const auto& k : keys)
     if (k.models & model) applicable.emplace_back(k.spec.key);
@@ -183,7 +186,10 @@ void read_stress(const formats::Section& stress, const UncertaintyContext& ctx, 
                          "a key of [uncertainty.stress]: " + list + util::did_you_mean(name.str(), applicable), where);
       if (!(it->models & model))
         throw InputError(path, formats::toml_value_text(node),
-                         "a key of the region's stress model '" + stress_model_name(ctx.stress_model) + "': " + list, where);
+                         "a key of the region's stress model '" + stress_model_name(ctx.stress_model) + "'" +
+                             (ctx.poroelastic_path ? " with its poroelastic path" : "") + ": " + list +
+                             (it->models == kPath ? " (biot needs [stress] poroelastic_path = true)" : ""),
+                         where);
       if (it->spec.key == "vertical_gradient" && ctx.density_layers)
         throw InputError(path, formats::toml_value_text(node),
                          "no vertical_gradient: the region gives Sv by a density table", where);
@@ -252,7 +258,19 @@ void read_settings(const formats::Section& top, const UncertaintyContext& ctx, U
 void read_formation(const formats::Section& formation, const UncertaintyContext& ctx, UncertaintySpec& spec) {
   const std::vector<KeySpec>& keys = ctx.from_transmissivity ? kTransmissivityFormKeys : kPermeabilityFormKeys;
   formation.allow(key_names(keys));
+  const std::size_t before = spec.values.size();
   read_keys(formation, keys, "formation.", spec);
+  // A leaky formation keeps c_L = D/B² fixed across realizations (docs/pressure.md), which holds
+  // for an uncertain k (or T) alone: B² ∝ k and D ∝ k.
+  if (ctx.leaky)
+    for (std::size_t i = before; i < spec.values.size(); ++i) {
+      const UncertainValue& v = spec.values[i];
+      if (v.key != "formation.permeability" && v.key != "formation.transmissivity")
+        throw InputError("uncertainty." + v.key, v.text,
+                         "a fixed value: with [formation] model = 'leaky' only the permeability (or transmissivity) "
+                         "may be uncertain",
+                         v.where);
+    }
 }
 
 // [uncertainty.faults] (every fault) and [uncertainty.fault."id"] (the friction of one fault;

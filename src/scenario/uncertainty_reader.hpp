@@ -16,8 +16,10 @@ struct UncertaintyContext {
   std::string file;  // display name of the scenario file
   std::uint64_t seed = 1;
   StressModel stress_model = StressModel::gradients;
+  bool poroelastic_path = false;      // [stress] poroelastic_path: biot and poisson_ratio may be uncertain
   bool density_layers = false;        // Sv from a density table (no vertical_gradient)
   bool from_transmissivity = false;   // formation given as T and S
+  bool leaky = false;                 // [formation] model = "leaky": only k (or T) may be uncertain
   std::vector<std::string> well_ids;  // existing and proposed wells
 };
 // Reads an [uncertainty] table (null: not given, the defaults above). Throws InputError naming

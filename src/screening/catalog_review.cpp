@@ -216,10 +216,10 @@ void review_rates(CatalogReview& v, const scenario::ResolvedScenario& s, const P
     }
     for (std::size_t k = 0; k < r.tracked_times.size(); ++k) {
       h.time.push_back(r.tracked_times[k]);
-      h.coulomb_change.push_back(g.friction * g.tracked_dp[k]);
+      h.coulomb_change.push_back(g.coulomb_change.at(g.tracked_dp[k]));
     }
     sr.history_start = h.time.front();
-    for (double dp : g.dp) sr.dcff.push_back(g.friction * dp);
+    for (double dp : g.dp) sr.dcff.push_back(g.coulomb_change.at(dp));
     try {
       const auto params = seismo::RateStateParameters::from_aftershock_duration(sr.background_rate, v.spec.a_sigma,
                                                                                 v.spec.aftershock_duration);
@@ -285,6 +285,7 @@ void review_rt(CatalogReview& v, const PreparedRun& p, const ProbabilisticRun* p
 void state_assumptions(CatalogReview& v, const PreparedRun& p) {
   auto& a = v.assumptions;
   const scenario::CatalogSpec& c = v.spec;
+  v.poroelastic_path = p.inputs.stress_path_kappa > 0.0;
   a.push_back("Events are placed by their epicentres in the working CRS; depth is not used for distances or Δp "
               "(the pressure model is two-dimensional in the injected formation).");
   a.push_back("The net volume for the McGarr (2014) bound is the total injected by all scenario wells up to the last "
@@ -299,8 +300,11 @@ void state_assumptions(CatalogReview& v, const PreparedRun& p) {
   a.push_back("P(slip) of an event's nearest segment is the injection-induced probability at the last output time "
               "at or before the event (probabilities are computed at output times).");
   if (c.rate_state)
-    a.push_back("Seismicity rates: Dieterich (1994) rate-and-state response to ΔCFF = μ Δp on each segment (no "
-                "poroelastic stress change), background rate per km of trace, Aσ and t_a as given.");
+    a.push_back(std::string("Seismicity rates: Dieterich (1994) rate-and-state response to ") +
+                (v.poroelastic_path
+                     ? "ΔCFF on each segment along the poroelastic stress path (Δσh = κΔp, Engelder & Fischer 1994)"
+                     : "ΔCFF = μ Δp on each segment (no poroelastic stress change)") +
+                ", background rate per km of trace, Aσ and t_a as given.");
 }
 
 CatalogReview review_catalog(const scenario::ResolvedScenario& s, const PreparedRun& p, const screen::ScreenResult& r,

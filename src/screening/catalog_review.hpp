@@ -18,7 +18,8 @@
 //   independent Bernoulli trials above its mean + 1 is at most the binomial tail with the same
 //   mean (from memory), so the reported p-value is conservative.
 // Seismicity-rate response (Dieterich 1994; core/seismo/rate_state.hpp) per fault segment to
-//   ΔCFF(t) = μ Δp(t) (pore pressure only: no poroelastic stress change, κ = 0 as in the screen)
+//   ΔCFF(t) = μ Δp(t) (pore pressure only, κ = 0), or with [stress] poroelastic_path the change
+//   along the path, |a + bΔp| − |a| + μ(1 − κ sin²δ)Δp (geomech::CoulombPathChange), as in the screen
 //   on the screen's tracking grid, with background rate r = rate per km × trace length.
 #include <cstddef>
 #include <optional>
@@ -57,7 +58,7 @@ struct EventAgainstModel {
 struct SegmentRate {
   double background_rate = 0;             // events/s
   std::vector<seismo::RateSample> samples;  // at the output times
-  std::vector<double> dcff;               // Pa, ΔCFF = μ Δp at the output times
+  std::vector<double> dcff;               // Pa, ΔCFF at the output times (μ Δp without a stress path)
   double history_start = 0;               // s: expected counts are from here
   std::vector<double> background_expected;  // events expected at the background rate by each output time
   std::string note;                       // why it is missing (samples empty)
@@ -95,6 +96,7 @@ struct CatalogReview {
   // seismogenic index was fitted to (empty when there is none).
   std::optional<seismo::VolumeHistory> volume_history;
   std::vector<std::string> assumptions;
+  bool poroelastic_path = false;  // the rates' ΔCFF follows the poroelastic stress path
 };
 
 // Reads, reprojects, filters and reviews the scenario's catalog against the screen's results

@@ -10,6 +10,7 @@
 
 #include "core/errors.hpp"
 #include "core/geomech/a_phi.hpp"
+#include "core/geomech/coulomb.hpp"
 #include "core/geomech/depth_profile.hpp"
 #include "core/geomech/horizontal_stress.hpp"
 #include "formats/files/path_policy.hpp"
@@ -31,6 +32,17 @@ geomech::UniaxialStrainModel uniaxial_strain_model_of(const scenario::StressSpec
   m.tectonic_h = st.tectonic_shmin;
   m.tectonic_H = st.tectonic_shmax;
   return m;
+}
+
+double stress_path_kappa_of(const scenario::StressSpec& st) {
+  return st.poroelastic_path ? geomech::stress_path_coefficient({st.biot, st.poisson_ratio}) : 0.0;
+}
+
+std::string stress_path_statement(const scenario::StressSpec& st) {
+  if (!st.poroelastic_path) return "none: total stresses unchanged, dCFF = mu dp";
+  return "poroelastic (Engelder & Fischer 1994): dSh = dSH = kappa dp, dSv = 0, kappa = alpha(1-2nu)/(1-nu) = " +
+         util::number_text(stress_path_kappa_of(st), 6) + " (alpha " + util::number_text(st.biot, 6) + ", nu " +
+         util::number_text(st.poisson_ratio, 6) + "); dp_crit exact along the path";
 }
 
 geomech::AndersonianStress stress_at_reference_depth(const scenario::RegionSpec& r) {
@@ -190,6 +202,7 @@ screen::ScreenInputs screen_inputs(const scenario::ResolvedScenario& s, const Pr
   screen::ScreenInputs in{};
   in.stress = stress_at_reference_depth(r);
   in.friction = {r.faults.friction, r.faults.cohesion};
+  if (r.stress.poroelastic_path) in.stress_path_kappa = stress_path_kappa_of(r.stress);
   in.formation = [&] {
     try {
       return theis_parameters_of(r.formation);

@@ -46,6 +46,11 @@ PreparedRun prepare_run(const scenario::ResolvedScenario& s, bool allow_network)
 geomech::UniaxialStrainModel uniaxial_strain_model_of(const scenario::StressSpec& st);
 
 geomech::AndersonianStress stress_at_reference_depth(const scenario::RegionSpec& r);
+// κ = α(1−2ν)/(1−ν) of the region's poroelastic stress path (Engelder & Fischer 1994,
+// geomech::stress_path_coefficient); 0 without [stress] poroelastic_path.
+double stress_path_kappa_of(const scenario::StressSpec& st);
+// One line naming the stress path used (manifest, console, README).
+std::string stress_path_statement(const scenario::StressSpec& st);
 
 // The pressure-grid engine's sources (every well with its image wells, signed rates) and
 // formation (smallest well radius) of a prepared run.

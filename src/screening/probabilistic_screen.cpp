@@ -59,6 +59,11 @@ probabilistic::UncertainModel uncertain_model(const scenario::ResolvedScenario& 
       m.equilibrium_friction = std::isnan(st.equilibrium_friction) ? rg.faults.friction : st.equilibrium_friction;
       break;
   }
+  if (st.poroelastic_path) {  // κ = α(1−2ν)/(1−ν) per realization (Engelder & Fischer 1994)
+    m.poroelastic_path = true;
+    m.poisson_ratio = fixed(st.poisson_ratio, "poisson_ratio");
+    m.biot = fixed(st.biot, "biot");
+  }
   m.friction = fixed(p.inputs.friction.mu, "friction");
   m.cohesion = fixed(p.inputs.friction.cohesion, "cohesion");
 
@@ -133,6 +138,7 @@ ProbabilisticRun run_probabilistic_screen(const scenario::ResolvedScenario& s, c
   set.realizations = spec.realizations.value();
   set.method = spec.sampler;
   set.boundaries = p.inputs.boundaries;
+  set.leakage_rate = p.inputs.formation.leakage_rate;  // leaky formation: c_L = D/B², fixed
   run.tracked_times = screen::tracking_grid(changes, s.output.times);
   if (run.tracked_times.empty()) run.tracked_times = s.output.times;
   set.tracking_times = run.tracked_times;

@@ -133,6 +133,61 @@ TEST_CASE("the three stress forms and transmissivity-storativity") {
   CHECK(std::abs(theis_parameters_of(sh.region.formation).pressure_per_rate - 1000 * 9.80665 / (4 * 3.14159265358979323846 * 0.02)) < 1e-6);  // rho g/(4 pi T)
 }
 
+TEST_CASE("[stress] poroelastic_path takes biot and poisson_ratio, checked, with any stress model") {
+  TinyScenario t;
+  t.replace("region.toml", "a_phi = 1.5", "a_phi = 1.5\nporoelastic_path = true\nbiot = 0.7\npoisson_ratio = 0.3");
+  const auto s = load_scenario(t.scenario());
+  CHECK(s.region.stress.poroelastic_path);
+  CHECK(s.region.stress.biot == 0.7);
+  CHECK(s.region.stress.poisson_ratio == 0.3);
+  CHECK_FALSE(load_scenario(TinyScenario().scenario()).region.stress.poroelastic_path);
+  const std::pair<const char*, const char*> bad[] = {
+      {"poroelastic_path = true\nbiot = 0.7", "key 'stress.poisson_ratio': missing"},
+      {"poroelastic_path = true\nbiot = 0\npoisson_ratio = 0.3", "a Biot coefficient in (0, 1]"},
+      {"poroelastic_path = true\nbiot = 1.1\npoisson_ratio = 0.3", "a Biot coefficient in (0, 1]"},
+      {"poroelastic_path = true\npoisson_ratio = 0.5", "a Poisson ratio in [0, 0.5)"},
+      {"biot = 0.7", "no 'biot' with model = 'a_phi'"},
+      {"poroelastic_path = true\npoisson_ratio = 0.3\nyoung_modulus = \"20 GPa\"", "no 'young_modulus' with model = 'a_phi'"},
+  };
+  for (const auto& [text, message] : bad) {
+    CAPTURE(text);
+    TinyScenario b;
+    b.replace("region.toml", "a_phi = 1.5", std::string("a_phi = 1.5\n") + text);
+    CHECK_THROWS_WITH(load_scenario(b.scenario()), doctest::Contains(message));
+  }
+}
+
+TEST_CASE("[formation] model = 'leaky' with the aquitard or the leakage factor B") {
+  TinyScenario t;
+  t.replace("region.toml", "viscosity = \"0.5 cP\"",
+            "viscosity = \"0.5 cP\"\nmodel = \"leaky\"\nleakage = { aquitard_thickness = \"20 m\", aquitard_permeability = \"0.001 mD\" }");
+  const auto s = load_scenario(t.scenario());
+  REQUIRE(s.region.formation.leaky);
+  // c_L = D/B² = k'/(μ φ c_t h b') (Hantush & Jacob 1955; k cancels): 0.001 mD, 0.5 cP, 0.1, 1e-9 1/Pa, 100 m, 20 m.
+  const double k1 = 0.001 * 9.869233e-16;
+  const double want = k1 / (0.5e-3 * 0.1 * 1e-9 * 100.0 * 20.0);
+  CHECK(std::abs(theis_parameters_of(s.region.formation).leakage_rate - want) <= 1e-13 * want);
+  TinyScenario b;
+  b.replace("region.toml", "viscosity = \"0.5 cP\"", "viscosity = \"0.5 cP\"\nmodel = \"leaky\"\nleakage_factor = \"4 km\"");
+  const auto sb = load_scenario(b.scenario());
+  const auto pb = theis_parameters_of(sb.region.formation);
+  CHECK(std::abs(pb.leakage_rate - pb.diffusivity / 16e6) <= 1e-15 * pb.leakage_rate);
+  CHECK(theis_parameters_of(load_scenario(TinyScenario().scenario()).region.formation).leakage_rate == 0.0);
+  const std::pair<const char*, const char*> bad[] = {
+      {"model = \"leaky\"", "exactly one of leakage"},
+      {"model = \"hantush\"", "'theis' or 'leaky'"},
+      {"leakage_factor = \"4 km\"", "model = 'leaky' for a leaky formation"},
+      {"model = \"leaky\"\nleakage_factor = \"0.5 m\"", "a leakage factor B from 1 m to 1e12 m"},
+      {"model = \"leaky\"\nleakage = { aquitard_thickness = \"20 m\" }", "aquitard_permeability"},
+  };
+  for (const auto& [text, message] : bad) {
+    CAPTURE(text);
+    TinyScenario x;
+    x.replace("region.toml", "viscosity = \"0.5 cP\"", std::string("viscosity = \"0.5 cP\"\n") + text);
+    CHECK_THROWS_WITH(load_scenario(x.scenario()), doctest::Contains(message));
+  }
+}
+
 TEST_CASE("active wells may continue at the mean rate of their last reported months") {
   TinyScenario t;
   t.replace("scenario.toml", "file = \"histories.csv\"", "file = \"histories.csv\"\ncontinue_active_until = \"2020-06-01\"");

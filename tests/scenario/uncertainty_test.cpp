@@ -107,6 +107,7 @@ TEST_CASE("bad [uncertainty] tables name the file, line, key and what was expect
        "expected a key of the region's stress model 'a_phi': vertical_gradient, shmax_azimuth, a_phi"},
       {"[uncertainty.fault.\"F1\"]\ncohesion = \"1 MPa\"\n", "unknown key"},
       {"[uncertainty.stress]\na_fi = 1.2\n", "(did you mean 'a_phi'?)"},
+      {"[uncertainty.stress]\nbiot = \"uniform(0.6, 0.9)\"\n", "(biot needs [stress] poroelastic_path = true)"},
       {"[uncertainty.stress]\na_phi = \"uniform(2.5, 3.5)\"\n", "a distribution of values in [0, 3]"},
       {"[uncertainty.well.\"W9\"]\nrate_factor = 1.1\n", "expected the id of a well of the scenario (did you mean 'W1'?)"},
       {"[uncertainty]\nthresholds = [0.05, 1.5]\n", "probabilities between 0 and 1"},
@@ -123,6 +124,33 @@ TEST_CASE("bad [uncertainty] tables name the file, line, key and what was expect
       CHECK(e.category() == ErrorCategory::input);
     }
   }
+}
+
+TEST_CASE("the poroelastic path's biot and poisson_ratio may be uncertain, in their ranges") {
+  TinyScenario t;
+  t.replace("region.toml", "a_phi = 1.5", "a_phi = 1.5\nporoelastic_path = true\nbiot = 0.8\npoisson_ratio = 0.25");
+  t.append("scenario.toml", "\n[uncertainty]\nrealizations = 10\n[uncertainty.stress]\nbiot = \"uniform(0.6, 0.95)\"\n"
+                            "poisson_ratio = \"triangular(0.2, 0.25, 0.3)\"\n");
+  const auto s = scenario::load_scenario(t.scenario());
+  REQUIRE(s.uncertainty.values.size() == 2);
+  CHECK(s.uncertainty.values[0].key == "stress.biot");
+  CHECK(s.uncertainty.values[1].key == "stress.poisson_ratio");
+  TinyScenario b;
+  b.replace("region.toml", "a_phi = 1.5", "a_phi = 1.5\nporoelastic_path = true\nbiot = 0.8\npoisson_ratio = 0.25");
+  b.append("scenario.toml", "\n[uncertainty]\nrealizations = 10\n[uncertainty.stress]\nbiot = \"uniform(0.6, 1.2)\"\n");
+  CHECK_THROWS_WITH(scenario::load_scenario(b.scenario()), doctest::Contains("expected a distribution of values in (0, 1]"));
+}
+
+TEST_CASE("a leaky formation allows only the permeability to be uncertain") {
+  TinyScenario t;
+  t.replace("region.toml", "viscosity = \"0.5 cP\"", "viscosity = \"0.5 cP\"\nmodel = \"leaky\"\nleakage_factor = \"4 km\"");
+  t.append("scenario.toml", "\n[uncertainty]\nrealizations = 10\n[uncertainty.formation]\n"
+                            "permeability = \"lognormal(median=200 mD, sigma_ln=0.3)\"\n");
+  CHECK(scenario::load_scenario(t.scenario()).uncertainty.values.size() == 1);
+  t.append("scenario.toml", "porosity = \"uniform(0.08, 0.12)\"\n");
+  CHECK_THROWS_WITH(scenario::load_scenario(t.scenario()),
+                    doctest::Contains("field 'uncertainty.formation.porosity' = 'uniform(0.08, 0.12)': expected a fixed value: "
+                                      "with [formation] model = 'leaky'"));
 }
 
 TEST_CASE("the spec does not depend on the order of the lines") {

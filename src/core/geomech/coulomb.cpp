@@ -48,26 +48,60 @@ double critical_pressure_path_root(double tau0, double ab, double bb, double g0,
   return path_root_select(tau0, bb, g0, g1, q, std::sqrt(bb), std::sqrt(std::fmax(q.disc, 0.0)));
 }
 
+namespace {
+
+void check_kappa(double kappa) {
+  if (!std::isfinite(kappa) || kappa < 0.0 || kappa > 1.0)
+    throw InputError("stress-path coefficient", std::to_string(kappa), "a value in [0, 1]");
+}
+
+// The plane's terms on the path: σn, the shear traction a at Δp = 0, its change b per unit Δp
+// and κ sin²δ (the normal stress change per unit Δp).
+struct PathTerms {
+  double sn, beta_n;
+  Eigen::Vector3d a, b;
+};
+
+PathTerms path_terms(const Eigen::Matrix3d& stress, const Eigen::Vector3d& n_in, double kappa) {
+  const Eigen::Vector3d n = n_in.normalized();
+  const Eigen::Vector3d t = stress * n;
+  PathTerms p;
+  p.sn = n.dot(t);
+  p.a = t - p.sn * n;
+  const Eigen::Vector3d dt(kappa * n(0), kappa * n(1), 0.0);  // ΔS n per unit Δp
+  p.beta_n = n.dot(dt);                                         // κ sin²δ
+  p.b = dt - p.beta_n * n;
+  return p;
+}
+
+}  // namespace
+
 CriticalPressure critical_pressure_poroelastic(const Eigen::Matrix3d& stress, double p0, const Eigen::Vector3d& n_in,
                                                const Friction& f, double kappa) {
   check(f);
-  if (!std::isfinite(kappa) || kappa < 0.0 || kappa > 1.0)
-    throw InputError("stress-path coefficient", std::to_string(kappa), "a value in [0, 1]");
-  const Eigen::Vector3d n = n_in.normalized();
-  const Eigen::Vector3d t = stress * n;
-  const double sn = n.dot(t);
-  const Eigen::Vector3d a = t - sn * n;
+  check_kappa(kappa);
+  const PathTerms p = path_terms(stress, n_in, kappa);
   if (kappa == 0.0) {
-    const double dp = critical_pressure_closed_form(a.norm(), sn, p0, f.mu, f.cohesion);
+    const double dp = critical_pressure_closed_form(p.a.norm(), p.sn, p0, f.mu, f.cohesion);
     return {dp, status_of(dp)};
   }
-  const Eigen::Vector3d dt(kappa * n(0), kappa * n(1), 0.0);  // ΔS n per unit Δp
-  const double beta_n = n.dot(dt);                              // κ sin²δ
-  const Eigen::Vector3d b = dt - beta_n * n;
-  const double g0 = f.mu * (sn - p0) + f.cohesion;
-  const double g1 = f.mu * (beta_n - 1.0);
-  const double dp = critical_pressure_path_root(a.norm(), a.dot(b), b.squaredNorm(), g0, g1);
+  const double g0 = f.mu * (p.sn - p0) + f.cohesion;
+  const double g1 = f.mu * (p.beta_n - 1.0);
+  const double dp = critical_pressure_path_root(p.a.norm(), p.a.dot(p.b), p.b.squaredNorm(), g0, g1);
   return {dp, status_of(dp)};
+}
+
+CoulombPathChange coulomb_path_change(const Eigen::Matrix3d& stress, const Eigen::Vector3d& n, double mu, double kappa) {
+  check_friction(mu);
+  check_kappa(kappa);
+  const PathTerms p = path_terms(stress, n, kappa);
+  return {p.a.norm(), p.a.dot(p.b), p.b.squaredNorm(), mu * (1.0 - p.beta_n)};
+}
+
+double CoulombPathChange::at(double dp) const {
+  const double num = (2.0 * ab + bb * dp) * dp;  // |a + bΔp|² − |a|²
+  const double den = std::sqrt(std::fmax(tau0 * tau0 + num, 0.0)) + tau0;
+  return (den > 0.0 ? num / den : 0.0) + normal_rate * dp;
 }
 
 double opening_pressure(const AndersonianStress& s, double kappa) {

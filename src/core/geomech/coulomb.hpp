@@ -139,6 +139,21 @@ inline double path_root_select(double tau0, double bb, double g0, double g1, con
 CriticalPressure critical_pressure_poroelastic(const Eigen::Matrix3d& stress, double p0, const Eigen::Vector3d& n,
                                                const Friction& f, double kappa);
 
+// ΔCFF(Δp) = CFF(Δp) − CFF(0) on one plane along the poroelastic path (same source and terms
+// as above; cohesion cancels):
+//   ΔCFF = |a + bΔp| − |a| + μ (1 − κ sin²δ) Δp,
+// the shear part evaluated as (2 a·b Δp + |b|² Δp²)/(|a + bΔp| + |a|) so it keeps full relative
+// accuracy for small Δp. κ = 0 gives μΔp exactly (b = 0). It is what the Dieterich rate and
+// any other ΔCFF history use on the path. Accuracy: a few ulp of the largest term.
+struct CoulombPathChange {
+  double tau0 = 0.0;         // |a|, Pa
+  double ab = 0.0;           // a·b, Pa
+  double bb = 0.0;           // |b|², 1
+  double normal_rate = 0.0;  // μ (1 − κ sin²δ), 1
+  double at(double dp) const;
+};
+CoulombPathChange coulomb_path_change(const Eigen::Matrix3d& stress, const Eigen::Vector3d& n, double mu, double kappa);
+
 // The pore-pressure increase at which the least effective principal stress of an Andersonian
 // state reaches zero, with the horizontal stresses rising by κ Δp (κ = 0: no stress path):
 // min(Sv − p0, (Shmin − p0)/(1 − κ)). Beyond it tensile opening (hydraulic fracturing) comes

@@ -7,6 +7,7 @@
 #include "core/errors.hpp"
 #include "core/util/number_text.hpp"
 #include "core/util/parallel_errors.hpp"
+#include "core/hydro/hantush.hpp"
 #include "core/hydro/well_function.hpp"
 
 namespace slipscreen::hydro {
@@ -127,7 +128,18 @@ PressureResult PressureField::evaluate(const PreparedPoints& pts, std::span<cons
             }
             if (u.empty()) continue;
             e1.resize(u.size());
-            well_function(u.data(), e1.data(), u.size());
+            if (params.leakage_rate > 0.0) {
+              // Leaky formation: W(u, r/B) with (r/B)² = r² c_L/D = 4 u c_L (t − t_j) (hantush.hpp).
+              std::size_t i = 0;
+              for (const RateChange& c : changes_[w]) {
+                if (!(c.time < t)) break;
+                const double lag = t - c.time;
+                for (std::size_t s = b; s < e; ++s, ++i)
+                  e1[i] = leaky_well_function(u[i], std::sqrt(4.0 * u[i] * params.leakage_rate * lag));
+              }
+            } else {
+              well_function(u.data(), e1.data(), u.size());
+            }
             double acc = 0.0;
             for (std::size_t i = 0; i < u.size(); ++i) acc += weight[i] * e1[i];
             const double f = rate_factors.empty() ? 1.0 : rate_factors[w];

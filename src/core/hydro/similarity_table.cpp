@@ -6,12 +6,23 @@
 #include <string>
 
 #include "core/errors.hpp"
+#include "core/hydro/hantush.hpp"
 #include "core/hydro/well_function.hpp"
 #include "core/util/number_text.hpp"
 #include "core/util/parallel_errors.hpp"
 
 namespace slipscreen::hydro {
 namespace {
+
+// The kernel of the tables at nodes x[i] and arguments u[i] = x[i]/θ: E1 (batched), or the leaky
+// W(u, 2√(c_L x)) when the grid has a leakage rate.
+void node_well_function(const SimilarityGrid& g, const double* x, const double* u, double* w, std::size_t n) {
+  if (g.leakage_rate > 0.0) {
+    for (std::size_t i = 0; i < n; ++i) w[i] = leaky_well_function(u[i], 2.0 * std::sqrt(g.leakage_rate * x[i]));
+  } else {
+    well_function(u, w, n);
+  }
+}
 
 constexpr double kUnderflow = 745.0;  // E1(u) == 0 in double precision beyond this u
 constexpr double kDay = 86400.0;
@@ -72,7 +83,7 @@ LagKernel::LagKernel(const SimilarityGrid& grid, double quantum, std::size_t max
         const double dt = static_cast<double>(lag) * quantum;
         const std::size_t n = live_nodes(grid, n_nodes_, dt);
         for (std::size_t i = 0; i < n; ++i) u[i] = x[i] / dt;
-        hydro::well_function(u.data(), w.data(), n);
+        node_well_function(grid, x.data(), u.data(), w.data(), n);
         for (std::size_t i = 0; i < n; ++i) values_[lag * n_nodes_ + i] = static_cast<float>(w[i]);
       });
   }
@@ -111,7 +122,7 @@ SimilarityTable::SimilarityTable(const RateSteps& steps, std::span<const double>
       const double dt = t - steps.time[j];
       const std::size_t n = live_nodes(grid_, n_nodes_, dt);
       for (std::size_t i = 0; i < n; ++i) u[i] = x[i] / dt;
-      hydro::well_function(u.data(), w.data(), n);
+      node_well_function(grid_, x.data(), u.data(), w.data(), n);
       const double dq = steps.delta_rate[j];
       for (std::size_t i = 0; i < n; ++i) column[i] += dq * w[i];
     }
@@ -185,10 +196,12 @@ double SimilarityTable::scale(std::size_t k) const {
   return m;
 }
 
-double SimilarityTable::direct(const RateSteps& steps, double x, double t) {
+double SimilarityTable::direct(const RateSteps& steps, double x, double t, double leakage_rate) {
   double h = 0.0;
+  const double beta = 2.0 * std::sqrt(leakage_rate * x);
   for (std::size_t j = 0; j < steps.time.size() && steps.time[j] < t; ++j)
-    h += steps.delta_rate[j] * hydro::well_function(x / (t - steps.time[j]));
+    h += steps.delta_rate[j] * (leakage_rate > 0.0 ? leaky_well_function(x / (t - steps.time[j]), beta)
+                                                   : hydro::well_function(x / (t - steps.time[j])));
   return h;
 }
 

@@ -36,6 +36,10 @@ struct RateSteps {
 // The ln x grid of a table: nodes from ln_x_min − step to past ln_x_max.
 struct SimilarityGrid {
   double ln_x_min = 0.0, ln_x_max = 1.0, step = 0.05;
+  // c_L = D/B² [1/s] of a leaky formation: the tables hold W(x/θ, 2√(c_L x)) (Hantush & Jacob
+  // 1955; r/B = 2√(c_L x) since x = r²/(4D)), one function of x for every D with the same c_L.
+  // 0: Theis, E1(x/θ).
+  double leakage_rate = 0.0;
   std::size_t node_count() const;
   double ln_x(std::size_t i) const { return ln_x_min + (static_cast<double>(i) - 1.0) * step; }
 };
@@ -98,8 +102,9 @@ class SimilarityTable {
   // max_i |H(x_i, t_k)| over the nodes: the scale of the stated accuracy at tracking time k.
   double scale(std::size_t k) const;
 
-  // H summed directly (no table): the reference the table is checked against.
-  static double direct(const RateSteps& steps, double x, double t);
+  // H summed directly (no table): the reference the table is checked against (leakage_rate as
+  // in SimilarityGrid).
+  static double direct(const RateSteps& steps, double x, double t, double leakage_rate = 0.0);
 
  private:
   void check(const RateSteps& steps, std::span<const double> tracking_times) const;

@@ -8,6 +8,7 @@
 
 #include "core/errors.hpp"
 #include "core/util/number_text.hpp"
+#include "core/hydro/hantush.hpp"
 #include "core/hydro/well_function.hpp"
 
 namespace slipscreen::hydro {
@@ -39,6 +40,8 @@ void validate(const Aquifer& a) {
 void validate(const TheisParameters& p) {
   require_positive(p.diffusivity, "diffusivity", " (m²/s)");
   require_positive(p.pressure_per_rate, "pressure_per_rate", " (Pa per m³/s)");
+  if (!(std::isfinite(p.leakage_rate) && p.leakage_rate >= 0.0))
+    throw InputError("leakage_rate", util::number_text(p.leakage_rate), "a finite D/B^2 >= 0 (1/s)");
 }
 
 TheisParameters theis_parameters(const Formation& f) {
@@ -73,6 +76,8 @@ double theis_argument(const TheisParameters& p, double r, double t) {
 
 double theis_unit_response(const TheisParameters& p, double r, double t) {
   if (!(t > 0.0)) return 0.0;
+  if (p.leakage_rate > 0.0)
+    return p.pressure_per_rate * leaky_well_function(theis_argument(p, r, t), r * std::sqrt(p.leakage_rate / p.diffusivity));
   return p.pressure_per_rate * well_function(theis_argument(p, r, t));
 }
 

@@ -39,6 +39,9 @@ struct Aquifer {
 struct TheisParameters {
   double diffusivity = 0;        // D, m²/s
   double pressure_per_rate = 0;  // μ / (4π k h), Pa per (m³/s)
+  // c_L = D/B² [1/s], B the leakage factor of a leaky formation (hydro/hantush.hpp): E1(u) is
+  // replaced by the Hantush & Jacob (1955) W(u, r/B), r/B = r √(c_L/D). 0: confined (Theis).
+  double leakage_rate = 0;
 };
 
 // Throws InputError naming the field ("permeability", ...) unless every value is finite and

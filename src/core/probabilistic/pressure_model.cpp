@@ -78,7 +78,7 @@ PressureModel build_pressure_model(const std::vector<WellInput>& wells, const st
         r2_max = std::max(r2_max, (p.x - src.x) * (p.x - src.x) + (p.y - src.y) * (p.y - src.y));
     }
   m.grid = {std::log(rw_min * rw_min / (4.0 * m.diffusivity_max)) - 0.1,
-            std::log(std::max(r2_max, 1.0) / (4.0 * m.diffusivity_min)) + 0.1, 0.025};
+            std::log(std::max(r2_max, 1.0) / (4.0 * m.diffusivity_min)) + 0.1, 0.025, settings.leakage_rate};
   m.tables = hydro::build_tables(m.steps, settings.tracking_times, m.grid);
   m.nodes = settings.surrogate_nodes > 0
                 ? settings.surrogate_nodes

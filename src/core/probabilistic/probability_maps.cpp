@@ -37,7 +37,8 @@ ProbabilityMaps probability_maps(const PressureModel& model, const SampledRealiz
     }
   const hydro::SimilarityGrid grid{
       model.grid.ln_x_min,
-      std::max(model.grid.ln_x_max, std::log(std::max(r2m, 1.0) / (4.0 * model.diffusivity_min)) + 0.1), 0.025};
+      std::max(model.grid.ln_x_max, std::log(std::max(r2m, 1.0) / (4.0 * model.diffusivity_min)) + 0.1), 0.025,
+      model.grid.leakage_rate};
   const auto tables =
       grid.ln_x_max > model.grid.ln_x_max ? hydro::build_tables(model.steps, settings.tracking_times, grid) : model.tables;
   const hydro::PressureSurrogate surrogate(tables, model.sources, settings.map_points, model.groups,

@@ -11,6 +11,7 @@
 
 #include "core/errors.hpp"
 #include "core/geomech/a_phi.hpp"
+#include "core/geomech/coulomb.hpp"
 #include "core/geomech/critical_pressure_batch.hpp"
 #include "core/geomech/fault_plane.hpp"
 #include "core/geomech/frictional_limit.hpp"
@@ -93,6 +94,7 @@ std::optional<geomech::AndersonianStress> stress_state(const UncertainModel& m, 
       case HorizontalStressModel::uniaxial_strain: {
         geomech::UniaxialStrainModel um = m.uniaxial;
         um.poisson = v[l.poisson];
+        if (l.biot != InputList::npos) um.biot = v[l.biot];
         hs = geomech::horizontal_stresses_uniaxial_strain(um, st.sv, st.pore_pressure);
         break;
       }
@@ -110,6 +112,19 @@ std::optional<geomech::AndersonianStress> stress_state(const UncertainModel& m, 
   return st;
 }
 
+// The stress-path coefficient κ of this realization: from its α and ν on the poroelastic path
+// (geomech::stress_path_coefficient, Engelder & Fischer 1994), else the model's fixed κ; empty
+// when α or ν leave their domain (rejected and counted, as an unphysical stress state).
+std::optional<double> stress_path(const UncertainModel& m, const InputList& l, const std::vector<double>& v) {
+  if (!m.poroelastic_path) return m.stress_path_kappa;
+  if (!(v[l.biot] > 0.0)) return std::nullopt;
+  try {
+    return geomech::stress_path_coefficient({v[l.biot], v[l.poisson]});
+  } catch (const InputError&) {
+    return std::nullopt;
+  }
+}
+
 // Whether (S1 − p)/(S3 − p) exceeds the frictional limit [√(μ²+1) + μ]² (geomech/frictional_limit.hpp),
 // compared as S1 − p > limit · (S3 − p).
 bool beyond_frictional_limit(const geomech::AndersonianStress& st, double mu) {
@@ -120,7 +135,7 @@ bool beyond_frictional_limit(const geomech::AndersonianStress& st, double mu) {
 
 // Δp_crit of every segment (perturbed orientation, its fault's friction) into column `col`.
 void segment_thresholds(SamplingJob& job, Eigen::Index col, const Eigen::Matrix3d& tensor, double pore_pressure,
-                        double mu_global, Scratch& s) {
+                        double mu_global, double kappa, Scratch& s) {
   const std::vector<double>& v = s.v;
   s.planes = {};
   s.states = {};
@@ -133,8 +148,7 @@ void segment_thresholds(SamplingJob& job, Eigen::Index col, const Eigen::Matrix3
     s.planes.push_back(geomech::FaultPlane::from_strike_dip(geomech::wrap_azimuth(seg.strike + ds), dip));
     const std::size_t fj = job.list.fault_friction[seg.fault];
     const double mu_f = fj == InputList::npos ? mu_global : v[fj];
-    s.states.push_back(tensor, pore_pressure, geomech::Friction{std::max(mu_f, 1e-6), v[job.list.cohesion]},
-                       job.model.stress_path_kappa);
+    s.states.push_back(tensor, pore_pressure, geomech::Friction{std::max(mu_f, 1e-6), v[job.list.cohesion]}, kappa);
   }
   geomech::critical_pressure_paired(s.planes, s.states, s.dp);
   for (std::size_t k = 0; k < job.segments.size(); ++k)
@@ -143,9 +157,9 @@ void segment_thresholds(SamplingJob& job, Eigen::Index col, const Eigen::Matrix3
 
 // Δp_crit of the maps (most dangerous orientation; the given one) into column `col`.
 void map_thresholds(SamplingJob& job, Eigen::Index col, const Eigen::Matrix3d& tensor, double pore_pressure,
-                    double mu_global, double cohesion) {
+                    double mu_global, double cohesion, double kappa) {
   geomech::StressBatch one;
-  one.push_back(tensor, pore_pressure, geomech::Friction{mu_global, cohesion}, job.model.stress_path_kappa);
+  one.push_back(tensor, pore_pressure, geomech::Friction{mu_global, cohesion}, kappa);
   const auto table = geomech::tabulate_critical_pressure(job.orientations, one);
   job.map_dp_crit(0, col) = static_cast<float>(*std::min_element(table.begin(), table.end()));
   if (job.oriented) {
@@ -179,31 +193,53 @@ Draw draw_realization(SamplingJob& job, std::uint64_t i, Scratch& s) {
   if (!(mu_global > 0.0) || v[job.list.cohesion] < 0.0) return r;
   const auto st = stress_state(job.model, job.list, v);
   if (!st) return r;
+  const auto kappa = stress_path(job.model, job.list, v);
+  if (!kappa) return r;
   r.valid = true;
   r.beyond_limit = beyond_frictional_limit(*st, mu_global);
   const Eigen::Matrix3d tensor = geomech::stress_tensor_ned(*st);
-  segment_thresholds(job, col, tensor, st->pore_pressure, mu_global, s);
-  if (job.maps) map_thresholds(job, col, tensor, st->pore_pressure, mu_global, v[job.list.cohesion]);
+  segment_thresholds(job, col, tensor, st->pore_pressure, mu_global, *kappa, s);
+  if (job.maps) map_thresholds(job, col, tensor, st->pore_pressure, mu_global, v[job.list.cohesion], *kappa);
   return r;
 }
 
+// The job of `n_all` realizations (every matrix has a column per realization).
+SamplingJob make_job(const UncertainModel& model, const InputList& list, const std::vector<SegmentInput>& segments,
+                     std::size_t fault_count, const RunSettings& settings, const stats::Sampler& sampler,
+                     std::uint64_t n_all) {
+  const auto cols = static_cast<Eigen::Index>(n_all);
+  const bool maps = !settings.map_points.empty();
+  return SamplingJob{model, list, segments, settings, sampler, fault_count, maps,
+                     maps && settings.map_strike && settings.map_dip,
+                     maps ? geomech::make_orientation_grid(5.0 * std::numbers::pi / 180.0, 5.0 * std::numbers::pi / 180.0)
+                          : geomech::OrientationGrid{},
+                     Eigen::MatrixXd(static_cast<Eigen::Index>(list.inputs.size()), cols),
+                     Eigen::MatrixXf(static_cast<Eigen::Index>(2 * fault_count), cols),
+                     Eigen::MatrixXf(static_cast<Eigen::Index>(segments.size()), cols),
+                     Eigen::MatrixXf::Constant(2, cols, std::numeric_limits<float>::infinity())};
+}
+
 }  // namespace
+
+std::vector<double> realization_critical_pressures(const UncertainModel& model, const InputList& list,
+                                                   const std::vector<SegmentInput>& segments, std::size_t fault_count,
+                                                   const RunSettings& settings, const stats::RealizationCount& count,
+                                                   std::uint64_t i) {
+  const stats::Sampler sampler(list.inputs, settings.method, settings.seed, count);
+  SamplingJob job = make_job(model, list, segments, fault_count, settings, sampler, count.value());
+  Scratch s;
+  s.v.resize(list.inputs.size());
+  s.dp.resize(segments.size());
+  if (!draw_realization(job, i, s).valid) return {};
+  return s.dp;
+}
 
 SampledRealizations sample_realizations(const UncertainModel& model, const InputList& list,
                                         const std::vector<SegmentInput>& segments, std::size_t fault_count,
                                         const RunSettings& settings, const stats::RealizationCount& count) {
   const stats::Sampler sampler(list.inputs, settings.method, settings.seed, count);
   const std::uint64_t n_all = count.value();
-  const auto cols = static_cast<Eigen::Index>(n_all);
-  const bool maps = !settings.map_points.empty();
-  SamplingJob job{model, list, segments, settings, sampler, fault_count, maps,
-                  maps && settings.map_strike && settings.map_dip,
-                  maps ? geomech::make_orientation_grid(5.0 * std::numbers::pi / 180.0, 5.0 * std::numbers::pi / 180.0)
-                       : geomech::OrientationGrid{},
-                  Eigen::MatrixXd(static_cast<Eigen::Index>(list.inputs.size()), cols),
-                  Eigen::MatrixXf(static_cast<Eigen::Index>(2 * fault_count), cols),
-                  Eigen::MatrixXf(static_cast<Eigen::Index>(segments.size()), cols),
-                  Eigen::MatrixXf::Constant(2, cols, std::numeric_limits<float>::infinity())};
+  SamplingJob job = make_job(model, list, segments, fault_count, settings, sampler, n_all);
   std::vector<Draw> draws(n_all);
   util::ParallelErrors errors;
 #pragma omp parallel

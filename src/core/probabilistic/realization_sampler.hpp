@@ -7,6 +7,8 @@
 //   (S1 − p)/(S3 − p) ≤ [√(μ²+1) + μ]²            Jaeger & Cook (1979); Zoback (2007) — geomech::frictional_limit_ratio
 //   Δp_crit = (σn − p0) − (τ − c)/μ                 Coulomb criterion — geomech::critical_pressure_paired
 //   horizontal stresses: gradients, uniaxial strain, A_φ (Simpson 1997) — geomech/horizontal_stress.hpp
+//   poroelastic path κ = α(1−2ν)/(1−ν), Δp_crit along it exact  Engelder & Fischer (1994) —
+//     geomech::stress_path_coefficient, geomech::critical_pressure_paired (UncertainModel::poroelastic_path)
 //
 // Symbols (code -> literature): diffusivity D [m²/s], prefactor P = μ/(4π k h) [Pa per m³/s],
 // dp_crit Δp_crit [Pa], mu_global μ (the sampled global friction), s1, s3 S1, S3 [Pa],
@@ -20,7 +22,8 @@
 // Validity: a realization is rejected (not used, counted apart) when its hydrogeology is not a
 // physical formation (hydro::theis_parameters refuses it: a value not finite and positive,
 // φ > 1), its global friction is not positive or its cohesion negative, or its stress state is
-// not physical (geomech::check: Shmin ≤ SHmax, stresses above pore pressure). A valid
+// not physical (geomech::check: Shmin ≤ SHmax, stresses above pore pressure), or, on the
+// poroelastic path, its α is outside (0, 1] or its ν outside [0, 0.5). A valid
 // realization whose effective-stress ratio exceeds the frictional limit is used and counted.
 //
 // Accuracy: D and P exact to rounding (hydro/theis.hpp); Δp_crit stored in single precision
@@ -56,5 +59,13 @@ struct SampledRealizations {
 SampledRealizations sample_realizations(const UncertainModel& model, const InputList& list,
                                         const std::vector<SegmentInput>& segments, std::size_t fault_count,
                                         const RunSettings& settings, const stats::RealizationCount& count);
+
+// Realization i's Δp_crit on every segment in double precision, before the single-precision
+// store of sample_realizations (same draw, same kernel); empty when the realization is not
+// valid. For audits and tests (one realization; it allocates the job's matrices for `count`).
+std::vector<double> realization_critical_pressures(const UncertainModel& model, const InputList& list,
+                                                   const std::vector<SegmentInput>& segments, std::size_t fault_count,
+                                                   const RunSettings& settings, const stats::RealizationCount& count,
+                                                   std::uint64_t i);
 
 }  // namespace slipscreen::probabilistic

@@ -26,6 +26,10 @@ InputList make_inputs(const UncertainModel& m, const std::vector<WellInput>& wel
     case HorizontalStressModel::uniaxial_strain: l.poisson = l.add("poisson_ratio", m.poisson_ratio); break;
     case HorizontalStressModel::a_phi: l.aphi = l.add("a_phi", m.a_phi); break;
   }
+  if (m.poroelastic_path) {  // only then: runs without the path keep their draws
+    if (m.model != HorizontalStressModel::uniaxial_strain) l.poisson = l.add("poisson_ratio", m.poisson_ratio);
+    l.biot = l.add("biot", m.biot);
+  }
   l.friction = l.add("friction", m.friction);
   l.cohesion = l.add("cohesion", m.cohesion);
   l.fault_friction.assign(fault_count, InputList::npos);

@@ -5,7 +5,8 @@
 //
 // Sampler order (the column order of every sensitivity table and of the manifest): formation
 // (k, h, φ, c_t, μ — or T, S), vertical and pore-pressure gradients, SHmax azimuth, the
-// horizontal-stress inputs of the chosen model, friction, cohesion, per-fault friction,
+// horizontal-stress inputs of the chosen model, with the poroelastic path its Poisson's ratio
+// (unless the model already has it) and Biot coefficient, friction, cohesion, per-fault friction,
 // rate factor, per-well rate factors. The orientation perturbations are not sampled by the
 // stats::Sampler but drawn from each realization's auxiliary stream (per fault), so they are
 // listed last by sampled_input_names() only.
@@ -53,6 +54,11 @@ struct UncertainModel {
   // Friction at which A_φ magnitudes are at frictional equilibrium; empty: the sampled friction.
   std::optional<double> equilibrium_friction;
   double stress_path_kappa = 0.0;  // α(1−2ν)/(1−ν) of the poroelastic path; 0 = none
+  // The poroelastic path from each realization's sampled α (biot) and ν (poisson_ratio):
+  // κ = α(1−2ν)/(1−ν) (Engelder & Fischer 1994; geomech::stress_path_coefficient), in place of
+  // the fixed stress_path_kappa. With the uniaxial_strain model the same α and ν set Shmin.
+  bool poroelastic_path = false;
+  stats::Distribution biot = stats::Distribution::fixed(1.0);  // α (poroelastic_path)
 
   // Faults.
   stats::Distribution friction = stats::Distribution::fixed(0.6);
@@ -100,6 +106,9 @@ struct RunSettings {
   std::vector<double> tracking_times;    // s, increasing, every output time included
   std::vector<std::size_t> output_index; // tracking index of each output time
   std::vector<hydro::Boundary> boundaries;
+  // Leaky formation (hydro/hantush.hpp): c_L = D/B² [1/s], the same in every realization (only
+  // the permeability or transmissivity may then be uncertain: B² ∝ k, D ∝ k). 0: Theis.
+  double leakage_rate = 0.0;
   // Chebyshev nodes in ln D; 0: automatic, 8 per e-fold of D_max/D_min (at least 4, at most 64).
   std::size_t surrogate_nodes = 0;
   // Probability maps for unmapped faults: pixel centres (working CRS). For each pixel, the
@@ -121,13 +130,14 @@ struct RunSettings {
 
 // The sampled inputs in sampler order; each slot remembers where a model input sits.
 struct InputList {
+  static constexpr std::size_t npos = std::numeric_limits<std::size_t>::max();
   std::vector<stats::UncertainInput> inputs;
   std::size_t k = 0, h = 0, phi = 0, ct = 0, mu_f = 0, t = 0, s = 0;
   std::size_t sv_grad = 0, pp_grad = 0, azimuth = 0, shmax_g = 0, shmin_g = 0, aphi = 0, poisson = 0;
+  std::size_t biot = npos;  // poroelastic path only
   std::size_t friction = 0, cohesion = 0, rate = 0;
   std::vector<std::size_t> fault_friction;  // per fault, npos when global
   std::vector<std::size_t> well_rate;       // per well, npos when none
-  static constexpr std::size_t npos = std::numeric_limits<std::size_t>::max();
 
   std::size_t add(std::string name, const stats::Distribution& d) {
     inputs.push_back({std::move(name), d});

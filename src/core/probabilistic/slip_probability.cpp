@@ -362,7 +362,8 @@ AuditEntry plain_slip_check(const AuditEntry& fast, const std::vector<WellInput>
         const double dx = seg.check_points[p].x - im.x, dy = seg.check_points[p].y - im.y;
         const double r2 = std::max(dx * dx + dy * dy, wells[w].radius * wells[w].radius);
         for (std::size_t k = 0; k < n_t; ++k)
-          dp[k] += f * im.sign * hydro::SimilarityTable::direct(wells[w].steps, r2 / (4.0 * a.diffusivity), settings.tracking_times[k]);
+          dp[k] += f * im.sign * hydro::SimilarityTable::direct(wells[w].steps, r2 / (4.0 * a.diffusivity), settings.tracking_times[k],
+                                                                       settings.leakage_rate);
       }
     }
     for (std::size_t k = 0; k < n_t; ++k) best[k] = p == 0 ? dp[k] : std::max(best[k], dp[k]);

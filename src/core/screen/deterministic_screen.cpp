@@ -58,7 +58,11 @@ CheckPoints resolve_segments(const ScreenInputs& in, std::vector<SegmentScreen>&
     const geomech::ResolvedStress rs = geomech::resolve(stress, p0, plane);
     geomech::Friction f = in.friction;
     if (seg.friction) f.mu = *seg.friction;
-    const geomech::CriticalPressure cp = geomech::critical_pressure(rs.shear_stress, rs.normal_stress, p0, f);
+    const geomech::CriticalPressure cp =
+        in.stress_path_kappa > 0.0
+            ? geomech::critical_pressure_poroelastic(stress, p0, plane.normal(), f, in.stress_path_kappa)
+            : geomech::critical_pressure(rs.shear_stress, rs.normal_stress, p0, f);
+    out.coulomb_change = geomech::coulomb_path_change(stress, plane.normal(), f.mu, in.stress_path_kappa);
     out.friction = f.mu;
     out.normal_stress = rs.normal_stress;
     out.effective_normal_stress = rs.effective_normal_stress;
@@ -106,7 +110,7 @@ std::vector<hydro::SimilarityTable> similarity_tables(const TabulatedField& tf,
         r2_max = std::max(r2_max, (p.x - src.x) * (p.x - src.x) + (p.y - src.y) * (p.y - src.y));
   }
   const hydro::SimilarityGrid grid{std::log(rw_min * rw_min * tf.inv4d) - 0.1, std::log(r2_max * tf.inv4d) + 0.1,
-                                   kTableStep};
+                                   kTableStep, tf.in.formation.leakage_rate};
   return hydro::build_tables(steps, tf.tracked_times, grid);
 }
 

@@ -12,7 +12,10 @@
 //   A segment's Δp is the maximum over its check points (the highest Δp can sit anywhere on it).
 //   First crossing: the earliest time of the tracking grid (tracking_grid.hpp, merged with the
 //   output times) at which that maximum is ≥ Δp_crit; the crossing itself happened in the
-//   interval ending then (at most a month long). No stress change from the pressure (κ = 0).
+//   interval ending then (at most a month long). No stress change from the pressure (κ = 0)
+//   unless stress_path_kappa > 0: then the horizontal stresses follow Δσh = κ Δp, Δσv = 0
+//   (Engelder & Fischer 1994) and Δp_crit is the exact root along that path
+//   (geomech::critical_pressure_poroelastic); coulomb_change gives ΔCFF(Δp) on it.
 //
 // Symbol table: sigma_n σn, tau τ, p0 initial pore pressure, mu μ, cohesion c, dp Δp,
 // dp_crit Δp_crit, strike φs, dip δ (right-hand rule, azimuths in the stress's frame).
@@ -74,6 +77,7 @@ struct ScreenInputs {
   std::vector<ScreenSegment> segments;
   std::vector<double> output_times;    // s, strictly increasing
   std::vector<double> tracking_times;  // s, strictly increasing (tracking_grid); may be empty
+  double stress_path_kappa = 0.0;      // κ = α(1−2ν)/(1−ν) in [0, 1]; 0: no stress change
 };
 
 struct SegmentScreen {
@@ -87,6 +91,7 @@ struct SegmentScreen {
   geomech::SlipSense sense = geomech::SlipSense::none;
   double dp_crit = 0;                  // Pa; ≤ 0: already critical before injection
   geomech::CriticalStatus status = geomech::CriticalStatus::below_failure;
+  geomech::CoulombPathChange coulomb_change;  // ΔCFF(Δp) on the stress path (μΔp when κ = 0)
   std::vector<double> dp;              // Pa, per output time: max over check points (0 before injection)
   std::vector<std::size_t> dp_point;   // per output time: the check point holding the max
   std::vector<double> well_share;      // [k * wells + w]: well w's fraction of dp[k] (0 if dp = 0)

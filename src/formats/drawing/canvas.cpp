@@ -4,8 +4,11 @@
 #include <cairo-svg.h>
 #include <cairo.h>
 #include <pango/pangocairo.h>
+#include <png.h>
 
 #include <cmath>
+#include <csetjmp>
+#include <cstdint>
 #include <numbers>
 
 #include "core/errors.hpp"
@@ -198,6 +201,14 @@ void Canvas::line(const std::vector<Point>& points, const Stroke& s) {
   fill_and_outline(impl_->cr, std::nullopt, s);
 }
 
+void Canvas::lines(const std::vector<std::vector<Point>>& polylines, const Stroke& s) {
+  impl_->alive();
+  bool any = false;
+  for (const auto& p : polylines)
+    if (p.size() >= 2) trace(impl_->cr, p), any = true;
+  if (any) fill_and_outline(impl_->cr, std::nullopt, s);
+}
+
 void Canvas::polygon(const std::vector<Point>& points, std::optional<Colour> fill, std::optional<Stroke> outline) {
   rings({points}, fill, outline);
 }
@@ -347,6 +358,52 @@ void Canvas::next_page() {
   impl_->check("starting a new page");
 }
 
+namespace {
+
+void png_append(png_structp png, png_bytep data, png_size_t length) {
+  static_cast<std::string*>(png_get_io_ptr(png))->append(reinterpret_cast<const char*>(data), length);
+}
+void png_flush(png_structp) {}
+
+// Writes Cairo's ARGB32 image (premultiplied, native-endian words) as an 8-bit PNG: RGB when
+// every pixel is opaque (a figure on paper white), else RGBA with straight alpha. libpng at
+// compression level 1 with the Sub filter: the pixels are those Cairo's own writer stores, at a
+// fraction of its time (the report's PNGs are many and mostly flat colour; docs/report.md, "Speed").
+// Only plain data lives in this frame, so that libpng's longjmp on an error skips no destructor.
+bool encode_png(png_structp png, png_infop info, const unsigned char* data, int w, int h, int stride, bool opaque,
+                unsigned char* row) {
+  if (setjmp(png_jmpbuf(png))) return false;
+  png_set_IHDR(png, info, static_cast<png_uint_32>(w), static_cast<png_uint_32>(h), 8,
+               opaque ? PNG_COLOR_TYPE_RGB : PNG_COLOR_TYPE_RGB_ALPHA, PNG_INTERLACE_NONE, PNG_COMPRESSION_TYPE_DEFAULT,
+               PNG_FILTER_TYPE_DEFAULT);
+  png_set_compression_level(png, 1);
+  png_set_filter(png, PNG_FILTER_TYPE_BASE, PNG_FILTER_SUB);
+  png_write_info(png, info);
+  for (int y = 0; y < h; ++y) {
+    const auto* px = reinterpret_cast<const std::uint32_t*>(data + static_cast<std::size_t>(y) * stride);
+    unsigned char* out = row;
+    for (int x = 0; x < w; ++x) {
+      const std::uint32_t p = px[x];
+      const unsigned a = p >> 24, r = (p >> 16) & 0xff, g = (p >> 8) & 0xff, b = p & 0xff;
+      if (opaque) {
+        *out++ = static_cast<unsigned char>(r), *out++ = static_cast<unsigned char>(g), *out++ = static_cast<unsigned char>(b);
+      } else if (a == 0) {
+        *out++ = 0, *out++ = 0, *out++ = 0, *out++ = 0;
+      } else {  // un-premultiplied, rounded as Cairo's writer does
+        *out++ = static_cast<unsigned char>((r * 255 + a / 2) / a);
+        *out++ = static_cast<unsigned char>((g * 255 + a / 2) / a);
+        *out++ = static_cast<unsigned char>((b * 255 + a / 2) / a);
+        *out++ = static_cast<unsigned char>(a);
+      }
+    }
+    png_write_row(png, row);
+  }
+  png_write_end(png, info);
+  return true;
+}
+
+}  // namespace
+
 const std::string& Canvas::finish() {
   if (impl_->finished) return impl_->bytes;
   impl_->check("finishing the drawing");
@@ -354,8 +411,27 @@ const std::string& Canvas::finish() {
   impl_->cr = nullptr;
   if (format_ == DrawingFormat::png) {
     cairo_surface_flush(impl_->surface);
-    const cairo_status_t s = cairo_surface_write_to_png_stream(impl_->surface, &Impl::append, impl_.get());
-    if (s != CAIRO_STATUS_SUCCESS) throw IoError(std::string("PNG encoding failed: ") + cairo_status_to_string(s));
+    const unsigned char* data = cairo_image_surface_get_data(impl_->surface);
+    const int w = cairo_image_surface_get_width(impl_->surface), h = cairo_image_surface_get_height(impl_->surface);
+    const int stride = cairo_image_surface_get_stride(impl_->surface);
+    bool opaque = true;
+    for (int y = 0; y < h && opaque; ++y) {
+      const auto* px = reinterpret_cast<const std::uint32_t*>(data + static_cast<std::size_t>(y) * stride);
+      for (int x = 0; x < w && opaque; ++x) opaque = (px[x] >> 24) == 0xff;
+    }
+    png_structp png = png_create_write_struct(PNG_LIBPNG_VER_STRING, nullptr, nullptr, nullptr);
+    png_infop info = png ? png_create_info_struct(png) : nullptr;
+    std::vector<unsigned char> row(static_cast<std::size_t>(w) * 4);
+    bool ok = false;
+    if (png && info) {
+      png_set_write_fn(png, &impl_->bytes, &png_append, &png_flush);
+      ok = encode_png(png, info, data, w, h, stride, opaque, row.data());
+    }
+    png_destroy_write_struct(&png, &info);
+    if (!ok) {
+      impl_->bytes.clear();
+      throw IoError("PNG encoding failed (libpng)");
+    }
   } else {
     cairo_surface_finish(impl_->surface);
     impl_->check("writing the drawing");

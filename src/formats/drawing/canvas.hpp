@@ -93,6 +93,8 @@ class Canvas {
   double height() const { return sizes_.empty() ? height_ : sizes_.back().second; }
 
   void line(const std::vector<Point>& points, const Stroke& s);
+  // Several open polylines stroked as one path (one element in an SVG), e.g. a raster's outline.
+  void lines(const std::vector<std::vector<Point>>& polylines, const Stroke& s);
   void polygon(const std::vector<Point>& points, std::optional<Colour> fill, std::optional<Stroke> outline);
   // Several rings filled together with the even-odd rule (polygons with holes).
   void rings(const std::vector<std::vector<Point>>& rings, std::optional<Colour> fill,

@@ -139,6 +139,9 @@ void refuse_target(const fs::path& target, const RunFolderOptions& options) {
   if (const auto why = not_a_run(target))
     throw RefusedError(shown(target) + " is not a slipscreen run, so --force does not replace it: " + *why +
                        "; choose another output folder");
+  if (options.replaceable)
+    if (const auto why = options.replaceable(target))
+      throw RefusedError(shown(target) + " is not replaced by --force: " + *why + "; choose another output folder");
 }
 
 void clean_and_check(const fs::path& target, const RunFolderOptions& options, const std::vector<fs::path>& busy) {

@@ -40,6 +40,7 @@
 #include <filesystem>
 #include <functional>
 #include <map>
+#include <optional>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -53,6 +54,9 @@ struct RunFolderOptions {
   std::vector<std::filesystem::path> inputs;
   // One line per stale leftover cleaned beside the target (stale_runs.hpp); none if empty.
   std::function<void(const std::string&)> notice;
+  // When set, a forced replace also needs this to accept the earlier run (nothing: accepted;
+  // otherwise why not, for the message): `slipscreen compare` replaces only an earlier comparison.
+  std::function<std::optional<std::string>(const std::filesystem::path&)> replaceable;
 };
 
 class RunFolder {

@@ -54,31 +54,32 @@ void add_points(const OGRGeometry* g, std::vector<std::vector<std::pair<double, 
 
 }  // namespace
 
-RasterBandData read_raster_band(const std::filesystem::path& path, int band) {
-  GdalErrorScope errors(path.string());
-  Dataset ds = open(path, GDAL_OF_RASTER, errors);
+namespace {
+
+// Band `band` (1-based; 0: the last) of an open raster.
+RasterBandData read_band(GDALDataset& ds, const std::filesystem::path& path, int band, GdalErrorScope& errors) {
   RasterBandData out;
-  out.band_count = ds->GetRasterCount();
+  out.band_count = ds.GetRasterCount();
   if (band == 0) band = out.band_count;
   if (band < 1 || band > out.band_count)
     throw IoError(path.string() + ": has no band " + std::to_string(band) + " (it has " +
                   std::to_string(out.band_count) + ")");
-  out.width = ds->GetRasterXSize();
-  out.height = ds->GetRasterYSize();
+  out.width = ds.GetRasterXSize();
+  out.height = ds.GetRasterYSize();
   double gt[6];
-  if (ds->GetGeoTransform(gt) != CE_None || gt[2] != 0 || gt[4] != 0)
+  if (ds.GetGeoTransform(gt) != CE_None || gt[2] != 0 || gt[4] != 0)
     throw IoError(path.string() + ": has no north-up geotransform");
   out.x0 = gt[0];
   out.dx = gt[1];
   out.y0 = gt[3];
   out.dy = gt[5];
-  if (const OGRSpatialReference* srs = ds->GetSpatialRef()) {
+  if (const OGRSpatialReference* srs = ds.GetSpatialRef()) {
     if (const char* n = srs->GetName()) out.crs_name = n;
     const char* auth = srs->GetAuthorityName(nullptr);
     const char* code = srs->GetAuthorityCode(nullptr);
     if (auth && code) out.crs_authority = std::string(auth) + ":" + code;
   }
-  GDALRasterBand* b = ds->GetRasterBand(band);
+  GDALRasterBand* b = ds.GetRasterBand(band);
   out.description = b->GetDescription();
   int has_nodata = 0;
   const double nodata = b->GetNoDataValue(&has_nodata);
@@ -89,6 +90,22 @@ RasterBandData read_raster_band(const std::filesystem::path& path, int band) {
   if (has_nodata)
     for (double& v : out.values)
       if (v == nodata) v = std::numeric_limits<double>::quiet_NaN();
+  return out;
+}
+
+}  // namespace
+
+RasterBandData read_raster_band(const std::filesystem::path& path, int band) {
+  GdalErrorScope errors(path.string());
+  Dataset ds = open(path, GDAL_OF_RASTER, errors);
+  return read_band(*ds, path, band, errors);
+}
+
+std::vector<RasterBandData> read_raster_bands(const std::filesystem::path& path) {
+  GdalErrorScope errors(path.string());
+  Dataset ds = open(path, GDAL_OF_RASTER, errors);
+  std::vector<RasterBandData> out;
+  for (int b = 1; b <= ds->GetRasterCount(); ++b) out.push_back(read_band(*ds, path, b, errors));
   return out;
 }
 

@@ -22,6 +22,8 @@ struct RasterBandData {
 
 // Band `band` (1-based; 0: the last band) of a raster file.
 RasterBandData read_raster_band(const std::filesystem::path& path, int band = 0);
+// Every band of a raster file, in band order (the file opened once).
+std::vector<RasterBandData> read_raster_bands(const std::filesystem::path& path);
 
 // Lines where the band equals `level` (each a polyline of (x, y) in the raster's CRS).
 std::vector<std::vector<std::pair<double, double>>> contour_lines(const RasterBandData& band, double level);

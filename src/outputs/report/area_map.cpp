@@ -6,7 +6,9 @@
 #include <map>
 #include <optional>
 
+#include "core/util/number_text.hpp"
 #include "formats/gis/run_layers.hpp"
+#include "outputs/report/figure_support.hpp"
 #include "outputs/report/report_tables.hpp"
 #include "outputs/report/run_table.hpp"
 
@@ -40,6 +42,7 @@ struct MapData {
   double raster_max = 0;  // MPa (the raster's unit)
   std::vector<Line> footprint;
   double footprint_level = 0.1;  // MPa
+  DisplayUnit pressure{"MPa", 1e6};  // the unit Δp is labelled in: the run's (the raster stays in MPa)
   std::vector<MapSegment> segments;
   std::vector<MapWell> wells;
   std::vector<MapEvent> events;
@@ -50,6 +53,12 @@ struct MapData {
   std::string date, crs;
   double x0 = 0, y0 = 0, x1 = 1, y1 = 1;  // extent, working CRS
 };
+
+// A feature's attribute as text ("" when the layer has no such field).
+std::string field(const formats::LayerFeature& f, const std::string& name) {
+  const auto it = f.fields.find(name);
+  return it == f.fields.end() ? std::string() : it->second;
+}
 
 std::string nice_length(double metres) {
   char buf[32];
@@ -70,18 +79,23 @@ void draw_map(formats::Canvas& c, const MapData& m, const std::string& title) {
                   formats::markup_escape("at " + m.date + " · " + (m.crs.empty() ? std::string("working CRS") : m.crs)));
   if (m.probability) page.colour_bar_right(Ramp::probability, {0, m.p_max, "P(slip)"});
   else page.colour_bar_right(Ramp::probability, {0, m.margin_max, "margin [" + formats::markup_escape(m.margin_unit) + "]"});
-  if (m.raster) page.colour_bar_right(Ramp::pressure, {0, m.raster_max, "Δp [MPa]"});
+  const double mpa = 1e6 / m.pressure.factor;  // the run's pressure unit per MPa
+  if (m.raster)
+    page.colour_bar_right(Ramp::pressure, {0, m.raster_max * mpa, "Δp [" + formats::markup_escape(m.pressure.suffix) + "]"});
+  // One legend entry per status and mark, drawn with the map's own symbol: proposed wells are
+  // triangles, existing wells circles.
   std::vector<LegendEntry> legend;
-  std::vector<std::string> statuses;
+  std::vector<std::pair<std::string, bool>> kinds;
   for (const auto& w : m.wells)
-    if (std::find(statuses.begin(), statuses.end(), w.status) == statuses.end()) statuses.push_back(w.status);
-  for (const auto& st : statuses) legend.push_back({formats::markup_escape(st) + " well", status_colour(st), LegendEntry::Mark::dot});
+    if (std::find(kinds.begin(), kinds.end(), std::pair{w.status, w.proposed}) == kinds.end())
+      kinds.push_back({w.status, w.proposed});
+  for (const auto& [st, proposed] : kinds)
+    legend.push_back({formats::markup_escape(st) + (proposed && st != "proposed" ? " well (proposed)" : " well"),
+                      status_colour(st), proposed ? LegendEntry::Mark::triangle : LegendEntry::Mark::dot});
   if (!m.events.empty()) legend.push_back({"earthquake (size: magnitude)", formats::rgb(0xffffff), LegendEntry::Mark::dot});
-  if (!m.footprint.empty() || m.raster) {
-    char buf[64];
-    std::snprintf(buf, sizeof buf, "Δp = %g MPa", m.footprint_level);
-    legend.push_back({buf, formats::rgb(0x0072b2), LegendEntry::Mark::line});
-  }
+  if (!m.footprint.empty() || m.raster)
+    legend.push_back({"Δp = " + util::number_text(m.footprint_level * mpa, 3) + " " + formats::markup_escape(m.pressure.suffix),
+                      formats::rgb(0x0072b2), LegendEntry::Mark::line});
   // The map frame: the body with the data's aspect ratio (metres equal in x and y), above a
   // row of legend entries.
   const Box body = page.body();
@@ -113,16 +127,19 @@ void draw_map(formats::Canvas& c, const MapData& m, const std::string& title) {
     for (const auto& [x, y] : line) pts.push_back(at(x, y));
     c.line(pts, {.colour = formats::rgb(0x0072b2), .width = 1.1, .dash = {3, 2}});
   }
-  // Fault segments: one path each, of the map's one segment width, with a thin dark casing below
-  // them drawn as a single path so that light colours stay visible.
+  // Fault segments: one path each, of the map's one segment width, over a casing of two paths
+  // for all segments (a thin dark edge, then a white halo), so that dark (low P) colours stay
+  // visible over the dark centre of the Δp raster and light ones over its light edge.
+  std::vector<std::vector<Point>> traced;
   for (const auto& g : m.segments) {
-    std::vector<Point> pts;
-    for (const auto& [x, y] : g.line) pts.push_back(at(x, y));
-    c.line(pts, {.colour = formats::kInk, .width = kSegmentStroke + 1.3});
+    traced.emplace_back();
+    for (const auto& [x, y] : g.line) traced.back().push_back(at(x, y));
   }
-  for (const auto& g : m.segments) {
-    std::vector<Point> pts;
-    for (const auto& [x, y] : g.line) pts.push_back(at(x, y));
+  c.lines(traced, {.colour = formats::kInk, .width = kSegmentStroke + 3.2});
+  c.lines(traced, {.colour = formats::kPaper, .width = kSegmentStroke + 1.8});
+  for (std::size_t i = 0; i < m.segments.size(); ++i) {
+    const auto& g = m.segments[i];
+    const auto& pts = traced[i];
     const double t = m.probability ? g.value / m.p_max : 1.0 - std::clamp(g.value / m.margin_max, 0.0, 1.0);
     const Colour col = std::isfinite(g.value) ? ramp_colour(Ramp::probability, t) : formats::rgb(0x9aa4ae);
     c.line(pts, {.colour = col, .width = kSegmentStroke});
@@ -135,9 +152,7 @@ void draw_map(formats::Canvas& c, const MapData& m, const std::string& title) {
   for (const auto& w : m.wells) {
     const Point p = at(w.x, w.y);
     if (w.proposed) {
-      const double r = 6;
-      c.polygon({{p.x, p.y - r}, {p.x + r * 0.87, p.y + r * 0.5}, {p.x - r * 0.87, p.y + r * 0.5}}, status_colour(w.status),
-                Stroke{.colour = formats::kInk, .width = 0.8});
+      well_triangle(c, p, 6, status_colour(w.status), Stroke{.colour = formats::kInk, .width = 0.8});
       c.text({p.x + 7, p.y - 4}, formats::markup_escape(w.id), {.size = 7, .bold = true, .v = VAlign::bottom});
     } else {
       c.circle(p, 3, status_colour(w.status), Stroke{.colour = formats::kInk, .width = 0.6});
@@ -164,6 +179,7 @@ void draw_map(formats::Canvas& c, const MapData& m, const std::string& title) {
       const double w = c.measure(e.label, {.size = 7.5}).w + 24;
       if (lx + w > body.right()) lx = frame.x, ly += 12;
       if (e.mark == LegendEntry::Mark::dot) c.circle({lx + 5, ly}, 3, e.colour, Stroke{.colour = formats::kInk, .width = 0.5});
+      else if (e.mark == LegendEntry::Mark::triangle) well_triangle(c, {lx + 5, ly}, 4.6, e.colour, Stroke{.width = 0.5});
       else c.line({{lx, ly}, {lx + 11, ly}}, {.colour = e.colour, .width = 1.4, .dash = {3, 2}});
       c.text({lx + 15, ly}, e.label, {.size = 7.5, .v = VAlign::middle});
       lx += w;
@@ -179,107 +195,139 @@ void draw_map(formats::Canvas& c, const MapData& m, const std::string& title) {
 
 std::vector<Figure> area_map_figures(const ReportSource& s) {
   const std::string gpkg = geopackage_file(s);
-  if (gpkg.empty() || !formats::has_layer(s.folder / gpkg, "fault_segments")) return {};
-  MapData m;
-  FigureData data;
-  // Segment values at the last output time.
-  std::map<std::string, std::pair<double, std::string>> value;  // id -> (value, text)
+  if (gpkg.empty() || !s.has_layer(gpkg, "fault_segments")) return {};
+  MapData base;  // what every map shares: geometry, extent, units
+  // Segment values by date: date -> id -> (value, text as the table holds it).
+  std::map<std::string, std::map<std::string, std::pair<double, std::string>>> values;
+  std::vector<std::string> value_header;
   if (has_probabilistic(s)) {
-    m.probability = true;
-    const RunTable t = RunTable::read(s.folder, "segment_probability.csv");
+    base.probability = true;
+    const RunTable& t = s.table("segment_probability.csv");
     const std::size_t id = t.column("segment_id"), date = t.column("date"), p = t.column("p_slip");
-    for (std::size_t r = 0; r < t.rows(); ++r) m.date = std::max(m.date, t.text(r, date));
-    for (std::size_t r = 0; r < t.rows(); ++r)
-      if (t.text(r, date) == m.date) value[t.text(r, id)] = {t.number(r, p), t.text(r, p)};
-    double largest = 0;
-    for (const auto& entry : value) largest = std::max(largest, entry.second.first);
-    m.p_max = std::min(1.0, nice_axis(0, std::max(largest, 0.01), "").hi);
-    data.header = {"segment_id", "date", "p_slip"};
+    for (std::size_t r = 0; r < t.rows(); ++r) values[t.text(r, date)][t.text(r, id)] = {t.number(r, p), t.text(r, p)};
+    base.pressure = unit_of(t, "dp_p50");
+    value_header = {"segment_id", "date", "p_slip"};
   } else {
-    const RunTable t = RunTable::read(s.folder, segment_times_file(s));
-    m.margin_unit = t.quantity_unit("margin");
-    const std::size_t id = t.column("segment_id"), date = t.column("date"), mg = t.column("margin_" + m.margin_unit);
-    for (std::size_t r = 0; r < t.rows(); ++r) m.date = std::max(m.date, t.text(r, date));
-    m.margin_max = 0;
-    for (std::size_t r = 0; r < t.rows(); ++r)
-      if (t.text(r, date) == m.date) {
-        value[t.text(r, id)] = {t.number(r, mg), t.text(r, mg)};
-        m.margin_max = std::max(m.margin_max, t.number(r, mg));
-      }
-    if (!(m.margin_max > 0)) m.margin_max = 1;
-    data.header = {"segment_id", "date", "margin_" + m.margin_unit};
+    const RunTable& t = s.table(segment_times_file(s));
+    base.margin_unit = t.quantity_unit("margin");
+    const std::size_t id = t.column("segment_id"), date = t.column("date"), mg = t.column("margin_" + base.margin_unit);
+    for (std::size_t r = 0; r < t.rows(); ++r) values[t.text(r, date)][t.text(r, id)] = {t.number(r, mg), t.text(r, mg)};
+    base.pressure = unit_of(t, "margin");
+    value_header = {"segment_id", "date", "margin_" + base.margin_unit};
   }
-  for (auto& f : formats::read_layer(s.folder / gpkg, "fault_segments")) {
-    MapSegment g;
-    g.id = f.fields["segment_id"];
+  if (values.empty()) return {};
+  // The dates drawn: the last output time, or each (ISO dates sort in time order).
+  std::vector<std::string> dates;
+  for (const auto& entry : values) dates.push_back(entry.first);
+  if (!s.maps_each) dates = {dates.back()};
+  // One colour scale for all maps drawn, so that they can be compared.
+  double largest = 0;
+  base.margin_max = 0;
+  for (const auto& d : dates)
+    for (const auto& entry : values[d]) {
+      largest = std::max(largest, entry.second.first);
+      base.margin_max = std::max(base.margin_max, entry.second.first);
+    }
+  base.p_max = std::min(1.0, nice_axis(0, std::max(largest, 0.01), "").hi);
+  if (!(base.margin_max > 0)) base.margin_max = 1;
+
+  std::vector<std::string> segment_ids;
+  for (const auto& f : s.layer(gpkg, "fault_segments")) {
     if (f.parts.empty()) continue;
+    MapSegment g;
+    g.id = field(f, "segment_id");
     g.line = f.parts.front();
     for (std::size_t i = 1; i < f.parts.size(); ++i) g.line.insert(g.line.end(), f.parts[i].begin(), f.parts[i].end());
-    const auto it = value.find(g.id);
-    if (it != value.end()) g.value = it->second.first;
-    data.rows.push_back({g.id, m.date, it != value.end() ? it->second.second : ""});
-    m.segments.push_back(std::move(g));
+    base.segments.push_back(std::move(g));
   }
-  if (formats::has_layer(s.folder / gpkg, "wells"))
-    for (auto& f : formats::read_layer(s.folder / gpkg, "wells")) {
+  if (s.has_layer(gpkg, "wells"))
+    for (const auto& f : s.layer(gpkg, "wells")) {
       if (f.parts.empty() || f.parts[0].empty()) continue;
-      const std::string proposed = f.fields["proposed"];
-      m.wells.push_back({f.fields["well_id"], f.fields["status"], proposed == "1" || proposed == "yes" || proposed == "true",
-                         f.parts[0][0].first, f.parts[0][0].second});
+      const std::string proposed = field(f, "proposed");
+      base.wells.push_back({field(f, "well_id"), field(f, "status"), proposed == "1" || proposed == "yes" || proposed == "true",
+                            f.parts[0][0].first, f.parts[0][0].second});
     }
-  if (formats::has_layer(s.folder / gpkg, "earthquakes"))
-    for (auto& f : formats::read_layer(s.folder / gpkg, "earthquakes")) {
+  if (s.has_layer(gpkg, "earthquakes"))
+    for (const auto& f : s.layer(gpkg, "earthquakes")) {
       if (f.parts.empty() || f.parts[0].empty()) continue;
-      m.events.push_back({f.parts[0][0].first, f.parts[0][0].second, std::atof(f.fields["magnitude"].c_str())});
+      base.events.push_back({f.parts[0][0].first, f.parts[0][0].second, std::atof(field(f, "magnitude").c_str())});
     }
-  // The extent: the raster's, else the data's with a margin.
-  const std::string raster = pressure_raster_file(s);
   const auto threshold = s.manifest.value("parameters", nlohmann::json::object())
                              .value("catalog", nlohmann::json::object())
                              .value("footprint_threshold_Pa", 0.1e6);
-  m.footprint_level = threshold / 1e6;
+  base.footprint_level = threshold / 1e6;
+  // The rasters' bands by their description (the band's ISO date); the extent is the raster's,
+  // else the data's with a margin.
+  const std::string raster = pressure_raster_file(s);
+  std::vector<formats::RasterBandData> bands;
   if (!raster.empty() && RunTable::exists(s.folder, raster)) {
-    m.raster = formats::read_raster_band(s.folder / raster, 0);
-    for (double v : m.raster->values)
-      if (std::isfinite(v)) m.raster_max = std::max(m.raster_max, v);
-    if (!(m.raster_max > 0)) m.raster_max = 1;
-    m.crs = m.raster->crs_name + (m.raster->crs_authority.empty() ? "" : " (" + m.raster->crs_authority + ")");
-    m.footprint = formats::contour_lines(*m.raster, m.footprint_level);
-    const auto& r = *m.raster;
-    m.x0 = std::min(r.x0, r.x0 + r.width * r.dx);
-    m.x1 = std::max(r.x0, r.x0 + r.width * r.dx);
-    m.y0 = std::min(r.y0, r.y0 + r.height * r.dy);
-    m.y1 = std::max(r.y0, r.y0 + r.height * r.dy);
-  } else {
-    m.x0 = m.y0 = INFINITY;
-    m.x1 = m.y1 = -INFINITY;
-    const auto grow = [&](double x, double y) {
-      m.x0 = std::min(m.x0, x), m.x1 = std::max(m.x1, x), m.y0 = std::min(m.y0, y), m.y1 = std::max(m.y1, y);
-    };
-    for (const auto& g : m.segments)
-      for (const auto& [x, y] : g.line) grow(x, y);
-    for (const auto& w : m.wells) grow(w.x, w.y);
-    const double pad = std::max({(m.x1 - m.x0) * 0.08, (m.y1 - m.y0) * 0.08, 500.0});
-    m.x0 -= pad, m.x1 += pad, m.y0 -= pad, m.y1 += pad;
-    m.crs = s.manifest.value("parameters", nlohmann::json::object())
-                .value("scenario", nlohmann::json::object())
-                .value("region", nlohmann::json::object())
-                .value("crs", std::string());
+    if (s.maps_each) bands = formats::read_raster_bands(s.folder / raster);
+    else bands.push_back(s.last_band(raster));
   }
-  Figure f;
-  f.name = "area_map";
-  f.title = m.probability ? "Fault segments by P(slip) over the pressure change, " + m.date
-                          : "Fault segments by margin to failure over the pressure change, " + m.date;
-  f.reading = std::string(m.probability ? "Segments are coloured by their probability of having slipped by this date "
-                                          "(yellow: highest)"
-                                        : "Segments are coloured by Δp_crit − Δp at this date (yellow: smallest margin)") +
-              "; the background is the modelled Δp and the dashed blue line its footprint contour; triangles are "
-              "proposed wells, circles existing wells and open circles earthquakes sized by magnitude.";
-  f.width = kFigureWidth;
-  f.height = 400;
-  f.data = std::move(data);
-  f.draw = [m, title = f.title](formats::Canvas& c) { draw_map(c, m, title); };
-  return {f};
+  if (!bands.empty()) {
+    const auto& r = bands.back();
+    base.crs = r.crs_name + (r.crs_authority.empty() ? "" : " (" + r.crs_authority + ")");
+    base.x0 = std::min(r.x0, r.x0 + r.width * r.dx);
+    base.x1 = std::max(r.x0, r.x0 + r.width * r.dx);
+    base.y0 = std::min(r.y0, r.y0 + r.height * r.dy);
+    base.y1 = std::max(r.y0, r.y0 + r.height * r.dy);
+    base.raster_max = 0;
+    for (const auto& b : bands)
+      for (double v : b.values)
+        if (std::isfinite(v)) base.raster_max = std::max(base.raster_max, v);
+    if (!(base.raster_max > 0)) base.raster_max = 1;
+  } else {
+    base.x0 = base.y0 = INFINITY;
+    base.x1 = base.y1 = -INFINITY;
+    const auto grow = [&](double x, double y) {
+      base.x0 = std::min(base.x0, x), base.x1 = std::max(base.x1, x), base.y0 = std::min(base.y0, y), base.y1 = std::max(base.y1, y);
+    };
+    for (const auto& g : base.segments)
+      for (const auto& [x, y] : g.line) grow(x, y);
+    for (const auto& w : base.wells) grow(w.x, w.y);
+    const double pad = std::max({(base.x1 - base.x0) * 0.08, (base.y1 - base.y0) * 0.08, 500.0});
+    base.x0 -= pad, base.x1 += pad, base.y0 -= pad, base.y1 += pad;
+    base.crs = s.manifest.value("parameters", nlohmann::json::object())
+                   .value("scenario", nlohmann::json::object())
+                   .value("region", nlohmann::json::object())
+                   .value("crs", std::string());
+  }
+
+  std::vector<Figure> out;
+  for (const auto& date : dates) {
+    MapData m = base;
+    m.date = date;
+    const auto& at_date = values[date];
+    FigureData data;
+    data.header = value_header;
+    for (auto& g : m.segments) {
+      const auto it = at_date.find(g.id);
+      if (it != at_date.end()) g.value = it->second.first;
+      data.rows.push_back({g.id, date, it != at_date.end() ? it->second.second : ""});
+    }
+    // The band of this date (its description); without one, the map has no raster.
+    const auto band = std::find_if(bands.begin(), bands.end(),
+                                   [&](const formats::RasterBandData& b) { return b.description.substr(0, 10) == date.substr(0, 10); });
+    if (band != bands.end() || (!s.maps_each && !bands.empty())) {
+      m.raster = band != bands.end() ? *band : bands.back();
+      m.footprint = formats::contour_lines(*m.raster, m.footprint_level);
+    }
+    Figure f;
+    f.name = s.maps_each ? "area_map_" + date.substr(0, 10) : std::string("area_map");
+    f.title = m.probability ? "Fault segments by P(slip) over the pressure change, " + m.date
+                            : "Fault segments by margin to failure over the pressure change, " + m.date;
+    f.reading = std::string(m.probability ? "Segments are coloured by their probability of having slipped by this date "
+                                            "(yellow: highest)"
+                                          : "Segments are coloured by Δp_crit − Δp at this date (yellow: smallest margin)") +
+                "; the background is the modelled Δp and the dashed blue line its footprint contour; triangles are "
+                "proposed wells, circles existing wells and open circles earthquakes sized by magnitude.";
+    f.width = kFigureWidth;
+    f.height = 400;
+    f.data = std::move(data);
+    f.draw = [m = std::move(m), title = f.title](formats::Canvas& c) { draw_map(c, m, title); };
+    out.push_back(std::move(f));
+  }
+  return out;
 }
 
 }  // namespace slipscreen::outputs::report

@@ -9,7 +9,7 @@
 #include "core/util/civil_date.hpp"
 #include "core/util/number_text.hpp"
 #include "formats/drawing/canvas.hpp"
-#include "formats/gis/read_back.hpp"
+#include "formats/gis/run_layers.hpp"
 #include "outputs/report/figure_support.hpp"
 #include "outputs/report/plot.hpp"
 #include "outputs/report/run_table.hpp"
@@ -94,9 +94,13 @@ Figure magnitude_time(const std::vector<Event>& events, double mc) {
               nice_axis(std::min(m0, mc) - 0.2, m1 + 0.2, "magnitude"));
     plot.axes();
     plot.hline(mc, {.colour = kMc, .width = 1.0, .dash = {4, 3}});
+    // One clip for all events (a clip per dot would be one clip path per event in the SVG).
+    c.clip(plot.frame());
     for (const auto& e : events)
-      plot.dots({e.days}, {e.magnitude}, 1.6 + 1.1 * std::max(0.0, e.magnitude - m0), e.inside ? kInside : kOutside,
-                Stroke{.colour = formats::kPaper, .width = 0.4});
+      if (std::isfinite(e.days) && std::isfinite(e.magnitude))
+        c.circle(plot.to_page(e.days, e.magnitude), 1.6 + 1.1 * std::max(0.0, e.magnitude - m0), e.inside ? kInside : kOutside,
+                 Stroke{.colour = formats::kPaper, .width = 0.4});
+    c.unclip();
     page.footer();
   };
   return f;
@@ -292,17 +296,16 @@ Figure rt_figure(const RunTable& ev, const RunTable& fr, const json& summary) {
   return f;
 }
 
-Figure event_map(const std::vector<Event>& events, const formats::RasterBandRead& dp, double threshold,
-                 const std::vector<formats::LayerGeometry>& faults, const std::vector<formats::LayerGeometry>& wells) {
-  const auto& g = dp.grid;
+Figure event_map(const std::vector<Event>& events, const formats::RasterBandData& dp, double threshold,
+                 const std::vector<formats::LayerFeature>& faults, const std::vector<formats::LayerFeature>& wells) {
   double dp_max = threshold;
   for (double v : dp.values)
     if (std::isfinite(v)) dp_max = std::max(dp_max, v);
   // Whether a cell is inside the footprint (false outside the grid). Takes the band, so that the
   // drawing below holds no reference to this function's arguments.
-  const auto in_print = [threshold](const formats::RasterBandRead& b, int col, int row) {
-    if (col < 0 || row < 0 || col >= b.grid.columns || row >= b.grid.rows) return false;
-    const double v = b.values[b.grid.index(col, row)];
+  const auto in_print = [threshold](const formats::RasterBandData& b, int col, int row) {
+    if (col < 0 || row < 0 || col >= b.width || row >= b.height) return false;
+    const double v = b.values[static_cast<std::size_t>(row) * b.width + col];
     return std::isfinite(v) && v >= threshold;
   };
   Figure f;
@@ -314,12 +317,12 @@ Figure event_map(const std::vector<Event>& events, const formats::RasterBandRead
   f.width = kFigureWidth;
   f.height = 400;
   f.data.header = {"what", "id", "x_m", "y_m", "magnitude", "in_footprint", "dp_MPa"};
-  for (int r = 0; r < g.rows; ++r)
-    for (int col = 0; col < g.columns; ++col) {
-      const auto centre = g.cell_centre(col, r);
-      const double v = dp.values[g.index(col, r)];
-      f.data.rows.push_back({"cell", "", data_number(centre.x), data_number(centre.y), "", in_print(dp, col, r) ? "yes" : "no",
-                             data_number(v)});
+  // Cell centres x0 + (col + ½)·dx, y0 + (row + ½)·dy (the GeoTIFF's geotransform, north-up).
+  for (int r = 0; r < dp.height; ++r)
+    for (int col = 0; col < dp.width; ++col) {
+      const double v = dp.values[static_cast<std::size_t>(r) * dp.width + col];
+      f.data.rows.push_back({"cell", "", data_number(dp.x0 + (col + 0.5) * dp.dx), data_number(dp.y0 + (r + 0.5) * dp.dy), "",
+                             in_print(dp, col, r) ? "yes" : "no", data_number(v)});
     }
   for (const auto& e : events)
     f.data.rows.push_back({"event", e.id, data_number(e.x), data_number(e.y), data_number(e.magnitude),
@@ -332,52 +335,62 @@ Figure event_map(const std::vector<Event>& events, const formats::RasterBandRead
                        {"event outside", kOutside, LegendEntry::Mark::dot},
                        {"footprint outline", formats::kInk},
                        {"fault segment", formats::rgb(0x3a3f45)},
-                       {"well", formats::kInk, LegendEntry::Mark::square}});
+                       {"well", formats::kInk, LegendEntry::Mark::triangle}});
     page.colour_bar_right(Ramp::pressure, {0, dp_max, "Δp [MPa]"});
     // Equal scales in x and y (a map), in km.
-    const double x0 = g.x_origin / 1000, x1 = (g.x_origin + g.columns * g.cell_size) / 1000;
-    const double y1 = g.y_origin / 1000, y0 = (g.y_origin - g.rows * g.cell_size) / 1000;
+    const double x0 = dp.x0 / 1000, x1 = (dp.x0 + dp.width * dp.dx) / 1000;
+    const double y1 = dp.y0 / 1000, y0 = (dp.y0 + dp.height * dp.dy) / 1000;
     const Plot probe(c, page.body(), {x0, x1, ""}, {y0, y1, ""});
     const double per_pt = std::max((x1 - x0) / probe.frame().w, (y1 - y0) / probe.frame().h);
     const double cx = (x0 + x1) / 2, cy = (y0 + y1) / 2;
     const double hw = per_pt * probe.frame().w / 2, hh = per_pt * probe.frame().h / 2;
     Plot plot(c, page.body(), {cx - hw, cx + hw, "easting [km]"}, {cy - hh, cy + hh, "northing [km]"});
-    formats::Image img{g.columns, g.rows, {}};
-    for (int r = 0; r < g.rows; ++r)
-      for (int col = 0; col < g.columns; ++col) {
-        const double v = dp.values[g.index(col, r)];
-        const Colour k = std::isfinite(v) ? ramp_colour(Ramp::pressure, v / dp_max) : formats::kPaper;
-        for (double ch : {k.r, k.g, k.b, std::isfinite(v) ? 1.0 : 0.0})
-          img.rgba.push_back(static_cast<std::uint8_t>(std::lround(ch * 255)));
-      }
+    // The raster as one image scaled into the plot, each cell a sharp square.
+    formats::Image img{dp.width, dp.height, {}};
+    img.rgba.reserve(4u * dp.values.size());
+    for (double v : dp.values) {
+      const Colour k = std::isfinite(v) ? ramp_colour(Ramp::pressure, v / dp_max) : formats::kPaper;
+      for (double ch : {k.r, k.g, k.b, std::isfinite(v) ? 1.0 : 0.0})
+        img.rgba.push_back(static_cast<std::uint8_t>(std::lround(ch * 255)));
+    }
     const formats::Point tl = plot.to_page(x0, y1), br = plot.to_page(x1, y0);
     c.image(img, {tl.x, tl.y, br.x - tl.x, br.y - tl.y});
     plot.axes();
-    // The footprint's outline: the cell edges between cells inside and outside it.
-    const double cs = g.cell_size / 1000;
-    for (int r = 0; r <= g.rows; ++r)
-      for (int col = 0; col <= g.columns; ++col) {
-        const double ex = x0 + col * cs, ny = y1 - r * cs;
-        if (in_print(dp, col, r) != in_print(dp, col - 1, r) && r < g.rows)
-          plot.line({ex, ex}, {ny, ny - cs}, {.width = 1.2});
-        if (in_print(dp, col, r) != in_print(dp, col, r - 1) && col < g.columns)
-          plot.line({ex, ex + cs}, {ny, ny}, {.width = 1.2});
+    // The footprint's outline: the cell edges between cells inside and outside it, one path.
+    const double cw = dp.dx / 1000, ch = -dp.dy / 1000;
+    std::vector<std::vector<formats::Point>> edges;
+    for (int r = 0; r <= dp.height; ++r)
+      for (int col = 0; col <= dp.width; ++col) {
+        const double ex = x0 + col * cw, ny = y1 - r * ch;
+        if (in_print(dp, col, r) != in_print(dp, col - 1, r) && r < dp.height)
+          edges.push_back({plot.to_page(ex, ny), plot.to_page(ex, ny - ch)});
+        if (in_print(dp, col, r) != in_print(dp, col, r - 1) && col < dp.width)
+          edges.push_back({plot.to_page(ex, ny), plot.to_page(ex + cw, ny)});
       }
+    c.clip(plot.frame());
+    c.lines(edges, {.width = 1.2});
+    c.unclip();
+    c.clip(plot.frame());
+    std::vector<std::vector<formats::Point>> lines;
     for (const auto& fault : faults)
       for (const auto& part : fault.parts) {
-        std::vector<double> x, y;
-        for (const auto& p : part) x.push_back(p.x / 1000), y.push_back(p.y / 1000);
-        plot.line(x, y, {.colour = formats::rgb(0x3a3f45), .width = 1.3});
+        lines.emplace_back();
+        for (const auto& [px, py] : part) lines.back().push_back(plot.to_page(px / 1000, py / 1000));
       }
+    c.lines(lines, {.colour = formats::rgb(0x3a3f45), .width = 1.3});
+    c.unclip();
     for (const auto& w : wells)
       for (const auto& part : w.parts)
-        for (const auto& p : part) {
-          const formats::Point q = plot.to_page(p.x / 1000, p.y / 1000);
-          c.polygon({{q.x, q.y - 4}, {q.x + 3.6, q.y + 2.6}, {q.x - 3.6, q.y + 2.6}}, formats::kInk,
-                    Stroke{.colour = formats::kPaper, .width = 0.5});
+        for (const auto& [px, py] : part) {
+          const formats::Point q = plot.to_page(px / 1000, py / 1000);
+          well_triangle(c, q, 4.2, formats::kInk, Stroke{.colour = formats::kPaper, .width = 0.5});
         }
+    c.clip(plot.frame());
     for (const auto& e : events)
-      plot.dots({e.x / 1000}, {e.y / 1000}, 2.2, e.inside ? kInside : kOutside, Stroke{.colour = formats::kPaper, .width = 0.4});
+      if (std::isfinite(e.x) && std::isfinite(e.y))
+        c.circle(plot.to_page(e.x / 1000, e.y / 1000), 2.2, e.inside ? kInside : kOutside,
+                 Stroke{.colour = formats::kPaper, .width = 0.4});
+    c.unclip();
     page.footer();
   };
   return f;
@@ -390,23 +403,23 @@ std::vector<Figure> catalog_figures(const ReportSource& src) {
   const bool reviewed = src.manifest.contains("screens") && src.manifest["screens"].value("catalog_review", false);
   if (!reviewed || !RunTable::exists(src.folder, "catalog_events.csv")) return out;
   const json summary = read_json(src.folder / "catalog_summary.json");
-  const std::vector<Event> events = read_events(RunTable::read(src.folder, "catalog_events.csv"));
+  const std::vector<Event> events = read_events(src.table("catalog_events.csv"));
   const double mc = json_number(summary, "/completeness/mc");
   if (!events.empty()) out.push_back(magnitude_time(events, mc));
   if (!summary.value("frequency_magnitude", json::array()).empty()) out.push_back(frequency_magnitude(summary));
   if (RunTable::exists(src.folder, "injected_volume.csv") && std::isfinite(mc))
-    out.push_back(volume_figure(events, RunTable::read(src.folder, "injected_volume.csv"), summary));
+    out.push_back(volume_figure(events, src.table("injected_volume.csv"), summary));
   if (RunTable::exists(src.folder, "rt_events.csv") && RunTable::exists(src.folder, "rt_fronts.csv"))
-    out.push_back(rt_figure(RunTable::read(src.folder, "rt_events.csv"), RunTable::read(src.folder, "rt_fronts.csv"),
+    out.push_back(rt_figure(src.table("rt_events.csv"), src.table("rt_fronts.csv"),
                             summary));
   if (RunTable::exists(src.folder, "pressure_change.tif")) {
     const double threshold = json_number(summary, "/against_model/footprint/threshold_MPa");
-    std::vector<formats::LayerGeometry> faults, wells;
+    std::vector<formats::LayerFeature> faults, wells;
     if (RunTable::exists(src.folder, "screen.gpkg")) {
-      faults = formats::read_layer_geometries(src.folder / "screen.gpkg", "fault_segments", "segment_id");
-      wells = formats::read_layer_geometries(src.folder / "screen.gpkg", "wells", "well_id");
+      faults = src.layer("screen.gpkg", "fault_segments");
+      wells = src.layer("screen.gpkg", "wells");
     }
-    auto band = formats::read_band_back(src.folder / "pressure_change.tif", -1);
+    const auto& band = src.last_band("pressure_change.tif");
     if (std::isfinite(threshold)) out.push_back(event_map(events, band, threshold, faults, wells));
   }
   return out;

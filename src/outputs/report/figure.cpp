@@ -1,13 +1,60 @@
 #include "outputs/report/figure.hpp"
 
 #include <map>
+#include <mutex>
 #include <sstream>
 #include <string_view>
 
 #include "formats/files/text_file.hpp"
 #include "formats/table/csv.hpp"
+#include "outputs/report/run_table.hpp"
 
 namespace slipscreen::outputs::report {
+
+struct RunFileCache {
+  std::mutex mutex;
+  std::map<std::string, RunTable> tables;
+  std::map<std::pair<std::string, std::string>, std::vector<formats::LayerFeature>> layers;
+  std::map<std::pair<std::string, std::string>, bool> has_layers;
+  std::map<std::string, formats::RasterBandData> last_bands;
+};
+
+std::shared_ptr<RunFileCache> new_run_file_cache() { return std::make_shared<RunFileCache>(); }
+
+namespace {
+
+// The cached value of `key` in `map`, read by `read()` on first use. The read runs outside the
+// lock, so builders on other threads read other files meanwhile; when two read the same file at
+// once, the first value stored is kept (both are the same file's).
+template <class Map, class Key, class Read>
+const typename Map::mapped_type& cached(std::mutex& mutex, Map& map, const Key& key, Read&& read) {
+  {
+    std::lock_guard lock(mutex);
+    if (const auto it = map.find(key); it != map.end()) return it->second;
+  }
+  auto value = read();
+  std::lock_guard lock(mutex);
+  return map.emplace(key, std::move(value)).first->second;
+}
+
+}  // namespace
+
+const RunTable& ReportSource::table(const std::string& file) const {
+  return cached(cache->mutex, cache->tables, file, [&] { return RunTable::read(folder, file); });
+}
+
+bool ReportSource::has_layer(const std::string& file, const std::string& layer) const {
+  return cached(cache->mutex, cache->has_layers, std::pair{file, layer},
+                [&] { return formats::has_layer(folder / file, layer); });
+}
+
+const std::vector<formats::LayerFeature>& ReportSource::layer(const std::string& file, const std::string& layer) const {
+  return cached(cache->mutex, cache->layers, std::pair{file, layer}, [&] { return formats::read_layer(folder / file, layer); });
+}
+
+const formats::RasterBandData& ReportSource::last_band(const std::string& file) const {
+  return cached(cache->mutex, cache->last_bands, file, [&] { return formats::read_raster_band(folder / file, 0); });
+}
 
 std::string renumber_svg_ids(std::string_view svg, const std::string& prefix) {
   // Cairo numbers glyphs, clips, images and surfaces with counters that can run across the

@@ -7,21 +7,39 @@
 // did not write, so every number it shows can be checked against a table of the run.
 #include <filesystem>
 #include <functional>
+#include <memory>
 #include <string>
 #include <vector>
 
 #include <nlohmann/json.hpp>
 
 #include "formats/drawing/canvas.hpp"
+#include "formats/gis/run_layers.hpp"
 #include "outputs/report/plot.hpp"
 
 namespace slipscreen::outputs::report {
+
+class RunTable;
+// The run files a report has read (figure.cpp), kept so that each is read once however many
+// figures and tables use it.
+struct RunFileCache;
+std::shared_ptr<RunFileCache> new_run_file_cache();
 
 // What every figure builder reads: the finished run folder and its manifest.
 struct ReportSource {
   std::filesystem::path folder;  // the run folder (or its staging folder while a run finishes)
   nlohmann::json manifest;       // its manifest.json
   std::size_t top_segments = 5;  // how many segments the "top segments" figures show
+  bool maps_each = false;        // an area map at each output time (area_map_<date>), else one at the last
+  std::shared_ptr<RunFileCache> cache = new_run_file_cache();
+
+  // The run's table `file` (RunTable::read), read once per report.
+  const RunTable& table(const std::string& file) const;
+  // Whether the GeoPackage `file` of the run holds `layer`, and that layer's features, read once.
+  bool has_layer(const std::string& file, const std::string& layer) const;
+  const std::vector<formats::LayerFeature>& layer(const std::string& file, const std::string& layer) const;
+  // The last band (the last output time) of the run's raster `file`, read once.
+  const formats::RasterBandData& last_band(const std::string& file) const;
 };
 
 // figures/<name>.csv: a header and rows of text fields, as they will be written.
@@ -31,7 +49,7 @@ struct FigureData {
 };
 
 struct Figure {
-  std::string name;     // file stem, [a-z0-9_]+ ("area_map", "slip_probability_curves")
+  std::string name;     // file stem, [a-z0-9_-]+ ("area_map", "area_map_2032-01-01")
   std::string title;    // plain text, for the report's caption and the HTML alt text
   std::string reading;  // one or two sentences: how to read it (plain text)
   double width = kFigureWidth, height = kFigureHeight;  // points

@@ -51,6 +51,10 @@ std::string number_label(double v, double step) {
 
 }  // namespace
 
+void well_triangle(Canvas& c, Point p, double r, const formats::Colour& fill, const Stroke& outline) {
+  c.polygon({{p.x, p.y - r}, {p.x + r * 0.866, p.y + r * 0.5}, {p.x - r * 0.866, p.y + r * 0.5}}, fill, outline);
+}
+
 std::vector<Tick> linear_ticks(double lo, double hi, int target) {
   std::vector<Tick> out;
   if (!(hi > lo) || !std::isfinite(lo) || !std::isfinite(hi)) return out;
@@ -154,6 +158,7 @@ void FigurePage::legend_right(const std::vector<LegendEntry>& entries, const std
       case LegendEntry::Mark::band: c_.rectangle({x, cy - 4, 12, 8}, e.colour, std::nullopt); break;
       case LegendEntry::Mark::dot: c_.circle({x + 6, cy}, 3.2, e.colour, Stroke{.colour = formats::kInk, .width = 0.4}); break;
       case LegendEntry::Mark::square: c_.rectangle({x + 2, cy - 4, 8, 8}, e.colour, Stroke{.width = 0.4}); break;
+      case LegendEntry::Mark::triangle: well_triangle(c_, {x + 6, cy}, 4.6, e.colour, Stroke{.width = 0.4}); break;
     }
     const Box b = c_.text({x + 16, cy}, e.label, {.size = kTickSize, .v = VAlign::middle, .wrap_width = w - 16});
     y += std::max(kTickSize * 1.5, b.h + 2);
@@ -162,7 +167,10 @@ void FigurePage::legend_right(const std::vector<LegendEntry>& entries, const std
 }
 
 void FigurePage::colour_bar_right(Ramp ramp, const Axis& scale) {
-  const double bar_w = 10, label_w = 44;
+  // The label sits above the bar, starting at its left edge, and the bar takes the room of the
+  // wider of its tick labels and its label, so that neither runs into the plot beside it.
+  const double bar_w = 10;
+  const double label_w = std::max(44.0, c_.measure(scale.label, {.size = kTickSize}).w + 4 - bar_w);
   const double x = body_.right() - bar_w - label_w;
   const double top = body_.y + 16, bottom = body_.bottom() - 24;
   const int steps = 64;
@@ -178,7 +186,7 @@ void FigurePage::colour_bar_right(Ramp ramp, const Axis& scale) {
     c_.line({{x + bar_w, y}, {x + bar_w + 3, y}}, {.width = 0.5});
     c_.text({x + bar_w + 5, y}, t.label, {.size = kTickSize, .v = VAlign::middle});
   }
-  c_.text({x + bar_w / 2, top - 4}, scale.label, {.size = kTickSize, .h = HAlign::centre, .v = VAlign::bottom});
+  c_.text({x, top - 4}, scale.label, {.size = kTickSize, .h = HAlign::left, .v = VAlign::bottom});
   body_.w -= bar_w + label_w + 8;
 }
 

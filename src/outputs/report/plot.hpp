@@ -54,8 +54,13 @@ Axis nice_axis(double lo, double hi, std::string label, AxisKind kind = AxisKind
 struct LegendEntry {
   std::string label;  // Pango markup
   formats::Colour colour;
-  enum class Mark { line, band, dot, square } mark = Mark::line;
+  enum class Mark { line, band, dot, square, triangle } mark = Mark::line;
 };
+
+// A well's map symbol (and its legend mark): an upward triangle of circumradius `r` points
+// centred at `p`.
+void well_triangle(formats::Canvas& c, formats::Point p, double r, const formats::Colour& fill,
+                   const formats::Stroke& outline);
 
 // A figure's page: title on top, the body for the plot, the legend at the right or below,
 // the caution in the footer.

@@ -61,11 +61,11 @@ TopSegments top_segments(const ReportSource& s, std::size_t n) {
   std::vector<std::pair<std::string, double>> ranked;  // id, key (smaller first)
   if (has_probabilistic(s)) {
     top.probabilistic = true;
-    const RunTable t = RunTable::read(s.folder, "segment_probability_summary.csv");
+    const RunTable& t = s.table("segment_probability_summary.csv");
     const std::size_t id = t.column("segment_id"), p = t.column("p_slip_final");
     for (std::size_t r = 0; r < t.rows(); ++r) ranked.emplace_back(t.text(r, id), -t.number(r, p));
   } else if (RunTable::exists(s.folder, segments_file(s))) {
-    const RunTable t = RunTable::read(s.folder, segments_file(s));
+    const RunTable& t = s.table(segments_file(s));
     const std::size_t id = t.column("segment_id");
     const auto [m, factor] = t.quantity_column("margin");
     for (std::size_t r = 0; r < t.rows(); ++r) ranked.emplace_back(t.text(r, id), t.number(r, m) * factor);

@@ -137,14 +137,14 @@ void segments_section(const ReportSource& s, std::vector<ReportBlock>& out) {
   const auto top = top_segments(s, s.top_segments);
   if (top.ids.empty()) return;
   out.push_back(heading("Segments closest to failure"));
-  const RunTable seg = RunTable::read(s.folder, segments_file(s));
+  const RunTable& seg = s.table(segments_file(s));
   const std::string u = seg.quantity_unit("dp_crit");
   ReportBlock t{.kind = Kind::table};
   t.header = {"segment", "status", "Δp_crit [" + u + "]", "peak Δp [" + u + "]", "margin [" + u + "]",
               "first reached"};
   std::optional<RunTable> sum;
   if (top.probabilistic) {
-    sum = RunTable::read(s.folder, "segment_probability_summary.csv");
+    sum = s.table("segment_probability_summary.csv");
     t.header.push_back("P(slip) final");
     t.header.push_back("95 % interval");
     out.push_back(paragraph("The " + std::to_string(top.ids.size()) +

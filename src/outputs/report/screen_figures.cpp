@@ -35,7 +35,7 @@ std::vector<Figure> slip_probability_figures(const ReportSource& s) {
   if (!has_probabilistic(s)) return {};
   const TopSegments top = top_segments(s, s.top_segments);
   if (top.ids.empty()) return {};
-  const RunTable t = RunTable::read(s.folder, "segment_probability.csv");
+  const RunTable& t = s.table("segment_probability.csv");
   struct Series {
     std::vector<double> x, p, lo, hi;
   };
@@ -93,12 +93,12 @@ std::vector<Figure> slip_probability_figures(const ReportSource& s) {
 std::vector<Figure> pressure_history_figures(const ReportSource& s) {
   const std::string file = pressure_history_file(s);
   if (!RunTable::exists(s.folder, file)) return {};
-  const RunTable t = RunTable::read(s.folder, file);
+  const RunTable& t = s.table(file);
   const std::string u = t.quantity_unit("dp");
   const double to_si = suffix_factor(u).value_or(1.0);
   const std::size_t rank_col = t.column("rank"), id_col = t.column("segment_id"), well_col = t.column("well_id");
   const std::size_t dp_col = t.column("dp_" + u), date_col = t.column("date");
-  const RunTable seg = RunTable::read(s.folder, segments_file(s));
+  const RunTable& seg = s.table(segments_file(s));
   const std::size_t shown = std::min<std::size_t>(3, s.top_segments);
 
   std::vector<Figure> figures;

@@ -343,7 +343,7 @@ Figure sensitivity_figure(const RunTable& t, std::size_t n) {
 std::vector<Figure> stress_figures(const ReportSource& src) {
   std::vector<Figure> out;
   if (RunTable::exists(src.folder, "segments.csv")) {
-    const RunTable t = RunTable::read(src.folder, "segments.csv");
+    const RunTable& t = src.table("segments.csv");
     const auto rows = read_segments(t);
     const DisplayUnit u = unit_of(t, "sigma_n_eff");
     for (const auto& fault : critical_faults(rows, src.top_segments)) {
@@ -353,10 +353,10 @@ std::vector<Figure> stress_figures(const ReportSource& src) {
     }
   }
   if (RunTable::exists(src.folder, "dp_crit_quantiles.csv") && RunTable::exists(src.folder, "segment_probability.csv"))
-    out.push_back(dp_crit_figure(RunTable::read(src.folder, "dp_crit_quantiles.csv"),
-                                 RunTable::read(src.folder, "segment_probability.csv"), src.top_segments));
+    out.push_back(dp_crit_figure(src.table("dp_crit_quantiles.csv"),
+                                 src.table("segment_probability.csv"), src.top_segments));
   if (RunTable::exists(src.folder, "sensitivity.csv")) {
-    const RunTable t = RunTable::read(src.folder, "sensitivity.csv");
+    const RunTable& t = src.table("sensitivity.csv");
     if (t.rows() > 0) out.push_back(sensitivity_figure(t, src.top_segments));
   }
   return out;

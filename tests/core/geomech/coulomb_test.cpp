@@ -193,3 +193,29 @@ TEST_CASE("Coulomb bad input") {
   CHECK_THROWS_WITH_AS(stress_path_coefficient({1.5, 0.25}), doctest::Contains("field 'Biot coefficient'"), InputError);
   CHECK_THROWS_WITH_AS(stress_path_coefficient({1.0, 0.5}), doctest::Contains("field 'Poisson's ratio'"), InputError);
 }
+
+TEST_CASE("poroelastic path: dCFF(dp) equals the CFF recomputed from scratch; kappa = 0 is mu dp exactly") {
+  std::mt19937_64 rng(7);
+  std::uniform_real_distribution<double> u(0.0, 1.0);
+  for (int k = 0; k < 200; ++k) {
+    const double sv = 50e6 + 40e6 * u(rng), p0 = 0.4 * sv, mu = 0.4 + 0.6 * u(rng);
+    const auto h = horizontal_stresses_from_a_phi(3.0 * u(rng), sv, p0, mu * 0.9);
+    const Eigen::Matrix3d t = stress_tensor_ned({sv, h.shmax, h.shmin, u(rng) * 2 * std::numbers::pi, p0});
+    const double kappa = stress_path_coefficient({0.3 + 0.7 * u(rng), 0.45 * u(rng)});
+    const auto n = FaultPlane::from_strike_dip(u(rng) * 2 * std::numbers::pi, u(rng) * std::numbers::pi / 2).normal();
+    const Friction f{mu, 1e6 * u(rng)};
+    const CoulombPathChange c = coulomb_path_change(t, n, mu, kappa);
+    const double cff0 = coulomb_failure_function_after(t, p0, n, f, kappa, 0.0);
+    CAPTURE(k);
+    for (double dp : {-3e6, 1.0, 1e3, 1e5, 2e6, 2e7}) {
+      // Reference: the Coulomb function recomputed from the changed tensor (independent path).
+      const double ref = coulomb_failure_function_after(t, p0, n, f, kappa, dp) - cff0;
+      CHECK(std::fabs(c.at(dp) - ref) <= 1e-8 * sv);  // Pa: rounding of the 1e7-Pa recomputation
+    }
+    // Relative accuracy for tiny Δp, where the recomputation cancels: the linear term.
+    const double slope = c.tau0 > 0 ? c.ab / c.tau0 + c.normal_rate : c.normal_rate;
+    CHECK(std::fabs(c.at(1e-3) - slope * 1e-3) <= 1e-9 * std::fabs(slope * 1e-3) + 1e-18);
+    const CoulombPathChange none = coulomb_path_change(t, n, mu, 0.0);
+    CHECK(none.at(1234.5) == mu * 1234.5);  // bit-identical to μΔp
+  }
+}

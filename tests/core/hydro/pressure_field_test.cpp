@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "core/errors.hpp"
+#include "core/hydro/hantush.hpp"
 #include "core/hydro/well_function.hpp"
 #include "core/units/units.hpp"
 
@@ -162,4 +163,32 @@ TEST_CASE("evaluate_each gives each point's own time, as evaluate does") {
   CHECK(each[0] > 0.0);
   const std::vector<double> two{1.0, 2.0};
   CHECK_THROWS_AS(field.evaluate_each(prepared, two, params), InputError);
+}
+
+TEST_CASE("a leaky formation: W(u, r/B) per term, and Theis when the aquitard is nearly impervious") {
+  // Hantush & Jacob (1955): Δp = P q W(r²/(4Dt), r/B); c_L = D/B².
+  TheisParameters p = example_params();
+  const double b = 2500.0;  // m, leakage factor (invented)
+  TheisParameters leaky = p;
+  leaky.leakage_rate = p.diffusivity / (b * b);
+  const PressureField one({well("A", 0, 0, RateHistory({0.0, 300 * kDay}, {0.03, 0.01}))});
+  for (double r : {0.5, 800.0, 4000.0})
+    for (double t : {30 * kDay, 500 * kDay}) {
+      CAPTURE(r);
+      CAPTURE(t);
+      double ref = 0.03 * leaky_well_function(r * r / (4 * p.diffusivity * t), r / b);
+      if (t > 300 * kDay) ref += (0.01 - 0.03) * leaky_well_function(r * r / (4 * p.diffusivity * (t - 300 * kDay)), r / b);
+      ref *= p.pressure_per_rate;
+      CHECK(rel_err(one.pressure_at(leaky, {r, 0}, t), ref) <= 1e-14);
+      CHECK(rel_err(theis_pressure(leaky, 0.03, r, 0.1, std::min(t, 300 * kDay)),
+                    p.pressure_per_rate * 0.03 * leaky_well_function(r * r / (4 * p.diffusivity * std::min(t, 300 * kDay)), r / b)) <= 1e-15);
+      CHECK(one.pressure_at(leaky, {r, 0}, t) < one.pressure_at(p, {r, 0}, t));  // leakage lowers Δp
+      // B = 1e12 m (a huge aquitard resistance): Theis to 1e-10.
+      TheisParameters tight = p;
+      tight.leakage_rate = p.diffusivity / 1e24;
+      CHECK(rel_err(one.pressure_at(tight, {r, 0}, t), one.pressure_at(p, {r, 0}, t)) <= 1e-10);
+    }
+  TheisParameters bad = p;
+  bad.leakage_rate = -1.0;
+  CHECK_THROWS_AS(one.pressure_at(bad, {100, 0}, kDay), InputError);
 }

@@ -248,3 +248,36 @@ TEST_CASE("two outputs may not share a file, or a file and a folder") {
   run.output("output.files.geopackage", "tables/screen.gpkg");
   CHECK_THROWS_AS(run.output("output.files.pressure_raster", "tables"), RefusedError);
 }
+
+TEST_CASE("a caller's rule narrows what force replaces, checked before the run and at its commit") {
+  test::TempDir dir("run-replaceable");
+  const fs::path target = dir / "review";
+  make_run(target, "old.txt", "old");
+  formats::RunFolderOptions only_comparisons = forced();
+  only_comparisons.replaceable = [](const fs::path&) -> std::optional<std::string> { return "not a comparison"; };
+  CHECK_THROWS_WITH_AS((formats::RunFolder{target, only_comparisons}), doctest::Contains("not a comparison"),
+                       RefusedError);
+  CHECK(read_text(target / "old.txt") == "old");
+  // Accepted when the run is written, refused by the time it is committed: the earlier run stays.
+  bool accept = true;
+  formats::RunFolderOptions changing = forced();
+  changing.replaceable = [&accept](const fs::path&) -> std::optional<std::string> {
+    if (accept) return std::nullopt;
+    return "changed meanwhile";
+  };
+  {
+    formats::RunFolder run(target, changing);
+    write_text(run.output("k", "new.txt"), "new");
+    accept = false;
+    CHECK_THROWS_WITH_AS(run.commit(), doctest::Contains("changed meanwhile"), RefusedError);
+  }
+  CHECK(read_text(target / "old.txt") == "old");
+  CHECK(entries(dir.path()) == 1);
+  accept = true;
+  {
+    formats::RunFolder run(target, changing);
+    write_text(run.output("k", "new.txt"), "new");
+    run.commit();
+  }
+  CHECK(read_text(target / "new.txt") == "new");
+}

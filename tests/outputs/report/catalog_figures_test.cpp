@@ -7,7 +7,7 @@
 #include <cmath>
 #include <map>
 
-#include "formats/gis/read_back.hpp"
+#include "formats/gis/run_layers.hpp"
 #include "outputs/report/figure_checks.hpp"
 #include "run/run_scenario.hpp"
 #include "scenario/scenario.hpp"
@@ -146,16 +146,18 @@ TEST_CASE("catalog figures of the demo run match the review's files") {
   SUBCASE("event map: every raster cell at the last time and every event") {
     const Figure& f = *by_name["catalog_event_map"];
     const FigureRows d{f.data};
-    const auto band = formats::read_band_back(run / "pressure_change.tif", -1);
+    const auto band = formats::read_raster_band(run / "pressure_change.tif", 0);
     const auto cells = d.where("what", "cell");
-    REQUIRE(cells.size() == band.grid.cell_count());
+    REQUIRE(cells.size() == band.values.size());
     const double threshold = summary["against_model"]["footprint"]["threshold_MPa"].get<double>();
     std::size_t in_print = 0, k = 0;
-    for (int r = 0; r < band.grid.rows; ++r)
-      for (int c = 0; c < band.grid.columns; ++c, ++k) {
-        const double v = band.values[band.grid.index(c, r)];
+    for (int r = 0; r < band.height; ++r)
+      for (int c = 0; c < band.width; ++c, ++k) {
+        const double v = band.values[k];
         CHECK(d.number(cells[k], "dp_MPa") == doctest::Approx(v).epsilon(1e-9));
-        CHECK(d.number(cells[k], "x_m") == doctest::Approx(band.grid.cell_centre(c, r).x).epsilon(1e-12));
+        // The cell centre from the GeoTIFF's geotransform (GDAL's convention: x0 + (col + ½)·dx).
+        CHECK(d.number(cells[k], "x_m") == doctest::Approx(band.x0 + (c + 0.5) * band.dx).epsilon(1e-12));
+        CHECK(d.number(cells[k], "y_m") == doctest::Approx(band.y0 + (r + 0.5) * band.dy).epsilon(1e-12));
         CHECK((d.at(cells[k], "in_footprint") == "yes") == (v >= threshold));
         in_print += v >= threshold;
       }

@@ -6,7 +6,9 @@
 
 #include <doctest/doctest.h>
 
+#include <algorithm>
 #include <fstream>
+#include <set>
 
 #include "core/errors.hpp"
 #include "outputs/report/area_map.hpp"
@@ -19,6 +21,10 @@
 using namespace slipscreen;
 namespace fs = std::filesystem;
 using outputs::report::renumber_svg_ids;
+
+namespace {
+std::size_t segment_paths(const std::string& svg);
+}
 
 TEST_CASE("SVG ids are renumbered in order of appearance, references with them") {
   const std::string svg = R"x(<svg><symbol id="glyph7-3"/><use xlink:href="#glyph7-3"/><g clip-path="url(#clip42)">)x"
@@ -48,10 +54,7 @@ TEST_CASE("a deterministic run's report: the map by margin and the pressure hist
   CHECK(html.find("Screening estimate from simplified physics") != std::string::npos);
   CHECK(html.find("tiny test scenario") != std::string::npos);
   // The map draws one path of the segment width per segment (8 in the tiny scenario).
-  const std::string svg = test::slurp(out / "figures" / "area_map.svg");
-  std::size_t paths = 0;
-  for (std::size_t at = 0; (at = svg.find("stroke-width:2.25;", at)) != std::string::npos; ++at) ++paths;
-  CHECK(paths == 8);
+  CHECK(segment_paths(test::slurp(out / "figures" / "area_map.svg")) == 8);
 
   SUBCASE("a failed rebuild leaves the earlier report and no staging folder") {
     const std::string before = test::slurp(out / "report.html");
@@ -63,6 +66,67 @@ TEST_CASE("a deterministic run's report: the map by margin and the pressure hist
   SUBCASE("an unknown page size is refused before anything is written") {
     CHECK_THROWS_AS(run::rebuild_report(out, {.page = "A5", .reproducible = true}), InputError);
   }
+}
+
+namespace {
+// The segment paths of the map (one path of the segment width per segment) in an SVG.
+std::size_t segment_paths(const std::string& svg) {
+  std::size_t paths = 0;
+  for (std::size_t at = 0; (at = svg.find("stroke-width:2.25;", at)) != std::string::npos; ++at) ++paths;
+  return paths;
+}
+}  // namespace
+
+TEST_CASE("one area map per output time when asked: report --maps each, [output] report_maps") {
+  test::TinyScenario t;
+  t.replace("scenario.toml", "cog = false", "cog = false\nreport_maps = \"each\"");
+  const auto s = scenario::load_scenario(t.scenario());
+  CHECK(s.output.report_maps == "each");
+  const fs::path out = t.dir() / "runs" / "tiny";
+  run::run_scenario(s, test::options_into(out));
+  // The output dates, as the run's table holds them.
+  std::set<std::string> dates;
+  {
+    std::ifstream in(out / "segment_times.csv");
+    std::string line;
+    std::getline(in, line);
+    const auto header = line;
+    std::size_t col = 0;
+    for (std::size_t at = 0, next; (next = header.find(',', at)) != std::string::npos && header.substr(at, next - at) != "date"; at = next + 1)
+      ++col;
+    while (std::getline(in, line)) {
+      std::size_t at = 0;
+      for (std::size_t k = 0; k < col; ++k) at = line.find(',', at) + 1;
+      dates.insert(line.substr(at, 10));
+    }
+  }
+  REQUIRE(dates.size() >= 2);
+  const auto maps = [&] {
+    std::vector<std::string> names;
+    for (const auto& e : fs::directory_iterator(out / "figures"))
+      if (e.path().extension() == ".svg" && e.path().stem().string().rfind("area_map", 0) == 0)
+        names.push_back(e.path().stem().string());
+    std::sort(names.begin(), names.end());
+    return names;
+  };
+  std::vector<std::string> expected;
+  for (const auto& d : dates) expected.push_back("area_map_" + d);
+  CHECK(maps() == expected);
+  for (const auto& name : expected) {
+    CHECK(segment_paths(test::slurp(out / "figures" / (name + ".svg"))) == 8);
+    const std::string csv = test::slurp(out / "figures" / (name + ".csv"));
+    CHECK(csv.find("," + name.substr(9)) != std::string::npos);  // its rows are of its own date
+  }
+  // `slipscreen report --maps last` goes back to the one map at the last time, and removes the others.
+  run::rebuild_report(out, {.reproducible = true, .maps = "last"});
+  CHECK(maps() == std::vector<std::string>{"area_map"});
+  CHECK(segment_paths(test::slurp(out / "figures" / "area_map.svg")) == 8);
+  run::rebuild_report(out, {.reproducible = true, .maps = "each"});
+  CHECK(maps() == expected);
+
+  test::TinyScenario bad;
+  bad.replace("scenario.toml", "cog = false", "cog = false\nreport_maps = \"all\"");
+  CHECK_THROWS_AS(scenario::load_scenario(bad.scenario()), InputError);
 }
 
 TEST_CASE("a folder that is not a run is refused") {
