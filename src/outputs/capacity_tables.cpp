@@ -184,6 +184,17 @@ std::vector<std::string> capacity_console(const screening::CapacityResult& c, co
                           : "; point estimate: f <= " + util::number_text(t.point.allowed, 3);
       out.push_back(l);
       for (auto& s : capacity_schedule(c, t.wilson.allowed, u)) out.push_back("    " + s);
+      // A looser threshold can allow less than a stricter one: the stricter answer leaves out the
+      // segments already above it without the group, and one of them may bind the looser answer
+      // (docs/decisions.md). Say so rather than leave it looking like an error.
+      for (const auto& lower : c.thresholds) {
+        if (lower.threshold >= t.threshold || lower.wilson.beyond || lower.wilson.allowed <= t.wilson.allowed) continue;
+        const auto& left_out = lower.reached_without;
+        if (std::find(left_out.begin(), left_out.end(), *t.wilson.binding) == left_out.end()) continue;
+        out.push_back("    less than at P(slip) <= " + th_text(lower.threshold) + ": " + c.segment_ids[*t.wilson.binding] +
+                      " is already above " + th_text(lower.threshold) + " without these wells, so that answer leaves it out");
+        break;
+      }
     }
     if (!t.reached_without.empty()) {
       std::string l = "    reached without these wells (" + std::to_string(t.reached_without.size()) + "):";
