@@ -108,7 +108,9 @@ CapacityResult capacity_answer(const scenario::ResolvedScenario& s, const Prepar
     CapacityThreshold c;
     c.threshold = th;
     const auto w = probabilistic::allowable_factor(out.curves, th, probabilistic::ProbabilityBound::wilson_upper, z);
-    const auto pt = probabilistic::allowable_factor(out.curves, th, probabilistic::ProbabilityBound::point_estimate, z);
+    // The point estimate's answer over the same segments as the conservative one (allowable_factor.hpp).
+    const auto pt = probabilistic::allowable_factor(out.curves, th, probabilistic::ProbabilityBound::point_estimate, z,
+                                                    probabilistic::ProbabilityBound::wilson_upper);
     c.wilson = answer_of(w.limit, w.binding, cap.up_to);
     c.point = answer_of(pt.limit, pt.binding, cap.up_to);
     c.reached_without = w.reached_without;

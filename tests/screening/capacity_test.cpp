@@ -77,6 +77,8 @@ void check_against_reruns(const Screen& r, double from) {
     CAPTURE(th.threshold);
     if (th.wilson.beyond) continue;
     ++answered;
+    // The point estimate's answer is over the same segments, so never below the conservative one.
+    CHECK(th.wilson.allowed <= th.point.allowed);
     const double f = th.wilson.allowed;
     CHECK(f < th.wilson.limit);
     CHECK(rerun_largest_upper(r, f, from, th.reached_without) <= th.threshold);

@@ -60,16 +60,20 @@ double segment_limit(const SlipFactorCurve& curve, double threshold, Probability
 }
 
 AllowableFactor allowable_factor(const std::vector<SlipFactorCurve>& curves, double threshold, ProbabilityBound bound,
-                                 double z) {
+                                 double z, std::optional<ProbabilityBound> left_apart_by) {
+  const ProbabilityBound apart = left_apart_by.value_or(bound);
   if (curves.empty()) throw InputError("fault segments", "(none)", "at least one segment's curve");
   if (!(threshold > 0.0 && threshold < 1.0))
     throw InputError("threshold", std::to_string(threshold), "a probability in (0, 1)");
   AllowableFactor out;
   out.limit = kInf;
   for (std::size_t s = 0; s < curves.size(); ++s) {
+    if (segment_limit(curves[s], threshold, apart, z) == 0.0) {
+      out.reached_without.push_back(s);
+      continue;
+    }
     const double lim = segment_limit(curves[s], threshold, bound, z);
-    if (lim == 0.0) out.reached_without.push_back(s);
-    else if (lim < out.limit) {
+    if (lim < out.limit) {
       out.limit = lim;
       out.binding = s;
     }

@@ -67,8 +67,11 @@ struct AllowableFactor {
 };
 
 // The allowable factor over the segments; those exceeding the threshold without the group are
-// listed apart and do not bind. InputError if `curves` is empty or the threshold is not in (0, 1).
+// listed apart and do not bind. Which exceed it is judged with `left_apart_by` (default: `bound`
+// itself); the point estimate's answer beside a Wilson-upper answer takes the Wilson-upper set, so
+// both answers are over the same segments and the conservative one is never the larger
+// (docs/decisions.md). InputError if `curves` is empty or the threshold is not in (0, 1).
 AllowableFactor allowable_factor(const std::vector<SlipFactorCurve>& curves, double threshold, ProbabilityBound bound,
-                                 double z);
+                                 double z, std::optional<ProbabilityBound> left_apart_by = std::nullopt);
 
 }  // namespace slipscreen::probabilistic

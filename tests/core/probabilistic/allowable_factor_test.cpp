@@ -122,6 +122,26 @@ TEST_CASE("segment limit and allowable factor equal a brute-force scan of the st
   }
 }
 
+TEST_CASE("the point estimate's answer over the Wilson answer's segments is never below it") {
+  // Same segments left apart for both (those over the threshold at f = 0 by the upper end), and
+  // the upper end is at least the estimate at every f, so the point answer cannot be smaller.
+  std::mt19937_64 rng(29);
+  const double z = stats::kZ95;
+  int compared = 0;
+  for (int trial = 0; trial < 30; ++trial) {
+    std::vector<SlipFactorCurve> curves;
+    for (int s = 0; s < 8; ++s) curves.emplace_back(random_factors(rng, 60), 400);
+    for (double th : {0.02, 0.05, 0.2}) {
+      const auto w = allowable_factor(curves, th, ProbabilityBound::wilson_upper, z);
+      const auto p = allowable_factor(curves, th, ProbabilityBound::point_estimate, z, ProbabilityBound::wilson_upper);
+      CHECK(p.reached_without == w.reached_without);
+      CHECK(w.limit <= p.limit);
+      compared += std::isfinite(w.limit) ? 1 : 0;
+    }
+  }
+  CHECK(compared > 10);  // the case exercises finite answers
+}
+
 TEST_CASE("Wilson bound: with no slip among 100 realizations the upper end is z²/(n + z²)") {
   // Wilson (1927) at r = 0: upper = z²/(n + z²) = 0.036994 for n = 100, z = 1.96 (closed form).
   const SlipFactorCurve none({}, 100);
