@@ -8,6 +8,7 @@
 
 #include "core/caution.hpp"
 #include "core/errors.hpp"
+#include "core/geomech/coulomb.hpp"
 #include "core/geomech/frictional_limit.hpp"
 #include "outputs/report/report_tables.hpp"
 #include "outputs/report/run_table.hpp"
@@ -99,6 +100,83 @@ void inputs_table(const ReportSource& s, std::vector<ReportBlock>& out) {
     t.rows.push_back({text_of(at(in, {"role"})), text_of(at(in, {"path"})), text_of(at(in, {"bytes"})),
                       text_of(at(in, {"sha256"}))});
   out.push_back(std::move(t));
+}
+
+bool leaky_formation(const ReportSource& s) {
+  return text_of(at(s.manifest, {"parameters", "scenario", "region", "formation", "model"})).rfind("leaky", 0) == 0;
+}
+bool poroelastic_path(const ReportSource& s) {
+  const json& on = at(s.manifest, {"parameters", "scenario", "region", "stress", "poroelastic_path"});
+  return on.is_boolean() && on.get<bool>();
+}
+
+// The uncertainty of `key` as the scenario wrote it ("" when fixed or without a probabilistic screen).
+std::string uncertainty_of(const ReportSource& s, const std::string& key) {
+  for (const auto& v : at(s.manifest, {"parameters", "probabilistic", "uncertainty", "inputs"}))
+    if (text_of(at(v, {"key"})) == key) return text_of(at(v, {"written"}));
+  return "";
+}
+
+// Which pore-pressure model and which stress path the run used (the manifest's resolved
+// [formation] and [stress]; docs/pressure.md, docs/physics.md).
+void models_section(const ReportSource& s, std::vector<ReportBlock>& out) {
+  const json& fm = at(s.manifest, {"parameters", "scenario", "region", "formation"});
+  const json& st = at(s.manifest, {"parameters", "scenario", "region", "stress"});
+  if (!fm.is_object() || !st.is_object()) return;
+  out.push_back(heading("Pressure and stress models"));
+  ReportBlock f{.kind = Kind::facts};
+  const bool probabilistic = !at(s.manifest, {"parameters", "probabilistic"}).is_null();
+  std::string model = leaky_formation(s)
+                          ? "Hantush & Jacob (1955) leaky formation: line sources with the leaky well function "
+                            "W(u, r/B) in place of Theis's E1, superposed over wells and rate changes"
+                          : "Theis (1935): line sources in a confined formation, superposed over wells and rate changes";
+  const json& bounds = at(fm, {"boundaries"});
+  if (bounds.is_array() && !bounds.empty())
+    model += "; " + std::to_string(bounds.size()) + (bounds.size() == 1 ? " straight boundary" : " straight boundaries") +
+             " by image wells";
+  f.facts.emplace_back("Pore-pressure model", model);
+  const json& b = at(fm, {"leakage_factor_m"});
+  if (leaky_formation(s) && b.is_number()) {
+    std::string v = depth(s, b.get<double>());
+    const json& bt = at(fm, {"aquitard_thickness_m"});
+    const json& kt = at(fm, {"aquitard_permeability_m2"});
+    if (bt.is_number() && kt.is_number())
+      v += ", B = √(k h b′/k′) from the aquitard's thickness b′ = " + depth(s, bt.get<double>()) +
+           " and permeability k′ = " + text_of(kt) + " m²";
+    else
+      v += ", as given";
+    if (probabilistic) v += "; the leakage rate D/B² is the same in every realization";
+    f.facts.emplace_back("Leakage factor B", v);
+  }
+  if (at(fm, {"diffusivity_m2_per_s"}).is_number())
+    f.facts.emplace_back("Hydraulic diffusivity D", text_of(at(fm, {"diffusivity_m2_per_s"})) + " m²/s");
+  if (!poroelastic_path(s)) {
+    f.facts.emplace_back("Stress path", "pore pressure only: the total stresses stay as they were, and the Coulomb "
+                                        "stress changes by μ Δp");
+  } else {
+    const json& alpha = at(st, {"biot"});
+    const json& nu = at(st, {"poisson_ratio"});
+    std::string v = "poroelastic (Engelder & Fischer 1994): ΔSh = ΔSH = κ Δp, ΔSv = 0, κ = α(1 − 2ν)/(1 − ν)";
+    if (alpha.is_number() && nu.is_number()) {
+      try {
+        const double kappa = geomech::stress_path_coefficient({alpha.get<double>(), nu.get<double>()});
+        v += " = " + fixed(kappa, 3) + " for Biot's α = " + text_of(alpha) + " and Poisson's ratio ν = " + text_of(nu);
+      } catch (const InputError& e) {
+        v += std::string(" (not computed: ") + e.what() + ")";
+      }
+    }
+    f.facts.emplace_back("Stress path", v + "; Δp_crit is found along the path");
+    if (probabilistic) {
+      const std::string ua = uncertainty_of(s, "stress.biot"), un = uncertainty_of(s, "stress.poisson_ratio");
+      f.facts.emplace_back(
+          "Stress path in the probabilistic screen",
+          ua.empty() && un.empty()
+              ? "the same κ in every realization (α and ν fixed)"
+              : "κ from each realization's α (" + (ua.empty() ? "fixed" : ua) + ") and ν (" +
+                    (un.empty() ? "fixed" : un) + ")");
+    }
+  }
+  out.push_back(std::move(f));
 }
 
 void stress_section(const ReportSource& s, std::vector<ReportBlock>& out) {
@@ -261,13 +339,16 @@ void catalog_section(const ReportSource& s, std::vector<ReportBlock>& out) {
   }
 }
 
-void reading_section(std::vector<ReportBlock>& out) {
+void reading_section(const ReportSource& s, std::vector<ReportBlock>& out) {
   out.push_back(heading("How to read this report"));
   ReportBlock l{.kind = Kind::list};
   l.rows = {
-      {"Δp is the modelled pore-pressure increase from injection (Theis 1935 line sources, superposed over wells "
-       "and rate changes). Δp_crit is the increase that would bring a fault segment to Coulomb failure with its "
-       "best-estimate stress and friction (Hubbert & Rubey 1959). The margin is Δp_crit − Δp."},
+      {std::string("Δp is the modelled pore-pressure increase from injection (") +
+       (leaky_formation(s) ? "Hantush & Jacob 1955 leaky-formation line sources" : "Theis 1935 line sources") +
+       ", superposed over wells and rate changes). Δp_crit is the increase that would bring a fault segment to "
+       "Coulomb failure with its best-estimate stress and friction (Hubbert & Rubey 1959)" +
+       (poroelastic_path(s) ? ", the horizontal stresses rising with the pressure along the poroelastic path" : "") +
+       ". The margin is Δp_crit − Δp."},
       {"P(slip by t) is the fraction of the probabilistic screen's realizations in which the segment has reached "
        "Δp_crit by date t through injection; its 95 % interval is the Wilson score interval, which reflects the "
        "number of realizations, not the uncertainty of the model itself."},
@@ -293,10 +374,11 @@ ReportDocument report_document(const ReportSource& s, const std::string& built, 
     b.push_back(heading("Figures"));
     b.push_back({.kind = Kind::figures});
   }
+  models_section(s, b);
   stress_section(s, b);
   catalog_section(s, b);
   inputs_table(s, b);
-  reading_section(b);
+  reading_section(s, b);
   return d;
 }
 

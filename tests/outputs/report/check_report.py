@@ -13,6 +13,9 @@ reference (docs/report.md):
   (Chromium's net log: a request whose initiator is an origin; a control page with an image from
   the network and a console.error must be caught, so the check can fail), and a screenshot of it
   is not blank (pixel standard deviation with Pillow);
+- the models section names the run's pressure model and stress path (pdftotext): Theis and pore
+  pressure only for the demo; Hantush-Jacob with its B and the poroelastic path with its kappa for
+  the physics fixture (tests/data/scenario/physics_paths.toml, the tiny region);
 - the report is byte-identical when rebuilt with `slipscreen report --reproducible`, and equal to
   the one `run --reproducible` wrote; a folder that is not a run is refused and left as it was.
 
@@ -88,6 +91,32 @@ def check_pdf(folder, page, summary):
     if not row or p_text not in row.group(0).split()[:12]:
         fail(f"report.pdf: the top segment {top['segment_id']} is not shown with P(slip) {p_text}")
     return pages
+
+
+def pdf_words(folder):
+    return " ".join(run(["pdftotext", folder / "report.pdf", "-"], folder).stdout.split())
+
+
+def check_models(flat, expected, where):
+    """Each expected phrase appears in the report's "Pressure and stress models" section."""
+    start = flat.find("Pressure and stress models")
+    section = flat[start:flat.find("Stress at the reference depth", start)] if start >= 0 else ""
+    missing = [e for e in expected if e not in section]
+    if missing:
+        fail(f"{where}: the report's models section does not show {missing}:\n{section}")
+
+
+def check_physics_report(slipscreen, source, work):
+    """The tiny region with a leaky formation and the poroelastic path: the report says so."""
+    folder = work / "physics"
+    run([slipscreen, "run", source / "tests/data/scenario/physics_paths.toml", "--out", folder, "--reproducible"], work)
+    # B = sqrt(k h b'/k') = sqrt(100 mD x 100 m x 20 m / 0.001 mD) = sqrt(2e8) m = 14142 m, and
+    # kappa = alpha(1 - 2 nu)/(1 - nu) = 0.8 x 0.5 / 0.75 = 0.533 (Engelder & Fischer 1994): arithmetic,
+    # the fixture's values.
+    check_models(pdf_words(folder), ["Hantush & Jacob (1955) leaky formation", "14142 m, B = √(k h b′/k′)", "poroelastic (Engelder & Fischer 1994)",
+                                     "= 0.533 for Biot's α = 0.8 and Poisson's ratio ν = 0.25"], "physics fixture")
+    if "Theis (1935)" in pdf_words(folder):
+        fail("physics fixture: the report of a leaky run names the Theis model")
 
 
 def check_svgs(folder, segments):
@@ -213,6 +242,9 @@ def main():
     segments = pd.read_csv(folder / "segments.csv")
     summary = pd.read_csv(folder / "segment_probability_summary.csv")
     pages = check_pdf(folder, "A4", summary)
+    check_models(pdf_words(folder), ["Theis (1935)", "pore pressure only: the total stresses stay as they were",
+                                     "Hydraulic diffusivity D"], "demo")
+    check_physics_report(slipscreen, source, work)
     svgs = check_svgs(folder, segments)
     histories, matched = check_figure_data(folder)
     spread = check_html(folder, work)
