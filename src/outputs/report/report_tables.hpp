@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "outputs/report/figure.hpp"
+#include "outputs/report/figure_support.hpp"
 
 namespace slipscreen::outputs::report {
 
@@ -15,6 +16,10 @@ std::string segment_times_file(const ReportSource& s);  // segment_times.csv
 std::string pressure_raster_file(const ReportSource& s);  // pressure_change.tif ("" when no rasters)
 std::string geopackage_file(const ReportSource& s);       // screen.gpkg ("" when none)
 std::string pressure_history_file(const ReportSource& s);  // segment_pressure_history.csv (beside segment_times)
+
+// The unit the run writes pressures in (the manifest's [output] units): psi for an oilfield run,
+// else MPa. For figures drawn from the Δp raster, which holds MPa in either system.
+DisplayUnit pressure_unit(const ReportSource& s);
 
 // Whether the run has a probabilistic screen (segment_probability*.csv).
 bool has_probabilistic(const ReportSource& s);
