@@ -117,6 +117,15 @@ def check_physics_report(slipscreen, source, work):
                                      "= 0.533 for Biot's α = 0.8 and Poisson's ratio ν = 0.25"], "physics fixture")
     if "Theis (1935)" in pdf_words(folder):
         fail("physics fixture: the report of a leaky run names the Theis model")
+    # The same with a probabilistic screen and an uncertain Biot coefficient: kappa per realization.
+    fixture = source / "tests/data/scenario/physics_paths.toml"
+    text = fixture.read_text().replace('file = "tiny/', f'file = "{(fixture.parent / "tiny").as_posix()}/')
+    text += '\n[uncertainty]\nrealizations = 50\nthresholds = [0.05]\n\n[uncertainty.stress]\nbiot = "uniform(0.6, 0.9)"\n'
+    (work / "physics_uncertain.toml").write_text(text)
+    folder = work / "physics-uncertain"
+    run([slipscreen, "run", work / "physics_uncertain.toml", "--out", folder, "--reproducible"], work)
+    check_models(pdf_words(folder), ["κ from each realization's α (uniform(0.6, 0.9)) and ν (fixed)",
+                                     "the leakage rate D/B² is the same in every realization"], "uncertain physics")
 
 
 def check_svgs(folder, segments):
