@@ -21,6 +21,7 @@
 #include <string>
 #include <vector>
 
+#include "core/probabilistic/allowable_factor.hpp"
 #include "core/probabilistic/screen_inputs.hpp"
 #include "core/stats/quantile_sketch.hpp"
 #include "core/stats/sampler.hpp"
@@ -98,6 +99,12 @@ struct ProbabilisticResult {
   double surrogate_error = 0.0;           // estimated relative interpolation error in D
   stats::SamplerDescriptor sampler;
   std::vector<AuditEntry> audit;          // valid audited pairs, in (realization, segment) order
+  // Per segment, P(slip by T | f) of RunSettings::capacity's group (group_factors.hpp); empty
+  // unless asked for.
+  std::vector<SlipFactorCurve> capacity;
+  // Per RunSettings::what_if variant, per segment, per output time: injection-induced slips by
+  // then with the variant's rates (group_factors.hpp), on the same realizations.
+  std::vector<std::vector<std::vector<std::uint64_t>>> what_if;
 };
 
 // The plain method for one audited pair: every E1 term of every well, image and rate step is
