@@ -40,6 +40,16 @@ std::string pressure_history_file(const ReportSource& s) {
   return (std::filesystem::path(segment_times_file(s)).parent_path() / "segment_pressure_history.csv").generic_string();
 }
 
+std::string capacity_curve_file(const ReportSource& s) { return output_file(s, "capacity_curve", "capacity_curve.csv"); }
+std::string what_if_file(const ReportSource& s) { return output_file(s, "what_if", "what_if.csv"); }
+
+const nlohmann::json* capacity_block(const ReportSource& s) {
+  const auto p = s.manifest.find("parameters");
+  if (p == s.manifest.end() || !p->is_object()) return nullptr;
+  const auto c = p->find("capacity");
+  return c != p->end() && c->is_object() ? &*c : nullptr;
+}
+
 DisplayUnit pressure_unit(const ReportSource& s) {
   const auto& out = s.manifest.value("parameters", nlohmann::json::object())
                         .value("scenario", nlohmann::json::object())

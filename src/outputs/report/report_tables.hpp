@@ -21,6 +21,11 @@ std::string pressure_history_file(const ReportSource& s);  // segment_pressure_h
 // else MPa. For figures drawn from the Δp raster, which holds MPa in either system.
 DisplayUnit pressure_unit(const ReportSource& s);
 
+// The allowable-rate and what-if tables (docs/outputs.md): capacity_curve.csv, what_if.csv.
+std::string capacity_curve_file(const ReportSource& s);
+std::string what_if_file(const ReportSource& s);
+// The manifest's `capacity` block (parameters.capacity), or null when the run has no [capacity].
+const nlohmann::json* capacity_block(const ReportSource& s);
 // Whether the run has a probabilistic screen (segment_probability*.csv).
 bool has_probabilistic(const ReportSource& s);
 // The scenario's P(slip) thresholds (empty without a probabilistic screen).

@@ -16,6 +16,9 @@ reference (docs/report.md):
 - the models section names the run's pressure model and stress path (pdftotext): Theis and pore
   pressure only for the demo; Hantush-Jacob with its B and the poroelastic path with its kappa for
   the physics fixture (tests/data/scenario/physics_paths.toml, the tiny region);
+- the sections "Allowable rate" and "What-if rate changes" show each threshold's allowed factor
+  and binding segment as the manifest's capacity block holds them and each what-if variant
+  (pdftotext), and figures/capacity_curve.csv equals capacity_curve.csv;
 - the report is byte-identical when rebuilt with `slipscreen report --reproducible`, and equal to
   the one `run --reproducible` wrote; a folder that is not a run is refused and left as it was.
 
@@ -186,6 +189,46 @@ def check_figure_data(folder):
     return shown, len(both)
 
 
+def check_decisions(folder, flat):
+    """The allowable-rate and what-if sections: their titles in pdftotext, the binding segment of
+    each threshold with the manifest's allowed factor (3 significant digits, as the report rounds
+    it), and figures/capacity_curve.csv equal to capacity_curve.csv, column for column."""
+    cap = manifest_block(folder, "capacity")
+    for title in ("Allowable rate", "What-if rate changes"):
+        if title not in flat:
+            fail(f"report.pdf: no section '{title}' in a run with [capacity] and [[what_if]]")
+    section = flat[flat.find("Allowable rate"):flat.find("What-if rate changes")]
+    checked = 0
+    for th in cap["thresholds"]:
+        w = th["wilson_upper"]
+        if not w["exceeded_up_to_f_max"]:
+            continue
+        # The row: "P(slip) ≤ <threshold>", the allowed factor, the binding segment (the table's order).
+        start = section.find(f"P(slip) ≤ {th['threshold']:.6g} ")
+        cells = section[start:].split()[3:5] if start >= 0 else []
+        if cells != [f"{w['f_allowed']:.3g}", w["binding_segment"]]:
+            fail(f"report.pdf: the answer for P <= {th['threshold']} reads {cells}, the manifest holds "
+                 f"f_allowed {w['f_allowed']} bound by {w['binding_segment']}")
+        checked += 1
+    if checked == 0:
+        fail("the demo's capacity block has no threshold answer to check")
+    text = lambda name: pd.read_csv(folder / name, dtype=str, keep_default_na=False)
+    if not text("figures/capacity_curve.csv").equals(text("capacity_curve.csv")):
+        fail("figures/capacity_curve.csv differs from capacity_curve.csv")
+    variants = manifest_block(folder, "what_if")["variants"]
+    for v in variants:
+        if v["name"] not in flat[flat.find("What-if rate changes"):]:
+            fail(f"report.pdf: the what-if variant {v['name']} is not shown")
+    return checked, len(variants)
+
+
+def manifest_block(folder, key):
+    block = json.loads((folder / "manifest.json").read_text())["parameters"].get(key)
+    if not isinstance(block, dict):
+        fail(f"manifest.json: no parameters.{key} block (the demo has [capacity] and [[what_if]])")
+    return block
+
+
 CHROMIUM = ["chromium", "--headless", "--no-sandbox", "--disable-gpu", "--no-first-run",
             "--disable-background-networking", "--enable-logging=stderr", "--v=0"]
 
@@ -253,6 +296,7 @@ def main():
     pages = check_pdf(folder, "A4", summary)
     check_models(pdf_words(folder), ["Theis (1935)", "pore pressure only: the total stresses stay as they were",
                                      "Hydraulic diffusivity D"], "demo")
+    answers, variants = check_decisions(folder, pdf_words(folder))
     check_physics_report(slipscreen, source, work)
     svgs = check_svgs(folder, segments)
     histories, matched = check_figure_data(folder)
@@ -282,7 +326,8 @@ def main():
         fail(f"`slipscreen report` on a folder that is not a run: {done.stderr}")
     print(f"report: {pages} PDF pages (A4, then Letter), {svgs} SVG figures, {histories} pressure histories, "
           f"{matched} monthly values equal to well_shares.csv, screenshot grey-level sd {spread:.1f}, "
-          f"rebuilt byte-identical ({len(report)} files)")
+          f"rebuilt byte-identical ({len(report)} files), {answers} allowable-rate answers and {variants} "
+          f"what-if variants shown")
     shutil.rmtree(work, ignore_errors=True)
 
 
