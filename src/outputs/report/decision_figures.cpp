@@ -2,21 +2,12 @@
 
 #include <algorithm>
 #include <cmath>
-#include <cstdio>
 
+#include "core/util/number_text.hpp"
 #include "outputs/report/report_tables.hpp"
 #include "outputs/report/run_table.hpp"
 
 namespace slipscreen::outputs::report {
-namespace {
-
-std::string short_number(double v) {
-  char buf[32];
-  std::snprintf(buf, sizeof buf, "%.3g", v);
-  return buf;
-}
-
-}  // namespace
 
 std::vector<Figure> capacity_curve_figures(const ReportSource& s) {
   const nlohmann::json* cap = capacity_block(s);
@@ -88,7 +79,7 @@ std::vector<Figure> capacity_curve_figures(const ReportSource& s) {
               nice_axis(0, ymax, "P(slip by T | f)"));
     plot.axes();
     for (double v : levels)
-      plot.hline(v, {.colour = formats::kInk, .width = 0.8, .dash = {4, 3}}, "P = " + short_number(v));
+      plot.hline(v, {.colour = formats::kInk, .width = 0.8, .dash = {4, 3}}, "P = " + util::number_text(v, 3));
     plot.vline(1.0, {.colour = formats::kInk, .width = 0.8, .dash = {1, 2}}, "plan");
     for (std::size_t i = 0; i < ids.size(); ++i) plot.line(f, p[i], {.colour = category_colour(i), .width = 1.1});
     plot.line(f, pmax, {.colour = formats::kInk, .width = 2.0});

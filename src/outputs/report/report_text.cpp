@@ -10,6 +10,7 @@
 #include "core/errors.hpp"
 #include "core/geomech/coulomb.hpp"
 #include "core/geomech/frictional_limit.hpp"
+#include "core/util/number_text.hpp"
 #include "outputs/report/report_tables.hpp"
 #include "outputs/report/run_table.hpp"
 
@@ -289,10 +290,7 @@ void segments_section(const ReportSource& s, std::vector<ReportBlock>& out) {
 }
 
 std::string factor_text(const json& j) {
-  if (!j.is_number()) return "-";
-  char buf[32];
-  std::snprintf(buf, sizeof buf, "%.3g", j.get<double>());
-  return buf;
+  return j.is_number() ? util::number_text(j.get<double>(), 3) : "-";
 }
 
 // How many names a list holds, and the first three.
