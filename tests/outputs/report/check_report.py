@@ -120,6 +120,10 @@ def check_physics_report(slipscreen, source, work):
                                      "= 0.533 for Biot's α = 0.8 and Poisson's ratio ν = 0.25"], "physics fixture")
     if "Theis (1935)" in pdf_words(folder):
         fail("physics fixture: the report of a leaky run names the Theis model")
+    # No [capacity], no [[what_if]]: neither section nor the figure.
+    if "Allowable rate" in pdf_words(folder) or "What-if rate changes" in pdf_words(folder) or \
+            (folder / "figures" / "capacity_curve.csv").exists():
+        fail("physics fixture: a run without [capacity] and [[what_if]] has their sections or figure")
     # The same with a probabilistic screen and an uncertain Biot coefficient: kappa per realization.
     fixture = source / "tests/data/scenario/physics_paths.toml"
     text = fixture.read_text().replace('file = "tiny/', f'file = "{(fixture.parent / "tiny").as_posix()}/')
