@@ -51,11 +51,15 @@ std::optional<std::size_t> first_invalid_utf8(std::string_view text) {
 std::optional<std::string> text_problem(std::string_view text) {
   for (std::size_t i = 0; i < text.size();) {
     const auto c = static_cast<unsigned char>(text[i]);
-    const std::string at = " at position " + std::to_string(i + 1);
-    if (c == 0) return "a NUL byte (0x00)" + at;
-    if (is_control(c)) return "a control character (" + hex_byte(c) + ")" + at;
+    if (c >= 0x20 && c < 0x7f) {  // printable ASCII: the common case, no text built
+      ++i;
+      continue;
+    }
+    const auto at = [&] { return " at position " + std::to_string(i + 1); };
+    if (c == 0) return "a NUL byte (0x00)" + at();
+    if (is_control(c)) return "a control character (" + hex_byte(c) + ")" + at();
     const std::size_t n = sequence_length(text, i);
-    if (n == 0) return "byte " + hex_byte(c) + at + " is not UTF-8";
+    if (n == 0) return "byte " + hex_byte(c) + at() + " is not UTF-8";
     i += n;
   }
   return std::nullopt;

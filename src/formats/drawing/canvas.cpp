@@ -9,20 +9,33 @@
 #include <cmath>
 #include <csetjmp>
 #include <cstdint>
+#include <map>
 #include <numbers>
+#include <tuple>
 
 #include "core/errors.hpp"
 #include "formats/files/text_file.hpp"
 
 namespace slipscreen::formats {
 
+// What a text's layout depends on (its colour, vertical anchor and angle only place it).
+using LayoutKey = std::tuple<std::string, double, bool, bool, int, double>;
+
 struct Canvas::Impl {
   cairo_surface_t* surface = nullptr;  // the output surface (SVG, PDF) or the PNG's image
   cairo_t* cr = nullptr;
   std::string bytes;
   bool finished = false;
+  // One Pango context per canvas, on the drawing thread's default font map (pango_cairo keeps one
+  // per thread), and the layouts made on it: a text measured and then drawn, or drawn again, is
+  // laid out once. Pango lays a layout out again by itself when the context changes (another
+  // transformation), so a kept layout is never stale.
+  PangoContext* context = nullptr;
+  std::map<LayoutKey, PangoLayout*> layouts;
 
   ~Impl() {
+    for (auto& [key, layout] : layouts) g_object_unref(layout);
+    if (context) g_object_unref(context);
     if (cr) cairo_destroy(cr);
     if (surface) cairo_surface_destroy(surface);
   }
@@ -40,6 +53,8 @@ struct Canvas::Impl {
   void alive() const {
     if (finished) throw std::logic_error("Canvas: drawing after finish()");
   }
+  // The layout of `markup` in `style` (owned by the canvas).
+  PangoLayout* layout(std::string_view markup, const TextStyle& style);
 };
 
 namespace {
@@ -92,9 +107,26 @@ std::string explicit_scripts(std::string_view markup, double size_pt) {
   return out;
 }
 
-// A Pango layout for `markup`; the caller unrefs it.
-PangoLayout* make_layout(cairo_t* cr, std::string_view markup, const TextStyle& st) {
-  PangoLayout* layout = pango_cairo_create_layout(cr);
+// The canvas's Pango context, made on first use: metrics independent of the surface's hinting,
+// so SVG, PNG and PDF lay text out alike, and 72 dpi, so that a point of font size is one unit
+// of the canvas (relative markup, <sub>, <small>, then scales from the given size).
+PangoContext* canvas_context(cairo_t* cr, PangoContext*& context) {
+  if (!context) {
+    context = pango_cairo_create_context(cr);
+    cairo_font_options_t* options = cairo_font_options_create();
+    cairo_font_options_set_hint_metrics(options, CAIRO_HINT_METRICS_OFF);
+    cairo_font_options_set_hint_style(options, CAIRO_HINT_STYLE_NONE);
+    pango_cairo_context_set_font_options(context, options);
+    cairo_font_options_destroy(options);
+    pango_cairo_context_set_resolution(context, 72.0);
+  }
+  pango_cairo_update_context(cr, context);  // the current transformation and surface
+  return context;
+}
+
+// A new Pango layout for `markup` on `context`; the caller unrefs it.
+PangoLayout* make_layout(PangoContext* context, std::string_view markup, const TextStyle& st) {
+  PangoLayout* layout = pango_layout_new(context);
   PangoFontDescription* font = pango_font_description_new();
   pango_font_description_set_family(font, "DejaVu Sans");
   pango_font_description_set_size(font, static_cast<int>(st.size * PANGO_SCALE));
@@ -102,17 +134,6 @@ PangoLayout* make_layout(cairo_t* cr, std::string_view markup, const TextStyle& 
   pango_font_description_set_style(font, st.italic ? PANGO_STYLE_ITALIC : PANGO_STYLE_NORMAL);
   pango_layout_set_font_description(layout, font);
   pango_font_description_free(font);
-  // Metrics independent of the surface's hinting, so SVG, PNG and PDF lay text out alike.
-  PangoContext* context = pango_layout_get_context(layout);
-  cairo_font_options_t* options = cairo_font_options_create();
-  cairo_font_options_set_hint_metrics(options, CAIRO_HINT_METRICS_OFF);
-  cairo_font_options_set_hint_style(options, CAIRO_HINT_STYLE_NONE);
-  pango_cairo_context_set_font_options(context, options);
-  // 72 dpi: a point of font size is one unit of the canvas; relative markup (<sub>, <small>)
-  // then scales from the given size.
-  pango_cairo_context_set_resolution(context, 72.0);
-  cairo_font_options_destroy(options);
-  pango_layout_context_changed(layout);
   if (st.wrap_width > 0) {
     pango_layout_set_width(layout, static_cast<int>(st.wrap_width * PANGO_SCALE));
     pango_layout_set_wrap(layout, PANGO_WRAP_WORD_CHAR);
@@ -134,6 +155,19 @@ PangoLayout* make_layout(cairo_t* cr, std::string_view markup, const TextStyle& 
 }
 
 }  // namespace
+
+PangoLayout* Canvas::Impl::layout(std::string_view markup, const TextStyle& st) {
+  PangoContext* ctx = canvas_context(cr, context);
+  LayoutKey key{std::string(markup), st.size, st.bold, st.italic, static_cast<int>(st.h), st.wrap_width};
+  if (const auto it = layouts.find(key); it != layouts.end()) return it->second;
+  if (layouts.size() >= 256) {  // a bound on what a canvas keeps; texts rarely repeat past this
+    for (auto& [k, l] : layouts) g_object_unref(l);
+    layouts.clear();
+  }
+  PangoLayout* made = make_layout(ctx, markup, st);
+  layouts.emplace(std::move(key), made);
+  return made;
+}
 
 std::string markup_escape(std::string_view text) {
   std::string out;
@@ -240,17 +274,16 @@ void Canvas::circle(Point centre, double radius, std::optional<Colour> fill, std
 
 Box Canvas::measure(std::string_view markup, const TextStyle& style) {
   impl_->alive();
-  PangoLayout* layout = make_layout(impl_->cr, markup, style);
+  PangoLayout* layout = impl_->layout(markup, style);
   PangoRectangle logical;
   pango_layout_get_extents(layout, nullptr, &logical);
-  g_object_unref(layout);
   return {0, 0, static_cast<double>(logical.width) / PANGO_SCALE, static_cast<double>(logical.height) / PANGO_SCALE};
 }
 
 Box Canvas::text(Point at, std::string_view markup, const TextStyle& style) {
   impl_->alive();
   cairo_t* cr = impl_->cr;
-  PangoLayout* layout = make_layout(cr, markup, style);
+  PangoLayout* layout = impl_->layout(markup, style);
   PangoRectangle logical;
   pango_layout_get_extents(layout, nullptr, &logical);
   const double w = static_cast<double>(logical.width) / PANGO_SCALE;
@@ -272,7 +305,6 @@ Box Canvas::text(Point at, std::string_view markup, const TextStyle& style) {
   set_colour(cr, style.colour);
   pango_cairo_show_layout(cr, layout);
   cairo_restore(cr);
-  g_object_unref(layout);
   impl_->check("drawing text");
   return {at.x + dx, at.y + dy, box_w, h};
 }
@@ -367,7 +399,8 @@ void png_flush(png_structp) {}
 
 // Writes Cairo's ARGB32 image (premultiplied, native-endian words) as an 8-bit PNG: RGB when
 // every pixel is opaque (a figure on paper white), else RGBA with straight alpha. libpng at
-// compression level 1 with the Sub filter: the pixels are those Cairo's own writer stores, at a
+// compression level 1, unfiltered (on the demo's figures smaller and faster than the Sub filter:
+// flat colour repeats as it is): the pixels are those Cairo's own writer stores, at a
 // fraction of its time (the report's PNGs are many and mostly flat colour; docs/report.md, "Speed").
 // Only plain data lives in this frame, so that libpng's longjmp on an error skips no destructor.
 bool encode_png(png_structp png, png_infop info, const unsigned char* data, int w, int h, int stride, bool opaque,
@@ -377,7 +410,7 @@ bool encode_png(png_structp png, png_infop info, const unsigned char* data, int 
                opaque ? PNG_COLOR_TYPE_RGB : PNG_COLOR_TYPE_RGB_ALPHA, PNG_INTERLACE_NONE, PNG_COMPRESSION_TYPE_DEFAULT,
                PNG_FILTER_TYPE_DEFAULT);
   png_set_compression_level(png, 1);
-  png_set_filter(png, PNG_FILTER_TYPE_BASE, PNG_FILTER_SUB);
+  png_set_filter(png, PNG_FILTER_TYPE_BASE, PNG_FILTER_NONE);
   png_write_info(png, info);
   for (int y = 0; y < h; ++y) {
     const auto* px = reinterpret_cast<const std::uint32_t*>(data + static_cast<std::size_t>(y) * stride);

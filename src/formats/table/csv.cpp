@@ -194,7 +194,8 @@ CsvTable parse_csv(std::string_view text, const std::string& file) {
         throw csv_error(file, row.line, "row", std::to_string(row.fields.size()) + " fields",
                         std::to_string(table.header.size()) + " fields, as in the header");
       for (std::size_t col = 0; col < row.fields.size(); ++col)
-        check_text(row.fields[col], table.where(row, col), split_header_unit(table.header[col]).name);
+        if (util::text_problem(row.fields[col]))  // the location is spelt out only for a bad cell
+          check_text(row.fields[col], table.where(row, col), split_header_unit(table.header[col]).name);
       table.rows.push_back(std::move(row));
     }
   }

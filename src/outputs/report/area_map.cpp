@@ -54,11 +54,6 @@ struct MapData {
   double x0 = 0, y0 = 0, x1 = 1, y1 = 1;  // extent, working CRS
 };
 
-// A feature's attribute as text ("" when the layer has no such field).
-std::string field(const formats::LayerFeature& f, const std::string& name) {
-  const auto it = f.fields.find(name);
-  return it == f.fields.end() ? std::string() : it->second;
-}
 
 std::string nice_length(double metres) {
   char buf[32];
@@ -153,7 +148,8 @@ void draw_map(formats::Canvas& c, const MapData& m, const std::string& title) {
     const Point p = at(w.x, w.y);
     if (w.proposed) {
       well_triangle(c, p, 6, status_colour(w.status), Stroke{.colour = formats::kInk, .width = 0.8});
-      c.text({p.x + 7, p.y - 4}, formats::markup_escape(w.id), {.size = 7, .bold = true, .v = VAlign::bottom});
+      // On a label box: readable over the dark centre of the Δp raster as over its light edge.
+      label_box(c, {p.x + 7, p.y - 4}, formats::markup_escape(w.id), {.size = 7, .bold = true, .v = VAlign::bottom});
     } else {
       c.circle(p, 3, status_colour(w.status), Stroke{.colour = formats::kInk, .width = 0.6});
     }
@@ -235,7 +231,7 @@ std::vector<Figure> area_map_figures(const ReportSource& s) {
   for (const auto& f : s.layer(gpkg, "fault_segments")) {
     if (f.parts.empty()) continue;
     MapSegment g;
-    g.id = field(f, "segment_id");
+    g.id = feature_field(f, "segment_id");
     g.line = f.parts.front();
     for (std::size_t i = 1; i < f.parts.size(); ++i) g.line.insert(g.line.end(), f.parts[i].begin(), f.parts[i].end());
     base.segments.push_back(std::move(g));
@@ -243,14 +239,13 @@ std::vector<Figure> area_map_figures(const ReportSource& s) {
   if (s.has_layer(gpkg, "wells"))
     for (const auto& f : s.layer(gpkg, "wells")) {
       if (f.parts.empty() || f.parts[0].empty()) continue;
-      const std::string proposed = field(f, "proposed");
-      base.wells.push_back({field(f, "well_id"), field(f, "status"), proposed == "1" || proposed == "yes" || proposed == "true",
+      base.wells.push_back({feature_field(f, "well_id"), feature_field(f, "status"), proposed_well(f),
                             f.parts[0][0].first, f.parts[0][0].second});
     }
   if (s.has_layer(gpkg, "earthquakes"))
     for (const auto& f : s.layer(gpkg, "earthquakes")) {
       if (f.parts.empty() || f.parts[0].empty()) continue;
-      base.events.push_back({f.parts[0][0].first, f.parts[0][0].second, std::atof(field(f, "magnitude").c_str())});
+      base.events.push_back({f.parts[0][0].first, f.parts[0][0].second, std::atof(feature_field(f, "magnitude").c_str())});
     }
   const auto threshold = s.manifest.value("parameters", nlohmann::json::object())
                              .value("catalog", nlohmann::json::object())

@@ -12,6 +12,7 @@
 #include "formats/gis/run_layers.hpp"
 #include "outputs/report/figure_support.hpp"
 #include "outputs/report/plot.hpp"
+#include "outputs/report/report_tables.hpp"
 #include "outputs/report/run_table.hpp"
 
 namespace slipscreen::outputs::report {
@@ -296,8 +297,13 @@ Figure rt_figure(const RunTable& ev, const RunTable& fr, const json& summary) {
   return f;
 }
 
+// The Δp raster and the threshold are in MPa (pressure_change.tif, catalog_summary.json), and so
+// is the figure's data (the raster's values as they are); the colour bar and the subtitle are in
+// the run's pressure unit `pu`.
 Figure event_map(const std::vector<Event>& events, const formats::RasterBandData& dp, double threshold,
-                 const std::vector<formats::LayerFeature>& faults, const std::vector<formats::LayerFeature>& wells) {
+                 const std::vector<formats::LayerFeature>& faults, const std::vector<formats::LayerFeature>& wells,
+                 const DisplayUnit& pu) {
+  const double per_mpa = 1e6 / pu.factor;  // the run's pressure unit per MPa
   double dp_max = threshold;
   for (double v : dp.values)
     if (std::isfinite(v)) dp_max = std::max(dp_max, v);
@@ -311,12 +317,15 @@ Figure event_map(const std::vector<Event>& events, const formats::RasterBandData
   Figure f;
   f.name = "catalog_event_map";
   f.title = "Reviewed events over the modelled pressure change at " + dp.description;
-  f.reading = "Colours: modelled dp at " + dp.description + " (pressure_change.tif, MPa); the black outline encloses "
+  f.reading = "Colours: modelled dp at " + dp.description +
+              (pu.suffix == "MPa" ? std::string(" (pressure_change.tif, MPa)")
+                                  : " in " + pu.suffix + " (pressure_change.tif holds MPa)") +
+              "; the black outline encloses "
               "the cells at or above the review's footprint threshold. Dots are the reviewed events, blue when inside "
               "the footprint at their own origin time. Grey lines are the fault segments, triangles the wells.";
   f.width = kFigureWidth;
   f.height = 400;
-  f.data.header = {"what", "id", "x_m", "y_m", "magnitude", "in_footprint", "dp_MPa"};
+  f.data.header = {"what", "id", "x_m", "y_m", "magnitude", "in_footprint", "dp_MPa"};  // the raster's own values
   // Cell centres x0 + (col + ½)·dx, y0 + (row + ½)·dy (the GeoTIFF's geotransform, north-up).
   for (int r = 0; r < dp.height; ++r)
     for (int col = 0; col < dp.width; ++col) {
@@ -327,8 +336,8 @@ Figure event_map(const std::vector<Event>& events, const formats::RasterBandData
   for (const auto& e : events)
     f.data.rows.push_back({"event", e.id, data_number(e.x), data_number(e.y), data_number(e.magnitude),
                            e.inside ? "yes" : "no", ""});
-  const std::string sub = "Footprint: Δp ≥ " + data_number(threshold) + " MPa; " + std::to_string(events.size()) +
-                          " events";
+  const std::string sub = "Footprint: Δp ≥ " + util::number_text(threshold * per_mpa, 3) + " " +
+                          formats::markup_escape(pu.suffix) + "; " + std::to_string(events.size()) + " events";
   f.draw = [=](Canvas& c) {
     FigurePage page(c, "Events over the pressure footprint, " + formats::markup_escape(dp.description), sub);
     page.legend_right({{"event inside footprint", kInside, LegendEntry::Mark::dot},
@@ -336,7 +345,7 @@ Figure event_map(const std::vector<Event>& events, const formats::RasterBandData
                        {"footprint outline", formats::kInk},
                        {"fault segment", formats::rgb(0x3a3f45)},
                        {"well", formats::kInk, LegendEntry::Mark::triangle}});
-    page.colour_bar_right(Ramp::pressure, {0, dp_max, "Δp [MPa]"});
+    page.colour_bar_right(Ramp::pressure, {0, dp_max * per_mpa, "Δp [" + formats::markup_escape(pu.suffix) + "]"});
     // Equal scales in x and y (a map), in km.
     const double x0 = dp.x0 / 1000, x1 = (dp.x0 + dp.width * dp.dx) / 1000;
     const double y1 = dp.y0 / 1000, y0 = (dp.y0 + dp.height * dp.dy) / 1000;
@@ -379,18 +388,26 @@ Figure event_map(const std::vector<Event>& events, const formats::RasterBandData
       }
     c.lines(lines, {.colour = formats::rgb(0x3a3f45), .width = 1.3});
     c.unclip();
-    for (const auto& w : wells)
-      for (const auto& part : w.parts)
-        for (const auto& [px, py] : part) {
-          const formats::Point q = plot.to_page(px / 1000, py / 1000);
-          well_triangle(c, q, 4.2, formats::kInk, Stroke{.colour = formats::kPaper, .width = 0.5});
-        }
     c.clip(plot.frame());
     for (const auto& e : events)
       if (std::isfinite(e.x) && std::isfinite(e.y))
         c.circle(plot.to_page(e.x / 1000, e.y / 1000), 2.2, e.inside ? kInside : kOutside,
                  Stroke{.colour = formats::kPaper, .width = 0.4});
     c.unclip();
+    // The wells over the events, and the proposed ones named on a label box as on the area map:
+    // readable over the dark Δp centre.
+    for (const auto& w : wells)
+      for (const auto& part : w.parts)
+        for (const auto& [px, py] : part) {
+          const formats::Point q = plot.to_page(px / 1000, py / 1000);
+          well_triangle(c, q, 4.2, formats::kInk, Stroke{.colour = formats::kPaper, .width = 0.5});
+        }
+    for (const auto& w : wells)
+      if (proposed_well(w) && !w.parts.empty() && !w.parts[0].empty()) {
+        const formats::Point q = plot.to_page(w.parts[0][0].first / 1000, w.parts[0][0].second / 1000);
+        label_box(c, {q.x + 6, q.y - 3}, formats::markup_escape(feature_field(w, "well_id")),
+                  {.size = 7, .bold = true, .v = formats::VAlign::bottom});
+      }
     page.footer();
   };
   return f;
@@ -420,7 +437,7 @@ std::vector<Figure> catalog_figures(const ReportSource& src) {
       wells = src.layer("screen.gpkg", "wells");
     }
     const auto& band = src.last_band("pressure_change.tif");
-    if (std::isfinite(threshold)) out.push_back(event_map(events, band, threshold, faults, wells));
+    if (std::isfinite(threshold)) out.push_back(event_map(events, band, threshold, faults, wells, pressure_unit(src)));
   }
   return out;
 }

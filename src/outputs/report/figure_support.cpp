@@ -37,4 +37,14 @@ double table_days(const RunTable& table, std::size_t row, std::string_view colum
 
 std::string data_number(double v) { return std::isfinite(v) ? util::number_text(v, 10) : std::string(); }
 
+std::string feature_field(const formats::LayerFeature& f, const std::string& name) {
+  const auto it = f.fields.find(name);
+  return it == f.fields.end() ? std::string() : it->second;
+}
+
+bool proposed_well(const formats::LayerFeature& f) {
+  const std::string p = feature_field(f, "proposed");
+  return p == "1" || p == "yes" || p == "true";
+}
+
 }  // namespace slipscreen::outputs::report

@@ -6,6 +6,7 @@
 #include <string>
 #include <string_view>
 
+#include "formats/gis/run_layers.hpp"
 #include "outputs/report/run_table.hpp"
 
 namespace slipscreen::outputs::report {
@@ -28,6 +29,11 @@ double si_or_infinite(const RunTable& table, std::size_t row, std::string_view b
 // A time column (ISO 8601, UTC) as days since 1970-01-01, the date axes' unit; an empty cell is
 // NaN. InputError naming the file and line otherwise.
 double table_days(const RunTable& table, std::size_t row, std::string_view column);
+
+// A GeoPackage feature's attribute as text ("" when the layer has no such field).
+std::string feature_field(const formats::LayerFeature& f, const std::string& name);
+// Whether a feature of the run's `wells` layer is a proposed well (its `proposed` field).
+bool proposed_well(const formats::LayerFeature& f);
 
 // A number as a figure's data CSV writes it: shortest text that reads back to the same double
 // for the values the run tables hold (10 significant digits); NaN and ±∞ as an empty cell.

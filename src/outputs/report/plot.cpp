@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <stdexcept>
 
 #include "core/caution.hpp"
 #include "core/util/civil_date.hpp"
@@ -53,6 +54,19 @@ std::string number_label(double v, double step) {
 
 void well_triangle(Canvas& c, Point p, double r, const formats::Colour& fill, const Stroke& outline) {
   c.polygon({{p.x, p.y - r}, {p.x + r * 0.866, p.y + r * 0.5}, {p.x - r * 0.866, p.y + r * 0.5}}, fill, outline);
+}
+
+Box label_box(Canvas& c, Point at, const std::string& markup, const formats::TextStyle& style, double pad) {
+  if (style.v == formats::VAlign::baseline || style.angle_deg != 0)
+    throw std::logic_error("label_box: a top, middle or bottom anchor and no angle");
+  const Box m = c.measure(markup, style);
+  const double w = style.wrap_width > 0 ? style.wrap_width : m.w;
+  const double x = style.h == formats::HAlign::left ? at.x : style.h == formats::HAlign::centre ? at.x - w / 2 : at.x - w;
+  const double y = style.v == formats::VAlign::top ? at.y : style.v == formats::VAlign::middle ? at.y - m.h / 2 : at.y - m.h;
+  const Box box{x - pad, y - pad, w + 2 * pad, m.h + 2 * pad};
+  c.rectangle(box, formats::kPaper.with_alpha(0.85), std::nullopt);
+  c.text(at, markup, style);
+  return box;
 }
 
 std::vector<Tick> linear_ticks(double lo, double hi, int target) {

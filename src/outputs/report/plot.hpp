@@ -62,6 +62,13 @@ struct LegendEntry {
 void well_triangle(formats::Canvas& c, formats::Point p, double r, const formats::Colour& fill,
                    const formats::Stroke& outline);
 
+// A map label that stays readable over any colour beneath it (the dark centre of a Δp raster):
+// the text on a box of paper white at 85 % opacity, `pad` points wider on every side. The
+// anchor and the style are Canvas::text's; a baseline anchor or an angle is not supported
+// (std::logic_error). Returns the box drawn.
+formats::Box label_box(formats::Canvas& c, formats::Point at, const std::string& markup, const formats::TextStyle& style,
+                       double pad = 1.5);
+
 // A figure's page: title on top, the body for the plot, the legend at the right or below,
 // the caution in the footer.
 class FigurePage {

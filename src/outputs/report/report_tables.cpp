@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <numeric>
 
+#include "core/units/units.hpp"
 #include "outputs/report/run_table.hpp"
 
 namespace slipscreen::outputs::report {
@@ -37,6 +38,25 @@ std::string geopackage_file(const ReportSource& s) {
 }
 std::string pressure_history_file(const ReportSource& s) {
   return (std::filesystem::path(segment_times_file(s)).parent_path() / "segment_pressure_history.csv").generic_string();
+}
+
+std::string capacity_curve_file(const ReportSource& s) { return output_file(s, "capacity_curve", "capacity_curve.csv"); }
+std::string what_if_file(const ReportSource& s) { return output_file(s, "what_if", "what_if.csv"); }
+
+const nlohmann::json* capacity_block(const ReportSource& s) {
+  const auto p = s.manifest.find("parameters");
+  if (p == s.manifest.end() || !p->is_object()) return nullptr;
+  const auto c = p->find("capacity");
+  return c != p->end() && c->is_object() ? &*c : nullptr;
+}
+
+DisplayUnit pressure_unit(const ReportSource& s) {
+  const auto& out = s.manifest.value("parameters", nlohmann::json::object())
+                        .value("scenario", nlohmann::json::object())
+                        .value("output", nlohmann::json::object());
+  const auto it = out.find("units");
+  if (it != out.end() && it->is_string() && it->get<std::string>() == "oilfield") return {"psi", units::kPsi};
+  return {"MPa", 1e6};
 }
 
 bool has_probabilistic(const ReportSource& s) {

@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "outputs/report/figure.hpp"
+#include "outputs/report/figure_support.hpp"
 
 namespace slipscreen::outputs::report {
 
@@ -16,6 +17,15 @@ std::string pressure_raster_file(const ReportSource& s);  // pressure_change.tif
 std::string geopackage_file(const ReportSource& s);       // screen.gpkg ("" when none)
 std::string pressure_history_file(const ReportSource& s);  // segment_pressure_history.csv (beside segment_times)
 
+// The unit the run writes pressures in (the manifest's [output] units): psi for an oilfield run,
+// else MPa. For figures drawn from the Δp raster, which holds MPa in either system.
+DisplayUnit pressure_unit(const ReportSource& s);
+
+// The allowable-rate and what-if tables (docs/outputs.md): capacity_curve.csv, what_if.csv.
+std::string capacity_curve_file(const ReportSource& s);
+std::string what_if_file(const ReportSource& s);
+// The manifest's `capacity` block (parameters.capacity), or null when the run has no [capacity].
+const nlohmann::json* capacity_block(const ReportSource& s);
 // Whether the run has a probabilistic screen (segment_probability*.csv).
 bool has_probabilistic(const ReportSource& s);
 // The scenario's P(slip) thresholds (empty without a probabilistic screen).

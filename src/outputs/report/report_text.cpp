@@ -8,7 +8,9 @@
 
 #include "core/caution.hpp"
 #include "core/errors.hpp"
+#include "core/geomech/coulomb.hpp"
 #include "core/geomech/frictional_limit.hpp"
+#include "core/util/number_text.hpp"
 #include "outputs/report/report_tables.hpp"
 #include "outputs/report/run_table.hpp"
 
@@ -99,6 +101,83 @@ void inputs_table(const ReportSource& s, std::vector<ReportBlock>& out) {
     t.rows.push_back({text_of(at(in, {"role"})), text_of(at(in, {"path"})), text_of(at(in, {"bytes"})),
                       text_of(at(in, {"sha256"}))});
   out.push_back(std::move(t));
+}
+
+bool leaky_formation(const ReportSource& s) {
+  return text_of(at(s.manifest, {"parameters", "scenario", "region", "formation", "model"})).rfind("leaky", 0) == 0;
+}
+bool poroelastic_path(const ReportSource& s) {
+  const json& on = at(s.manifest, {"parameters", "scenario", "region", "stress", "poroelastic_path"});
+  return on.is_boolean() && on.get<bool>();
+}
+
+// The uncertainty of `key` as the scenario wrote it ("" when fixed or without a probabilistic screen).
+std::string uncertainty_of(const ReportSource& s, const std::string& key) {
+  for (const auto& v : at(s.manifest, {"parameters", "probabilistic", "uncertainty", "inputs"}))
+    if (text_of(at(v, {"key"})) == key) return text_of(at(v, {"written"}));
+  return "";
+}
+
+// Which pore-pressure model and which stress path the run used (the manifest's resolved
+// [formation] and [stress]; docs/pressure.md, docs/physics.md).
+void models_section(const ReportSource& s, std::vector<ReportBlock>& out) {
+  const json& fm = at(s.manifest, {"parameters", "scenario", "region", "formation"});
+  const json& st = at(s.manifest, {"parameters", "scenario", "region", "stress"});
+  if (!fm.is_object() || !st.is_object()) return;
+  out.push_back(heading("Pressure and stress models"));
+  ReportBlock f{.kind = Kind::facts};
+  const bool probabilistic = !at(s.manifest, {"parameters", "probabilistic"}).is_null();
+  std::string model = leaky_formation(s)
+                          ? "Hantush & Jacob (1955) leaky formation: line sources with the leaky well function "
+                            "W(u, r/B) in place of Theis's E1, superposed over wells and rate changes"
+                          : "Theis (1935): line sources in a confined formation, superposed over wells and rate changes";
+  const json& bounds = at(fm, {"boundaries"});
+  if (bounds.is_array() && !bounds.empty())
+    model += "; " + std::to_string(bounds.size()) + (bounds.size() == 1 ? " straight boundary" : " straight boundaries") +
+             " by image wells";
+  f.facts.emplace_back("Pore-pressure model", model);
+  const json& b = at(fm, {"leakage_factor_m"});
+  if (leaky_formation(s) && b.is_number()) {
+    std::string v = depth(s, b.get<double>());
+    const json& bt = at(fm, {"aquitard_thickness_m"});
+    const json& kt = at(fm, {"aquitard_permeability_m2"});
+    if (bt.is_number() && kt.is_number())
+      v += ", B = √(k h b′/k′) from the aquitard's thickness b′ = " + depth(s, bt.get<double>()) +
+           " and permeability k′ = " + text_of(kt) + " m²";
+    else
+      v += ", as given";
+    if (probabilistic) v += "; the leakage rate D/B² is the same in every realization";
+    f.facts.emplace_back("Leakage factor B", v);
+  }
+  if (at(fm, {"diffusivity_m2_per_s"}).is_number())
+    f.facts.emplace_back("Hydraulic diffusivity D", text_of(at(fm, {"diffusivity_m2_per_s"})) + " m²/s");
+  if (!poroelastic_path(s)) {
+    f.facts.emplace_back("Stress path", "pore pressure only: the total stresses stay as they were, and the Coulomb "
+                                        "stress changes by μ Δp");
+  } else {
+    const json& alpha = at(st, {"biot"});
+    const json& nu = at(st, {"poisson_ratio"});
+    std::string v = "poroelastic (Engelder & Fischer 1994): ΔSh = ΔSH = κ Δp, ΔSv = 0, κ = α(1 − 2ν)/(1 − ν)";
+    if (alpha.is_number() && nu.is_number()) {
+      try {
+        const double kappa = geomech::stress_path_coefficient({alpha.get<double>(), nu.get<double>()});
+        v += " = " + fixed(kappa, 3) + " for Biot's α = " + text_of(alpha) + " and Poisson's ratio ν = " + text_of(nu);
+      } catch (const InputError& e) {
+        v += std::string(" (not computed: ") + e.what() + ")";
+      }
+    }
+    f.facts.emplace_back("Stress path", v + "; Δp_crit is found along the path");
+    if (probabilistic) {
+      const std::string ua = uncertainty_of(s, "stress.biot"), un = uncertainty_of(s, "stress.poisson_ratio");
+      f.facts.emplace_back(
+          "Stress path in the probabilistic screen",
+          ua.empty() && un.empty()
+              ? "the same κ in every realization (α and ν fixed)"
+              : "κ from each realization's α (" + (ua.empty() ? "fixed" : ua) + ") and ν (" +
+                    (un.empty() ? "fixed" : un) + ")");
+    }
+  }
+  out.push_back(std::move(f));
 }
 
 void stress_section(const ReportSource& s, std::vector<ReportBlock>& out) {
@@ -210,6 +289,121 @@ void segments_section(const ReportSource& s, std::vector<ReportBlock>& out) {
   out.push_back(std::move(c));
 }
 
+std::string factor_text(const json& j) {
+  return j.is_number() ? util::number_text(j.get<double>(), 3) : "-";
+}
+
+// How many names a list holds, and the first three.
+std::string names_text(const json& list) {
+  if (!list.is_array() || list.empty()) return "none";
+  std::string out = std::to_string(list.size()) + ": ";
+  for (std::size_t i = 0; i < list.size() && i < 3; ++i) out += (i ? ", " : "") + text_of(list[i]);
+  if (list.size() > 3) out += ", ...";
+  return out;
+}
+
+// One answer of the manifest's capacity block as cells: the allowed f and the binding segment.
+void answer_cells(const json& a, const json& f_max, std::vector<std::string>& row) {
+  if (!at(a, {"exceeded_up_to_f_max"}).is_boolean() || !a["exceeded_up_to_f_max"].get<bool>()) {
+    row.insert(row.end(), {"above " + text_of(f_max, "f_max"), "none up to f = " + text_of(f_max, "f_max")});
+    return;
+  }
+  row.push_back(factor_text(at(a, {"f_allowed"})));
+  row.push_back(text_of(at(a, {"binding_segment"}), "-"));
+}
+
+// The allowable factor on the group's rates (manifest.json, capacity; docs/decisions.md).
+void capacity_section(const ReportSource& s, std::vector<ReportBlock>& out) {
+  const json* cap = capacity_block(s);
+  if (cap == nullptr) return;
+  out.push_back(heading("Allowable rate"));
+  std::string wells;
+  for (const auto& w : at(*cap, {"wells"})) wells += (wells.empty() ? "" : ", ") + text_of(w);
+  const std::string from = text_of(at(*cap, {"from"}));
+  const std::string horizon = text_of(at(*cap, {"horizon"}), "the last output time");
+  const json& conf = at(*cap, {"confidence"});
+  out.push_back(paragraph(
+      "The largest factor f on the planned rates of " + wells + (from.empty() ? " (their whole schedule)" : " from " + from) +
+      " for which every fault segment's P(slip by " + horizon + " | f) stays at or below each threshold; f = 1 is the "
+      "plan. The allowed factor is judged on the upper end of the Wilson interval" +
+      (conf.is_number() ? " at confidence " + text_of(conf) : "") +
+      " and rounded down to 3 significant digits, below the exact step at which the binding segment's P first "
+      "exceeds the threshold (manifest.json, capacity). The answers are exact by linearity of Δp in the rates, on the screen's own "
+      "realizations (docs/decisions.md), and are screening estimates like the screen itself. Per segment: "
+      "capacity.csv; the curve: figure capacity_curve."));
+  const json& f_max = at(*cap, {"f_max"});
+  ReportBlock t{.kind = Kind::table,
+                .header = {"answer", "allowed f", "binding segment", "point estimate's f",
+                           "segments reached without the group"}};
+  for (const auto& th : at(*cap, {"thresholds"})) {
+    std::vector<std::string> row{"P(slip) ≤ " + text_of(at(th, {"threshold"}))};
+    answer_cells(at(th, {"wilson_upper"}), f_max, row);
+    const json& pt = at(th, {"point_estimate"});
+    row.push_back(at(pt, {"f_allowed"}).is_number() ? factor_text(at(pt, {"f_allowed"})) : "above " + text_of(f_max, "f_max"));
+    row.push_back(names_text(at(th, {"reached_without_group"})));
+    t.rows.push_back(std::move(row));
+  }
+  const json& det = at(*cap, {"deterministic"});
+  if (det.is_object()) {
+    const json& margin = at(det, {"margin_Pa"});
+    std::vector<std::string> row{"deterministic: Δp_crit − Δp ≥ " +
+                                 (margin.is_number() ? pressure(s, margin.get<double>()) : std::string("the margin"))};
+    answer_cells(at(det, {"answer"}), f_max, row);
+    row.push_back("-");
+    row.push_back(names_text(at(det, {"reached_without_group"})));
+    t.rows.push_back(std::move(row));
+  }
+  out.push_back(std::move(t));
+}
+
+// What-if rate changes (manifest.json, what_if; what_if.csv): per variant its wells and the
+// segments whose P(slip by the last date) changes most.
+void what_if_section(const ReportSource& s, std::vector<ReportBlock>& out) {
+  const json& wi = at(s.manifest, {"parameters", "what_if"});
+  const std::string file = what_if_file(s);
+  if (!wi.is_object() || !RunTable::exists(s.folder, file)) return;
+  const RunTable& t = s.table(file);
+  std::string last;
+  for (std::size_t r = 0; r < t.rows(); ++r) last = std::max(last, t.text(r, "date"));
+  out.push_back(heading("What-if rate changes"));
+  out.push_back(paragraph(
+      "Each variant changes the rates of some wells from a date on and is computed on the same realizations as the "
+      "screen, so a change in P(slip) is the change the rates make, not Monte Carlo noise; it is exact by linearity "
+      "of Δp in the rates (docs/decisions.md) and a screening estimate like the screen itself. Below, per variant, the "
+      "segments whose P(slip by " + last + ") changes most (what_if.csv)."));
+  for (const auto& v : at(wi, {"variants"})) {
+    const std::string name = text_of(at(v, {"name"}));
+    std::string wells;
+    for (const auto& w : at(v, {"wells"})) wells += (wells.empty() ? "" : ", ") + text_of(w);
+    ReportBlock f{.kind = Kind::facts};
+    f.facts.emplace_back("Variant", name);
+    f.facts.emplace_back("Wells", wells.empty() ? "none" : wells);
+    f.facts.emplace_back("Factor on their rates", text_of(at(v, {"factor"}), "-"));
+    f.facts.emplace_back("From", text_of(at(v, {"from"}), "-"));
+    out.push_back(std::move(f));
+    const std::string pcol = "p_slip_" + name, ccol = "change_" + name;
+    if (!t.has_column(pcol) || !t.has_column(ccol))
+      throw InputError("column", pcol, "the what-if variant's columns " + pcol + " and " + ccol, t.file());
+    std::vector<std::pair<double, std::size_t>> moved;
+    for (std::size_t r = 0; r < t.rows(); ++r)
+      if (t.text(r, "date") == last) {
+        const double change = t.number(r, ccol);
+        if (change != 0.0) moved.emplace_back(-std::abs(change), r);
+      }
+    std::stable_sort(moved.begin(), moved.end(), [](const auto& a, const auto& b) { return a.first < b.first; });
+    if (moved.empty()) {
+      out.push_back(paragraph("No segment's P(slip by " + last + ") changes."));
+      continue;
+    }
+    ReportBlock c{.kind = Kind::table, .header = {"segment", "P(slip) base", "P(slip) " + name, "change"}};
+    for (std::size_t i = 0; i < moved.size() && i < 5; ++i) {
+      const std::size_t r = moved[i].second;
+      c.rows.push_back({t.text(r, "segment_id"), t.text(r, "p_slip_base"), t.text(r, pcol), t.text(r, ccol)});
+    }
+    out.push_back(std::move(c));
+  }
+}
+
 void catalog_section(const ReportSource& s, std::vector<ReportBlock>& out) {
   std::error_code ec;
   const auto path = s.folder / "catalog_summary.json";
@@ -261,13 +455,16 @@ void catalog_section(const ReportSource& s, std::vector<ReportBlock>& out) {
   }
 }
 
-void reading_section(std::vector<ReportBlock>& out) {
+void reading_section(const ReportSource& s, std::vector<ReportBlock>& out) {
   out.push_back(heading("How to read this report"));
   ReportBlock l{.kind = Kind::list};
   l.rows = {
-      {"Δp is the modelled pore-pressure increase from injection (Theis 1935 line sources, superposed over wells "
-       "and rate changes). Δp_crit is the increase that would bring a fault segment to Coulomb failure with its "
-       "best-estimate stress and friction (Hubbert & Rubey 1959). The margin is Δp_crit − Δp."},
+      {std::string("Δp is the modelled pore-pressure increase from injection (") +
+       (leaky_formation(s) ? "Hantush & Jacob 1955 leaky-formation line sources" : "Theis 1935 line sources") +
+       ", superposed over wells and rate changes). Δp_crit is the increase that would bring a fault segment to "
+       "Coulomb failure with its best-estimate stress and friction (Hubbert & Rubey 1959)" +
+       (poroelastic_path(s) ? ", the horizontal stresses rising with the pressure along the poroelastic path" : "") +
+       ". The margin is Δp_crit − Δp."},
       {"P(slip by t) is the fraction of the probabilistic screen's realizations in which the segment has reached "
        "Δp_crit by date t through injection; its 95 % interval is the Wilson score interval, which reflects the "
        "number of realizations, not the uncertainty of the model itself."},
@@ -289,14 +486,17 @@ ReportDocument report_document(const ReportSource& s, const std::string& built, 
   b.push_back({.kind = Kind::caution, .text = kScreeningCaution});
   run_facts(s, built, b);
   segments_section(s, b);
+  capacity_section(s, b);
+  what_if_section(s, b);
   if (!figures.empty()) {
     b.push_back(heading("Figures"));
     b.push_back({.kind = Kind::figures});
   }
+  models_section(s, b);
   stress_section(s, b);
   catalog_section(s, b);
   inputs_table(s, b);
-  reading_section(b);
+  reading_section(s, b);
   return d;
 }
 

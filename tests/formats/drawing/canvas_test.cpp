@@ -78,6 +78,32 @@ TEST_CASE("text is measured and anchored") {
   CHECK(r.y == doctest::Approx(100).epsilon(1e-12));
 }
 
+TEST_CASE("a layout the canvas keeps gives what a fresh one gives: measured, then drawn, in a scaled group") {
+  // The canvas lays a text out once per markup and style; another style is another layout, and a
+  // changed transformation lays it out again (Pango's context serial), so nothing drawn changes
+  // (a PDF: the same drawing gives the same bytes, unlike an SVG's glyph ids).
+  const auto drawing = [](bool measure_first) {
+    Canvas c(DrawingFormat::pdf, 400, 300);
+    if (measure_first) {
+      c.measure("Coulomb Δp<sub>crit</sub>", {.size = 10});
+      c.measure("Coulomb Δp<sub>crit</sub>", {.size = 10, .bold = true});
+    }
+    c.text({20, 40}, "Coulomb Δp<sub>crit</sub>", {.size = 10});
+    c.begin_group({50, 100}, 0.5);
+    c.text({20, 40}, "Coulomb Δp<sub>crit</sub>", {.size = 10, .angle_deg = 90});
+    c.end_group();
+    c.text({20, 200}, "Coulomb Δp<sub>crit</sub>", {.size = 10, .bold = true});
+    return std::string(c.finish());
+  };
+  CHECK(drawing(true) == drawing(false));
+  Canvas c(DrawingFormat::png, 400, 300);
+  const double plain = c.measure("Coulomb", {.size = 10}).w, bold = c.measure("Coulomb", {.size = 10, .bold = true}).w;
+  CHECK(bold > plain * 1.02);  // DejaVu Sans Bold is wider (the fonts' advance widths)
+  c.begin_group({0, 0}, 0.25);
+  CHECK(c.measure("Coulomb", {.size = 10}).w == doctest::Approx(plain).epsilon(1e-6));  // in the group's units
+  c.end_group();
+}
+
 TEST_CASE("markup_escape makes user text safe for Pango markup") {
   CHECK(markup_escape("a<b & 'c' \"d\">") == "a&lt;b &amp; &apos;c&apos; &quot;d&quot;&gt;");
 }

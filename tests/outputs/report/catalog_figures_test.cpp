@@ -4,11 +4,13 @@
 
 #include <doctest/doctest.h>
 
+#include <algorithm>
 #include <cmath>
 #include <map>
 
 #include "formats/gis/run_layers.hpp"
 #include "outputs/report/figure_checks.hpp"
+#include "outputs/report/report_tables.hpp"
 #include "run/run_scenario.hpp"
 #include "scenario/scenario.hpp"
 #include "support/demo_run_fixture.hpp"
@@ -165,5 +167,32 @@ TEST_CASE("catalog figures of the demo run match the review's files") {
     CHECK(d.where("what", "event").size() == ev.size());
     pugi::xml_document doc;
     test::parse_svg(f, doc);
+  }
+
+  SUBCASE("event map in an oilfield run: the colour bar in psi, the data as the raster holds them") {
+    // The demo run's manifest marked oilfield: the event map takes its unit from [output] units
+    // (the raster it draws holds MPa in either system), so the rest of the folder may stay SI.
+    const ReportSource si = test::source_of(run);
+    ReportSource oil = test::source_of(run);
+    oil.manifest["parameters"]["scenario"]["output"]["units"] = "oilfield";
+    CHECK(pressure_unit(si).suffix == "MPa");
+    CHECK(pressure_unit(oil).suffix == "psi");
+    // 1 psi = 6894.757293168361 Pa (1 lbf/in², from the pound-force and the inch; NIST SP 811).
+    CHECK(pressure_unit(oil).factor == doctest::Approx(6894.757293168361).epsilon(1e-15));
+    const auto event_map = [](const std::vector<Figure>& all) {
+      const auto it = std::find_if(all.begin(), all.end(), [](const Figure& f) { return f.name == "catalog_event_map"; });
+      REQUIRE(it != all.end());
+      return *it;
+    };
+    const Figure a = event_map(catalog_figures(si)), b = event_map(catalog_figures(oil));
+    CHECK(b.reading.find("in psi (pressure_change.tif holds MPa)") != std::string::npos);
+    CHECK(a.reading.find("psi") == std::string::npos);
+    // The data stay the raster's values in MPa (as tests/outputs/oilfield_units_with_pandas.py
+    // requires); the drawing changes: the colour bar's and the subtitle's numbers and unit.
+    CHECK(figure_csv(a) == figure_csv(b));
+    CHECK(figure_svg(a) != figure_svg(b));
+    Figure view = b;
+    view.name = "catalog_event_map_psi";
+    test::write_for_viewing({view});
   }
 }

@@ -13,6 +13,12 @@ reference (docs/report.md):
   (Chromium's net log: a request whose initiator is an origin; a control page with an image from
   the network and a console.error must be caught, so the check can fail), and a screenshot of it
   is not blank (pixel standard deviation with Pillow);
+- the models section names the run's pressure model and stress path (pdftotext): Theis and pore
+  pressure only for the demo; Hantush-Jacob with its B and the poroelastic path with its kappa for
+  the physics fixture (tests/data/scenario/physics_paths.toml, the tiny region);
+- the sections "Allowable rate" and "What-if rate changes" show each threshold's allowed factor
+  and binding segment as the manifest's capacity block holds them and each what-if variant
+  (pdftotext), and figures/capacity_curve.csv equals capacity_curve.csv;
 - the report is byte-identical when rebuilt with `slipscreen report --reproducible`, and equal to
   the one `run --reproducible` wrote; a folder that is not a run is refused and left as it was.
 
@@ -90,6 +96,45 @@ def check_pdf(folder, page, summary):
     return pages
 
 
+def pdf_words(folder):
+    return " ".join(run(["pdftotext", folder / "report.pdf", "-"], folder).stdout.split())
+
+
+def check_models(flat, expected, where):
+    """Each expected phrase appears in the report's "Pressure and stress models" section."""
+    start = flat.find("Pressure and stress models")
+    section = flat[start:flat.find("Stress at the reference depth", start)] if start >= 0 else ""
+    missing = [e for e in expected if e not in section]
+    if missing:
+        fail(f"{where}: the report's models section does not show {missing}:\n{section}")
+
+
+def check_physics_report(slipscreen, source, work):
+    """The tiny region with a leaky formation and the poroelastic path: the report says so."""
+    folder = work / "physics"
+    run([slipscreen, "run", source / "tests/data/scenario/physics_paths.toml", "--out", folder, "--reproducible"], work)
+    # B = sqrt(k h b'/k') = sqrt(100 mD x 100 m x 20 m / 0.001 mD) = sqrt(2e8) m = 14142 m, and
+    # kappa = alpha(1 - 2 nu)/(1 - nu) = 0.8 x 0.5 / 0.75 = 0.533 (Engelder & Fischer 1994): arithmetic,
+    # the fixture's values.
+    check_models(pdf_words(folder), ["Hantush & Jacob (1955) leaky formation", "14142 m, B = √(k h b′/k′)", "poroelastic (Engelder & Fischer 1994)",
+                                     "= 0.533 for Biot's α = 0.8 and Poisson's ratio ν = 0.25"], "physics fixture")
+    if "Theis (1935)" in pdf_words(folder):
+        fail("physics fixture: the report of a leaky run names the Theis model")
+    # No [capacity], no [[what_if]]: neither section nor the figure.
+    if "Allowable rate" in pdf_words(folder) or "What-if rate changes" in pdf_words(folder) or \
+            (folder / "figures" / "capacity_curve.csv").exists():
+        fail("physics fixture: a run without [capacity] and [[what_if]] has their sections or figure")
+    # The same with a probabilistic screen and an uncertain Biot coefficient: kappa per realization.
+    fixture = source / "tests/data/scenario/physics_paths.toml"
+    text = fixture.read_text().replace('file = "tiny/', f'file = "{(fixture.parent / "tiny").as_posix()}/')
+    text += '\n[uncertainty]\nrealizations = 50\nthresholds = [0.05]\n\n[uncertainty.stress]\nbiot = "uniform(0.6, 0.9)"\n'
+    (work / "physics_uncertain.toml").write_text(text)
+    folder = work / "physics-uncertain"
+    run([slipscreen, "run", work / "physics_uncertain.toml", "--out", folder, "--reproducible"], work)
+    check_models(pdf_words(folder), ["κ from each realization's α (uniform(0.6, 0.9)) and ν (fixed)",
+                                     "the leakage rate D/B² is the same in every realization"], "uncertain physics")
+
+
 def check_svgs(folder, segments):
     svgs = sorted((folder / "figures").glob("*.svg"))
     if len(svgs) < 3:
@@ -146,6 +191,46 @@ def check_figure_data(folder):
     if worst > 1.5e-6:  # the two tables round to 1e-6 MPa (docs/outputs.md)
         fail(f"segment_pressure_history.csv differs from well_shares.csv by {worst} MPa at an output date")
     return shown, len(both)
+
+
+def check_decisions(folder, flat):
+    """The allowable-rate and what-if sections: their titles in pdftotext, the binding segment of
+    each threshold with the manifest's allowed factor (3 significant digits, as the report rounds
+    it), and figures/capacity_curve.csv equal to capacity_curve.csv, column for column."""
+    cap = manifest_block(folder, "capacity")
+    for title in ("Allowable rate", "What-if rate changes"):
+        if title not in flat:
+            fail(f"report.pdf: no section '{title}' in a run with [capacity] and [[what_if]]")
+    section = flat[flat.find("Allowable rate"):flat.find("What-if rate changes")]
+    checked = 0
+    for th in cap["thresholds"]:
+        w = th["wilson_upper"]
+        if not w["exceeded_up_to_f_max"]:
+            continue
+        # The row: "P(slip) ≤ <threshold>", the allowed factor, the binding segment (the table's order).
+        start = section.find(f"P(slip) ≤ {th['threshold']:.6g} ")
+        cells = section[start:].split()[3:5] if start >= 0 else []
+        if cells != [f"{w['f_allowed']:.3g}", w["binding_segment"]]:
+            fail(f"report.pdf: the answer for P <= {th['threshold']} reads {cells}, the manifest holds "
+                 f"f_allowed {w['f_allowed']} bound by {w['binding_segment']}")
+        checked += 1
+    if checked == 0:
+        fail("the demo's capacity block has no threshold answer to check")
+    text = lambda name: pd.read_csv(folder / name, dtype=str, keep_default_na=False)
+    if not text("figures/capacity_curve.csv").equals(text("capacity_curve.csv")):
+        fail("figures/capacity_curve.csv differs from capacity_curve.csv")
+    variants = manifest_block(folder, "what_if")["variants"]
+    for v in variants:
+        if v["name"] not in flat[flat.find("What-if rate changes"):]:
+            fail(f"report.pdf: the what-if variant {v['name']} is not shown")
+    return checked, len(variants)
+
+
+def manifest_block(folder, key):
+    block = json.loads((folder / "manifest.json").read_text())["parameters"].get(key)
+    if not isinstance(block, dict):
+        fail(f"manifest.json: no parameters.{key} block (the demo has [capacity] and [[what_if]])")
+    return block
 
 
 CHROMIUM = ["chromium", "--headless", "--no-sandbox", "--disable-gpu", "--no-first-run",
@@ -213,6 +298,10 @@ def main():
     segments = pd.read_csv(folder / "segments.csv")
     summary = pd.read_csv(folder / "segment_probability_summary.csv")
     pages = check_pdf(folder, "A4", summary)
+    check_models(pdf_words(folder), ["Theis (1935)", "pore pressure only: the total stresses stay as they were",
+                                     "Hydraulic diffusivity D"], "demo")
+    answers, variants = check_decisions(folder, pdf_words(folder))
+    check_physics_report(slipscreen, source, work)
     svgs = check_svgs(folder, segments)
     histories, matched = check_figure_data(folder)
     spread = check_html(folder, work)
@@ -241,7 +330,8 @@ def main():
         fail(f"`slipscreen report` on a folder that is not a run: {done.stderr}")
     print(f"report: {pages} PDF pages (A4, then Letter), {svgs} SVG figures, {histories} pressure histories, "
           f"{matched} monthly values equal to well_shares.csv, screenshot grey-level sd {spread:.1f}, "
-          f"rebuilt byte-identical ({len(report)} files)")
+          f"rebuilt byte-identical ({len(report)} files), {answers} allowable-rate answers and {variants} "
+          f"what-if variants shown")
     shutil.rmtree(work, ignore_errors=True)
 
 

@@ -62,3 +62,23 @@ TEST_CASE("the probability ramp runs from viridis' dark blue to its yellow") {
     previous = luma;
   }
 }
+
+TEST_CASE("a label box lies under its text, padded, and is drawn before it") {
+  slipscreen::formats::Canvas c(slipscreen::formats::DrawingFormat::svg, 300, 200);
+  const slipscreen::formats::TextStyle st{.size = 7, .bold = true, .v = slipscreen::formats::VAlign::bottom};
+  const auto m = c.measure("MW-P1", st);
+  const auto box = label_box(c, {100, 80}, "MW-P1", st, 1.5);
+  // Left-bottom anchor: the text spans x 100 … 100 + w and y 80 − h … 80 (Canvas::text).
+  CHECK(box.x == doctest::Approx(98.5).epsilon(1e-12));
+  CHECK(box.y == doctest::Approx(80 - m.h - 1.5).epsilon(1e-12));
+  CHECK(box.w == doctest::Approx(m.w + 3).epsilon(1e-12));
+  CHECK(box.h == doctest::Approx(m.h + 3).epsilon(1e-12));
+  const std::string svg = c.finish();
+  const auto fill = svg.find("fill:rgb(100%,100%,100%);fill-opacity:0.85");
+  const auto glyph = svg.find("<use xlink:href=\"#glyph");
+  REQUIRE(fill != std::string::npos);
+  REQUIRE(glyph != std::string::npos);
+  CHECK(fill < glyph);  // the box first, the text over it
+  slipscreen::formats::Canvas d(slipscreen::formats::DrawingFormat::svg, 300, 200);
+  CHECK_THROWS_AS(label_box(d, {0, 0}, "x", {.v = slipscreen::formats::VAlign::baseline}), std::logic_error);
+}
