@@ -100,7 +100,8 @@ probabilistic::UncertainModel uncertain_model(const scenario::ResolvedScenario& 
 ProbabilisticRun run_probabilistic_screen(const scenario::ResolvedScenario& s, const PreparedRun& p,
                                           const scenario::UncertaintySpec& spec,
                                           std::vector<std::uint64_t> audit_realizations,
-                                          std::vector<std::size_t> audit_segments) {
+                                          std::vector<std::size_t> audit_segments,
+                                          const probabilistic::RealizationSplit* split) {
   ProbabilisticRun run;
   const auto model = uncertain_model(s, p, spec, run.fault_ids, run.segment_fault);
   run.confidence = spec.confidence;
@@ -163,7 +164,7 @@ ProbabilisticRun run_probabilistic_screen(const scenario::ResolvedScenario& s, c
   set.attribute_median = s.output.tables;  // written to median_well_shares.csv
   set.audit_realizations = std::move(audit_realizations);
   set.audit_segments = std::move(audit_segments);
-  run.result = probabilistic::run_probabilistic(model, wells, segments, set);
+  run.result = probabilistic::run_probabilistic(model, wells, segments, set, split);
   run.wells = std::move(wells);
   run.segments = std::move(segments);
   run.settings = std::move(set);
