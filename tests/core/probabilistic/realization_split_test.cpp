@@ -14,11 +14,10 @@ using namespace slipscreen::probabilistic;
 using stats::Distribution;
 
 namespace {
-constexpr double kDay = 86400.0;
 constexpr double kDeg = std::numbers::pi / 180.0;
 
-// Fictional case: one well injecting 0.05 m³/s for 6 years, three segments at 1.5, 4 and 12 km,
-// uncertain permeability, friction and rate, a 3 × 2 map; 700 realizations (three blocks of 256).
+// Fictional case: the three-segment layout (strike_slip_case.hpp) with uncertain permeability,
+// friction, rate and strike, a 3 × 2 map; 700 realizations (three blocks of 256).
 struct SplitCase {
   UncertainModel model = test::strike_slip_model();
   std::vector<WellInput> wells;
@@ -29,21 +28,7 @@ struct SplitCase {
     model.friction = Distribution::uniform(0.5, 0.7);
     model.rate_factor = Distribution::uniform(0.8, 1.2);
     model.strike_perturbation = Distribution::normal(0.0, 5 * kDeg);
-    WellInput w;
-    w.id = "W1";
-    w.steps.time = {0.0, 6 * 365 * kDay};
-    w.steps.delta_rate = {0.05, -0.05};
-    wells.push_back(w);
-    for (double r : {1500.0, 4000.0, 12000.0}) {
-      SegmentInput s;
-      s.check_points = {{r, -200.0}, {r, 0.0}, {r, 200.0}};
-      s.strike = 15 * kDeg;
-      s.dip = 80 * kDeg;
-      s.fault = segments.size();
-      segments.push_back(s);
-    }
-    for (int m = 1; m <= 120; ++m) settings.tracking_times.push_back(m * 30 * kDay);
-    settings.output_index = {11, 35, 71, 119};
+    test::three_segment_layout(wells, segments, settings);
     settings.realizations = 700;
     settings.seed = 11;
     for (double x : {500.0, 2000.0, 6000.0})
