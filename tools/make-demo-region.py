@@ -300,6 +300,20 @@ cell_size = "2 km"
 strike = "345 deg"                 # a second raster for faults of this orientation
 dip = "85 deg"
 
+# The allowable rate of the planned well (docs/scenario.md, [capacity]): the largest factor on
+# MW-P1's planned rates that keeps every fault segment's P(slip) within each threshold above.
+[capacity]
+wells = ["MW-P1"]                  # default: the proposed wells
+margin = "0.5 MPa"                 # the deterministic answer keeps dp_crit - dp at least this
+
+# A what-if rate change on the same realizations (docs/scenario.md, [[what_if]]).
+[[what_if]]
+name = "half_near_MB-02"
+fault = "MB-02"                    # the wells within the radius of the fault's segments
+radius = "8 km"
+factor = 0.5                       # half their rates ...
+from = "2027-02-01"                # ... from this date on
+
 # The earthquake catalog reviewed with the run (docs/catalogs.md). SYNTHETIC events drawn by
 # tools/make-demo-catalog.py for this fictional region; the CSV form holds the same events.
 [catalog]

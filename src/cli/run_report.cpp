@@ -13,6 +13,8 @@
 #include "cli/scenario_summary.hpp"
 #include "screening/catalog_review.hpp"
 #include "formats/table/iso_time.hpp"
+#include "outputs/capacity_tables.hpp"
+#include "outputs/what_if_table.hpp"
 #include "outputs/output_units.hpp"
 #include "run/mpi_cluster.hpp"
 #include "run/run_scenario.hpp"
@@ -235,6 +237,14 @@ int run_and_report(const RunCommandOptions& o, Context& ctx) {
 
   print_deterministic(ctx.out, s, r, o.closest);
   if (r.probabilistic) print_probabilistic(ctx.out, *r.probabilistic, s.seed, r.last_date, o.closest);
+  if (r.capacity) {
+    ctx.out << "\n";
+    for (const auto& line : outputs::capacity_console(*r.capacity, outputs::OutputUnits(s.output.units))) ctx.out << line << "\n";
+  }
+  if (r.what_if) {
+    ctx.out << "\n";
+    for (const auto& line : outputs::what_if_console(s, *r.what_if)) ctx.out << line << "\n";
+  }
   if (r.catalog) print_review_against_model(ctx.out, s, *r.catalog, o.closest);
   ctx.out << "\nOutputs in " << r.folder.generic_string() << "/:\n";
   for (const auto& f : r.files) ctx.out << "  " << f << "\n";

@@ -5,6 +5,8 @@
 #include "core/caution.hpp"
 #include "core/util/number_text.hpp"
 #include "formats/files/manifest.hpp"
+#include "outputs/capacity_tables.hpp"
+#include "outputs/what_if_table.hpp"
 #include "outputs/catalog_review_files.hpp"
 #include "outputs/gis_layers.hpp"
 #include "outputs/output_text.hpp"
@@ -42,6 +44,8 @@ nlohmann::json screens_json(const RunResults& r) {
           {"probabilistic", r.probabilistic != nullptr},
           {"pressure_map", r.pressure != nullptr},
           {"catalog_review", r.review != nullptr},
+          {"capacity", r.capacity != nullptr},
+          {"what_if", r.what_if != nullptr},
           {"rt_view", r.review != nullptr && r.review->rt.has_value()}};
 }
 
@@ -49,6 +53,8 @@ std::string screens_text(const RunResults& r) {
   std::string t = "deterministic screen";
   if (r.probabilistic) t += "; probabilistic screen (" + std::to_string(r.probabilistic->result.realizations) + " realizations)";
   if (r.pressure) t += "; pressure map";
+  if (r.capacity) t += "; allowable rate";
+  if (r.what_if) t += "; what-if rate changes";
   if (r.review) t += "; catalog review";
   if (r.review && r.review->rt) t += "; r-t view";
   return t;
@@ -84,6 +90,8 @@ ReadmeContent run_readme(const scenario::ResolvedScenario& s, const RunResults& 
   if (s.output.geopackage)
     c.files.push_back(gis_layers_readme(s, r.probabilistic != nullptr, r.review != nullptr, r.pressure != nullptr));
   if (r.probabilistic) for (auto& f : probabilistic_readme(*r.probabilistic, s.output.units)) c.files.push_back(std::move(f));
+  if (r.capacity) for (auto& f : capacity_readme(*r.capacity)) c.files.push_back(std::move(f));
+  if (r.what_if) for (auto& f : what_if_readme(*r.what_if)) c.files.push_back(std::move(f));
   if (r.review) for (auto& f : catalog_review_readme(*r.review)) c.files.push_back(std::move(f));
   c.manifest = s.output.files.manifest;
   c.oilfield_units = s.output.units == units::UnitSystem::oilfield;
@@ -101,6 +109,8 @@ void write_run_outputs(const formats::RunFolder& folder, const scenario::Resolve
   if (s.output.geopackage)
     write_gis_layers(folder, s, p, r.screen, o.reproducible, r.probabilistic, r.review, r.pressure);
   if (r.probabilistic) write_probabilistic_outputs(folder, s, p, *r.probabilistic);
+  if (r.capacity) write_capacity_tables(folder, s, *r.capacity);
+  if (r.what_if) write_what_if_table(folder, s, *r.what_if);
   if (r.review) write_catalog_review(folder, s, p, *r.review);
 
   write_readme(folder, run_readme(s, r));
@@ -114,6 +124,8 @@ void write_run_outputs(const formats::RunFolder& folder, const scenario::Resolve
   m.inputs = p.manifest_inputs;
   m.parameters = {{"scenario", scenario::to_json(s)}, {"run", run_block(s, p, r.screen)}};
   if (r.probabilistic) m.parameters["probabilistic"] = probabilistic_manifest(*r.probabilistic);
+  if (r.capacity) m.parameters["capacity"] = capacity_manifest(*r.capacity);
+  if (r.what_if) m.parameters["what_if"] = what_if_manifest(*r.what_if);
   if (r.review) m.parameters["catalog"] = catalog_manifest(*r.review);
   formats::write_manifest(folder.output("output.files.manifest", s.output.files.manifest), m, folder.staging());
 }

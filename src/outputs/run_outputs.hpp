@@ -7,6 +7,8 @@
 //   probabilistic_tables.hpp segment_probability*.csv, sensitivity.csv, median_well_shares.csv,
 //                            slip_probability_*.tif
 //   pressure_history_table.hpp segment_pressure_history.csv
+//   capacity_tables.hpp      capacity.csv, capacity_curve.csv
+//   what_if_table.hpp        what_if.csv
 //   catalog_review_files.hpp catalog_summary.json, catalog_events.csv, rt_*.csv, seismicity_rate*.csv
 //   manifest.json            version, command line, resolved parameters, SHA-256 of every input
 #include <string>
@@ -15,6 +17,8 @@
 #include "core/screen/deterministic_screen.hpp"
 #include "formats/files/run_folder.hpp"
 #include "scenario/scenario.hpp"
+#include "screening/capacity.hpp"
+#include "screening/what_if.hpp"
 #include "screening/catalog_review.hpp"
 #include "screening/prepare.hpp"
 #include "screening/pressure_history.hpp"
@@ -36,6 +40,8 @@ struct RunResults {
   const screening::ProbabilisticRun* probabilistic = nullptr;  // when [uncertainty]
   const screening::CatalogReview* review = nullptr;            // when [catalog]
   const screening::SegmentPressureHistory* history = nullptr;  // monthly Δp by well at the top segments
+  const screening::CapacityResult* capacity = nullptr;         // when [capacity]
+  const screening::WhatIfResult* what_if = nullptr;            // when [[what_if]]
 };
 
 // Writes every output the scenario asks for. Throws IoError (nothing is committed then).

@@ -1,12 +1,15 @@
 #include "run/run_scenario.hpp"
 
 #include <algorithm>
+#include <memory>
 
 #include "core/errors.hpp"
 #include "formats/files/run_folder.hpp"
 #include "outputs/run_outputs.hpp"
 #include "run/report_job.hpp"
 #include "scenario/uncertainty.hpp"
+#include "screening/capacity.hpp"
+#include "screening/what_if.hpp"
 #include "screening/catalog_review.hpp"
 #include "screening/prepare.hpp"
 #include "screening/pressure_history.hpp"
@@ -71,6 +74,7 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
     return RunSummary{};
   }
   // Refuse the folder before computing (RunFolder checks again when created and when committed).
+  for (const auto& w : s.what_if) screening::what_if_wells(w, prepared);  // refuses a bad entry before computing
   const formats::RunFolderOptions folder_rules = folder_options(s, prepared, o);
   formats::RunFolder::check_target(target, folder_rules);
   const screening::RunCost cost = screening::estimate_run_cost(s, prepared);
@@ -87,6 +91,14 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
     stage("probabilistic screen");
     prob = screening::run_probabilistic_screen(s, prepared, spec, {}, {}, o.split);
   }
+  std::shared_ptr<const screening::CapacityResult> capacity;
+  if (s.capacity && prob) {
+    stage("allowable rate");
+    capacity = std::make_shared<const screening::CapacityResult>(screening::capacity_answer(s, prepared, result, *prob));
+  }
+  std::shared_ptr<const screening::WhatIfResult> what_if;
+  if (!s.what_if.empty() && prob)
+    what_if = std::make_shared<const screening::WhatIfResult>(screening::what_if_result(s, prepared, *prob));
   std::optional<screening::CatalogReview> review;
   if (s.catalog) {
     stage("catalog review");
@@ -109,7 +121,7 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
   formats::RunFolder folder(target, folder_rules);
   outputs::write_run_outputs(folder, s,
                              {prepared, result, pressure ? &*pressure : nullptr, prob ? &*prob : nullptr,
-                              review ? &*review : nullptr, history ? &*history : nullptr},
+                              review ? &*review : nullptr, history ? &*history : nullptr, capacity.get(), what_if.get()},
                              {o.command_line, o.reproducible});
   if (s.output.report) {
     stage("report");
@@ -119,6 +131,8 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
   folder.commit();
 
   RunSummary summary = screening::summarize_run(s, prepared, result, prob ? &*prob : nullptr, std::move(review));
+  summary.capacity = capacity;
+  summary.what_if = what_if;
   summary.folder = target;
   summary.files = files_in(target);
   return summary;

@@ -11,7 +11,9 @@
 #include "formats/files/path_policy.hpp"
 #include "formats/table/iso_time.hpp"
 #include "formats/toml/toml_section.hpp"
+#include "scenario/capacity_section.hpp"
 #include "scenario/catalog_section.hpp"
+#include "scenario/what_if_section.hpp"
 #include "formats/gis/crs.hpp"
 #include "scenario/plausibility.hpp"
 #include "scenario/region_reader.hpp"
@@ -427,7 +429,7 @@ ResolvedScenario load_scenario(const fs::path& path) {
   const fs::path dir = path.parent_path();
   const formats::Section top({{doc.root.get(), sc.file, "", dir}});
   top.allow({"title", "seed", "memory_limit", "region", "wells", "histories", "proposed_well", "output",
-             "uncertainty", "catalog"});
+             "uncertainty", "catalog", "capacity", "what_if"});
   sc.title = top.optional_string("title").value_or("");
   if (auto seed = top.optional_integer("seed")) {
     if (*seed < 0) top.fail("seed", std::to_string(*seed), "a seed >= 0");
@@ -462,6 +464,21 @@ ResolvedScenario load_scenario(const fs::path& path) {
     uncertainty = u->node->as_table();
   }
   sc.uncertainty = read_uncertainty(uncertainty, uncertainty_context(sc));
+  if (top.has("capacity")) {
+    const formats::Section cap = top.child("capacity");
+    sc.capacity = read_capacity_spec(cap, sc.wells);
+    sc.capacity->where = top.where(*top.find("capacity"));
+    if (!sc.uncertainty.given)
+      top.fail("capacity", "[capacity]", "an [uncertainty] table too: the allowable rate comes from the probabilistic screen");
+  }
+  for (const formats::Section& ws : top.table_array("what_if", "an array of tables [[what_if]]")) {
+    WhatIfSpec w = read_what_if(ws, sc.wells);
+    for (const auto& other : sc.what_if)
+      if (other.name == w.name) ws.fail("name", w.name, "a name not used by another [[what_if]]");
+    if (!sc.uncertainty.given)
+      ws.fail("name", w.name, "an [uncertainty] table too: what-if variants come from the probabilistic screen");
+    sc.what_if.push_back(std::move(w));
+  }
   return sc;
 }
 

@@ -20,7 +20,9 @@
 
 #include "core/units/units.hpp"
 #include "core/util/civil_date.hpp"
+#include "scenario/capacity_spec.hpp"
 #include "scenario/catalog_spec.hpp"
+#include "scenario/what_if_spec.hpp"
 #include "scenario/region.hpp"
 #include "scenario/uncertainty.hpp"
 #include "scenario/unset.hpp"
@@ -78,6 +80,8 @@ struct ResolvedScenario {
   std::vector<std::filesystem::path> inputs;  // every file read (for the manifest hashes)
   std::optional<CatalogSpec> catalog;           // [catalog]: the review runs with the screen
   UncertaintySpec uncertainty;                  // [uncertainty] (given = false: deterministic only)
+  std::optional<CapacitySpec> capacity;         // [capacity]: the group's allowable rate (needs [uncertainty])
+  std::vector<WhatIfSpec> what_if;              // [[what_if]]: rate changes (need [uncertainty])
 };
 
 // Loads and resolves a scenario. `file` is the display name (defaults to the path as given).

@@ -7,6 +7,8 @@
 #include "core/screen/tracking_grid.hpp"
 #include "core/stats/wilson_interval.hpp"
 #include "core/util/civil_date.hpp"
+#include "screening/capacity_split.hpp"
+#include "screening/what_if_split.hpp"
 
 namespace slipscreen::screening {
 namespace {
@@ -164,6 +166,8 @@ ProbabilisticRun run_probabilistic_screen(const scenario::ResolvedScenario& s, c
   set.attribute_median = s.output.tables;  // written to median_well_shares.csv
   set.audit_realizations = std::move(audit_realizations);
   set.audit_segments = std::move(audit_segments);
+  if (s.capacity) set.capacity = capacity_split(s, wells, run.tracked_times);
+  for (const auto& w : s.what_if) set.what_if.push_back(what_if_split(w, p, wells));
   run.result = probabilistic::run_probabilistic(model, wells, segments, set, split);
   run.wells = std::move(wells);
   run.segments = std::move(segments);

@@ -11,6 +11,8 @@
 #include "core/geomech/coulomb.hpp"
 #include "core/screen/deterministic_screen.hpp"
 #include "scenario/scenario.hpp"
+#include "screening/capacity.hpp"
+#include "screening/what_if.hpp"
 #include "screening/catalog_review.hpp"
 #include "screening/prepare.hpp"
 #include "screening/probabilistic_screen.hpp"
@@ -58,6 +60,8 @@ struct RunSummary {
   std::string last_date;
   std::optional<ProbabilisticSummary> probabilistic;  // when the scenario has [uncertainty]
   std::shared_ptr<const CatalogReview> catalog;       // when the scenario has [catalog]
+  std::shared_ptr<const CapacityResult> capacity;     // when the scenario has [capacity]
+  std::shared_ptr<const WhatIfResult> what_if;        // when the scenario has [[what_if]]
 };
 
 // The summary of the screens' results (folder and files are left to the caller).

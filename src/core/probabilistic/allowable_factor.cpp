@@ -15,7 +15,8 @@ constexpr double kInf = std::numeric_limits<double>::infinity();
 // Whether `count` slips of N keep the bound at or below the threshold.
 bool within(std::uint64_t count, std::uint64_t n, double threshold, ProbabilityBound bound, double z) {
   if (bound == ProbabilityBound::point_estimate) return static_cast<double>(count) / static_cast<double>(n) <= threshold;
-  return stats::wilson_interval(count, n, z).upper <= threshold;
+  const auto ci = stats::wilson_interval(count, n, z);
+  return (bound == ProbabilityBound::wilson_upper ? ci.upper : ci.lower) <= threshold;
 }
 }  // namespace
 

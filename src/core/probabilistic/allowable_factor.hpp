@@ -45,7 +45,9 @@ class SlipFactorCurve {
   std::uint64_t n_ = 0;
 };
 
-enum class ProbabilityBound { point_estimate, wilson_upper };
+// Which value of P(slip by T | f) the threshold applies to: the point estimate, or the upper or
+// lower end of its Wilson interval (both increase with the count, as the estimate does).
+enum class ProbabilityBound { point_estimate, wilson_upper, wilson_lower };
 
 // The factor at which the segment's P(slip by T | f) (its point estimate, or the upper end of its
 // Wilson interval with normal quantile z) first exceeds `threshold`: P stays at or below it for

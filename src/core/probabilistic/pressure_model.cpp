@@ -12,12 +12,25 @@ namespace {
 
 // Rate groups, sources (wells and images) and the smallest well radius.
 double add_sources(const std::vector<WellInput>& wells, const RunSettings& settings, const InputList& list,
-                   PressureModel& m) {
+                   const std::vector<char>* apart, PressureModel& m) {
   for (const auto& w : wells) m.steps.push_back(w.steps);
   m.group_of.assign(wells.size(), 0);
   m.groups = 1;
+  m.group_apart.assign(1, 0);
   for (std::size_t w = 0; w < wells.size(); ++w)
-    if (list.well_rate[w] != InputList::npos) m.group_of[w] = m.groups++;
+    if (list.well_rate[w] != InputList::npos) {
+      m.group_of[w] = m.groups++;
+      m.group_apart.push_back(apart && (*apart)[w]);
+    }
+  std::size_t apart_global = 0;  // the group of the apart wells with the global factor only
+  for (std::size_t w = 0; w < wells.size(); ++w)
+    if (apart && (*apart)[w] && list.well_rate[w] == InputList::npos) {
+      if (apart_global == 0) {
+        apart_global = m.groups++;
+        m.group_apart.push_back(1);
+      }
+      m.group_of[w] = apart_global;
+    }
   m.first_source.assign(wells.size() + 1, 0);
   double rw_min = std::numeric_limits<double>::infinity();
   for (std::size_t w = 0; w < wells.size(); ++w) {
@@ -36,8 +49,9 @@ Eigen::MatrixXd rate_factors(const PressureModel& m, const InputList& list, cons
   Eigen::MatrixXd factor(static_cast<Eigen::Index>(m.groups), n);
   for (Eigen::Index c = 0; c < n; ++c) {
     factor(0, c) = xv(static_cast<Eigen::Index>(list.rate), c);
+    for (std::size_t g = 1; g < m.groups; ++g) factor(static_cast<Eigen::Index>(g), c) = factor(0, c);
     for (std::size_t w = 0; w < m.group_of.size(); ++w)
-      if (m.group_of[w] > 0)
+      if (list.well_rate[w] != InputList::npos)
         factor(static_cast<Eigen::Index>(m.group_of[w]), c) =
             factor(0, c) * xv(static_cast<Eigen::Index>(list.well_rate[w]), c);
   }
@@ -47,11 +61,12 @@ Eigen::MatrixXd rate_factors(const PressureModel& m, const InputList& list, cons
 }  // namespace
 
 PressureModel build_pressure_model(const std::vector<WellInput>& wells, const std::vector<SegmentInput>& segments,
-                                   const RunSettings& settings, const InputList& list, const SampledRealizations& r) {
+                                   const RunSettings& settings, const InputList& list, const SampledRealizations& r,
+                                   const std::vector<char>* apart) {
   PressureModel m;
   m.diffusivity_min = *std::min_element(r.diffusivity.begin(), r.diffusivity.end());
   m.diffusivity_max = *std::max_element(r.diffusivity.begin(), r.diffusivity.end());
-  const double rw_min = add_sources(wells, settings, list, m);
+  const double rw_min = add_sources(wells, settings, list, apart, m);
   std::vector<hydro::ObservationPoint> points;
   m.segment_points.resize(segments.size());
   double r2_max = 0.0;

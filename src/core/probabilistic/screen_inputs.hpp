@@ -86,6 +86,19 @@ struct SegmentInput {
   std::size_t fault = 0;           // index of the parent fault
 };
 
+// A group of wells whose rates are scaled together (the allowable rate, group_factors.hpp): the
+// run's wells as split for it (a well scaled only after a date becomes two wells at the same
+// place, the part before the date and the part after), each with the run's well whose sampled
+// rate factor it shares, and whether it is in the group.
+struct GroupSplit {
+  std::vector<WellInput> wells;
+  std::vector<std::size_t> origin;   // per split well: index into the run's wells
+  std::vector<char> in_group;        // per split well
+  std::size_t horizon = 0;           // tracking index of T (P(slip by T | f))
+  double f_max = 10.0;               // factors resolved exactly up to here
+  double factor = 1.0;               // a what-if variant's factor on the group's rates
+};
+
 struct RunSettings {
   std::uint64_t seed = 1;
   std::uint64_t realizations = 1000;
@@ -109,6 +122,10 @@ struct RunSettings {
   std::vector<std::size_t> audit_segments;
   // Well attribution of every segment's median Δp at every output time (SegmentResult::median).
   bool attribute_median = true;
+  // The allowable rate of a group of wells (ProbabilisticResult::capacity), when given.
+  std::optional<GroupSplit> capacity;
+  // What-if variants (ProbabilisticResult::what_if): each group's rates times its factor.
+  std::vector<GroupSplit> what_if;
 };
 
 // The sampled inputs in sampler order; each slot remembers where a model input sits.

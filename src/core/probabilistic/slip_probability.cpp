@@ -10,6 +10,7 @@
 #include <utility>
 
 #include "core/errors.hpp"
+#include "core/probabilistic/group_factors.hpp"
 #include "core/probabilistic/pressure_model.hpp"
 #include "core/probabilistic/probability_maps.hpp"
 #include "core/probabilistic/realization_sampler.hpp"
@@ -304,6 +305,44 @@ bool merge_split(const Tracking& tr, const RealizationSplit& split, Probabilisti
   return true;
 }
 
+// The group's curves: the pressure model of the split wells with the group apart, each split
+// well taking the sampled rate factor of its origin (the same realizations as the screen's).
+// When no well is split and every group well has a rate group of its own already (its own rate
+// factor), the screen's model serves as it is.
+std::vector<SlipFactorCurve> capacity_curves(const GroupSplit& g, const PressureModel& screen_pm,
+                                             const std::vector<SegmentInput>& segments, const RunSettings& settings,
+                                             const InputList& list, const SampledRealizations& r) {
+  if (g.origin.size() != g.wells.size() || g.in_group.size() != g.wells.size())
+    throw InputError("capacity group", std::to_string(g.wells.size()) + " wells", "an origin and a flag per split well");
+  bool reuse = g.wells.size() == screen_pm.group_of.size();
+  for (std::size_t w = 0; reuse && w < g.wells.size(); ++w)
+    reuse = g.origin[w] == w && (!g.in_group[w] || list.well_rate[w] != InputList::npos);
+  if (reuse) {
+    std::vector<char> apart(screen_pm.groups, 0);
+    for (std::size_t w = 0; w < g.wells.size(); ++w)
+      if (g.in_group[w]) apart[screen_pm.group_of[w]] = 1;
+    return group_factor_curves(screen_pm, apart, r.dp_crit, g.horizon, g.f_max);
+  }
+  InputList split = list;
+  split.well_rate.clear();
+  for (std::size_t o : g.origin) split.well_rate.push_back(list.well_rate.at(o));
+  const PressureModel pm = build_pressure_model(g.wells, segments, settings, split, r, &g.in_group);
+  return group_factor_curves(pm, pm.group_apart, r.dp_crit, g.horizon, g.f_max);
+}
+
+// A what-if variant: the pressure model of its split wells with its group apart.
+std::vector<std::vector<std::uint64_t>> variant_slips(const GroupSplit& g, const std::vector<SegmentInput>& segments,
+                                                      const RunSettings& settings, const InputList& list,
+                                                      const SampledRealizations& r) {
+  if (g.origin.size() != g.wells.size() || g.in_group.size() != g.wells.size())
+    throw InputError("what-if group", std::to_string(g.wells.size()) + " wells", "an origin and a flag per split well");
+  InputList split = list;
+  split.well_rate.clear();
+  for (std::size_t o : g.origin) split.well_rate.push_back(list.well_rate.at(o));
+  const PressureModel pm = build_pressure_model(g.wells, segments, settings, split, r, &g.in_group);
+  return group_variant_slips(pm, pm.group_apart, r.dp_crit, settings.output_index, g.factor);
+}
+
 }  // namespace
 
 std::vector<std::uint64_t> slipped_by_tracking(const SegmentResult& segment) {
@@ -366,12 +405,23 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
   out.diffusivity_min = pm.diffusivity_min;
   out.diffusivity_max = pm.diffusivity_max;
   out.surrogate_error = pm.surrogate->max_relative_error();
+  // The allowable rate and the what-if variants are not split yet: part 0 computes them over every
+  // realization (each part samples them all and builds the same model), so they equal the unsplit
+  // run's (docs/cluster.md, "Not done yet").
+  const auto decision_answers = [&] {
+    if (settings.capacity) out.capacity = capacity_curves(*settings.capacity, pm, segments, settings, list, r);
+    for (const auto& v : settings.what_if) out.what_if.push_back(variant_slips(v, segments, settings, list, r));
+  };
   const Tracking tr = prepare_tracking(wells, segments, settings, r, pm);
   if (split_run) {
-    if (!merge_split(tr, *split, out)) out.merged_elsewhere = true;
+    if (!merge_split(tr, *split, out))
+      out.merged_elsewhere = true;
+    else
+      decision_answers();
     return out;
   }
   track_segments(tr, out);
+  decision_answers();
 
   ProbabilityMaps maps = probability_maps(pm, r, settings);
   out.map_dangerous = std::move(maps.dangerous);

@@ -22,6 +22,7 @@
 #include <vector>
 
 #include "core/probabilistic/realization_split.hpp"
+#include "core/probabilistic/allowable_factor.hpp"
 #include "core/probabilistic/screen_inputs.hpp"
 #include "core/stats/quantile_sketch.hpp"
 #include "core/stats/sampler.hpp"
@@ -102,6 +103,12 @@ struct ProbabilisticResult {
   // A split run's part other than 0: its block was sent to part 0 (RealizationSplit); only the
   // run-level fields above `segments` are set.
   bool merged_elsewhere = false;
+  // Per segment, P(slip by T | f) of RunSettings::capacity's group (group_factors.hpp); empty
+  // unless asked for.
+  std::vector<SlipFactorCurve> capacity;
+  // Per RunSettings::what_if variant, per segment, per output time: injection-induced slips by
+  // then with the variant's rates (group_factors.hpp), on the same realizations.
+  std::vector<std::vector<std::vector<std::uint64_t>>> what_if;
 };
 
 // The plain method for one audited pair: every E1 term of every well, image and rate step is
