@@ -9,6 +9,7 @@
 #include "core/caution.hpp"
 #include "core/errors.hpp"
 #include "core/util/suggest.hpp"
+#include "run/mpi_cluster.hpp"
 #include "slipscreen/version.hpp"
 
 namespace slipscreen::cli {
@@ -96,16 +97,30 @@ int run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
     return code == 0 ? kExitOk : kExitUsage;
   }
   if (!ctx.action) return kExitUsage;
+  // Under mpirun every rank gets here; rank 0 alone prints, and every rank ends with rank 0's
+  // exit code (run/mpi_cluster.hpp, docs/cluster.md).
+  int code = kExitOk, category = run::kClusterOk;
+  std::string message;
   try {
-    return ctx.action();
+    const auto subs = app.get_subcommands();
+    if (run::cluster_ranks() > 1 && (subs.empty() || subs.front()->get_name() != "run"))
+      throw RefusedError("only 'run' splits its work across MPI ranks (docs/cluster.md); start '" +
+                         (subs.empty() ? std::string("this command") : subs.front()->get_name()) + "' without mpirun");
+    code = ctx.action();
   } catch (const Error& e) {
-    err << "slipscreen: error: " << e.what() << "\n";
-    return exit_code_for(e.category());
+    message = e.what();
+    category = static_cast<int>(e.category());
+    code = exit_code_for(e.category());
+    if (run::cluster_rank() == 0) err << "slipscreen: error: " << e.what() << "\n";
   } catch (const std::exception& e) {
-    err << "slipscreen: internal error: " << e.what()
-        << "\n(please report this with the command line that caused it)\n";
-    return kExitInternal;
+    message = e.what();
+    category = run::kClusterInternal;
+    code = kExitInternal;
+    if (run::cluster_rank() == 0)
+      err << "slipscreen: internal error: " << e.what()
+          << "\n(please report this with the command line that caused it)\n";
   }
+  return run::cluster_finish(code, category, message, err);
 }
 
 }  // namespace slipscreen::cli

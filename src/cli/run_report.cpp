@@ -16,6 +16,7 @@
 #include "outputs/capacity_tables.hpp"
 #include "outputs/what_if_table.hpp"
 #include "outputs/output_units.hpp"
+#include "run/mpi_cluster.hpp"
 #include "run/run_scenario.hpp"
 #include "scenario/scenario.hpp"
 
@@ -222,7 +223,16 @@ int run_and_report(const RunCommandOptions& o, Context& ctx) {
   scenario::ResolvedScenario s = scenario::load_scenario(o.scenario);
   // --units overrides [output] units (CLI11 has checked the name); the manifest records the result.
   if (!o.units.empty()) s.output.units = *units::unit_system_named(o.units);
-  const screening::RunSummary r = run::run_scenario(s, run_options(o, ctx));
+  run::RunOptions ro = run_options(o, ctx);
+  ro.split = run::cluster_split();
+  if (run::cluster_rank() != 0) {  // under mpirun: rank 0 alone reports and writes (docs/cluster.md)
+    ro.notice = nullptr;
+    ro.cost = nullptr;
+    ro.progress = nullptr;
+    run::run_scenario(s, ro);
+    return kExitOk;
+  }
+  const screening::RunSummary r = run::run_scenario(s, ro);
   if (ctx.err_is_terminal) ctx.err << "\r\033[K" << std::flush;
 
   print_deterministic(ctx.out, s, r, o.closest);

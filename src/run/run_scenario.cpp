@@ -69,6 +69,10 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
   };
   stage("reading faults and wells");
   const screening::PreparedRun prepared = screening::prepare_run(s, o.allow_network);
+  if (o.split && o.split->parts > 1 && o.split->part != 0) {  // a helper part: its block only
+    if (s.uncertainty.given) screening::run_probabilistic_screen(s, prepared, s.uncertainty, {}, {}, o.split);
+    return RunSummary{};
+  }
   // Refuse the folder before computing (RunFolder checks again when created and when committed).
   for (const auto& w : s.what_if) screening::what_if_wells(w, prepared);  // refuses a bad entry before computing
   const formats::RunFolderOptions folder_rules = folder_options(s, prepared, o);
@@ -85,7 +89,7 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
   std::optional<screening::ProbabilisticRun> prob;
   if (spec.given) {
     stage("probabilistic screen");
-    prob = screening::run_probabilistic_screen(s, prepared, spec);
+    prob = screening::run_probabilistic_screen(s, prepared, spec, {}, {}, o.split);
   }
   std::shared_ptr<const screening::CapacityResult> capacity;
   if (s.capacity && prob) {

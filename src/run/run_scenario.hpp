@@ -7,6 +7,7 @@
 #include <string>
 #include <vector>
 
+#include "core/probabilistic/realization_split.hpp"
 #include "scenario/scenario.hpp"
 #include "screening/run_cost.hpp"
 #include "screening/run_summary.hpp"
@@ -26,6 +27,10 @@ struct RunOptions {
   // The cost estimate (screening/run_cost.hpp), once the inputs are prepared and before any
   // computing; a run beyond the memory limit is refused before this is called.
   std::function<void(const screening::RunCost& cost, double memory_limit)> cost;
+  // A run split across processes (run/mpi_cluster.hpp, docs/cluster.md): part 0 runs everything
+  // and writes the run folder; every other part reads and checks the inputs, computes its block
+  // of the probabilistic screen, hands it to part 0 and returns an empty summary.
+  const probabilistic::RealizationSplit* split = nullptr;
 };
 
 using screening::RunSummary;

@@ -102,7 +102,8 @@ probabilistic::UncertainModel uncertain_model(const scenario::ResolvedScenario& 
 ProbabilisticRun run_probabilistic_screen(const scenario::ResolvedScenario& s, const PreparedRun& p,
                                           const scenario::UncertaintySpec& spec,
                                           std::vector<std::uint64_t> audit_realizations,
-                                          std::vector<std::size_t> audit_segments) {
+                                          std::vector<std::size_t> audit_segments,
+                                          const probabilistic::RealizationSplit* split) {
   ProbabilisticRun run;
   const auto model = uncertain_model(s, p, spec, run.fault_ids, run.segment_fault);
   run.confidence = spec.confidence;
@@ -167,7 +168,7 @@ ProbabilisticRun run_probabilistic_screen(const scenario::ResolvedScenario& s, c
   set.audit_segments = std::move(audit_segments);
   if (s.capacity) set.capacity = capacity_split(s, wells, run.tracked_times);
   for (const auto& w : s.what_if) set.what_if.push_back(what_if_split(w, p, wells));
-  run.result = probabilistic::run_probabilistic(model, wells, segments, set);
+  run.result = probabilistic::run_probabilistic(model, wells, segments, set, split);
   run.wells = std::move(wells);
   run.segments = std::move(segments);
   run.settings = std::move(set);

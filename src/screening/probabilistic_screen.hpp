@@ -36,10 +36,13 @@ struct ProbabilisticRun {
 // Probability maps cover the output grid, coarsened to at most kMapCells cells.
 // `audit_realizations` × `audit_segments` keep the fast path's per-realization results
 // (ProbabilisticResult::audit) for checks against probabilistic::plain_slip_check.
+// `split`: this process's part of a run split across processes (docs/cluster.md); on parts
+// other than 0 the result holds only the run-level fields (result.merged_elsewhere).
 ProbabilisticRun run_probabilistic_screen(const scenario::ResolvedScenario& s, const PreparedRun& p,
                                           const scenario::UncertaintySpec& spec,
                                           std::vector<std::uint64_t> audit_realizations = {},
-                                          std::vector<std::size_t> audit_segments = {});
+                                          std::vector<std::size_t> audit_segments = {},
+                                          const probabilistic::RealizationSplit* split = nullptr);
 inline constexpr std::size_t kMapCells = 6400;
 // Wells below this share of the median Δp are summed in one row of median_well_shares.csv.
 inline constexpr double kMedianShareMin = 0.01;

@@ -26,7 +26,8 @@ void count_slips(const hydro::PressureSurrogate& surrogate, const PressureDraws&
 
 }  // namespace
 
-ProbabilityMaps probability_maps(const PressureModel& model, const SampledRealizations& r, const RunSettings& settings) {
+ProbabilityMaps probability_maps(const PressureModel& model, const SampledRealizations& r, const RunSettings& settings,
+                                 std::optional<ColumnRange> columns) {
   ProbabilityMaps maps;
   if (settings.map_points.empty()) return maps;
   double r2m = 0.0;
@@ -43,12 +44,16 @@ ProbabilityMaps probability_maps(const PressureModel& model, const SampledRealiz
       grid.ln_x_max > model.grid.ln_x_max ? hydro::build_tables(model.steps, settings.tracking_times, grid) : model.tables;
   const hydro::PressureSurrogate surrogate(tables, model.sources, settings.map_points, model.groups,
                                            model.diffusivity_min, model.diffusivity_max, model.nodes);
-  const PressureDraws draws = make_pressure_draws(surrogate, r.diffusivity, r.prefactor, model.factor);
+  const ColumnRange cols = columns.value_or(ColumnRange{0, r.diffusivity.size()});
+  const auto c0 = static_cast<Eigen::Index>(cols.begin), nc = static_cast<Eigen::Index>(cols.size());
+  const PressureDraws draws =
+      make_pressure_draws(surrogate, std::span(r.diffusivity).subspan(cols.begin, cols.size()),
+                          std::span(r.prefactor).subspan(cols.begin, cols.size()), model.factor.middleCols(c0, nc));
   const bool oriented = settings.map_strike && settings.map_dip;
   for (int which = 0; which < (oriented ? 2 : 1); ++which) {
     auto& counts = which == 0 ? maps.dangerous : maps.oriented;
     auto& already = which == 0 ? maps.dangerous_already_critical : maps.oriented_already_critical;
-    const Eigen::MatrixXf row = r.map_dp_crit.row(which);
+    const Eigen::MatrixXf row = r.map_dp_crit.row(which).segment(c0, nc);
     already = static_cast<std::uint64_t>((row.array() <= 0.0f).count());
     count_slips(surrogate, draws, row, settings, counts);
   }

@@ -15,9 +15,11 @@
 // Symbols: Δp_crit [Pa], D_min [m²/s], r²_max the largest squared pixel–source distance [m²].
 // Accuracy: that of the pressure model (tables and surrogate in D).
 #include <cstdint>
+#include <optional>
 #include <vector>
 
 #include "core/probabilistic/pressure_model.hpp"
+#include "core/probabilistic/realization_split.hpp"
 #include "core/probabilistic/realization_sampler.hpp"
 #include "core/probabilistic/screen_inputs.hpp"
 
@@ -30,7 +32,9 @@ struct ProbabilityMaps {
   std::uint64_t dangerous_already_critical = 0, oriented_already_critical = 0;
 };
 
-// Counts for every pixel of settings.map_points (empty maps when there are none).
-ProbabilityMaps probability_maps(const PressureModel& model, const SampledRealizations& r, const RunSettings& settings);
+// Counts for every pixel of settings.map_points (empty maps when there are none), over the valid
+// realizations in `columns` (nothing: all of them; realization_split.hpp).
+ProbabilityMaps probability_maps(const PressureModel& model, const SampledRealizations& r, const RunSettings& settings,
+                                 std::optional<ColumnRange> columns = std::nullopt);
 
 }  // namespace slipscreen::probabilistic

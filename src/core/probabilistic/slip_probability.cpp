@@ -15,6 +15,7 @@
 #include "core/probabilistic/probability_maps.hpp"
 #include "core/probabilistic/realization_sampler.hpp"
 #include "core/stats/rank_correlation.hpp"
+#include "core/util/parallel_errors.hpp"
 
 namespace slipscreen::probabilistic {
 namespace {
@@ -75,16 +76,17 @@ void add_audit_entries(const Tracking& tr, const SegmentOutcome& o, std::vector<
   }
 }
 
-// Slip counts by output time, the Δp_crit sketch and the counts apart; returns the slip margin
-// Δp_crit − Δp(final output time) of every realization (never critical: the largest double, so
-// that it ranks last and the ranks stay finite).
-std::vector<double> count_slips(const Tracking& tr, const SegmentOutcome& o, SegmentResult& res) {
-  const std::size_t n = tr.r.keep.size(), n_out = tr.settings.output_index.size();
+// Slip counts by output time, the Δp_crit sketch and the counts apart over the outcome's
+// columns (valid realizations c0, c0 + 1, ...); returns the slip margin Δp_crit − Δp(final output
+// time) of every one of them (never critical: the largest double, so that it ranks last and the
+// ranks stay finite).
+std::vector<double> count_slips(const Tracking& tr, const SegmentOutcome& o, std::size_t c0, SegmentPart& res) {
+  const std::size_t n = o.first_crossing.size(), n_out = tr.settings.output_index.size();
   const auto s = static_cast<Eigen::Index>(o.segment);
   std::vector<double> margin(n);
   for (std::size_t c = 0; c < n; ++c) {
     const auto ci = static_cast<Eigen::Index>(c);
-    const double dc = tr.r.dp_crit(s, ci);
+    const double dc = tr.r.dp_crit(s, static_cast<Eigen::Index>(c0 + c));
     margin[c] = dc - o.dp_at_output(static_cast<Eigen::Index>(n_out - 1), ci);
     if (std::isinf(dc)) {
       ++res.never_critical;
@@ -194,13 +196,14 @@ std::vector<double> well_contributions(const Tracking& tr, const hydro::Observat
 
 // The well attribution of the segment's median Δp at every output time (see MedianAttribution).
 std::vector<MedianAttribution> median_attributions(const Tracking& tr, std::size_t segment,
-                                                   const Eigen::MatrixXd& by_time, const SegmentResult& res) {
+                                                   const std::vector<double>& by_time, const SegmentResult& res) {
+  const std::size_t n = tr.r.keep.size();
   std::vector<double> sorted;
   sorted.reserve(tr.r.keep.size());
   std::vector<MedianAttribution> out(tr.settings.output_index.size());
   for (std::size_t t = 0; t < out.size(); ++t) {
     const auto [median, c] =
-        median_realization(by_time.col(static_cast<Eigen::Index>(t)).data(), tr.r.keep.size(), res.dp[t], sorted);
+        median_realization(by_time.data() + t * n, n, res.dp[t], sorted);
     MedianAttribution& m = out[t];
     m.realization = static_cast<std::uint64_t>(tr.r.keep[static_cast<std::size_t>(c)]);
     m.dp = median;
@@ -210,9 +213,10 @@ std::vector<MedianAttribution> median_attributions(const Tracking& tr, std::size
   return out;
 }
 
-SegmentResult segment_result(const Tracking& tr, const SegmentOutcome& o) {
-  const std::size_t n = tr.r.keep.size(), n_out = tr.settings.output_index.size();
-  SegmentResult res;
+// A segment's results over the outcome's columns (valid realizations c0, c0 + 1, ...).
+SegmentPart segment_part(const Tracking& tr, const SegmentOutcome& o, std::size_t c0) {
+  const std::size_t n = o.first_crossing.size(), n_out = tr.settings.output_index.size();
+  SegmentPart res;
   res.slipped_by.assign(n_out, 0);
   res.first_slip.assign(tr.settings.tracking_times.size(), 0);
   res.dp.assign(n_out, stats::QuantileSketch());
@@ -220,9 +224,23 @@ SegmentResult segment_result(const Tracking& tr, const SegmentOutcome& o) {
   const Eigen::MatrixXd by_time = o.dp_at_output.transpose();
   for (std::size_t t = 0; t < n_out; ++t)  // one sketch at a time (its buckets stay in cache)
     for (std::size_t c = 0; c < n; ++c) res.dp[t].add(by_time(static_cast<Eigen::Index>(c), static_cast<Eigen::Index>(t)));
-  const std::vector<double> margin = count_slips(tr, o, res);
-  res.sensitivity = sensitivities(tr, o.segment, margin);
-  if (tr.settings.attribute_median) res.median = median_attributions(tr, o.segment, by_time, res);
+  res.margin = count_slips(tr, o, c0, res);
+  if (tr.settings.attribute_median) res.dp_by_time.assign(by_time.data(), by_time.data() + by_time.size());
+  return res;
+}
+
+// The segment's results from its part over every valid realization: the counts, then the
+// sensitivities and the median attribution, which need every realization.
+SegmentResult finish_segment(const Tracking& tr, std::size_t segment, SegmentPart&& part) {
+  SegmentResult res;
+  res.slipped_by = std::move(part.slipped_by);
+  res.first_slip = std::move(part.first_slip);
+  res.already_critical = part.already_critical;
+  res.never_critical = part.never_critical;
+  res.dp_crit = std::move(part.dp_crit);
+  res.dp = std::move(part.dp);
+  res.sensitivity = sensitivities(tr, segment, part.margin);
+  if (tr.settings.attribute_median) res.median = median_attributions(tr, segment, part.dp_by_time, res);
   return res;
 }
 
@@ -235,13 +253,56 @@ void track_segments(const Tracking& tr, ProbabilisticResult& out) {
   track_slip(*tr.pm.surrogate, tr.pm.segment_points, tr.pm.draws, tr.r.dp_crit, tr.settings.output_index,
              [&](const SegmentOutcome& o) {
                add_audit_entries(tr, o, audit_by_segment[o.segment]);
-               out.segments[o.segment] = segment_result(tr, o);
+               out.segments[o.segment] = finish_segment(tr, o.segment, segment_part(tr, o, 0));
              });
   for (auto& v : audit_by_segment)
     for (auto& a : v) out.audit.push_back(std::move(a));
   std::sort(out.audit.begin(), out.audit.end(), [](const AuditEntry& a, const AuditEntry& b) {
     return std::make_pair(a.realization, a.segment) < std::make_pair(b.realization, b.segment);
   });
+}
+
+// This part's block of valid realizations: segment parts and map counts.
+PartialResult track_part(const Tracking& tr, ColumnRange cols) {
+  PartialResult p;
+  p.columns = cols;
+  p.segments.resize(tr.segments.size());
+  const auto c0 = static_cast<Eigen::Index>(cols.begin), nc = static_cast<Eigen::Index>(cols.size());
+  const PressureDraws draws{tr.pm.draws.basis.middleCols(c0, nc), tr.pm.draws.scale.middleCols(c0, nc)};
+  const Eigen::MatrixXf crit = tr.r.dp_crit.middleCols(c0, nc);
+  track_slip(*tr.pm.surrogate, tr.pm.segment_points, draws, crit, tr.settings.output_index,
+             [&](const SegmentOutcome& o) { p.segments[o.segment] = segment_part(tr, o, cols.begin); });
+  ProbabilityMaps maps = probability_maps(tr.pm, tr.r, tr.settings, cols);
+  p.map_dangerous = std::move(maps.dangerous);
+  p.map_oriented = std::move(maps.oriented);
+  p.map_dangerous_already_critical = maps.dangerous_already_critical;
+  p.map_oriented_already_critical = maps.oriented_already_critical;
+  return p;
+}
+
+// Tracks this part's block and hands it to split.gather; on part 0, merges every part and fills
+// out's segments and maps as the unsplit run does (returns true), elsewhere returns false.
+bool merge_split(const Tracking& tr, const RealizationSplit& split, ProbabilisticResult& out) {
+  auto all = split.gather(encode_partial(track_part(tr, split_columns(tr.r.keep.size(), split.part, split.parts))));
+  if (!all) return false;
+  if (all->size() != split.parts)
+    throw InputError("partial results", std::to_string(all->size()), std::to_string(split.parts) + ", one per part");
+  std::vector<PartialResult> parts;
+  for (const auto& b : *all) parts.push_back(decode_partial(b));
+  PartialResult m = merge_partials(std::move(parts));
+  if (m.columns.end != tr.r.keep.size())
+    throw InputError("merged columns", std::to_string(m.columns.end), std::to_string(tr.r.keep.size()) + " valid realizations");
+  out.segments.resize(m.segments.size());
+  util::ParallelErrors errors;
+#pragma omp parallel for schedule(dynamic, 1)
+  for (std::size_t s = 0; s < m.segments.size(); ++s)
+    errors.iteration(s, [&] { out.segments[s] = finish_segment(tr, s, std::move(m.segments[s])); });
+  errors.rethrow();
+  out.map_dangerous = std::move(m.map_dangerous);
+  out.map_oriented = std::move(m.map_oriented);
+  out.map_dangerous_already_critical = m.map_dangerous_already_critical;
+  out.map_oriented_already_critical = m.map_oriented_already_critical;
+  return true;
 }
 
 // The group's curves: the pressure model of the split wells with the group apart, each split
@@ -310,13 +371,21 @@ double MedianAttribution::share(std::size_t w) const {
 }
 
 ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::vector<WellInput>& wells,
-                                      const std::vector<SegmentInput>& segments, const RunSettings& settings) {
+                                      const std::vector<SegmentInput>& segments, const RunSettings& settings,
+                                      const RealizationSplit* split) {
   const stats::RealizationCount count(static_cast<std::int64_t>(settings.realizations), "realizations");
   if (wells.empty()) throw InputError("wells", "(none)", "at least one well with an injection history");
   if (segments.empty()) throw InputError("fault segments", "(none)", "at least one fault segment");
   if (settings.tracking_times.empty() || settings.output_index.empty())
     throw InputError("output times", "(none)", "at least one output time on the tracking grid");
   if (!(model.depth > 0.0)) throw InputError("reference depth", std::to_string(model.depth), "a depth > 0 m");
+  const bool split_run = split && split->parts > 1;
+  if (split_run && (!split->gather || split->part >= split->parts))
+    throw InputError("realization split", std::to_string(split->part) + " of " + std::to_string(split->parts),
+                     "a part below the part count and a gather function");
+  if (split_run && !settings.audit_realizations.empty())
+    throw InputError("audit realizations", std::to_string(settings.audit_realizations.size()),
+                     "none in a run split across processes");
   std::size_t fault_count = 0;
   for (const auto& s : segments) {
     if (s.check_points.empty()) throw InputError("segment check points", "0", "at least one check point per segment");
@@ -336,9 +405,23 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
   out.diffusivity_min = pm.diffusivity_min;
   out.diffusivity_max = pm.diffusivity_max;
   out.surrogate_error = pm.surrogate->max_relative_error();
-  track_segments(prepare_tracking(wells, segments, settings, r, pm), out);
-  if (settings.capacity) out.capacity = capacity_curves(*settings.capacity, pm, segments, settings, list, r);
-  for (const auto& v : settings.what_if) out.what_if.push_back(variant_slips(v, segments, settings, list, r));
+  // The allowable rate and the what-if variants are not split yet: part 0 computes them over every
+  // realization (each part samples them all and builds the same model), so they equal the unsplit
+  // run's (docs/cluster.md, "Not done yet").
+  const auto decision_answers = [&] {
+    if (settings.capacity) out.capacity = capacity_curves(*settings.capacity, pm, segments, settings, list, r);
+    for (const auto& v : settings.what_if) out.what_if.push_back(variant_slips(v, segments, settings, list, r));
+  };
+  const Tracking tr = prepare_tracking(wells, segments, settings, r, pm);
+  if (split_run) {
+    if (!merge_split(tr, *split, out))
+      out.merged_elsewhere = true;
+    else
+      decision_answers();
+    return out;
+  }
+  track_segments(tr, out);
+  decision_answers();
 
   ProbabilityMaps maps = probability_maps(pm, r, settings);
   out.map_dangerous = std::move(maps.dangerous);

@@ -21,6 +21,7 @@
 #include <string>
 #include <vector>
 
+#include "core/probabilistic/realization_split.hpp"
 #include "core/probabilistic/allowable_factor.hpp"
 #include "core/probabilistic/screen_inputs.hpp"
 #include "core/stats/quantile_sketch.hpp"
@@ -99,6 +100,9 @@ struct ProbabilisticResult {
   double surrogate_error = 0.0;           // estimated relative interpolation error in D
   stats::SamplerDescriptor sampler;
   std::vector<AuditEntry> audit;          // valid audited pairs, in (realization, segment) order
+  // A split run's part other than 0: its block was sent to part 0 (RealizationSplit); only the
+  // run-level fields above `segments` are set.
+  bool merged_elsewhere = false;
   // Per segment, P(slip by T | f) of RunSettings::capacity's group (group_factors.hpp); empty
   // unless asked for.
   std::vector<SlipFactorCurve> capacity;
@@ -115,7 +119,11 @@ AuditEntry plain_slip_check(const AuditEntry& fast, const std::vector<WellInput>
                             const std::vector<SegmentInput>& segments, const RunSettings& settings);
 
 // Runs the probabilistic screen. Throws InputError for inconsistent inputs (naming the field).
+// With `split` (more than one part), tracks only this part's block of the valid realizations and
+// merges on part 0 (realization_split.hpp); part 0's result is identical to the unsplit one.
+// A split run keeps no audit (settings.audit_realizations must be empty).
 ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::vector<WellInput>& wells,
-                                      const std::vector<SegmentInput>& segments, const RunSettings& settings);
+                                      const std::vector<SegmentInput>& segments, const RunSettings& settings,
+                                      const RealizationSplit* split = nullptr);
 
 }  // namespace slipscreen::probabilistic

@@ -36,21 +36,7 @@ struct Case {
   Case() {
     model = test::strike_slip_model();
     model.friction = Distribution::fixed(0.6);
-    WellInput w;
-    w.id = "W1";
-    w.steps.time = {0.0, 6 * 365 * kDay};
-    w.steps.delta_rate = {0.05, -0.05};
-    wells.push_back(w);
-    for (double r : {1500.0, 4000.0, 12000.0}) {
-      SegmentInput s;
-      s.check_points = {{r, -200.0}, {r, 0.0}, {r, 200.0}};
-      s.strike = 15 * kDeg;  // near-optimal for SHmax at 45° and μ = 0.6 (about 30° away)
-      s.dip = 80 * kDeg;
-      s.fault = segments.size();
-      segments.push_back(s);
-    }
-    for (int m = 1; m <= 120; ++m) settings.tracking_times.push_back(m * 30 * kDay);
-    settings.output_index = {11, 35, 71, 119};
+    test::three_segment_layout(wells, segments, settings);
     settings.realizations = 1;
     settings.method = stats::SamplingMethod::monte_carlo;
   }

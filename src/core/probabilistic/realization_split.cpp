@@ -1,0 +1,203 @@
+// Splitting the realizations across processes; see realization_split.hpp.
+#include "core/probabilistic/realization_split.hpp"
+
+#include <bit>
+#include <cstring>
+#include <string>
+
+#include "core/errors.hpp"
+
+namespace slipscreen::probabilistic {
+namespace {
+
+constexpr std::uint64_t kMagic = 0x736c697073706c31ULL;  // "slipspl1": this encoding's version
+
+class Writer {
+ public:
+  void word(std::uint64_t w) { words_.push_back(w); }
+  void words(std::span<const std::uint64_t> v) {
+    word(v.size());
+    words_.insert(words_.end(), v.begin(), v.end());
+  }
+  void doubles(std::span<const double> v) {
+    word(v.size());
+    for (double d : v) word(std::bit_cast<std::uint64_t>(d));
+  }
+  void sketch(const stats::QuantileSketch& s) { words(s.encode()); }
+  std::vector<std::uint8_t> bytes() const {
+    std::vector<std::uint8_t> b(words_.size() * sizeof(std::uint64_t));
+    if (!b.empty()) std::memcpy(b.data(), words_.data(), b.size());
+    return b;
+  }
+
+ private:
+  std::vector<std::uint64_t> words_;
+};
+
+class Reader {
+ public:
+  explicit Reader(std::span<const std::uint8_t> bytes) {
+    if (bytes.size() % sizeof(std::uint64_t) != 0) fail(std::to_string(bytes.size()) + " bytes");
+    words_.resize(bytes.size() / sizeof(std::uint64_t));
+    if (!bytes.empty()) std::memcpy(words_.data(), bytes.data(), bytes.size());
+  }
+  std::uint64_t word() {
+    if (at_ >= words_.size()) fail("truncated at word " + std::to_string(at_));
+    return words_[at_++];
+  }
+  std::size_t count() {
+    const std::uint64_t n = word();
+    if (n > words_.size() - at_) fail("a length of " + std::to_string(n) + " beyond the buffer");
+    return static_cast<std::size_t>(n);
+  }
+  std::vector<std::uint64_t> words() {
+    const std::size_t n = count();
+    std::vector<std::uint64_t> v(words_.begin() + static_cast<std::ptrdiff_t>(at_),
+                                 words_.begin() + static_cast<std::ptrdiff_t>(at_ + n));
+    at_ += n;
+    return v;
+  }
+  std::vector<double> doubles() {
+    std::vector<double> v;
+    for (std::uint64_t w : words()) v.push_back(std::bit_cast<double>(w));
+    return v;
+  }
+  stats::QuantileSketch sketch() { return stats::QuantileSketch::decode(words()); }
+  bool done() const { return at_ == words_.size(); }
+  [[noreturn]] static void fail(const std::string& what) {
+    throw InputError("partial result", what, "an encoded block of the probabilistic screen (realization_split.hpp)");
+  }
+
+ private:
+  std::vector<std::uint64_t> words_;
+  std::size_t at_ = 0;
+};
+
+void add_counts(std::vector<std::uint64_t>& into, const std::vector<std::uint64_t>& from, const char* what) {
+  if (into.size() != from.size())
+    throw InputError(what, std::to_string(from.size()) + " entries", std::to_string(into.size()) + " as in part 0");
+  for (std::size_t k = 0; k < into.size(); ++k) into[k] += from[k];
+}
+
+// dp_by_time of `into` (a columns, t-major) followed by `from` (b columns).
+std::vector<double> concat_by_time(const std::vector<double>& a, std::size_t na, const std::vector<double>& b,
+                                   std::size_t nb, std::size_t n_out) {
+  std::vector<double> out;
+  out.reserve(a.size() + b.size());
+  for (std::size_t t = 0; t < n_out; ++t) {
+    out.insert(out.end(), a.begin() + static_cast<std::ptrdiff_t>(t * na),
+               a.begin() + static_cast<std::ptrdiff_t>((t + 1) * na));
+    out.insert(out.end(), b.begin() + static_cast<std::ptrdiff_t>(t * nb),
+               b.begin() + static_cast<std::ptrdiff_t>((t + 1) * nb));
+  }
+  return out;
+}
+
+}  // namespace
+
+ColumnRange split_columns(std::size_t columns, std::size_t part, std::size_t parts) {
+  if (parts == 0 || part >= parts)
+    throw InputError("part", std::to_string(part) + " of " + std::to_string(parts), "a part index below the part count");
+  const std::size_t groups = (columns + kSplitAlign - 1) / kSplitAlign;
+  const auto first_group = [&](std::size_t p) { return groups / parts * p + std::min(p, groups % parts); };
+  const std::size_t b = std::min(columns, first_group(part) * kSplitAlign);
+  const std::size_t e = std::min(columns, first_group(part + 1) * kSplitAlign);
+  return {b, e};
+}
+
+std::vector<std::uint8_t> encode_partial(const PartialResult& p) {
+  Writer w;
+  w.word(kMagic);
+  w.word(p.columns.begin);
+  w.word(p.columns.end);
+  w.word(p.segments.size());
+  for (const auto& s : p.segments) {
+    w.words(s.slipped_by);
+    w.words(s.first_slip);
+    w.word(s.already_critical);
+    w.word(s.never_critical);
+    w.sketch(s.dp_crit);
+    w.word(s.dp.size());
+    for (const auto& d : s.dp) w.sketch(d);
+    w.doubles(s.margin);
+    w.doubles(s.dp_by_time);
+  }
+  w.words(p.map_dangerous);
+  w.words(p.map_oriented);
+  w.word(p.map_dangerous_already_critical);
+  w.word(p.map_oriented_already_critical);
+  return w.bytes();
+}
+
+PartialResult decode_partial(std::span<const std::uint8_t> bytes) {
+  Reader r(bytes);
+  if (r.word() != kMagic) Reader::fail("an unknown header");
+  PartialResult p;
+  p.columns.begin = r.word();
+  p.columns.end = r.word();
+  if (p.columns.end < p.columns.begin) Reader::fail("a column range that ends before it begins");
+  p.segments.resize(r.count());
+  for (auto& s : p.segments) {
+    s.slipped_by = r.words();
+    s.first_slip = r.words();
+    s.already_critical = r.word();
+    s.never_critical = r.word();
+    s.dp_crit = r.sketch();
+    s.dp.resize(r.count());
+    for (auto& d : s.dp) d = r.sketch();
+    s.margin = r.doubles();
+    s.dp_by_time = r.doubles();
+  }
+  p.map_dangerous = r.words();
+  p.map_oriented = r.words();
+  p.map_dangerous_already_critical = r.word();
+  p.map_oriented_already_critical = r.word();
+  if (!r.done()) Reader::fail("words after the end");
+  return p;
+}
+
+PartialResult merge_partials(std::vector<PartialResult> parts) {
+  if (parts.empty()) throw InputError("partial results", "(none)", "at least one part");
+  PartialResult m = std::move(parts.front());
+  if (m.columns.begin != 0) throw InputError("first part's columns", std::to_string(m.columns.begin), "starting at 0");
+  for (std::size_t k = 1; k < parts.size(); ++k) {
+    PartialResult& p = parts[k];
+    if (p.columns.begin != m.columns.end)
+      throw InputError("part " + std::to_string(k) + "'s first column", std::to_string(p.columns.begin),
+                       std::to_string(m.columns.end) + ", the end of the parts before it");
+    if (p.segments.size() != m.segments.size())
+      throw InputError("part " + std::to_string(k) + "'s segments", std::to_string(p.segments.size()),
+                       std::to_string(m.segments.size()) + " as in part 0");
+    const std::size_t na = m.columns.size(), nb = p.columns.size();
+    for (std::size_t i = 0; i < m.segments.size(); ++i) {
+      SegmentPart& a = m.segments[i];
+      SegmentPart& b = p.segments[i];
+      add_counts(a.slipped_by, b.slipped_by, "slip counts");
+      add_counts(a.first_slip, b.first_slip, "first-slip counts");
+      a.already_critical += b.already_critical;
+      a.never_critical += b.never_critical;
+      a.dp_crit.merge(b.dp_crit);
+      if (a.dp.size() != b.dp.size())
+        throw InputError("Δp sketches", std::to_string(b.dp.size()), std::to_string(a.dp.size()) + " as in part 0");
+      for (std::size_t t = 0; t < a.dp.size(); ++t) a.dp[t].merge(b.dp[t]);
+      if (a.margin.size() != na || b.margin.size() != nb)
+        throw InputError("slip margins", std::to_string(b.margin.size()), "one per column of the part");
+      a.margin.insert(a.margin.end(), b.margin.begin(), b.margin.end());
+      const std::size_t n_out = a.dp.size();
+      if (!a.dp_by_time.empty() || !b.dp_by_time.empty()) {
+        if (a.dp_by_time.size() != na * n_out || b.dp_by_time.size() != nb * n_out)
+          throw InputError("Δp by output time", std::to_string(b.dp_by_time.size()),
+                           "one value per column and output time in every part, or none in all");
+        a.dp_by_time = concat_by_time(a.dp_by_time, na, b.dp_by_time, nb, n_out);
+      }
+    }
+    add_counts(m.map_dangerous, p.map_dangerous, "map counts");
+    add_counts(m.map_oriented, p.map_oriented, "oriented map counts");
+    m.map_dangerous_already_critical += p.map_dangerous_already_critical;
+    m.map_oriented_already_critical += p.map_oriented_already_critical;
+    m.columns.end = p.columns.end;
+  }
+  return m;
+}
+
+}  // namespace slipscreen::probabilistic

@@ -1,0 +1,77 @@
+#pragma once
+// Splitting the probabilistic screen's realizations across processes (docs/cluster.md).
+//
+// Every process samples every realization and builds the same pressure model (the surrogate's
+// range in D spans all valid realizations); each then tracks only its block of the valid
+// realizations. A block is a fixed range of columns (valid realizations in index order) whose
+// boundaries are multiples of kSplitAlign, the slip tracker's block of matrix products, so each
+// process evaluates exactly the products of the single-process run. The partial results merge
+// exactly: slip counts are integers, the quantile sketches merge bucket for bucket
+// (stats::QuantileSketch), and the data the sensitivities and the median attribution need
+// (slip margins and Δp at the output times of every realization) are concatenated in column
+// order and finished by part 0 as in the single-process run.
+//
+// No communication happens here (src/core has no I/O): the caller supplies `gather`, which the
+// run layer implements with MPI (run/mpi_cluster.hpp).
+#include <cstddef>
+#include <cstdint>
+#include <functional>
+#include <optional>
+#include <span>
+#include <vector>
+
+#include "core/stats/quantile_sketch.hpp"
+
+namespace slipscreen::probabilistic {
+
+inline constexpr std::size_t kSplitAlign = 256;  // = the slip tracker's kBlock
+
+// Columns [begin, end) of the valid realizations.
+struct ColumnRange {
+  std::size_t begin = 0, end = 0;
+  std::size_t size() const noexcept { return end - begin; }
+  bool operator==(const ColumnRange&) const = default;
+};
+
+// Part `part` of `parts` over `columns` valid realizations: near-equal blocks of whole
+// kSplitAlign groups, in order (later parts may be empty when there are few groups).
+ColumnRange split_columns(std::size_t columns, std::size_t part, std::size_t parts);
+
+// One segment's results over a block of columns.
+struct SegmentPart {
+  std::vector<std::uint64_t> slipped_by, first_slip;
+  std::uint64_t already_critical = 0, never_critical = 0;
+  stats::QuantileSketch dp_crit;
+  std::vector<stats::QuantileSketch> dp;  // per output time
+  std::vector<double> margin;             // per column: Δp_crit − Δp(final output time)
+  std::vector<double> dp_by_time;         // [t · columns + c]; empty unless attribute_median
+  bool operator==(const SegmentPart&) const = default;
+};
+
+struct PartialResult {
+  ColumnRange columns;
+  std::vector<SegmentPart> segments;
+  std::vector<std::uint64_t> map_dangerous, map_oriented;
+  std::uint64_t map_dangerous_already_critical = 0, map_oriented_already_critical = 0;
+  bool operator==(const PartialResult&) const = default;
+};
+
+// Flat encoding for sending between processes; decode_partial(encode_partial(p)) == p.
+// decode_partial throws InputError on a truncated or malformed buffer.
+std::vector<std::uint8_t> encode_partial(const PartialResult& p);
+PartialResult decode_partial(std::span<const std::uint8_t> bytes);
+
+// Merges parts whose column ranges follow each other from column 0 (InputError otherwise, or if
+// their shapes differ): counts summed, sketches merged, margins and Δp concatenated.
+PartialResult merge_partials(std::vector<PartialResult> parts);
+
+// How run_probabilistic splits: this process's part and the exchange. `gather` is called once
+// on every part with its encoded PartialResult; on part 0 it returns every part's bytes in part
+// order, elsewhere nothing (and run_probabilistic then returns only the run-level fields, with
+// ProbabilisticResult::merged_elsewhere set).
+struct RealizationSplit {
+  std::size_t part = 0, parts = 1;
+  std::function<std::optional<std::vector<std::vector<std::uint8_t>>>(std::vector<std::uint8_t>)> gather;
+};
+
+}  // namespace slipscreen::probabilistic

@@ -1,0 +1,188 @@
+// Running across MPI processes; see mpi_cluster.hpp.
+#include "run/mpi_cluster.hpp"
+
+#include <chrono>
+#include <cstdint>
+#include <cstring>
+#include <optional>
+#include <ostream>
+#include <stdexcept>
+#include <thread>
+#include <vector>
+
+#include "core/errors.hpp"
+
+#ifdef SLIPSCREEN_MPI
+#include <mpi.h>
+#endif
+
+namespace slipscreen::run {
+namespace {
+
+struct State {
+  bool active = false;  // inside a session with more than one rank
+  int rank = 0, ranks = 1;
+  bool sent = false;                // a rank > 0: its one message has gone to the root
+  std::vector<char> received;       // the root: per rank, its message has arrived
+  probabilistic::RealizationSplit split;
+};
+
+State& state() {
+  static State s;
+  return s;
+}
+
+#ifdef SLIPSCREEN_MPI
+
+enum Kind : std::int64_t { kPart = 1, kDone = 2, kFailed = 3 };
+constexpr int kTagMessage = 41, kTagCode = 42;
+constexpr auto kPoll = std::chrono::milliseconds(2);
+
+// A message: kind, exit code, category, message length, then the message and the payload.
+std::vector<std::uint8_t> message(Kind kind, int code, int category, const std::string& text,
+                                  const std::vector<std::uint8_t>& payload = {}) {
+  const std::int64_t head[4] = {kind, code, category, static_cast<std::int64_t>(text.size())};
+  std::vector<std::uint8_t> m(sizeof head + text.size() + payload.size());
+  std::memcpy(m.data(), head, sizeof head);
+  std::memcpy(m.data() + sizeof head, text.data(), text.size());
+  if (!payload.empty()) std::memcpy(m.data() + sizeof head + text.size(), payload.data(), payload.size());
+  return m;
+}
+
+struct Message {
+  Kind kind = kDone;
+  int code = 0, category = kClusterOk;
+  std::string text;
+  std::vector<std::uint8_t> payload;
+};
+
+void check(int rc, const char* what) {
+  if (rc != MPI_SUCCESS) throw IoError(std::string("MPI: ") + what + " failed (code " + std::to_string(rc) + ")");
+}
+
+void send(const std::vector<std::uint8_t>& m) {
+  if (m.size() > static_cast<std::size_t>(INT32_MAX))
+    throw IoError("MPI: a block of " + std::to_string(m.size()) +
+                  " bytes exceeds the 2 GiB of one message (docs/cluster.md); use more ranks");
+  check(MPI_Send(m.data(), static_cast<int>(m.size()), MPI_BYTE, 0, kTagMessage, MPI_COMM_WORLD), "MPI_Send");
+}
+
+// Waits (polling, with sleeps) for rank `from`'s one message.
+Message receive(int from) {
+  MPI_Status st;
+  int ready = 0;
+  for (;;) {
+    check(MPI_Iprobe(from, kTagMessage, MPI_COMM_WORLD, &ready, &st), "MPI_Iprobe");
+    if (ready) break;
+    std::this_thread::sleep_for(kPoll);
+  }
+  int n = 0;
+  check(MPI_Get_count(&st, MPI_BYTE, &n), "MPI_Get_count");
+  std::vector<std::uint8_t> m(static_cast<std::size_t>(n));
+  check(MPI_Recv(m.data(), n, MPI_BYTE, from, kTagMessage, MPI_COMM_WORLD, MPI_STATUS_IGNORE), "MPI_Recv");
+  std::int64_t head[4];
+  if (m.size() < sizeof head) throw IoError("MPI: a message of " + std::to_string(m.size()) + " bytes from rank " + std::to_string(from));
+  std::memcpy(head, m.data(), sizeof head);
+  Message r;
+  r.kind = static_cast<Kind>(head[0]);
+  r.code = static_cast<int>(head[1]);
+  r.category = static_cast<int>(head[2]);
+  const auto len = static_cast<std::size_t>(head[3]);
+  r.text.assign(reinterpret_cast<const char*>(m.data()) + sizeof head, len);
+  r.payload.assign(m.begin() + static_cast<std::ptrdiff_t>(sizeof head + len), m.end());
+  state().received[static_cast<std::size_t>(from)] = 1;
+  return r;
+}
+
+// The error a rank reported, rethrown on the root with its category.
+[[noreturn]] void rethrow(int rank, const Message& m) {
+  const std::string text = "rank " + std::to_string(rank) + ": " + m.text;
+  switch (m.category) {
+    case static_cast<int>(ErrorCategory::input): throw Error(ErrorCategory::input, text);
+    case static_cast<int>(ErrorCategory::io): throw Error(ErrorCategory::io, text);
+    case static_cast<int>(ErrorCategory::refused): throw Error(ErrorCategory::refused, text);
+    case static_cast<int>(ErrorCategory::numerical): throw Error(ErrorCategory::numerical, text);
+    default: throw std::runtime_error(text);
+  }
+}
+
+std::optional<std::vector<std::vector<std::uint8_t>>> gather(std::vector<std::uint8_t> mine) {
+  State& s = state();
+  if (s.rank != 0) {
+    send(message(kPart, 0, kClusterOk, "", mine));
+    s.sent = true;
+    return std::nullopt;
+  }
+  std::vector<std::vector<std::uint8_t>> all;
+  all.push_back(std::move(mine));
+  std::optional<std::pair<int, Message>> failed;
+  for (int r = 1; r < s.ranks; ++r) {
+    Message m = receive(r);
+    if (m.kind == kPart) all.push_back(std::move(m.payload));
+    else if (!failed) failed.emplace(r, std::move(m));
+  }
+  if (failed) rethrow(failed->first, failed->second);
+  return all;
+}
+
+#endif
+
+}  // namespace
+
+#ifdef SLIPSCREEN_MPI
+
+ClusterSession::ClusterSession(int* argc, char*** argv) {
+  int provided = 0;
+  if (MPI_Init_thread(argc, argv, MPI_THREAD_FUNNELED, &provided) != MPI_SUCCESS) return;
+  State& s = state();
+  MPI_Comm_rank(MPI_COMM_WORLD, &s.rank);
+  MPI_Comm_size(MPI_COMM_WORLD, &s.ranks);
+  s.active = s.ranks > 1;
+  s.received.assign(static_cast<std::size_t>(s.ranks), 0);
+  s.split.part = static_cast<std::size_t>(s.rank);
+  s.split.parts = static_cast<std::size_t>(s.ranks);
+  s.split.gather = gather;
+}
+
+ClusterSession::~ClusterSession() { MPI_Finalize(); }
+
+bool built_with_mpi() { return true; }
+
+int cluster_finish(int code, int category, const std::string& text, std::ostream& err) {
+  State& s = state();
+  if (!s.active) return code;
+  if (s.rank != 0) {
+    if (!s.sent) send(message(code == 0 ? kDone : kFailed, code, category, text));
+    s.sent = true;
+    MPI_Request req;
+    int final_code = code, done = 0;
+    MPI_Irecv(&final_code, 1, MPI_INT, 0, kTagCode, MPI_COMM_WORLD, &req);
+    while (MPI_Test(&req, &done, MPI_STATUS_IGNORE) == MPI_SUCCESS && !done) std::this_thread::sleep_for(kPoll);
+    return final_code;
+  }
+  for (int r = 1; r < s.ranks; ++r) {
+    if (s.received[static_cast<std::size_t>(r)]) continue;
+    const Message m = receive(r);
+    if (code == 0 && m.kind == kFailed) {
+      err << "slipscreen: error: rank " << r << ": " << m.text << "\n";
+      code = m.code;
+    }
+  }
+  for (int r = 1; r < s.ranks; ++r) MPI_Send(&code, 1, MPI_INT, r, kTagCode, MPI_COMM_WORLD);
+  return code;
+}
+
+#else
+
+ClusterSession::ClusterSession(int*, char***) {}
+ClusterSession::~ClusterSession() = default;
+bool built_with_mpi() { return false; }
+int cluster_finish(int code, int, const std::string&, std::ostream&) { return code; }
+
+#endif
+
+int cluster_rank() { return state().rank; }
+int cluster_ranks() { return state().ranks; }
+const probabilistic::RealizationSplit* cluster_split() { return state().active ? &state().split : nullptr; }
+
+}  // namespace slipscreen::run

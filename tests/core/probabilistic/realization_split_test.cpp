@@ -1,0 +1,159 @@
+#include "core/probabilistic/realization_split.hpp"
+
+#include <doctest/doctest.h>
+
+#include <bit>
+#include <numbers>
+
+#include "core/errors.hpp"
+#include "core/probabilistic/slip_probability.hpp"
+#include "strike_slip_case.hpp"
+
+using namespace slipscreen;
+using namespace slipscreen::probabilistic;
+using stats::Distribution;
+
+namespace {
+constexpr double kDeg = std::numbers::pi / 180.0;
+
+// Fictional case: the three-segment layout (strike_slip_case.hpp) with uncertain permeability,
+// friction, rate and strike, a 3 × 2 map; 700 realizations (three blocks of 256).
+struct SplitCase {
+  UncertainModel model = test::strike_slip_model();
+  std::vector<WellInput> wells;
+  std::vector<SegmentInput> segments;
+  RunSettings settings;
+  SplitCase() {
+    model.permeability = Distribution::lognormal(2e-14, 0.5);
+    model.friction = Distribution::uniform(0.5, 0.7);
+    model.rate_factor = Distribution::uniform(0.8, 1.2);
+    model.strike_perturbation = Distribution::normal(0.0, 5 * kDeg);
+    test::three_segment_layout(wells, segments, settings);
+    settings.realizations = 700;
+    settings.seed = 11;
+    for (double x : {500.0, 2000.0, 6000.0})
+      for (double y : {0.0, 1000.0}) settings.map_points.push_back({x, y});
+    settings.map_strike = 15 * kDeg;
+    settings.map_dip = 80 * kDeg;
+  }
+};
+
+// Runs the case split into `parts` processes, simulated in turn: parts 1.. first (their gather
+// keeps the bytes), then part 0, whose gather returns every part's bytes.
+ProbabilisticResult run_split(const SplitCase& c, std::size_t parts) {
+  std::vector<std::vector<std::uint8_t>> sent(parts);
+  for (std::size_t p = 1; p < parts; ++p) {
+    RealizationSplit split{p, parts, [&, p](std::vector<std::uint8_t> b) {
+                             sent[p] = std::move(b);
+                             return std::optional<std::vector<std::vector<std::uint8_t>>>();
+                           }};
+    const auto r = run_probabilistic(c.model, c.wells, c.segments, c.settings, &split);
+    CHECK(r.merged_elsewhere);
+    CHECK(r.segments.empty());
+  }
+  RealizationSplit split{0, parts, [&](std::vector<std::uint8_t> b) {
+                           sent[0] = std::move(b);
+                           return std::optional(sent);
+                         }};
+  return run_probabilistic(c.model, c.wells, c.segments, c.settings, &split);
+}
+
+// Bit for bit (a constant input's ρ is NaN, which == would call different).
+bool same_bits(const std::vector<double>& a, const std::vector<double>& b) {
+  if (a.size() != b.size()) return false;
+  for (std::size_t i = 0; i < a.size(); ++i)
+    if (std::bit_cast<std::uint64_t>(a[i]) != std::bit_cast<std::uint64_t>(b[i])) return false;
+  return true;
+}
+
+void check_identical(const ProbabilisticResult& a, const ProbabilisticResult& b) {
+  CHECK_FALSE(b.merged_elsewhere);
+  CHECK(a.realizations == b.realizations);
+  REQUIRE(a.segments.size() == b.segments.size());
+  for (std::size_t s = 0; s < a.segments.size(); ++s) {
+    const auto& x = a.segments[s];
+    const auto& y = b.segments[s];
+    CHECK(x.slipped_by == y.slipped_by);
+    CHECK(x.first_slip == y.first_slip);
+    CHECK(x.already_critical == y.already_critical);
+    CHECK(x.never_critical == y.never_critical);
+    CHECK(x.dp_crit == y.dp_crit);
+    CHECK(x.dp == y.dp);
+    CHECK(same_bits(x.sensitivity, y.sensitivity));
+    REQUIRE(x.median.size() == y.median.size());
+    for (std::size_t t = 0; t < x.median.size(); ++t) {
+      CHECK(x.median[t].realization == y.median[t].realization);
+      CHECK(x.median[t].dp == y.median[t].dp);
+      CHECK(x.median[t].well_dp == y.median[t].well_dp);
+    }
+  }
+  CHECK(a.map_dangerous == b.map_dangerous);
+  CHECK(a.map_oriented == b.map_oriented);
+  CHECK(a.map_dangerous_already_critical == b.map_dangerous_already_critical);
+  CHECK(a.map_oriented_already_critical == b.map_oriented_already_critical);
+}
+
+}  // namespace
+
+TEST_CASE("split_columns: contiguous blocks of whole 256-column groups covering every column") {
+  for (std::size_t n : {0u, 1u, 255u, 256u, 700u, 10000u})
+    for (std::size_t parts : {1u, 2u, 3u, 7u}) {
+      std::size_t next = 0;
+      for (std::size_t p = 0; p < parts; ++p) {
+        const ColumnRange r = split_columns(n, p, parts);
+        CHECK(r.begin == next);
+        CHECK(r.end >= r.begin);
+        if (r.end != n) CHECK(r.end % kSplitAlign == 0);
+        next = r.end;
+      }
+      CHECK(next == n);
+    }
+  // 700 columns in 3 parts: 256, 256, 188.
+  CHECK(split_columns(700, 1, 3) == ColumnRange{256, 512});
+  CHECK(split_columns(700, 2, 3) == ColumnRange{512, 700});
+  CHECK_THROWS_AS(split_columns(10, 3, 3), InputError);
+}
+
+TEST_CASE("encode_partial/decode_partial round trip; truncated buffers are refused") {
+  PartialResult p;
+  p.columns = {256, 300};
+  SegmentPart s;
+  s.slipped_by = {1, 2};
+  s.first_slip = {0, 1, 1};
+  s.already_critical = 3;
+  s.never_critical = 4;
+  s.dp_crit.add(1.5e6);
+  s.dp_crit.add(-2e5);
+  s.dp.assign(2, stats::QuantileSketch());
+  s.dp[1].add(3e5);
+  s.margin = {1.0, -2.5};
+  s.dp_by_time = {1, 2, 3, 4};
+  p.segments = {s, s};
+  p.map_dangerous = {5, 6};
+  p.map_dangerous_already_critical = 7;
+  const auto bytes = encode_partial(p);
+  CHECK(decode_partial(bytes) == p);
+  CHECK_THROWS_AS(decode_partial(std::span(bytes).first(bytes.size() - 8)), InputError);
+  CHECK_THROWS_AS(decode_partial(std::span(bytes).first(bytes.size() - 3)), InputError);
+}
+
+TEST_CASE("merge_partials refuses parts that do not follow each other") {
+  PartialResult a, b;
+  a.columns = {0, 256};
+  b.columns = {300, 400};
+  CHECK_THROWS_AS(merge_partials({a, b}), InputError);
+}
+
+TEST_CASE("run_probabilistic split into 2 and 3 parts gives the unsplit result bit for bit") {
+  const SplitCase c;
+  const ProbabilisticResult whole = run_probabilistic(c.model, c.wells, c.segments, c.settings);
+  // The case must exercise the counts: some segment slips in some but not all realizations.
+  bool partial_slip = false;
+  for (const auto& s : whole.segments)
+    partial_slip |= s.slipped_by.back() > 0 && s.slipped_by.back() < whole.realizations;
+  CHECK(partial_slip);
+  for (std::size_t parts : {2u, 3u}) {
+    CAPTURE(parts);
+    check_identical(whole, run_split(c, parts));
+  }
+}

@@ -1,0 +1,56 @@
+#!/usr/bin/env bash
+# The MPI run's outputs are byte-identical to the single-process run's (docs/cluster.md).
+#   tests/run/mpi_equality.sh MPI_SLIPSCREEN [REFERENCE_SLIPSCREEN]
+# Runs a reduced copy of the fictional demo scenario (no report, 1000 realizations: four blocks of
+# 256, so 2 and 3 ranks all get work) with --reproducible under `mpirun -n 1`, `-n 2` and `-n 3`,
+# and compares every file of each run folder byte for byte (diff -r; the manifest apart from the
+# build's git commit) with the run of
+# REFERENCE_SLIPSCREEN (the build without MPI; default: MPI_SLIPSCREEN started without mpirun).
+# Then checks that an input error ends every rank with the same exit code and leaves no folder.
+set -euo pipefail
+mpi_bin="$(realpath "$1")"
+ref_bin="$(realpath "${2:-$1}")"
+root="$(cd "$(dirname "${BASH_SOURCE[0]}")/../.." && pwd)"
+work="$(mktemp -d)"
+trap 'rm -rf "$work"' EXIT
+export OMP_NUM_THREADS=1 OMPI_ALLOW_RUN_AS_ROOT=1 OMPI_ALLOW_RUN_AS_ROOT_CONFIRM=1
+# --bind-to none: every rank sees every core, as the reference run does (screen.gpkg's SQLite
+# change counter depends on the CPUs the process may use, through GDAL; docs/cluster.md).
+mpirun_() { mpirun --oversubscribe --bind-to none -n "$@"; }
+
+mkdir -p "$work/regions" && cp -r "$root/regions/marrowick" "$work/regions/" && cp -r "$root/catalogs" "$work/"
+scenario="$work/regions/marrowick/scenario.toml"
+sed -i -e 's/^realizations = 2000 /realizations = 1000 /' -e 's/^\(folder = "runs\/demo"\)/\1\nreport = false/' "$scenario"
+grep -q '^realizations = 1000 ' "$scenario" && grep -q '^report = false' "$scenario" ||
+  { echo "mpi_equality: could not reduce the demo scenario"; exit 1; }
+
+# Every run writes to the same folder (the manifest records the command line), then is moved.
+"$ref_bin" run "$scenario" --out "$work/out" --reproducible > "$work/ref.txt"
+mv "$work/out" "$work/ref"
+for n in 1 2 3; do
+  mpirun_ "$n" "$mpi_bin" run "$scenario" --out "$work/out" --reproducible > "$work/n$n.txt"
+  mv "$work/out" "$work/n$n"
+  # Every file byte for byte; the manifest too, apart from the build's git commit (a build
+  # directory configured at another commit records another one).
+  diff -r --exclude=manifest.json "$work/ref" "$work/n$n" ||
+    { echo "mpi_equality: $n ranks differ from the reference run"; exit 1; }
+  diff <(grep -v '"git_commit"' "$work/ref/manifest.json") <(grep -v '"git_commit"' "$work/n$n/manifest.json") ||
+    { echo "mpi_equality: $n ranks' manifest differs from the reference run's"; exit 1; }
+  # The console summary too (rank 0 alone prints it).
+  diff "$work/ref.txt" "$work/n$n.txt" ||
+    { echo "mpi_equality: $n ranks' summary differs"; exit 1; }
+  echo "mpi_equality: $n ranks: $(find "$work/n$n" -type f | wc -l) files identical"
+done
+
+# An input error (a friction outside its range) on every rank: one message, the same exit code
+# (3, docs/exit-codes.md) from mpirun, no run folder and no staging folder.
+sed -i 's/^friction = "truncnormal(mean=0.6, sd=0.08, min=0.3, max=0.9)"/friction = "truncnormal(mean=0.6, sd=0.08, min=0.9, max=0.3)"/' "$scenario"
+set +e
+mpirun_ 2 "$mpi_bin" run "$scenario" --out "$work/bad" --reproducible > "$work/bad.txt" 2> "$work/bad.err"
+code=$?
+set -e
+[ "$code" -eq 3 ] || { echo "mpi_equality: input error gave exit code $code, expected 3"; cat "$work/bad.err"; exit 1; }
+[ "$(grep -c '^slipscreen: error:' "$work/bad.err")" -eq 1 ] ||
+  { echo "mpi_equality: expected one error message"; cat "$work/bad.err"; exit 1; }
+[ -z "$(find "$work" -maxdepth 1 -type d -name '*bad*')" ] || { echo "mpi_equality: a folder was left"; exit 1; }
+echo "mpi_equality: input error: exit code 3 from 2 ranks, one message, nothing left"
