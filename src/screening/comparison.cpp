@@ -83,7 +83,9 @@ std::vector<WellChange> well_changes(const RunRecord& o, const RunRecord& n, std
   for (const auto& w : n.wells) all[w.id].second = &w;
   std::vector<WellChange> out;
   for (const auto& [id, pair] : all) {
-    const auto [a, b] = pair;
+    // Plain pointers, not a structured binding: clang 15 (the fuzz build) cannot capture those.
+    const RunWell* const a = pair.first;
+    const RunWell* const b = pair.second;
     WellChange c;
     c.id = id;
     if (a) c.old_status = a->status;
