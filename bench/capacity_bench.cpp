@@ -1,11 +1,11 @@
 // Benchmark of the allowable rate and a what-if variant (issue 13): what [capacity] and one
-// [[what_if]] add to the probabilistic screen's time, on the FICTIONAL demo scenario (regions/marrowick: 220 segments, 14 wells, 2,000
-// realizations, group MW-P1). Prints the probabilistic screen's time without the group and with
-// it (the group's pressure model, f_crit for every realization and segment), the answers' time
-// (allowable factors, deterministic answer), each the best of 3 runs, and the added share
-// against the 30 % target. The baseline is the same screen without [capacity], in the same run.
-// With it, one what-if variant (the scenario's first [[what_if]], or half the rates of the
-// group's wells from the capacity date or 2027-02-01 when it has none).
+// [[what_if]] add to the probabilistic screen's time, on the FICTIONAL demo scenario
+// (regions/marrowick: 220 segments, 14 wells, 2,000 realizations, group MW-P1). Prints the
+// probabilistic screen's time without either (the baseline, in the same run), with [capacity]
+// only, with the what-if only and with both, each the best of 3 interleaved runs, then the
+// answers' time (allowable factors, deterministic answer, what-if table) and the added share
+// against the 30 % target. The what-if is the scenario's first [[what_if]], or half the rates of
+// the group's wells from the capacity date or 2027-02-01 when it has none.
 //   capacity_bench [SCENARIO]   (default: regions/marrowick/scenario.toml)
 #include <algorithm>
 #include <chrono>
@@ -55,33 +55,44 @@ int main(int argc, char** argv) try {
   scenario::ResolvedScenario without = with;
   without.capacity.reset();
   without.what_if.clear();
+  scenario::ResolvedScenario capacity_only = with, what_if_only = with;
+  capacity_only.what_if.clear();
+  what_if_only.capacity.reset();
   const screening::PreparedRun p = screening::prepare_run(with, false);
   const screen::ScreenResult det = screen::deterministic_screen(p.inputs);
   std::printf("capacity_bench: %s, %zu segments, %zu wells, %llu realizations; load average before %s\n",
               path.string().c_str(), p.segments.size(), p.wells.size(),
               static_cast<unsigned long long>(with.uncertainty.realizations.value()), load_average().c_str());
-  double base = 1e300, screen_with = 1e300, answer = 1e300;
+  // Best of 3 of each screen, the four interleaved so that a change in the machine's load falls
+  // on all of them alike.
+  double base = 1e300, t_cap = 1e300, t_what = 1e300, t_both = 1e300, answer = 1e300;
+  const auto best = [](double& b, const auto& f) {
+    const auto t0 = Clock::now();
+    f();
+    b = std::min(b, since(t0));
+  };
   for (int rep = 0; rep < 3; ++rep) {
-    auto t0 = Clock::now();
-    const auto plain = screening::run_probabilistic_screen(without, p, without.uncertainty);
-    base = std::min(base, since(t0));
-    t0 = Clock::now();
-    auto prob = screening::run_probabilistic_screen(with, p, with.uncertainty);
-    screen_with = std::min(screen_with, since(t0));
-    t0 = Clock::now();
-    const auto cap = screening::capacity_answer(with, p, det, prob);
-    const auto wi = screening::what_if_result(with, p, prob);
-    answer = std::min(answer, since(t0));
-    if (rep == 0)
-      std::printf("  answer (upper end of the Wilson interval) at the first threshold %.3g: f <= %.4g\n",
-                  cap.thresholds.front().threshold, cap.thresholds.front().wilson.allowed);
-    (void)plain;
-    (void)wi;
+    best(base, [&] { (void)screening::run_probabilistic_screen(without, p, without.uncertainty); });
+    best(t_cap, [&] { (void)screening::run_probabilistic_screen(capacity_only, p, capacity_only.uncertainty); });
+    best(t_what, [&] { (void)screening::run_probabilistic_screen(what_if_only, p, what_if_only.uncertainty); });
+    screening::ProbabilisticRun prob;
+    best(t_both, [&] { prob = screening::run_probabilistic_screen(with, p, with.uncertainty); });
+    best(answer, [&] {
+      const auto cap = screening::capacity_answer(with, p, det, prob);
+      const auto wi = screening::what_if_result(with, p, prob);
+      if (rep == 0)
+        std::printf("  answer (upper end of the Wilson interval) at the first threshold %.3g: f <= %.4g\n",
+                    cap.thresholds.front().threshold, cap.thresholds.front().wilson.allowed);
+      (void)wi;
+    });
   }
-  const double added = screen_with - base + answer;
-  std::printf("  probabilistic screen without [capacity] (baseline): %.3f s\n", base);
-  std::printf("  with the group kept apart and one what-if variant:  %.3f s\n", screen_with);
+  const auto share = [&](double t) { return 100.0 * (t - base) / base; };
+  std::printf("  probabilistic screen without [capacity] and [[what_if]] (baseline): %.3f s\n", base);
+  std::printf("  with [capacity] only:                 %.3f s (%+.1f %%)\n", t_cap, share(t_cap));
+  std::printf("  with one [[what_if]] only:            %.3f s (%+.1f %%)\n", t_what, share(t_what));
+  std::printf("  with both:                            %.3f s (%+.1f %%)\n", t_both, share(t_both));
   std::printf("  answers (allowable factors, deterministic answer, what-if table): %.3f s\n", answer);
+  const double added = t_both - base + answer;
   std::printf("  added by [capacity] and one [[what_if]]: %.3f s = %.1f %% of the baseline (target < 30 %%; ratio %.3f)\n", added,
               100.0 * added / base, (base + added) / base);
   std::printf("  load average after %s (the cores may be shared)\n", load_average().c_str());

@@ -17,14 +17,13 @@ constexpr std::size_t kBlock = 256;  // realizations per matrix product
 constexpr Eigen::Index kChunk = 24;  // tracking times per chunk of the first-crossing search
 constexpr double kInf = std::numeric_limits<double>::infinity();
 
-// Σ over the groups on one side (apart or not) of table rows [0, K] times basis · scale_g, for
-// the realizations `cols`: (K + 1) × cols.size().
-Eigen::MatrixXd side_series(const PressureModel& pm, const std::vector<char>& apart, std::size_t point, bool side,
-                            Eigen::Index rows, const std::vector<Eigen::Index>& cols, Eigen::Index first_row = 0) {
+// Σ over the model's groups of table rows [first_row, first_row + rows) times basis · scale_g,
+// for the realizations `cols`: rows × cols.size().
+Eigen::MatrixXd series(const PressureModel& pm, std::size_t point, Eigen::Index rows, const std::vector<Eigen::Index>& cols,
+                       Eigen::Index first_row = 0) {
   Eigen::MatrixXd out = Eigen::MatrixXd::Zero(rows, static_cast<Eigen::Index>(cols.size()));
   Eigen::MatrixXd block(pm.draws.basis.rows(), static_cast<Eigen::Index>(cols.size()));
   for (std::size_t g = 0; g < pm.groups; ++g) {
-    if (static_cast<bool>(apart[g]) != side) continue;
     for (std::size_t c = 0; c < cols.size(); ++c)
       block.col(static_cast<Eigen::Index>(c)) =
           pm.draws.basis.col(cols[c]) * pm.draws.scale(static_cast<Eigen::Index>(g), cols[c]);
@@ -33,130 +32,102 @@ Eigen::MatrixXd side_series(const PressureModel& pm, const std::vector<char>& ap
   return out;
 }
 
-// Bound on |Δp| over t_k ≤ T of one side at one point, per realization.
-Eigen::VectorXd side_bound(const PressureModel& pm, const std::vector<char>& apart, std::size_t point, bool side,
-                           Eigen::Index rows, const Eigen::MatrixXd& abs_basis) {
-  Eigen::VectorXd b = Eigen::VectorXd::Zero(abs_basis.cols());
+// Bounds on |Δp| of one model at one point per chunk of `chunk` rows in [first_row, first_row +
+// rows) and realization (the columns of abs_basis and scale): n_chunks × columns.
+Eigen::MatrixXd chunk_bound(const PressureModel& pm, std::size_t point, Eigen::Index first_row, Eigen::Index rows,
+                            Eigen::Index chunk, const Eigen::Ref<const Eigen::MatrixXd>& abs_basis,
+                            const Eigen::Ref<const Eigen::MatrixXd>& scale) {
+  const Eigen::Index n_chunks = (rows + chunk - 1) / chunk;
+  Eigen::MatrixXd b = Eigen::MatrixXd::Zero(n_chunks, abs_basis.cols());
+  Eigen::MatrixXd chunk_max(n_chunks, abs_basis.rows());
   for (std::size_t g = 0; g < pm.groups; ++g) {
-    if (static_cast<bool>(apart[g]) != side) continue;
-    const Eigen::RowVectorXd colmax = pm.surrogate->table(point, g).topRows(rows).cwiseAbs().colwise().maxCoeff();
-    b.array() += (colmax * abs_basis).transpose().array() * pm.draws.scale.row(static_cast<Eigen::Index>(g)).transpose().array().abs();
+    const Eigen::MatrixXd& t = pm.surrogate->table(point, g);
+    for (Eigen::Index q = 0; q < n_chunks; ++q)
+      chunk_max.row(q) =
+          t.middleRows(first_row + q * chunk, std::min(chunk, rows - q * chunk)).cwiseAbs().colwise().maxCoeff();
+    b.noalias() += ((chunk_max * abs_basis).array().rowwise() * scale.row(static_cast<Eigen::Index>(g)).array().abs()).matrix();
   }
   return b;
 }
 
-SlipFactorCurve segment_curve(const PressureModel& pm, const std::vector<char>& apart, const Eigen::MatrixXf& dp_crit, const Eigen::MatrixXd& abs_basis,
-                              std::size_t s, Eigen::Index rows, double f_max) {
-  const Eigen::Index n = dp_crit.cols();
-  const auto& pts = pm.segment_points[s];
-  // The largest Δp any f ≤ f_max can reach, over the check points (a bound, slightly widened
-  // against rounding in the bound's own sums).
-  Eigen::VectorXd reach = Eigen::VectorXd::Zero(n);
-  for (std::size_t i = 0; i < pts.size(); ++i) {
-    const Eigen::VectorXd b = side_bound(pm, apart, pts[i], false, rows, abs_basis) + f_max * side_bound(pm, apart, pts[i], true, rows, abs_basis);
-    reach = i == 0 ? b : reach.cwiseMax(b);
-  }
-  std::vector<double> f_crit;
-  std::vector<Eigen::Index> evaluate;
-  for (Eigen::Index r = 0; r < n; ++r) {
-    const double crit = double(dp_crit(static_cast<Eigen::Index>(s), r));
-    if (crit <= 0.0) continue;  // critical before injection: counted apart
-    if (std::isinf(crit) || reach(r) * (1.0 + 1e-9) < crit) f_crit.push_back(kInf);
-    else evaluate.push_back(r);
-  }
-  std::vector<Eigen::Index> cols;
-  for (std::size_t c0 = 0; c0 < evaluate.size(); c0 += kBlock) {
-    cols.assign(evaluate.begin() + static_cast<std::ptrdiff_t>(c0),
-                evaluate.begin() + static_cast<std::ptrdiff_t>(std::min(evaluate.size(), c0 + kBlock)));
-    std::vector<double> f(cols.size(), kInf);
-    for (std::size_t i = 0; i < pts.size(); ++i) {
-      const Eigen::MatrixXd rest = side_series(pm, apart, pts[i], false, rows, cols);
-      const Eigen::MatrixXd group = side_series(pm, apart, pts[i], true, rows, cols);
-      for (std::size_t c = 0; c < cols.size(); ++c) {
-        const auto ci = static_cast<Eigen::Index>(c);
-        const double crit = double(dp_crit(static_cast<Eigen::Index>(s), cols[c]));
-        const auto len = static_cast<std::size_t>(rows);
-        f[c] = std::min(f[c], critical_factor(std::span<const double>(rest.col(ci).data(), len),
-                                              std::span<const double>(group.col(ci).data(), len), crit));
-      }
-    }
-    f_crit.insert(f_crit.end(), f.begin(), f.end());
-  }
-  return SlipFactorCurve(std::move(f_crit), static_cast<std::uint64_t>(n));
-}
-// Bounds on |Δp_rest| + factor·|Δp_G| per chunk of kChunk tracking times (rows) and
-// realization, max over the segment's check points (triangle inequality, as slip_tracker.hpp).
-Eigen::MatrixXd chunk_bounds(const PressureModel& pm, const std::vector<char>& apart, const Eigen::MatrixXd& abs_basis,
-                             std::size_t s, Eigen::Index rows, double factor) {
-  const Eigen::Index n_chunks = (rows + kChunk - 1) / kChunk;
-  Eigen::MatrixXd out;
-  Eigen::MatrixXd chunk_max(n_chunks, abs_basis.rows());
-  for (std::size_t i = 0; i < pm.segment_points[s].size(); ++i) {
-    Eigen::MatrixXd b = Eigen::MatrixXd::Zero(n_chunks, abs_basis.cols());
-    for (std::size_t g = 0; g < pm.groups; ++g) {
-      const Eigen::MatrixXd& t = pm.surrogate->table(pm.segment_points[s][i], g);
-      for (Eigen::Index q = 0; q < n_chunks; ++q)
-        chunk_max.row(q) = t.middleRows(q * kChunk, std::min(kChunk, rows - q * kChunk)).cwiseAbs().colwise().maxCoeff();
-      const double side = apart[g] ? factor : 1.0;
-      b.noalias() += ((chunk_max * abs_basis).array().rowwise() *
-                      (side * pm.draws.scale.row(static_cast<Eigen::Index>(g)).array().abs()))
-                         .matrix();
-    }
-    out = i == 0 ? b : out.cwiseMax(b);
-  }
-  return out;
-}
+// The two models with their |basis|, for the bounds.
+struct Pair {
+  const PressureModel& base;
+  const PressureModel& part;
+  Eigen::MatrixXd abs_base, abs_part;
+  Pair(const PressureModel& b, const PressureModel& p)
+      : base(b), part(p), abs_base(b.draws.basis.cwiseAbs()), abs_part(p.draws.basis.cwiseAbs()) {}
+};
 
-// First crossings with the group's rates times `factor`: chunk by chunk, in order, only where the
-// chunk's bound reaches Δp_crit (the same result as evaluating every series).
-std::vector<std::uint64_t> segment_variant(const PressureModel& pm, const std::vector<char>& apart,
-                                           const Eigen::MatrixXf& dp_crit, const Eigen::MatrixXd& abs_basis,
-                                           std::size_t s, const std::vector<std::size_t>& output_index, double factor) {
+// f_crit of every realization of segment s, chunk by chunk of kChunk tracking times: a chunk is
+// evaluated for a realization only where B_base + max(1, f − 1)·B_part over the chunk reaches
+// Δp_crit, f the smallest factor found so far (at first f_max): no time in the other chunks can
+// give a factor at or below f. Factors above f_max are reported as +∞ (exact on [0, f_max]).
+SlipFactorCurve segment_curve(const Pair& m, const Eigen::MatrixXf& dp_crit, std::size_t s, Eigen::Index rows, double f_max) {
   const Eigen::Index n = dp_crit.cols();
-  const auto rows = static_cast<Eigen::Index>(output_index.back() + 1);
-  const Eigen::MatrixXd bound = chunk_bounds(pm, apart, abs_basis, s, rows, factor);
+  const auto& pts = m.base.segment_points[s];
+  Eigen::MatrixXd bound_base, bound_part;  // per chunk and realization, max over the check points
+  for (std::size_t i = 0; i < pts.size(); ++i) {
+    const Eigen::MatrixXd bb = chunk_bound(m.base, pts[i], 0, rows, kChunk, m.abs_base, m.base.draws.scale);
+    const Eigen::MatrixXd bp = chunk_bound(m.part, m.part.segment_points[s][i], 0, rows, kChunk, m.abs_part, m.part.draws.scale);
+    bound_base = i == 0 ? bb : bound_base.cwiseMax(bb);
+    bound_part = i == 0 ? bp : bound_part.cwiseMax(bp);
+  }
   const auto crit_of = [&](Eigen::Index r) { return double(dp_crit(static_cast<Eigen::Index>(s), r)); };
-  std::vector<Eigen::Index> active, in_chunk;
+  // Whether chunk q of realization r can give a factor at or below f (a bound, slightly widened
+  // against rounding in the bound's own sums).
+  const auto reaches = [&](Eigen::Index q, Eigen::Index r, double f) {
+    return (bound_base(q, r) + std::max(1.0, f - 1.0) * bound_part(q, r)) * (1.0 + 1e-9) >= crit_of(r);
+  };
+  std::vector<double> f(static_cast<std::size_t>(n), kInf);
+  std::vector<Eigen::Index> active, in_chunk, cols;
   for (Eigen::Index r = 0; r < n; ++r) {
     const double crit = crit_of(r);
-    if (crit > 0.0 && !std::isinf(crit) && bound.col(r).maxCoeff() * (1.0 + 1e-9) >= crit) active.push_back(r);
+    if (crit > 0.0 && !std::isinf(crit)) active.push_back(r);
   }
-  std::vector<std::uint64_t> slipped(output_index.size(), 0);
-  const auto& pts = pm.segment_points[s];
-  std::vector<Eigen::Index> cols;
-  for (Eigen::Index q = 0; q * kChunk < rows && !active.empty(); ++q) {
+  const Eigen::Index n_chunks = (rows + kChunk - 1) / kChunk;
+  for (Eigen::Index q = 0; q < n_chunks && !active.empty(); ++q) {
     const Eigen::Index k0 = q * kChunk, len = std::min(kChunk, rows - k0);
     in_chunk.clear();
     for (Eigen::Index r : active)
-      if (bound(q, r) * (1.0 + 1e-9) >= crit_of(r)) in_chunk.push_back(r);
-    std::vector<char> crossed(static_cast<std::size_t>(n), 0);
+      if (reaches(q, r, std::min(f_max, f[static_cast<std::size_t>(r)]))) in_chunk.push_back(r);
     for (std::size_t c0 = 0; c0 < in_chunk.size(); c0 += kBlock) {
       cols.assign(in_chunk.begin() + static_cast<std::ptrdiff_t>(c0),
                   in_chunk.begin() + static_cast<std::ptrdiff_t>(std::min(in_chunk.size(), c0 + kBlock)));
-      Eigen::MatrixXd best;
       for (std::size_t i = 0; i < pts.size(); ++i) {
-        const Eigen::MatrixXd dp = side_series(pm, apart, pts[i], false, len, cols, k0) +
-                                   factor * side_series(pm, apart, pts[i], true, len, cols, k0);
-        best = i == 0 ? dp : best.cwiseMax(dp);
-      }
-      for (std::size_t c = 0; c < cols.size(); ++c) {
-        const double crit = crit_of(cols[c]);
-        for (Eigen::Index k = 0; k < len; ++k)
-          if (best(k, static_cast<Eigen::Index>(c)) >= crit) {
-            for (std::size_t t = 0; t < output_index.size(); ++t)
-              if (output_index[t] >= static_cast<std::size_t>(k0 + k)) ++slipped[t];
-            crossed[static_cast<std::size_t>(cols[c])] = 1;
-            break;
-          }
+        const Eigen::MatrixXd group = series(m.part, m.part.segment_points[s][i], len, cols, k0);
+        const Eigen::MatrixXd rest = series(m.base, pts[i], len, cols, k0) - group;
+        for (std::size_t c = 0; c < cols.size(); ++c) {
+          const auto ci = static_cast<Eigen::Index>(c);
+          const auto l = static_cast<std::size_t>(len);
+          double& fr = f[static_cast<std::size_t>(cols[c])];
+          fr = std::min(fr, critical_factor(std::span<const double>(rest.col(ci).data(), l),
+                                            std::span<const double>(group.col(ci).data(), l), crit_of(cols[c])));
+        }
       }
     }
-    std::erase_if(active, [&](Eigen::Index r) { return crossed[static_cast<std::size_t>(r)] != 0; });
+    std::erase_if(active, [&](Eigen::Index r) { return f[static_cast<std::size_t>(r)] == 0.0; });
   }
-  return slipped;
+  std::vector<double> f_crit;
+  for (Eigen::Index r = 0; r < n; ++r) {
+    const double crit = crit_of(r);
+    if (crit <= 0.0) continue;  // critical before injection: counted apart
+    const double fr = f[static_cast<std::size_t>(r)];
+    f_crit.push_back(fr <= f_max ? fr : kInf);
+  }
+  return SlipFactorCurve(std::move(f_crit), static_cast<std::uint64_t>(n));
 }
-void check_apart(const PressureModel& pm, const std::vector<char>& apart) {
-  if (apart.size() != pm.groups)
-    throw InputError("groups kept apart", std::to_string(apart.size()), "one flag per rate group (" + std::to_string(pm.groups) + ")");
+
+void check_pair(const PressureModel& base, const PressureModel& part, std::size_t realizations) {
+  bool same = base.segment_points.size() == part.segment_points.size() &&
+              base.draws.basis.cols() == static_cast<Eigen::Index>(realizations) &&
+              part.draws.basis.cols() == static_cast<Eigen::Index>(realizations) && part.surrogate &&
+              part.surrogate->time_count() == base.surrogate->time_count();
+  for (std::size_t s = 0; same && s < base.segment_points.size(); ++s)
+    same = base.segment_points[s].size() == part.segment_points[s].size();
+  if (!same)
+    throw InputError("group pressure model", std::to_string(part.segment_points.size()) + " segments",
+                     "the screen's check points, tracking times and realizations");
 }
 
 // out[s] = one(s) for every segment (OpenMP over segments; the first failure is rethrown).
@@ -169,30 +140,112 @@ void per_segment(std::vector<T>& out, const One& one) {
 }
 }  // namespace
 
-std::vector<std::vector<std::uint64_t>> group_variant_slips(const PressureModel& pm, const std::vector<char>& apart,
-                                                            const Eigen::MatrixXf& dp_crit,
-                                                            const std::vector<std::size_t>& output_index, double factor) {
-  if (!pm.surrogate || output_index.empty() || output_index.back() >= pm.surrogate->time_count())
-    throw InputError("what-if output times", std::to_string(output_index.size()), "tracking-time indices");
+VariantSearch prepare_variant(const PressureModel& base, PressureModel part, double factor, std::size_t realizations) {
+  if (!base.surrogate) throw InputError("what-if pressure model", "(none)", "the screen's pressure model");
   if (!(factor >= 0.0)) throw InputError("what-if factor", std::to_string(factor), "a factor >= 0");
-  check_apart(pm, apart);
-  const Eigen::MatrixXd abs_basis = pm.draws.basis.cwiseAbs();
-  std::vector<std::vector<std::uint64_t>> out(pm.segment_points.size());
-  per_segment(out, [&](std::size_t s) { return segment_variant(pm, apart, dp_crit, abs_basis, s, output_index, factor); });
-  return out;
+  check_pair(base, part, realizations);
+  VariantSearch v;
+  v.base = &base;
+  v.part = std::move(part);
+  v.factor = factor;
+  v.abs_base = base.draws.basis.cwiseAbs();
+  v.abs_part = v.part.draws.basis.cwiseAbs();
+  v.from_row = v.part.surrogate->time_count();
+  for (std::size_t pt = 0; pt < v.part.surrogate->point_count(); ++pt)
+    for (std::size_t g = 0; g < v.part.groups; ++g) {
+      const Eigen::MatrixXd& t = v.part.surrogate->table(pt, g);
+      for (Eigen::Index k = 0; k < static_cast<Eigen::Index>(v.from_row); ++k)
+        if ((t.row(k).array() != 0.0).any()) {
+          v.from_row = static_cast<std::size_t>(k);
+          break;
+        }
+    }
+  return v;
 }
 
-std::vector<SlipFactorCurve> group_factor_curves(const PressureModel& pm, const std::vector<char>& apart,
+std::vector<std::uint64_t> variant_segment_slips(const VariantSearch& v, const Eigen::MatrixXf& dp_crit, std::size_t s,
+                                                 std::span<const int> first_crossing, std::size_t c0,
+                                                 const std::vector<std::size_t>& output_index) {
+  const PressureModel& base = *v.base;
+  const auto n = static_cast<Eigen::Index>(first_crossing.size());
+  if (output_index.empty() || output_index.back() >= base.surrogate->time_count() || s >= base.segment_points.size() ||
+      c0 + first_crossing.size() > static_cast<std::size_t>(dp_crit.cols()))
+    throw InputError("what-if search", std::to_string(s), "a segment, output times and columns of the run");
+  std::vector<std::uint64_t> slipped(output_index.size(), 0);
+  const auto count = [&](std::size_t k) {
+    for (std::size_t t = 0; t < output_index.size(); ++t)
+      if (output_index[t] >= k) ++slipped[t];
+  };
+  const auto col = [&](Eigen::Index c) { return static_cast<Eigen::Index>(c0) + c; };
+  const auto crit_of = [&](Eigen::Index c) { return double(dp_crit(static_cast<Eigen::Index>(s), col(c))); };
+  const auto rows = static_cast<Eigen::Index>(output_index.back() + 1);
+  const auto from = static_cast<Eigen::Index>(v.from_row);
+  const double c_part = v.factor - 1.0;
+  std::vector<Eigen::Index> active;  // local columns still to search from `from` on
+  for (Eigen::Index c = 0; c < n; ++c) {
+    const double crit = crit_of(c);
+    if (!(crit > 0.0) || std::isinf(crit)) continue;  // critical before injection (counted apart), or never
+    const int fc = first_crossing[static_cast<std::size_t>(c)];
+    if (fc >= 0 && (fc < from || c_part == 0.0)) count(static_cast<std::size_t>(fc));
+    else if (from < rows && c_part != 0.0) active.push_back(c);
+  }
+  if (active.empty()) return slipped;
+  const Eigen::Index span_rows = rows - from;
+  const auto& pts = base.segment_points[s];
+  Eigen::MatrixXd bound;
+  for (std::size_t i = 0; i < pts.size(); ++i) {
+    const Eigen::MatrixXd b =
+        chunk_bound(base, pts[i], from, span_rows, kChunk, v.abs_base.middleCols(static_cast<Eigen::Index>(c0), n),
+                    base.draws.scale.middleCols(static_cast<Eigen::Index>(c0), n)) +
+        std::abs(c_part) * chunk_bound(v.part, v.part.segment_points[s][i], from, span_rows, kChunk,
+                                       v.abs_part.middleCols(static_cast<Eigen::Index>(c0), n),
+                                       v.part.draws.scale.middleCols(static_cast<Eigen::Index>(c0), n));
+    bound = i == 0 ? b : bound.cwiseMax(b);
+  }
+  std::erase_if(active, [&](Eigen::Index c) { return bound.col(c).maxCoeff() * (1.0 + 1e-9) < crit_of(c); });
+  std::vector<Eigen::Index> in_chunk, cols;
+  for (Eigen::Index q = 0; q * kChunk < span_rows && !active.empty(); ++q) {
+    const Eigen::Index k0 = from + q * kChunk, len = std::min(kChunk, span_rows - q * kChunk);
+    in_chunk.clear();
+    for (Eigen::Index c : active)
+      if (bound(q, c) * (1.0 + 1e-9) >= crit_of(c)) in_chunk.push_back(c);
+    std::vector<char> crossed(static_cast<std::size_t>(n), 0);
+    for (std::size_t b0 = 0; b0 < in_chunk.size(); b0 += kBlock) {
+      cols.clear();
+      for (std::size_t j = b0; j < std::min(in_chunk.size(), b0 + kBlock); ++j) cols.push_back(col(in_chunk[j]));
+      Eigen::MatrixXd best;
+      for (std::size_t i = 0; i < pts.size(); ++i) {
+        Eigen::MatrixXd dp = series(base, pts[i], len, cols, k0);
+        dp.noalias() += c_part * series(v.part, v.part.segment_points[s][i], len, cols, k0);
+        best = i == 0 ? dp : best.cwiseMax(dp);
+      }
+      for (std::size_t j = 0; j < cols.size(); ++j) {
+        const Eigen::Index c = in_chunk[b0 + j];
+        const double crit = crit_of(c);
+        for (Eigen::Index k = 0; k < len; ++k)
+          if (best(k, static_cast<Eigen::Index>(j)) >= crit) {
+            count(static_cast<std::size_t>(k0 + k));
+            crossed[static_cast<std::size_t>(c)] = 1;
+            break;
+          }
+      }
+    }
+    std::erase_if(active, [&](Eigen::Index c) { return crossed[static_cast<std::size_t>(c)] != 0; });
+  }
+  return slipped;
+}
+
+std::vector<SlipFactorCurve> group_factor_curves(const PressureModel& base, const PressureModel& part,
                                                  const Eigen::MatrixXf& dp_crit, std::size_t horizon, double f_max) {
-  if (!pm.surrogate || horizon >= pm.surrogate->time_count())
+  if (!base.surrogate || horizon >= base.surrogate->time_count())
     throw InputError("capacity horizon", std::to_string(horizon), "a tracking-time index");
   if (!(f_max > 0.0)) throw InputError("capacity f_max", std::to_string(f_max), "a factor > 0");
-  check_apart(pm, apart);
-  const Eigen::MatrixXd abs_basis = pm.draws.basis.cwiseAbs();
+  check_pair(base, part, static_cast<std::size_t>(dp_crit.cols()));
+  const Pair m(base, part);
   const auto rows = static_cast<Eigen::Index>(horizon + 1);
-  std::vector<SlipFactorCurve> curves(pm.segment_points.size(),
+  std::vector<SlipFactorCurve> curves(base.segment_points.size(),
                                       SlipFactorCurve({}, std::max<std::uint64_t>(1, static_cast<std::uint64_t>(dp_crit.cols()))));
-  per_segment(curves, [&](std::size_t s) { return segment_curve(pm, apart, dp_crit, abs_basis, s, rows, f_max); });
+  per_segment(curves, [&](std::size_t s) { return segment_curve(m, dp_crit, s, rows, f_max); });
   return curves;
 }
 

@@ -1,20 +1,27 @@
 #pragma once
 // The critical factors f_crit of a group of wells for every fault segment and realization of a
-// probabilistic run (critical_factor.hpp), from the run's pressure model with the group's wells
-// kept apart (pressure_model.hpp, `apart`): the surrogate gives, per check point p and tracking
-// time t_k ≤ T, Δp_rest,p(t_k) (the groups not apart) and Δp_G,p(t_k) (the groups apart), each
-// Σ_g P·f_g·G_{p,g}(t_k, D) over its groups. A segment's Δp is the maximum over its check points,
-// so it slips at factor f iff some (p, t_k) has Δp_rest,p + f·Δp_G,p ≥ Δp_crit, and f_crit is the
-// minimum of critical_factor() over its check points (exact, by the same linearity).
+// probabilistic run (critical_factor.hpp), and the slips of what-if variants, from two pressure
+// models over the same realizations (pressure_model.hpp): `base`, the screen's (every well at
+// its planned rates), and `part`, the group's wells over the part of their schedules that is
+// scaled (after the `from` date, or all of it). Scaling that part by f gives, at every check
+// point p and tracking time t_k (Theis superposition in the rates, critical_factor.hpp),
+//   Δp_p(t_k; f) = Δp_base,p(t_k) + (f − 1)·Δp_part,p(t_k),
+// so Δp_rest = Δp_base − Δp_part and Δp_G = Δp_part. A segment's Δp is the maximum over its
+// check points, so it slips at factor f iff some (p, t_k) has Δp_p(t_k; f) ≥ Δp_crit, and f_crit
+// is the minimum of critical_factor() over its check points (exact, by the same linearity). The
+// part's model holds only the group's wells, so it costs a small share of the screen's; at
+// f = 1 every answer is the screen's own.
 //
 // Speed: a realization's series is evaluated only where a rigorous bound allows a crossing at a
-// factor up to f_max: max_p (B_rest,p + f_max·B_G,p) with B = Σ_g |P f_g| Σ_d |ℓ_d| max_{k≤K}
-// |G_{p,g}(t_k, D_d)| (triangle inequality, as slip_tracker.hpp). The others get f_crit = +∞,
-// which is exact for every question asked at f ≤ f_max: P(slip by T | f) is exact on [0, f_max].
+// factor up to f_max: max_p (B_base,p + max(1, f_max − 1)·B_part,p) with B = Σ_g |P f_g| Σ_d
+// |ℓ_d| max_{k≤K} |G_{p,g}(t_k, D_d)| (triangle inequality, as slip_tracker.hpp). The others get
+// f_crit = +∞, which is exact for every question asked at f ≤ f_max: P(slip by T | f) is exact
+// on [0, f_max].
 //
 // Symbol table: horizon K (tracking index of T), f_max (the largest factor resolved).
 #include <cstddef>
 #include <cstdint>
+#include <span>
 #include <vector>
 
 #include "core/probabilistic/allowable_factor.hpp"
@@ -24,21 +31,37 @@ namespace slipscreen::probabilistic {
 
 // One SlipFactorCurve per segment over the valid realizations (N = dp_crit.cols()); realizations
 // already critical before injection (Δp_crit ≤ 0) are counted in N but carry no f_crit, as in the
-// screen's injection-induced P. `apart` (per rate group of `pm`) says which groups are the
-// group's: the group's wells must not share a rate group with other wells (pressure_model.hpp,
-// `apart`, does that). InputError if horizon is not a tracking index, f_max is not > 0 or
-// `apart` does not have one flag per group.
-std::vector<SlipFactorCurve> group_factor_curves(const PressureModel& pm, const std::vector<char>& apart,
+// screen's injection-induced P. InputError if horizon is not a tracking index, f_max is not > 0,
+// or the two models do not cover the same check points and realizations.
+std::vector<SlipFactorCurve> group_factor_curves(const PressureModel& base, const PressureModel& part,
                                                  const Eigen::MatrixXf& dp_crit, std::size_t horizon, double f_max);
 
-// What-if variants by the same superposition: per segment and output time, the injection-induced
-// slips by then (as SegmentResult::slipped_by) with the group's rates multiplied by `factor` ≥ 0,
-// Δp = Δp_rest + factor·Δp_G at every check point and tracking time. As in slip_tracker.hpp, the
-// series is evaluated in chunks of 24 tracking times, in order until the first crossing, and only
-// in chunks whose bound (the one above, per chunk, with f_max = factor) reaches Δp_crit: the same
-// result as evaluating every series.
-std::vector<std::vector<std::uint64_t>> group_variant_slips(const PressureModel& pm, const std::vector<char>& apart,
-                                                            const Eigen::MatrixXf& dp_crit,
-                                                            const std::vector<std::size_t>& output_index, double factor);
+// A what-if variant prepared once for the search that runs segment by segment while the screen
+// tracks its realizations: the part's rates are multiplied by `factor` ≥ 0. `from_row` is the
+// first tracking index at which any of the part's tables is non-zero; before it the variant's
+// Δp is the screen's, exactly.
+struct VariantSearch {
+  const PressureModel* base = nullptr;
+  PressureModel part;
+  double factor = 1.0;
+  std::size_t from_row = 0;
+  Eigen::MatrixXd abs_base, abs_part;  // |basis| of each model, for the bounds
+};
+
+// InputError if the factor is not ≥ 0 or the models do not cover the same check points,
+// tracking times and `realizations` valid realizations.
+VariantSearch prepare_variant(const PressureModel& base, PressureModel part, double factor, std::size_t realizations);
+
+// Injection-induced slips by each output time of segment s under the variant, over the valid
+// realizations c0, c0 + 1, ... (one per entry of `first_crossing`: the tracking index of each
+// one's first crossing under the screen's rates, −1 if none; slip_tracker.hpp). A realization
+// that crosses before from_row crosses at the same time in the variant; the others are searched
+// from from_row on, in chunks of 24 tracking times, in order until the first crossing, and only
+// in chunks whose bound (B_base + |factor − 1|·B_part, as above) reaches Δp_crit: the same
+// result as evaluating every series. Realizations are independent, so any split of the columns
+// gives the same counts in sum.
+std::vector<std::uint64_t> variant_segment_slips(const VariantSearch& v, const Eigen::MatrixXf& dp_crit, std::size_t s,
+                                                 std::span<const int> first_crossing, std::size_t c0,
+                                                 const std::vector<std::size_t>& output_index);
 
 }  // namespace slipscreen::probabilistic

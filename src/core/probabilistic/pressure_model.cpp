@@ -12,25 +12,12 @@ namespace {
 
 // Rate groups, sources (wells and images) and the smallest well radius.
 double add_sources(const std::vector<WellInput>& wells, const RunSettings& settings, const InputList& list,
-                   const std::vector<char>* apart, PressureModel& m) {
+                   PressureModel& m) {
   for (const auto& w : wells) m.steps.push_back(w.steps);
   m.group_of.assign(wells.size(), 0);
   m.groups = 1;
-  m.group_apart.assign(1, 0);
   for (std::size_t w = 0; w < wells.size(); ++w)
-    if (list.well_rate[w] != InputList::npos) {
-      m.group_of[w] = m.groups++;
-      m.group_apart.push_back(apart && (*apart)[w]);
-    }
-  std::size_t apart_global = 0;  // the group of the apart wells with the global factor only
-  for (std::size_t w = 0; w < wells.size(); ++w)
-    if (apart && (*apart)[w] && list.well_rate[w] == InputList::npos) {
-      if (apart_global == 0) {
-        apart_global = m.groups++;
-        m.group_apart.push_back(1);
-      }
-      m.group_of[w] = apart_global;
-    }
+    if (list.well_rate[w] != InputList::npos) m.group_of[w] = m.groups++;
   m.first_source.assign(wells.size() + 1, 0);
   double rw_min = std::numeric_limits<double>::infinity();
   for (std::size_t w = 0; w < wells.size(); ++w) {
@@ -61,12 +48,11 @@ Eigen::MatrixXd rate_factors(const PressureModel& m, const InputList& list, cons
 }  // namespace
 
 PressureModel build_pressure_model(const std::vector<WellInput>& wells, const std::vector<SegmentInput>& segments,
-                                   const RunSettings& settings, const InputList& list, const SampledRealizations& r,
-                                   const std::vector<char>* apart) {
+                                   const RunSettings& settings, const InputList& list, const SampledRealizations& r) {
   PressureModel m;
   m.diffusivity_min = *std::min_element(r.diffusivity.begin(), r.diffusivity.end());
   m.diffusivity_max = *std::max_element(r.diffusivity.begin(), r.diffusivity.end());
-  const double rw_min = add_sources(wells, settings, list, apart, m);
+  const double rw_min = add_sources(wells, settings, list, m);
   std::vector<hydro::ObservationPoint> points;
   m.segment_points.resize(segments.size());
   double r2_max = 0.0;

@@ -43,16 +43,11 @@ struct PressureModel {
   std::size_t nodes = 0;                                 // Chebyshev nodes in ln D
   std::optional<hydro::PressureSurrogate> surrogate;     // at the segments' check points
   Eigen::MatrixXd factor;                                // groups × valid realizations: f_g
-  std::vector<char> group_apart;                         // per group: its wells are in the set kept apart
   PressureDraws draws;                                   // the realizations' basis and P · f_g
 };
 
 // Builds the model for the valid realizations of `r` (their D, P and rate-factor inputs).
-// `apart` (per well, optional): wells kept apart from the others, so that their Δp is a sum over
-// groups of their own (the allowable rate, group_factors.hpp): the apart wells with the global
-// factor only form one more group; wells with their own factor are alone in theirs already.
 PressureModel build_pressure_model(const std::vector<WellInput>& wells, const std::vector<SegmentInput>& segments,
-                                   const RunSettings& settings, const InputList& list, const SampledRealizations& r,
-                                   const std::vector<char>* apart = nullptr);
+                                   const RunSettings& settings, const InputList& list, const SampledRealizations& r);
 
 }  // namespace slipscreen::probabilistic

@@ -121,6 +121,8 @@ std::vector<std::uint8_t> encode_partial(const PartialResult& p) {
     for (const auto& d : s.dp) w.sketch(d);
     w.doubles(s.margin);
     w.doubles(s.dp_by_time);
+    w.word(s.what_if.size());
+    for (const auto& v : s.what_if) w.words(v);
   }
   w.words(p.map_dangerous);
   w.words(p.map_oriented);
@@ -147,6 +149,8 @@ PartialResult decode_partial(std::span<const std::uint8_t> bytes) {
     for (auto& d : s.dp) d = r.sketch();
     s.margin = r.doubles();
     s.dp_by_time = r.doubles();
+    s.what_if.resize(r.count());
+    for (auto& v : s.what_if) v = r.words();
   }
   p.map_dangerous = r.words();
   p.map_oriented = r.words();
@@ -183,6 +187,9 @@ PartialResult merge_partials(std::vector<PartialResult> parts) {
       if (a.margin.size() != na || b.margin.size() != nb)
         throw InputError("slip margins", std::to_string(b.margin.size()), "one per column of the part");
       a.margin.insert(a.margin.end(), b.margin.begin(), b.margin.end());
+      if (a.what_if.size() != b.what_if.size())
+        throw InputError("what-if counts", std::to_string(b.what_if.size()), std::to_string(a.what_if.size()) + " variants as in part 0");
+      for (std::size_t v = 0; v < a.what_if.size(); ++v) add_counts(a.what_if[v], b.what_if[v], "what-if counts");
       const std::size_t n_out = a.dp.size();
       if (!a.dp_by_time.empty() || !b.dp_by_time.empty()) {
         if (a.dp_by_time.size() != na * n_out || b.dp_by_time.size() != nb * n_out)

@@ -45,6 +45,7 @@ struct SegmentPart {
   std::vector<stats::QuantileSketch> dp;  // per output time
   std::vector<double> margin;             // per column: Δp_crit − Δp(final output time)
   std::vector<double> dp_by_time;         // [t · columns + c]; empty unless attribute_median
+  std::vector<std::vector<std::uint64_t>> what_if;  // per what-if variant: slips by output time
   bool operator==(const SegmentPart&) const = default;
 };
 

@@ -32,11 +32,12 @@ struct Tracking {
   std::vector<std::vector<float>> median_nodes;              // every table's nodes at every output time [t * wells + w]
   std::vector<std::pair<std::uint64_t, Eigen::Index>> audit_cols;  // audited realizations: (index, column)
   std::vector<char> audited;                                 // per segment
+  std::vector<VariantSearch> variants;                       // RunSettings::what_if, prepared
 };
 
 Tracking prepare_tracking(const std::vector<WellInput>& wells, const std::vector<SegmentInput>& segments,
                           const RunSettings& settings, const SampledRealizations& r, const PressureModel& pm) {
-  Tracking tr{wells, segments, settings, r, pm, {}, {}, {}, {}};
+  Tracking tr{wells, segments, settings, r, pm, {}, {}, {}, {}, {}};
   const std::size_t n = r.keep.size();
   tr.input_ranks.resize(static_cast<std::size_t>(r.inputs.rows()));
   for (std::size_t j = 0; j < tr.input_ranks.size(); ++j) {
@@ -225,6 +226,8 @@ SegmentPart segment_part(const Tracking& tr, const SegmentOutcome& o, std::size_
   for (std::size_t t = 0; t < n_out; ++t)  // one sketch at a time (its buckets stay in cache)
     for (std::size_t c = 0; c < n; ++c) res.dp[t].add(by_time(static_cast<Eigen::Index>(c), static_cast<Eigen::Index>(t)));
   res.margin = count_slips(tr, o, c0, res);
+  for (const auto& v : tr.variants)
+    res.what_if.push_back(variant_segment_slips(v, tr.r.dp_crit, o.segment, o.first_crossing, c0, tr.settings.output_index));
   if (tr.settings.attribute_median) res.dp_by_time.assign(by_time.data(), by_time.data() + by_time.size());
   return res;
 }
@@ -249,11 +252,14 @@ SegmentResult finish_segment(const Tracking& tr, std::size_t segment, SegmentPar
 void track_segments(const Tracking& tr, ProbabilisticResult& out) {
   const std::size_t n_seg = tr.segments.size();
   out.segments.resize(n_seg);
+  out.what_if.assign(tr.variants.size(), std::vector<std::vector<std::uint64_t>>(n_seg));
   std::vector<std::vector<AuditEntry>> audit_by_segment(n_seg);
   track_slip(*tr.pm.surrogate, tr.pm.segment_points, tr.pm.draws, tr.r.dp_crit, tr.settings.output_index,
              [&](const SegmentOutcome& o) {
                add_audit_entries(tr, o, audit_by_segment[o.segment]);
-               out.segments[o.segment] = finish_segment(tr, o.segment, segment_part(tr, o, 0));
+               SegmentPart part = segment_part(tr, o, 0);
+               for (std::size_t v = 0; v < part.what_if.size(); ++v) out.what_if[v][o.segment] = std::move(part.what_if[v]);
+               out.segments[o.segment] = finish_segment(tr, o.segment, std::move(part));
              });
   for (auto& v : audit_by_segment)
     for (auto& a : v) out.audit.push_back(std::move(a));
@@ -293,10 +299,16 @@ bool merge_split(const Tracking& tr, const RealizationSplit& split, Probabilisti
   if (m.columns.end != tr.r.keep.size())
     throw InputError("merged columns", std::to_string(m.columns.end), std::to_string(tr.r.keep.size()) + " valid realizations");
   out.segments.resize(m.segments.size());
+  out.what_if.assign(tr.variants.size(), std::vector<std::vector<std::uint64_t>>(m.segments.size()));
   util::ParallelErrors errors;
 #pragma omp parallel for schedule(dynamic, 1)
   for (std::size_t s = 0; s < m.segments.size(); ++s)
-    errors.iteration(s, [&] { out.segments[s] = finish_segment(tr, s, std::move(m.segments[s])); });
+    errors.iteration(s, [&] {
+      if (m.segments[s].what_if.size() != tr.variants.size())
+        throw InputError("what-if counts", std::to_string(m.segments[s].what_if.size()), "one per variant");
+      for (std::size_t v = 0; v < tr.variants.size(); ++v) out.what_if[v][s] = std::move(m.segments[s].what_if[v]);
+      out.segments[s] = finish_segment(tr, s, std::move(m.segments[s]));
+    });
   errors.rethrow();
   out.map_dangerous = std::move(m.map_dangerous);
   out.map_oriented = std::move(m.map_oriented);
@@ -305,42 +317,23 @@ bool merge_split(const Tracking& tr, const RealizationSplit& split, Probabilisti
   return true;
 }
 
-// The group's curves: the pressure model of the split wells with the group apart, each split
-// well taking the sampled rate factor of its origin (the same realizations as the screen's).
-// When no well is split and every group well has a rate group of its own already (its own rate
-// factor), the screen's model serves as it is.
-std::vector<SlipFactorCurve> capacity_curves(const GroupSplit& g, const PressureModel& screen_pm,
-                                             const std::vector<SegmentInput>& segments, const RunSettings& settings,
-                                             const InputList& list, const SampledRealizations& r) {
+// The pressure model of a group's scaled part (group_factors.hpp): its split wells over the part
+// of their schedules that is scaled, each taking the sampled rate factor of its origin well (the
+// same realizations and rate groups as the screen's).
+PressureModel group_part_model(const GroupSplit& g, const std::vector<SegmentInput>& segments, const RunSettings& settings,
+                               const InputList& list, const SampledRealizations& r) {
   if (g.origin.size() != g.wells.size() || g.in_group.size() != g.wells.size())
-    throw InputError("capacity group", std::to_string(g.wells.size()) + " wells", "an origin and a flag per split well");
-  bool reuse = g.wells.size() == screen_pm.group_of.size();
-  for (std::size_t w = 0; reuse && w < g.wells.size(); ++w)
-    reuse = g.origin[w] == w && (!g.in_group[w] || list.well_rate[w] != InputList::npos);
-  if (reuse) {
-    std::vector<char> apart(screen_pm.groups, 0);
-    for (std::size_t w = 0; w < g.wells.size(); ++w)
-      if (g.in_group[w]) apart[screen_pm.group_of[w]] = 1;
-    return group_factor_curves(screen_pm, apart, r.dp_crit, g.horizon, g.f_max);
-  }
-  InputList split = list;
-  split.well_rate.clear();
-  for (std::size_t o : g.origin) split.well_rate.push_back(list.well_rate.at(o));
-  const PressureModel pm = build_pressure_model(g.wells, segments, settings, split, r, &g.in_group);
-  return group_factor_curves(pm, pm.group_apart, r.dp_crit, g.horizon, g.f_max);
-}
-
-// A what-if variant: the pressure model of its split wells with its group apart.
-std::vector<std::vector<std::uint64_t>> variant_slips(const GroupSplit& g, const std::vector<SegmentInput>& segments,
-                                                      const RunSettings& settings, const InputList& list,
-                                                      const SampledRealizations& r) {
-  if (g.origin.size() != g.wells.size() || g.in_group.size() != g.wells.size())
-    throw InputError("what-if group", std::to_string(g.wells.size()) + " wells", "an origin and a flag per split well");
-  InputList split = list;
-  split.well_rate.clear();
-  for (std::size_t o : g.origin) split.well_rate.push_back(list.well_rate.at(o));
-  const PressureModel pm = build_pressure_model(g.wells, segments, settings, split, r, &g.in_group);
-  return group_variant_slips(pm, pm.group_apart, r.dp_crit, settings.output_index, g.factor);
+    throw InputError("well group", std::to_string(g.wells.size()) + " wells", "an origin and a flag per split well");
+  std::vector<WellInput> part;
+  InputList part_list = list;
+  part_list.well_rate.clear();
+  for (std::size_t w = 0; w < g.wells.size(); ++w)
+    if (g.in_group[w]) {
+      part.push_back(g.wells[w]);
+      part_list.well_rate.push_back(list.well_rate.at(g.origin[w]));
+    }
+  if (part.empty()) throw InputError("well group", "(no well)", "at least one well whose rates are scaled");
+  return build_pressure_model(part, segments, settings, part_list, r);
 }
 
 }  // namespace
@@ -405,14 +398,18 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
   out.diffusivity_min = pm.diffusivity_min;
   out.diffusivity_max = pm.diffusivity_max;
   out.surrogate_error = pm.surrogate->max_relative_error();
-  // The allowable rate and the what-if variants are not split yet: part 0 computes them over every
-  // realization (each part samples them all and builds the same model), so they equal the unsplit
-  // run's (docs/cluster.md, "Not done yet").
+  // The allowable rate is not split yet: part 0 computes it over every realization (each part
+  // samples them all and builds the same model), so it equals the unsplit run's (docs/cluster.md,
+  // "Not done yet"). The what-if variants are searched segment by segment while the screen tracks
+  // (segment_part), from the screen's first crossings, and their counts merge like the screen's.
   const auto decision_answers = [&] {
-    if (settings.capacity) out.capacity = capacity_curves(*settings.capacity, pm, segments, settings, list, r);
-    for (const auto& v : settings.what_if) out.what_if.push_back(variant_slips(v, segments, settings, list, r));
+    if (settings.capacity)
+      out.capacity = group_factor_curves(pm, group_part_model(*settings.capacity, segments, settings, list, r), r.dp_crit,
+                                         settings.capacity->horizon, settings.capacity->f_max);
   };
-  const Tracking tr = prepare_tracking(wells, segments, settings, r, pm);
+  Tracking tr = prepare_tracking(wells, segments, settings, r, pm);
+  for (const auto& v : settings.what_if)
+    tr.variants.push_back(prepare_variant(pm, group_part_model(v, segments, settings, list, r), v.factor, r.keep.size()));
   if (split_run) {
     if (!merge_split(tr, *split, out))
       out.merged_elsewhere = true;

@@ -35,6 +35,15 @@ struct SplitCase {
       for (double y : {0.0, 1000.0}) settings.map_points.push_back({x, y});
     settings.map_strike = 15 * kDeg;
     settings.map_dip = 80 * kDeg;
+    // A what-if variant: the first well at half its rates (its counts merge like the screen's).
+    GroupSplit half;
+    half.wells = wells;
+    for (std::size_t w = 0; w < wells.size(); ++w) {
+      half.origin.push_back(w);
+      half.in_group.push_back(w == 0);
+    }
+    half.factor = 0.5;
+    settings.what_if.push_back(half);
   }
 };
 
@@ -87,6 +96,7 @@ void check_identical(const ProbabilisticResult& a, const ProbabilisticResult& b)
       CHECK(x.median[t].well_dp == y.median[t].well_dp);
     }
   }
+  CHECK(a.what_if == b.what_if);
   CHECK(a.map_dangerous == b.map_dangerous);
   CHECK(a.map_oriented == b.map_oriented);
   CHECK(a.map_dangerous_already_critical == b.map_dangerous_already_critical);
@@ -128,6 +138,7 @@ TEST_CASE("encode_partial/decode_partial round trip; truncated buffers are refus
   s.dp[1].add(3e5);
   s.margin = {1.0, -2.5};
   s.dp_by_time = {1, 2, 3, 4};
+  s.what_if = {{1, 2}, {0, 3}};
   p.segments = {s, s};
   p.map_dangerous = {5, 6};
   p.map_dangerous_already_critical = 7;
@@ -152,6 +163,11 @@ TEST_CASE("run_probabilistic split into 2 and 3 parts gives the unsplit result b
   for (const auto& s : whole.segments)
     partial_slip |= s.slipped_by.back() > 0 && s.slipped_by.back() < whole.realizations;
   CHECK(partial_slip);
+  // ... and the variant must differ from the base somewhere.
+  REQUIRE(whole.what_if.size() == 1);
+  bool variant_moves = false;
+  for (std::size_t s = 0; s < whole.segments.size(); ++s) variant_moves |= whole.what_if[0][s] != whole.segments[s].slipped_by;
+  CHECK(variant_moves);
   for (std::size_t parts : {2u, 3u}) {
     CAPTURE(parts);
     check_identical(whole, run_split(c, parts));
