@@ -1,5 +1,6 @@
 #include "formats/gis/gdal_errors.hpp"
 
+#include <cpl_conv.h>
 #include <cpl_error.h>
 #include <gdal.h>
 
@@ -21,7 +22,15 @@ struct GdalErrorSink {
 
 void ensure_gdal_registered() {
   static std::once_flag once;
-  std::call_once(once, [] { GDALAllRegister(); });
+  std::call_once(once, [] {
+    GDALAllRegister();
+    // GDAL builds a GeoPackage's spatial index in a background thread when the process may use
+    // more than one CPU, which changes the SQLite change counter in the file's header (bytes
+    // 24-27 and 92-95): the same run then wrote different bytes when bound to one core (as
+    // mpirun binds its ranks). Building it in the writing thread makes screen.gpkg the same for
+    // any CPU set (docs/cluster.md); the index itself is the same either way.
+    CPLSetConfigOption("OGR_GPKG_ALLOW_THREADED_RTREE", "NO");
+  });
 }
 
 GdalErrorScope::GdalErrorScope(std::string context) : context_(std::move(context)) {
