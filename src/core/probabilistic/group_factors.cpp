@@ -61,8 +61,8 @@ struct Pair {
 
 // f_crit of every realization of segment s, chunk by chunk of kChunk tracking times: a chunk is
 // evaluated for a realization only where B_base + max(1, f − 1)·B_part over the chunk reaches
-// Δp_crit, f the smallest factor found so far (at first f_max): no time in the other chunks can
-// give a factor at or below f. Factors above f_max are reported as +∞ (exact on [0, f_max]).
+// Δp_crit, f the smallest factor found so far (at first f_max): no time in that chunk can give a
+// factor at or below f. Factors above f_max are reported as +∞ (exact on [0, f_max]).
 SlipFactorCurve segment_curve(const Pair& m, const Eigen::MatrixXf& dp_crit, std::size_t s, Eigen::Index rows, double f_max) {
   const Eigen::Index n = dp_crit.cols();
   const auto& pts = m.base.segment_points[s];
@@ -85,8 +85,11 @@ SlipFactorCurve segment_curve(const Pair& m, const Eigen::MatrixXf& dp_crit, std
     const double crit = crit_of(r);
     if (crit > 0.0 && !std::isinf(crit)) active.push_back(r);
   }
+  // Latest chunk first: Δp usually grows while the wells inject, so the late chunks give the
+  // small factors early, and the tightened bound then skips most of the earlier ones. Any order
+  // gives the same minimum.
   const Eigen::Index n_chunks = (rows + kChunk - 1) / kChunk;
-  for (Eigen::Index q = 0; q < n_chunks && !active.empty(); ++q) {
+  for (Eigen::Index q = n_chunks - 1; q >= 0 && !active.empty(); --q) {
     const Eigen::Index k0 = q * kChunk, len = std::min(kChunk, rows - k0);
     in_chunk.clear();
     for (Eigen::Index r : active)
