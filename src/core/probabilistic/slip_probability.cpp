@@ -32,6 +32,7 @@ struct Tracking {
   std::vector<std::vector<float>> median_nodes;              // every table's nodes at every output time [t * wells + w]
   std::vector<std::pair<std::uint64_t, Eigen::Index>> audit_cols;  // audited realizations: (index, column)
   std::vector<char> audited;                                 // per segment
+  const ImportanceWeights* weights = nullptr;                // conditioned runs: per column
 };
 
 Tracking prepare_tracking(const std::vector<WellInput>& wells, const std::vector<SegmentInput>& segments,
@@ -94,15 +95,21 @@ std::vector<double> count_slips(const Tracking& tr, const SegmentOutcome& o, std
       continue;
     }
     res.dp_crit.add(dc);
+    const std::uint64_t u = tr.weights ? tr.weights->units[c0 + c] : 0;
+    if (tr.weights) res.conditioned.dp_crit.add(dc, u);
     if (dc <= 0.0) {
       ++res.already_critical;
+      res.conditioned.already_critical += u;
       continue;
     }
     const int first = o.first_crossing[c];
     if (first < 0) continue;
     ++res.first_slip[static_cast<std::size_t>(first)];
     for (std::size_t t = 0; t < n_out; ++t)
-      if (tr.settings.output_index[t] >= static_cast<std::size_t>(first)) ++res.slipped_by[t];
+      if (tr.settings.output_index[t] >= static_cast<std::size_t>(first)) {
+        ++res.slipped_by[t];
+        if (tr.weights) res.conditioned.slipped_by[t] += u;
+      }
   }
   return margin;
 }
@@ -224,6 +231,14 @@ SegmentPart segment_part(const Tracking& tr, const SegmentOutcome& o, std::size_
   const Eigen::MatrixXd by_time = o.dp_at_output.transpose();
   for (std::size_t t = 0; t < n_out; ++t)  // one sketch at a time (its buckets stay in cache)
     for (std::size_t c = 0; c < n; ++c) res.dp[t].add(by_time(static_cast<Eigen::Index>(c), static_cast<Eigen::Index>(t)));
+  if (tr.weights) {
+    res.conditioned.slipped_by.assign(n_out, 0);
+    res.conditioned.dp.assign(n_out, stats::WeightedSketch());
+    for (std::size_t t = 0; t < n_out; ++t)
+      for (std::size_t c = 0; c < n; ++c)
+        res.conditioned.dp[t].add(by_time(static_cast<Eigen::Index>(c), static_cast<Eigen::Index>(t)),
+                                  tr.weights->units[c0 + c]);
+  }
   res.margin = count_slips(tr, o, c0, res);
   if (tr.settings.attribute_median) res.dp_by_time.assign(by_time.data(), by_time.data() + by_time.size());
   return res;
@@ -239,6 +254,7 @@ SegmentResult finish_segment(const Tracking& tr, std::size_t segment, SegmentPar
   res.never_critical = part.never_critical;
   res.dp_crit = std::move(part.dp_crit);
   res.dp = std::move(part.dp);
+  res.conditioned = std::move(part.conditioned);
   res.sensitivity = sensitivities(tr, segment, part.margin);
   if (tr.settings.attribute_median) res.median = median_attributions(tr, segment, part.dp_by_time, res);
   return res;
@@ -412,7 +428,9 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
     if (settings.capacity) out.capacity = capacity_curves(*settings.capacity, pm, segments, settings, list, r);
     for (const auto& v : settings.what_if) out.what_if.push_back(variant_slips(v, segments, settings, list, r));
   };
-  const Tracking tr = prepare_tracking(wells, segments, settings, r, pm);
+  if (!settings.observations.empty()) out.conditioning = condition_on_pressures(pm, wells, settings, list, r.inputs);
+  Tracking tr = prepare_tracking(wells, segments, settings, r, pm);
+  if (out.conditioning) tr.weights = &out.conditioning->weights;
   if (split_run) {
     if (!merge_split(tr, *split, out))
       out.merged_elsewhere = true;
