@@ -319,7 +319,8 @@ from = "2027-02-01"                # ... from this date on
 # tools/make-demo-observations.py from a stated "true" parameter set.
 [observations]
 pressure = "pressure_observations.csv"   # id, x, y, date, dp, sd; CRS in its header
-model_error = "0.1 MPa"            # the model's own error, added to each sd in quadrature
+model_error = "0.5 MPa"            # the simplified model's own error, added to each sd in quadrature
+                                   # (an assumption; with 0.3 MPa n_eff falls below 200 of 2,000)
 
 # The earthquake catalog reviewed with the run (docs/catalogs.md). SYNTHETIC events drawn by
 # tools/make-demo-catalog.py for this fictional region; the CSV form holds the same events.
