@@ -54,6 +54,25 @@ std::string conditioned_columns(const screening::ProbabilisticRun& run, std::siz
          u.text(c.dp[k].quantile(0.5), P, 4) + ',' + u.text(c.dp[k].quantile(0.95), P, 4);
 }
 
+std::string conditioned_summary_header(const screening::ProbabilisticRun& run, const OutputUnits& u) {
+  if (!run.result.conditioning) return {};
+  return ",p_slip_final_conditioned,p_slip_final_conditioned_ci_low,p_slip_final_conditioned_ci_high," +
+         u.column("dp_crit_p05_conditioned", P) + ',' + u.column("dp_crit_p50_conditioned", P) + ',' +
+         u.column("dp_crit_p95_conditioned", P);
+}
+
+std::string conditioned_summary_columns(const screening::ProbabilisticRun& run, std::size_t segment, double z,
+                                        const OutputUnits& u) {
+  if (!run.result.conditioning) return {};
+  const auto& c = run.result.segments[segment].conditioned;
+  const auto ci = probabilistic::weighted_proportion(c.slipped_by.back(), run.result.conditioning->weights, z);
+  // Δp_crit is empty (no finite value) or carries no weight: empty cells, as the prior's.
+  const bool any = c.dp_crit.total_weight() > 0;
+  const auto crit = [&](double q) { return any ? u.text(c.dp_crit.quantile(q), P, 4) : std::string(); };
+  return ',' + fixed_decimals(ci.estimate, 4) + ',' + fixed_decimals(ci.lower, 4) + ',' + fixed_decimals(ci.upper, 4) +
+         ',' + crit(0.05) + ',' + crit(0.5) + ',' + crit(0.95);
+}
+
 void write_conditioning_tables(const formats::RunFolder& folder, const scenario::ResolvedScenario& s,
                                const screening::ProbabilisticRun& run, const OutputUnits& u) {
   if (!run.result.conditioning || !s.observations) return;

@@ -21,6 +21,12 @@ std::string conditioned_columns_header(const screening::ProbabilisticRun& run, c
 std::string conditioned_columns(const screening::ProbabilisticRun& run, std::size_t segment, std::size_t k, double z,
                                 const OutputUnits& u);
 
+// segment_probability_summary.csv's conditioned columns (final P(slip) with its interval, Δp_crit
+// percentiles), empty when the run is not conditioned.
+std::string conditioned_summary_header(const screening::ProbabilisticRun& run, const OutputUnits& u);
+std::string conditioned_summary_columns(const screening::ProbabilisticRun& run, std::size_t segment, double z,
+                                        const OutputUnits& u);
+
 // posterior_inputs.csv and observation_fit.csv (tables on, run conditioned).
 void write_conditioning_tables(const formats::RunFolder& folder, const scenario::ResolvedScenario& s,
                                const screening::ProbabilisticRun& run, const OutputUnits& u);

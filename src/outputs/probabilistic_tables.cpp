@@ -75,7 +75,7 @@ void write_probability_summary(const Context& c) {
     << u.column("dp_crit_p95", P)
     << ",p_already_critical,p_never_critical,p_slip_final,p_slip_final_ci_low,p_slip_final_ci_high";
   for (double th : run.thresholds) t << ",first_date_p_" << fixed_decimals(th, 3);
-  t << '\n';
+  t << conditioned_summary_header(run, u) << '\n';
   for (std::size_t i = 0; i < res.segments.size(); ++i) {
     const auto& seg = res.segments[i];
     const auto ci = stats::wilson_interval(seg.slipped_by[K - 1], res.realizations, z);
@@ -86,7 +86,7 @@ void write_probability_summary(const Context& c) {
       << ',' << f3(static_cast<double>(seg.never_critical) / n) << ',' << f3(ci.estimate) << ',' << f3(ci.lower)
       << ',' << f3(ci.upper);
     for (double th : run.thresholds) t << ',' << screening::first_date_reaching(run, i, th);
-    t << '\n';
+    t << conditioned_summary_columns(run, i, z, u) << '\n';
   }
   formats::write_text_file(folder.output("output.files.segment_probability_summary", "segment_probability_summary.csv"), t.str());
 }
