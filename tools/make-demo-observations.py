@@ -12,7 +12,7 @@ The true set differs from the region's best estimates on purpose (permeability 4
 region says 30 mD): the conditioned screen should move towards it.
 
 Reproducible: standard library only, fixed seed; running it again rewrites an identical file.
-Usage: tools/make-demo-observations.py [region-folder]   (default: regions/marrowick)
+Usage: tools/make-demo-observations.py [region-folder]   (default: regions/marrowick; writes pressures.csv)
 """
 import csv
 import math
@@ -153,7 +153,7 @@ def main():
             t = days_from_civil(yy, mm, 1) * 86400.0
             dp = dp_true(x, y, t, wells, steps) / PSI + rng.gauss(0.0, sd)
             lines.append("%s,%.1f,%.1f,%04d-%02d-01,%.1f,%.0f" % (wid, x, y, yy, mm, dp, sd))
-    with open(os.path.join(folder, "pressure_observations.csv"), "w", newline="\n") as f:
+    with open(os.path.join(folder, "pressures.csv"), "w", newline="\n") as f:
         f.write("\n".join(lines) + "\n")
 
 

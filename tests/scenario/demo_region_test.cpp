@@ -44,7 +44,7 @@ TEST_CASE("demo scenario: at least 12 wells with 8-15 years of monthly volumes, 
 TEST_CASE("demo region files are labelled fictional") {
   const fs::path dir = fs::path(SLIPSCREEN_SOURCE_DIR) / "regions/marrowick";
   for (const char* f : {"README.md", "region.toml", "scenario.toml", "wells.csv", "histories.csv", "faults.geojson",
-                        "pressure_observations.csv"}) {
+                        "pressures.csv"}) {
     CAPTURE(f);
     CHECK(slurp(dir / f).find("FICTIONAL") != std::string::npos);
   }
@@ -77,7 +77,7 @@ TEST_CASE("tools/make-demo-observations.py regenerates the committed observation
                           (fs::path(SLIPSCREEN_SOURCE_DIR) / "tools/make-demo-observations.py").string() + "' '" +
                           out.string() + "'";
   REQUIRE(std::system(cmd.c_str()) == 0);
-  CHECK(slurp(out / "pressure_observations.csv") == slurp(dir / "pressure_observations.csv"));
+  CHECK(slurp(out / "pressures.csv") == slurp(dir / "pressures.csv"));
   const ResolvedScenario s = load_scenario(dir / "scenario.toml");
   REQUIRE(s.observations);
   CHECK(s.observations->pressure.size() >= 20);  // two monitoring wells and a few shut-in surveys
