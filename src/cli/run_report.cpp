@@ -217,6 +217,34 @@ void print_probabilistic(std::ostream& out, const screening::ProbabilisticSummar
   }
 }
 
+// The conditioned screen: observations, n_eff (with the warning), the inputs the data moved most
+// and prior against conditioned P(slip) (docs/conditioning.md).
+void print_conditioning(std::ostream& out, const screening::ConditioningSummary& c, const std::string& last_date) {
+  char line[256];
+  std::snprintf(line, sizeof line, "  Conditioned on %zu pressure observations: effective sample size %.1f of %llu\n",
+                c.observations, c.n_eff, static_cast<unsigned long long>(c.realizations));
+  out << line;
+  if (!c.warning.empty()) out << "  Warning: " << c.warning << "\n";
+  if (!c.moved.empty()) {
+    out << "  Inputs the observations moved most (posterior against prior; width: ratio of P5-P95 widths,\n"
+           "  shift: change of the median in prior P5-P95 widths; all in posterior_inputs.csv):\n";
+    for (const auto& m : c.moved) {
+      std::snprintf(line, sizeof line, "    %-28s width x%.3f  shift %+.3f\n", m.input.c_str(), m.width_ratio,
+                    m.median_shift);
+      out << line;
+    }
+  }
+  out << "  P(slip by " << last_date << "), prior and conditioned (interval: Wilson with n = n_eff, approximate):\n";
+  out << "    " << pad("fault", 10) << pad("segment", 12) << pad("prior", 8) << pad("conditioned", 13) << "interval\n";
+  for (const auto& g : c.segments) {
+    char pr[32], pc[32], ci[48];
+    std::snprintf(pr, sizeof pr, "%.3f", g.p_prior);
+    std::snprintf(pc, sizeof pc, "%.3f", g.p_conditioned);
+    std::snprintf(ci, sizeof ci, "[%.3f, %.3f]", g.ci_low, g.ci_high);
+    out << "    " << pad(g.fault_id, 10) << pad(g.segment_id, 12) << pad(pr, 8) << pad(pc, 13) << ci << "\n";
+  }
+}
+
 }  // namespace
 
 int run_and_report(const RunCommandOptions& o, Context& ctx) {
@@ -237,6 +265,7 @@ int run_and_report(const RunCommandOptions& o, Context& ctx) {
 
   print_deterministic(ctx.out, s, r, o.closest);
   if (r.probabilistic) print_probabilistic(ctx.out, *r.probabilistic, s.seed, r.last_date, o.closest);
+  if (r.conditioning) print_conditioning(ctx.out, *r.conditioning, r.last_date);
   if (r.capacity) {
     ctx.out << "\n";
     for (const auto& line : outputs::capacity_console(*r.capacity, outputs::OutputUnits(s.output.units))) ctx.out << line << "\n";

@@ -11,6 +11,7 @@
 #include <algorithm>
 
 #include "core/geomech/frictional_limit.hpp"
+#include "screening/conditioning.hpp"
 #include "screening/prepare.hpp"
 #include "screening/run_cost.hpp"
 #include "scenario/scenario.hpp"
@@ -27,6 +28,7 @@ int run_validate(const ValidateOptions& o, Context& ctx) {
   const scenario::ResolvedScenario s = scenario::load_scenario(o.scenario);
   // Everything a run checks before computing: CRSs, the fault map, stresses, formation, grid.
   const screening::PreparedRun p = screening::prepare_run(s, o.allow_network);
+  screening::observation_inputs(s, p);  // [observations]: an observation at an injector is refused
   const screening::RunCost cost = screening::estimate_run_cost(s, p);
   screening::refuse_beyond_memory(cost, screening::memory_limit_bytes(s), s.file);
   print_scenario_summary(s, ctx.out);

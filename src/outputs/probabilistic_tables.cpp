@@ -8,6 +8,7 @@
 #include "core/stats/wilson_interval.hpp"
 #include "formats/files/text_file.hpp"
 #include "formats/gis/geotiff.hpp"
+#include "outputs/conditioning_tables.hpp"
 #include "outputs/gis_styles.hpp"
 #include "outputs/styled_raster.hpp"
 #include "formats/table/csv.hpp"
@@ -43,7 +44,8 @@ void write_segment_probability(const Context& c) {
   const auto& res = run.result;
   std::ostringstream t;
   t << "segment_id,fault_id,date,p_slip,p_slip_ci_low,p_slip_ci_high,p_already_critical," << u.column("dp_p05", P)
-    << ',' << u.column("dp_p50", P) << ',' << u.column("dp_p95", P) << ",thresholds_reached\n";
+    << ',' << u.column("dp_p50", P) << ',' << u.column("dp_p95", P) << ",thresholds_reached"
+    << conditioned_columns_header(run, u) << '\n';
   for (std::size_t i = 0; i < res.segments.size(); ++i) {
     const auto& seg = res.segments[i];
     for (std::size_t k = 0; k < K; ++k) {
@@ -58,7 +60,7 @@ void write_segment_probability(const Context& c) {
         << util::format_iso_date(s.output.dates[k]) << ',' << f3(ci.estimate) << ',' << f3(ci.lower) << ','
         << f3(ci.upper) << ',' << f3(static_cast<double>(seg.already_critical) / n) << ','
         << u.text(seg.dp[k].quantile(0.05), P, 4) << ',' << u.text(seg.dp[k].quantile(0.5), P, 4) << ','
-        << u.text(seg.dp[k].quantile(0.95), P, 4) << ',' << reached << '\n';
+        << u.text(seg.dp[k].quantile(0.95), P, 4) << ',' << reached << conditioned_columns(run, i, k, z, u) << '\n';
     }
   }
   formats::write_text_file(folder.output("output.files.segment_probability", "segment_probability.csv"), t.str());
@@ -73,7 +75,7 @@ void write_probability_summary(const Context& c) {
     << u.column("dp_crit_p95", P)
     << ",p_already_critical,p_never_critical,p_slip_final,p_slip_final_ci_low,p_slip_final_ci_high";
   for (double th : run.thresholds) t << ",first_date_p_" << fixed_decimals(th, 3);
-  t << '\n';
+  t << conditioned_summary_header(run, u) << '\n';
   for (std::size_t i = 0; i < res.segments.size(); ++i) {
     const auto& seg = res.segments[i];
     const auto ci = stats::wilson_interval(seg.slipped_by[K - 1], res.realizations, z);
@@ -84,7 +86,7 @@ void write_probability_summary(const Context& c) {
       << ',' << f3(static_cast<double>(seg.never_critical) / n) << ',' << f3(ci.estimate) << ',' << f3(ci.lower)
       << ',' << f3(ci.upper);
     for (double th : run.thresholds) t << ',' << screening::first_date_reaching(run, i, th);
-    t << '\n';
+    t << conditioned_summary_columns(run, i, z, u) << '\n';
   }
   formats::write_text_file(folder.output("output.files.segment_probability_summary", "segment_probability_summary.csv"), t.str());
 }
@@ -233,6 +235,7 @@ void write_probabilistic_outputs(const formats::RunFolder& folder, const scenari
     write_dp_crit_quantiles(c);
     write_sensitivity(c);
     write_median_well_shares(c);
+    write_conditioning_tables(folder, s, run, c.units);
   }
   if (s.output.rasters && !run.result.map_dangerous.empty()) write_probability_rasters(c);
 }
@@ -257,12 +260,13 @@ std::vector<ReadmeFile> probabilistic_readme(const screening::ProbabilisticRun& 
                                             "[uncertainty.maps], one band per output time"}};
   for (const char* raster : {"slip_probability_dangerous.tif", "slip_probability_oriented.tif"})
     for (auto& f : style_sidecar_readme(raster)) files.push_back(std::move(f));
+  for (auto& f : conditioning_readme(run, system)) files.push_back(std::move(f));
   return files;
 }
 
-nlohmann::json probabilistic_manifest(const screening::ProbabilisticRun& run) {
+nlohmann::json probabilistic_manifest(const scenario::ResolvedScenario& s, const screening::ProbabilisticRun& run) {
   const auto& r = run.result;
-  return {{"uncertainty", scenario::to_json(run.spec)},
+  nlohmann::json j = {{"uncertainty", scenario::to_json(run.spec)},
           {"realizations_valid", r.realizations},
           {"realizations_rejected_unphysical_stress", r.rejected},
           {"realizations_beyond_frictional_limit", r.beyond_frictional_limit},
@@ -275,6 +279,8 @@ nlohmann::json probabilistic_manifest(const screening::ProbabilisticRun& run) {
           {"tracked_times", run.tracked_times.size()},
           {"tracking_grid", screening::kTrackingGridStatement},
           {"map_cell_size_m", run.map_grid.cell_size}};
+  if (r.conditioning) j["conditioning"] = conditioning_manifest(s, run);  // only when conditioned
+  return j;
 }
 
 }  // namespace slipscreen::outputs

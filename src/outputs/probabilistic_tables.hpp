@@ -23,6 +23,6 @@ void write_probabilistic_outputs(const formats::RunFolder& folder, const scenari
 std::vector<ReadmeFile> probabilistic_readme(const screening::ProbabilisticRun& run, units::UnitSystem system);
 
 // The probabilistic block of the manifest.
-nlohmann::json probabilistic_manifest(const screening::ProbabilisticRun& run);
+nlohmann::json probabilistic_manifest(const scenario::ResolvedScenario& s, const screening::ProbabilisticRun& run);
 
 }  // namespace slipscreen::outputs

@@ -123,7 +123,7 @@ void write_run_outputs(const formats::RunFolder& folder, const scenario::Resolve
   m.include_timestamp = !o.reproducible;
   m.inputs = p.manifest_inputs;
   m.parameters = {{"scenario", scenario::to_json(s)}, {"run", run_block(s, p, r.screen)}};
-  if (r.probabilistic) m.parameters["probabilistic"] = probabilistic_manifest(*r.probabilistic);
+  if (r.probabilistic) m.parameters["probabilistic"] = probabilistic_manifest(s, *r.probabilistic);
   if (r.capacity) m.parameters["capacity"] = capacity_manifest(*r.capacity);
   if (r.what_if) m.parameters["what_if"] = what_if_manifest(*r.what_if);
   if (r.review) m.parameters["catalog"] = catalog_manifest(*r.review);

@@ -13,6 +13,7 @@
 #include "formats/toml/toml_section.hpp"
 #include "scenario/capacity_section.hpp"
 #include "scenario/catalog_section.hpp"
+#include "scenario/observations_section.hpp"
 #include "scenario/what_if_section.hpp"
 #include "formats/gis/crs.hpp"
 #include "scenario/plausibility.hpp"
@@ -429,7 +430,7 @@ ResolvedScenario load_scenario(const fs::path& path) {
   const fs::path dir = path.parent_path();
   const formats::Section top({{doc.root.get(), sc.file, "", dir}});
   top.allow({"title", "seed", "memory_limit", "region", "wells", "histories", "proposed_well", "output",
-             "uncertainty", "catalog", "capacity", "what_if"});
+             "uncertainty", "catalog", "capacity", "what_if", "observations"});
   sc.title = top.optional_string("title").value_or("");
   if (auto seed = top.optional_integer("seed")) {
     if (*seed < 0) top.fail("seed", std::to_string(*seed), "a seed >= 0");
@@ -478,6 +479,15 @@ ResolvedScenario load_scenario(const fs::path& path) {
     if (!sc.uncertainty.given)
       ws.fail("name", w.name, "an [uncertainty] table too: what-if variants come from the probabilistic screen");
     sc.what_if.push_back(std::move(w));
+  }
+  if (top.has("observations")) {
+    const formats::Section obs = top.child("observations");
+    if (!sc.uncertainty.given)
+      top.fail("observations", "[observations]",
+               "an [uncertainty] table too: observations weight the realizations of the probabilistic screen");
+    sc.observations = read_observations_spec(obs, wells_crs.empty() ? sc.wells.front().crs : wells_crs,
+                                             sc.region.pore_pressure_gradient);
+    sc.inputs.push_back(sc.observations->pressure_path);
   }
   return sc;
 }
@@ -621,6 +631,11 @@ nlohmann::json to_json(const ResolvedScenario& s) {
           {"output", output_json(s.output, s.region.crs)},
           {"uncertainty_given", s.uncertainty.given}};
   if (s.allow_outside) j["wells_allow_outside"] = true;  // only when set (earlier manifests stay unchanged)
+  if (s.observations)  // only when given (earlier manifests stay unchanged)
+    j["observations"] = {{"pressure", s.observations->pressure_file},
+                         {"pressure_observations", s.observations->pressure.size()},
+                         {"model_error_Pa", s.observations->model_error},
+                         {"at_injector", s.observations->at_injector}};
   return j;
 }
 

@@ -22,6 +22,7 @@
 #include "core/util/civil_date.hpp"
 #include "scenario/capacity_spec.hpp"
 #include "scenario/catalog_spec.hpp"
+#include "scenario/observations.hpp"
 #include "scenario/what_if_spec.hpp"
 #include "scenario/region.hpp"
 #include "scenario/uncertainty.hpp"
@@ -82,6 +83,7 @@ struct ResolvedScenario {
   UncertaintySpec uncertainty;                  // [uncertainty] (given = false: deterministic only)
   std::optional<CapacitySpec> capacity;         // [capacity]: the group's allowable rate (needs [uncertainty])
   std::vector<WhatIfSpec> what_if;              // [[what_if]]: rate changes (need [uncertainty])
+  std::optional<ObservationsSpec> observations; // [observations]: condition the probabilistic screen (needs [uncertainty])
 };
 
 // Loads and resolves a scenario. `file` is the display name (defaults to the path as given).

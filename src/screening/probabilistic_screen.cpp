@@ -8,6 +8,7 @@
 #include "core/stats/wilson_interval.hpp"
 #include "core/util/civil_date.hpp"
 #include "screening/capacity_split.hpp"
+#include "screening/conditioning.hpp"
 #include "screening/what_if_split.hpp"
 
 namespace slipscreen::screening {
@@ -168,6 +169,7 @@ ProbabilisticRun run_probabilistic_screen(const scenario::ResolvedScenario& s, c
   set.audit_segments = std::move(audit_segments);
   if (s.capacity) set.capacity = capacity_split(s, wells, run.tracked_times);
   for (const auto& w : s.what_if) set.what_if.push_back(what_if_split(w, p, wells));
+  set.observations = observation_inputs(s, p);  // [observations]: weights (docs/conditioning.md)
   run.result = probabilistic::run_probabilistic(model, wells, segments, set, split);
   run.wells = std::move(wells);
   run.segments = std::move(segments);

@@ -76,6 +76,7 @@ RunSummary summarize_run(const scenario::ResolvedScenario& s, const PreparedRun&
     std::stable_sort(ps.flagged.begin(), ps.flagged.end(),
                      [](const FlaggedSegment& a, const FlaggedSegment& b) { return a.p_final > b.p_final; });
     summary.probabilistic = std::move(ps);
+    if (pr.conditioning) summary.conditioning = conditioning_summary(*prob, prepared);
   }
   if (review) summary.catalog = std::make_shared<const CatalogReview>(std::move(*review));
   return summary;

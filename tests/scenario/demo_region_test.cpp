@@ -43,7 +43,8 @@ TEST_CASE("demo scenario: at least 12 wells with 8-15 years of monthly volumes, 
 
 TEST_CASE("demo region files are labelled fictional") {
   const fs::path dir = fs::path(SLIPSCREEN_SOURCE_DIR) / "regions/marrowick";
-  for (const char* f : {"README.md", "region.toml", "scenario.toml", "wells.csv", "histories.csv", "faults.geojson"}) {
+  for (const char* f : {"README.md", "region.toml", "scenario.toml", "wells.csv", "histories.csv", "faults.geojson",
+                        "pressures.csv"}) {
     CAPTURE(f);
     CHECK(slurp(dir / f).find("FICTIONAL") != std::string::npos);
   }
@@ -63,5 +64,22 @@ TEST_CASE("tools/make-demo-region.py regenerates the committed files byte for by
     CAPTURE(n);
     CHECK(slurp(out / n) == slurp(dir / n));
   }
+  fs::remove_all(out);
+}
+
+TEST_CASE("tools/make-demo-observations.py regenerates the committed observations byte for byte") {
+  const fs::path out = fs::temp_directory_path() / "slipscreen-demo-observations-check";
+  fs::remove_all(out);
+  fs::create_directories(out);
+  const fs::path dir = fs::path(SLIPSCREEN_SOURCE_DIR) / "regions/marrowick";
+  for (const char* f : {"wells.csv", "histories.csv"}) fs::copy_file(dir / f, out / f);
+  const std::string cmd = "/usr/bin/python3 '" +
+                          (fs::path(SLIPSCREEN_SOURCE_DIR) / "tools/make-demo-observations.py").string() + "' '" +
+                          out.string() + "'";
+  REQUIRE(std::system(cmd.c_str()) == 0);
+  CHECK(slurp(out / "pressures.csv") == slurp(dir / "pressures.csv"));
+  const ResolvedScenario s = load_scenario(dir / "scenario.toml");
+  REQUIRE(s.observations);
+  CHECK(s.observations->pressure.size() >= 20);  // two monitoring wells and a few shut-in surveys
   fs::remove_all(out);
 }

@@ -10,7 +10,7 @@
 namespace slipscreen::probabilistic {
 namespace {
 
-constexpr std::uint64_t kMagic = 0x736c697073706c31ULL;  // "slipspl1": this encoding's version
+constexpr std::uint64_t kMagic = 0x736c697073706c32ULL;  // "slipspl2": this encoding's version
 
 class Writer {
  public:
@@ -24,6 +24,7 @@ class Writer {
     for (double d : v) word(std::bit_cast<std::uint64_t>(d));
   }
   void sketch(const stats::QuantileSketch& s) { words(s.encode()); }
+  void sketch(const stats::WeightedSketch& s) { words(s.encode()); }
   std::vector<std::uint8_t> bytes() const {
     std::vector<std::uint8_t> b(words_.size() * sizeof(std::uint64_t));
     if (!b.empty()) std::memcpy(b.data(), words_.data(), b.size());
@@ -63,6 +64,7 @@ class Reader {
     return v;
   }
   stats::QuantileSketch sketch() { return stats::QuantileSketch::decode(words()); }
+  stats::WeightedSketch weighted_sketch() { return stats::WeightedSketch::decode(words()); }
   bool done() const { return at_ == words_.size(); }
   [[noreturn]] static void fail(const std::string& what) {
     throw InputError("partial result", what, "an encoded block of the probabilistic screen (realization_split.hpp)");
@@ -77,6 +79,16 @@ void add_counts(std::vector<std::uint64_t>& into, const std::vector<std::uint64_
   if (into.size() != from.size())
     throw InputError(what, std::to_string(from.size()) + " entries", std::to_string(into.size()) + " as in part 0");
   for (std::size_t k = 0; k < into.size(); ++k) into[k] += from[k];
+}
+
+// The weighted accumulators: weight units summed, weighted sketches merged.
+void merge_conditioned(ConditionedCounts& a, const ConditionedCounts& b) {
+  add_counts(a.slipped_by, b.slipped_by, "weighted slip counts");
+  a.already_critical += b.already_critical;
+  a.dp_crit.merge(b.dp_crit);
+  if (a.dp.size() != b.dp.size())
+    throw InputError("weighted Δp sketches", std::to_string(b.dp.size()), std::to_string(a.dp.size()) + " as in part 0");
+  for (std::size_t t = 0; t < a.dp.size(); ++t) a.dp[t].merge(b.dp[t]);
 }
 
 // dp_by_time of `into` (a columns, t-major) followed by `from` (b columns).
@@ -123,6 +135,11 @@ std::vector<std::uint8_t> encode_partial(const PartialResult& p) {
     w.doubles(s.dp_by_time);
     w.word(s.what_if.size());
     for (const auto& v : s.what_if) w.words(v);
+    w.words(s.conditioned.slipped_by);
+    w.word(s.conditioned.already_critical);
+    w.sketch(s.conditioned.dp_crit);
+    w.word(s.conditioned.dp.size());
+    for (const auto& d : s.conditioned.dp) w.sketch(d);
   }
   w.words(p.map_dangerous);
   w.words(p.map_oriented);
@@ -151,6 +168,11 @@ PartialResult decode_partial(std::span<const std::uint8_t> bytes) {
     s.dp_by_time = r.doubles();
     s.what_if.resize(r.count());
     for (auto& v : s.what_if) v = r.words();
+    s.conditioned.slipped_by = r.words();
+    s.conditioned.already_critical = r.word();
+    s.conditioned.dp_crit = r.weighted_sketch();
+    s.conditioned.dp.resize(r.count());
+    for (auto& d : s.conditioned.dp) d = r.weighted_sketch();
   }
   p.map_dangerous = r.words();
   p.map_oriented = r.words();
@@ -184,6 +206,7 @@ PartialResult merge_partials(std::vector<PartialResult> parts) {
       if (a.dp.size() != b.dp.size())
         throw InputError("Δp sketches", std::to_string(b.dp.size()), std::to_string(a.dp.size()) + " as in part 0");
       for (std::size_t t = 0; t < a.dp.size(); ++t) a.dp[t].merge(b.dp[t]);
+      merge_conditioned(a.conditioned, b.conditioned);
       if (a.margin.size() != na || b.margin.size() != nb)
         throw InputError("slip margins", std::to_string(b.margin.size()), "one per column of the part");
       a.margin.insert(a.margin.end(), b.margin.begin(), b.margin.end());

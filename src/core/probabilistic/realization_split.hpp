@@ -21,6 +21,7 @@
 #include <vector>
 
 #include "core/stats/quantile_sketch.hpp"
+#include "core/stats/weighted_sketch.hpp"
 
 namespace slipscreen::probabilistic {
 
@@ -37,6 +38,16 @@ struct ColumnRange {
 // kSplitAlign groups, in order (later parts may be empty when there are few groups).
 ColumnRange split_columns(std::size_t columns, std::size_t part, std::size_t parts);
 
+// A segment's weighted accumulators when the run is conditioned on observations
+// (conditioning.hpp): fixed-point weights, so they sum exactly in any order. Empty otherwise.
+struct ConditionedCounts {
+  std::vector<std::uint64_t> slipped_by;  // per output time: Σ weight units of injection-induced slips by then
+  std::uint64_t already_critical = 0;     // Σ weight units of realizations with Δp_crit ≤ 0
+  stats::WeightedSketch dp_crit;          // finite Δp_crit values (Pa)
+  std::vector<stats::WeightedSketch> dp;  // per output time: Δp (Pa), max over check points
+  bool operator==(const ConditionedCounts&) const = default;
+};
+
 // One segment's results over a block of columns.
 struct SegmentPart {
   std::vector<std::uint64_t> slipped_by, first_slip;
@@ -46,6 +57,7 @@ struct SegmentPart {
   std::vector<double> margin;             // per column: Δp_crit − Δp(final output time)
   std::vector<double> dp_by_time;         // [t · columns + c]; empty unless attribute_median
   std::vector<std::vector<std::uint64_t>> what_if;  // per what-if variant: slips by output time
+  ConditionedCounts conditioned;          // empty unless conditioned on observations
   bool operator==(const SegmentPart&) const = default;
 };
 

@@ -99,6 +99,14 @@ struct GroupSplit {
   double factor = 1.0;               // a what-if variant's factor on the group's rates
 };
 
+// A pore-pressure observation the run is conditioned on (conditioning.hpp, docs/conditioning.md).
+struct PressureObservation {
+  double x = 0.0, y = 0.0;  // working CRS, m
+  double time = 0.0;        // s since 1970-01-01
+  double observed = 0.0;    // Δp, Pa
+  double sigma = 1.0;       // Pa: √(sd² + model_error²)
+};
+
 struct RunSettings {
   std::uint64_t seed = 1;
   std::uint64_t realizations = 1000;
@@ -126,6 +134,9 @@ struct RunSettings {
   std::optional<GroupSplit> capacity;
   // What-if variants (ProbabilisticResult::what_if): each group's rates times its factor.
   std::vector<GroupSplit> what_if;
+  // Observed pore pressures: when given, the realizations are weighted by their likelihood
+  // (ProbabilisticResult::conditioning, SegmentResult::conditioned).
+  std::vector<PressureObservation> observations;
 };
 
 // The sampled inputs in sampler order; each slot remembers where a model input sits.

@@ -33,11 +33,12 @@ struct Tracking {
   std::vector<std::pair<std::uint64_t, Eigen::Index>> audit_cols;  // audited realizations: (index, column)
   std::vector<char> audited;                                 // per segment
   std::vector<VariantSearch> variants;                       // RunSettings::what_if, prepared
+  const ImportanceWeights* weights = nullptr;                // conditioned runs: per column
 };
 
 Tracking prepare_tracking(const std::vector<WellInput>& wells, const std::vector<SegmentInput>& segments,
                           const RunSettings& settings, const SampledRealizations& r, const PressureModel& pm) {
-  Tracking tr{wells, segments, settings, r, pm, {}, {}, {}, {}, {}};
+  Tracking tr{wells, segments, settings, r, pm, {}, {}, {}, {}, {}, nullptr};
   const std::size_t n = r.keep.size();
   tr.input_ranks.resize(static_cast<std::size_t>(r.inputs.rows()));
   for (std::size_t j = 0; j < tr.input_ranks.size(); ++j) {
@@ -95,15 +96,21 @@ std::vector<double> count_slips(const Tracking& tr, const SegmentOutcome& o, std
       continue;
     }
     res.dp_crit.add(dc);
+    const std::uint64_t u = tr.weights ? tr.weights->units[c0 + c] : 0;
+    if (tr.weights) res.conditioned.dp_crit.add(dc, u);
     if (dc <= 0.0) {
       ++res.already_critical;
+      res.conditioned.already_critical += u;
       continue;
     }
     const int first = o.first_crossing[c];
     if (first < 0) continue;
     ++res.first_slip[static_cast<std::size_t>(first)];
     for (std::size_t t = 0; t < n_out; ++t)
-      if (tr.settings.output_index[t] >= static_cast<std::size_t>(first)) ++res.slipped_by[t];
+      if (tr.settings.output_index[t] >= static_cast<std::size_t>(first)) {
+        ++res.slipped_by[t];
+        if (tr.weights) res.conditioned.slipped_by[t] += u;
+      }
   }
   return margin;
 }
@@ -225,6 +232,14 @@ SegmentPart segment_part(const Tracking& tr, const SegmentOutcome& o, std::size_
   const Eigen::MatrixXd by_time = o.dp_at_output.transpose();
   for (std::size_t t = 0; t < n_out; ++t)  // one sketch at a time (its buckets stay in cache)
     for (std::size_t c = 0; c < n; ++c) res.dp[t].add(by_time(static_cast<Eigen::Index>(c), static_cast<Eigen::Index>(t)));
+  if (tr.weights) {
+    res.conditioned.slipped_by.assign(n_out, 0);
+    res.conditioned.dp.assign(n_out, stats::WeightedSketch());
+    for (std::size_t t = 0; t < n_out; ++t)
+      for (std::size_t c = 0; c < n; ++c)
+        res.conditioned.dp[t].add(by_time(static_cast<Eigen::Index>(c), static_cast<Eigen::Index>(t)),
+                                  tr.weights->units[c0 + c]);
+  }
   res.margin = count_slips(tr, o, c0, res);
   for (const auto& v : tr.variants)
     res.what_if.push_back(variant_segment_slips(v, tr.r.dp_crit, o.segment, o.first_crossing, c0, tr.settings.output_index));
@@ -242,6 +257,7 @@ SegmentResult finish_segment(const Tracking& tr, std::size_t segment, SegmentPar
   res.never_critical = part.never_critical;
   res.dp_crit = std::move(part.dp_crit);
   res.dp = std::move(part.dp);
+  res.conditioned = std::move(part.conditioned);
   res.sensitivity = sensitivities(tr, segment, part.margin);
   if (tr.settings.attribute_median) res.median = median_attributions(tr, segment, part.dp_by_time, res);
   return res;
@@ -407,7 +423,9 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
       out.capacity = group_factor_curves(pm, group_part_model(*settings.capacity, segments, settings, list, r), r.dp_crit,
                                          settings.capacity->horizon, settings.capacity->f_max);
   };
+  if (!settings.observations.empty()) out.conditioning = condition_on_pressures(pm, wells, settings, list, r.inputs);
   Tracking tr = prepare_tracking(wells, segments, settings, r, pm);
+  if (out.conditioning) tr.weights = &out.conditioning->weights;
   for (const auto& v : settings.what_if)
     tr.variants.push_back(prepare_variant(pm, group_part_model(v, segments, settings, list, r), v.factor, r.keep.size()));
   if (split_run) {

@@ -23,6 +23,7 @@
 
 #include "core/probabilistic/realization_split.hpp"
 #include "core/probabilistic/allowable_factor.hpp"
+#include "core/probabilistic/conditioning.hpp"
 #include "core/probabilistic/screen_inputs.hpp"
 #include "core/stats/quantile_sketch.hpp"
 #include "core/stats/sampler.hpp"
@@ -75,6 +76,9 @@ struct SegmentResult {
   // attribute_median). Not a mergeable accumulator: it needs every realization's Δp at the
   // segment, so it merges across segment splits only (realization splits must gather Δp first).
   std::vector<MedianAttribution> median;
+  // Weighted by the realizations' likelihood when the run is conditioned on observations
+  // (RunSettings::observations; conditioning.hpp); empty otherwise.
+  ConditionedCounts conditioned;
 };
 
 // Injection-induced slips by each tracking time: the running sum of `first_slip`.
@@ -109,6 +113,9 @@ struct ProbabilisticResult {
   // Per RunSettings::what_if variant, per segment, per output time: injection-induced slips by
   // then with the variant's rates (group_factors.hpp), on the same realizations.
   std::vector<std::vector<std::vector<std::uint64_t>>> what_if;
+  // With RunSettings::observations: the importance weights, the observation fit and the inputs'
+  // prior and posterior percentiles (set on every part of a split run).
+  std::optional<Conditioning> conditioning;
 };
 
 // The plain method for one audited pair: every E1 term of every well, image and rate step is

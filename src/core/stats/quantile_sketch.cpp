@@ -95,17 +95,20 @@ void QuantileSketch::Store::add(std::int64_t index, std::uint64_t n, std::size_t
   counts[static_cast<std::size_t>(target - offset)] += n;
 }
 
-void QuantileSketch::add(double x) {
+void QuantileSketch::add(double x) { add(x, 1); }
+
+void QuantileSketch::add(double x, std::uint64_t n) {
   if (!std::isfinite(x)) throw NumericalError("quantile sketch: value " + text(x) + " is not a finite number");
-  ++count_;
+  if (n == 0) throw InputError("quantile sketch count", "0", "a count of at least 1");
+  count_ += n;
   min_ = std::min(min_, x);
   max_ = std::max(max_, x);
   if (x > zero_threshold_)
-    positive_.add(index_of(x), 1, max_buckets_);
+    positive_.add(index_of(x), n, max_buckets_);
   else if (x < -zero_threshold_)
-    negative_.add(index_of(-x), 1, max_buckets_);
+    negative_.add(index_of(-x), n, max_buckets_);
   else
-    ++zero_count_;
+    zero_count_ += n;
 }
 
 void QuantileSketch::merge(const QuantileSketch& other) {
@@ -134,7 +137,11 @@ double QuantileSketch::quantile(double q) const {
   if (q == 0.0) return min_;
   if (q == 1.0) return max_;
   // Rank ⌊q(n−1)⌋ (0-based), Masson et al. 2019 Algorithm 2.
-  const auto rank = static_cast<std::uint64_t>(std::floor(q * static_cast<double>(count_ - 1)));
+  return value_above(static_cast<std::uint64_t>(std::floor(q * static_cast<double>(count_ - 1))));
+}
+
+double QuantileSketch::value_above(std::uint64_t rank) const {
+  if (count_ == 0) throw InputError("quantile sketch", "empty", "at least one value");
   std::uint64_t seen = 0;
   // Most negative first: the negative store from its largest magnitude down.
   for (std::size_t k = negative_.counts.size(); k-- > 0;) {

@@ -57,6 +57,9 @@ class QuantileSketch {
 
   // Adds a finite value (NumericalError for NaN or infinity).
   void add(double x);
+  // Adds a finite value `count` times (count ≥ 1): a weighted sketch whose counts are integer
+  // weights (stats::WeightedSketch). Merging stays exact (integer sums).
+  void add(double x, std::uint64_t count);
   // Adds the other sketch's values (InputError if α, zero_threshold or m differ).
   void merge(const QuantileSketch& other);
 
@@ -69,6 +72,9 @@ class QuantileSketch {
 
   // Estimate of the q-quantile, q in [0, 1] (InputError otherwise, or if the sketch is empty).
   double quantile(double q) const;
+  // The estimate of the first value, in increasing order, whose cumulative count exceeds `rank`
+  // (quantile(q) is value_above(⌊q(n−1)⌋) for 0 < q < 1); the max when none does.
+  double value_above(std::uint64_t rank) const;
 
   // Flat encoding for sending between processes; decode(encode()) == *this.
   std::vector<std::uint64_t> encode() const;

@@ -88,6 +88,7 @@ void check_identical(const ProbabilisticResult& a, const ProbabilisticResult& b)
     CHECK(x.never_critical == y.never_critical);
     CHECK(x.dp_crit == y.dp_crit);
     CHECK(x.dp == y.dp);
+    CHECK(x.conditioned == y.conditioned);
     CHECK(same_bits(x.sensitivity, y.sensitivity));
     REQUIRE(x.median.size() == y.median.size());
     for (std::size_t t = 0; t < x.median.size(); ++t) {
@@ -171,5 +172,22 @@ TEST_CASE("run_probabilistic split into 2 and 3 parts gives the unsplit result b
   for (std::size_t parts : {2u, 3u}) {
     CAPTURE(parts);
     check_identical(whole, run_split(c, parts));
+  }
+}
+
+TEST_CASE("a run conditioned on pressure observations split into 2 and 3 parts gives the unsplit result bit for bit") {
+  SplitCase c;
+  // Two fictional observations at 2.5 km from the well (after 2 and 5 years, 30-day years).
+  constexpr double day = 86400.0;
+  c.settings.observations = {{2500.0, 0.0, 2 * 360 * day, 0.6e6, 0.1e6}, {0.0, 2500.0, 5 * 360 * day, 0.9e6, 0.1e6}};
+  const ProbabilisticResult whole = run_probabilistic(c.model, c.wells, c.segments, c.settings);
+  REQUIRE(whole.conditioning);
+  CHECK(whole.conditioning->weights.n_eff < 0.9 * static_cast<double>(whole.realizations));  // the data weigh
+  for (std::size_t parts : {2u, 3u}) {
+    CAPTURE(parts);
+    const ProbabilisticResult split = run_split(c, parts);
+    check_identical(whole, split);
+    REQUIRE(split.conditioning);
+    CHECK(split.conditioning->weights.units == whole.conditioning->weights.units);
   }
 }
