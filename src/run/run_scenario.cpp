@@ -86,6 +86,11 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
   ProgressBridge bridge{&o};
   stage("pressure at fault segments");
   const screen::ScreenResult result = screen::deterministic_screen(prepared.inputs, &report, &bridge);
+  std::optional<screening::DepthScreen> depth;
+  if (s.region.formation.poroelastic_3d) {
+    stage("faults in depth (3-D poroelastic model)");
+    depth = screening::depth_screen(s, prepared);
+  }
   std::optional<screening::ProbabilisticRun> prob;
   if (spec.given) {
     stage("probabilistic screen");
@@ -121,7 +126,8 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
   formats::RunFolder folder(target, folder_rules);
   outputs::write_run_outputs(folder, s,
                              {prepared, result, pressure ? &*pressure : nullptr, prob ? &*prob : nullptr,
-                              review ? &*review : nullptr, history ? &*history : nullptr, capacity.get(), what_if.get()},
+                              review ? &*review : nullptr, history ? &*history : nullptr, capacity.get(), what_if.get(),
+                              depth ? &*depth : nullptr},
                              {o.command_line, o.reproducible});
   if (s.output.report) {
     stage("report");

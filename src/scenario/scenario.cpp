@@ -464,6 +464,10 @@ ResolvedScenario load_scenario(const fs::path& path) {
     uncertainty = u->node->as_table();
   }
   sc.uncertainty = read_uncertainty(uncertainty, uncertainty_context(sc));
+  if (sc.uncertainty.given && sc.region.formation.poroelastic_3d)
+    top.fail("uncertainty", "[uncertainty]",
+             "no [uncertainty] with [formation] model = 'poroelastic_3d' (the probabilistic screen takes the "
+             "'theis' and 'leaky' models only)");
   if (top.has("capacity")) {
     const formats::Section cap = top.child("capacity");
     sc.capacity = read_capacity_spec(cap, sc.wells);
@@ -546,7 +550,13 @@ json formation_json(const FormationSpec& fm) {
     bounds.push_back({{"kind", b.kind == BoundarySpec::Kind::no_flow ? "no_flow" : "constant_pressure"},
                       {"from", {b.x1, b.y1}}, {"to", {b.x2, b.y2}}});
   formation["boundaries"] = bounds;
-  formation["model"] = fm.leaky ? "leaky (Hantush & Jacob 1955)" : "theis";
+  formation["model"] = fm.leaky ? "leaky (Hantush & Jacob 1955)" : fm.poroelastic_3d ? "poroelastic_3d (Rudnicki 1986)" : "theis";
+  if (fm.poroelastic_3d) {
+    formation["shear_modulus_Pa"] = num(fm.shear_modulus);
+    formation["poisson_ratio"] = num(fm.poisson_ratio);
+    formation["undrained_poisson_ratio"] = num(fm.undrained_poisson_ratio);
+    formation["biot"] = num(fm.biot);
+  }
   if (fm.leaky) {
     formation["leakage_factor_m"] = std::sqrt(theis.diffusivity / theis.leakage_rate);
     formation["leakage_rate_per_s"] = theis.leakage_rate;
