@@ -84,13 +84,14 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
   const scenario::UncertaintySpec& spec = s.uncertainty;
 
   ProgressBridge bridge{&o};
-  stage("pressure at fault segments");
-  const screen::ScreenResult result = screen::deterministic_screen(prepared.inputs, &report, &bridge);
+  // The screen in depth first: it checks its own inputs (dips, intervals) before it computes.
   std::optional<screening::DepthScreen> depth;
   if (s.region.formation.poroelastic_3d) {
     stage("faults in depth (3-D poroelastic model)");
     depth = screening::depth_screen(s, prepared);
   }
+  stage("pressure at fault segments");
+  const screen::ScreenResult result = screen::deterministic_screen(prepared.inputs, &report, &bridge);
   std::optional<screening::ProbabilisticRun> prob;
   if (spec.given) {
     stage("probabilistic screen");

@@ -567,7 +567,7 @@ json formation_json(const FormationSpec& fm) {
 }
 
 json faults_json(const FaultMapSpec& f) {
-  return {{"file", f.file.empty() ? formats::display_name(f.path) : f.file},
+  json out = {{"file", f.file.empty() ? formats::display_name(f.path) : f.file},
           {"layer", f.layer},
           {"crs", f.crs},
           {"attributes", {{"id", f.id_attribute}, {"dip", f.dip_attribute},
@@ -577,6 +577,12 @@ json faults_json(const FaultMapSpec& f) {
           {"cohesion_Pa", f.cohesion},
           {"segment_length_m", f.segment_length},
           {"check_points", f.check_points}};
+  if (!std::isnan(f.top)) {  // the depth range of the 3-D model (only when given)
+    out["top_m"] = f.top;
+    out["bottom_m"] = f.bottom;
+    out["depth_levels"] = f.depth_levels;
+  }
+  return out;
 }
 
 json wells_json(const std::vector<WellSpec>& all) {

@@ -82,12 +82,21 @@ DepthScreenResult depth_screen(const DepthScreenInputs& in) {
   std::set_union(in.tracking_times.begin(), in.tracking_times.end(), in.output_times.begin(), in.output_times.end(),
                  std::back_inserter(res.tracked_times));
   res.tracked_times.erase(std::unique(res.tracked_times.begin(), res.tracked_times.end()), res.tracked_times.end());
+  // every input checked before any computing
+  std::vector<std::vector<PointSetup>> setups;
+  std::vector<geomech::Friction> frictions;
   for (const DepthSegment& s : in.segments) {
     if (s.points.empty()) throw InputError("check points", "0", "at least one check point on segment '" + s.segment_id + "'");
     geomech::Friction f = in.friction;
     if (s.friction) f.mu = *s.friction;
     geomech::check(f);
-    const std::vector<PointSetup> ps = setup(s, f);
+    setups.push_back(setup(s, f));
+    frictions.push_back(f);
+  }
+  for (std::size_t g = 0; g < in.segments.size(); ++g) {
+    const DepthSegment& s = in.segments[g];
+    const geomech::Friction& f = frictions[g];
+    const std::vector<PointSetup>& ps = setups[g];
     DepthSegmentScreen out;
     out.friction = f.mu;
     for (const PointSetup& p : ps) {

@@ -9,6 +9,7 @@
 #include "core/errors.hpp"
 #include "core/geomech/fault_plane.hpp"
 #include "core/geomech/fault_stress.hpp"
+#include "support/poro_medium_fixture.hpp"
 
 using namespace slipscreen;
 using namespace slipscreen::poro;
@@ -23,16 +24,7 @@ geomech::AndersonianStress state_at(double z) {
   return {23e3 * z, 30e3 * z, 17e3 * z, 60.0 * kDeg, 10e3 * z};
 }
 
-RudnickiConstants medium() {
-  PoroelasticMedium m;
-  m.shear_modulus = 6e9;
-  m.poisson_drained = 0.2;
-  m.poisson_undrained = 0.33;
-  m.biot = 0.8;
-  m.permeability = 1e-14;
-  m.viscosity = 5e-4;
-  return rudnicki_constants(m);
-}
+RudnickiConstants medium() { return rudnicki_constants(test::sandstone_medium()); }
 
 }  // namespace
 

@@ -9,22 +9,14 @@
 
 #include "core/errors.hpp"
 #include "core/hydro/theis.hpp"
+#include "support/poro_medium_fixture.hpp"
 
 using namespace slipscreen;
 using namespace slipscreen::poro;
 
 namespace {
 
-RudnickiConstants constants() {
-  PoroelasticMedium m;
-  m.shear_modulus = 6e9;
-  m.poisson_drained = 0.2;
-  m.poisson_undrained = 0.33;
-  m.biot = 0.8;
-  m.permeability = 1e-14;
-  m.viscosity = 5e-4;
-  return rudnicki_constants(m);
-}
+RudnickiConstants constants() { return rudnicki_constants(test::sandstone_medium()); }
 
 InjectionSource well(double top, double bottom, int n, std::vector<hydro::RateChange> changes) {
   InjectionSource w;

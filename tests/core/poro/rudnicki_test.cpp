@@ -3,35 +3,21 @@
 #include <doctest/doctest.h>
 
 #include <cmath>
-#include <cstdio>
-#include <filesystem>
-#include <fstream>
 #include <numbers>
 #include <sstream>
 #include <string>
 #include <vector>
 
-#include <unistd.h>
-
 #include "core/errors.hpp"
+#include "support/poro_medium_fixture.hpp"
+#include "support/python_reference.hpp"
 
 using namespace slipscreen;
 using namespace slipscreen::poro;
 
 namespace {
 
-// A sandstone-like medium (values of the order of Rice & Cleary 1976, Table 1, from memory; any
-// valid medium serves the checks below).
-PoroelasticMedium sandstone() {
-  PoroelasticMedium m;
-  m.shear_modulus = 6e9;
-  m.poisson_drained = 0.2;
-  m.poisson_undrained = 0.33;
-  m.biot = 0.8;
-  m.permeability = 1e-14;
-  m.viscosity = 5e-4;
-  return m;
-}
+PoroelasticMedium sandstone() { return test::sandstone_medium(); }
 
 struct Reference {
   double p, a_delta, a_nn, err;
@@ -40,27 +26,20 @@ struct Reference {
 // tests/core/poro/rudnicki_reference.py under /usr/bin/python3: scipy quad of the
 // instantaneous-source solution over time (nothing in closed form).
 std::vector<Reference> scipy_reference(const RudnickiConstants& k, const std::vector<std::pair<double, double>>& rt) {
-  const auto in = std::filesystem::temp_directory_path() / ("slipscreen_rudnicki_in_" + std::to_string(::getpid()));
-  {
-    std::ofstream f(in);
-    f.precision(17);
-    for (const auto& p : rt)
-      f << k.diffusivity << " " << k.mobility << " " << k.stress_coefficient << " " << p.first << " " << p.second << "\n";
+  std::vector<std::string> input;
+  for (const auto& p : rt) {
+    std::ostringstream line;
+    line.precision(17);
+    line << k.diffusivity << " " << k.mobility << " " << k.stress_coefficient << " " << p.first << " " << p.second;
+    input.push_back(line.str());
   }
-  const std::string cmd = "/usr/bin/python3 " + std::string(SLIPSCREEN_SOURCE_DIR) +
-                          "/tests/core/poro/rudnicki_reference.py < " + in.string();
   std::vector<Reference> out;
-  FILE* p = ::popen(cmd.c_str(), "r");
-  REQUIRE(p != nullptr);
-  char line[512];
-  while (std::fgets(line, sizeof line, p)) {
+  for (const std::string& line : test::python_reference("tests/core/poro/rudnicki_reference.py", input)) {
     Reference r{};
     std::istringstream ss(line);
     ss >> r.p >> r.a_delta >> r.a_nn >> r.err;
     if (ss) out.push_back(r);
   }
-  REQUIRE(::pclose(p) == 0);
-  std::filesystem::remove(in);
   REQUIRE(out.size() == rt.size());
   return out;
 }
