@@ -60,6 +60,9 @@ void print_scenario_summary(const scenario::ResolvedScenario& s, std::ostream& o
     out << ", leaky (Hantush & Jacob 1955), leakage factor B = "
         << quantity(u, std::sqrt(tp.diffusivity / tp.leakage_rate), Q::length, 0);
   }
+  if (f.poroelastic_3d)
+    out << ", poroelastic_3d (Rudnicki 1986): faults in depth " << quantity(u, std::isnan(r.faults.top) ? r.reference_depth : r.faults.top, Q::length, 0)
+        << " to " << quantity(u, std::isnan(r.faults.bottom) ? r.reference_depth : r.faults.bottom, Q::length, 0);
   out << "\n";
 
   int existing = 0, proposed = 0, shut = 0;

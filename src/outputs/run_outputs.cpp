@@ -15,6 +15,7 @@
 #include "outputs/pressure_raster.hpp"
 #include "outputs/probabilistic_tables.hpp"
 #include "outputs/run_readme.hpp"
+#include "outputs/depth_screen_table.hpp"
 #include "outputs/screen_tables.hpp"
 
 namespace slipscreen::outputs {
@@ -79,6 +80,11 @@ ReadmeContent run_readme(const scenario::ResolvedScenario& s, const RunResults& 
                       util::number_text(std::sqrt(r.prepared.inputs.formation.diffusivity /
                                                   r.prepared.inputs.formation.leakage_rate), 6) +
                       " m (docs/pressure.md)");
+  if (s.region.formation.poroelastic_3d)
+    c.facts.push_back("Formation: poroelastic_3d (Rudnicki 1986): faults screened in depth in fault_depth.csv; the "
+                      "other tables, rasters and layers give the injected layer's Theis pressure with the solid's "
+                      "diffusivity c = " + util::number_text(r.prepared.inputs.formation.diffusivity, 6) +
+                      " m2/s (docs/physics.md)");
   const std::string crs = r.prepared.working.authority();
   if (!crs.empty()) c.facts.push_back("Working CRS: " + crs + " (coordinates in metres)");
   if (s.output.report)
@@ -93,6 +99,7 @@ ReadmeContent run_readme(const scenario::ResolvedScenario& s, const RunResults& 
   if (r.capacity) for (auto& f : capacity_readme(*r.capacity)) c.files.push_back(std::move(f));
   if (r.what_if) for (auto& f : what_if_readme(*r.what_if)) c.files.push_back(std::move(f));
   if (r.review) for (auto& f : catalog_review_readme(*r.review)) c.files.push_back(std::move(f));
+  if (r.depth && s.output.tables) c.files.push_back(depth_screen_readme(s));
   c.manifest = s.output.files.manifest;
   c.oilfield_units = s.output.units == units::UnitSystem::oilfield;
   return c;
@@ -112,6 +119,7 @@ void write_run_outputs(const formats::RunFolder& folder, const scenario::Resolve
   if (r.capacity) write_capacity_tables(folder, s, *r.capacity);
   if (r.what_if) write_what_if_table(folder, s, *r.what_if);
   if (r.review) write_catalog_review(folder, s, p, *r.review);
+  if (r.depth && s.output.tables) write_depth_screen_table(folder, s, p, *r.depth);
 
   write_readme(folder, run_readme(s, r));
 

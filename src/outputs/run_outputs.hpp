@@ -17,6 +17,7 @@
 #include "core/screen/deterministic_screen.hpp"
 #include "formats/files/run_folder.hpp"
 #include "scenario/scenario.hpp"
+#include "screening/depth_screen.hpp"
 #include "screening/capacity.hpp"
 #include "screening/what_if.hpp"
 #include "screening/catalog_review.hpp"
@@ -42,6 +43,7 @@ struct RunResults {
   const screening::SegmentPressureHistory* history = nullptr;  // monthly Δp by well at the top segments
   const screening::CapacityResult* capacity = nullptr;         // when [capacity]
   const screening::WhatIfResult* what_if = nullptr;            // when [[what_if]]
+  const screening::DepthScreen* depth = nullptr;               // when [formation] model = "poroelastic_3d"
 };
 
 // Writes every output the scenario asks for. Throws IoError (nothing is committed then).

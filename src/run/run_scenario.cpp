@@ -86,6 +86,12 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
   const scenario::UncertaintySpec& spec = s.uncertainty;
 
   ProgressBridge bridge{&o};
+  // The screen in depth first: it checks its own inputs (dips, intervals) before it computes.
+  std::optional<screening::DepthScreen> depth;
+  if (s.region.formation.poroelastic_3d) {
+    stage("faults in depth (3-D poroelastic model)");
+    depth = screening::depth_screen(s, prepared);
+  }
   stage("pressure at fault segments");
   const screen::ScreenResult result = screen::deterministic_screen(prepared.inputs, &report, &bridge);
   std::optional<screening::ProbabilisticRun> prob;
@@ -123,7 +129,8 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
   formats::RunFolder folder(target, folder_rules);
   outputs::write_run_outputs(folder, s,
                              {prepared, result, pressure ? &*pressure : nullptr, prob ? &*prob : nullptr,
-                              review ? &*review : nullptr, history ? &*history : nullptr, capacity.get(), what_if.get()},
+                              review ? &*review : nullptr, history ? &*history : nullptr, capacity.get(), what_if.get(),
+                              depth ? &*depth : nullptr},
                              {o.command_line, o.reproducible});
   if (s.output.report) {
     stage("report");

@@ -6,6 +6,7 @@
 #include <vector>
 
 #include "core/hydro/theis.hpp"
+#include "core/poro/rudnicki.hpp"
 #include "scenario/unset.hpp"
 
 namespace slipscreen::scenario {
@@ -59,6 +60,10 @@ struct FaultMapSpec {
   double segment_length = 2000; // m, longest segment after splitting polylines
   int check_points = 5;         // points per segment where dp is evaluated (max is used)
   bool allow_folded = false;    // accept traces that fold back on themselves (docs/gis.md)
+  // Depth range of the faults (model = "poroelastic_3d" only): check points down dip from top to
+  // bottom at depth_levels depths; unset: the reference depth alone.
+  double top = kUnset, bottom = kUnset;  // m
+  int depth_levels = 3;
 };
 
 struct BoundarySpec {
@@ -86,6 +91,14 @@ struct FormationSpec {
   double leakage_factor = kUnset;          // m, B (given or computed)
   double aquitard_thickness = kUnset;      // m, b'
   double aquitard_permeability = kUnset;   // m^2, k' (vertical)
+  // model = "poroelastic_3d": Rudnicki (1986) point sources in an infinite poroelastic solid
+  // (core/poro/rudnicki.hpp) with permeability and viscosity above; porosity and total
+  // compressibility are implied (φ c_t = the storage κ/c of the solid, docs/physics.md).
+  bool poroelastic_3d = false;
+  double shear_modulus = kUnset;           // Pa, G
+  double poisson_ratio = kUnset;           // 1, drained ν
+  double undrained_poisson_ratio = kUnset; // 1, ν_u
+  double biot = kUnset;                    // 1, α
 };
 
 struct RegionSpec {
@@ -103,6 +116,11 @@ struct RegionSpec {
 // The Theis parameters (D and μ/(4π k h)) of a formation (core/hydro/theis.hpp, Theis 1935), and
 // for a leaky formation its leakage rate c_L = D/B² (Hantush & Jacob 1955).
 // Throws InputError naming the field unless the values are finite and positive.
+// For model = "poroelastic_3d" the diffusivity is the solid's c (the storage φ c_t = κ/c).
 hydro::TheisParameters theis_parameters_of(const FormationSpec& f);
+
+// The poroelastic medium of a model = "poroelastic_3d" formation (not checked; rudnicki_constants
+// checks it).
+poro::PoroelasticMedium poroelastic_medium_of(const FormationSpec& f);
 
 }  // namespace slipscreen::scenario

@@ -127,7 +127,7 @@ StressSpec read_stress(const formats::Section& s, double fault_friction) {
 
 FaultMapSpec read_faults(const formats::Section& s) {
   s.allow({"file", "layer", "crs", "attributes", "friction", "cohesion", "segment_length", "check_points",
-           "allow_folded"});
+           "allow_folded", "top", "bottom", "depth_levels"});
   FaultMapSpec f;
   // A path is relative to the file that names it (region file or scenario override). A GDAL
   // network path is kept as written: the fault reader refuses it unless --allow-network.
@@ -153,6 +153,15 @@ FaultMapSpec read_faults(const formats::Section& s) {
   if (check_points < 1 || check_points > 101) s.fail("check_points", written(s, "check_points"), "an integer from 1 to 101");
   f.check_points = static_cast<int>(check_points);
   f.allow_folded = s.boolean_or("allow_folded", false);
+  if (s.has("top") != s.has("bottom")) s.fail(s.has("top") ? "bottom" : "top", "(missing)", "both top and bottom of the faults' depth range");
+  if (s.has("top")) {
+    f.top = checked(s, "top", Dimension::length, plausible::kLayerTop);
+    f.bottom = checked(s, "bottom", Dimension::length, plausible::kLayerTop);
+    if (!(f.bottom >= f.top)) s.fail("bottom", written(s, "bottom"), "a depth at or below top");
+  }
+  const std::int64_t levels = s.optional_integer("depth_levels").value_or(3);
+  if (levels < 1 || levels > 21) s.fail("depth_levels", written(s, "depth_levels"), "an integer from 1 to 21");
+  f.depth_levels = static_cast<int>(levels);
   return f;
 }
 
@@ -162,7 +171,7 @@ FaultMapSpec read_faults(const formats::Section& s) {
 void read_leakage(const formats::Section& s, FormationSpec& f) {
   const std::string model = s.optional_string("model").value_or("theis");
   if (model == "leaky") f.leaky = true;
-  else if (model != "theis") s.fail("model", model, "'theis' or 'leaky'");
+  else if (model != "theis" && model != "poroelastic_3d") s.fail("model", model, "'theis', 'leaky' or 'poroelastic_3d'");
   const bool given = s.has("leakage"), factor = s.has("leakage_factor");
   if (!f.leaky) {
     if (given || factor)
@@ -187,13 +196,42 @@ void read_leakage(const formats::Section& s, FormationSpec& f) {
   f.aquitard_permeability = checked(a, "aquitard_permeability", Dimension::permeability, plausible::kPermeability);
 }
 
+// [formation] model = "poroelastic_3d": the solid's constants (Rudnicki 1986); its porosity and
+// compressibility are implied, so those keys and the transmissivity form are refused.
+void read_poroelastic_3d(const formats::Section& s, FormationSpec& f) {
+  for (auto k : {"porosity", "total_compressibility", "transmissivity", "storativity", "boundary"})
+    if (s.has(k))
+      s.fail(k, "(set)", std::string("no '") + k + "' with model = 'poroelastic_3d' (permeability, thickness, viscosity "
+                         "and the solid's shear_modulus, poisson_ratio, undrained_poisson_ratio, biot; no boundaries)");
+  f.poroelastic_3d = true;
+  f.permeability = checked(s, "permeability", Dimension::permeability, plausible::kPermeability);
+  f.thickness = checked(s, "thickness", Dimension::length, plausible::kThickness);
+  f.viscosity = checked(s, "viscosity", Dimension::viscosity, plausible::kViscosity);
+  f.fluid_density = checked_or(s, "fluid_density", Dimension::density, 1000.0, plausible::kFluidDensity);
+  f.shear_modulus = checked(s, "shear_modulus", Dimension::pressure,
+                            {1e8, 1e11, false, false, "a shear modulus from 0.1 GPa to 100 GPa"});
+  f.poisson_ratio = checked(s, "poisson_ratio", Dimension::dimensionless,
+                            {0.0, 0.5, true, false, "a drained Poisson's ratio in [0, 0.5)"});
+  f.undrained_poisson_ratio = checked(s, "undrained_poisson_ratio", Dimension::dimensionless,
+                                      {0.0, 0.5, false, false, "an undrained Poisson's ratio in (0, 0.5)"});
+  if (!(f.undrained_poisson_ratio > f.poisson_ratio))
+    s.fail("undrained_poisson_ratio", written(s, "undrained_poisson_ratio"), "a value above poisson_ratio (nu_u > nu)");
+  f.biot = checked(s, "biot", Dimension::dimensionless, {0.0, 1.0, false, true, "a Biot coefficient in (0, 1]"});
+}
+
 FormationSpec read_formation(const formats::Section& s) {
   s.allow({"name", "permeability", "thickness", "porosity", "total_compressibility", "viscosity",
-           "transmissivity", "storativity", "fluid_density", "boundary", "model", "leakage", "leakage_factor"});
+           "transmissivity", "storativity", "fluid_density", "boundary", "model", "leakage", "leakage_factor",
+           "shear_modulus", "poisson_ratio", "undrained_poisson_ratio", "biot"});
   FormationSpec f;
   f.name = s.optional_string("name").value_or("");
-  f.from_transmissivity = s.has("transmissivity") || s.has("storativity");
-  if (f.from_transmissivity) {
+  const bool three_d = s.optional_string("model").value_or("") == "poroelastic_3d";
+  for (auto k : {"shear_modulus", "poisson_ratio", "undrained_poisson_ratio", "biot"})
+    if (!three_d && s.has(k)) s.fail(k, "(set)", "model = 'poroelastic_3d' for the solid's constants");
+  f.from_transmissivity = !three_d && (s.has("transmissivity") || s.has("storativity"));
+  if (three_d) {
+    read_poroelastic_3d(s, f);
+  } else if (f.from_transmissivity) {
     for (auto k : {"permeability", "porosity", "total_compressibility", "viscosity"})
       if (s.has(k)) s.fail(k, "(set)", "either k, phi, c_t, mu or transmissivity and storativity, not both");
     f.transmissivity = checked(s, "transmissivity", Dimension::diffusivity, plausible::kTransmissivity);
@@ -255,6 +293,9 @@ RegionSpec load_region(const std::filesystem::path& path, const std::string& fil
   r.faults = read_faults(s.child("faults"));
   r.stress = read_stress(s.child("stress"), r.faults.friction);
   r.formation = read_formation(s.child("formation"));
+  if (!r.formation.poroelastic_3d && !std::isnan(r.faults.top))
+    s.child("faults").fail("top", written(s.child("faults"), "top"),
+                           "a fault depth range only with [formation] model = 'poroelastic_3d'");
   return r;
 }
 

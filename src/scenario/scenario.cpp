@@ -465,6 +465,10 @@ ResolvedScenario load_scenario(const fs::path& path) {
     uncertainty = u->node->as_table();
   }
   sc.uncertainty = read_uncertainty(uncertainty, uncertainty_context(sc));
+  if (sc.uncertainty.given && sc.region.formation.poroelastic_3d)
+    top.fail("uncertainty", "[uncertainty]",
+             "no [uncertainty] with [formation] model = 'poroelastic_3d' (the probabilistic screen takes the "
+             "'theis' and 'leaky' models only)");
   if (top.has("capacity")) {
     const formats::Section cap = top.child("capacity");
     sc.capacity = read_capacity_spec(cap, sc.wells);
@@ -556,7 +560,13 @@ json formation_json(const FormationSpec& fm) {
     bounds.push_back({{"kind", b.kind == BoundarySpec::Kind::no_flow ? "no_flow" : "constant_pressure"},
                       {"from", {b.x1, b.y1}}, {"to", {b.x2, b.y2}}});
   formation["boundaries"] = bounds;
-  formation["model"] = fm.leaky ? "leaky (Hantush & Jacob 1955)" : "theis";
+  formation["model"] = fm.leaky ? "leaky (Hantush & Jacob 1955)" : fm.poroelastic_3d ? "poroelastic_3d (Rudnicki 1986)" : "theis";
+  if (fm.poroelastic_3d) {
+    formation["shear_modulus_Pa"] = num(fm.shear_modulus);
+    formation["poisson_ratio"] = num(fm.poisson_ratio);
+    formation["undrained_poisson_ratio"] = num(fm.undrained_poisson_ratio);
+    formation["biot"] = num(fm.biot);
+  }
   if (fm.leaky) {
     formation["leakage_factor_m"] = std::sqrt(theis.diffusivity / theis.leakage_rate);
     formation["leakage_rate_per_s"] = theis.leakage_rate;
@@ -567,7 +577,7 @@ json formation_json(const FormationSpec& fm) {
 }
 
 json faults_json(const FaultMapSpec& f) {
-  return {{"file", f.file.empty() ? formats::display_name(f.path) : f.file},
+  json out = {{"file", f.file.empty() ? formats::display_name(f.path) : f.file},
           {"layer", f.layer},
           {"crs", f.crs},
           {"attributes", {{"id", f.id_attribute}, {"dip", f.dip_attribute},
@@ -577,6 +587,12 @@ json faults_json(const FaultMapSpec& f) {
           {"cohesion_Pa", f.cohesion},
           {"segment_length_m", f.segment_length},
           {"check_points", f.check_points}};
+  if (!std::isnan(f.top)) {  // the depth range of the 3-D model (only when given)
+    out["top_m"] = f.top;
+    out["bottom_m"] = f.bottom;
+    out["depth_levels"] = f.depth_levels;
+  }
+  return out;
 }
 
 json wells_json(const std::vector<WellSpec>& all) {

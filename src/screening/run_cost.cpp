@@ -17,6 +17,7 @@
 #include "core/screen/tracking_grid.hpp"
 #include "core/stats/sampler.hpp"
 #include "core/util/number_text.hpp"
+#include "screening/depth_screen.hpp"
 #include "screening/probabilistic_screen.hpp"
 
 namespace slipscreen::screening {
@@ -215,6 +216,13 @@ void probabilistic_part(const scenario::ResolvedScenario& s, const PreparedRun& 
   if (map_hi > ln_hi) z.map_table_nodes = table_nodes(ln_lo, map_hi);
 }
 
+void depth_part(const scenario::ResolvedScenario& s, RunSizes& z) {
+  const scenario::RegionSpec& r = s.region;
+  if (!r.formation.poroelastic_3d) return;
+  const bool range = !std::isnan(r.faults.top) && r.faults.bottom > r.faults.top;
+  z.depth_points = z.check_points * static_cast<std::size_t>(range ? r.faults.depth_levels : 1);
+}
+
 void raster_part(const scenario::ResolvedScenario& s, const PreparedRun& p, const WellPart& w, RunSizes& z) {
   if (!s.output.rasters) return;
   z.raster_cells = p.grid.cell_count();
@@ -282,6 +290,15 @@ CostPart probabilistic_cost(const RunSizes& z, double& results) {
   return {"probabilistic screen", peak, ops};
 }
 
+// Screen in depth: its results and per-point set-up; a point response per (point, tracked time,
+// rate step, interval point).
+CostPart depth_cost(const RunSizes& z) {
+  if (z.depth_points == 0) return {"screen in depth", 0.0, 0.0};
+  const double bytes = d(z.segments) * d(z.output_times) * 48.0 + d(z.depth_points) * 64.0;
+  const double ops = d(z.depth_points) * d(z.tracked_times) * d(z.rate_steps) * d(kIntervalPoints);
+  return {"screen in depth", bytes, ops};
+}
+
 CostPart raster_cost(const RunSizes& z) {
   if (z.raster_cells == 0) return {"pressure raster", 0.0, 0.0};
   const double C = d(z.raster_cells), K = d(z.output_times), src = d(z.sources), nr = d(z.profile_nodes);
@@ -312,6 +329,7 @@ RunSizes run_sizes(const scenario::ResolvedScenario& s, const PreparedRun& p) {
   deterministic_part(p, w, points, z);
   probabilistic_part(s, p, w, points, z);
   raster_part(s, p, w, z);
+  depth_part(s, z);
   return z;
 }
 
@@ -323,8 +341,10 @@ RunCost run_cost(const RunSizes& z) {
   const CostPart det = deterministic_cost(z, det_results);
   const CostPart prob = probabilistic_cost(z, prob_results);
   const CostPart raster = raster_cost(z);
-  c.parts = {in, det, prob, raster};
-  c.peak_bytes = in.bytes + std::max({det.bytes, det_results + prob.bytes, det_results + prob_results + raster.bytes});
+  const CostPart depth = depth_cost(z);  // runs first, its results stay alive
+  c.parts = {in, det, prob, raster, depth};
+  c.peak_bytes = in.bytes + depth.bytes +
+                 std::max({det.bytes, det_results + prob.bytes, det_results + prob_results + raster.bytes});
   for (const auto& part : c.parts) c.operations += part.operations;
   return c;
 }

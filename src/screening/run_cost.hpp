@@ -16,12 +16,15 @@
 //     surrogate            P × groups × G' × n_d × 8 B (segments), M × groups × G' × n_d × 8 B (maps)
 //     tracking, per thread (2K + 2⌈G'/24⌉ + 6) × N × 8 B; results S × (K + 1) sketches
 //     (about 8 kB each) and the median's well attribution S × K × W × 8 B
+//   screen in depth (core/poro/fault_screen.cpp), model = "poroelastic_3d" only
+//     results              S × K × 48 B + P_d × 64 B; operations P_d × G × (rate steps) × 6
+//                          point responses (6 Gauss–Legendre points per open interval)
 //   pressure raster (core/hydro/pressure_grid.cpp)
 //     values and the map   2 × C × K × 8 B; profile tables ≤ 512 MB; per thread 2 × sources ×
 //                          n_r × 8 B (radial profiles of every source at one time)
 //   inputs                 about 600 B per well and 120 B per rate period (wells in their
 //                          several forms: scenario, working CRS, engines)
-// with W wells, S segments, P check points (P_b in a block), K output times, G tracked times,
+// with W wells, S segments, P check points (P_b in a block, P_d with their depth levels), K output times, G tracked times,
 // L whole-day lags, n_x similarity nodes (ln x from r_w²/(4D) to r_max²/(4D), step 0.025),
 // N realizations, F faults, n_d Chebyshev nodes in ln D, M map pixels, C raster cells, n_r
 // radial profile nodes.
@@ -70,6 +73,8 @@ struct RunSizes {
   std::size_t surrogate_nodes = 0;    // n_d
   std::size_t map_points = 0;         // M
   bool median_attribution = false;    // the median's well attribution (with the tables)
+  // Screen in depth, [formation] model = "poroelastic_3d" (depth_points = 0: none)
+  std::size_t depth_points = 0;       // check points × depth levels
   // Pressure raster (cells = 0: none)
   std::size_t raster_cells = 0;       // C
   std::size_t profile_nodes = 0;      // n_r, the longest radial profile

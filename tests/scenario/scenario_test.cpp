@@ -175,7 +175,7 @@ TEST_CASE("[formation] model = 'leaky' with the aquitard or the leakage factor B
   CHECK(theis_parameters_of(load_scenario(TinyScenario().scenario()).region.formation).leakage_rate == 0.0);
   const std::pair<const char*, const char*> bad[] = {
       {"model = \"leaky\"", "exactly one of leakage"},
-      {"model = \"hantush\"", "'theis' or 'leaky'"},
+      {"model = \"hantush\"", "'theis', 'leaky' or 'poroelastic_3d'"},
       {"leakage_factor = \"4 km\"", "model = 'leaky' for a leaky formation"},
       {"model = \"leaky\"\nleakage_factor = \"0.5 m\"", "a leakage factor B from 1 m to 1e12 m"},
       {"model = \"leaky\"\nleakage = { aquitard_thickness = \"20 m\" }", "aquitard_permeability"},
@@ -184,6 +184,42 @@ TEST_CASE("[formation] model = 'leaky' with the aquitard or the leakage factor B
     CAPTURE(text);
     TinyScenario x;
     x.replace("region.toml", "viscosity = \"0.5 cP\"", std::string("viscosity = \"0.5 cP\"\n") + text);
+    CHECK_THROWS_WITH(load_scenario(x.scenario()), doctest::Contains(message));
+  }
+}
+
+TEST_CASE("[formation] model = 'poroelastic_3d': the solid's constants, the implied storage, the faults' depth range") {
+  // The tiny region's formation has porosity and compressibility: the 3-D model implies them, so
+  // they are refused; with them removed, D is the solid's c (Rice & Cleary 1976, poro/rudnicki.hpp).
+  const std::string solid = "model = \"poroelastic_3d\"\nshear_modulus = \"6 GPa\"\npoisson_ratio = 0.2\n"
+                            "undrained_poisson_ratio = 0.33\nbiot = 0.8";
+  TinyScenario refused;
+  refused.replace("region.toml", "viscosity = \"0.5 cP\"", "viscosity = \"0.5 cP\"\n" + solid);
+  CHECK_THROWS_WITH(load_scenario(refused.scenario()), doctest::Contains("no 'porosity' with model = 'poroelastic_3d'"));
+  TinyScenario t;
+  t.replace("region.toml", "viscosity = \"0.5 cP\"", "viscosity = \"0.5 cP\"\n" + solid);
+  t.replace("region.toml", "porosity = 0.1", "");
+  t.replace("region.toml", "total_compressibility = \"1e-9 1/Pa\"", "");
+  t.replace("region.toml", "[faults]", "[faults]\ntop = \"3 km\"\nbottom = \"4 km\"\ndepth_levels = 2");
+  const auto s = load_scenario(t.scenario());
+  REQUIRE(s.region.formation.poroelastic_3d);
+  CHECK(s.region.faults.top == 3000.0);
+  CHECK(s.region.faults.bottom == 4000.0);
+  CHECK(s.region.faults.depth_levels == 2);
+  const poro::RudnickiConstants k = poro::rudnicki_constants(poroelastic_medium_of(s.region.formation));
+  CHECK(theis_parameters_of(s.region.formation).diffusivity == k.diffusivity);
+  CHECK(std::abs(k.stress_coefficient - 0.8 * 0.6 / 1.6) <= 1e-15);
+  const std::pair<const char*, const char*> bad[] = {
+      {"shear_modulus = \"6 GPa\"", "model = 'poroelastic_3d' for the solid's constants"},
+      {"model = \"poroelastic_3d\"\nshear_modulus = \"6 GPa\"\npoisson_ratio = 0.3\nundrained_poisson_ratio = 0.25\nbiot = 0.8",
+       "a value above poisson_ratio"},
+  };
+  for (const auto& [text, message] : bad) {
+    CAPTURE(text);
+    TinyScenario x;
+    x.replace("region.toml", "viscosity = \"0.5 cP\"", std::string("viscosity = \"0.5 cP\"\n") + text);
+    x.replace("region.toml", "porosity = 0.1", "");
+    x.replace("region.toml", "total_compressibility = \"1e-9 1/Pa\"", "");
     CHECK_THROWS_WITH(load_scenario(x.scenario()), doctest::Contains(message));
   }
 }

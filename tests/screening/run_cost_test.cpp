@@ -51,12 +51,21 @@ TEST_CASE("the cost formulas, by hand for one set of sizes") {
   //   tables  1000 × 1000 × 120 × 4 = 480 000 000 B
   //   kernel  (3650 + 1) × 1000 × 4 = 14 604 000 B (larger than one block, 192 × 25 960 = 4 984 320 B)
   //   inputs  600 × 1000 = 600 000 B
-  REQUIRE(c.parts.size() == 4);
+  REQUIRE(c.parts.size() == 5);
   CHECK(c.parts[0].bytes == 600000.0);
   CHECK(c.parts[1].bytes == 8112000.0 + 480000000.0 + 14604000.0);
   CHECK(c.parts[2].bytes == 0.0);  // no probabilistic screen
   CHECK(c.parts[3].bytes == 0.0);  // no raster
+  CHECK(c.parts[4].bytes == 0.0);  // no screen in depth
   CHECK(c.peak_bytes == 600000.0 + 502716000.0);
+  // The screen in depth (model = "poroelastic_3d"), 900 points with their levels and 50 rate
+  // steps: 100 × 10 × 48 + 900 × 64 = 105 600 B on top; 900 × 120 × 50 × 6 = 3.24e7 responses.
+  RunSizes zd = z;
+  zd.depth_points = 900, zd.rate_steps = 50;
+  const RunCost cd = run_cost(zd);
+  CHECK(cd.parts[4].bytes == 105600.0);
+  CHECK(cd.parts[4].operations == 3.24e7);
+  CHECK(cd.peak_bytes == c.peak_bytes + 105600.0);
   // Twice the wells: tables, shares and inputs double; the kernel does not.
   RunSizes z2 = z;
   z2.wells = 2000, z2.sources = 2000;

@@ -136,6 +136,16 @@ void models_section(const ReportSource& s, std::vector<ReportBlock>& out) {
     model += "; " + std::to_string(bounds.size()) + (bounds.size() == 1 ? " straight boundary" : " straight boundaries") +
              " by image wells";
   f.facts.emplace_back("Pore-pressure model", model);
+  const json& model_name = at(fm, {"model"});
+  if (model_name.is_string() && model_name.get<std::string>().rfind("poroelastic_3d", 0) == 0)
+    f.facts.emplace_back("Faults in depth",
+                         "Rudnicki (1986) point sources on each well's open interval in one infinite poroelastic "
+                         "solid (shear modulus " + text_of(at(fm, {"shear_modulus_Pa"})) + " Pa, ν " +
+                             text_of(at(fm, {"poisson_ratio"})) + ", ν_u " + text_of(at(fm, {"undrained_poisson_ratio"})) +
+                             ", α " + text_of(at(fm, {"biot"})) + "): Δp and the stress change resolved on each "
+                             "fault at check points down dip, ΔCFF = Δτ − μ(Δσn − Δp), in fault_depth.csv; the figures "
+                             "and tables here show the injected layer's Theis pressure with the solid's diffusivity "
+                             "(docs/physics.md)");
   const json& b = at(fm, {"leakage_factor_m"});
   if (leaky_formation(s) && b.is_number()) {
     std::string v = depth(s, b.get<double>());

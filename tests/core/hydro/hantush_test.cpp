@@ -4,18 +4,14 @@
 
 #include <boost/math/special_functions/bessel.hpp>
 #include <cmath>
-#include <cstdio>
-#include <filesystem>
-#include <fstream>
 #include <limits>
 #include <sstream>
 #include <string>
 #include <vector>
 
-#include <unistd.h>
-
 #include "core/errors.hpp"
 #include "core/hydro/well_function.hpp"
+#include "support/python_reference.hpp"
 
 using namespace slipscreen;
 using namespace slipscreen::hydro;
@@ -29,27 +25,20 @@ struct Reference {
 // scipy.integrate.quad of the defining integral and 2·scipy.special.k0, computed now by
 // tests/core/hydro/hantush_reference.py under /usr/bin/python3.
 std::vector<Reference> scipy_reference(const std::vector<std::pair<double, double>>& pairs) {
-  const auto dir = std::filesystem::temp_directory_path();
-  const auto in = dir / ("slipscreen_hantush_in_" + std::to_string(::getpid()) + ".txt");
-  {
-    std::ofstream f(in);
-    f.precision(17);
-    for (const auto& [u, b] : pairs) f << u << " " << b << "\n";
+  std::vector<std::string> input;
+  for (const auto& [u, b] : pairs) {
+    std::ostringstream line;
+    line.precision(17);
+    line << u << " " << b;
+    input.push_back(line.str());
   }
-  const std::string cmd = "/usr/bin/python3 " + std::string(SLIPSCREEN_SOURCE_DIR) +
-                          "/tests/core/hydro/hantush_reference.py < " + in.string();
   std::vector<Reference> out;
-  FILE* p = ::popen(cmd.c_str(), "r");
-  REQUIRE(p != nullptr);
-  char line[512];
-  while (std::fgets(line, sizeof line, p)) {
+  for (const std::string& line : test::python_reference("tests/core/hydro/hantush_reference.py", input)) {
     Reference r{};
     std::istringstream ss(line);
     ss >> r.u >> r.beta >> r.w >> r.quad_error >> r.k0x2;
     if (ss) out.push_back(r);
   }
-  REQUIRE(::pclose(p) == 0);
-  std::filesystem::remove(in);
   REQUIRE(out.size() == pairs.size());
   return out;
 }
