@@ -336,12 +336,21 @@ void read_maps(const formats::Section& maps, UncertaintySpec& spec) {
 // The screen in depth (docs/uncertainty.md, "The 3-D poroelastic model"): the solid's constants,
 // the permeability and one friction for every fault; every other key is refused.
 void read_poro3d(const formats::Section& top, UncertaintySpec& spec) {
+  const char* takes =
+      "no such key with [formation] model = 'poroelastic_3d': the screen in depth takes [uncertainty.formation] "
+      "shear_modulus, poisson_ratio, undrained_poisson_ratio, biot, permeability and [uncertainty.faults] friction";
+  for (const char* k : {"pore_pressure_gradient", "rate_factor", "stress", "fault", "well", "maps"})
+    if (top.has(k)) top.fail(k, plausible::written(top, k), takes);
   top.allow({"realizations", "sampler", "confidence", "thresholds", "formation", "faults"});
   const formats::Section formation = top.child("formation");
+  for (const auto& k : kPermeabilityFormKeys)
+    if (k.key != "permeability" && formation.has(k.key)) formation.fail(k.key, plausible::written(formation, k.key), takes);
   formation.allow(key_names(kPoro3dFormationKeys));
   for (const auto& k : kPoro3dFormationKeys)
     read_value(formation, k, "formation." + std::string(k.key), spec, UncertainScope::poro3d);
   const formats::Section faults = top.child("faults");
+  for (const auto& k : kFaultKeys)
+    if (k.key != "friction" && faults.has(k.key)) faults.fail(k.key, plausible::written(faults, k.key), takes);
   faults.allow({kPoro3dFriction.key});
   read_value(faults, kPoro3dFriction, "faults.friction", spec, UncertainScope::poro3d);
 }
