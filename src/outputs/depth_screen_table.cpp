@@ -3,6 +3,7 @@
 #include <filesystem>
 #include <string>
 
+#include "core/stats/wilson_interval.hpp"
 #include "core/util/civil_date.hpp"
 #include "core/util/number_text.hpp"
 #include "formats/files/text_file.hpp"
@@ -16,7 +17,50 @@ std::string depth_table_path(const scenario::ResolvedScenario& s) {
   return (std::filesystem::path(s.output.files.segment_times).parent_path() / "fault_depth.csv").generic_string();
 }
 
+std::string depth_probability_path(const scenario::ResolvedScenario& s) {
+  return (std::filesystem::path(s.output.files.segment_times).parent_path() / "fault_depth_probability.csv")
+      .generic_string();
+}
+
 }  // namespace
+
+ReadmeFile depth_probability_readme(const scenario::ResolvedScenario& s) {
+  return {depth_probability_path(s),
+          "3-D poroelastic model, Monte Carlo over [uncertainty]: one row per fault segment and output time, the "
+          "realizations and how many had the segment at failure by then (some check point in depth with dcff >= "
+          "mu dp_crit, or already critical), p_slip = their ratio and its Wilson interval at the [uncertainty] "
+          "confidence (dimensionless), and the thresholds p_slip reaches"};
+}
+
+void write_depth_probability_table(const formats::RunFolder& folder, const scenario::ResolvedScenario& s,
+                                   const screening::PreparedRun& p, const screening::DepthProbability& d) {
+  formats::TextFileWriter t(folder.output("output.files.segment_times", depth_probability_path(s)));
+  t.row({"segment_id", "fault_id", "date", "realizations", "realizations_slipped", "p_slip", "p_slip_ci_low",
+         "p_slip_ci_high", "thresholds_reached"});
+  for (std::size_t i = 0; i < d.slipped.size(); ++i)
+    for (std::size_t k = 0; k < d.slipped[i].size(); ++k) {
+      const auto ci = stats::wilson_interval(d.slipped[i][k], d.realizations, d.z);
+      std::string reached;
+      for (double th : s.uncertainty.thresholds)
+        if (ci.estimate >= th) {
+          if (!reached.empty()) reached += ';';
+          reached += util::fixed_decimals(th, 3);
+        }
+      t.row({p.segments[i].segment_id, p.segments[i].fault_id, util::format_iso_date(s.output.dates[k]),
+             std::to_string(d.realizations), std::to_string(d.slipped[i][k]), util::fixed_decimals(ci.estimate, 4),
+             util::fixed_decimals(ci.lower, 4), util::fixed_decimals(ci.upper, 4), reached});
+    }
+  t.close();
+}
+
+nlohmann::json depth_probability_manifest(const scenario::ResolvedScenario& s, const screening::DepthProbability& d) {
+  return {{"uncertainty", scenario::to_json(s.uncertainty)},
+          {"realizations", d.realizations},
+          {"sampler", std::string(stats::sampling_method_name(d.sampler.method))},
+          {"stream", std::string(d.sampler.stream)},
+          {"inputs", d.input_names},
+          {"method", "one deterministic screen in depth per realization (core/poro/depth_monte_carlo.hpp)"}};
+}
 
 ReadmeFile depth_screen_readme(const scenario::ResolvedScenario& s) {
   const std::string pressure(OutputUnits(s.output.units).symbol(Quantity::pressure));

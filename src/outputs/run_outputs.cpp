@@ -85,6 +85,10 @@ ReadmeContent run_readme(const scenario::ResolvedScenario& s, const RunResults& 
                       "other tables, rasters and layers give the injected layer's Theis pressure with the solid's "
                       "diffusivity c = " + util::number_text(r.prepared.inputs.formation.diffusivity, 6) +
                       " m2/s (docs/physics.md)");
+  if (r.depth_probability)
+    c.facts.push_back("Faults in depth, Monte Carlo: " + std::to_string(r.depth_probability->realizations) +
+                      " realizations of the uncertain solid, permeability and friction, one screen in depth each "
+                      "(fault_depth_probability.csv; docs/uncertainty.md)");
   const std::string crs = r.prepared.working.authority();
   if (!crs.empty()) c.facts.push_back("Working CRS: " + crs + " (coordinates in metres)");
   if (s.output.report)
@@ -100,6 +104,7 @@ ReadmeContent run_readme(const scenario::ResolvedScenario& s, const RunResults& 
   if (r.what_if) for (auto& f : what_if_readme(*r.what_if)) c.files.push_back(std::move(f));
   if (r.review) for (auto& f : catalog_review_readme(*r.review)) c.files.push_back(std::move(f));
   if (r.depth && s.output.tables) c.files.push_back(depth_screen_readme(s));
+  if (r.depth_probability && s.output.tables) c.files.push_back(depth_probability_readme(s));
   c.manifest = s.output.files.manifest;
   c.oilfield_units = s.output.units == units::UnitSystem::oilfield;
   return c;
@@ -120,6 +125,7 @@ void write_run_outputs(const formats::RunFolder& folder, const scenario::Resolve
   if (r.what_if) write_what_if_table(folder, s, *r.what_if);
   if (r.review) write_catalog_review(folder, s, p, *r.review);
   if (r.depth && s.output.tables) write_depth_screen_table(folder, s, p, *r.depth);
+  if (r.depth_probability && s.output.tables) write_depth_probability_table(folder, s, p, *r.depth_probability);
 
   write_readme(folder, run_readme(s, r));
 
@@ -132,6 +138,7 @@ void write_run_outputs(const formats::RunFolder& folder, const scenario::Resolve
   m.inputs = p.manifest_inputs;
   m.parameters = {{"scenario", scenario::to_json(s)}, {"run", run_block(s, p, r.screen)}};
   if (r.probabilistic) m.parameters["probabilistic"] = probabilistic_manifest(s, *r.probabilistic);
+  if (r.depth_probability) m.parameters["depth_probability"] = depth_probability_manifest(s, *r.depth_probability);
   if (r.capacity) m.parameters["capacity"] = capacity_manifest(*r.capacity);
   if (r.what_if) m.parameters["what_if"] = what_if_manifest(*r.what_if);
   if (r.review) m.parameters["catalog"] = catalog_manifest(*r.review);

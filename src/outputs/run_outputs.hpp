@@ -17,6 +17,7 @@
 #include "core/screen/deterministic_screen.hpp"
 #include "formats/files/run_folder.hpp"
 #include "scenario/scenario.hpp"
+#include "screening/depth_probability.hpp"
 #include "screening/depth_screen.hpp"
 #include "screening/capacity.hpp"
 #include "screening/what_if.hpp"
@@ -44,6 +45,7 @@ struct RunResults {
   const screening::CapacityResult* capacity = nullptr;         // when [capacity]
   const screening::WhatIfResult* what_if = nullptr;            // when [[what_if]]
   const screening::DepthScreen* depth = nullptr;               // when [formation] model = "poroelastic_3d"
+  const screening::DepthProbability* depth_probability = nullptr;  // 3-D model with [uncertainty]
 };
 
 // Writes every output the scenario asks for. Throws IoError (nothing is committed then).

@@ -15,6 +15,7 @@
 #include "screening/prepare.hpp"
 #include "screening/pressure_history.hpp"
 #include "screening/pressure_map.hpp"
+#include "screening/depth_probability.hpp"
 #include "screening/probabilistic_screen.hpp"
 
 namespace slipscreen::run {
@@ -70,6 +71,11 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
   };
   stage("reading faults and wells");
   const screening::PreparedRun prepared = screening::prepare_run(s, o.allow_network);
+  if (o.split && o.split->parts > 1 && s.region.formation.poroelastic_3d && s.uncertainty.given)
+    throw InputError("uncertainty", "[uncertainty]",
+                     "a run in one process: the screen in depth (model = 'poroelastic_3d') is not split across "
+                     "processes (docs/cluster.md)",
+                     s.file);
   if (o.split && o.split->parts > 1 && o.split->part != 0) {  // a helper part: its block only
     if (s.uncertainty.given) screening::run_probabilistic_screen(s, prepared, s.uncertainty, {}, {}, o.split);
     return RunSummary{};
@@ -87,15 +93,22 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
 
   ProgressBridge bridge{&o};
   // The screen in depth first: it checks its own inputs (dips, intervals) before it computes.
+  // The 3-D model's realizations are drawn and checked before any computing.
+  const std::optional<screening::DepthDraws> draws = screening::depth_draws(s, prepared);
   std::optional<screening::DepthScreen> depth;
   if (s.region.formation.poroelastic_3d) {
     stage("faults in depth (3-D poroelastic model)");
     depth = screening::depth_screen(s, prepared);
   }
+  std::optional<screening::DepthProbability> depth_prob;
+  if (depth && draws) {
+    stage("faults in depth, Monte Carlo");
+    depth_prob = screening::depth_probability(s, *depth, *draws);
+  }
   stage("pressure at fault segments");
   const screen::ScreenResult result = screen::deterministic_screen(prepared.inputs, &report, &bridge);
   std::optional<screening::ProbabilisticRun> prob;
-  if (spec.given) {
+  if (spec.given && !depth) {  // the 3-D model's [uncertainty] drives the screen in depth only
     stage("probabilistic screen");
     prob = screening::run_probabilistic_screen(s, prepared, spec, {}, {}, o.split);
   }
@@ -130,7 +143,7 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
   outputs::write_run_outputs(folder, s,
                              {prepared, result, pressure ? &*pressure : nullptr, prob ? &*prob : nullptr,
                               review ? &*review : nullptr, history ? &*history : nullptr, capacity.get(), what_if.get(),
-                              depth ? &*depth : nullptr},
+                              depth ? &*depth : nullptr, depth_prob ? &*depth_prob : nullptr},
                              {o.command_line, o.reproducible});
   if (s.output.report) {
     stage("report");

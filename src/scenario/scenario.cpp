@@ -362,6 +362,7 @@ UncertaintyContext uncertainty_context(const ResolvedScenario& sc) {
   c.density_layers = !sc.region.stress.density_layers.empty();
   c.from_transmissivity = sc.region.formation.from_transmissivity;
   c.leaky = sc.region.formation.leaky;
+  c.poroelastic_3d = sc.region.formation.poroelastic_3d;
   for (const auto& w : sc.wells) c.well_ids.push_back(w.id);
   return c;
 }
@@ -465,10 +466,14 @@ ResolvedScenario load_scenario(const fs::path& path) {
     uncertainty = u->node->as_table();
   }
   sc.uncertainty = read_uncertainty(uncertainty, uncertainty_context(sc));
+  // With the 3-D model [uncertainty] drives the screen in depth only (docs/uncertainty.md): the
+  // answers built on the Theis probabilistic screen are refused.
   if (sc.uncertainty.given && sc.region.formation.poroelastic_3d)
-    top.fail("uncertainty", "[uncertainty]",
-             "no [uncertainty] with [formation] model = 'poroelastic_3d' (the probabilistic screen takes the "
-             "'theis' and 'leaky' models only)");
+    for (const char* k : {"capacity", "what_if", "observations"})
+      if (top.has(k))
+        top.fail(k, std::string("[") + k + "]",
+                 "no [" + std::string(k) + "] with [formation] model = 'poroelastic_3d' (its [uncertainty] drives the "
+                 "screen in depth only)");
   if (top.has("capacity")) {
     const formats::Section cap = top.child("capacity");
     sc.capacity = read_capacity_spec(cap, sc.wells);

@@ -18,6 +18,8 @@
 //   [uncertainty.fault."F-12"]  friction of one fault (replaces [uncertainty.faults] friction)
 //   [uncertainty.well."MW-01"]  rate_factor of one well (multiplies the global rate_factor)
 //   [uncertainty.maps]        cell_size = "2 km"; strike = "30 deg", dip = "70 deg" (optional)
+//   With [formation] model = "poroelastic_3d" only [uncertainty.formation] permeability,
+//   shear_modulus, poisson_ratio, undrained_poisson_ratio, biot and [uncertainty.faults] friction.
 //
 // These map one to one onto the fields of the Monte Carlo driver's model
 // (probabilistic::UncertainModel); a key left out keeps the region's or scenario's value.
@@ -43,7 +45,9 @@ namespace slipscreen::scenario {
 // the one place that names them): a model-wide input, or the friction of one fault or the rate
 // factor of one well, named by `id`.
 using UncertainField = stats::Distribution probabilistic::UncertainModel::*;
-enum class UncertainScope { model, fault_friction, well_rate_factor };
+// poro3d: an input of the screen in depth ([formation] model = "poroelastic_3d"), named by its key
+// alone (the Theis model has no field for it; screening/depth_probability.hpp reads these).
+enum class UncertainScope { model, fault_friction, well_rate_factor, poro3d };
 
 struct UncertainValue {
   std::string key;              // e.g. "formation.permeability" (see above)

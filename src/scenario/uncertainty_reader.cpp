@@ -86,6 +86,20 @@ const std::vector<KeySpec> kFaultKeys = {
     {"strike_perturbation", Dimension::angle, kAny, &Model::strike_perturbation},
     {"dip_perturbation", Dimension::angle, kAny, &Model::dip_perturbation},
 };
+// [formation] model = "poroelastic_3d": the solid's constants and the permeability (the ranges of
+// [formation] in region_reader.cpp; ν < ν_u is checked per realization before any screen:
+// screening/depth_probability.hpp).
+constexpr Range kShearModulus{1e8, 1e11, false, false, "shear moduli from 0.1 GPa to 100 GPa"};
+constexpr Range kDrainedPoisson{0.0, 0.5, false, true, "drained Poisson's ratios in [0, 0.5)"};
+constexpr Range kUndrainedPoisson{0.0, 0.5, true, true, "undrained Poisson's ratios in (0, 0.5)"};
+const std::vector<KeySpec> kPoro3dFormationKeys = {
+    {"permeability", Dimension::permeability, kPermeability},
+    {"shear_modulus", Dimension::pressure, kShearModulus},
+    {"poisson_ratio", Dimension::dimensionless, kDrainedPoisson},
+    {"undrained_poisson_ratio", Dimension::dimensionless, kUndrainedPoisson},
+    {"biot", Dimension::dimensionless, kBiot},
+};
+const KeySpec kPoro3dFriction{"friction", Dimension::dimensionless, kPositive};  // [uncertainty.faults], every fault
 const KeySpec kOneFaultFriction{"friction", Dimension::dimensionless, kPositive};  // [uncertainty.fault."id"]
 const KeySpec kOneWellRateFactor{"rate_factor", Dimension::dimensionless, kRateFactor};  // [uncertainty.well."id"]
 
@@ -319,6 +333,28 @@ void read_maps(const formats::Section& maps, UncertaintySpec& spec) {
   }
 }
 
+// The screen in depth (docs/uncertainty.md, "The 3-D poroelastic model"): the solid's constants,
+// the permeability and one friction for every fault; every other key is refused.
+void read_poro3d(const formats::Section& top, UncertaintySpec& spec) {
+  const char* takes =
+      "no such key with [formation] model = 'poroelastic_3d': the screen in depth takes [uncertainty.formation] "
+      "shear_modulus, poisson_ratio, undrained_poisson_ratio, biot, permeability and [uncertainty.faults] friction";
+  for (const char* k : {"pore_pressure_gradient", "rate_factor", "stress", "fault", "well", "maps"})
+    if (top.has(k)) top.fail(k, plausible::written(top, k), takes);
+  top.allow({"realizations", "sampler", "confidence", "thresholds", "formation", "faults"});
+  const formats::Section formation = top.child("formation");
+  for (const auto& k : kPermeabilityFormKeys)
+    if (k.key != "permeability" && formation.has(k.key)) formation.fail(k.key, plausible::written(formation, k.key), takes);
+  formation.allow(key_names(kPoro3dFormationKeys));
+  for (const auto& k : kPoro3dFormationKeys)
+    read_value(formation, k, "formation." + std::string(k.key), spec, UncertainScope::poro3d);
+  const formats::Section faults = top.child("faults");
+  for (const auto& k : kFaultKeys)
+    if (k.key != "friction" && faults.has(k.key)) faults.fail(k.key, plausible::written(faults, k.key), takes);
+  faults.allow({kPoro3dFriction.key});
+  read_value(faults, kPoro3dFriction, "faults.friction", spec, UncertainScope::poro3d);
+}
+
 }  // namespace
 
 UncertaintySpec read_uncertainty(const toml::table* table, const UncertaintyContext& ctx) {
@@ -327,6 +363,12 @@ UncertaintySpec read_uncertainty(const toml::table* table, const UncertaintyCont
   if (!table) return spec;
   spec.given = true;
   const formats::Section top({formats::Section::Layer{table, ctx.file, "uncertainty", {}}});
+  if (ctx.poroelastic_3d) {
+    read_settings(top, ctx, spec);
+    read_poro3d(top, spec);
+    std::sort(spec.values.begin(), spec.values.end(), [](const UncertainValue& a, const UncertainValue& b) { return a.key < b.key; });
+    return spec;
+  }
   top.allow(key_names(kTopKeys, {"realizations", "sampler", "confidence", "thresholds", "stress", "formation", "faults",
                                  "fault", "well", "maps"}));
   read_settings(top, ctx, spec);

@@ -20,6 +20,7 @@ struct UncertaintyContext {
   bool density_layers = false;        // Sv from a density table (no vertical_gradient)
   bool from_transmissivity = false;   // formation given as T and S
   bool leaky = false;                 // [formation] model = "leaky": only k (or T) may be uncertain
+  bool poroelastic_3d = false;        // [formation] model = "poroelastic_3d": the solid's constants, k and friction
   std::vector<std::string> well_ids;  // existing and proposed wells
 };
 // Reads an [uncertainty] table (null: not given, the defaults above). Throws InputError naming

@@ -77,6 +77,7 @@ std::optional<DepthScreen> depth_screen(const scenario::ResolvedScenario& s, con
     out.points.push_back(std::move(xyz));
   }
   out.result = poro::depth_screen(in);
+  out.inputs = std::move(in);
   return out;
 }
 

@@ -17,6 +17,7 @@ namespace slipscreen::screening {
 inline constexpr int kIntervalPoints = 6;
 
 struct DepthScreen {
+  poro::DepthScreenInputs inputs;  // as screened (the Monte Carlo engine redraws the medium and friction)
   poro::DepthScreenResult result;
   // per segment, per check point: (x, y) in the working CRS and depth, m
   std::vector<std::vector<Eigen::Vector3d>> points;

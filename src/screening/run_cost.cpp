@@ -183,7 +183,8 @@ void deterministic_part(const PreparedRun& p, const WellPart& w, const Bounds& p
 void probabilistic_part(const scenario::ResolvedScenario& s, const PreparedRun& p, const WellPart& w,
                         const Bounds& points, RunSizes& z) {
   const scenario::UncertaintySpec& spec = s.uncertainty;
-  if (!spec.given || z.wells == 0 || z.segments == 0) return;
+  // the 3-D model's [uncertainty] drives the screen in depth instead (depth_part)
+  if (!spec.given || z.wells == 0 || z.segments == 0 || s.region.formation.poroelastic_3d) return;
   z.realizations = spec.realizations.value();
   std::vector<std::string> fault_ids;
   std::vector<std::size_t> segment_fault;
@@ -221,6 +222,7 @@ void depth_part(const scenario::ResolvedScenario& s, RunSizes& z) {
   if (!r.formation.poroelastic_3d) return;
   const bool range = !std::isnan(r.faults.top) && r.faults.bottom > r.faults.top;
   z.depth_points = z.check_points * static_cast<std::size_t>(range ? r.faults.depth_levels : 1);
+  if (s.uncertainty.given) z.depth_realizations = s.uncertainty.realizations.value();
 }
 
 void raster_part(const scenario::ResolvedScenario& s, const PreparedRun& p, const WellPart& w, RunSizes& z) {
@@ -294,8 +296,11 @@ CostPart probabilistic_cost(const RunSizes& z, double& results) {
 // rate step, interval point).
 CostPart depth_cost(const RunSizes& z) {
   if (z.depth_points == 0) return {"screen in depth", 0.0, 0.0};
-  const double bytes = d(z.segments) * d(z.output_times) * 48.0 + d(z.depth_points) * 64.0;
-  const double ops = d(z.depth_points) * d(z.tracked_times) * d(z.rate_steps) * d(kIntervalPoints);
+  // with [uncertainty]: one more screen per realization (core/poro/depth_monte_carlo.hpp), its
+  // drawn medium and a byte per (realization, segment, output time)
+  const double n = d(z.depth_realizations);
+  const double bytes = d(z.segments) * d(z.output_times) * (48.0 + n) + d(z.depth_points) * 64.0 + n * 64.0;
+  const double ops = (1.0 + n) * d(z.depth_points) * d(z.tracked_times) * d(z.rate_steps) * d(kIntervalPoints);
   return {"screen in depth", bytes, ops};
 }
 

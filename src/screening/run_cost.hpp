@@ -75,6 +75,7 @@ struct RunSizes {
   bool median_attribution = false;    // the median's well attribution (with the tables)
   // Screen in depth, [formation] model = "poroelastic_3d" (depth_points = 0: none)
   std::size_t depth_points = 0;       // check points × depth levels
+  std::size_t depth_realizations = 0; // [uncertainty] realizations of the screen in depth (3-D model)
   // Pressure raster (cells = 0: none)
   std::size_t raster_cells = 0;       // C
   std::size_t profile_nodes = 0;      // n_r, the longest radial profile
