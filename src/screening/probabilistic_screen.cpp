@@ -95,6 +95,8 @@ probabilistic::UncertainModel uncertain_model(const scenario::ResolvedScenario& 
         for (std::size_t w = 0; w < p.inputs.wells.size(); ++w)
           if (p.inputs.wells[w].id == v.id) m.well_rate_factor[w] = v.distribution;
         break;
+      case scenario::UncertainScope::poro3d:
+        break;  // the screen in depth's inputs (screening/depth_probability.hpp), not the Theis screen's
     }
   }
   return m;
