@@ -15,21 +15,16 @@
 #include <limits>
 #include <string>
 
+#include "bench_clock.hpp"
 #include "scenario/scenario.hpp"
 #include "screening/prepare.hpp"
 #include "screening/probabilistic_screen.hpp"
 
-using Clock = std::chrono::steady_clock;
+using slipscreen::bench::Clock;
+using slipscreen::bench::load_average;
+using slipscreen::bench::since;
 using namespace slipscreen;
 
-static double since(Clock::time_point t0) { return std::chrono::duration<double>(Clock::now() - t0).count(); }
-
-static std::string load_average() {
-  std::ifstream f("/proc/loadavg");
-  std::string a, b, c;
-  f >> a >> b >> c;
-  return a + " " + b + " " + c;
-}
 
 int main(int argc, char** argv) try {
   const std::filesystem::path path =

@@ -28,6 +28,7 @@
 #include <utility>
 #include <vector>
 
+#include "bench_clock.hpp"
 #include "core/hydro/pressure_field.hpp"
 #include "screening/probabilistic_screen.hpp"
 #include "run/run_scenario.hpp"
@@ -36,17 +37,11 @@
 #include "scenario/uncertainty.hpp"
 
 namespace fs = std::filesystem;
-using Clock = std::chrono::steady_clock;
+using slipscreen::bench::Clock;
+using slipscreen::bench::load_average;
+using slipscreen::bench::since;
 using namespace slipscreen;
 
-static double since(Clock::time_point t0) { return std::chrono::duration<double>(Clock::now() - t0).count(); }
-
-static std::string load_average() {
-  std::ifstream f("/proc/loadavg");
-  std::string a, b, c;
-  f >> a >> b >> c;
-  return a + " " + b + " " + c;
-}
 
 int main(int argc, char** argv) {
   fs::path dir = argc > 1 ? fs::path(argv[1]) : fs::temp_directory_path() / "slipscreen-bench-scenario";
