@@ -23,13 +23,12 @@ std::string th_text(double th) { return fixed_decimals(th, 3); }
 
 double z_of(const screening::CapacityResult& c) { return stats::z_for_confidence(c.confidence); }
 
-// The end of capacity_curve.csv's grid: 1.5 times the largest finite answer, at least 2, at most up_to.
+// The end of capacity_curve.csv's grid: 1.5 times the largest finite answer, at least 2, at most
+// up_to (the range every curve is exact on, group_factors.hpp).
 double curve_end(const screening::CapacityResult& c) {
-  double end = 2.0;
-  for (const auto& t : c.thresholds)
-    for (double f : {t.wilson.limit, t.point.limit})
-      if (!std::isinf(f)) end = std::max(end, 1.5 * f);
-  return std::min(end, c.up_to);
+  std::vector<double> th;
+  for (const auto& t : c.thresholds) th.push_back(t.threshold);
+  return probabilistic::curve_end(c.curves, th, z_of(c), c.up_to);
 }
 
 void write_capacity_csv(const formats::RunFolder& folder, const screening::CapacityResult& c) {
@@ -79,7 +78,8 @@ void write_capacity_curve(const formats::RunFolder& folder, const screening::Cap
   for (std::size_t i : top) t << ',' << formats::csv_field("p_slip_" + c.segment_ids[i]);
   t << '\n';
   for (std::size_t k = 0; k < kCapacityCurvePoints; ++k) {
-    const double f = end * static_cast<double>(k) / static_cast<double>(kCapacityCurvePoints - 1);
+    // At most `end` (the product and quotient may round above it by an ulp).
+    const double f = std::min(end, end * static_cast<double>(k) / static_cast<double>(kCapacityCurvePoints - 1));
     std::size_t best = 0;
     for (std::size_t i = 1; i < c.curves.size(); ++i)
       if (c.curves[i].slipped(f) > c.curves[best].slipped(f)) best = i;

@@ -169,7 +169,11 @@ ProbabilisticRun run_probabilistic_screen(const scenario::ResolvedScenario& s, c
   set.attribute_median = s.output.tables;  // written to median_well_shares.csv
   set.audit_realizations = std::move(audit_realizations);
   set.audit_segments = std::move(audit_segments);
-  if (s.capacity) set.capacity = capacity_split(s, wells, run.tracked_times);
+  if (s.capacity) {
+    set.capacity = capacity_split(s, wells, run.tracked_times);
+    set.capacity->thresholds = spec.thresholds;
+    set.capacity->z = stats::z_for_confidence(spec.confidence);
+  }
   for (const auto& w : s.what_if) set.what_if.push_back(what_if_split(w, p, wells));
   set.observations = observation_inputs(s, p);  // [observations]: weights (docs/conditioning.md)
   run.result = probabilistic::run_probabilistic(model, wells, segments, set, split);

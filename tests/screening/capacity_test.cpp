@@ -9,6 +9,7 @@
 #include <algorithm>
 #include <cmath>
 
+#include "core/probabilistic/allowable_factor.hpp"
 #include "core/screen/deterministic_screen.hpp"
 #include "core/stats/wilson_interval.hpp"
 #include "scenario/scenario.hpp"
@@ -134,4 +135,44 @@ TEST_CASE("allowable rate of a group with the global rate factor only (a rate gr
   for (const auto& th : r.cap.thresholds)
     MESSAGE("threshold " << th.threshold << ": f* " << th.wilson.allowed << ", point " << th.point.allowed);
   check_against_reruns(r, -1e300);
+}
+
+TEST_CASE("allowable rate: the curves cut where the answers no longer need them equal the whole curves where exact") {
+  // group_factors.hpp searches each segment's factors only up to the cutoff its answers need.
+  // The same run without thresholds resolves every factor up to up_to: every answer, the curve
+  // shown and every count within each cut curve's exact range must be the same.
+  // One low threshold and a high up_to, so that the answers need few factors of each segment.
+  TinyScenario t;
+  std::string u = kUncertainty;
+  u.replace(u.find("[0.05, 0.2, 0.5]"), 16, "[0.05]");
+  t.append("scenario.toml", u + "\n[capacity]\nup_to = 100\n");
+  const Screen r(t.scenario());
+  std::vector<std::string> fault_ids;
+  std::vector<std::size_t> segment_fault;
+  const auto model = uncertain_model(r.s, r.p, r.s.uncertainty, fault_ids, segment_fault);
+  auto settings = r.prob.settings;
+  settings.capacity->thresholds.clear();
+  settings.map_points.clear();
+  const auto whole = probabilistic::run_probabilistic(model, r.prob.wells, r.prob.segments, settings).capacity;
+  REQUIRE(whole.size() == r.cap.curves.size());
+  const double z = stats::z_for_confidence(r.prob.confidence);
+  const double end = probabilistic::curve_end(r.cap.curves, r.prob.thresholds, z, r.cap.up_to);
+  CHECK(end == probabilistic::curve_end(whole, r.prob.thresholds, z, r.cap.up_to));
+  int cut = 0;
+  for (std::size_t s = 0; s < whole.size(); ++s) {
+    CAPTURE(s);
+    const auto& c = r.cap.curves[s];
+    CHECK(whole[s].exact_up_to() == r.cap.up_to);  // factors above up_to are reported as beyond it
+    CHECK(c.exact_up_to() >= end);
+    if (c.exact_up_to() < r.cap.up_to) ++cut;
+    for (double th : r.prob.thresholds)
+      for (auto b : {probabilistic::ProbabilityBound::point_estimate, probabilistic::ProbabilityBound::wilson_upper,
+                     probabilistic::ProbabilityBound::wilson_lower})
+        CHECK(probabilistic::segment_limit(c, th, b, z) == probabilistic::segment_limit(whole[s], th, b, z));
+    for (double f : whole[s].steps())
+      if (f <= c.exact_up_to()) CHECK(c.slipped(f) == whole[s].slipped(f));
+    CHECK(c.slipped(c.exact_up_to()) == whole[s].slipped(c.exact_up_to()));
+  }
+  MESSAGE(cut << " of " << whole.size() << " curves cut below up_to");
+  CHECK(cut > 0);  // the case exercises the cut
 }

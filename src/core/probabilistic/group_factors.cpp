@@ -18,18 +18,28 @@ constexpr Eigen::Index kChunk = 24;  // tracking times per chunk of the first-cr
 constexpr double kInf = std::numeric_limits<double>::infinity();
 
 // Σ over the model's groups of table rows [first_row, first_row + rows) times basis · scale_g,
-// for the realizations `cols`: rows × cols.size().
-Eigen::MatrixXd series(const PressureModel& pm, std::size_t point, Eigen::Index rows, const std::vector<Eigen::Index>& cols,
-                       Eigen::Index first_row = 0) {
-  Eigen::MatrixXd out = Eigen::MatrixXd::Zero(rows, static_cast<Eigen::Index>(cols.size()));
-  Eigen::MatrixXd block(pm.draws.basis.rows(), static_cast<Eigen::Index>(cols.size()));
+// for the realizations `cols`, at every check point of `points`, stacked: row i·rows + k is
+// point i at tracking index first_row + k. One product per group for all the points (the
+// realizations' block of basis · scale_g is built once and shared by them): points.size()·rows ×
+// cols.size(). Each entry is the same sum, in the same order, as a product per point.
+struct SeriesBuffers {
+  Eigen::MatrixXd block, stacked;
+};
+void series(const PressureModel& pm, const std::vector<std::size_t>& points, Eigen::Index rows,
+            const std::vector<Eigen::Index>& cols, Eigen::Index first_row, SeriesBuffers& buf, Eigen::MatrixXd& out) {
+  const auto np = static_cast<Eigen::Index>(points.size());
+  const auto nc = static_cast<Eigen::Index>(cols.size());
+  out.setZero(np * rows, nc);
+  buf.block.resize(pm.draws.basis.rows(), nc);
+  buf.stacked.resize(np * rows, pm.draws.basis.rows());
   for (std::size_t g = 0; g < pm.groups; ++g) {
-    for (std::size_t c = 0; c < cols.size(); ++c)
-      block.col(static_cast<Eigen::Index>(c)) =
-          pm.draws.basis.col(cols[c]) * pm.draws.scale(static_cast<Eigen::Index>(g), cols[c]);
-    out.noalias() += pm.surrogate->table(point, g).middleRows(first_row, rows) * block;
+    for (Eigen::Index c = 0; c < nc; ++c)
+      buf.block.col(c) = pm.draws.basis.col(cols[static_cast<std::size_t>(c)]) *
+                         pm.draws.scale(static_cast<Eigen::Index>(g), cols[static_cast<std::size_t>(c)]);
+    for (Eigen::Index i = 0; i < np; ++i)
+      buf.stacked.middleRows(i * rows, rows) = pm.surrogate->table(points[static_cast<std::size_t>(i)], g).middleRows(first_row, rows);
+    out.noalias() += buf.stacked * buf.block;
   }
-  return out;
 }
 
 // Bounds on |Δp| of one model at one point per chunk of `chunk` rows in [first_row, first_row +
@@ -61,9 +71,14 @@ struct Pair {
 
 // f_crit of every realization of segment s, chunk by chunk of kChunk tracking times: a chunk is
 // evaluated for a realization only where B_base + max(1, f − 1)·B_part over the chunk reaches
-// Δp_crit, f the smallest factor found so far (at first f_max): no time in that chunk can give a
-// factor at or below f. Factors above f_max are reported as +∞ (exact on [0, f_max]).
-SlipFactorCurve segment_curve(const Pair& m, const Eigen::MatrixXf& dp_crit, std::size_t s, Eigen::Index rows, double f_max) {
+// Δp_crit, f the smaller of the smallest factor found so far for it and the cutoff C: no time in
+// that chunk can give a factor at or below f. C = min(f_max, max(floor, the k-th smallest factor
+// found so far over the realizations)); the factors found are upper bounds of the true ones, so
+// C never falls below the true k-th smallest and only shrinks as the search goes on. Every
+// realization whose f_crit is at or below the final C is then found exactly, the others are
+// reported as +∞, and the curve is exact up to C (group_factors.hpp).
+SlipFactorCurve segment_curve(const Pair& m, const Eigen::MatrixXf& dp_crit, std::size_t s, Eigen::Index rows, double f_max,
+                              std::uint64_t k, double floor) {
   const Eigen::Index n = dp_crit.cols();
   const auto& pts = m.base.segment_points[s];
   Eigen::MatrixXd bound_base, bound_part;  // per chunk and realization, max over the check points
@@ -79,46 +94,62 @@ SlipFactorCurve segment_curve(const Pair& m, const Eigen::MatrixXf& dp_crit, std
   const auto reaches = [&](Eigen::Index q, Eigen::Index r, double f) {
     return (bound_base(q, r) + std::max(1.0, f - 1.0) * bound_part(q, r)) * (1.0 + 1e-9) >= crit_of(r);
   };
-  std::vector<double> f(static_cast<std::size_t>(n), kInf);
-  std::vector<Eigen::Index> active, in_chunk, cols;
+  std::vector<double> f(static_cast<std::size_t>(n), kInf), kth;
+  std::vector<Eigen::Index> active, in_chunk, cols, listed;
+  SeriesBuffers buf;
+  Eigen::MatrixXd group, rest;
   for (Eigen::Index r = 0; r < n; ++r) {
     const double crit = crit_of(r);
+    if (crit > 0.0) listed.push_back(r);  // critical before injection: counted apart
     if (crit > 0.0 && !std::isinf(crit)) active.push_back(r);
   }
+  // The cutoff from the factors found so far (the k-th smallest over the listed realizations).
+  const auto cutoff = [&] {
+    double c = kInf;
+    if (k > 0 && k <= listed.size()) {
+      kth.clear();
+      for (Eigen::Index r : listed) kth.push_back(f[static_cast<std::size_t>(r)]);
+      std::nth_element(kth.begin(), kth.begin() + static_cast<std::ptrdiff_t>(k - 1), kth.end());
+      c = kth[k - 1];
+    }
+    return std::min(f_max, std::max(floor, c));
+  };
+  double c = cutoff();
   // Latest chunk first: Δp usually grows while the wells inject, so the late chunks give the
   // small factors early, and the tightened bound then skips most of the earlier ones. Any order
-  // gives the same minimum.
+  // gives the same result.
   const Eigen::Index n_chunks = (rows + kChunk - 1) / kChunk;
   for (Eigen::Index q = n_chunks - 1; q >= 0 && !active.empty(); --q) {
     const Eigen::Index k0 = q * kChunk, len = std::min(kChunk, rows - k0);
     in_chunk.clear();
     for (Eigen::Index r : active)
-      if (reaches(q, r, std::min(f_max, f[static_cast<std::size_t>(r)]))) in_chunk.push_back(r);
+      if (reaches(q, r, std::min(c, f[static_cast<std::size_t>(r)]))) in_chunk.push_back(r);
     for (std::size_t c0 = 0; c0 < in_chunk.size(); c0 += kBlock) {
       cols.assign(in_chunk.begin() + static_cast<std::ptrdiff_t>(c0),
                   in_chunk.begin() + static_cast<std::ptrdiff_t>(std::min(in_chunk.size(), c0 + kBlock)));
-      for (std::size_t i = 0; i < pts.size(); ++i) {
-        const Eigen::MatrixXd group = series(m.part, m.part.segment_points[s][i], len, cols, k0);
-        const Eigen::MatrixXd rest = series(m.base, pts[i], len, cols, k0) - group;
-        for (std::size_t c = 0; c < cols.size(); ++c) {
-          const auto ci = static_cast<Eigen::Index>(c);
-          const auto l = static_cast<std::size_t>(len);
-          double& fr = f[static_cast<std::size_t>(cols[c])];
-          fr = std::min(fr, critical_factor(std::span<const double>(rest.col(ci).data(), l),
-                                            std::span<const double>(group.col(ci).data(), l), crit_of(cols[c])));
+      series(m.part, m.part.segment_points[s], len, cols, k0, buf, group);
+      series(m.base, pts, len, cols, k0, buf, rest);
+      rest -= group;
+      const auto l = static_cast<std::size_t>(len);
+      for (std::size_t j = 0; j < cols.size(); ++j) {
+        const auto ci = static_cast<Eigen::Index>(j);
+        double& fr = f[static_cast<std::size_t>(cols[j])];
+        for (std::size_t i = 0; i < pts.size(); ++i) {
+          const Eigen::Index at = static_cast<Eigen::Index>(i) * len;
+          fr = std::min(fr, critical_factor(std::span<const double>(rest.col(ci).data() + at, l),
+                                            std::span<const double>(group.col(ci).data() + at, l), crit_of(cols[j])));
         }
       }
     }
     std::erase_if(active, [&](Eigen::Index r) { return f[static_cast<std::size_t>(r)] == 0.0; });
+    c = cutoff();
   }
   std::vector<double> f_crit;
-  for (Eigen::Index r = 0; r < n; ++r) {
-    const double crit = crit_of(r);
-    if (crit <= 0.0) continue;  // critical before injection: counted apart
+  for (Eigen::Index r : listed) {
     const double fr = f[static_cast<std::size_t>(r)];
-    f_crit.push_back(fr <= f_max ? fr : kInf);
+    f_crit.push_back(fr <= c ? fr : kInf);
   }
-  return SlipFactorCurve(std::move(f_crit), static_cast<std::uint64_t>(n));
+  return SlipFactorCurve(std::move(f_crit), static_cast<std::uint64_t>(n), c);
 }
 
 void check_pair(const PressureModel& base, const PressureModel& part, std::size_t realizations) {
@@ -207,6 +238,8 @@ std::vector<std::uint64_t> variant_segment_slips(const VariantSearch& v, const E
   }
   std::erase_if(active, [&](Eigen::Index c) { return bound.col(c).maxCoeff() * (1.0 + 1e-9) < crit_of(c); });
   std::vector<Eigen::Index> in_chunk, cols;
+  SeriesBuffers buf;
+  Eigen::MatrixXd dp, part;
   for (Eigen::Index q = 0; q * kChunk < span_rows && !active.empty(); ++q) {
     const Eigen::Index k0 = from + q * kChunk, len = std::min(kChunk, span_rows - q * kChunk);
     in_chunk.clear();
@@ -216,12 +249,11 @@ std::vector<std::uint64_t> variant_segment_slips(const VariantSearch& v, const E
     for (std::size_t b0 = 0; b0 < in_chunk.size(); b0 += kBlock) {
       cols.clear();
       for (std::size_t j = b0; j < std::min(in_chunk.size(), b0 + kBlock); ++j) cols.push_back(col(in_chunk[j]));
-      Eigen::MatrixXd best;
-      for (std::size_t i = 0; i < pts.size(); ++i) {
-        Eigen::MatrixXd dp = series(base, pts[i], len, cols, k0);
-        dp.noalias() += c_part * series(v.part, v.part.segment_points[s][i], len, cols, k0);
-        best = i == 0 ? dp : best.cwiseMax(dp);
-      }
+      series(base, pts, len, cols, k0, buf, dp);
+      series(v.part, v.part.segment_points[s], len, cols, k0, buf, part);
+      dp.noalias() += c_part * part;
+      Eigen::MatrixXd best = dp.topRows(len);
+      for (std::size_t i = 1; i < pts.size(); ++i) best = best.cwiseMax(dp.middleRows(static_cast<Eigen::Index>(i) * len, len));
       for (std::size_t j = 0; j < cols.size(); ++j) {
         const Eigen::Index c = in_chunk[b0 + j];
         const double crit = crit_of(c);
@@ -239,16 +271,24 @@ std::vector<std::uint64_t> variant_segment_slips(const VariantSearch& v, const E
 }
 
 std::vector<SlipFactorCurve> group_factor_curves(const PressureModel& base, const PressureModel& part,
-                                                 const Eigen::MatrixXf& dp_crit, std::size_t horizon, double f_max) {
+                                                 const Eigen::MatrixXf& dp_crit, std::size_t horizon, double f_max,
+                                                 const std::vector<double>& thresholds, double z) {
   if (!base.surrogate || horizon >= base.surrogate->time_count())
     throw InputError("capacity horizon", std::to_string(horizon), "a tracking-time index");
-  if (!(f_max > 0.0)) throw InputError("capacity f_max", std::to_string(f_max), "a factor > 0");
+  if (!(f_max >= 1.0)) throw InputError("capacity f_max", std::to_string(f_max), "a factor >= 1");
   check_pair(base, part, static_cast<std::size_t>(dp_crit.cols()));
   const Pair m(base, part);
   const auto rows = static_cast<Eigen::Index>(horizon + 1);
-  std::vector<SlipFactorCurve> curves(base.segment_points.size(),
-                                      SlipFactorCurve({}, std::max<std::uint64_t>(1, static_cast<std::uint64_t>(dp_crit.cols()))));
-  per_segment(curves, [&](std::size_t s) { return segment_curve(m, dp_crit, s, rows, f_max); });
+  const auto n = static_cast<std::uint64_t>(dp_crit.cols());
+  // Pass 1: every answer's steps (steps_needed) and the curve up to f = 2; then the curve's
+  // range follows from the answers, and pass 2 extends the segments whose range falls short of it.
+  const std::uint64_t k = steps_needed(std::max<std::uint64_t>(1, n), thresholds, z);
+  std::vector<SlipFactorCurve> curves(base.segment_points.size(), SlipFactorCurve({}, std::max<std::uint64_t>(1, n)));
+  per_segment(curves, [&](std::size_t s) { return segment_curve(m, dp_crit, s, rows, f_max, k, std::min(2.0, f_max)); });
+  const double end = curve_end(curves, thresholds, z, f_max);
+  per_segment(curves, [&](std::size_t s) {
+    return curves[s].exact_up_to() >= end ? curves[s] : segment_curve(m, dp_crit, s, rows, f_max, k, end);
+  });
   return curves;
 }
 

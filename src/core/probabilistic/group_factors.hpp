@@ -12,11 +12,13 @@
 // part's model holds only the group's wells, so it costs a small share of the screen's; at
 // f = 1 every answer is the screen's own.
 //
-// Speed: a realization's series is evaluated only where a rigorous bound allows a crossing at a
-// factor up to f_max: max_p (B_base,p + max(1, f_max − 1)·B_part,p) with B = Σ_g |P f_g| Σ_d
-// |ℓ_d| max_{k≤K} |G_{p,g}(t_k, D_d)| (triangle inequality, as slip_tracker.hpp). The others get
-// f_crit = +∞, which is exact for every question asked at f ≤ f_max: P(slip by T | f) is exact
-// on [0, f_max].
+// Speed: the answers need, per segment, only its k smallest f_crit (k = steps_needed() of the
+// thresholds: the count at which the lower end of the Wilson interval passes the largest
+// threshold) and every f_crit up to the shown curve's end. A realization's series is evaluated
+// only where a rigorous bound allows a crossing at a factor up to the cutoff C (segment_curve in
+// group_factors.cpp): max_p (B_base,p + max(1, C − 1)·B_part,p) with B = Σ_g |P f_g| Σ_d |ℓ_d|
+// max_{k in chunk} |G_{p,g}(t_k, D_d)| (triangle inequality, as slip_tracker.hpp). The others get
+// f_crit = +∞, which is exact for every question asked at f ≤ C.
 //
 // Symbol table: horizon K (tracking index of T), f_max (the largest factor resolved).
 #include <cstddef>
@@ -31,10 +33,14 @@ namespace slipscreen::probabilistic {
 
 // One SlipFactorCurve per segment over the valid realizations (N = dp_crit.cols()); realizations
 // already critical before injection (Δp_crit ≤ 0) are counted in N but carry no f_crit, as in the
-// screen's injection-induced P. InputError if horizon is not a tracking index, f_max is not > 0,
+// screen's injection-induced P. Each curve is exact on [0, C_s] with C_s ≥ the range the run's
+// answers show (curve_end) and ≥ its steps_needed()-th smallest f_crit (capped at f_max): every
+// segment_limit() at `thresholds`, the allowable factors and capacity_curve.csv are exact, and
+// are all that is asked of them. InputError if horizon is not a tracking index, f_max is not ≥ 1,
 // or the two models do not cover the same check points and realizations.
 std::vector<SlipFactorCurve> group_factor_curves(const PressureModel& base, const PressureModel& part,
-                                                 const Eigen::MatrixXf& dp_crit, std::size_t horizon, double f_max);
+                                                 const Eigen::MatrixXf& dp_crit, std::size_t horizon, double f_max,
+                                                 const std::vector<double>& thresholds, double z);
 
 // A what-if variant prepared once for the search that runs segment by segment while the screen
 // tracks its realizations: the part's rates are multiplied by `factor` ≥ 0. `from_row` is the

@@ -96,6 +96,8 @@ struct GroupSplit {
   std::vector<char> in_group;        // per split well
   std::size_t horizon = 0;           // tracking index of T (P(slip by T | f))
   double f_max = 10.0;               // factors resolved exactly up to here
+  std::vector<double> thresholds;    // the run's thresholds on P(slip), and the normal quantile z
+  double z = 1.959963984540054;      // of its intervals: what the allowable factors ask (group_factors.hpp)
   double factor = 1.0;               // a what-if variant's factor on the group's rates
 };
 

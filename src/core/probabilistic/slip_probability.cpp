@@ -421,7 +421,8 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
   const auto decision_answers = [&] {
     if (settings.capacity)
       out.capacity = group_factor_curves(pm, group_part_model(*settings.capacity, segments, settings, list, r), r.dp_crit,
-                                         settings.capacity->horizon, settings.capacity->f_max);
+                                         settings.capacity->horizon, settings.capacity->f_max,
+                                         settings.capacity->thresholds, settings.capacity->z);
   };
   if (!settings.observations.empty()) out.conditioning = condition_on_pressures(pm, wells, settings, list, r.inputs);
   Tracking tr = prepare_tracking(wells, segments, settings, r, pm);

@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <cmath>
 #include <optional>
+#include <stdexcept>
 #include <limits>
 #include <random>
 #include <vector>
@@ -173,4 +174,54 @@ TEST_CASE("curves refuse bad input") {
   CHECK_THROWS_AS(allowable_factor({}, 0.05, ProbabilityBound::point_estimate, stats::kZ95), InputError);
   CHECK_THROWS_AS(allowable_factor({SlipFactorCurve({}, 3)}, 1.5, ProbabilityBound::point_estimate, stats::kZ95),
                   InputError);
+}
+
+TEST_CASE("the steps_needed() smallest factors decide every segment limit; beyond them a curve may be cut") {
+  // A curve cut at its k-th smallest factor (larger ones listed as +∞, exact range = that factor)
+  // gives the same segment_limit() as the whole curve for every threshold and bound, k =
+  // steps_needed(); cut one step earlier, some limit differs or cannot be told (group_factors.hpp).
+  std::mt19937_64 rng(11);
+  const std::vector<double> thresholds{0.05, 0.2};
+  const std::vector<ProbabilityBound> bounds{ProbabilityBound::point_estimate, ProbabilityBound::wilson_upper,
+                                             ProbabilityBound::wilson_lower};
+  const std::uint64_t n = 400;
+  const std::uint64_t k = steps_needed(n, thresholds, stats::kZ95);
+  // The count at which the lower end of the Wilson interval first passes 0.2 among 400, plus one
+  // (common practice: the score interval's lower end at r/n = 0.2 is about 0.2 − 1.96·0.02).
+  CHECK(k > 80);
+  CHECK(k < 120);
+  const auto cut = [](std::vector<double> f, std::uint64_t at) {
+    std::sort(f.begin(), f.end());
+    const double c = f[static_cast<std::size_t>(at - 1)];
+    for (double& v : f)
+      if (v > c) v = kInf;
+    return SlipFactorCurve(f, 400, c);
+  };
+  int differs_one_step_earlier = 0;
+  for (int trial = 0; trial < 20; ++trial) {
+    const auto f = random_factors(rng, 300);
+    const SlipFactorCurve whole(f, n), at_k = cut(f, k), before_k = cut(f, k - 1);
+    CHECK(at_k.exact_up_to() == at_k.steps()[static_cast<std::size_t>(k - 1)]);
+    for (double th : thresholds)
+      for (auto b : bounds) {
+        CHECK(segment_limit(at_k, th, b, stats::kZ95) == segment_limit(whole, th, b, stats::kZ95));
+        try {
+          if (segment_limit(before_k, th, b, stats::kZ95) != segment_limit(whole, th, b, stats::kZ95))
+            ++differs_one_step_earlier;
+        } catch (const std::logic_error&) {
+          ++differs_one_step_earlier;
+        }
+      }
+  }
+  CHECK(differs_one_step_earlier > 0);  // k is the least that decides them
+}
+
+TEST_CASE("a curve answers only within its exact range, and a merge keeps the smaller range") {
+  SlipFactorCurve a({0.2, 0.7, kInf}, 10, 1.0), b({0.4, kInf}, 10, 2.0);
+  CHECK(a.slipped(1.0) == 2);
+  CHECK_THROWS_AS((void)a.slipped(1.5), std::logic_error);
+  a.merge(b);
+  CHECK(a.exact_up_to() == 1.0);
+  CHECK(a.slipped(0.5) == 2);
+  CHECK_THROWS_AS(SlipFactorCurve({0.5}, 3, 0.0), InputError);
 }
