@@ -8,6 +8,7 @@
 #include <string>
 
 #include "core/errors.hpp"
+#include "core/probabilistic/chunk_bounds.hpp"
 #include "core/probabilistic/critical_factor.hpp"
 #include "core/util/parallel_errors.hpp"
 
@@ -42,31 +43,13 @@ void series(const PressureModel& pm, const std::vector<std::size_t>& points, Eig
   }
 }
 
-// Bounds on |Δp| of one model at one point per chunk of `chunk` rows in [first_row, first_row +
-// rows) and realization (the columns of abs_basis and scale): n_chunks × columns.
-Eigen::MatrixXd chunk_bound(const PressureModel& pm, std::size_t point, Eigen::Index first_row, Eigen::Index rows,
-                            Eigen::Index chunk, const Eigen::Ref<const Eigen::MatrixXd>& abs_basis,
-                            const Eigen::Ref<const Eigen::MatrixXd>& scale) {
-  const Eigen::Index n_chunks = (rows + chunk - 1) / chunk;
-  Eigen::MatrixXd b = Eigen::MatrixXd::Zero(n_chunks, abs_basis.cols());
-  Eigen::MatrixXd chunk_max(n_chunks, abs_basis.rows());
-  for (std::size_t g = 0; g < pm.groups; ++g) {
-    const Eigen::MatrixXd& t = pm.surrogate->table(point, g);
-    for (Eigen::Index q = 0; q < n_chunks; ++q)
-      chunk_max.row(q) =
-          t.middleRows(first_row + q * chunk, std::min(chunk, rows - q * chunk)).cwiseAbs().colwise().maxCoeff();
-    b.noalias() += ((chunk_max * abs_basis).array().rowwise() * scale.row(static_cast<Eigen::Index>(g)).array().abs()).matrix();
-  }
-  return b;
-}
-
-// The two models with their |basis|, for the bounds.
+// The two models with their split bases, for the bounds (chunk_bounds.hpp).
 struct Pair {
   const PressureModel& base;
   const PressureModel& part;
-  Eigen::MatrixXd abs_base, abs_part;
+  Eigen::MatrixXd parts_base, parts_part;
   Pair(const PressureModel& b, const PressureModel& p)
-      : base(b), part(p), abs_base(b.draws.basis.cwiseAbs()), abs_part(p.draws.basis.cwiseAbs()) {}
+      : base(b), part(p), parts_base(split_basis(b.draws.basis)), parts_part(split_basis(p.draws.basis)) {}
 };
 
 // f_crit of every realization of segment s, chunk by chunk of kChunk tracking times: a chunk is
@@ -81,28 +64,46 @@ SlipFactorCurve segment_curve(const Pair& m, const Eigen::MatrixXf& dp_crit, std
                               std::uint64_t k, double floor) {
   const Eigen::Index n = dp_crit.cols();
   const auto& pts = m.base.segment_points[s];
-  Eigen::MatrixXd bound_base, bound_part;  // per chunk and realization, max over the check points
-  for (std::size_t i = 0; i < pts.size(); ++i) {
-    const Eigen::MatrixXd bb = chunk_bound(m.base, pts[i], 0, rows, kChunk, m.abs_base, m.base.draws.scale);
-    const Eigen::MatrixXd bp = chunk_bound(m.part, m.part.segment_points[s][i], 0, rows, kChunk, m.abs_part, m.part.draws.scale);
-    bound_base = i == 0 ? bb : bound_base.cwiseMax(bb);
-    bound_part = i == 0 ? bp : bound_part.cwiseMax(bp);
-  }
   const auto crit_of = [&](Eigen::Index r) { return double(dp_crit(static_cast<Eigen::Index>(s), r)); };
-  // Whether chunk q of realization r can give a factor at or below f (a bound, slightly widened
-  // against rounding in the bound's own sums).
+  // Whether Δp(t; f) = Δp_screen(t) + (f − 1)·Δp_part(t) can reach Δp_crit where the screen's Δp is
+  // at most ub and the part's between lp and up (chunk_bounds.hpp): a factor φ(t) ≤ f at some t
+  // means exactly that (critical_factor.hpp).
+  const auto can_reach = [](double ub, double up, double lp, double f, double crit) {
+    const double c = f - 1.0;
+    return ub + c * (c >= 0.0 ? up : lp) >= crit;
+  };
+  // First sieve: the bounds over every time and check point at once, at f_max.
+  Eigen::RowVectorXd span_base, span_part, span_lower;
+  span_bounds(*m.base.surrogate, pts, 0, rows, m.parts_base, m.base.draws.scale, span_base, nullptr);
+  span_bounds(*m.part.surrogate, m.part.segment_points[s], 0, rows, m.parts_part, m.part.draws.scale, span_part, &span_lower);
+  std::vector<Eigen::Index> sieved;
+  for (Eigen::Index r = 0; r < n; ++r) {
+    const double crit = crit_of(r);
+    if (crit > 0.0 && !std::isinf(crit) && can_reach(span_base(r), span_part(r), span_lower(r), f_max, crit))
+      sieved.push_back(r);
+  }
+  // Per chunk and realization: the largest upper bound of the screen's Δp and of the part's over
+  // the check points, and the smallest lower bound of the part's.
+  Eigen::MatrixXd upper_base, upper_part, lower_part, ub, up, lp;
+  for (std::size_t i = 0; i < pts.size(); ++i) {
+    chunk_bounds(*m.base.surrogate, pts[i], 0, rows, kChunk, m.parts_base, m.base.draws.scale, ub, nullptr, &sieved);
+    chunk_bounds(*m.part.surrogate, m.part.segment_points[s][i], 0, rows, kChunk, m.parts_part, m.part.draws.scale, up, &lp,
+                 &sieved);
+    upper_base = i == 0 ? ub : upper_base.cwiseMax(ub);
+    upper_part = i == 0 ? up : upper_part.cwiseMax(up);
+    lower_part = i == 0 ? lp : lower_part.cwiseMin(lp);
+  }
+  // Whether chunk q of realization r can give a factor at or below f.
   const auto reaches = [&](Eigen::Index q, Eigen::Index r, double f) {
-    return (bound_base(q, r) + std::max(1.0, f - 1.0) * bound_part(q, r)) * (1.0 + 1e-9) >= crit_of(r);
+    return can_reach(upper_base(q, r), upper_part(q, r), lower_part(q, r), f, crit_of(r));
   };
   std::vector<double> f(static_cast<std::size_t>(n), kInf), kth;
   std::vector<Eigen::Index> active, in_chunk, cols, listed;
   SeriesBuffers buf;
   Eigen::MatrixXd group, rest;
-  for (Eigen::Index r = 0; r < n; ++r) {
-    const double crit = crit_of(r);
-    if (crit > 0.0) listed.push_back(r);  // critical before injection: counted apart
-    if (crit > 0.0 && !std::isinf(crit)) active.push_back(r);
-  }
+  for (Eigen::Index r = 0; r < n; ++r)
+    if (crit_of(r) > 0.0) listed.push_back(r);  // critical before injection: counted apart
+  active = sieved;
   // The cutoff from the factors found so far (the k-th smallest over the listed realizations).
   const auto cutoff = [&] {
     double c = kInf;
@@ -182,8 +183,8 @@ VariantSearch prepare_variant(const PressureModel& base, PressureModel part, dou
   v.base = &base;
   v.part = std::move(part);
   v.factor = factor;
-  v.abs_base = base.draws.basis.cwiseAbs();
-  v.abs_part = v.part.draws.basis.cwiseAbs();
+  v.parts_base = split_basis(base.draws.basis);
+  v.parts_part = split_basis(v.part.draws.basis);
   v.from_row = v.part.surrogate->time_count();
   for (std::size_t pt = 0; pt < v.part.surrogate->point_count(); ++pt)
     for (std::size_t g = 0; g < v.part.groups; ++g) {
@@ -226,17 +227,31 @@ std::vector<std::uint64_t> variant_segment_slips(const VariantSearch& v, const E
   if (active.empty()) return slipped;
   const Eigen::Index span_rows = rows - from;
   const auto& pts = base.segment_points[s];
-  Eigen::MatrixXd bound;
+  // An upper bound of the variant's Δp = Δp_screen + (factor − 1)·Δp_part (chunk_bounds.hpp): first
+  // over every time from `from` and check point at once (a sieve), then per chunk and realization,
+  // max over the check points, for the realizations left.
+  const auto cols0 = static_cast<Eigen::Index>(c0);
+  const auto pb = v.parts_base.middleCols(cols0, n), pp = v.parts_part.middleCols(cols0, n);
+  const auto sb = base.draws.scale.middleCols(cols0, n), sp = v.part.draws.scale.middleCols(cols0, n);
+  const auto variant_bound = [&](const auto& ub, const auto& up, const auto& lp) {
+    return (ub + c_part * (c_part >= 0.0 ? up : lp)).eval();
+  };
+  {
+    Eigen::RowVectorXd ub, up, lp;
+    span_bounds(*base.surrogate, pts, from, span_rows, pb, sb, ub, nullptr);
+    span_bounds(*v.part.surrogate, v.part.segment_points[s], from, span_rows, pp, sp, up, &lp);
+    const Eigen::RowVectorXd b = variant_bound(ub, up, lp);
+    std::erase_if(active, [&](Eigen::Index c) { return b(c) < crit_of(c); });
+  }
+  if (active.empty()) return slipped;
+  Eigen::MatrixXd bound, ub, up, lp;
   for (std::size_t i = 0; i < pts.size(); ++i) {
-    const Eigen::MatrixXd b =
-        chunk_bound(base, pts[i], from, span_rows, kChunk, v.abs_base.middleCols(static_cast<Eigen::Index>(c0), n),
-                    base.draws.scale.middleCols(static_cast<Eigen::Index>(c0), n)) +
-        std::abs(c_part) * chunk_bound(v.part, v.part.segment_points[s][i], from, span_rows, kChunk,
-                                       v.abs_part.middleCols(static_cast<Eigen::Index>(c0), n),
-                                       v.part.draws.scale.middleCols(static_cast<Eigen::Index>(c0), n));
+    chunk_bounds(*base.surrogate, pts[i], from, span_rows, kChunk, pb, sb, ub, nullptr, &active);
+    chunk_bounds(*v.part.surrogate, v.part.segment_points[s][i], from, span_rows, kChunk, pp, sp, up, &lp, &active);
+    const Eigen::MatrixXd b = variant_bound(ub, up, lp);
     bound = i == 0 ? b : bound.cwiseMax(b);
   }
-  std::erase_if(active, [&](Eigen::Index c) { return bound.col(c).maxCoeff() * (1.0 + 1e-9) < crit_of(c); });
+  std::erase_if(active, [&](Eigen::Index c) { return bound.col(c).maxCoeff() < crit_of(c); });
   std::vector<Eigen::Index> in_chunk, cols;
   SeriesBuffers buf;
   Eigen::MatrixXd dp, part;
@@ -244,7 +259,7 @@ std::vector<std::uint64_t> variant_segment_slips(const VariantSearch& v, const E
     const Eigen::Index k0 = from + q * kChunk, len = std::min(kChunk, span_rows - q * kChunk);
     in_chunk.clear();
     for (Eigen::Index c : active)
-      if (bound(q, c) * (1.0 + 1e-9) >= crit_of(c)) in_chunk.push_back(c);
+      if (bound(q, c) >= crit_of(c)) in_chunk.push_back(c);
     std::vector<char> crossed(static_cast<std::size_t>(n), 0);
     for (std::size_t b0 = 0; b0 < in_chunk.size(); b0 += kBlock) {
       cols.clear();

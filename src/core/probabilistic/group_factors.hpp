@@ -15,10 +15,11 @@
 // Speed: the answers need, per segment, only its k smallest f_crit (k = steps_needed() of the
 // thresholds: the count at which the lower end of the Wilson interval passes the largest
 // threshold) and every f_crit up to the shown curve's end. A realization's series is evaluated
-// only where a rigorous bound allows a crossing at a factor up to the cutoff C (segment_curve in
-// group_factors.cpp): max_p (B_base,p + max(1, C − 1)·B_part,p) with B = Σ_g |P f_g| Σ_d |ℓ_d|
-// max_{k in chunk} |G_{p,g}(t_k, D_d)| (triangle inequality, as slip_tracker.hpp). The others get
-// f_crit = +∞, which is exact for every question asked at f ≤ C.
+// only where rigorous bounds allow a crossing at a factor up to the cutoff C (segment_curve in
+// group_factors.cpp): U_base + (C − 1)·U_part ≥ Δp_crit for C ≥ 1, U_base − (1 − C)·L_part for
+// C < 1, with U and L the upper and lower bounds of each model's Δp over the chunk, max (min)
+// over the check points (chunk_bounds.hpp; first over all times at once, as a sieve). The others
+// get f_crit = +∞, which is exact for every question asked at f ≤ C.
 //
 // Symbol table: horizon K (tracking index of T), f_max (the largest factor resolved).
 #include <cstddef>
@@ -51,7 +52,7 @@ struct VariantSearch {
   PressureModel part;
   double factor = 1.0;
   std::size_t from_row = 0;
-  Eigen::MatrixXd abs_base, abs_part;  // |basis| of each model, for the bounds
+  Eigen::MatrixXd parts_base, parts_part;  // split_basis() of each model, for the bounds
 };
 
 // InputError if the factor is not ≥ 0 or the models do not cover the same check points,
@@ -63,7 +64,8 @@ VariantSearch prepare_variant(const PressureModel& base, PressureModel part, dou
 // one's first crossing under the screen's rates, −1 if none; slip_tracker.hpp). A realization
 // that crosses before from_row crosses at the same time in the variant; the others are searched
 // from from_row on, in chunks of 24 tracking times, in order until the first crossing, and only
-// in chunks whose bound (B_base + |factor − 1|·B_part, as above) reaches Δp_crit: the same
+// in chunks whose bound (U_base + (factor − 1)·U_part, or ·L_part when factor < 1, as above)
+// reaches Δp_crit: the same
 // result as evaluating every series. Realizations are independent, so any split of the columns
 // gives the same counts in sum.
 std::vector<std::uint64_t> variant_segment_slips(const VariantSearch& v, const Eigen::MatrixXf& dp_crit, std::size_t s,

@@ -5,6 +5,7 @@
 #include <string>
 
 #include "core/errors.hpp"
+#include "core/probabilistic/chunk_bounds.hpp"
 #include "core/util/parallel_errors.hpp"
 
 namespace slipscreen::probabilistic {
@@ -18,7 +19,7 @@ struct TrackInputs {
   const PressureDraws& draws;
   const Eigen::MatrixXf& dp_crit;
   const std::vector<Eigen::Index>& out_rows;
-  const Eigen::MatrixXd& abs_basis;
+  const Eigen::MatrixXd& basis_parts;  // split_basis(draws.basis), for the bounds
   std::size_t n_times, n_groups, n_chunks;
   Eigen::Index n_nodes, n_real;
 };
@@ -26,8 +27,9 @@ struct TrackInputs {
 // One thread's buffers, reused from segment to segment (no allocation once they have grown).
 struct Workspace {
   std::vector<Eigen::MatrixXd> g_out, block;  // per (point, group): output rows; per group: basis × scale
-  Eigen::MatrixXd series, best, chunk_max, chunk_bound, b;
-  std::vector<Eigen::Index> all, active, in_chunk;
+  Eigen::MatrixXd series, best, chunk_bound, b;
+  Eigen::RowVectorXd span;
+  std::vector<Eigen::Index> all, active, in_chunk, sieved;
 };
 
 void check_track_inputs(std::size_t n_seg, Eigen::Index n_real, const Eigen::MatrixXf& dp_crit,
@@ -44,24 +46,23 @@ double critical_dp(const Eigen::MatrixXf& dp_crit, std::size_t s, Eigen::Index r
   return double(dp_crit(dp_crit.rows() == 1 ? 0 : static_cast<Eigen::Index>(s), r));
 }
 
-// Bound on |Δp| per chunk and realization (max over check points) into ws.chunk_bound:
-// Σ_g |scale_g| Σ_d |ℓ_d| max_{k in chunk} |G_{p,g}(t_k, D_d)| (triangle inequality).
-void bound_chunks(const TrackInputs& in, const std::vector<std::size_t>& pts, Workspace& ws) {
+// Upper bound on Δp per chunk and realization (max over check points) into ws.chunk_bound
+// (chunk_bounds.hpp), −∞ for the realizations that cannot cross at all: those whose bound over
+// every time and check point at once (the first sieve) stays below Δp_crit, and those critical
+// before injection.
+void bound_chunks(const TrackInputs& in, const std::vector<std::size_t>& pts, std::size_t s, Workspace& ws) {
+  const auto n_times = static_cast<Eigen::Index>(in.n_times);
+  span_bounds(in.surrogate, pts, 0, n_times, in.basis_parts, in.draws.scale, ws.span, nullptr);
+  ws.sieved.clear();
+  for (Eigen::Index r = 0; r < in.n_real; ++r) {
+    const double crit = critical_dp(in.dp_crit, s, r);
+    if (crit > 0.0 && ws.span(r) >= crit) ws.sieved.push_back(r);
+  }
   for (std::size_t i = 0; i < pts.size(); ++i) {
-    ws.b.setZero(static_cast<Eigen::Index>(in.n_chunks), in.n_real);
-    for (std::size_t g = 0; g < in.n_groups; ++g) {
-      const Eigen::MatrixXd& t = in.surrogate.table(pts[i], g);
-      ws.chunk_max.resize(static_cast<Eigen::Index>(in.n_chunks), in.n_nodes);
-      for (std::size_t q = 0; q < in.n_chunks; ++q) {
-        const auto k0 = static_cast<Eigen::Index>(q * kChunk);
-        const auto len = static_cast<Eigen::Index>(std::min(kChunk, in.n_times - q * kChunk));
-        ws.chunk_max.row(static_cast<Eigen::Index>(q)) = t.middleRows(k0, len).cwiseAbs().colwise().maxCoeff();
-      }
-      ws.b.noalias() += ((ws.chunk_max * in.abs_basis).array().rowwise() *
-                         in.draws.scale.row(static_cast<Eigen::Index>(g)).array().abs())
-                            .matrix();
-    }
-    ws.chunk_bound = i == 0 ? ws.b : ws.chunk_bound.cwiseMax(ws.b);
+    chunk_bounds(in.surrogate, pts[i], 0, n_times, static_cast<Eigen::Index>(kChunk), in.basis_parts, in.draws.scale, ws.b,
+                 nullptr, &ws.sieved);
+    if (i == 0) ws.chunk_bound = ws.b;
+    else ws.chunk_bound = ws.chunk_bound.cwiseMax(ws.b);
   }
 }
 
@@ -146,7 +147,7 @@ void search_first_crossings(const TrackInputs& in, const std::vector<std::size_t
 void track_segment(const TrackInputs& in, const std::vector<std::size_t>& pts, Workspace& ws, SegmentOutcome& res) {
   res.first_crossing.assign(static_cast<std::size_t>(in.n_real), -1);
   res.dp_at_output.setZero(static_cast<Eigen::Index>(in.out_rows.size()), in.n_real);
-  bound_chunks(in, pts, ws);
+  bound_chunks(in, pts, res.segment, ws);
   pressure_at_outputs(in, pts, ws, res);
   search_first_crossings(in, pts, ws, res);
 }
@@ -180,11 +181,11 @@ void track_slip(const hydro::PressureSurrogate& surrogate, const std::vector<std
   const std::size_t n_times = surrogate.time_count();
   check_track_inputs(n_seg, n_real, dp_crit, n_times, output_index);
   const std::vector<Eigen::Index> out_rows(output_index.begin(), output_index.end());
-  const Eigen::MatrixXd abs_basis = draws.basis.cwiseAbs();
+  const Eigen::MatrixXd basis_parts = split_basis(draws.basis);
 
   // Tracking times in chunks; a realization's series is evaluated in a chunk only where the
   // bound on that chunk reaches its threshold, in order, until the first crossing.
-  const TrackInputs in{surrogate, draws, dp_crit, out_rows, abs_basis,
+  const TrackInputs in{surrogate, draws, dp_crit, out_rows, basis_parts,
                        n_times, surrogate.group_count(), (n_times + kChunk - 1) / kChunk,
                        static_cast<Eigen::Index>(surrogate.node_count()), n_real};
   const auto n_real_u = static_cast<std::size_t>(n_real);

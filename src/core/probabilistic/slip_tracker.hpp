@@ -10,8 +10,10 @@
 // the peak after a shut-in (the run uses the first of every month plus every output time).
 // Speed: Δp at the output times is evaluated for every realization; the tracking series in
 // chunks of 24 tracking times, in order until the first crossing, and only in the chunks where
-// a rigorous bound (Σ_d |ℓ_d| max_{k in chunk} |G_d(t_k)|, triangle inequality) reaches
-// Δp_crit, so faults far from failure and times long before a crossing cost little;
+// a rigorous upper bound reaches Δp_crit (interval arithmetic on the interpolant over the
+// chunk, chunk_bounds.hpp; a bound over all times and check points at once first sieves out the
+// realizations that cannot cross at all), so faults far from failure and times long before a
+// crossing cost little;
 // realizations are evaluated together in blocks of 256 (matrix products). The result is the
 // same as evaluating every series.
 #include <Eigen/Dense>
