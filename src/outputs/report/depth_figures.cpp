@@ -88,6 +88,41 @@ DepthTop depth_top_segments(const ReportSource& s, std::size_t n) {
   return top;
 }
 
+DepthTable depth_table(const ReportSource& s, std::size_t n) {
+  DepthTable out;
+  const DepthTop top = depth_top_segments(s, n);
+  if (top.segments.empty()) return out;
+  const RunTable& t = s.table(depth_table_file(s));
+  out.probabilistic = top.probabilistic;
+  const RunTable* p = top.probabilistic ? &s.table(depth_probability_file(s)) : nullptr;
+  if (p) {
+    out.last_date = p->text(top.segments.front().probability_row, "date");
+    out.realizations = p->text(top.segments.front().probability_row, "realizations");
+  }
+  // the crossing's depth and ΔCFF (tables written before they were added lack the two columns)
+  const bool crossing_values = t.has_quantity("first_crossing_depth") && t.has_quantity("first_crossing_dcff");
+  const std::string pu = t.quantity_unit("coulomb_margin"), lu = t.quantity_unit("depth");
+  out.header = {"segment", "fault"};
+  if (p) out.header.push_back("P(slip) (interval)");
+  out.header.insert(out.header.end(), {"first crossing", "depth [" + lu + "]", "ΔCFF [" + pu + "]",
+                                       "closest margin [" + pu + "]"});
+  const auto cell = [](const std::string& v) { return v.empty() ? std::string("-") : v; };
+  for (const auto& g : top.segments) {
+    const std::size_t r = g.closest_row;
+    std::vector<std::string> row{g.segment_id, g.fault_id};
+    if (p) {
+      const std::size_t q = g.probability_row;
+      row.push_back(p->text(q, "p_slip") + " (" + p->text(q, "p_slip_ci_low") + " – " + p->text(q, "p_slip_ci_high") + ")");
+    }
+    row.push_back(cell(t.text(r, "first_crossing_date")));
+    row.push_back(crossing_values ? cell(t.text(r, "first_crossing_depth_" + t.quantity_unit("first_crossing_depth"))) : "-");
+    row.push_back(crossing_values ? cell(t.text(r, "first_crossing_dcff_" + t.quantity_unit("first_crossing_dcff"))) : "-");
+    row.push_back(t.text(r, "coulomb_margin_" + pu));
+    out.rows.push_back(std::move(row));
+  }
+  return out;
+}
+
 std::vector<Figure> depth_figures(const ReportSource& s) {
   const DepthTop top = depth_top_segments(s, s.top_segments);
   if (top.segments.empty()) return {};

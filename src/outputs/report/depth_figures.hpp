@@ -45,6 +45,19 @@ struct DepthTop {
 // naming the table and line when a table is malformed.
 DepthTop depth_top_segments(const ReportSource& s, std::size_t n);
 
+// The report's table of the top segments in depth (docs/report.md, "Faults in depth"): segment,
+// fault, with [uncertainty] P(slip by the last date) and its interval, the first crossing's date,
+// depth and ΔCFF, the closest margin; every cell the run tables' own text, the units
+// those of their columns. Empty rows when the run did not screen faults in depth.
+struct DepthTable {
+  bool probabilistic = false;
+  std::string last_date;        // of fault_depth_probability.csv ("" without it)
+  std::string realizations;     // as that table holds it
+  std::vector<std::string> header;
+  std::vector<std::vector<std::string>> rows;
+};
+DepthTable depth_table(const ReportSource& s, std::size_t n);
+
 // The two figures above that the run's tables allow.
 std::vector<Figure> depth_figures(const ReportSource& s);
 
