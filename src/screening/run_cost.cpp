@@ -217,11 +217,13 @@ void probabilistic_part(const scenario::ResolvedScenario& s, const PreparedRun& 
   if (map_hi > ln_hi) z.map_table_nodes = table_nodes(ln_lo, map_hi);
 }
 
-void depth_part(const scenario::ResolvedScenario& s, RunSizes& z) {
+void depth_part(const scenario::ResolvedScenario& s, const PreparedRun& p, RunSizes& z) {
   const scenario::RegionSpec& r = s.region;
   if (!r.formation.poroelastic_3d) return;
-  const bool range = !std::isnan(r.faults.top) && r.faults.bottom > r.faults.top;
-  z.depth_points = z.check_points * static_cast<std::size_t>(range ? r.faults.depth_levels : 1);
+  // each segment's check points at its own number of depth levels (depth_screen.hpp)
+  for (std::size_t g = 0; g < p.segments.size() && g < p.inputs.segments.size(); ++g)
+    z.depth_points += p.inputs.segments[g].check_points.size() *
+                      static_cast<std::size_t>(depth_range(r, p.segments[g]).levels);
   if (s.uncertainty.given) z.depth_realizations = s.uncertainty.realizations.value();
 }
 
@@ -342,7 +344,7 @@ RunSizes run_sizes(const scenario::ResolvedScenario& s, const PreparedRun& p) {
   deterministic_part(p, w, points, z);
   probabilistic_part(s, p, w, points, z);
   raster_part(s, p, w, z);
-  depth_part(s, z);
+  depth_part(s, p, z);
   return z;
 }
 
