@@ -245,6 +245,44 @@ void print_conditioning(std::ostream& out, const screening::ConditioningSummary&
   }
 }
 
+// The screen in depth of the 3-D poroelastic model (docs/physics.md): counts, then the segments
+// most critical in depth (at most `closest`), with P(slip) when the run had [uncertainty].
+void print_depth(std::ostream& out, const scenario::ResolvedScenario& s, const screening::DepthSummary& d,
+                 const std::string& last_date, int closest) {
+  const OutputUnits u(s.output.units);
+  constexpr Quantity P = Quantity::pressure;
+  out << "\nFaults in depth (3-D poroelastic model, Rudnicki 1986)\n  " << d.segments << " segments; " << d.crossing_count
+      << " reach dCFF >= mu dp_crit at a check point in depth by " << last_date << "; " << d.already_critical_count
+      << " already critically stressed before injection\n";
+  const bool prob = d.realizations > 0;
+  if (prob)
+    out << "  P(slip by " << last_date << ") over " << d.realizations << " realizations (fault_depth_probability.csv);"
+        << " the rest from the best-estimate screen:\n";
+  out << "  first reached: first date with dCFF >= mu dp_crit, at that check point's depth and dCFF; closest\n"
+         "  margin: the smallest mu dp_crit - dCFF at the output times (fault_depth.csv)\n";
+  out << "  " << pad("fault", 10) << pad("segment", 12);
+  if (prob) out << pad("P(slip)", 9) << pad("interval", 18);
+  out << pad("first reached", 15) << pad(with_unit("depth", u, Quantity::length), 10) << pad(with_unit("dCFF", u, P), 12)
+      << with_unit("closest margin", u, P) << "\n";
+  int shown_lines = 0;
+  for (const auto& l : d.lines) {
+    if (shown_lines++ >= closest) {
+      out << "  ... " << (d.lines.size() - static_cast<std::size_t>(closest)) << " more in fault_depth.csv\n";
+      break;
+    }
+    out << "  " << pad(l.fault_id, 10) << pad(l.segment_id, 12);
+    if (prob) {
+      char pr[32], ci[48];
+      std::snprintf(pr, sizeof pr, "%.3f", l.p_final.value_or(0.0));
+      std::snprintf(ci, sizeof ci, "[%.3f, %.3f]", l.ci_low.value_or(0.0), l.ci_high.value_or(0.0));
+      out << pad(pr, 9) << pad(ci, 18);
+    }
+    const std::string reached = l.already_critical ? "before injection" : l.first_crossing.value_or("-");
+    out << pad(reached, 15) << pad(l.first_crossing ? shown(u, l.crossing_depth, Quantity::length, 0) : "-", 10)
+        << pad(l.first_crossing ? shown(u, l.crossing_dcff, P, 4) : "-", 12) << shown(u, l.closest_margin, P, 4) << "\n";
+  }
+}
+
 }  // namespace
 
 int run_and_report(const RunCommandOptions& o, Context& ctx) {
@@ -266,6 +304,7 @@ int run_and_report(const RunCommandOptions& o, Context& ctx) {
   print_deterministic(ctx.out, s, r, o.closest);
   if (r.probabilistic) print_probabilistic(ctx.out, *r.probabilistic, s.seed, r.last_date, o.closest);
   if (r.conditioning) print_conditioning(ctx.out, *r.conditioning, r.last_date);
+  if (r.depth) print_depth(ctx.out, s, *r.depth, r.last_date, o.closest);
   if (r.capacity) {
     ctx.out << "\n";
     for (const auto& line : outputs::capacity_console(*r.capacity, outputs::OutputUnits(s.output.units))) ctx.out << line << "\n";

@@ -69,7 +69,7 @@ ReadmeFile depth_screen_readme(const scenario::ResolvedScenario& s) {
           "check point closest to failure: its position and depth, dp, the stress changes on the plane "
           "(dtau in the slip direction, dsigma_n compression positive), dcff = dtau - mu (dsigma_n - dp), the "
           "point's dp_crit and the Coulomb margin mu dp_crit - dcff (" + pressure + "), and the segment's first "
-          "crossing (dcff >= mu dp_crit at some check point)"};
+          "crossing (dcff >= mu dp_crit at some check point) with that point's depth and dcff there"};
 }
 
 void write_depth_screen_table(const formats::RunFolder& folder, const scenario::ResolvedScenario& s,
@@ -80,11 +80,16 @@ void write_depth_screen_table(const formats::RunFolder& folder, const scenario::
   formats::TextFileWriter t(folder.output("output.files.segment_times", depth_table_path(s)));
   t.row({"segment_id", "fault_id", "date", "check_point", "x_m", "y_m", u.column("depth", L), u.column("dp", P),
          u.column("dtau", P), u.column("dsigma_n", P), u.column("dcff", P), u.column("dp_crit", P),
-         u.column("coulomb_margin", P), "first_crossing_date"});
+         u.column("coulomb_margin", P), "first_crossing_date", u.column("first_crossing_depth", L),
+         u.column("first_crossing_dcff", P)});
   for (std::size_t i = 0; i < d.result.segments.size(); ++i) {
     const poro::DepthSegmentScreen& g = d.result.segments[i];
     const std::string crossing =
         g.first_crossing ? util::format_iso_date(util::date_at(*g.first_crossing)) : "";
+    // the crossing point's depth and ΔCFF at the crossing time (empty when the segment does not cross)
+    const bool crossed = g.first_crossing && g.crossing_point && g.crossing_change;
+    const std::string crossing_depth = crossed ? u.text(d.points[i][*g.crossing_point].z(), L, 1) : "";
+    const std::string crossing_dcff = crossed ? u.text(g.crossing_change->dcff, P, 6) : "";
     for (std::size_t k = 0; k < g.change.size(); ++k) {
       const std::size_t j = g.point[k];
       const poro::CoulombChange& c = g.change[k];
@@ -92,7 +97,8 @@ void write_depth_screen_table(const formats::RunFolder& folder, const scenario::
       t.row({p.segments[i].segment_id, p.segments[i].fault_id, util::format_iso_date(s.output.dates[k]),
              std::to_string(j), util::fixed_decimals(x.x(), 2), util::fixed_decimals(x.y(), 2), u.text(x.z(), L, 1),
              u.text(c.dp, P, 6), u.text(c.dtau, P, 6), u.text(c.dsigma_n, P, 6), u.text(c.dcff, P, 6),
-             u.text(g.dp_crit[j], P, 6), u.text(g.friction * g.dp_crit[j] - c.dcff, P, 6), crossing});
+             u.text(g.dp_crit[j], P, 6), u.text(g.friction * g.dp_crit[j] - c.dcff, P, 6), crossing, crossing_depth,
+             crossing_dcff});
     }
   }
   t.close();

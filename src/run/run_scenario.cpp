@@ -155,6 +155,7 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
   RunSummary summary = screening::summarize_run(s, prepared, result, prob ? &*prob : nullptr, std::move(review));
   summary.capacity = capacity;
   summary.what_if = what_if;
+  if (depth) summary.depth = screening::summarize_depth(prepared, *depth, depth_prob ? &*depth_prob : nullptr);
   summary.folder = target;
   summary.files = files_in(target);
   return summary;

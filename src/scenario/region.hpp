@@ -53,6 +53,8 @@ struct FaultMapSpec {
   std::string dip_direction_attribute = "dip_dir";  // azimuth or compass point
   std::string dips_to_attribute = "dips_to";        // "right"/"left" of the digitising direction
   std::string friction_attribute = "friction";      // optional per-fault friction
+  std::string top_attribute = "top";                // optional per-fault depth range (3-D model only),
+  std::string bottom_attribute = "bottom";          // overriding top and bottom below
   double default_dip = kUnset;  // rad, used where the dip field is absent or null
   // Without a dip direction or dips_to, a trace follows the right-hand rule (dips to the right).
   double friction = 0.6;        // 1

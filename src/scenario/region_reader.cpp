@@ -136,12 +136,14 @@ FaultMapSpec read_faults(const formats::Section& s) {
   f.layer = s.optional_string("layer").value_or("");
   f.crs = s.optional_string("crs").value_or("");
   const formats::Section a = s.child("attributes");
-  a.allow({"id", "dip", "dip_direction", "dips_to", "friction", "default_dip"});
+  a.allow({"id", "dip", "dip_direction", "dips_to", "friction", "default_dip", "top", "bottom"});
   f.id_attribute = a.optional_string("id").value_or(f.id_attribute);
   f.dip_attribute = a.optional_string("dip").value_or(f.dip_attribute);
   f.dip_direction_attribute = a.optional_string("dip_direction").value_or(f.dip_direction_attribute);
   f.dips_to_attribute = a.optional_string("dips_to").value_or(f.dips_to_attribute);
   f.friction_attribute = a.optional_string("friction").value_or(f.friction_attribute);
+  f.top_attribute = a.optional_string("top").value_or(f.top_attribute);
+  f.bottom_attribute = a.optional_string("bottom").value_or(f.bottom_attribute);
   if (a.has("default_dip")) {
     f.default_dip = checked(a, "default_dip", Dimension::angle,
                             {0.0, 1.5707963267948966 + 1e-12, true, false, "a dip in (0, 90] degrees"});

@@ -581,7 +581,7 @@ json formation_json(const FormationSpec& fm) {
   return formation;
 }
 
-json faults_json(const FaultMapSpec& f) {
+json faults_json(const FaultMapSpec& f, bool in_depth) {
   json out = {{"file", f.file.empty() ? formats::display_name(f.path) : f.file},
           {"layer", f.layer},
           {"crs", f.crs},
@@ -595,6 +595,11 @@ json faults_json(const FaultMapSpec& f) {
   if (!std::isnan(f.top)) {  // the depth range of the 3-D model (only when given)
     out["top_m"] = f.top;
     out["bottom_m"] = f.bottom;
+    out["depth_levels"] = f.depth_levels;
+  }
+  if (in_depth) {  // the per-fault depth range's fields, read by the 3-D model only
+    out["attributes"]["top"] = f.top_attribute;
+    out["attributes"]["bottom"] = f.bottom_attribute;
     out["depth_levels"] = f.depth_levels;
   }
   return out;
@@ -646,7 +651,7 @@ nlohmann::json to_json(const ResolvedScenario& s) {
           {"region", {{"name", r.name}, {"file", r.file}, {"crs", r.crs},
                       {"reference_depth_m", r.reference_depth},
                       {"pore_pressure_gradient_Pa_per_m", r.pore_pressure_gradient},
-                      {"stress", stress_json(r.stress)}, {"faults", faults_json(r.faults)},
+                      {"stress", stress_json(r.stress)}, {"faults", faults_json(r.faults, r.formation.poroelastic_3d)},
                       {"formation", formation_json(r.formation)}}},
           {"wells", wells_json(s.wells)},
           {"output", output_json(s.output, s.region.crs)},

@@ -2,12 +2,26 @@
 #include "screening/depth_screen.hpp"
 
 #include <cmath>
+#include <map>
 #include <string>
 
 #include "core/errors.hpp"
 #include "core/util/number_text.hpp"
 
 namespace slipscreen::screening {
+
+DepthRange depth_range(const scenario::RegionSpec& region, const formats::FaultSegment& seg) {
+  DepthRange r;
+  if (seg.top_m && seg.bottom_m) {
+    r.top = *seg.top_m, r.bottom = *seg.bottom_m;
+  } else if (!std::isnan(region.faults.top)) {
+    r.top = region.faults.top, r.bottom = region.faults.bottom;
+  } else {
+    r.top = r.bottom = region.reference_depth;
+  }
+  r.levels = r.bottom > r.top ? region.faults.depth_levels : 1;
+  return r;
+}
 
 std::optional<DepthScreen> depth_screen(const scenario::ResolvedScenario& s, const PreparedRun& p) {
   const scenario::RegionSpec& region = s.region;
@@ -36,19 +50,27 @@ std::optional<DepthScreen> depth_screen(const scenario::ResolvedScenario& s, con
     in.wells.push_back(std::move(src));
   }
   const double zref = region.reference_depth;
-  const bool range = !std::isnan(region.faults.top);
-  const double top = range ? region.faults.top : zref, bottom = range ? region.faults.bottom : zref;
-  const int levels = range && bottom > top ? region.faults.depth_levels : 1;
-  // the in-situ stress at each depth level, from the region's own description
-  std::vector<geomech::AndersonianStress> stress_at;
-  for (int i = 0; i < levels; ++i) {
-    scenario::RegionSpec at = region;
-    at.reference_depth = levels == 1 ? 0.5 * (top + bottom) : top + (bottom - top) * i / (levels - 1.0);
-    stress_at.push_back(stress_at_reference_depth(at));
-  }
+  // the in-situ stress at each depth level of a range, from the region's own description (one
+  // set per distinct range: the region's [faults] top..bottom, or a fault's own)
+  std::map<std::pair<double, double>, std::vector<geomech::AndersonianStress>> stress_by_range;
+  const auto stress_at = [&](double top, double bottom, int levels) -> const std::vector<geomech::AndersonianStress>& {
+    auto [it, fresh] = stress_by_range.try_emplace({top, bottom});
+    if (fresh)
+      for (int i = 0; i < levels; ++i) {
+        scenario::RegionSpec at = region;
+        at.reference_depth = levels == 1 ? 0.5 * (top + bottom) : top + (bottom - top) * i / (levels - 1.0);
+        it->second.push_back(stress_at_reference_depth(at));
+      }
+    return it->second;
+  };
   DepthScreen out;
   for (std::size_t g = 0; g < p.segments.size(); ++g) {
     const formats::FaultSegment& seg = p.segments[g];
+    // the fault's own depth range (attributes top, bottom) over the region's [faults] top..bottom
+    const DepthRange dr = depth_range(region, seg);
+    const double top = dr.top, bottom = dr.bottom;
+    const int levels = dr.levels;
+    const std::vector<geomech::AndersonianStress>& stress = stress_at(top, bottom, levels);
     const screen::ScreenSegment& ss = p.inputs.segments[g];
     // strikes in the screen are true azimuths (grid azimuth less the meridian convergence): the
     // stress's SHmax azimuth goes to the grid frame by the same convergence
@@ -68,7 +90,7 @@ std::optional<DepthScreen> depth_screen(const scenario::ResolvedScenario& s, con
     ds.friction = ss.friction;
     std::vector<Eigen::Vector3d> xyz;
     for (std::size_t i = 0; i < pts.size(); ++i) {
-      geomech::AndersonianStress st = stress_at[i % static_cast<std::size_t>(levels)];
+      geomech::AndersonianStress st = stress[i % static_cast<std::size_t>(levels)];
       st.shmax_azimuth += convergence;
       ds.points.push_back({pts[i], st});
       xyz.emplace_back(pts[i].y(), pts[i].x(), pts[i].z());

@@ -23,6 +23,15 @@ struct DepthScreen {
   std::vector<std::vector<Eigen::Vector3d>> points;
 };
 
+// A segment's depth range in the screen in depth: the fault's own (its attributes top and bottom,
+// formats/gis/fault_map.hpp), else the region's [faults] top..bottom, else the reference depth
+// alone; [faults] depth_levels levels where top < bottom, else one (in the middle).
+struct DepthRange {
+  double top = 0, bottom = 0;  // m
+  int levels = 1;
+};
+DepthRange depth_range(const scenario::RegionSpec& region, const formats::FaultSegment& seg);
+
 // Empty unless the region's formation is poroelastic_3d. InputError naming the region's key or
 // the well when an input is out of its domain.
 std::optional<DepthScreen> depth_screen(const scenario::ResolvedScenario& s, const PreparedRun& p);

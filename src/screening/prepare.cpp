@@ -168,6 +168,10 @@ void read_faults(const scenario::ResolvedScenario& s, bool allow_network, Prepar
   fo.attributes.dip_direction = r.faults.dip_direction_attribute;
   fo.attributes.dips_to = r.faults.dips_to_attribute;
   fo.attributes.friction = r.faults.friction_attribute;
+  // a fault's own depth range: read for the screen in depth only (elsewhere such fields are ignored)
+  fo.attributes.top = r.formation.poroelastic_3d ? r.faults.top_attribute : "";
+  fo.attributes.bottom = r.formation.poroelastic_3d ? r.faults.bottom_attribute : "";
+  fo.max_depth_m = scenario::plausible::kMaxDepth;
   if (!std::isnan(r.faults.default_dip)) fo.attributes.default_dip_rad = r.faults.default_dip;
   fo.layer = r.faults.layer;
   if (!r.faults.crs.empty()) fo.source_crs = r.faults.crs;
@@ -177,7 +181,8 @@ void read_faults(const scenario::ResolvedScenario& s, bool allow_network, Prepar
   fo.allow_folded = r.faults.allow_folded;
   run.segments = formats::is_fault_table(r.faults.path)
                      ? formats::read_fault_table(r.faults.path, formats::display_name(r.faults.path), run.working,
-                                                 r.faults.crs, r.faults.segment_length, r.faults.check_points)
+                                                 r.faults.crs, r.faults.segment_length, r.faults.check_points,
+                                                 scenario::plausible::kMaxDepth)
                      : formats::read_fault_segments(r.faults.path, run.working, fo);
   if (run.segments.empty())
     throw InputError("faults", formats::display_name(r.faults.path), "a fault map with at least one fault", r.file);

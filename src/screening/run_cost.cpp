@@ -217,11 +217,13 @@ void probabilistic_part(const scenario::ResolvedScenario& s, const PreparedRun& 
   if (map_hi > ln_hi) z.map_table_nodes = table_nodes(ln_lo, map_hi);
 }
 
-void depth_part(const scenario::ResolvedScenario& s, RunSizes& z) {
+void depth_part(const scenario::ResolvedScenario& s, const PreparedRun& p, RunSizes& z) {
   const scenario::RegionSpec& r = s.region;
   if (!r.formation.poroelastic_3d) return;
-  const bool range = !std::isnan(r.faults.top) && r.faults.bottom > r.faults.top;
-  z.depth_points = z.check_points * static_cast<std::size_t>(range ? r.faults.depth_levels : 1);
+  // each segment's check points at its own number of depth levels (depth_screen.hpp)
+  for (std::size_t g = 0; g < p.segments.size() && g < p.inputs.segments.size(); ++g)
+    z.depth_points += p.inputs.segments[g].check_points.size() *
+                      static_cast<std::size_t>(depth_range(r, p.segments[g]).levels);
   if (s.uncertainty.given) z.depth_realizations = s.uncertainty.realizations.value();
 }
 
@@ -253,8 +255,9 @@ CostPart deterministic_cost(const RunSizes& z, double& results) {
   const double kernel = (d(z.lags) + 1.0) * d(z.table_nodes) * 4.0;
   const double block = d(z.block_points) * (W * 9.0 + d(z.sources) * 16.0 + G * 8.0);
   const double steps_per_well = d(z.rate_steps) / W;
-  const double ops = d(z.lags) * d(z.table_nodes) + d(z.rate_steps) * G * d(z.table_nodes) +
-                     4.0 * d(z.check_points) * d(z.sources) * G + S * d(z.sources) * K * steps_per_well;
+  const double kernel_cost = z.leaky ? kLeakyKernelCost : 1.0, term_cost = z.leaky ? kLeakyTermCost : 1.0;
+  const double ops = d(z.lags) * d(z.table_nodes) * kernel_cost + d(z.rate_steps) * G * d(z.table_nodes) +
+                     4.0 * d(z.check_points) * d(z.sources) * G + S * d(z.sources) * K * steps_per_well * term_cost;
   return {"deterministic screen", results + tables + std::max(kernel, block), ops};
 }
 
@@ -286,7 +289,9 @@ CostPart probabilistic_cost(const RunSizes& z, double& results) {
   const double peak = std::max({sampling, kept + tables + kernel, tracking + ranks + per_thread,
                                 tracking + map_tables + map_model + per_thread});
   const double search = nd * groups * (K + chunks + kTrackChunk);
-  const double ops = N * (S + (M > 0 ? kOrientations : 0.0)) * kCoulombOps + d(z.lags) * d(z.mc_table_nodes) +
+  const double kernel_cost = z.leaky ? kLeakyKernelCost : 1.0;
+  const double ops = N * (S + (M > 0 ? kOrientations : 0.0)) * kCoulombOps +
+                     d(z.lags) * d(z.mc_table_nodes) * kernel_cost +
                      d(z.rate_steps) * G * d(z.mc_table_nodes) + (P + M) * d(z.sources) * nd * G +
                      (P + M) * N * search;
   return {"probabilistic screen", peak, ops};
@@ -300,7 +305,8 @@ CostPart depth_cost(const RunSizes& z) {
   // drawn medium and a byte per (realization, segment, output time)
   const double n = d(z.depth_realizations);
   const double bytes = d(z.segments) * d(z.output_times) * (48.0 + n) + d(z.depth_points) * 64.0 + n * 64.0;
-  const double ops = (1.0 + n) * d(z.depth_points) * d(z.tracked_times) * d(z.rate_steps) * d(kIntervalPoints);
+  const double ops =
+      (1.0 + n) * d(z.depth_points) * d(z.tracked_times) * d(z.rate_steps) * d(kIntervalPoints) * kDepthResponseCost;
   return {"screen in depth", bytes, ops};
 }
 
@@ -311,7 +317,10 @@ CostPart raster_cost(const RunSizes& z) {
   const double tables = std::min(kGridTableBytes, K * src * nr * 16.0);
   const double steps = src * d(z.union_steps) * 8.0;
   const double per_thread = (2.0 * src * nr + 2.0 * kStepChunk * nr + kTilePixels * K) * 8.0 * d(z.threads);
-  const double ops = C * src * K * 10.0 + K * d(z.union_steps) * nr * (2.0 * src + 1.0);
+  // a leaky formation is summed directly: one W per cell, output time, source and rate step
+  // (screening/pressure_map.cpp)
+  const double ops = z.leaky ? C * src * K * (d(z.rate_steps) / std::max(1.0, d(z.wells))) * kLeakyTermCost
+                             : C * src * K * 10.0 + K * d(z.union_steps) * nr * (2.0 * src + 1.0);
   return {"pressure raster", values + tables + steps + per_thread, ops};
 }
 
@@ -328,13 +337,14 @@ RunSizes run_sizes(const scenario::ResolvedScenario& s, const PreparedRun& p) {
   RunSizes z;
   z.threads = static_cast<std::size_t>(std::max(1, omp_get_max_threads()));
   z.output_times = s.output.times.size();
+  z.leaky = s.region.formation.leaky;
   for (const auto& w : s.wells) z.rate_periods += w.periods.size();
   const WellPart w = well_part(p, z);
   const Bounds points = segment_part(p, z);
   deterministic_part(p, w, points, z);
   probabilistic_part(s, p, w, points, z);
   raster_part(s, p, w, z);
-  depth_part(s, z);
+  depth_part(s, p, z);
   return z;
 }
 
@@ -382,6 +392,9 @@ std::string cost_line(const RunCost& cost, double limit) {
                      " rate steps, " + std::to_string(z.segments) + " segments x " +
                      util::number_text(z.segments ? d(z.check_points) / d(z.segments) : 0.0, 3) + " points";
   if (z.realizations) line += ", " + std::to_string(z.realizations) + " realizations";
+  if (z.depth_points) line += ", " + std::to_string(z.depth_points) + " points in depth";
+  if (z.depth_realizations) line += " x " + std::to_string(z.depth_realizations) + " realizations";
+  if (z.leaky) line += ", leaky formation";
   if (z.raster_cells) line += ", " + std::to_string(z.raster_cells) + " raster cells";
   line += ": ~" + operations_text(cost.operations) + " operations, peak memory ~" + bytes_text(cost.peak_bytes);
   if (limit > 0) line += " (limit " + bytes_text(limit) + ")";

@@ -17,8 +17,9 @@
 //     tracking, per thread (2K + 2⌈G'/24⌉ + 6) × N × 8 B; results S × (K + 1) sketches
 //     (about 8 kB each) and the median's well attribution S × K × W × 8 B
 //   screen in depth (core/poro/fault_screen.cpp), model = "poroelastic_3d" only
-//     results              S × K × 48 B + P_d × 64 B; operations P_d × G × (rate steps) × 6
-//                          point responses (6 Gauss–Legendre points per open interval)
+//     results              S × K × 48 B + P_d × 64 B; operations (1 + N_d) × P_d × G × (rate
+//                          steps) × 6 point responses (6 Gauss–Legendre points per open
+//                          interval; N_d realizations of its Monte Carlo), each kDepthResponseCost
 //   pressure raster (core/hydro/pressure_grid.cpp)
 //     values and the map   2 × C × K × 8 B; profile tables ≤ 512 MB; per thread 2 × sources ×
 //                          n_r × 8 B (radial profiles of every source at one time)
@@ -36,7 +37,13 @@
 // of about 1%) combined at their worst. r_max is taken from the bounding boxes of the wells and check
 // points (at most ln 2 more in ln r², under 30 extra similarity nodes). Small objects (strings,
 // per-segment headers, the catalog) are left out. Operations count multiply-adds and E1
-// evaluations alike; they rank runs and show growth, not seconds.
+// evaluations alike; they rank runs and show growth, not seconds. The other functions count as
+// the E1 evaluations they cost, measured (figures below):
+//   leaky formation (model = "leaky"): a W(u, r/B) of the tables' lag kernel (L × n_x of them,
+//     in both screens) counts kLeakyKernelCost, one of an exact sum (the deterministic screen's
+//     output-time values; the pressure raster, which a leaky run sums directly at every cell,
+//     time, source and rate step: C × K × sources × rate steps per well) kLeakyTermCost;
+//   3-D model: a point response (Δp and the stress tensor) counts kDepthResponseCost.
 #include <cstddef>
 #include <cstdint>
 #include <string>
@@ -62,6 +69,7 @@ struct RunSizes {
   std::size_t tracked_times = 0;  // G, deterministic (tracking grid and output times)
   std::size_t lags = 0;           // L, whole days from the first rate change to the last tracked time
   std::size_t table_nodes = 0;    // n_x, deterministic
+  bool leaky = false;             // [formation] model = "leaky": W(u, r/B) in place of E1
   // Probabilistic screen (realizations = 0: none)
   std::uint64_t realizations = 0;     // N
   std::size_t sampled_inputs = 0;
@@ -81,6 +89,17 @@ struct RunSizes {
   std::size_t profile_nodes = 0;      // n_r, the longest radial profile
   std::size_t threads = 1;
 };
+
+// The cost factors (E1 evaluations per evaluation), measured on the 2-core build machine on
+// 2026-12-03 while it was shared (load average 4-5); the ratios are measured in the same run:
+// - bench/leaky_kernel_bench: the lag kernel built with W(u, r/B) against the batched E1 on the
+//   same grid (989 nodes, 365 daily lags, one thread): 1900-4200x over B = 1 to 100 km in three
+//   runs;
+// - bench/poro3d_bench: one W(u, r/B) term against one scalar Theis E1 term: 747x ("leaky
+//   W(u, r/B)"); a 3-D Δp with the stress tensor against a Theis term: 3.2x.
+inline constexpr double kLeakyKernelCost = 3000.0;
+inline constexpr double kLeakyTermCost = 750.0;
+inline constexpr double kDepthResponseCost = 3.0;
 
 struct CostPart {
   std::string name;

@@ -15,6 +15,7 @@
 #include "screening/what_if.hpp"
 #include "screening/catalog_review.hpp"
 #include "screening/conditioning_summary.hpp"
+#include "screening/depth_summary.hpp"
 #include "screening/prepare.hpp"
 #include "screening/probabilistic_screen.hpp"
 
@@ -64,6 +65,7 @@ struct RunSummary {
   std::shared_ptr<const CapacityResult> capacity;     // when the scenario has [capacity]
   std::shared_ptr<const WhatIfResult> what_if;        // when the scenario has [[what_if]]
   std::optional<ConditioningSummary> conditioning;    // when the scenario has [observations]
+  std::optional<DepthSummary> depth;                  // when [formation] model = "poroelastic_3d"
 };
 
 // The summary of the screens' results (folder and files are left to the caller).

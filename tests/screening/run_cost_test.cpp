@@ -59,17 +59,69 @@ TEST_CASE("the cost formulas, by hand for one set of sizes") {
   CHECK(c.parts[4].bytes == 0.0);  // no screen in depth
   CHECK(c.peak_bytes == 600000.0 + 502716000.0);
   // The screen in depth (model = "poroelastic_3d"), 900 points with their levels and 50 rate
-  // steps: 100 × 10 × 48 + 900 × 64 = 105 600 B on top; 900 × 120 × 50 × 6 = 3.24e7 responses.
+  // steps: 100 × 10 × 48 + 900 × 64 = 105 600 B on top; 900 × 120 × 50 × 6 = 3.24e7 responses;
+  // with 10 realizations of its Monte Carlo, 11 screens.
   RunSizes zd = z;
   zd.depth_points = 900, zd.rate_steps = 50;
   const RunCost cd = run_cost(zd);
   CHECK(cd.parts[4].bytes == 105600.0);
-  CHECK(cd.parts[4].operations == 3.24e7);
+  CHECK(cd.parts[4].operations == 3.24e7 * kDepthResponseCost);  // each response costs that many E1
   CHECK(cd.peak_bytes == c.peak_bytes + 105600.0);
+  zd.depth_realizations = 10;
+  CHECK(run_cost(zd).parts[4].operations == 11.0 * 3.24e7 * kDepthResponseCost);
   // Twice the wells: tables, shares and inputs double; the kernel does not.
   RunSizes z2 = z;
   z2.wells = 2000, z2.sources = 2000;
   CHECK(run_cost(z2).peak_bytes > 1.9 * c.peak_bytes);
+}
+
+TEST_CASE("a leaky formation costs its W(u, r/B): the estimate exceeds the Theis one by the measured factors") {
+  // The tiny scenario (three wells, rate histories from 2020) and the same with the leaky
+  // formation of tests/data/scenario/physics_paths.toml (B = 14 km), each with a small
+  // [uncertainty] on the permeability (the one formation input a leaky run may vary,
+  // docs/pressure.md).
+  TinyScenario t;
+  const std::string uncertain = "\n[uncertainty]\nrealizations = 20\n\n[uncertainty.formation]\n"
+                                "permeability = \"lognormal(median=200 mD, sigma_ln=0.3)\"\n";
+  t.write("theis.toml", t.read("scenario.toml") + uncertain);
+  t.write("leaky.toml", t.read("theis.toml"));
+  t.replace("leaky.toml", "[region.override.formation]\n",
+            "[region.override.formation]\nmodel = \"leaky\"\n"
+            "leakage = { aquitard_thickness = \"20 m\", aquitard_permeability = \"0.001 mD\" }\n");
+  const auto sl = scenario::load_scenario(t.dir() / "leaky.toml"), st = scenario::load_scenario(t.dir() / "theis.toml");
+  REQUIRE(sl.region.formation.leaky);
+  REQUIRE(!st.region.formation.leaky);
+  const RunSizes zl = run_sizes(sl, prepare_run(sl, false)), zt = run_sizes(st, prepare_run(st, false));
+  CHECK(zl.leaky);
+  CHECK(!zt.leaky);
+  // the same sizes: B changes what is evaluated, not how often
+  CHECK(zl.lags == zt.lags);
+  CHECK(zl.table_nodes == zt.table_nodes);
+  CHECK(zl.mc_table_nodes == zt.mc_table_nodes);
+  CHECK(zl.raster_cells == zt.raster_cells);
+  REQUIRE(zl.realizations == 20);
+  REQUIRE(zl.raster_cells > 0);
+  const RunCost cl = run_cost(zl), ct = run_cost(zt);
+  // deterministic screen: the lag kernel's L × n_x W at kLeakyKernelCost E1 each, and the exact
+  // output-time sums, S × sources × K × steps per well, at kLeakyTermCost
+  const double kernel = static_cast<double>(zl.lags) * static_cast<double>(zl.table_nodes);
+  const double exact = static_cast<double>(zl.segments) * static_cast<double>(zl.sources) *
+                       static_cast<double>(zl.output_times) * static_cast<double>(zl.rate_steps) /
+                       static_cast<double>(zl.wells);
+  CHECK(cl.parts[1].operations - ct.parts[1].operations ==
+        doctest::Approx((kLeakyKernelCost - 1.0) * kernel + (kLeakyTermCost - 1.0) * exact).epsilon(1e-12));
+  // probabilistic screen: its own lag kernel over the sampled range of D
+  CHECK(cl.parts[2].operations - ct.parts[2].operations ==
+        doctest::Approx((kLeakyKernelCost - 1.0) * static_cast<double>(zl.lags) *
+                        static_cast<double>(zl.mc_table_nodes)).epsilon(1e-12));
+  // pressure raster: summed directly, one W per cell, time, source and rate step
+  CHECK(cl.parts[3].operations ==
+        doctest::Approx(static_cast<double>(zl.raster_cells) * exact / static_cast<double>(zl.segments) *
+                        kLeakyTermCost).epsilon(1e-12));
+  // the kernel is the bulk of a Theis screen's work here, so the leaky estimate is over a
+  // thousand times the Theis one (not vacuous: the factors are in the estimate's total)
+  CHECK(cl.operations > 1000.0 * ct.operations);
+  CHECK(cost_line(cl, 0).find("leaky formation") != std::string::npos);
 }
 
 TEST_CASE("the sizes of the tiny scenario are those the engines use") {

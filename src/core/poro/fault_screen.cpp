@@ -129,6 +129,7 @@ DepthScreenResult depth_screen(const DepthScreenInputs& in) {
       if (!out.already_critical && !out.first_crossing && margin >= 0.0) {
         out.first_crossing = t;
         out.crossing_point = best;
+        out.crossing_change = at;
       }
       if (std::binary_search(in.output_times.begin(), in.output_times.end(), t)) {
         out.point.push_back(best);

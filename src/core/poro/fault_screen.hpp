@@ -86,6 +86,7 @@ struct DepthSegmentScreen {
   bool already_critical = false;         // some point has Δp_crit ≤ 0
   std::optional<double> first_crossing;  // s: the first tracked time with ΔCFF ≥ μΔp_crit at some point
   std::optional<std::size_t> crossing_point;
+  std::optional<CoulombChange> crossing_change;  // at the crossing point and time
   double peak_dcff = 0;                  // Pa, max over tracked and output times and points
   double peak_time = 0;                  // s (0 when ΔCFF never exceeds 0)
 };

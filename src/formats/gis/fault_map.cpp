@@ -91,10 +91,11 @@ int mapped_field(OGRFeatureDefn& defn, const std::string& name, bool required, c
                    "a field of the layer (fields: " + join(names) + ")" + util::did_you_mean(name, names), where);
 }
 
-// A numeric attribute; nullopt when the field is null or unset. Text is parsed as a number,
-// or as an angle with a unit when `angle` is set.
+// A numeric attribute; nullopt when the field is null or unset (or empty text). A number is
+// taken as it is; text is parsed as a number, or with `unit` as a quantity with its unit in
+// that unit's field convention: an angle in degrees, a length in metres.
 std::optional<double> number_field(OGRFeature& f, int idx, const std::string& name, const std::string& expected,
-                                   bool angle_in_degrees, const std::string& where) {
+                                   std::optional<units::Dimension> unit, const std::string& where) {
   if (idx < 0 || !f.IsFieldSetAndNotNull(idx)) return std::nullopt;
   const OGRFieldType type = f.GetFieldDefnRef(idx)->GetType();
   if (type == OFTInteger || type == OFTInteger64 || type == OFTReal) return f.GetFieldAsDouble(idx);
@@ -103,9 +104,9 @@ std::optional<double> number_field(OGRFeature& f, int idx, const std::string& na
   double v = 0.0;
   const auto [end, ec] = std::from_chars(text.data(), text.data() + text.size(), v);
   if (ec == std::errc() && end == text.data() + text.size()) return v;
-  if (angle_in_degrees) {
+  if (unit) {
     try {
-      return units::parse(text, units::Dimension::angle, name) / kDeg;
+      return units::parse(text, *unit, name) / (*unit == units::Dimension::angle ? kDeg : 1.0);
     } catch (const InputError&) {
     }
   }
@@ -148,6 +149,8 @@ struct Reader {
     const int dd_idx = mapped_field(defn, a.dip_direction, false, "dip direction", where_layer);
     const int side_idx = mapped_field(defn, a.dips_to, false, "dips_to", where_layer);
     const int mu_idx = mapped_field(defn, a.friction, false, "friction", where_layer);
+    const int top_idx = mapped_field(defn, a.top, false, "top", where_layer);
+    const int bottom_idx = mapped_field(defn, a.bottom, false, "bottom", where_layer);
 
     std::optional<Crs> layer_crs;
     if (const OGRSpatialReference* srs = layer.GetSpatialRef()) layer_crs = Crs::from_osr(*srs);
@@ -160,7 +163,8 @@ struct Reader {
 
     layer.ResetReading();
     for (std::unique_ptr<OGRFeature> f(layer.GetNextFeature()); f; f.reset(layer.GetNextFeature()))
-      read_feature(*f, layer_name, where_layer, to_working, id_idx, dip_idx, dd_idx, side_idx, mu_idx);
+      read_feature(*f, layer_name, where_layer, to_working, id_idx, dip_idx, dd_idx, side_idx, mu_idx, top_idx,
+                   bottom_idx);
   }
 
   // One fault id, one feature: a second feature with the same id is most often a copy-paste
@@ -202,7 +206,8 @@ struct Reader {
   }
 
   void read_feature(OGRFeature& f, const std::string& layer_name, const std::string& where_layer,
-                    const Transformer& to_working, int id_idx, int dip_idx, int dd_idx, int side_idx, int mu_idx) {
+                    const Transformer& to_working, int id_idx, int dip_idx, int dd_idx, int side_idx, int mu_idx,
+                    int top_idx, int bottom_idx) {
     const FaultAttributeMap& a = opt.attributes;
     const long long fid = static_cast<long long>(f.GetFID());
     const std::string where = where_layer + " feature FID " + std::to_string(fid);
@@ -235,7 +240,7 @@ struct Reader {
     claim_id(id, layer_name, fid, where);
     const std::string where_fault = where + " (fault '" + id + "')";
     const std::string dip_expected = "a dip in degrees, 0 < dip <= 90 (e.g. 60 or '60 deg')";
-    std::optional<double> dip_deg = number_field(f, dip_idx, a.dip, dip_expected, true, where);
+    std::optional<double> dip_deg = number_field(f, dip_idx, a.dip, dip_expected, units::Dimension::angle, where);
     double dip_rad = 0.0;
     if (dip_deg) {
       if (!(*dip_deg > 0.0 && *dip_deg <= 90.0))
@@ -273,10 +278,21 @@ struct Reader {
                          "'right' or 'left' (side of the digitising direction the fault dips to)", where);
     }
     std::optional<double> friction =
-        number_field(f, mu_idx, a.friction, "a friction coefficient > 0 (e.g. 0.6)", false, where);
+        number_field(f, mu_idx, a.friction, "a friction coefficient > 0 (e.g. 0.6)", std::nullopt, where);
     if (friction && !(*friction > 0.0 && std::isfinite(*friction)))
       throw InputError(a.friction, util::printable(f.GetFieldAsString(mu_idx)), "a friction coefficient > 0 (e.g. 0.6)",
                        where);
+    const char* depth_expected = "a depth in metres or with a length unit, such as 2100 or '2.1 km'";
+    const std::optional<double> top = number_field(f, top_idx, a.top, depth_expected, units::Dimension::length, where);
+    const std::optional<double> bottom =
+        number_field(f, bottom_idx, a.bottom, depth_expected, units::Dimension::length, where);
+    try {
+      check_fault_depth_range(top, bottom, a.top, top_idx >= 0 ? util::printable(f.GetFieldAsString(top_idx)) : "",
+                              a.bottom, bottom_idx >= 0 ? util::printable(f.GetFieldAsString(bottom_idx)) : "",
+                              opt.max_depth_m);
+    } catch (const InputError& e) {
+      throw e.located(where);
+    }
 
     for (std::size_t k = 0; k < parts.size(); ++k) {
       const std::string where_part =
@@ -309,6 +325,8 @@ struct Reader {
         s.strike_rad = strike_for(piece, dip_direction, dips_left, a.dip_direction, where_fault);
         s.dip_rad = dip_rad;
         s.friction = friction;
+        s.top_m = top;
+        s.bottom_m = bottom;
         s.trace = std::move(piece);
         out.push_back(std::move(s));
       }
@@ -317,6 +335,21 @@ struct Reader {
 };
 
 }  // namespace
+
+void check_fault_depth_range(const std::optional<double>& top, const std::optional<double>& bottom,
+                             const std::string& top_field, const std::string& top_written,
+                             const std::string& bottom_field, const std::string& bottom_written, double max_depth_m) {
+  if (!top && !bottom) return;
+  if (!top) throw InputError(top_field, "(empty)", "a top with the fault's bottom (" + bottom_written + "): both or neither");
+  if (!bottom)
+    throw InputError(bottom_field, "(empty)", "a bottom with the fault's top (" + top_written + "): both or neither");
+  const std::string range = "a depth from 0 to " + util::number_text(max_depth_m / 1000.0) + " km";
+  if (!(std::isfinite(*top) && *top >= 0.0 && *top <= max_depth_m)) throw InputError(top_field, top_written, range);
+  if (!(std::isfinite(*bottom) && *bottom >= 0.0 && *bottom <= max_depth_m))
+    throw InputError(bottom_field, bottom_written, range);
+  if (!(*top < *bottom))
+    throw InputError(bottom_field, bottom_written, "a depth below the fault's top (" + top_written + ")");
+}
 
 double parse_dip_direction(const std::string& text, const std::string& field) {
   static const std::array<std::string, 16> kCompass = {"n", "nne", "ne", "ene", "e", "ese", "se", "sse",

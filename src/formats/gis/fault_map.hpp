@@ -22,6 +22,10 @@
 //   dips_to        optional  "right" / "left" (or R / L): side of the digitising direction the
 //                            fault dips to, used when there is no dip direction
 //   friction       optional  friction coefficient μ > 0 for this fault
+//   top, bottom    optional  the fault's own depth range for the screen in depth (depths below
+//                            the surface, positive down: a number in metres or text with a length
+//                            unit such as "2.1 km"); both or neither, 0 ≤ top < bottom ≤
+//                            max_depth_m (check_fault_depth_range)
 // Optional fields are used when the layer has a field of that name. Without dip direction or
 // dips_to, the file follows the right-hand rule: the fault dips to the right of the direction
 // the line was digitised in.
@@ -58,6 +62,8 @@ struct FaultAttributeMap {
   std::string dip_direction = "dip_dir";
   std::string dips_to = "dips_to";
   std::string friction = "friction";
+  std::string top = "top";
+  std::string bottom = "bottom";
   std::optional<double> default_dip_rad;  // used when the dip field is absent or null
 };
 
@@ -69,6 +75,7 @@ struct FaultFileOptions {
   int check_points = 3;
   bool allow_network = false;
   bool allow_folded = false;  // accept traces that fold back on themselves (scenario: [faults] allow_folded)
+  double max_depth_m = 15000.0;  // deepest bottom of a fault's own depth range
 };
 
 struct FaultSegment {
@@ -81,7 +88,15 @@ struct FaultSegment {
   double strike_rad = 0.0;  // right-hand-rule strike, grid azimuth clockwise from north
   double dip_rad = 0.0;
   std::optional<double> friction;
+  std::optional<double> top_m, bottom_m;  // the fault's own depth range (attributes top, bottom)
 };
+
+// Checks a fault's own depth range (m, positive down) as read from its fields: both or neither
+// given, finite, 0 ≤ top < bottom ≤ max_depth_m. InputError naming the field, the value as
+// written and what was expected (the caller adds the file and feature or line).
+void check_fault_depth_range(const std::optional<double>& top, const std::optional<double>& bottom,
+                             const std::string& top_field, const std::string& top_written,
+                             const std::string& bottom_field, const std::string& bottom_written, double max_depth_m);
 
 // Reads every line feature of the file (or of options.layer) and returns its segments, in file
 // order. Throws IoError for a missing or unreadable file, RefusedError for a network path,

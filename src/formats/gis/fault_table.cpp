@@ -37,12 +37,13 @@ double plain_number(const CsvTable& t, const CsvRow& row, std::size_t col) {
 
 std::vector<FaultSegment> read_fault_table(const std::filesystem::path& path, const std::string& file,
                                            const Crs& working, const std::string& default_crs,
-                                           double max_segment_length_m, int check_points) {
+                                           double max_segment_length_m, int check_points, double max_depth_m) {
   const CsvTable t = read_csv(path, file);
   const bool lonlat = t.column("lon").has_value();
   const std::size_t c_id = need(t, "id"), c_x = need(t, lonlat ? "lon" : "x"), c_y = need(t, lonlat ? "lat" : "y");
   const std::size_t c_strike = need(t, "strike"), c_dip = need(t, "dip"), c_len = need(t, "length");
   const auto c_mu = t.column("friction");
+  const auto c_top = t.column("top"), c_bottom = t.column("bottom");
   std::string crs = t.comment_value("crs").value_or(default_crs);
   if (crs.empty() && lonlat) crs = "EPSG:4326";
   if (crs.empty())
@@ -85,6 +86,18 @@ std::vector<FaultSegment> read_fault_table(const std::filesystem::path& path, co
       mu = plain_number(t, row, *c_mu);
       if (!(*mu > 0)) throw InputError("friction", util::trim(row.fields[*c_mu]), "a friction > 0", t.where(row, *c_mu));
     }
+    // the fault's own depth range, lengths with their units (empty cells: the region's)
+    const auto depth = [&](const std::optional<std::size_t>& c) -> std::optional<double> {
+      if (!c || util::trim(row.fields[*c]).empty()) return std::nullopt;
+      return cell_quantity(t, row, *c, units::Dimension::length);
+    };
+    const std::optional<double> top = depth(c_top), bottom = depth(c_bottom);
+    try {
+      check_fault_depth_range(top, bottom, "top", c_top ? util::trim(row.fields[*c_top]) : "", "bottom",
+                              c_bottom ? util::trim(row.fields[*c_bottom]) : "", max_depth_m);
+    } catch (const InputError& e) {
+      throw e.located(t.where(row));
+    }
     // The table's strike is a true azimuth; the map works in grid azimuths (+ convergence).
     std::vector<geometry::TraceSegment> pieces;
     double strike_grid = 0.0;
@@ -109,6 +122,8 @@ std::vector<FaultSegment> read_fault_table(const std::filesystem::path& path, co
       s.strike_rad = std::fmod(strike_grid + 2 * 3.14159265358979323846, 2 * 3.14159265358979323846);
       s.dip_rad = dip;
       s.friction = mu;
+      s.top_m = top;
+      s.bottom_m = bottom;
       s.trace = std::move(piece);
       out.push_back(std::move(s));
     }

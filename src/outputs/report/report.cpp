@@ -10,6 +10,7 @@
 #include "outputs/report/area_map.hpp"
 #include "outputs/report/catalog_figures.hpp"
 #include "outputs/report/decision_figures.hpp"
+#include "outputs/report/depth_figures.hpp"
 #include "outputs/report/report_text.hpp"
 #include "outputs/report/screen_figures.hpp"
 #include "outputs/report/stress_figures.hpp"
@@ -31,6 +32,7 @@ const std::vector<FigureBuilder>& report_figure_builders() {
       &capacity_curve_figures,
       &stress_figures,
       &catalog_figures,
+      &depth_figures,
   };
   return builders;
 }

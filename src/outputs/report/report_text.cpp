@@ -11,6 +11,7 @@
 #include "core/geomech/coulomb.hpp"
 #include "core/geomech/frictional_limit.hpp"
 #include "core/util/number_text.hpp"
+#include "outputs/report/depth_figures.hpp"
 #include "outputs/report/report_tables.hpp"
 #include "outputs/report/run_table.hpp"
 
@@ -143,9 +144,9 @@ void models_section(const ReportSource& s, std::vector<ReportBlock>& out) {
                          "solid (shear modulus " + text_of(at(fm, {"shear_modulus_Pa"})) + " Pa, ν " +
                              text_of(at(fm, {"poisson_ratio"})) + ", ν_u " + text_of(at(fm, {"undrained_poisson_ratio"})) +
                              ", α " + text_of(at(fm, {"biot"})) + "): Δp and the stress change resolved on each "
-                             "fault at check points down dip, ΔCFF = Δτ − μ(Δσn − Δp), in fault_depth.csv; the figures "
-                             "and tables here show the injected layer's Theis pressure with the solid's diffusivity "
-                             "(docs/physics.md)");
+                             "fault at check points down dip, ΔCFF = Δτ − μ(Δσn − Δp), in fault_depth.csv (the section "
+                             "Faults in depth and its figures); the other figures and tables show the injected "
+                             "layer's Theis pressure with the solid's diffusivity (docs/physics.md)");
   const json& b = at(fm, {"leakage_factor_m"});
   if (leaky_formation(s) && b.is_number()) {
     std::string v = depth(s, b.get<double>());
@@ -414,6 +415,24 @@ void what_if_section(const ReportSource& s, std::vector<ReportBlock>& out) {
   }
 }
 
+// The screen of faults in depth (3-D poroelastic model; depth_figures.hpp).
+void depth_section(const ReportSource& s, std::vector<ReportBlock>& out) {
+  const DepthTable t = depth_table(s, s.top_segments);
+  if (t.rows.empty()) return;
+  out.push_back(heading("Faults in depth"));
+  out.push_back(paragraph(
+      "The 3-D poroelastic model (Rudnicki 1986) gives Δp and the stress change at check points along strike and down "
+      "dip; a segment reaches Coulomb failure when ΔCFF = Δτ − μ(Δσn − Δp) ≥ μΔp_crit at some point (docs/physics.md). " +
+      std::string(t.probabilistic ? "P(slip by " + t.last_date + ") is the share of " + t.realizations +
+                                        " realizations of the solid, permeability and friction in which some point has "
+                                        "failed by then (fault_depth_probability.csv); the other columns are the "
+                                        "best-estimate screen's"
+                                  : "Without [uncertainty] the screen is the best estimate only") +
+      ". The segments most critical in depth (fault_depth.csv): the first crossing's date, the depth of its check point "
+      "and ΔCFF there, and the smallest margin μΔp_crit − ΔCFF at the output dates."));
+  out.push_back({.kind = Kind::table, .header = t.header, .rows = t.rows});
+}
+
 void catalog_section(const ReportSource& s, std::vector<ReportBlock>& out) {
   std::error_code ec;
   const auto path = s.folder / "catalog_summary.json";
@@ -498,6 +517,7 @@ ReportDocument report_document(const ReportSource& s, const std::string& built, 
   segments_section(s, b);
   capacity_section(s, b);
   what_if_section(s, b);
+  depth_section(s, b);
   if (!figures.empty()) {
     b.push_back(heading("Figures"));
     b.push_back({.kind = Kind::figures});

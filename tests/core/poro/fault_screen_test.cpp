@@ -159,6 +159,20 @@ TEST_CASE("fault screen: a basement fault is loaded by stress before the pressur
   CHECK(*c.first_crossing == *brute);
   CHECK(*c.first_crossing > r.tracked_times.front());  // not vacuous: later than the first time
   CHECK(*c.first_crossing < 1000 * day);
+  // the change kept at the crossing: that of the crossing point at the crossing time, recomputed
+  // here (the same sums, so to rounding), and at or beyond μΔp_crit there
+  REQUIRE(c.crossing_point.has_value());
+  REQUIRE(c.crossing_change.has_value());
+  {
+    const std::size_t p = *c.crossing_point;
+    const PointResponse pr = superposed_response(k, in.wells, seg.points[p].position, *c.first_crossing);
+    const geomech::FaultPlane plane = geomech::FaultPlane::from_strike_dip(seg.strike, seg.dip);
+    const geomech::ResolvedStress rp = geomech::resolve(geomech::stress_tensor_ned(seg.points[p].stress),
+                                                        seg.points[p].stress.pore_pressure, plane);
+    const double dcff = coulomb_change(pr.dstress, pr.dp, plane.normal(), rp.slip_direction, mu).dcff;
+    CHECK(std::fabs(c.crossing_change->dcff - dcff) <= 1e-12 * std::fabs(dcff));
+    CHECK(c.crossing_change->dcff >= mu * c.dp_crit[p]);
+  }
   CHECK(c.peak_dcff > 0.0);
   CHECK(c.peak_time == r.tracked_times.back());  // still rising at the last time
 }

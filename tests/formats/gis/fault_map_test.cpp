@@ -221,6 +221,39 @@ TEST_CASE("bad fault files get one clear message") {
     CHECK_THROWS_WITH_AS(one(R"("dip": 60, "friction": -1)"), doctest::Contains("field 'friction' = '-1'"), InputError);
     CHECK_NOTHROW(one(R"("dip": 60, "dip_dir": 130, "friction": "0.6")"));
   }
+  SUBCASE("a fault's own depth range: top and bottom, metres or with a unit, checked") {
+    auto one = [&](const std::string& props) {
+      write_text(dir / "d.geojson", R"({"type": "FeatureCollection", "features": [
+        {"type": "Feature", "properties": {"fault_id": "A", "dip": 60, )" + props + R"(},
+         "geometry": {"type": "LineString", "coordinates": [[-97.6, 35.9], [-97.5, 36.0]]}}]})");
+      return formats::read_fault_segments(dir / "d.geojson", utm);
+    };
+    const auto segs = one(R"("top": "2.1 km", "bottom": 4500)");
+    REQUIRE(!segs.empty());
+    for (const auto& g : segs) {
+      REQUIRE(g.top_m.has_value());
+      REQUIRE(g.bottom_m.has_value());
+      CHECK(*g.top_m == 2100.0);  // 2.1 km (units: 1 km = 1000 m)
+      CHECK(*g.bottom_m == 4500.0);
+    }
+    const auto plain = one(R"("friction": 0.6)");
+    CHECK_FALSE(plain.front().top_m.has_value());  // absent: the region's range applies
+    CHECK_THROWS_WITH_AS(one(R"("top": 3000, "bottom": "2 km")"),
+                         doctest::Contains("feature FID 0: field 'bottom' = '2 km': expected a depth below the fault's top"),
+                         InputError);
+    CHECK_THROWS_WITH_AS(one(R"("top": 3000)"), doctest::Contains("field 'bottom' = '(empty)'"), InputError);
+    CHECK_THROWS_WITH_AS(one(R"("top": 0, "bottom": "16 km")"),
+                         doctest::Contains("field 'bottom' = '16 km': expected a depth from 0 to 15 km"), InputError);
+    CHECK_THROWS_WITH_AS(one(R"("top": -5, "bottom": 100)"), doctest::Contains("field 'top' = '-5'"), InputError);
+    CHECK_THROWS_WITH_AS(one(R"("top": "deep", "bottom": 100)"), doctest::Contains("field 'top' = 'deep'"), InputError);
+    // an empty field name switches the attribute off
+    formats::FaultFileOptions off;
+    off.attributes.top = off.attributes.bottom = "";
+    write_text(dir / "d.geojson", R"({"type": "FeatureCollection", "features": [
+        {"type": "Feature", "properties": {"fault_id": "A", "dip": 60, "top": 3000},
+         "geometry": {"type": "LineString", "coordinates": [[-97.6, 35.9], [-97.5, 36.0]]}}]})");
+    CHECK_FALSE(formats::read_fault_segments(dir / "d.geojson", utm, off).front().top_m.has_value());
+  }
   SUBCASE("a missing id field suggests the nearest field name") {
     write_text(dir / "h.geojson", R"({"type": "FeatureCollection", "features": [
       {"type": "Feature", "properties": {"faultid": "A", "dip": 60},

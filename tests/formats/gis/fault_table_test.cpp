@@ -71,3 +71,27 @@ TEST_CASE("implausible fault tables are refused with file, line and field") {
                                          "length > 0 and at most 1000 km"),
                        InputError);
 }
+
+TEST_CASE("a fault table's own depth ranges: top and bottom with length units, both or neither, checked") {
+  const test::TempDir dir("fault-table-depth");
+  const Crs working = working_crs("EPSG:32708");
+  const auto read = [&](const std::string& rows) {
+    std::ofstream(dir / "t.csv") << "# crs: EPSG:32708\nid,x,y,strike [deg],dip [deg],length [km],top,bottom [km]\n"
+                                 << rows;
+    return read_fault_table(dir / "t.csv", "t.csv", working, "", 1000.0, 3, 15000.0);
+  };
+  const auto segs = read("F1,501000,6120000,45,80,2,2500 m,4\nF2,502000,6120000,45,80,1,,\n");
+  REQUIRE(segs.size() == 3);
+  CHECK(segs[0].top_m == 2500.0);
+  CHECK(segs[0].bottom_m == 4000.0);  // the header's km (1 km = 1000 m)
+  CHECK(segs[1].bottom_m == 4000.0);
+  CHECK_FALSE(segs[2].top_m.has_value());  // empty cells: the region's range
+  CHECK_THROWS_WITH_AS(read("F1,501000,6120000,45,80,2,5 km,4\n"),
+                       doctest::Contains("t.csv line 3: field 'bottom' = '4': expected a depth below the fault's top (5 km)"),
+                       InputError);
+  CHECK_THROWS_WITH_AS(read("F1,501000,6120000,45,80,2,5 km,\n"),
+                       doctest::Contains("t.csv line 3: field 'bottom' = '(empty)'"), InputError);
+  CHECK_THROWS_WITH_AS(read("F1,501000,6120000,45,80,2,0 m,20\n"),
+                       doctest::Contains("t.csv line 3: field 'bottom' = '20': expected a depth from 0 to 15 km"),
+                       InputError);
+}
