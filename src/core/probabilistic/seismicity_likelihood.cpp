@@ -25,15 +25,26 @@ void segment_terms(const PressureModel& pm, const SampledRealizations& r, const 
   std::vector<seismo::AssignedEvent> events;
   for (double t : times) events.push_back({t, 0});
   const double length_km = d.segment_length.at(s) / 1000.0;
-  Eigen::MatrixXd series, best, basis, scale;
-  std::vector<double> dp(settings.tracking_times.size());
+  // Only the tracking times up to the first at or after t1 matter (ΔCFF later than t1 does not
+  // enter the window), so the rest of the series is not evaluated.
+  const auto& tt = settings.tracking_times;
+  const std::size_t rows = std::min<std::size_t>(
+      tt.size(), static_cast<std::size_t>(std::lower_bound(tt.begin(), tt.end(), d.t1) - tt.begin()) + 1);
+  const auto nr = static_cast<Eigen::Index>(rows);
+  const std::span<const double> times_used(tt.data(), rows);
+  const auto& points = pm.segment_points[s];
+  Eigen::MatrixXd series, best;
+  std::vector<Eigen::MatrixXd> scaled(pm.groups);  // per rate group: basis ∘ (P · f_g)
+  std::vector<double> dp(rows);
   for (Eigen::Index c0 = 0; c0 < n; c0 += kBlock) {
     const Eigen::Index nb = std::min(kBlock, n - c0);
-    basis = pm.draws.basis.middleCols(c0, nb);
-    scale = pm.draws.scale.middleCols(c0, nb);
-    const auto& points = pm.segment_points[s];
-    for (std::size_t p = 0; p < points.size(); ++p) {
-      pm.surrogate->evaluate(points[p], basis, scale, series);
+    for (std::size_t g = 0; g < pm.groups; ++g)
+      scaled[g] = (pm.draws.basis.middleCols(c0, nb).array().rowwise() *
+                   pm.draws.scale.row(static_cast<Eigen::Index>(g)).segment(c0, nb).array())
+                      .matrix();
+    for (std::size_t p = 0; p < points.size(); ++p) {  // Σ_g G_{p,g} · (basis ∘ scale_g), as PressureSurrogate::evaluate
+      series.setZero(nr, nb);
+      for (std::size_t g = 0; g < pm.groups; ++g) series.noalias() += pm.surrogate->table(points[p], g).topRows(nr) * scaled[g];
       if (p == 0) best = series;
       else best = best.cwiseMax(series);
     }
@@ -43,7 +54,7 @@ void segment_terms(const PressureModel& pm, const SampledRealizations& r, const 
       const auto ci = static_cast<Eigen::Index>(col);
       const double a_sigma = r.inputs(static_cast<Eigen::Index>(list.a_sigma), ci);
       const double rate = r.inputs(static_cast<Eigen::Index>(list.background_rate), ci) * length_km;
-      seismo::SegmentRateModel m{segment_coulomb_history(settings.tracking_times, dp, r.coulomb_path[col * n_seg + s], d.injection_start),
+      seismo::SegmentRateModel m{segment_coulomb_history(times_used, dp, r.coulomb_path[col * n_seg + s], d.injection_start),
                                  seismo::RateStateParameters{rate, a_sigma, d.stressing_rate}};
       try {
         out(static_cast<Eigen::Index>(s), ci) = seismo::seismicity_log_likelihood({m}, 0.0, events, d.t0, d.t1).log_likelihood;
