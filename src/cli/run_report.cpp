@@ -228,7 +228,8 @@ void print_conditioning(std::ostream& out, const screening::ConditioningSummary&
                 static_cast<unsigned long long>(c.realizations));
   out << line;
   if (c.seismicity)  // docs/conditioning.md, "Seismicity"
-    out << "  Seismicity likelihood (Poisson point process, Ogata 1988; Dieterich 1994 rates per segment): "
+    out << "  Seismicity likelihood (Poisson point process, Ogata 1988, independent segments with Dieterich 1994 "
+           "rates; events at or above the catalog's Mc): "
         << screening::seismicity_sentence(*c.seismicity) << "\n";
   if (c.seismicity_beyond_domain > 0)
     out << "  Note: " << c.seismicity_beyond_domain
