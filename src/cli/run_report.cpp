@@ -221,9 +221,19 @@ void print_probabilistic(std::ostream& out, const screening::ProbabilisticSummar
 // and prior against conditioned P(slip) (docs/conditioning.md).
 void print_conditioning(std::ostream& out, const screening::ConditioningSummary& c, const std::string& last_date) {
   char line[256];
-  std::snprintf(line, sizeof line, "  Conditioned on %zu pressure observations: effective sample size %.1f of %llu\n",
-                c.observations, c.n_eff, static_cast<unsigned long long>(c.realizations));
+  const std::string on = c.seismicity && c.observations == 0
+                             ? std::string("the earthquakes")
+                             : std::to_string(c.observations) + " pressure observations" + (c.seismicity ? " and the earthquakes" : "");
+  std::snprintf(line, sizeof line, "  Conditioned on %s: effective sample size %.1f of %llu\n", on.c_str(), c.n_eff,
+                static_cast<unsigned long long>(c.realizations));
   out << line;
+  if (c.seismicity)  // docs/conditioning.md, "Seismicity"
+    out << "  Seismicity likelihood (Poisson point process, Ogata 1988, independent segments with Dieterich 1994 "
+           "rates; events at or above the catalog's Mc): "
+        << screening::seismicity_sentence(*c.seismicity) << "\n";
+  if (c.seismicity_beyond_domain > 0)
+    out << "  Note: " << c.seismicity_beyond_domain
+        << " realizations drive a segment's modelled rate beyond e^700 times its background rate and get weight 0\n";
   if (!c.warning.empty()) out << "  Warning: " << c.warning << "\n";
   if (!c.moved.empty()) {
     out << "  Inputs the observations moved most (posterior against prior; width: ratio of P5-P95 widths,\n"

@@ -9,6 +9,7 @@
 #include "core/util/number_text.hpp"
 #include "formats/files/text_file.hpp"
 #include "formats/table/csv.hpp"
+#include "formats/table/iso_time.hpp"
 #include "screening/conditioning.hpp"
 #include "screening/conditioning_summary.hpp"
 
@@ -24,7 +25,8 @@ constexpr Quantity P = Quantity::pressure;
 const char* si_unit_of(const std::string& name) {
   if (name == "permeability") return "m2";
   if (name.ends_with("_gradient")) return "Pa/m";
-  if (name == "cohesion") return "Pa";
+  if (name == "cohesion" || name == "a_sigma") return "Pa";
+  if (name == "background_rate_per_km") return "1/(s km)";
   if (name == "thickness") return "m";
   if (name == "total_compressibility") return "1/Pa";
   if (name == "viscosity") return "Pa s";
@@ -132,6 +134,27 @@ nlohmann::json conditioning_manifest(const scenario::ResolvedScenario& s, const 
     j["pressure_file"] = s.observations->pressure_file;
     j["model_error_Pa"] = s.observations->model_error;
     j["at_injector"] = s.observations->at_injector;
+  }
+  if (run.seismicity) {  // only when given (pressure-only manifests stay unchanged)
+    const auto& u = *run.seismicity;
+    j["method"] = "importance weights of the prior realizations by the likelihood of the observed pressure changes "
+                  "(Gaussian) and of the observed earthquakes (Poisson point process) (docs/conditioning.md)";
+    j["seismicity"] = {{"method", "Poisson point-process log-likelihood (Ogata 1988) of the catalog's events at or above "
+                                  "Mc, Dieterich (1994) rate per fault segment from each realization's Coulomb history, "
+                                  "independent segments, a background pool of constant rate (docs/conditioning.md)"},
+                       {"summary", screening::seismicity_sentence(u)},
+                       {"mc", u.mc},
+                       {"distance_m", u.distance},
+                       {"window_start", formats::format_iso8601_utc(u.data.t0)},
+                       {"window_end", formats::format_iso8601_utc(u.data.t1)},
+                       {"catalog_events", u.catalog_events},
+                       {"events_used", u.used},
+                       {"events_assigned", u.assigned},
+                       {"events_in_pool", u.pool},
+                       {"events_below_mc", u.below_mc},
+                       {"events_outside_window", u.outside_window},
+                       {"pool_rate_per_s", u.data.pool_rate},
+                       {"realizations_beyond_rate_domain", c.seismicity_beyond_domain}};
   }
   const std::string warning = screening::low_effective_sample_warning(c.weights.n_eff, run.result.realizations);
   if (!warning.empty()) j["warning"] = warning;

@@ -12,6 +12,7 @@
 #include "screening/what_if.hpp"
 #include "screening/catalog_review.hpp"
 #include "screening/conditioning.hpp"
+#include "screening/seismicity_likelihood.hpp"
 #include "screening/prepare.hpp"
 #include "screening/pressure_history.hpp"
 #include "screening/pressure_map.hpp"
@@ -83,6 +84,7 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
   // Refuse the folder before computing (RunFolder checks again when created and when committed).
   for (const auto& w : s.what_if) screening::what_if_wells(w, prepared);  // refuses a bad entry before computing
   screening::observation_inputs(s, prepared);  // refuses an observation at an injector before computing
+  screening::seismicity_use(s, prepared);      // refuses a catalog the seismicity likelihood cannot use
   const formats::RunFolderOptions folder_rules = folder_options(s, prepared, o);
   formats::RunFolder::check_target(target, folder_rules);
   const screening::RunCost cost = screening::estimate_run_cost(s, prepared);

@@ -35,6 +35,12 @@ struct ObservationsSpec {
   bool at_injector = false;                // observations at an injection well are allowed
   std::vector<PressureObservationSpec> pressure;
   std::string where;                       // the table's place, for messages
+  // seismicity = true: the [catalog] events at or above Mc after the first injection weigh the
+  // realizations too (docs/conditioning.md, "Seismicity"), each assigned to the nearest fault
+  // segment within seismicity_distance (others: the background pool).
+  bool seismicity = false;
+  double seismicity_distance = 2000.0;     // m
+  std::string seismicity_where;            // the seismicity key's place, for messages
 };
 
 // Reads the observations table. `default_crs` applies when the file has no "# crs:" line;

@@ -496,8 +496,20 @@ ResolvedScenario load_scenario(const fs::path& path) {
                "an [uncertainty] table too: observations weight the realizations of the probabilistic screen");
     sc.observations = read_observations_spec(obs, wells_crs.empty() ? sc.wells.front().crs : wells_crs,
                                              sc.region.pore_pressure_gradient);
-    sc.inputs.push_back(sc.observations->pressure_path);
+    if (!sc.observations->pressure_path.empty()) sc.inputs.push_back(sc.observations->pressure_path);
+    if (sc.observations->seismicity && !sc.catalog)
+      throw InputError("observations.seismicity", "true",
+                       "a [catalog] table too: the seismicity likelihood uses the catalog's events", sc.observations->seismicity_where);
+    if (sc.observations->seismicity && !sc.catalog->rate_state)
+      throw InputError("observations.seismicity", "true",
+                       "a [catalog.rate_state] table too: its background_rate_per_km, a_sigma and aftershock_duration "
+                       "set the Dieterich (1994) rate ([uncertainty.seismicity] may make the first two uncertain)",
+                       sc.observations->seismicity_where);
   }
+  if (const UncertainValue* v = seismicity_value(sc.uncertainty); v && !(sc.observations && sc.observations->seismicity))
+    throw InputError("uncertainty." + v->key, v->text,
+                     "seismicity = true under [observations] too: these inputs only enter the seismicity likelihood",
+                     v->where);
   return sc;
 }
 
@@ -662,6 +674,10 @@ nlohmann::json to_json(const ResolvedScenario& s) {
                          {"pressure_observations", s.observations->pressure.size()},
                          {"model_error_Pa", s.observations->model_error},
                          {"at_injector", s.observations->at_injector}};
+  if (s.observations && s.observations->seismicity) {  // only when asked for
+    j["observations"]["seismicity"] = true;
+    j["observations"]["seismicity_distance_m"] = s.observations->seismicity_distance;
+  }
   return j;
 }
 

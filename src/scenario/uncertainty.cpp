@@ -17,6 +17,12 @@ const UncertainValue* UncertaintySpec::find(std::string_view key) const {
   return nullptr;
 }
 
+const UncertainValue* seismicity_value(const UncertaintySpec& spec) {
+  for (const auto& v : spec.values)
+    if (v.key.starts_with("seismicity.")) return &v;
+  return nullptr;
+}
+
 void check_fault_ids(const UncertaintySpec& spec, const std::vector<std::string>& fault_ids) {
   for (const auto& id : spec.fault_ids) {
     if (std::find(fault_ids.begin(), fault_ids.end(), id) != fault_ids.end()) continue;

@@ -17,6 +17,7 @@
 //                             (every fault; perturbations are added to the mapped orientation)
 //   [uncertainty.fault."F-12"]  friction of one fault (replaces [uncertainty.faults] friction)
 //   [uncertainty.well."MW-01"]  rate_factor of one well (multiplies the global rate_factor)
+//   [uncertainty.seismicity]  a_sigma, background_rate_per_km (with [observations] seismicity = true)
 //   [uncertainty.maps]        cell_size = "2 km"; strike = "30 deg", dip = "70 deg" (optional)
 //   With [formation] model = "poroelastic_3d" only [uncertainty.formation] permeability,
 //   shear_modulus, poisson_ratio, undrained_poisson_ratio, biot and [uncertainty.faults] friction.
@@ -77,6 +78,9 @@ struct UncertaintySpec {
   // The value for `key`, or null.
   const UncertainValue* find(std::string_view key) const;
 };
+
+// The first [uncertainty.seismicity] value (key "seismicity. ..."), or null.
+const UncertainValue* seismicity_value(const UncertaintySpec& spec);
 
 // Refuses [uncertainty.fault."id"] tables whose id is not among the fault map's ids (the fault
 // map is read after the scenario).

@@ -86,6 +86,12 @@ const std::vector<KeySpec> kFaultKeys = {
     {"strike_perturbation", Dimension::angle, kAny, &Model::strike_perturbation},
     {"dip_perturbation", Dimension::angle, kAny, &Model::dip_perturbation},
 };
+// [uncertainty.seismicity]: the Dieterich (1994) inputs of the seismicity likelihood
+// ([observations] seismicity = true; docs/conditioning.md).
+const std::vector<KeySpec> kSeismicityKeys = {
+    {"a_sigma", Dimension::pressure, kPositive, &Model::a_sigma},
+    {"background_rate_per_km", Dimension::inverse_time, kPositive, &Model::background_rate_per_km},
+};
 // [formation] model = "poroelastic_3d": the solid's constants and the permeability (the ranges of
 // [formation] in region_reader.cpp; ν < ν_u is checked per realization before any screen:
 // screening/depth_probability.hpp).
@@ -370,13 +376,16 @@ UncertaintySpec read_uncertainty(const toml::table* table, const UncertaintyCont
     return spec;
   }
   top.allow(key_names(kTopKeys, {"realizations", "sampler", "confidence", "thresholds", "stress", "formation", "faults",
-                                 "fault", "well", "maps"}));
+                                 "fault", "well", "maps", "seismicity"}));
   read_settings(top, ctx, spec);
   read_keys(top, kTopKeys, "", spec);
   read_stress(top.child("stress"), ctx, spec);
   read_formation(top.child("formation"), ctx, spec);
   read_faults(top, spec);
   read_wells(top, ctx, spec);
+  const formats::Section seismicity = top.child("seismicity");
+  seismicity.allow(key_names(kSeismicityKeys));
+  read_keys(seismicity, kSeismicityKeys, "seismicity.", spec);
   std::sort(spec.values.begin(), spec.values.end(), [](const UncertainValue& a, const UncertainValue& b) { return a.key < b.key; });
   read_maps(top.child("maps"), spec);
   return spec;

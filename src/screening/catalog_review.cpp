@@ -139,16 +139,8 @@ void review_events(CatalogReview& v, const scenario::ResolvedScenario& s, const 
   const hydro::PressureField field(std::move(sources), p.inputs.boundaries);
 
   footprint_fractions(v, s, p);
-  double first_injection = s.output.times.back();
-  for (const auto& w : p.wells)
-    if (!w.periods.empty()) first_injection = std::min(first_injection, w.periods.front().start);
-
-  std::vector<seismo::FaultTrace> traces;
-  for (const auto& seg : p.segments) {
-    seismo::FaultTrace t;
-    for (const auto& q : seg.trace.vertices) t.push_back({q.x, q.y});
-    traces.push_back(std::move(t));
-  }
+  const double first_injection = first_injection_time(s, p);
+  const std::vector<seismo::FaultTrace> traces = segment_traces(p);
   const std::vector<seismo::NearestFault> nearest =
       traces.empty() || v.catalog.events.empty() ? std::vector<seismo::NearestFault>(v.catalog.events.size())
                                                  : seismo::nearest_faults(v.catalog, traces);
@@ -307,18 +299,9 @@ void state_assumptions(CatalogReview& v, const PreparedRun& p) {
                 ", background rate per km of trace, Aσ and t_a as given.");
 }
 
-CatalogReview review_catalog(const scenario::ResolvedScenario& s, const PreparedRun& p, const screen::ScreenResult& r,
-                             const ProbabilisticRun* prob) {
-  CatalogReview v;
-  v.spec = *s.catalog;
-  for (const auto& seg : p.segments) {
-    v.segment_ids.push_back(seg.segment_id);
-    v.segment_faults.push_back(seg.fault_id);
-  }
-  const scenario::CatalogSpec& c = v.spec;
-  v.read = *p.catalog;  // read by prepare_run, before any computing
-  const seismo::Catalog working = to_working_crs(v.read, p);
-
+seismo::FilterResult filtered_catalog(const scenario::ResolvedScenario& s, const PreparedRun& p) {
+  const scenario::CatalogSpec& c = *s.catalog;
+  const seismo::Catalog working = to_working_crs(*p.catalog, p);
   seismo::CatalogFilter f;
   f.start = c.from;
   f.end = c.to;
@@ -331,7 +314,37 @@ CatalogReview review_catalog(const scenario::ResolvedScenario& s, const Prepared
     for (const auto& w : p.wells) f.buffer_points.push_back({w.x, w.y});
     f.buffer_radius = *c.well_buffer;
   }
-  seismo::FilterResult kept = seismo::apply_filter(working, f);
+  return seismo::apply_filter(working, f);
+}
+
+std::vector<seismo::FaultTrace> segment_traces(const PreparedRun& p) {
+  std::vector<seismo::FaultTrace> traces;
+  for (const auto& seg : p.segments) {
+    seismo::FaultTrace t;
+    for (const auto& q : seg.trace.vertices) t.push_back({q.x, q.y});
+    traces.push_back(std::move(t));
+  }
+  return traces;
+}
+
+double first_injection_time(const scenario::ResolvedScenario& s, const PreparedRun& p) {
+  double first = s.output.times.back();
+  for (const auto& w : p.wells)
+    if (!w.periods.empty()) first = std::min(first, w.periods.front().start);
+  return first;
+}
+
+CatalogReview review_catalog(const scenario::ResolvedScenario& s, const PreparedRun& p, const screen::ScreenResult& r,
+                             const ProbabilisticRun* prob) {
+  CatalogReview v;
+  v.spec = *s.catalog;
+  for (const auto& seg : p.segments) {
+    v.segment_ids.push_back(seg.segment_id);
+    v.segment_faults.push_back(seg.fault_id);
+  }
+  const scenario::CatalogSpec& c = v.spec;
+  v.read = *p.catalog;  // read by prepare_run, before any computing
+  seismo::FilterResult kept = filtered_catalog(s, p);
   v.counts = kept.counts;
   v.catalog = std::move(kept.catalog);
 

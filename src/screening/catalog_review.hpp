@@ -30,6 +30,7 @@
 #include "core/seismo/catalog_filter.hpp"
 #include "core/seismo/catalog_summary.hpp"
 #include "core/seismo/event_footprint.hpp"
+#include "core/seismo/nearest_fault.hpp"
 #include "core/seismo/rate_state.hpp"
 #include "formats/catalog/catalog_file.hpp"
 #include "screening/rt_view.hpp"
@@ -98,6 +99,13 @@ struct CatalogReview {
   std::vector<std::string> assumptions;
   bool poroelastic_path = false;  // the rates' ΔCFF follows the poroelastic stress path
 };
+
+// The [catalog] events (read by prepare_run) in the working CRS, after the [catalog] filters.
+seismo::FilterResult filtered_catalog(const scenario::ResolvedScenario& s, const PreparedRun& p);
+// The prepared run's segment traces, for seismo::nearest_faults.
+std::vector<seismo::FaultTrace> segment_traces(const PreparedRun& p);
+// The start of the first injection period of any well (the last output time if none injects).
+double first_injection_time(const scenario::ResolvedScenario& s, const PreparedRun& p);
 
 // Reads, reprojects, filters and reviews the scenario's catalog against the screen's results
 // (`probabilistic` may be null). Throws InputError / IoError naming the catalog file.

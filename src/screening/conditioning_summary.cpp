@@ -6,6 +6,8 @@
 
 #include "core/stats/wilson_interval.hpp"
 #include "screening/conditioning.hpp"
+#include "core/util/civil_date.hpp"
+#include "core/util/number_text.hpp"
 
 namespace slipscreen::screening {
 
@@ -24,6 +26,15 @@ std::vector<InputShift> input_shifts(const probabilistic::Conditioning& c, const
   return out;
 }
 
+std::string seismicity_sentence(const SeismicityUse& u) {
+  const auto date = [](double t) { return util::format_iso_date(util::date_at(t)); };
+  return std::to_string(u.used) + " earthquakes at or above Mc " + util::number_text(u.mc, 3) + " from " +
+         date(u.data.t0) + " to " + date(u.data.t1) + ": " + std::to_string(u.assigned) +
+         " assigned to the nearest fault segment within " + util::number_text(u.distance / 1000.0, 4) + " km, " +
+         std::to_string(u.pool) + " in the background pool; left out: " + std::to_string(u.below_mc) + " below Mc, " +
+         std::to_string(u.outside_window) + " outside that period";
+}
+
 ConditioningSummary conditioning_summary(const ProbabilisticRun& run, const PreparedRun& p) {
   ConditioningSummary c;
   const auto& cond = *run.result.conditioning;
@@ -31,6 +42,8 @@ ConditioningSummary conditioning_summary(const ProbabilisticRun& run, const Prep
   c.realizations = run.result.realizations;
   c.n_eff = cond.weights.n_eff;
   c.warning = low_effective_sample_warning(c.n_eff, c.realizations);
+  c.seismicity = run.seismicity;
+  c.seismicity_beyond_domain = cond.seismicity_beyond_domain;
   c.moved = input_shifts(cond, run.result.input_names);
   if (c.moved.size() > kConsoleInputs) c.moved.resize(kConsoleInputs);
   const double z = stats::z_for_confidence(run.confidence);

@@ -2,12 +2,14 @@
 // What a conditioned run reports about its weights (docs/conditioning.md): the inputs the
 // observations moved most and the console's summary.
 #include <cstdint>
+#include <optional>
 #include <string>
 #include <vector>
 
 #include "core/probabilistic/conditioning.hpp"
 #include "screening/prepare.hpp"
 #include "screening/probabilistic_screen.hpp"
+#include "screening/seismicity_likelihood.hpp"
 
 namespace slipscreen::screening {
 
@@ -34,7 +36,11 @@ struct ConditioningSummary {
   std::string warning;                      // low_effective_sample_warning, or empty
   std::vector<InputShift> moved;            // at most kConsoleInputs, those moved most first
   std::vector<ConditionedSegment> segments; // at most kConsoleSegments, highest of the two P first
+  std::optional<SeismicityUse> seismicity;  // [observations] seismicity = true: the events used
+  std::uint64_t seismicity_beyond_domain = 0;  // realizations whose Dieterich rate left its domain (weight 0)
 };
+// The console's and the manifest's sentence on the earthquakes used: counts, Mc, period, distance.
+std::string seismicity_sentence(const SeismicityUse& u);
 inline constexpr std::size_t kConsoleInputs = 3, kConsoleSegments = 5;
 ConditioningSummary conditioning_summary(const ProbabilisticRun& run, const PreparedRun& p);
 

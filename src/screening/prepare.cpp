@@ -250,7 +250,8 @@ void add_manifest_inputs_and_catalog(const scenario::ResolvedScenario& s, Prepar
   if (!s.histories_file.empty()) run.manifest_inputs.push_back({"histories", s.histories_path, s.histories_file});
   run.manifest_inputs.push_back({"fault map", r.faults.path, formats::display_name(r.faults.path)});
   if (s.observations)
-    run.manifest_inputs.push_back({"pressure observations", s.observations->pressure_path, s.observations->pressure_file});
+    if (!s.observations->pressure_path.empty())  // seismicity only: no pressure file
+      run.manifest_inputs.push_back({"pressure observations", s.observations->pressure_path, s.observations->pressure_file});
   if (!s.catalog) return;
   const scenario::CatalogSpec& c = *s.catalog;
   run.manifest_inputs.push_back({"catalog", c.path, c.file});

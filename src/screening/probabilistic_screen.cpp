@@ -9,6 +9,7 @@
 #include "core/util/civil_date.hpp"
 #include "screening/capacity_split.hpp"
 #include "screening/conditioning.hpp"
+#include "screening/seismicity_likelihood.hpp"
 #include "screening/what_if_split.hpp"
 
 namespace slipscreen::screening {
@@ -84,6 +85,11 @@ probabilistic::UncertainModel uncertain_model(const scenario::ResolvedScenario& 
   }
   m.fault_ids = fault_ids;
   m.well_rate_factor.assign(p.inputs.wells.size(), std::nullopt);
+  if (s.observations && s.observations->seismicity) {  // [catalog.rate_state]'s values unless [uncertainty.seismicity]
+    m.seismicity = true;
+    m.a_sigma = fixed(s.catalog->a_sigma, "a_sigma");
+    m.background_rate_per_km = fixed(s.catalog->background_rate_per_m * 1000.0, "background_rate_per_km");
+  }
 
   // The scenario's distributions replace the best estimates they name (the inputs each key
   // names are set by the key table of scenario/uncertainty_reader.cpp).
@@ -176,6 +182,8 @@ ProbabilisticRun run_probabilistic_screen(const scenario::ResolvedScenario& s, c
   }
   for (const auto& w : s.what_if) set.what_if.push_back(what_if_split(w, p, wells));
   set.observations = observation_inputs(s, p);  // [observations]: weights (docs/conditioning.md)
+  run.seismicity = seismicity_use(s, p);
+  if (run.seismicity) set.seismicity = run.seismicity->data;
   run.result = probabilistic::run_probabilistic(model, wells, segments, set, split);
   run.wells = std::move(wells);
   run.segments = std::move(segments);

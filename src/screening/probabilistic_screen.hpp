@@ -10,6 +10,7 @@
 #include "core/geometry/raster_grid.hpp"
 #include "core/probabilistic/slip_probability.hpp"
 #include "screening/prepare.hpp"
+#include "screening/seismicity_likelihood.hpp"
 #include "scenario/scenario.hpp"
 #include "scenario/uncertainty.hpp"
 
@@ -26,6 +27,7 @@ struct ProbabilisticRun {
   std::optional<double> map_strike, map_dip;  // rad
   double mc_half_width_max = 0.0;           // largest half-width of the Wilson intervals
   scenario::UncertaintySpec spec;           // the [uncertainty] table as run
+  std::optional<SeismicityUse> seismicity;  // [observations] seismicity = true: the events used
   // The engine's inputs as run (for audits against the plain method).
   std::vector<probabilistic::WellInput> wells;
   std::vector<probabilistic::SegmentInput> segments;

@@ -6,7 +6,8 @@
 # and compares every file of each run folder byte for byte (diff -r; the manifest apart from the
 # build's git commit) with the run of
 # REFERENCE_SLIPSCREEN (the build without MPI; default: MPI_SLIPSCREEN started without mpirun).
-# Then checks that an input error ends every rank with the same exit code and leaves no folder.
+# Then the same with the seismicity likelihood on a tiny fixture (2 ranks), and checks that an input
+# error ends every rank with the same exit code and leaves no folder.
 set -euo pipefail
 mpi_bin="$(realpath "$1")"
 ref_bin="$(realpath "${2:-$1}")"
@@ -42,6 +43,23 @@ for n in 1 2 3; do
     { echo "mpi_equality: $n ranks' summary differs"; exit 1; }
   echo "mpi_equality: $n ranks: $(find "$work/n$n" -type f | wc -l) files identical"
 done
+
+# The seismicity likelihood ([observations] seismicity = true; docs/conditioning.md): every rank
+# computes every realization's weight, so 2 ranks write the single-process run byte for byte too
+# (the tiny fixture tests/data/seismic/seismic.toml with 700 realizations: three blocks of 256).
+mkdir -p "$work/seismic" && cp -r "$root/tests/data/scenario" "$root/tests/data/seismic" "$work/seismic/"
+sed -i 's/^realizations = 100$/realizations = 700/' "$work/seismic/seismic/seismic.toml"
+grep -q '^realizations = 700$' "$work/seismic/seismic/seismic.toml" ||
+  { echo "mpi_equality: could not enlarge the seismicity fixture"; exit 1; }
+"$ref_bin" run "$work/seismic/seismic/seismic.toml" --out "$work/out" --reproducible > "$work/seis-ref.txt"
+mv "$work/out" "$work/seis-ref"
+mpirun_ 2 "$mpi_bin" run "$work/seismic/seismic/seismic.toml" --out "$work/out" --reproducible > "$work/seis-n2.txt"
+diff -r --exclude=manifest.json "$work/seis-ref" "$work/out" &&
+  diff <(grep -v '"git_commit"' "$work/seis-ref/manifest.json") <(grep -v '"git_commit"' "$work/out/manifest.json") &&
+  diff "$work/seis-ref.txt" "$work/seis-n2.txt" ||
+  { echo "mpi_equality: 2 ranks differ from the reference run with the seismicity likelihood"; exit 1; }
+rm -rf "$work/out"
+echo "mpi_equality: seismicity likelihood, 2 ranks: identical"
 
 # An input error (a friction outside its range) on every rank: one message, the same exit code
 # (3, docs/exit-codes.md) from mpirun, no run folder and no staging folder.

@@ -118,7 +118,8 @@ Percentiles percentiles(std::span<const double> x) {
 }
 
 Conditioning condition_on_pressures(const PressureModel& pm, const std::vector<WellInput>& wells,
-                                    const RunSettings& settings, const InputList& list, const Eigen::MatrixXd& inputs) {
+                                    const RunSettings& settings, const InputList& list, const Eigen::MatrixXd& inputs,
+                                    std::span<const double> seismicity) {
   Conditioning c;
   for (const auto& in : list.inputs) c.input_uncertain.push_back(!in.distribution.is_fixed());
   const auto& obs = settings.observations;
@@ -134,6 +135,13 @@ Conditioning condition_on_pressures(const PressureModel& pm, const std::vector<W
     for (std::size_t o = 0; o < obs.size(); ++o)
       modelled[o] = c.modelled(static_cast<Eigen::Index>(o), static_cast<Eigen::Index>(i));
     ll[i] = gaussian_log_likelihood(observed, modelled, sigma);
+  }
+  c.pressure_log_likelihood = ll;
+  if (!seismicity.empty()) {
+    if (seismicity.size() != n)
+      throw InputError("seismicity log-likelihoods", std::to_string(seismicity.size()), "one per valid realization");
+    c.seismicity_log_likelihood.assign(seismicity.begin(), seismicity.end());
+    for (std::size_t i = 0; i < n; ++i) ll[i] += seismicity[i];
   }
   c.weights = importance_weights(ll);
   std::vector<double> row(n);

@@ -75,6 +75,10 @@ Percentiles percentiles(std::span<const double> x);
 // What conditioning adds to a run (ProbabilisticResult::conditioning).
 struct Conditioning {
   ImportanceWeights weights;
+  // ℓ_i = pressure part + seismicity part (either may be absent: then 0), per valid realization.
+  std::vector<double> pressure_log_likelihood;
+  std::vector<double> seismicity_log_likelihood;  // empty without RunSettings::seismicity
+  std::uint64_t seismicity_beyond_domain = 0;     // realizations whose rate left the model's domain
   Eigen::MatrixXd modelled;                    // observations × valid realizations: Δp [Pa]
   std::vector<Percentiles> fit_prior, fit_posterior;      // per observation: modelled Δp
   std::vector<Percentiles> input_prior, input_posterior;  // per sampled input (sampler order)
@@ -83,8 +87,11 @@ struct Conditioning {
 
 // Weights, observation fit and the prior and posterior percentiles of every sampled input.
 // `inputs`: sampled inputs × valid realizations (SampledRealizations::inputs) in `list`'s order.
+// `seismicity`: the seismicity log-likelihood of every valid realization (seismicity_likelihood.hpp),
+// added to the pressures' (empty: pressures only; no pressure observations: seismicity only).
 Conditioning condition_on_pressures(const PressureModel& pm, const std::vector<WellInput>& wells,
-                                    const RunSettings& settings, const InputList& list, const Eigen::MatrixXd& inputs);
+                                    const RunSettings& settings, const InputList& list, const Eigen::MatrixXd& inputs,
+                                    std::span<const double> seismicity = {});
 
 // A weighted proportion Σ_{slipped} w / Σ w from fixed-point sums, with the Wilson (1927) score
 // interval taking n = n_eff trials (an approximation: exact only for equal weights, where it is

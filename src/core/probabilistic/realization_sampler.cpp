@@ -44,6 +44,7 @@ struct SamplingJob {
   Eigen::MatrixXf perturbation;  // (2 · faults) × all
   Eigen::MatrixXf dp_crit;       // segments × all
   Eigen::MatrixXf map_dp_crit;   // 2 × all
+  std::vector<geomech::CoulombPathChange> coulomb_path;  // [i · segments + s] (seismicity only)
 };
 
 // Per-thread scratch space.
@@ -133,7 +134,8 @@ bool beyond_frictional_limit(const geomech::AndersonianStress& st, double mu) {
   return (s1 - st.pore_pressure) > lim * (s3 - st.pore_pressure);
 }
 
-// Δp_crit of every segment (perturbed orientation, its fault's friction) into column `col`.
+// Δp_crit of every segment (perturbed orientation, its fault's friction) into column `col`; with
+// the seismicity likelihood also ΔCFF(Δp) along the same plane and stress path.
 void segment_thresholds(SamplingJob& job, Eigen::Index col, const Eigen::Matrix3d& tensor, double pore_pressure,
                         double mu_global, double kappa, Scratch& s) {
   const std::vector<double>& v = s.v;
@@ -141,17 +143,23 @@ void segment_thresholds(SamplingJob& job, Eigen::Index col, const Eigen::Matrix3
   s.states = {};
   s.planes.reserve(job.segments.size());
   s.states.reserve(job.segments.size());
-  for (const auto& seg : job.segments) {
+  const std::size_t n_seg = job.segments.size();
+  for (std::size_t k = 0; k < n_seg; ++k) {
+    const auto& seg = job.segments[k];
     const double ds = job.perturbation(static_cast<Eigen::Index>(2 * seg.fault), col);
     const double dd = job.perturbation(static_cast<Eigen::Index>(2 * seg.fault + 1), col);
     const double dip = std::clamp(seg.dip + dd, 0.0, std::numbers::pi / 2);
-    s.planes.push_back(geomech::FaultPlane::from_strike_dip(geomech::wrap_azimuth(seg.strike + ds), dip));
+    const auto plane = geomech::FaultPlane::from_strike_dip(geomech::wrap_azimuth(seg.strike + ds), dip);
+    s.planes.push_back(plane);
     const std::size_t fj = job.list.fault_friction[seg.fault];
-    const double mu_f = fj == InputList::npos ? mu_global : v[fj];
-    s.states.push_back(tensor, pore_pressure, geomech::Friction{std::max(mu_f, 1e-6), v[job.list.cohesion]}, kappa);
+    const double mu_f = std::max(fj == InputList::npos ? mu_global : v[fj], 1e-6);
+    s.states.push_back(tensor, pore_pressure, geomech::Friction{mu_f, v[job.list.cohesion]}, kappa);
+    if (!job.coulomb_path.empty())
+      job.coulomb_path[static_cast<std::size_t>(col) * n_seg + k] =
+          geomech::coulomb_path_change(tensor, plane.normal(), mu_f, kappa);
   }
   geomech::critical_pressure_paired(s.planes, s.states, s.dp);
-  for (std::size_t k = 0; k < job.segments.size(); ++k)
+  for (std::size_t k = 0; k < n_seg; ++k)
     job.dp_crit(static_cast<Eigen::Index>(k), col) = static_cast<float>(s.dp[k]);
 }
 
@@ -216,7 +224,8 @@ SamplingJob make_job(const UncertainModel& model, const InputList& list, const s
                      Eigen::MatrixXd(static_cast<Eigen::Index>(list.inputs.size()), cols),
                      Eigen::MatrixXf(static_cast<Eigen::Index>(2 * fault_count), cols),
                      Eigen::MatrixXf(static_cast<Eigen::Index>(segments.size()), cols),
-                     Eigen::MatrixXf::Constant(2, cols, std::numeric_limits<float>::infinity())};
+                     Eigen::MatrixXf::Constant(2, cols, std::numeric_limits<float>::infinity()),
+                     std::vector<geomech::CoulombPathChange>(settings.seismicity ? n_all * segments.size() : 0)};
 }
 
 }  // namespace
@@ -274,6 +283,12 @@ SampledRealizations sample_realizations(const UncertainModel& model, const Input
   out.perturbation = job.perturbation(Eigen::all, out.keep);
   out.dp_crit = job.dp_crit(Eigen::all, out.keep);
   out.map_dp_crit = job.map_dp_crit(Eigen::all, out.keep);
+  if (!job.coulomb_path.empty()) {
+    const std::size_t n_seg = segments.size();
+    out.coulomb_path.reserve(out.keep.size() * n_seg);
+    for (const Eigen::Index i : out.keep)
+      for (std::size_t k = 0; k < n_seg; ++k) out.coulomb_path.push_back(job.coulomb_path[static_cast<std::size_t>(i) * n_seg + k]);
+  }
   return out;
 }
 

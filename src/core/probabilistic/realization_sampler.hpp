@@ -32,6 +32,7 @@
 #include <cstdint>
 #include <vector>
 
+#include "core/geomech/coulomb.hpp"
 #include "core/probabilistic/screen_inputs.hpp"
 #include "core/stats/sampler.hpp"
 
@@ -50,6 +51,10 @@ struct SampledRealizations {
   // 2 × valid: row 0 the most dangerous orientation (minimum Δp_crit over a 5° grid of strikes
   // and dips, global friction), row 1 the given map orientation; +inf where not asked for.
   Eigen::MatrixXf map_dp_crit;
+  // With RunSettings::seismicity: ΔCFF(Δp) of every segment along its stress path (its perturbed
+  // plane, its fault's friction, the realization's κ; geomech::coulomb_path_change), at
+  // [c · segments + s] for valid realization c; empty otherwise.
+  std::vector<geomech::CoulombPathChange> coulomb_path;
   stats::SamplerDescriptor sampler;
 };
 

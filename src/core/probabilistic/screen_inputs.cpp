@@ -41,6 +41,10 @@ InputList make_inputs(const UncertainModel& m, const std::vector<WellInput>& wel
   l.well_rate.assign(wells.size(), InputList::npos);
   for (std::size_t w = 0; w < wells.size() && w < m.well_rate_factor.size(); ++w)
     if (m.well_rate_factor[w]) l.well_rate[w] = l.add("rate_factor[" + wells[w].id + "]", *m.well_rate_factor[w]);
+  if (m.seismicity) {
+    l.a_sigma = l.add("a_sigma", m.a_sigma);
+    l.background_rate = l.add("background_rate_per_km", m.background_rate_per_km);
+  }
   return l;
 }
 

@@ -7,7 +7,8 @@
 // (k, h, φ, c_t, μ — or T, S), vertical and pore-pressure gradients, SHmax azimuth, the
 // horizontal-stress inputs of the chosen model, with the poroelastic path its Poisson's ratio
 // (unless the model already has it) and Biot coefficient, friction, cohesion, per-fault friction,
-// rate factor, per-well rate factors. The orientation perturbations are not sampled by the
+// rate factor, per-well rate factors, then (seismicity likelihood only) Aσ and the background
+// rate per km. The orientation perturbations are not sampled by the
 // stats::Sampler but drawn from each realization's auxiliary stream (per fault), so they are
 // listed last by sampled_input_names() only.
 #include <cstdint>
@@ -20,6 +21,7 @@
 #include "core/hydro/image_wells.hpp"
 #include "core/hydro/pressure_surrogate.hpp"
 #include "core/hydro/similarity_table.hpp"
+#include "core/seismo/point_process.hpp"
 #include "core/stats/distribution.hpp"
 #include "core/stats/sampler.hpp"
 
@@ -72,6 +74,13 @@ struct UncertainModel {
   // Injection rates.
   stats::Distribution rate_factor = stats::Distribution::fixed(1.0);  // all wells
   std::vector<std::optional<stats::Distribution>> well_rate_factor;  // per well; multiplies the above
+
+  // Seismicity likelihood (RunSettings::seismicity; docs/conditioning.md): the Dieterich (1994)
+  // Aσ and the background rate per km of fault trace, sampled last (only then: runs without it
+  // keep their draws).
+  bool seismicity = false;
+  stats::Distribution a_sigma = stats::Distribution::fixed(5e4);                    // Pa
+  stats::Distribution background_rate_per_km = stats::Distribution::fixed(6e-11);   // events/s per km of trace
 };
 
 struct WellInput {
@@ -109,6 +118,19 @@ struct PressureObservation {
   double sigma = 1.0;       // Pa: √(sd² + model_error²)
 };
 
+// The earthquakes the run is conditioned on (seismicity_likelihood.hpp, docs/conditioning.md):
+// events at or above Mc in the window [t0, t1], each assigned to a segment or to the background
+// pool, with what the Dieterich (1994) rate of each segment needs beside the realization's Aσ,
+// background rate and Coulomb history.
+struct SeismicityData {
+  std::vector<seismo::AssignedEvent> events;  // segment index or seismo::kBackgroundPool
+  double t0 = 0.0, t1 = 0.0;                  // s since 1970: the window (from the first injection)
+  double injection_start = 0.0;               // s: the first injection; ΔCFF = 0 before it
+  std::vector<double> segment_length;         // m, per segment (background rate = rate per km × length)
+  double stressing_rate = 0.0;                // τ̇_r, Pa/s (fixed: Aσ / t_a of [catalog.rate_state])
+  double pool_rate = 0.0;                     // events/s of the background pool (the same in every realization)
+};
+
 struct RunSettings {
   std::uint64_t seed = 1;
   std::uint64_t realizations = 1000;
@@ -139,6 +161,8 @@ struct RunSettings {
   // Observed pore pressures: when given, the realizations are weighted by their likelihood
   // (ProbabilisticResult::conditioning, SegmentResult::conditioned).
   std::vector<PressureObservation> observations;
+  // Observed earthquakes: their Poisson point-process log-likelihood is added to the pressures'.
+  std::optional<SeismicityData> seismicity;
 };
 
 // The sampled inputs in sampler order; each slot remembers where a model input sits.
@@ -151,6 +175,7 @@ struct InputList {
   std::size_t friction = 0, cohesion = 0, rate = 0;
   std::vector<std::size_t> fault_friction;  // per fault, npos when global
   std::vector<std::size_t> well_rate;       // per well, npos when none
+  std::size_t a_sigma = npos, background_rate = npos;  // UncertainModel::seismicity only
 
   std::size_t add(std::string name, const stats::Distribution& d) {
     inputs.push_back({std::move(name), d});

@@ -14,6 +14,7 @@
 #include "core/probabilistic/pressure_model.hpp"
 #include "core/probabilistic/probability_maps.hpp"
 #include "core/probabilistic/realization_sampler.hpp"
+#include "core/probabilistic/seismicity_likelihood.hpp"
 #include "core/stats/rank_correlation.hpp"
 #include "core/util/parallel_errors.hpp"
 
@@ -424,7 +425,12 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
                                          settings.capacity->horizon, settings.capacity->f_max,
                                          settings.capacity->thresholds, settings.capacity->z);
   };
-  if (!settings.observations.empty()) out.conditioning = condition_on_pressures(pm, wells, settings, list, r.inputs);
+  if (!settings.observations.empty() || settings.seismicity) {  // every part computes every weight
+    SeismicityLikelihood seismicity;
+    if (settings.seismicity) seismicity = seismicity_likelihood(pm, r, list, settings);
+    out.conditioning = condition_on_pressures(pm, wells, settings, list, r.inputs, seismicity.log_likelihood);
+    out.conditioning->seismicity_beyond_domain = seismicity.beyond_domain;
+  }
   Tracking tr = prepare_tracking(wells, segments, settings, r, pm);
   if (out.conditioning) tr.weights = &out.conditioning->weights;
   for (const auto& v : settings.what_if)

@@ -9,6 +9,7 @@
 #include "formats/files/text_file.hpp"
 #include "outputs/report/area_map.hpp"
 #include "outputs/report/catalog_figures.hpp"
+#include "outputs/report/conditioning_figures.hpp"
 #include "outputs/report/decision_figures.hpp"
 #include "outputs/report/depth_figures.hpp"
 #include "outputs/report/report_text.hpp"
@@ -30,6 +31,7 @@ const std::vector<FigureBuilder>& report_figure_builders() {
       &slip_probability_figures,
       &pressure_history_figures,
       &capacity_curve_figures,
+      &conditioning_figures,
       &stress_figures,
       &catalog_figures,
       &depth_figures,

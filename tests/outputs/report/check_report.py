@@ -19,6 +19,9 @@ reference (docs/report.md):
 - the sections "Allowable rate" and "What-if rate changes" show each threshold's allowed factor
   and binding segment as the manifest's capacity block holds them and each what-if variant
   (pdftotext), and figures/capacity_curve.csv equals capacity_curve.csv;
+- the conditioning figures: pdftotext shows the caption of each observation point's figure and of
+  the prior-against-posterior figure, and their CSVs equal observation_fit.csv and
+  posterior_inputs.csv;
 - the report is byte-identical when rebuilt with `slipscreen report --reproducible`, and equal to
   the one `run --reproducible` wrote; a folder that is not a run is refused and left as it was.
 
@@ -193,6 +196,31 @@ def check_figure_data(folder):
     return shown, len(both)
 
 
+def check_conditioning_figures(folder, flat):
+    """The conditioning figures (docs/report.md): pdftotext finds each one's caption, one per
+    observation point of observation_fit.csv and the prior-against-posterior figure, and each
+    figure's CSV holds the table's values as text."""
+    fit = pd.read_csv(folder / "observation_fit.csv", dtype=str, keep_default_na=False)
+    ids = list(dict.fromkeys(fit["observation_id"]))
+    if not ids:
+        fail("observation_fit.csv: no observations in the demo run")
+    for obs in ids:
+        if f"Observed and modelled pressure change at {obs}" not in flat:
+            fail(f"report.pdf: pdftotext does not show the observation figure of {obs}")
+        name = "observation_fit_" + re.sub(r"[^a-z0-9-]", "_", obs.lower())
+        got = pd.read_csv(folder / "figures" / f"{name}.csv", dtype=str, keep_default_na=False)
+        want = fit[fit["observation_id"] == obs].drop(columns=["x", "y"]).sort_values("date", kind="stable")
+        if not got.reset_index(drop=True).equals(want.reset_index(drop=True)):
+            fail(f"figures/{name}.csv differs from observation_fit.csv for {obs}")
+    if "Prior and posterior of the uncertain inputs" not in flat:
+        fail("report.pdf: pdftotext does not show the prior-against-posterior figure")
+    post = pd.read_csv(folder / "posterior_inputs.csv", dtype=str, keep_default_na=False)
+    got = pd.read_csv(folder / "figures" / "posterior_inputs.csv", dtype=str, keep_default_na=False)
+    if not got[list(post.columns[:8])].equals(post[list(post.columns[:8])]):
+        fail("figures/posterior_inputs.csv differs from posterior_inputs.csv")
+    return len(ids)
+
+
 def check_decisions(folder, flat):
     """The allowable-rate and what-if sections: their titles in pdftotext, the binding segment of
     each threshold with the manifest's allowed factor (3 significant digits, as the report rounds
@@ -301,6 +329,7 @@ def main():
     check_models(pdf_words(folder), ["Theis (1935)", "pore pressure only: the total stresses stay as they were",
                                      "Hydraulic diffusivity D"], "demo")
     answers, variants = check_decisions(folder, pdf_words(folder))
+    conditioned = check_conditioning_figures(folder, pdf_words(folder))
     check_physics_report(slipscreen, source, work)
     svgs = check_svgs(folder, segments)
     histories, matched = check_figure_data(folder)
@@ -331,7 +360,7 @@ def main():
     print(f"report: {pages} PDF pages (A4, then Letter), {svgs} SVG figures, {histories} pressure histories, "
           f"{matched} monthly values equal to well_shares.csv, screenshot grey-level sd {spread:.1f}, "
           f"rebuilt byte-identical ({len(report)} files), {answers} allowable-rate answers and {variants} "
-          f"what-if variants shown")
+          f"what-if variants shown, {conditioned} observation figures")
     shutil.rmtree(work, ignore_errors=True)
 
 
