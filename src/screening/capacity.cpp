@@ -10,6 +10,7 @@
 #include "core/hydro/similarity_table.hpp"
 #include "core/probabilistic/critical_factor.hpp"
 #include "core/stats/wilson_interval.hpp"
+#include "core/util/parallel_errors.hpp"
 #include "screening/probabilistic_screen.hpp"
 
 namespace slipscreen::screening {
@@ -50,25 +51,38 @@ void deterministic_answer(const scenario::ResolvedScenario& s, const PreparedRun
   }
   const hydro::SimilarityGrid grid{std::log(rw_min * rw_min / (4.0 * d)) - 0.1, std::log(r2_max / (4.0 * d)) + 0.1, 0.025};
   const auto tables = hydro::build_tables(steps, times, grid);
+  // Each segment's critical factor (OpenMP over segments), then the answer in segment order.
+  std::vector<double> f_seg(p.inputs.segments.size(), kInf);
+  util::ParallelErrors errors;
+#pragma omp parallel for schedule(dynamic, 4)
+  for (std::size_t si = 0; si < p.inputs.segments.size(); ++si)
+    errors.iteration(si, [&] {
+      const double crit = det.segments[si].dp_crit - out.margin;
+      if (std::isinf(crit)) return;
+      double f = kInf;
+      std::vector<double> rest(times.size()), group(times.size());
+      for (const auto& c : p.inputs.segments[si].check_points) {
+        std::fill(rest.begin(), rest.end(), 0.0);
+        std::fill(group.begin(), group.end(), 0.0);
+        for (std::size_t w = 0; w < split.wells.size(); ++w) {
+          auto& into = split.in_group[w] ? group : rest;
+          for (const auto& im : hydro::image_wells(split.wells[w].x, split.wells[w].y, p.inputs.boundaries)) {
+            const double r2 = std::max((c.x - im.x) * (c.x - im.x) + (c.y - im.y) * (c.y - im.y),
+                                       split.wells[w].radius * split.wells[w].radius);
+            const auto tap = tables[w].tap(r2 / (4.0 * d));
+            for (std::size_t k = 0; k < times.size(); ++k) into[k] += pf * im.sign * tables[w].value(tap, k);
+          }
+        }
+        f = std::min(f, probabilistic::critical_factor(rest, group, crit));
+      }
+      f_seg[si] = f;
+    });
+  errors.rethrow();
   double limit = kInf;
   std::optional<std::size_t> binding;
-  for (std::size_t si = 0; si < p.inputs.segments.size(); ++si) {
-    const double crit = det.segments[si].dp_crit - out.margin;
-    if (std::isinf(crit)) continue;
-    double f = kInf;
-    for (const auto& c : p.inputs.segments[si].check_points) {
-      std::vector<double> rest(times.size(), 0.0), group(times.size(), 0.0);
-      for (std::size_t w = 0; w < split.wells.size(); ++w) {
-        auto& into = split.in_group[w] ? group : rest;
-        for (const auto& im : hydro::image_wells(split.wells[w].x, split.wells[w].y, p.inputs.boundaries)) {
-          const double r2 = std::max((c.x - im.x) * (c.x - im.x) + (c.y - im.y) * (c.y - im.y),
-                                     split.wells[w].radius * split.wells[w].radius);
-          const auto tap = tables[w].tap(r2 / (4.0 * d));
-          for (std::size_t k = 0; k < times.size(); ++k) into[k] += pf * im.sign * tables[w].value(tap, k);
-        }
-      }
-      f = std::min(f, probabilistic::critical_factor(rest, group, crit));
-    }
+  for (std::size_t si = 0; si < f_seg.size(); ++si) {
+    if (std::isinf(det.segments[si].dp_crit - out.margin)) continue;
+    const double f = f_seg[si];
     if (f == 0.0) out.deterministic_reached_without.push_back(si);
     else if (f < limit) {
       limit = f;
