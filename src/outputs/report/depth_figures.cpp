@@ -9,6 +9,7 @@
 #include "core/util/number_text.hpp"
 #include "outputs/report/report_tables.hpp"
 #include "outputs/report/run_table.hpp"
+#include "outputs/report/screen_figures.hpp"
 
 namespace slipscreen::outputs::report {
 namespace {
@@ -177,7 +178,7 @@ std::vector<Figure> depth_figures(const ReportSource& s) {
     const RunTable& t = s.table(depth_probability_file(s));
     const std::size_t id_col = t.column("segment_id");
     const std::size_t p_col = t.column("p_slip"), lo_col = t.column("p_slip_ci_low"), hi_col = t.column("p_slip_ci_high");
-    std::vector<Series> series(ids.size());
+    std::vector<ProbabilityCurve> series(ids.size());
     FigureData data{{"segment_id", "date", "p_slip", "p_slip_ci_low", "p_slip_ci_high"}, {}};
     double x0 = INFINITY, x1 = -INFINITY, ymax = 0;
     for (std::size_t i = 0; i < ids.size(); ++i)
@@ -185,7 +186,7 @@ std::vector<Figure> depth_figures(const ReportSource& s) {
         if (t.text(r, id_col) != ids[i]) continue;
         auto& se = series[i];
         se.x.push_back(table_days(t, r, "date"));
-        se.y.push_back(t.number(r, p_col));
+        se.p.push_back(t.number(r, p_col));
         se.lo.push_back(t.number(r, lo_col));
         se.hi.push_back(t.number(r, hi_col));
         x0 = std::min(x0, se.x.back()), x1 = std::max(x1, se.x.back());
@@ -203,24 +204,7 @@ std::vector<Figure> depth_figures(const ReportSource& s) {
                 "interval; dashed lines are the scenario's thresholds.";
     f.data = std::move(data);
     f.draw = [series, ids, levels, x0, x1, ymax, title = f.title](formats::Canvas& c) {
-      FigurePage page(c, formats::markup_escape(title), "fault_depth_probability.csv");
-      std::vector<LegendEntry> legend;
-      for (std::size_t i = 0; i < ids.size(); ++i)
-        legend.push_back({formats::markup_escape(ids[i]), category_colour(i), LegendEntry::Mark::line});
-      if (!levels.empty()) legend.push_back({"threshold", formats::kInk, LegendEntry::Mark::line});
-      page.legend_right(legend, "segment");
-      Plot plot(c, page.body(), {x0, x1 > x0 ? x1 : x0 + 365, "date", AxisKind::date},
-                nice_axis(0, ymax, "P(slip by t)"));
-      plot.axes();
-      for (std::size_t i = 0; i < series.size(); ++i)
-        plot.band(series[i].x, series[i].lo, series[i].hi, category_colour(i).with_alpha(0.18));
-      for (double v : levels)
-        plot.hline(v, {.colour = formats::kInk, .width = 0.8, .dash = {4, 3}}, "P = " + util::number_text(v, 3));
-      for (std::size_t i = 0; i < series.size(); ++i) {
-        plot.line(series[i].x, series[i].y, {.colour = category_colour(i), .width = 1.5});
-        plot.dots(series[i].x, series[i].y, 1.8, category_colour(i));
-      }
-      page.footer();
+      draw_probability_curves(c, title, "fault_depth_probability.csv", ids, series, levels, x0, x1, ymax);
     };
     figures.push_back(std::move(f));
   }

@@ -31,15 +31,33 @@ std::string number_text(double v) {
 
 }  // namespace
 
+void draw_probability_curves(formats::Canvas& c, const std::string& title, const std::string& source,
+                             const std::vector<std::string>& ids, const std::vector<ProbabilityCurve>& series,
+                             const std::vector<double>& levels, double x0, double x1, double ymax) {
+  FigurePage page(c, formats::markup_escape(title), source);
+  std::vector<LegendEntry> legend;
+  for (std::size_t i = 0; i < ids.size(); ++i)
+    legend.push_back({formats::markup_escape(ids[i]), category_colour(i), LegendEntry::Mark::line});
+  if (!levels.empty()) legend.push_back({"threshold", formats::kInk, LegendEntry::Mark::line});
+  page.legend_right(legend, "segment");
+  Plot plot(c, page.body(), {x0, x1 > x0 ? x1 : x0 + 365, "date", AxisKind::date}, nice_axis(0, ymax, "P(slip by t)"));
+  plot.axes();
+  for (std::size_t i = 0; i < series.size(); ++i)
+    plot.band(series[i].x, series[i].lo, series[i].hi, category_colour(i).with_alpha(0.18));
+  for (double v : levels) plot.hline(v, {.colour = formats::kInk, .width = 0.8, .dash = {4, 3}}, "P = " + number_text(v));
+  for (std::size_t i = 0; i < series.size(); ++i) {
+    plot.line(series[i].x, series[i].p, {.colour = category_colour(i), .width = 1.5});
+    plot.dots(series[i].x, series[i].p, 1.8, category_colour(i));
+  }
+  page.footer();
+}
+
 std::vector<Figure> slip_probability_figures(const ReportSource& s) {
   if (!has_probabilistic(s)) return {};
   const TopSegments top = top_segments(s, s.top_segments);
   if (top.ids.empty()) return {};
   const RunTable& t = s.table("segment_probability.csv");
-  struct Series {
-    std::vector<double> x, p, lo, hi;
-  };
-  std::vector<Series> series(top.ids.size());
+  std::vector<ProbabilityCurve> series(top.ids.size());
   FigureData data{{"segment_id", "date", "p_slip", "p_slip_ci_low", "p_slip_ci_high"}, {}};
   double x0 = INFINITY, x1 = -INFINITY, ymax = 0;
   const std::size_t id_col = t.column("segment_id");
@@ -69,23 +87,7 @@ std::vector<Figure> slip_probability_figures(const ReportSource& s) {
               "Wilson interval; dashed lines are the scenario's thresholds.";
   f.data = data;
   f.draw = [series, ids = top.ids, levels, x0, x1, ymax, title = f.title](formats::Canvas& c) {
-    FigurePage page(c, formats::markup_escape(title), "segment_probability.csv");
-    std::vector<LegendEntry> legend;
-    for (std::size_t i = 0; i < ids.size(); ++i)
-      legend.push_back({formats::markup_escape(ids[i]), category_colour(i), LegendEntry::Mark::line});
-    if (!levels.empty()) legend.push_back({"threshold", formats::kInk, LegendEntry::Mark::line});
-    page.legend_right(legend, "segment");
-    Plot plot(c, page.body(), {x0, x1 > x0 ? x1 : x0 + 365, "date", AxisKind::date},
-              nice_axis(0, ymax, "P(slip by t)"));
-    plot.axes();
-    for (std::size_t i = 0; i < series.size(); ++i)
-      plot.band(series[i].x, series[i].lo, series[i].hi, category_colour(i).with_alpha(0.18));
-    for (double v : levels) plot.hline(v, {.colour = formats::kInk, .width = 0.8, .dash = {4, 3}}, "P = " + number_text(v));
-    for (std::size_t i = 0; i < series.size(); ++i) {
-      plot.line(series[i].x, series[i].p, {.colour = category_colour(i), .width = 1.5});
-      plot.dots(series[i].x, series[i].p, 1.8, category_colour(i));
-    }
-    page.footer();
+    draw_probability_curves(c, title, "segment_probability.csv", ids, series, levels, x0, x1, ymax);
   };
   return {f};
 }
