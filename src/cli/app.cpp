@@ -3,6 +3,7 @@
 #include <CLI/CLI.hpp>
 #include <algorithm>
 #include <ostream>
+#include <sstream>
 
 #include "cli/commands.hpp"
 #include "cli/exit_codes.hpp"
@@ -92,8 +93,13 @@ int run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
   try {
     app.parse(reversed);
   } catch (const CLI::ParseError& e) {
-    const int code = app.exit(e, out, err);
-    if (code != 0) suggest_names(app, args, err);
+    // Every rank parses the same arguments and ends alike; under mpirun rank 0 alone prints the
+    // help or the usage error (once, not once per rank).
+    std::ostringstream elsewhere;
+    std::ostream& o = run::cluster_rank() == 0 ? out : elsewhere;
+    std::ostream& e_out = run::cluster_rank() == 0 ? err : elsewhere;
+    const int code = app.exit(e, o, e_out);
+    if (code != 0) suggest_names(app, args, e_out);
     return code == 0 ? kExitOk : kExitUsage;
   }
   if (!ctx.action) return kExitUsage;

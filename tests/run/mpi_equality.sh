@@ -73,3 +73,15 @@ set -e
   { echo "mpi_equality: expected one error message"; cat "$work/bad.err"; exit 1; }
 [ -z "$(find "$work" -maxdepth 1 -type d -name '*bad*')" ] || { echo "mpi_equality: a folder was left"; exit 1; }
 echo "mpi_equality: input error: exit code 3 from 2 ranks, one message, nothing left"
+
+# A usage error and --help: every rank parses the same arguments; rank 0 alone prints, once.
+set +e
+mpirun_ 2 "$mpi_bin" run --no-such-option > "$work/usage.txt" 2> "$work/usage.err"
+code=$?
+set -e
+[ "$code" -eq 2 ] || { echo "mpi_equality: usage error gave exit code $code, expected 2"; cat "$work/usage.err"; exit 1; }
+[ "$(grep -c "'--no-such-option' is not an option" "$work/usage.err")" -eq 1 ] ||
+  { echo "mpi_equality: expected the usage error once"; cat "$work/usage.err"; exit 1; }
+mpirun_ 2 "$mpi_bin" run --help > "$work/help.txt"
+[ "$(grep -c '^Usage:' "$work/help.txt")" -eq 1 ] || { echo "mpi_equality: expected --help once"; exit 1; }
+echo "mpi_equality: usage error and --help printed once from 2 ranks"
