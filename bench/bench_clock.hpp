@@ -1,6 +1,7 @@
 #pragma once
 // What the benchmarks share: seconds since a time point, and the machine's load average, printed
 // beside every figure because the cores may be shared.
+#include <algorithm>
 #include <chrono>
 #include <ctime>
 #include <fstream>
@@ -11,6 +12,18 @@ namespace slipscreen::bench {
 using Clock = std::chrono::steady_clock;
 
 inline double since(Clock::time_point t0) { return std::chrono::duration<double>(Clock::now() - t0).count(); }
+
+// The shortest wall time of `repeats` calls of f: the figure least disturbed by other jobs.
+template <class F>
+double best_seconds(int repeats, F&& f) {
+  double best = 1e300;
+  for (int r = 0; r < repeats; ++r) {
+    const auto t0 = Clock::now();
+    f();
+    best = std::min(best, since(t0));
+  }
+  return best;
+}
 
 // CPU seconds used by the process so far, all threads (CLOCK_PROCESS_CPUTIME_ID): less sensitive
 // than wall time to other jobs on shared cores.

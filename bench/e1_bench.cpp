@@ -5,29 +5,18 @@
 // pseudo-random permutation: every vector mixes both pieces, the worst case).
 #include <algorithm>
 #include <boost/math/special_functions/expint.hpp>
-#include <chrono>
 #include <cmath>
 #include <cstdio>
 #include <random>
 #include <vector>
 
 #include "core/hydro/hantush.hpp"
+#include "bench_clock.hpp"
 #include "core/hydro/well_function.hpp"
 
 namespace {
 
-using Clock = std::chrono::steady_clock;
-
-template <class F>
-double best_seconds(int repeats, F&& f) {
-  double best = 1e300;
-  for (int r = 0; r < repeats; ++r) {
-    const auto t0 = Clock::now();
-    f();
-    best = std::min(best, std::chrono::duration<double>(Clock::now() - t0).count());
-  }
-  return best;
-}
+using slipscreen::bench::best_seconds;
 
 volatile double g_sink;
 

@@ -16,14 +16,10 @@ namespace {
 using namespace slipscreen;
 
 double kernel_seconds(const hydro::SimilarityGrid& g, std::size_t lags, int repeats) {
-  double best = 1e300;
-  for (int r = 0; r < repeats; ++r) {
-    const auto t0 = bench::Clock::now();
+  return bench::best_seconds(repeats, [&] {
     const hydro::LagKernel k(g, 86400.0, lags);
-    best = std::min(best, bench::since(t0));
     if (k.row(lags)[0] < 0) std::printf("?");  // keeps the kernel alive
-  }
-  return best;
+  });
 }
 
 }  // namespace

@@ -10,13 +10,13 @@
 // (poro/depth_monte_carlo.hpp) is one such screen per realization, by direct sums, with no surrogate.
 // Prints figures; asserts nothing about time.
 #include <algorithm>
-#include <chrono>
 #include <cmath>
 #include <cstdio>
 #include <numbers>
 #include <string>
 #include <vector>
 
+#include "bench_clock.hpp"
 #include "core/hydro/theis.hpp"
 #include "core/poro/depth_monte_carlo.hpp"
 #include "core/poro/fault_screen.hpp"
@@ -24,19 +24,8 @@
 
 namespace {
 
-using Clock = std::chrono::steady_clock;
 using namespace slipscreen;
-
-template <class F>
-double best_seconds(int repeats, F&& f) {
-  double best = 1e300;
-  for (int r = 0; r < repeats; ++r) {
-    const auto t0 = Clock::now();
-    f();
-    best = std::min(best, std::chrono::duration<double>(Clock::now() - t0).count());
-  }
-  return best;
-}
+using slipscreen::bench::best_seconds;
 
 volatile double g_sink;
 
@@ -60,26 +49,19 @@ int main() {
     }
   const std::size_t n = r.size();
   const Eigen::Vector3d dir = Eigen::Vector3d(0.6, 0.48, 0.64).normalized();
-  const double t_theis = best_seconds(5, [&] {
-    double s = 0;
-    for (std::size_t i = 0; i < n; ++i) s += hydro::theis_unit_response(theis, r[i], t[i]);
-    g_sink = s;
-  }) / n;
-  const double t_leaky = best_seconds(3, [&] {
-    double s = 0;
-    for (std::size_t i = 0; i < n; ++i) s += hydro::theis_unit_response(leaky, r[i], t[i]);
-    g_sink = s;
-  }) / n;
-  const double t_p3 = best_seconds(5, [&] {
-    double s = 0;
-    for (std::size_t i = 0; i < n; ++i) s += poro::point_source_pressure(k, r[i], t[i]);
-    g_sink = s;
-  }) / n;
-  const double t_s3 = best_seconds(5, [&] {
-    double s = 0;
-    for (std::size_t i = 0; i < n; ++i) s += poro::point_source_response(k, r[i] * dir, t[i]).dstress(0, 1);
-    g_sink = s;
-  }) / n;
+  // Seconds per term of `term(i)` summed over the n (r, t) pairs, best of `repeats`.
+  const auto per_term = [&](int repeats, const auto& term) {
+    return best_seconds(repeats, [&] {
+      double s = 0;
+      for (std::size_t i = 0; i < n; ++i) s += term(i);
+      g_sink = s;
+    }) / static_cast<double>(n);
+  };
+  const double t_theis = per_term(5, [&](std::size_t i) { return hydro::theis_unit_response(theis, r[i], t[i]); });
+  const double t_leaky = per_term(3, [&](std::size_t i) { return hydro::theis_unit_response(leaky, r[i], t[i]); });
+  const double t_p3 = per_term(5, [&](std::size_t i) { return poro::point_source_pressure(k, r[i], t[i]); });
+  const double t_s3 =
+      per_term(5, [&](std::size_t i) { return poro::point_source_response(k, r[i] * dir, t[i]).dstress(0, 1); });
   std::printf("cost per (point, time, rate step), %zu terms:\n", n);
   std::printf("  Theis E1                 %8.1f ns   1.0x\n", t_theis * 1e9);
   std::printf("  leaky W(u, r/B)          %8.1f ns   %.1fx Theis\n", t_leaky * 1e9, t_leaky / t_theis);

@@ -33,7 +33,7 @@ FactorAnswer answer_of(double limit, std::optional<std::size_t> binding, double 
 // The deterministic answer: best-estimate Δp at every check point and tracked time t ≤ T, the
 // rest and the group apart (similarity tables of the split wells, hydro/similarity_table.hpp,
 // at the formation's D and μ/(4π k h)), then critical_factor() against Δp_crit − margin.
-void deterministic_answer(const scenario::ResolvedScenario& s, const PreparedRun& p, const screen::ScreenResult& det,
+void deterministic_answer(const PreparedRun& p, const screen::ScreenResult& det,
                           const probabilistic::GroupSplit& split, CapacityResult& out) {
   std::vector<double> times;
   for (double t : det.tracked_times)
@@ -90,7 +90,6 @@ void deterministic_answer(const scenario::ResolvedScenario& s, const PreparedRun
     }
   }
   out.deterministic = answer_of(limit, binding, out.up_to);
-  (void)s;
 }
 }  // namespace
 
@@ -141,7 +140,7 @@ CapacityResult capacity_answer(const scenario::ResolvedScenario& s, const Prepar
     }
     out.plan.push_back(std::move(plan));
   }
-  deterministic_answer(s, p, det, *prob.settings.capacity, out);
+  deterministic_answer(p, det, *prob.settings.capacity, out);
   return out;
 }
 

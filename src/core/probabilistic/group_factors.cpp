@@ -18,30 +18,6 @@ constexpr std::size_t kBlock = 256;  // realizations per matrix product
 constexpr Eigen::Index kChunk = 24;  // tracking times per chunk of the first-crossing search
 constexpr double kInf = std::numeric_limits<double>::infinity();
 
-// Σ over the model's groups of table rows [first_row, first_row + rows) times basis · scale_g,
-// for the realizations `cols`, at every check point of `points`, stacked: row i·rows + k is
-// point i at tracking index first_row + k. One product per group for all the points (the
-// realizations' block of basis · scale_g is built once and shared by them): points.size()·rows ×
-// cols.size(). Each entry is the same sum, in the same order, as a product per point.
-struct SeriesBuffers {
-  Eigen::MatrixXd block, stacked;
-};
-void series(const PressureModel& pm, const std::vector<std::size_t>& points, Eigen::Index rows,
-            const std::vector<Eigen::Index>& cols, Eigen::Index first_row, SeriesBuffers& buf, Eigen::MatrixXd& out) {
-  const auto np = static_cast<Eigen::Index>(points.size());
-  const auto nc = static_cast<Eigen::Index>(cols.size());
-  out.setZero(np * rows, nc);
-  buf.block.resize(pm.draws.basis.rows(), nc);
-  buf.stacked.resize(np * rows, pm.draws.basis.rows());
-  for (std::size_t g = 0; g < pm.groups; ++g) {
-    for (Eigen::Index c = 0; c < nc; ++c)
-      buf.block.col(c) = pm.draws.basis.col(cols[static_cast<std::size_t>(c)]) *
-                         pm.draws.scale(static_cast<Eigen::Index>(g), cols[static_cast<std::size_t>(c)]);
-    for (Eigen::Index i = 0; i < np; ++i)
-      buf.stacked.middleRows(i * rows, rows) = pm.surrogate->table(points[static_cast<std::size_t>(i)], g).middleRows(first_row, rows);
-    out.noalias() += buf.stacked * buf.block;
-  }
-}
 
 // The two models with their split bases, for the bounds (chunk_bounds.hpp).
 struct Pair {
@@ -128,8 +104,8 @@ SlipFactorCurve segment_curve(const Pair& m, const Eigen::MatrixXf& dp_crit, std
     for (std::size_t c0 = 0; c0 < in_chunk.size(); c0 += kBlock) {
       cols.assign(in_chunk.begin() + static_cast<std::ptrdiff_t>(c0),
                   in_chunk.begin() + static_cast<std::ptrdiff_t>(std::min(in_chunk.size(), c0 + kBlock)));
-      series(m.part, m.part.segment_points[s], len, cols, k0, buf, group);
-      series(m.base, pts, len, cols, k0, buf, rest);
+      point_series(m.part, m.part.segment_points[s], len, cols, k0, buf, group);
+      point_series(m.base, pts, len, cols, k0, buf, rest);
       rest -= group;
       const auto l = static_cast<std::size_t>(len);
       for (std::size_t j = 0; j < cols.size(); ++j) {
@@ -165,12 +141,16 @@ void check_pair(const PressureModel& base, const PressureModel& part, std::size_
                      "the screen's check points, tracking times and realizations");
 }
 
-// out[s] = one(s) for every segment (OpenMP over segments; the first failure is rethrown).
-template <class T, class One>
-void per_segment(std::vector<T>& out, const One& one) {
+// out[s] = one(s) for every segment s with `wanted(s)` (OpenMP over segments; the first failure
+// is rethrown).
+template <class T, class One, class Wanted>
+void per_segment(std::vector<T>& out, const One& one, const Wanted& wanted) {
   util::ParallelErrors errors;
 #pragma omp parallel for schedule(dynamic, 1)
-  for (std::size_t s = 0; s < out.size(); ++s) errors.iteration(s, [&] { out[s] = one(s); });
+  for (std::size_t s = 0; s < out.size(); ++s)
+    errors.iteration(s, [&] {
+      if (wanted(s)) out[s] = one(s);
+    });
   errors.rethrow();
 }
 }  // namespace
@@ -264,11 +244,10 @@ std::vector<std::uint64_t> variant_segment_slips(const VariantSearch& v, const E
     for (std::size_t b0 = 0; b0 < in_chunk.size(); b0 += kBlock) {
       cols.clear();
       for (std::size_t j = b0; j < std::min(in_chunk.size(), b0 + kBlock); ++j) cols.push_back(col(in_chunk[j]));
-      series(base, pts, len, cols, k0, buf, dp);
-      series(v.part, v.part.segment_points[s], len, cols, k0, buf, part);
+      point_series(base, pts, len, cols, k0, buf, dp);
+      point_series(v.part, v.part.segment_points[s], len, cols, k0, buf, part);
       dp.noalias() += c_part * part;
-      Eigen::MatrixXd best = dp.topRows(len);
-      for (std::size_t i = 1; i < pts.size(); ++i) best = best.cwiseMax(dp.middleRows(static_cast<Eigen::Index>(i) * len, len));
+      const Eigen::MatrixXd best = max_over_points(dp, pts.size(), len);
       for (std::size_t j = 0; j < cols.size(); ++j) {
         const Eigen::Index c = in_chunk[b0 + j];
         const double crit = crit_of(c);
@@ -299,11 +278,13 @@ std::vector<SlipFactorCurve> group_factor_curves(const PressureModel& base, cons
   // range follows from the answers, and pass 2 extends the segments whose range falls short of it.
   const std::uint64_t k = steps_needed(std::max<std::uint64_t>(1, n), thresholds, z);
   std::vector<SlipFactorCurve> curves(base.segment_points.size(), SlipFactorCurve({}, std::max<std::uint64_t>(1, n)));
-  per_segment(curves, [&](std::size_t s) { return segment_curve(m, dp_crit, s, rows, f_max, k, std::min(2.0, f_max)); });
+  per_segment(
+      curves, [&](std::size_t s) { return segment_curve(m, dp_crit, s, rows, f_max, k, std::min(2.0, f_max)); },
+      [](std::size_t) { return true; });
   const double end = curve_end(curves, thresholds, z, f_max);
-  per_segment(curves, [&](std::size_t s) {
-    return curves[s].exact_up_to() >= end ? curves[s] : segment_curve(m, dp_crit, s, rows, f_max, k, end);
-  });
+  per_segment(
+      curves, [&](std::size_t s) { return segment_curve(m, dp_crit, s, rows, f_max, k, end); },
+      [&](std::size_t s) { return curves[s].exact_up_to() < end; });
   return curves;
 }
 

@@ -78,4 +78,28 @@ PressureModel build_pressure_model(const std::vector<WellInput>& wells, const st
   return m;
 }
 
+void point_series(const PressureModel& pm, const std::vector<std::size_t>& points, Eigen::Index rows,
+                  const std::vector<Eigen::Index>& cols, Eigen::Index first_row, SeriesBuffers& buf, Eigen::MatrixXd& out) {
+  const auto np = static_cast<Eigen::Index>(points.size());
+  const auto nc = static_cast<Eigen::Index>(cols.size());
+  out.setZero(np * rows, nc);
+  buf.block.resize(pm.draws.basis.rows(), nc);
+  buf.stacked.resize(np * rows, pm.draws.basis.rows());
+  for (std::size_t g = 0; g < pm.groups; ++g) {
+    for (Eigen::Index c = 0; c < nc; ++c)
+      buf.block.col(c) = pm.draws.basis.col(cols[static_cast<std::size_t>(c)]) *
+                         pm.draws.scale(static_cast<Eigen::Index>(g), cols[static_cast<std::size_t>(c)]);
+    for (Eigen::Index i = 0; i < np; ++i)
+      buf.stacked.middleRows(i * rows, rows) =
+          pm.surrogate->table(points[static_cast<std::size_t>(i)], g).middleRows(first_row, rows);
+    out.noalias() += buf.stacked * buf.block;
+  }
+}
+
+Eigen::MatrixXd max_over_points(const Eigen::MatrixXd& stacked, std::size_t points, Eigen::Index rows) {
+  Eigen::MatrixXd best = stacked.topRows(rows);
+  for (std::size_t i = 1; i < points; ++i) best = best.cwiseMax(stacked.middleRows(static_cast<Eigen::Index>(i) * rows, rows));
+  return best;
+}
+
 }  // namespace slipscreen::probabilistic

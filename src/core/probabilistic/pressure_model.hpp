@@ -50,4 +50,19 @@ struct PressureModel {
 PressureModel build_pressure_model(const std::vector<WellInput>& wells, const std::vector<SegmentInput>& segments,
                                    const RunSettings& settings, const InputList& list, const SampledRealizations& r);
 
+// Σ over the model's groups of its table rows [first_row, first_row + rows) times basis · scale_g,
+// for the realizations `cols`, at every check point of `points`, stacked into `out`: row i·rows + k
+// is point i at tracking index first_row + k (points.size()·rows × cols.size()). One product per
+// group for all the points, the realizations' block of basis · scale_g built once; each entry is
+// the same sum, in the same order, as a product per point. `buf` is reused from call to call.
+struct SeriesBuffers {
+  Eigen::MatrixXd block, stacked;
+};
+void point_series(const PressureModel& pm, const std::vector<std::size_t>& points, Eigen::Index rows,
+                  const std::vector<Eigen::Index>& cols, Eigen::Index first_row, SeriesBuffers& buf, Eigen::MatrixXd& out);
+
+// The largest over the `points` stacked blocks of `rows` rows of point_series()'s result: rows ×
+// columns (a segment's Δp is the largest over its check points).
+Eigen::MatrixXd max_over_points(const Eigen::MatrixXd& stacked, std::size_t points, Eigen::Index rows);
+
 }  // namespace slipscreen::probabilistic

@@ -33,21 +33,16 @@ void segment_terms(const PressureModel& pm, const SampledRealizations& r, const 
   const auto nr = static_cast<Eigen::Index>(rows);
   const std::span<const double> times_used(tt.data(), rows);
   const auto& points = pm.segment_points[s];
-  Eigen::MatrixXd series, best;
-  std::vector<Eigen::MatrixXd> scaled(pm.groups);  // per rate group: basis ∘ (P · f_g)
+  SeriesBuffers buf;
+  Eigen::MatrixXd series;
+  std::vector<Eigen::Index> cols;
   std::vector<double> dp(rows);
   for (Eigen::Index c0 = 0; c0 < n; c0 += kBlock) {
     const Eigen::Index nb = std::min(kBlock, n - c0);
-    for (std::size_t g = 0; g < pm.groups; ++g)
-      scaled[g] = (pm.draws.basis.middleCols(c0, nb).array().rowwise() *
-                   pm.draws.scale.row(static_cast<Eigen::Index>(g)).segment(c0, nb).array())
-                      .matrix();
-    for (std::size_t p = 0; p < points.size(); ++p) {  // Σ_g G_{p,g} · (basis ∘ scale_g), as PressureSurrogate::evaluate
-      series.setZero(nr, nb);
-      for (std::size_t g = 0; g < pm.groups; ++g) series.noalias() += pm.surrogate->table(points[p], g).topRows(nr) * scaled[g];
-      if (p == 0) best = series;
-      else best = best.cwiseMax(series);
-    }
+    cols.resize(static_cast<std::size_t>(nb));
+    for (Eigen::Index c = 0; c < nb; ++c) cols[static_cast<std::size_t>(c)] = c0 + c;
+    point_series(pm, points, nr, cols, 0, buf, series);
+    const Eigen::MatrixXd best = max_over_points(series, points.size(), nr);
     for (Eigen::Index c = 0; c < nb; ++c) {
       const auto col = static_cast<std::size_t>(c0 + c);
       for (std::size_t k = 0; k < dp.size(); ++k) dp[k] = best(static_cast<Eigen::Index>(k), c);

@@ -70,8 +70,7 @@ std::vector<Figure> capacity_curve_figures(const ReportSource& s) {
   fig.draw = [f, pmax, p, ids, levels, allowed, ymax, title = fig.title](formats::Canvas& c) {
     FigurePage page(c, formats::markup_escape(title), "capacity_curve.csv, manifest.json (capacity)");
     std::vector<LegendEntry> legend{{"largest", formats::kInk, LegendEntry::Mark::line}};
-    for (std::size_t i = 0; i < ids.size(); ++i)
-      legend.push_back({formats::markup_escape(ids[i]), category_colour(i), LegendEntry::Mark::line});
+    append_line_legend(legend, ids);
     if (!levels.empty()) legend.push_back({"threshold", formats::kInk, LegendEntry::Mark::line});
     if (!allowed.empty()) legend.push_back({"allowed f", formats::kInk, LegendEntry::Mark::dot});
     page.legend_right(legend, "segment");

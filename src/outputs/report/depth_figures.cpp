@@ -158,8 +158,7 @@ std::vector<Figure> depth_figures(const ReportSource& s) {
     f.draw = [series, ids, x0, x1, y0, y1, unit, title = f.title](formats::Canvas& c) {
       FigurePage page(c, formats::markup_escape(title), "fault_depth.csv");
       std::vector<LegendEntry> legend;
-      for (std::size_t i = 0; i < ids.size(); ++i)
-        legend.push_back({formats::markup_escape(ids[i]), category_colour(i), LegendEntry::Mark::line});
+      append_line_legend(legend, ids);
       page.legend_right(legend, "segment");
       Plot plot(c, page.body(), {x0, x1 > x0 ? x1 : x0 + 365, "date", AxisKind::date},
                 nice_axis(y0, y1 > y0 ? y1 : y0 + 1, "μΔp<sub>crit</sub> − ΔCFF [" + formats::markup_escape(unit) + "]"));

@@ -52,6 +52,11 @@ std::string number_label(double v, double step) {
 
 }  // namespace
 
+void append_line_legend(std::vector<LegendEntry>& legend, const std::vector<std::string>& names) {
+  for (std::size_t i = 0; i < names.size(); ++i)
+    legend.push_back({formats::markup_escape(names[i]), category_colour(i), LegendEntry::Mark::line});
+}
+
 void well_triangle(Canvas& c, Point p, double r, const formats::Colour& fill, const Stroke& outline) {
   c.polygon({{p.x, p.y - r}, {p.x + r * 0.866, p.y + r * 0.5}, {p.x - r * 0.866, p.y + r * 0.5}}, fill, outline);
 }

@@ -57,6 +57,10 @@ struct LegendEntry {
   enum class Mark { line, band, dot, square, triangle } mark = Mark::line;
 };
 
+// Appends one line entry per name (plain text, escaped) in the category colours 0, 1, 2, ...: the
+// legend of figures with one coloured line per fault segment.
+void append_line_legend(std::vector<LegendEntry>& legend, const std::vector<std::string>& names);
+
 // A well's map symbol (and its legend mark): an upward triangle of circumradius `r` points
 // centred at `p`.
 void well_triangle(formats::Canvas& c, formats::Point p, double r, const formats::Colour& fill,

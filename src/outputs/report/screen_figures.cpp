@@ -36,8 +36,7 @@ void draw_probability_curves(formats::Canvas& c, const std::string& title, const
                              const std::vector<double>& levels, double x0, double x1, double ymax) {
   FigurePage page(c, formats::markup_escape(title), source);
   std::vector<LegendEntry> legend;
-  for (std::size_t i = 0; i < ids.size(); ++i)
-    legend.push_back({formats::markup_escape(ids[i]), category_colour(i), LegendEntry::Mark::line});
+  append_line_legend(legend, ids);
   if (!levels.empty()) legend.push_back({"threshold", formats::kInk, LegendEntry::Mark::line});
   page.legend_right(legend, "segment");
   Plot plot(c, page.body(), {x0, x1 > x0 ? x1 : x0 + 365, "date", AxisKind::date}, nice_axis(0, ymax, "P(slip by t)"));
