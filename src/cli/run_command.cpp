@@ -42,6 +42,9 @@ void register_run_command(CLI::App& app, Context& ctx) {
                   "Units of the tables and the summary: SI (MPa, m) or oilfield (psi, ft, bbl); default: the "
                   "scenario's [output] units, else SI")
       ->check(unit_system_name());
+  sub->add_flag("--timings", opts->timings,
+                "Print each stage's wall time, the bytes exchanged between ranks and the peak memory on stderr "
+                "(under mpirun: every rank, docs/cluster.md)");
   sub->add_option("--closest", opts->closest, "Number of faults listed in the summary")
       ->default_val(10)
       ->check(in_range(0, 10000, "a number of faults"));

@@ -1,6 +1,11 @@
 #include "cli/run_report.hpp"
 
+#include <sys/resource.h>
+
+#include <chrono>
 #include <cstdint>
+#include <functional>
+#include <optional>
 #include <cstdio>
 #include <map>
 #include <ostream>
@@ -10,6 +15,7 @@
 #include "cli/catalog_report.hpp"
 #include "cli/exit_codes.hpp"
 #include "core/caution.hpp"
+#include "core/util/number_text.hpp"
 #include "cli/scenario_summary.hpp"
 #include "screening/catalog_review.hpp"
 #include "formats/table/iso_time.hpp"
@@ -295,20 +301,69 @@ void print_depth(std::ostream& out, const scenario::ResolvedScenario& s, const s
 
 }  // namespace
 
+// --timings: every stage's wall time when the next one starts, then this process's totals, on
+// stderr, prefixed with the rank under mpirun (every rank prints its own).
+class StageTimer {
+ public:
+  StageTimer(Context& ctx) : ctx_(ctx), start_(Clock::now()), stage_start_(start_) {
+    if (run::cluster_ranks() > 1) prefix_ = "rank " + std::to_string(run::cluster_rank()) + ": ";
+  }
+  // Wraps `inner` (may be empty) so that a new stage ends the one before.
+  std::function<void(const std::string&, double)> wrap(std::function<void(const std::string&, double)> inner) {
+    return [this, inner = std::move(inner)](const std::string& stage, double f) {
+      if (f < 0 && stage != stage_) end_stage(stage);
+      if (inner) inner(stage, f);
+    };
+  }
+  void finish() {
+    end_stage("");
+    const double total = std::chrono::duration<double>(Clock::now() - start_).count();
+    ctx_.err << "slipscreen: timing: " << prefix_ << "total " << util::number_text(total, 3) << " s, sent "
+             << run::cluster_bytes_sent() << " bytes, received " << run::cluster_bytes_received()
+             << " bytes, peak memory " << peak_memory_bytes() << " bytes\n"
+             << std::flush;
+  }
+
+ private:
+  using Clock = std::chrono::steady_clock;
+  void end_stage(const std::string& next) {
+    const auto now = Clock::now();
+    if (!stage_.empty())
+      ctx_.err << "slipscreen: timing: " << prefix_ << stage_ << ": "
+               << util::number_text(std::chrono::duration<double>(now - stage_start_).count(), 3) << " s\n"
+               << std::flush;
+    stage_ = next;
+    stage_start_ = now;
+  }
+  static long long peak_memory_bytes() {
+    rusage ru{};
+    getrusage(RUSAGE_SELF, &ru);
+    return static_cast<long long>(ru.ru_maxrss) * 1024;  // Linux: kilobytes
+  }
+  Context& ctx_;
+  Clock::time_point start_, stage_start_;
+  std::string stage_, prefix_;
+};
+
 int run_and_report(const RunCommandOptions& o, Context& ctx) {
   scenario::ResolvedScenario s = scenario::load_scenario(o.scenario);
   // --units overrides [output] units (CLI11 has checked the name); the manifest records the result.
   if (!o.units.empty()) s.output.units = *units::unit_system_named(o.units);
   run::RunOptions ro = run_options(o, ctx);
   ro.split = run::cluster_split();
+  std::optional<StageTimer> timer;
+  if (o.timings) timer.emplace(ctx);
   if (run::cluster_rank() != 0) {  // under mpirun: rank 0 alone reports and writes (docs/cluster.md)
     ro.notice = nullptr;
     ro.cost = nullptr;
-    ro.progress = nullptr;
+    ro.progress = timer ? timer->wrap(nullptr) : nullptr;
     run::run_scenario(s, ro);
+    if (timer) timer->finish();
     return kExitOk;
   }
+  if (timer) ro.progress = timer->wrap(std::move(ro.progress));
   const screening::RunSummary r = run::run_scenario(s, ro);
+  if (timer) timer->finish();
   if (ctx.err_is_terminal) ctx.err << "\r\033[K" << std::flush;
 
   print_deterministic(ctx.out, s, r, o.closest);

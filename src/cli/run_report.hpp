@@ -16,6 +16,7 @@ struct RunCommandOptions {
   bool reproducible = false;
   int closest = 10;  // faults listed in the summary
   std::string units;  // "SI" or "oilfield" (--units, checked by CLI11); empty: the scenario's [output] units
+  bool timings = false;  // --timings: each stage's wall time, the bytes exchanged and the peak memory, on stderr
 };
 
 // Loads, runs and reports; returns the exit code (typed errors propagate to cli::run).

@@ -22,9 +22,10 @@ namespace {
 struct State {
   bool active = false;  // inside a session with more than one rank
   int rank = 0, ranks = 1;
-  bool sent = false;                // a rank > 0: its one message has gone to the root
-  std::vector<char> received;       // the root: per rank, its message has arrived
+  bool ended = false;               // a rank > 0: its last message ("done" or "failed") has gone to the root
+  std::vector<char> ended_at_root;  // the root: per rank, its last message has arrived
   probabilistic::RealizationSplit split;
+  unsigned long long bytes_sent = 0, bytes_received = 0;  // payloads of the gathers
 };
 
 State& state() {
@@ -90,7 +91,7 @@ Message receive(int from) {
   const auto len = static_cast<std::size_t>(head[3]);
   r.text.assign(reinterpret_cast<const char*>(m.data()) + sizeof head, len);
   r.payload.assign(m.begin() + static_cast<std::ptrdiff_t>(sizeof head + len), m.end());
-  state().received[static_cast<std::size_t>(from)] = 1;
+  if (r.kind != kPart) state().ended_at_root[static_cast<std::size_t>(from)] = 1;
   return r;
 }
 
@@ -109,16 +110,20 @@ Message receive(int from) {
 std::optional<std::vector<std::vector<std::uint8_t>>> gather(std::vector<std::uint8_t> mine) {
   State& s = state();
   if (s.rank != 0) {
+    s.bytes_sent += mine.size();
     send(message(kPart, 0, kClusterOk, "", mine));
-    s.sent = true;
     return std::nullopt;
   }
   std::vector<std::vector<std::uint8_t>> all;
   all.push_back(std::move(mine));
   std::optional<std::pair<int, Message>> failed;
   for (int r = 1; r < s.ranks; ++r) {
+    if (s.ended_at_root[static_cast<std::size_t>(r)]) throw std::logic_error("gather: rank " + std::to_string(r) + " has ended");
     Message m = receive(r);
-    if (m.kind == kPart) all.push_back(std::move(m.payload));
+    if (m.kind == kPart) {
+      s.bytes_received += m.payload.size();
+      all.push_back(std::move(m.payload));
+    }
     else if (!failed) failed.emplace(r, std::move(m));
   }
   if (failed) rethrow(failed->first, failed->second);
@@ -138,7 +143,7 @@ ClusterSession::ClusterSession(int* argc, char*** argv) {
   MPI_Comm_rank(MPI_COMM_WORLD, &s.rank);
   MPI_Comm_size(MPI_COMM_WORLD, &s.ranks);
   s.active = s.ranks > 1;
-  s.received.assign(static_cast<std::size_t>(s.ranks), 0);
+  s.ended_at_root.assign(static_cast<std::size_t>(s.ranks), 0);
   s.split.part = static_cast<std::size_t>(s.rank);
   s.split.parts = static_cast<std::size_t>(s.ranks);
   s.split.gather = gather;
@@ -152,22 +157,22 @@ int cluster_finish(int code, int category, const std::string& text, std::ostream
   State& s = state();
   if (!s.active) return code;
   if (s.rank != 0) {
-    if (!s.sent) send(message(code == 0 ? kDone : kFailed, code, category, text));
-    s.sent = true;
+    if (!s.ended) send(message(code == 0 ? kDone : kFailed, code, category, text));
+    s.ended = true;
     MPI_Request req;
     int final_code = code, done = 0;
     MPI_Irecv(&final_code, 1, MPI_INT, 0, kTagCode, MPI_COMM_WORLD, &req);
     while (MPI_Test(&req, &done, MPI_STATUS_IGNORE) == MPI_SUCCESS && !done) std::this_thread::sleep_for(kPoll);
     return final_code;
   }
-  for (int r = 1; r < s.ranks; ++r) {
-    if (s.received[static_cast<std::size_t>(r)]) continue;
-    const Message m = receive(r);
-    if (code == 0 && m.kind == kFailed) {
-      err << "slipscreen: error: rank " << r << ": " << m.text << "\n";
-      code = m.code;
+  for (int r = 1; r < s.ranks; ++r)
+    while (!s.ended_at_root[static_cast<std::size_t>(r)]) {  // parts of gathers the root never reached are dropped
+      const Message m = receive(r);
+      if (code == 0 && m.kind == kFailed) {
+        err << "slipscreen: error: rank " << r << ": " << m.text << "\n";
+        code = m.code;
+      }
     }
-  }
   for (int r = 1; r < s.ranks; ++r) MPI_Send(&code, 1, MPI_INT, r, kTagCode, MPI_COMM_WORLD);
   return code;
 }
@@ -182,6 +187,8 @@ int cluster_finish(int code, int, const std::string&, std::ostream&) { return co
 #endif
 
 int cluster_rank() { return state().rank; }
+unsigned long long cluster_bytes_sent() { return state().bytes_sent; }
+unsigned long long cluster_bytes_received() { return state().bytes_received; }
 int cluster_ranks() { return state().ranks; }
 const probabilistic::RealizationSplit* cluster_split() { return state().active ? &state().split : nullptr; }
 

@@ -4,11 +4,13 @@
 // cluster of one and nothing here communicates.
 //
 // Protocol (rank 0 is the root; it alone writes the run folder):
-//   - every rank other than 0 sends the root exactly one message: its block of the
-//     probabilistic screen (through the RealizationSplit's gather), or, if it never got there,
-//     "done" or "failed" (exit code, error category, message) from cluster_finish;
-//   - the root receives one message from every rank — in the gather, or in cluster_finish when
-//     it failed (or had nothing to gather) before — and then sends every rank its exit code;
+//   - every rank other than 0 sends the root, in order, its part of each gather it reaches (the
+//     deterministic screen's segments, then the probabilistic screen's block, through the
+//     RealizationSplit's gather), and last "done" or "failed" (exit code, error category,
+//     message) from cluster_finish; a failed rank sends no further parts;
+//   - the root receives every rank's part in each gather (a "failed" in its place stops the root
+//     with that error), and in cluster_finish drains every rank up to its last message (parts of
+//     gathers the root never reached are dropped), then sends every rank its exit code;
 //   - every rank ends with the root's exit code, so all processes exit alike.
 // A rank's failure reaches the root as an error of the same category ("rank 2: ..."), which the
 // root reports once before it writes anything; the root's own input errors are the same on
@@ -36,8 +38,14 @@ int cluster_rank();
 int cluster_ranks();
 bool built_with_mpi();
 
+// Bytes of results this process has sent to / received from other ranks in the gathers so far
+// (the merge's traffic; the protocol's few small messages apart). 0 with one rank.
+unsigned long long cluster_bytes_sent();
+unsigned long long cluster_bytes_received();
+
 // The split of the probabilistic screen's realizations across the ranks, or nullptr when there is
-// one rank. Its gather may be called once per process.
+// one rank. Every rank calls its gather the same number of times, in the same order (one per
+// split stage of the run).
 const probabilistic::RealizationSplit* cluster_split();
 
 // Error categories as sent between ranks: an ErrorCategory's value, or these two.

@@ -4,6 +4,8 @@
 #include <memory>
 
 #include "core/errors.hpp"
+#include "core/probabilistic/realization_split.hpp"
+#include "core/screen/screen_split.hpp"
 #include "formats/files/run_folder.hpp"
 #include "outputs/run_outputs.hpp"
 #include "run/report_job.hpp"
@@ -63,6 +65,20 @@ std::vector<std::string> files_in(const std::filesystem::path& folder) {
   return files;
 }
 
+// This part's segments of the deterministic screen (screen_split.hpp), gathered: on part 0 the
+// whole screen, equal to the unsplit one; elsewhere only this part's segments (unused).
+screen::ScreenResult deterministic_part(const screening::PreparedRun& prepared, const probabilistic::RealizationSplit& split,
+                                        ProgressBridge* bridge) {
+  const screen::SegmentRange mine = screen::split_segments(prepared.inputs.segments.size(), split.part, split.parts);
+  screen::ScreenResult result = screen::deterministic_screen(prepared.inputs, bridge ? &report : nullptr, bridge, mine);
+  const auto all = split.gather(screen::encode_screen_part(result, mine));
+  if (!all) return result;
+  if (all->size() != split.parts)
+    throw InputError("deterministic screen parts", std::to_string(all->size()), std::to_string(split.parts) + ", one per part");
+  for (std::size_t p = 1; p < all->size(); ++p) screen::merge_screen_part(result, (*all)[p]);
+  return result;
+}
+
 }  // namespace
 
 RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o) {
@@ -77,8 +93,14 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
                      "a run in one process: the screen in depth (model = 'poroelastic_3d') is not split across "
                      "processes (docs/cluster.md)",
                      s.file);
-  if (o.split && o.split->parts > 1 && o.split->part != 0) {  // a helper part: its block only
-    if (s.uncertainty.given) screening::run_probabilistic_screen(s, prepared, s.uncertainty, {}, {}, o.split);
+  const bool split = o.split && o.split->parts > 1;
+  if (split && o.split->part != 0) {  // a helper part: its segments of the deterministic screen, then its block
+    stage("pressure at fault segments");
+    deterministic_part(prepared, *o.split, nullptr);
+    if (s.uncertainty.given) {
+      stage("probabilistic screen");
+      screening::run_probabilistic_screen(s, prepared, s.uncertainty, {}, {}, o.split);
+    }
     return RunSummary{};
   }
   // Refuse the folder before computing (RunFolder checks again when created and when committed).
@@ -108,7 +130,8 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
     depth_prob = screening::depth_probability(s, *depth, *draws);
   }
   stage("pressure at fault segments");
-  const screen::ScreenResult result = screen::deterministic_screen(prepared.inputs, &report, &bridge);
+  const screen::ScreenResult result =
+      split ? deterministic_part(prepared, *o.split, &bridge) : screen::deterministic_screen(prepared.inputs, &report, &bridge);
   std::optional<screening::ProbabilisticRun> prob;
   if (spec.given && !depth) {  // the 3-D model's [uncertainty] drives the screen in depth only
     stage("probabilistic screen");

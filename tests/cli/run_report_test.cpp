@@ -28,3 +28,20 @@ TEST_CASE("progress on a terminal, none otherwise; results on stdout") {
   }
   fs::remove_all(out);
 }
+
+TEST_CASE("--timings prints every stage's wall time and the totals on stderr, outside the summary") {
+  const fs::path out = fs::temp_directory_path() / "slipscreen-cli-timings";
+  fs::remove_all(out);
+  const std::string scenario = std::string(SLIPSCREEN_SOURCE_DIR) + "/tests/data/scenario/tiny/scenario.toml";
+  std::ostringstream o, e;
+  CHECK(slipscreen::cli::run({"run", scenario, "--out", out.string(), "--timings"}, o, e, false) == 0);
+  const std::string err = e.str();
+  CAPTURE(err);
+  for (const char* stage : {"reading faults and wells", "pressure at fault segments", "writing outputs"})
+    CHECK(err.find(std::string("slipscreen: timing: ") + stage + ": ") != std::string::npos);
+  CHECK(err.find("slipscreen: timing: total ") != std::string::npos);
+  CHECK(err.find("sent 0 bytes, received 0 bytes, peak memory ") != std::string::npos);  // one process: no merge
+  CHECK(err.find("rank ") == std::string::npos);
+  CHECK(o.str().find("slipscreen: timing") == std::string::npos);
+  fs::remove_all(out);
+}

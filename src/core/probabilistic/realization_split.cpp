@@ -1,78 +1,30 @@
 // Splitting the realizations across processes; see realization_split.hpp.
 #include "core/probabilistic/realization_split.hpp"
 
-#include <bit>
-#include <cstring>
 #include <string>
 
 #include "core/errors.hpp"
+#include "core/util/word_codec.hpp"
 
 namespace slipscreen::probabilistic {
 namespace {
 
 constexpr std::uint64_t kMagic = 0x736c697073706c32ULL;  // "slipspl2": this encoding's version
 
-class Writer {
+// The partial result's words (core/util/word_codec.hpp), with its sketches.
+class Writer : public util::WordWriter {
  public:
-  void word(std::uint64_t w) { words_.push_back(w); }
-  void words(std::span<const std::uint64_t> v) {
-    word(v.size());
-    words_.insert(words_.end(), v.begin(), v.end());
-  }
-  void doubles(std::span<const double> v) {
-    word(v.size());
-    for (double d : v) word(std::bit_cast<std::uint64_t>(d));
-  }
+  using util::WordWriter::words;
   void sketch(const stats::QuantileSketch& s) { words(s.encode()); }
   void sketch(const stats::WeightedSketch& s) { words(s.encode()); }
-  std::vector<std::uint8_t> bytes() const {
-    std::vector<std::uint8_t> b(words_.size() * sizeof(std::uint64_t));
-    if (!b.empty()) std::memcpy(b.data(), words_.data(), b.size());
-    return b;
-  }
-
- private:
-  std::vector<std::uint64_t> words_;
 };
 
-class Reader {
+class Reader : public util::WordReader {
  public:
-  explicit Reader(std::span<const std::uint8_t> bytes) {
-    if (bytes.size() % sizeof(std::uint64_t) != 0) fail(std::to_string(bytes.size()) + " bytes");
-    words_.resize(bytes.size() / sizeof(std::uint64_t));
-    if (!bytes.empty()) std::memcpy(words_.data(), bytes.data(), bytes.size());
-  }
-  std::uint64_t word() {
-    if (at_ >= words_.size()) fail("truncated at word " + std::to_string(at_));
-    return words_[at_++];
-  }
-  std::size_t count() {
-    const std::uint64_t n = word();
-    if (n > words_.size() - at_) fail("a length of " + std::to_string(n) + " beyond the buffer");
-    return static_cast<std::size_t>(n);
-  }
-  std::vector<std::uint64_t> words() {
-    const std::size_t n = count();
-    std::vector<std::uint64_t> v(words_.begin() + static_cast<std::ptrdiff_t>(at_),
-                                 words_.begin() + static_cast<std::ptrdiff_t>(at_ + n));
-    at_ += n;
-    return v;
-  }
-  std::vector<double> doubles() {
-    std::vector<double> v;
-    for (std::uint64_t w : words()) v.push_back(std::bit_cast<double>(w));
-    return v;
-  }
+  explicit Reader(std::span<const std::uint8_t> bytes)
+      : util::WordReader(bytes, "an encoded block of the probabilistic screen (realization_split.hpp)") {}
   stats::QuantileSketch sketch() { return stats::QuantileSketch::decode(words()); }
   stats::WeightedSketch weighted_sketch() { return stats::WeightedSketch::decode(words()); }
-  bool done() const { return at_ == words_.size(); }
-  [[noreturn]] static void fail(const std::string& what) {
-    throw InputError("partial result", what, "an encoded block of the probabilistic screen (realization_split.hpp)");
-  }
-
- private:
-  std::vector<std::uint64_t> words_;
-  std::size_t at_ = 0;
 };
 
 void add_counts(std::vector<std::uint64_t>& into, const std::vector<std::uint64_t>& from, const char* what) {
@@ -150,11 +102,11 @@ std::vector<std::uint8_t> encode_partial(const PartialResult& p) {
 
 PartialResult decode_partial(std::span<const std::uint8_t> bytes) {
   Reader r(bytes);
-  if (r.word() != kMagic) Reader::fail("an unknown header");
+  if (r.word() != kMagic) r.fail("an unknown header");
   PartialResult p;
   p.columns.begin = r.word();
   p.columns.end = r.word();
-  if (p.columns.end < p.columns.begin) Reader::fail("a column range that ends before it begins");
+  if (p.columns.end < p.columns.begin) r.fail("a column range that ends before it begins");
   p.segments.resize(r.count());
   for (auto& s : p.segments) {
     s.slipped_by = r.words();
@@ -178,7 +130,7 @@ PartialResult decode_partial(std::span<const std::uint8_t> bytes) {
   p.map_oriented = r.words();
   p.map_dangerous_already_critical = r.word();
   p.map_oriented_already_critical = r.word();
-  if (!r.done()) Reader::fail("words after the end");
+  if (!r.done()) r.fail("words after the end");
   return p;
 }
 

@@ -79,7 +79,8 @@ PartialResult decode_partial(std::span<const std::uint8_t> bytes);
 PartialResult merge_partials(std::vector<PartialResult> parts);
 
 // How run_probabilistic splits: this process's part and the exchange. `gather` is called once
-// on every part with its encoded PartialResult; on part 0 it returns every part's bytes in part
+// on every part with its encoded PartialResult (the run layer calls it before that for the
+// deterministic screen's segments, screen/screen_split.hpp); on part 0 it returns every part's bytes in part
 // order, elsewhere nothing (and run_probabilistic then returns only the run-level fields, with
 // ProbabilisticResult::merged_elsewhere set).
 struct RealizationSplit {

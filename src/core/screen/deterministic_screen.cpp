@@ -262,7 +262,7 @@ bool screen_block(const TabulatedField& tf, const CheckPoints& cps, std::size_t 
 
 }  // namespace
 
-ScreenResult deterministic_screen(const ScreenInputs& in, Progress progress, void* user) {
+ScreenResult deterministic_screen(const ScreenInputs& in, Progress progress, void* user, SegmentRange only) {
   if (in.output_times.empty()) throw InputError("output times", "(none)", "at least one output time");
   check_times(in.output_times, "output times");
   check_times(in.tracking_times, "tracking times");
@@ -293,12 +293,13 @@ ScreenResult deterministic_screen(const ScreenInputs& in, Progress progress, voi
   // Segments in blocks, so that progress can be reported and memory stays bounded; each block
   // is computed exactly as a whole run would be (results do not depend on the blocking).
   const std::size_t block = 64;
+  const std::size_t end = std::min(only.end, in.segments.size()), first = std::min(only.first, end);
   std::vector<double> series;  // [local point * G + g]: Δp from the tables
-  for (std::size_t s0 = 0; s0 < in.segments.size(); s0 += block) {
-    const std::size_t s1 = std::min(in.segments.size(), s0 + block);
+  for (std::size_t s0 = first; s0 < end; s0 += block) {
+    const std::size_t s1 = std::min(end, s0 + block);
     const bool clamped = screen_block(tf, cps, s0, s1, series, result.segments);
     result.radius_clamped = result.radius_clamped || clamped;
-    if (progress) progress(double(s1) / double(in.segments.size()), user);
+    if (progress) progress(double(s1 - first) / double(end - first), user);
   }
   return result;
 }

@@ -113,7 +113,18 @@ struct ScreenResult {
 // Progress callback: fraction done in [0, 1] (called from the calling thread only).
 using Progress = void (*)(double fraction, void* user);
 
-// Throws InputError for invalid inputs (named field), as the engines do.
-ScreenResult deterministic_screen(const ScreenInputs& in, Progress progress = nullptr, void* user = nullptr);
+// Segments [first, end) in input order (end clamped to the segment count).
+struct SegmentRange {
+  std::size_t first = 0, end = static_cast<std::size_t>(-1);
+};
+
+// Throws InputError for invalid inputs (named field), as the engines do. With `only`, the
+// pressure (dp, dp_point, well_share, tracked_dp, peak, first crossing and its shares) is
+// computed for those segments alone and left zero (no crossing) for the others; the stresses are
+// resolved for every segment, and the tables span every check point, so each segment in the
+// range gets exactly the values of a whole run (how a run splits across processes,
+// screen_split.hpp).
+ScreenResult deterministic_screen(const ScreenInputs& in, Progress progress = nullptr, void* user = nullptr,
+                                  SegmentRange only = {});
 
 }  // namespace slipscreen::screen

@@ -1,0 +1,86 @@
+// Splitting the deterministic screen across processes; see screen_split.hpp.
+#include "core/screen/screen_split.hpp"
+
+#include <algorithm>
+#include <bit>
+#include <string>
+
+#include "core/errors.hpp"
+#include "core/util/word_codec.hpp"
+
+namespace slipscreen::screen {
+namespace {
+
+constexpr std::uint64_t kMagic = 0x736c697073637231ULL;  // "slipscr1": this encoding's version
+constexpr const char* kWhat = "an encoded part of the deterministic screen (screen_split.hpp)";
+
+// The lengths a segment's vectors must have in `into`.
+void check_length(const util::WordReader& r, std::size_t got, std::size_t want, const char* field) {
+  if (got != want) r.fail(std::string(field) + " of " + std::to_string(got) + " values where " + std::to_string(want) + " fit");
+}
+
+}  // namespace
+
+SegmentRange split_segments(std::size_t segments, std::size_t part, std::size_t parts) {
+  if (parts == 0 || part >= parts)
+    throw InputError("part", std::to_string(part) + " of " + std::to_string(parts), "a part index below the part count");
+  const auto first = [&](std::size_t p) { return segments / parts * p + std::min(p, segments % parts); };
+  return {first(part), first(part + 1)};
+}
+
+std::vector<std::uint8_t> encode_screen_part(const ScreenResult& result, SegmentRange range) {
+  const std::size_t end = std::min(range.end, result.segments.size()), first = std::min(range.first, end);
+  util::WordWriter w;
+  w.word(kMagic);
+  w.word(first);
+  w.word(end);
+  w.word(result.radius_clamped ? 1 : 0);
+  for (std::size_t s = first; s < end; ++s) {
+    const SegmentScreen& g = result.segments[s];
+    w.doubles(g.dp);
+    w.sizes(g.dp_point);
+    w.doubles(g.well_share);
+    w.word(g.first_crossing ? 1 : 0);
+    w.word(std::bit_cast<std::uint64_t>(g.first_crossing.value_or(0.0)));
+    w.doubles(g.crossing_share);
+    w.doubles(g.tracked_dp);
+    w.word(std::bit_cast<std::uint64_t>(g.peak_dp));
+    w.word(std::bit_cast<std::uint64_t>(g.peak_time));
+  }
+  return w.bytes();
+}
+
+void merge_screen_part(ScreenResult& into, std::span<const std::uint8_t> bytes) {
+  util::WordReader r(bytes, kWhat);
+  if (r.word() != kMagic) r.fail("an unknown header");
+  const std::uint64_t first = r.word(), end = r.word();
+  if (end < first || end > into.segments.size())
+    r.fail("segments " + std::to_string(first) + " to " + std::to_string(end) + " of " +
+           std::to_string(into.segments.size()));
+  const std::uint64_t clamped = r.word();
+  if (clamped > 1) r.fail("a clamped flag of " + std::to_string(clamped));
+  into.radius_clamped = into.radius_clamped || clamped == 1;
+  for (std::size_t s = first; s < end; ++s) {
+    SegmentScreen& g = into.segments[s];
+    const std::size_t K = g.dp.size(), KW = g.well_share.size(), G = g.tracked_dp.size();
+    g.dp = r.doubles();
+    check_length(r, g.dp.size(), K, "dp");
+    g.dp_point = r.sizes();
+    check_length(r, g.dp_point.size(), K, "dp_point");
+    g.well_share = r.doubles();
+    check_length(r, g.well_share.size(), KW, "well_share");
+    const std::uint64_t crossed = r.word();
+    const double at = std::bit_cast<double>(r.word());
+    if (crossed > 1) r.fail("a crossing flag of " + std::to_string(crossed));
+    g.first_crossing.reset();
+    if (crossed == 1) g.first_crossing = at;
+    g.crossing_share = r.doubles();
+    g.tracked_dp = r.doubles();
+    check_length(r, g.tracked_dp.size(), G, "tracked_dp");
+    g.peak_dp = std::bit_cast<double>(r.word());
+    g.peak_time = std::bit_cast<double>(r.word());
+  }
+  if (!r.done()) r.fail("words after the end");
+}
+
+}  // namespace slipscreen::screen

@@ -1,0 +1,116 @@
+#include "core/screen/screen_split.hpp"
+
+#include <doctest/doctest.h>
+
+#include <cmath>
+#include <cstring>
+#include <string>
+
+#include "core/errors.hpp"
+
+using namespace slipscreen;
+using namespace slipscreen::screen;
+
+namespace {
+
+constexpr double kPi = 3.14159265358979323846;
+
+// Fictional: two wells with monthly rates (one shut in for a while), seven segments from next to
+// the wells to far away, so that some cross and some do not.
+ScreenInputs split_inputs() {
+  ScreenInputs in;
+  in.stress = {70e6, 90e6, 48e6, 75.0 * kPi / 180, 28e6};
+  in.friction = {0.6, 0.0};
+  in.formation = {0.4, 2.0e5};
+  const double day = 86400.0, t0 = 14610 * day;
+  for (int w = 0; w < 2; ++w) {
+    std::vector<double> starts, rates;
+    for (int m = 0; m < 48; ++m) {
+      starts.push_back(t0 + m * 30 * day);
+      rates.push_back(w == 1 && m >= 20 && m < 26 ? 0.0 : 2.0 + 1.0 * std::sin(0.4 * m + w));
+    }
+    in.wells.push_back({std::string("W").append(std::to_string(w)), w * 2500.0, w * 1500.0, 0.1, hydro::RateHistory(starts, rates)});
+  }
+  const double sx[7] = {300, 1200, 2600, 5000, -6000, 9000, 20000}, sy[7] = {-200, -900, 1700, 5000, -3000, 1000, 0};
+  for (int i = 0; i < 7; ++i)
+    in.segments.push_back({std::string("F:").append(std::to_string(i)), (20.0 + 15.0 * i) * kPi / 180, 80.0 * kPi / 180,
+                           {{sx[i] - 500, sy[i]}, {sx[i] + 500, sy[i] + 50}}, std::nullopt});
+  for (int m = 1; m <= 60; ++m) in.tracking_times.push_back(t0 + m * 30 * day + 2 * day);
+  for (int y = 1; y <= 5; ++y) in.output_times.push_back(t0 + y * 365 * day);
+  return in;
+}
+
+bool same_bits(const std::vector<double>& a, const std::vector<double>& b) {
+  return a.size() == b.size() && (a.empty() || std::memcmp(a.data(), b.data(), a.size() * sizeof(double)) == 0);
+}
+
+}  // namespace
+
+TEST_CASE("split_segments cuts the segments into near-equal runs that cover them once, in order") {
+  for (std::size_t n : {0u, 1u, 7u, 64u, 1000u})
+    for (std::size_t parts : {1u, 2u, 3u, 8u}) {
+      std::size_t next = 0, smallest = n, largest = 0;
+      for (std::size_t p = 0; p < parts; ++p) {
+        const SegmentRange r = split_segments(n, p, parts);
+        CHECK(r.first == next);
+        next = r.end;
+        smallest = std::min(smallest, r.end - r.first);
+        largest = std::max(largest, r.end - r.first);
+      }
+      CHECK(next == n);
+      CHECK(largest - smallest <= 1);
+    }
+  CHECK_THROWS_AS(split_segments(10, 2, 2), InputError);
+}
+
+TEST_CASE("the deterministic screen split into parts and merged equals the whole screen bit for bit") {
+  const ScreenInputs in = split_inputs();
+  const ScreenResult whole = deterministic_screen(in);
+  std::size_t crossed = 0;
+  for (const auto& s : whole.segments) crossed += s.first_crossing ? 1 : 0;
+  REQUIRE(crossed > 0);            // the case exercises crossings and their shares ...
+  REQUIRE(crossed < in.segments.size());  // ... and segments that never cross
+  for (std::size_t parts : {2u, 3u}) {
+    CAPTURE(parts);
+    ScreenResult merged = deterministic_screen(in, nullptr, nullptr, split_segments(in.segments.size(), 0, parts));
+    for (std::size_t p = 1; p < parts; ++p) {
+      const SegmentRange mine = split_segments(in.segments.size(), p, parts);
+      const ScreenResult part = deterministic_screen(in, nullptr, nullptr, mine);
+      CHECK(part.segments[0].tracked_dp == std::vector<double>(whole.segments[0].tracked_dp.size(), 0.0));  // not its segment
+      merge_screen_part(merged, encode_screen_part(part, mine));
+    }
+    CHECK(merged.radius_clamped == whole.radius_clamped);
+    for (std::size_t s = 0; s < whole.segments.size(); ++s) {
+      CAPTURE(s);
+      const SegmentScreen &a = merged.segments[s], &b = whole.segments[s];
+      CHECK(same_bits(a.dp, b.dp));
+      CHECK(a.dp_point == b.dp_point);
+      CHECK(same_bits(a.well_share, b.well_share));
+      CHECK(a.first_crossing == b.first_crossing);
+      CHECK(same_bits(a.crossing_share, b.crossing_share));
+      CHECK(same_bits(a.tracked_dp, b.tracked_dp));
+      CHECK(std::memcmp(&a.peak_dp, &b.peak_dp, sizeof(double)) == 0);
+      CHECK(std::memcmp(&a.peak_time, &b.peak_time, sizeof(double)) == 0);
+      CHECK(std::memcmp(&a.dp_crit, &b.dp_crit, sizeof(double)) == 0);
+    }
+  }
+}
+
+TEST_CASE("a malformed or misfitting part of the deterministic screen is refused") {
+  const ScreenInputs in = split_inputs();
+  ScreenResult into = deterministic_screen(in, nullptr, nullptr, split_segments(in.segments.size(), 0, 2));
+  const SegmentRange mine = split_segments(in.segments.size(), 1, 2);
+  std::vector<std::uint8_t> good = encode_screen_part(deterministic_screen(in, nullptr, nullptr, mine), mine);
+  std::vector<std::uint8_t> truncated(good.begin(), good.end() - 8);
+  CHECK_THROWS_AS(merge_screen_part(into, truncated), InputError);
+  std::vector<std::uint8_t> odd(good.begin(), good.end() - 3);
+  CHECK_THROWS_AS(merge_screen_part(into, odd), InputError);
+  std::vector<std::uint8_t> header = good;
+  header[0] ^= 1;
+  CHECK_THROWS_AS(merge_screen_part(into, header), InputError);
+  ScreenInputs fewer = in;
+  fewer.output_times.pop_back();  // a part of a run with other output times
+  ScreenResult other = deterministic_screen(fewer, nullptr, nullptr, split_segments(in.segments.size(), 0, 2));
+  CHECK_THROWS_AS(merge_screen_part(other, good), InputError);
+  merge_screen_part(into, good);  // the well-formed part still fits
+}
