@@ -9,7 +9,7 @@
 namespace slipscreen::probabilistic {
 namespace {
 
-constexpr std::uint64_t kMagic = 0x736c697073706c32ULL;  // "slipspl2": this encoding's version
+constexpr std::uint64_t kMagic = 0x736c697073706c33ULL;  // "slipspl3": this encoding's version
 
 // The partial result's words (core/util/word_codec.hpp), with its sketches.
 class Writer : public util::WordWriter {
@@ -69,6 +69,13 @@ ColumnRange split_columns(std::size_t columns, std::size_t part, std::size_t par
   return {b, e};
 }
 
+ColumnRange split_rows(std::size_t n, std::size_t part, std::size_t parts) {
+  if (parts == 0 || part >= parts)
+    throw InputError("part", std::to_string(part) + " of " + std::to_string(parts), "a part index below the part count");
+  const auto first = [&](std::size_t p) { return n / parts * p + std::min(p, n % parts); };
+  return {first(part), first(part + 1)};
+}
+
 std::vector<std::uint8_t> encode_partial(const PartialResult& p) {
   Writer w;
   w.word(kMagic);
@@ -92,6 +99,18 @@ std::vector<std::uint8_t> encode_partial(const PartialResult& p) {
     w.sketch(s.conditioned.dp_crit);
     w.word(s.conditioned.dp.size());
     for (const auto& d : s.conditioned.dp) w.sketch(d);
+  }
+  w.word(p.finished_first);
+  w.word(p.finished.size());
+  for (const auto& f : p.finished) {
+    w.doubles(f.sensitivity);
+    w.word(f.median.size());
+    for (const auto& m : f.median) {
+      w.word(m.realization);
+      w.doubles(std::span<const double>(&m.dp, 1));
+      w.word(m.check_point);
+      w.doubles(m.well_dp);
+    }
   }
   w.words(p.map_dangerous);
   w.words(p.map_oriented);
@@ -126,6 +145,20 @@ PartialResult decode_partial(std::span<const std::uint8_t> bytes) {
     s.conditioned.dp.resize(r.count());
     for (auto& d : s.conditioned.dp) d = r.weighted_sketch();
   }
+  p.finished_first = r.word();
+  p.finished.resize(r.count());
+  for (auto& f : p.finished) {
+    f.sensitivity = r.doubles();
+    f.median.resize(r.count());
+    for (auto& m : f.median) {
+      m.realization = r.word();
+      const std::vector<double> dp = r.doubles();
+      if (dp.size() != 1) r.fail("a median Δp of " + std::to_string(dp.size()) + " values");
+      m.dp = dp[0];
+      m.check_point = static_cast<std::size_t>(r.word());
+      m.well_dp = r.doubles();
+    }
+  }
   p.map_dangerous = r.words();
   p.map_oriented = r.words();
   p.map_dangerous_already_critical = r.word();
@@ -159,9 +192,11 @@ PartialResult merge_partials(std::vector<PartialResult> parts) {
         throw InputError("Δp sketches", std::to_string(b.dp.size()), std::to_string(a.dp.size()) + " as in part 0");
       for (std::size_t t = 0; t < a.dp.size(); ++t) a.dp[t].merge(b.dp[t]);
       merge_conditioned(a.conditioned, b.conditioned);
-      if (a.margin.size() != na || b.margin.size() != nb)
-        throw InputError("slip margins", std::to_string(b.margin.size()), "one per column of the part");
-      a.margin.insert(a.margin.end(), b.margin.begin(), b.margin.end());
+      if (!a.margin.empty() || !b.margin.empty()) {
+        if (a.margin.size() != na || b.margin.size() != nb)
+          throw InputError("slip margins", std::to_string(b.margin.size()), "one per column of every part, or none in all");
+        a.margin.insert(a.margin.end(), b.margin.begin(), b.margin.end());
+      }
       if (a.what_if.size() != b.what_if.size())
         throw InputError("what-if counts", std::to_string(b.what_if.size()), std::to_string(a.what_if.size()) + " variants as in part 0");
       for (std::size_t v = 0; v < a.what_if.size(); ++v) add_counts(a.what_if[v], b.what_if[v], "what-if counts");
@@ -172,6 +207,12 @@ PartialResult merge_partials(std::vector<PartialResult> parts) {
                            "one value per column and output time in every part, or none in all");
         a.dp_by_time = concat_by_time(a.dp_by_time, na, b.dp_by_time, nb, n_out);
       }
+    }
+    if (!p.finished.empty()) {
+      if (p.finished_first != m.finished_first + m.finished.size())
+        throw InputError("part " + std::to_string(k) + "'s first finished segment", std::to_string(p.finished_first),
+                         std::to_string(m.finished_first + m.finished.size()) + ", the end of the parts before it");
+      for (auto& f : p.finished) m.finished.push_back(std::move(f));
     }
     add_counts(m.map_dangerous, p.map_dangerous, "map counts");
     add_counts(m.map_oriented, p.map_oriented, "oriented map counts");

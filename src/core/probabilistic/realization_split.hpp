@@ -7,9 +7,10 @@
 // boundaries are multiples of kSplitAlign, the slip tracker's block of matrix products, so each
 // process evaluates exactly the products of the single-process run. The partial results merge
 // exactly: slip counts are integers, the quantile sketches merge bucket for bucket
-// (stats::QuantileSketch), and the data the sensitivities and the median attribution need
-// (slip margins and Δp at the output times of every realization) are concatenated in column
-// order and finished by part 0 as in the single-process run.
+// (stats::QuantileSketch). What needs every realization at a segment (the sensitivities and the
+// median attribution) is computed by one part per segment, for its range of segments: it
+// recomputes those segments' Δp at the output times for every realization (the same products
+// as the tracking, so the same bits) instead of receiving them from the other parts.
 //
 // No communication happens here (src/core has no I/O): the caller supplies `gather`, which the
 // run layer implements with MPI (run/mpi_cluster.hpp).
@@ -48,12 +49,44 @@ struct ConditionedCounts {
   bool operator==(const ConditionedCounts&) const = default;
 };
 
+// Well attribution of a segment's median Δp at one output time. The median realization is the
+// valid realization of rank ⌊(n − 1)/2⌋ (0-based, the sketches' rank convention) when the n
+// valid realizations are ordered by their Δp at the segment at that time (fast path, max over
+// check points), ties by realization index. Its inputs are reproducible from its stream
+// (seed, realization). At the check point holding that maximum (the first one on ties), each
+// well's contribution is evaluated from its similarity table (every source of the well, with
+// its sign, the realization's D, μ/(4π k h) and rate factors). Σ well_dp equals `dp` to the
+// surrogate's accuracy (max_relative_error()); shares are well_dp / Σ well_dp.
+struct MedianAttribution {
+  std::uint64_t realization = 0;  // realization index i (not the rank among valid ones)
+  double dp = 0.0;                // Pa, the median realization's Δp at the segment (fast path)
+  std::size_t check_point = 0;    // index in the segment's check points (holding the maximum)
+  std::vector<double> well_dp;    // Pa, per well
+  // Well w's share of Σ well_dp (0 when the sum is ≤ 0).
+  double share(std::size_t w) const;
+  bool operator==(const MedianAttribution&) const = default;
+};
+
+// What a segment's results need from every realization, computed by one part for its range of
+// segments (split_rows) after it recomputes their Δp at the output times for every realization
+// (slip_tracker.hpp pressure_at_output_times; each part holds every realization's draws): the
+// sensitivities (Spearman ρ with the slip margin) and the median attribution.
+struct FinishedSegment {
+  std::vector<double> sensitivity;
+  std::vector<MedianAttribution> median;
+  bool operator==(const FinishedSegment&) const = default;
+};
+
+// Part `part` of `parts` over `n` rows (segments): near-equal runs, in order.
+ColumnRange split_rows(std::size_t n, std::size_t part, std::size_t parts);
+
 // One segment's results over a block of columns.
 struct SegmentPart {
   std::vector<std::uint64_t> slipped_by, first_slip;
   std::uint64_t already_critical = 0, never_critical = 0;
   stats::QuantileSketch dp_crit;
   std::vector<stats::QuantileSketch> dp;  // per output time
+  // Unsplit runs only (empty in a part; FinishedSegment instead):
   std::vector<double> margin;             // per column: Δp_crit − Δp(final output time)
   std::vector<double> dp_by_time;         // [t · columns + c]; empty unless attribute_median
   std::vector<std::vector<std::uint64_t>> what_if;  // per what-if variant: slips by output time
@@ -64,6 +97,8 @@ struct SegmentPart {
 struct PartialResult {
   ColumnRange columns;
   std::vector<SegmentPart> segments;
+  std::size_t finished_first = 0;          // segments [finished_first, + finished.size()) finished here
+  std::vector<FinishedSegment> finished;
   std::vector<std::uint64_t> map_dangerous, map_oriented;
   std::uint64_t map_dangerous_already_critical = 0, map_oriented_already_critical = 0;
   bool operator==(const PartialResult&) const = default;
@@ -75,7 +110,8 @@ std::vector<std::uint8_t> encode_partial(const PartialResult& p);
 PartialResult decode_partial(std::span<const std::uint8_t> bytes);
 
 // Merges parts whose column ranges follow each other from column 0 (InputError otherwise, or if
-// their shapes differ): counts summed, sketches merged, margins and Δp concatenated.
+// their shapes differ): counts summed, sketches merged, margins and Δp (where present)
+// concatenated, finished segments concatenated (their ranges must follow each other too).
 PartialResult merge_partials(std::vector<PartialResult> parts);
 
 // How run_probabilistic splits: this process's part and the exchange. `gather` is called once

@@ -79,21 +79,30 @@ void add_audit_entries(const Tracking& tr, const SegmentOutcome& o, std::vector<
   }
 }
 
+// The slip margin Δp_crit − Δp(final output time) of segment s in columns c0, c0 + 1, ... (never
+// critical: the largest double, so that it ranks last and the ranks stay finite), from the
+// segment's Δp at the output times (outputs × columns).
+std::vector<double> slip_margins(const Tracking& tr, std::size_t segment, const Eigen::MatrixXd& dp_at_output, std::size_t c0) {
+  const auto s = static_cast<Eigen::Index>(segment);
+  const Eigen::Index last = dp_at_output.rows() - 1;
+  std::vector<double> margin(static_cast<std::size_t>(dp_at_output.cols()));
+  for (std::size_t c = 0; c < margin.size(); ++c) {
+    const double dc = tr.r.dp_crit(s, static_cast<Eigen::Index>(c0 + c));
+    margin[c] = std::isinf(dc) ? std::numeric_limits<double>::max()
+                               : dc - dp_at_output(last, static_cast<Eigen::Index>(c));
+  }
+  return margin;
+}
+
 // Slip counts by output time, the Δp_crit sketch and the counts apart over the outcome's
-// columns (valid realizations c0, c0 + 1, ...); returns the slip margin Δp_crit − Δp(final output
-// time) of every one of them (never critical: the largest double, so that it ranks last and the
-// ranks stay finite).
-std::vector<double> count_slips(const Tracking& tr, const SegmentOutcome& o, std::size_t c0, SegmentPart& res) {
+// columns (valid realizations c0, c0 + 1, ...).
+void count_slips(const Tracking& tr, const SegmentOutcome& o, std::size_t c0, SegmentPart& res) {
   const std::size_t n = o.first_crossing.size(), n_out = tr.settings.output_index.size();
   const auto s = static_cast<Eigen::Index>(o.segment);
-  std::vector<double> margin(n);
   for (std::size_t c = 0; c < n; ++c) {
-    const auto ci = static_cast<Eigen::Index>(c);
     const double dc = tr.r.dp_crit(s, static_cast<Eigen::Index>(c0 + c));
-    margin[c] = dc - o.dp_at_output(static_cast<Eigen::Index>(n_out - 1), ci);
     if (std::isinf(dc)) {
       ++res.never_critical;
-      margin[c] = std::numeric_limits<double>::max();
       continue;
     }
     res.dp_crit.add(dc);
@@ -113,7 +122,6 @@ std::vector<double> count_slips(const Tracking& tr, const SegmentOutcome& o, std
         if (tr.weights) res.conditioned.slipped_by[t] += u;
       }
   }
-  return margin;
 }
 
 // Spearman ρ of every sampled input, then of the fault's strike and dip perturbations, with the
@@ -136,11 +144,12 @@ std::vector<double> sensitivities(const Tracking& tr, std::size_t segment, const
 // The value of rank ⌊(n − 1)/2⌋ among vals[0..n) and the column holding it (ties by index).
 // The sketch's estimate bounds it (relative accuracy α), so only the values in that window need
 // ordering (all of them if the window misses); then the (rank − #smaller)-th equal value.
-std::pair<double, Eigen::Index> median_realization(const double* vals, std::size_t n, const stats::QuantileSketch& sketch,
+// Without a sketch (nullptr) every value is ordered; the result is the same.
+std::pair<double, Eigen::Index> median_realization(const double* vals, std::size_t n, const stats::QuantileSketch* sketch,
                                                    std::vector<double>& sorted) {
   const std::size_t rank = (n - 1) / 2;
-  const double est = sketch.quantile(0.5);
-  const double half = 2.0 * sketch.relative_accuracy() * std::abs(est) + sketch.zero_threshold();
+  const double est = sketch ? sketch->quantile(0.5) : 0.0;
+  const double half = sketch ? 2.0 * sketch->relative_accuracy() * std::abs(est) + sketch->zero_threshold() : -1.0;
   const double lo = est - half, hi = est + half;
   std::size_t below = 0;
   sorted.clear();
@@ -205,14 +214,15 @@ std::vector<double> well_contributions(const Tracking& tr, const hydro::Observat
 
 // The well attribution of the segment's median Δp at every output time (see MedianAttribution).
 std::vector<MedianAttribution> median_attributions(const Tracking& tr, std::size_t segment,
-                                                   const std::vector<double>& by_time, const SegmentResult& res) {
+                                                   const std::vector<double>& by_time,
+                                                   const std::vector<stats::QuantileSketch>& dp) {  // dp may be empty
   const std::size_t n = tr.r.keep.size();
   std::vector<double> sorted;
   sorted.reserve(tr.r.keep.size());
   std::vector<MedianAttribution> out(tr.settings.output_index.size());
   for (std::size_t t = 0; t < out.size(); ++t) {
     const auto [median, c] =
-        median_realization(by_time.data() + t * n, n, res.dp[t], sorted);
+        median_realization(by_time.data() + t * n, n, dp.empty() ? nullptr : &dp[t], sorted);
     MedianAttribution& m = out[t];
     m.realization = static_cast<std::uint64_t>(tr.r.keep[static_cast<std::size_t>(c)]);
     m.dp = median;
@@ -222,8 +232,10 @@ std::vector<MedianAttribution> median_attributions(const Tracking& tr, std::size
   return out;
 }
 
-// A segment's results over the outcome's columns (valid realizations c0, c0 + 1, ...).
-SegmentPart segment_part(const Tracking& tr, const SegmentOutcome& o, std::size_t c0) {
+// A segment's results over the outcome's columns (valid realizations c0, c0 + 1, ...); with
+// `keep_by_time` (an unsplit run) also its slip margins and (with attribute_median) its Δp by
+// output time, for finish_over_all.
+SegmentPart segment_part(const Tracking& tr, const SegmentOutcome& o, std::size_t c0, bool keep_by_time) {
   const std::size_t n = o.first_crossing.size(), n_out = tr.settings.output_index.size();
   SegmentPart res;
   res.slipped_by.assign(n_out, 0);
@@ -241,16 +253,46 @@ SegmentPart segment_part(const Tracking& tr, const SegmentOutcome& o, std::size_
         res.conditioned.dp[t].add(by_time(static_cast<Eigen::Index>(c), static_cast<Eigen::Index>(t)),
                                   tr.weights->units[c0 + c]);
   }
-  res.margin = count_slips(tr, o, c0, res);
+  count_slips(tr, o, c0, res);
+  if (keep_by_time) res.margin = slip_margins(tr, o.segment, o.dp_at_output, c0);
   for (const auto& v : tr.variants)
     res.what_if.push_back(variant_segment_slips(v, tr.r.dp_crit, o.segment, o.first_crossing, c0, tr.settings.output_index));
-  if (tr.settings.attribute_median) res.dp_by_time.assign(by_time.data(), by_time.data() + by_time.size());
+  if (keep_by_time && tr.settings.attribute_median) res.dp_by_time.assign(by_time.data(), by_time.data() + by_time.size());
   return res;
 }
 
-// The segment's results from its part over every valid realization: the counts, then the
-// sensitivities and the median attribution, which need every realization.
-SegmentResult finish_segment(const Tracking& tr, std::size_t segment, SegmentPart&& part) {
+// What needs every realization at a segment: the sensitivities from the slip margins, and the
+// median attribution from Δp by output time ([t · n + c]) and its sketches.
+FinishedSegment finish_over_all(const Tracking& tr, std::size_t segment, const std::vector<double>& margin,
+                                const std::vector<double>& by_time, const std::vector<stats::QuantileSketch>& dp) {
+  FinishedSegment f;
+  f.sensitivity = sensitivities(tr, segment, margin);
+  if (tr.settings.attribute_median) f.median = median_attributions(tr, segment, by_time, dp);
+  return f;
+}
+
+// finish_over_all in a part of a split run, for one of its segments: Δp at the output times for
+// every realization, recomputed bit for bit as the tracking computes it (pressure_at_output_times).
+// No sketches (the merged ones are on part 0): the median search orders every value, which costs
+// less than building them.
+// `at_output` and `by_time` are one thread's buffers, reused from segment to segment (fresh
+// allocations of this size cost more in page faults than the products).
+FinishedSegment finish_recomputed(const Tracking& tr, std::size_t segment, Eigen::MatrixXd& at_output,
+                                  std::vector<double>& by_time) {
+  pressure_at_output_times(*tr.pm.surrogate, tr.pm.segment_points[segment], tr.pm.draws, tr.settings.output_index,
+                           at_output);
+  by_time.clear();
+  if (tr.settings.attribute_median) {
+    const auto n = static_cast<std::size_t>(at_output.cols());
+    by_time.resize(n * static_cast<std::size_t>(at_output.rows()));
+    for (Eigen::Index t = 0; t < at_output.rows(); ++t)
+      for (std::size_t c = 0; c < n; ++c) by_time[static_cast<std::size_t>(t) * n + c] = at_output(t, static_cast<Eigen::Index>(c));
+  }
+  return finish_over_all(tr, segment, slip_margins(tr, segment, at_output, 0), by_time, {});
+}
+
+// The segment's results: the counts of its (merged) part and what needs every realization.
+SegmentResult finish_segment(SegmentPart&& part, FinishedSegment&& finished) {
   SegmentResult res;
   res.slipped_by = std::move(part.slipped_by);
   res.first_slip = std::move(part.first_slip);
@@ -259,8 +301,8 @@ SegmentResult finish_segment(const Tracking& tr, std::size_t segment, SegmentPar
   res.dp_crit = std::move(part.dp_crit);
   res.dp = std::move(part.dp);
   res.conditioned = std::move(part.conditioned);
-  res.sensitivity = sensitivities(tr, segment, part.margin);
-  if (tr.settings.attribute_median) res.median = median_attributions(tr, segment, part.dp_by_time, res);
+  res.sensitivity = std::move(finished.sensitivity);
+  res.median = std::move(finished.median);
   return res;
 }
 
@@ -274,9 +316,10 @@ void track_segments(const Tracking& tr, ProbabilisticResult& out) {
   track_slip(*tr.pm.surrogate, tr.pm.segment_points, tr.pm.draws, tr.r.dp_crit, tr.settings.output_index,
              [&](const SegmentOutcome& o) {
                add_audit_entries(tr, o, audit_by_segment[o.segment]);
-               SegmentPart part = segment_part(tr, o, 0);
+               SegmentPart part = segment_part(tr, o, 0, true);
                for (std::size_t v = 0; v < part.what_if.size(); ++v) out.what_if[v][o.segment] = std::move(part.what_if[v]);
-               out.segments[o.segment] = finish_segment(tr, o.segment, std::move(part));
+               FinishedSegment f = finish_over_all(tr, o.segment, part.margin, part.dp_by_time, part.dp);
+               out.segments[o.segment] = finish_segment(std::move(part), std::move(f));
              });
   for (auto& v : audit_by_segment)
     for (auto& a : v) out.audit.push_back(std::move(a));
@@ -285,8 +328,10 @@ void track_segments(const Tracking& tr, ProbabilisticResult& out) {
   });
 }
 
-// This part's block of valid realizations: segment parts and map counts.
-PartialResult track_part(const Tracking& tr, ColumnRange cols) {
+// This part's block of valid realizations (segment parts and map counts), and its range of
+// segments finished over every realization.
+PartialResult track_part(const Tracking& tr, std::size_t part, std::size_t parts) {
+  const ColumnRange cols = split_columns(tr.r.keep.size(), part, parts);
   PartialResult p;
   p.columns = cols;
   p.segments.resize(tr.segments.size());
@@ -294,7 +339,20 @@ PartialResult track_part(const Tracking& tr, ColumnRange cols) {
   const PressureDraws draws{tr.pm.draws.basis.middleCols(c0, nc), tr.pm.draws.scale.middleCols(c0, nc)};
   const Eigen::MatrixXf crit = tr.r.dp_crit.middleCols(c0, nc);
   track_slip(*tr.pm.surrogate, tr.pm.segment_points, draws, crit, tr.settings.output_index,
-             [&](const SegmentOutcome& o) { p.segments[o.segment] = segment_part(tr, o, cols.begin); });
+             [&](const SegmentOutcome& o) { p.segments[o.segment] = segment_part(tr, o, cols.begin, false); });
+  const ColumnRange mine = split_rows(tr.segments.size(), part, parts);
+  p.finished_first = mine.begin;
+  p.finished.resize(mine.size());
+  util::ParallelErrors errors;
+#pragma omp parallel
+  {
+    Eigen::MatrixXd at_output;
+    std::vector<double> by_time;
+#pragma omp for schedule(dynamic, 1)
+    for (std::size_t s = mine.begin; s < mine.end; ++s)
+      errors.iteration(s, [&] { p.finished[s - mine.begin] = finish_recomputed(tr, s, at_output, by_time); });
+  }
+  errors.rethrow();
   ProbabilityMaps maps = probability_maps(tr.pm, tr.r, tr.settings, cols);
   p.map_dangerous = std::move(maps.dangerous);
   p.map_oriented = std::move(maps.oriented);
@@ -306,7 +364,7 @@ PartialResult track_part(const Tracking& tr, ColumnRange cols) {
 // Tracks this part's block and hands it to split.gather; on part 0, merges every part and fills
 // out's segments and maps as the unsplit run does (returns true), elsewhere returns false.
 bool merge_split(const Tracking& tr, const RealizationSplit& split, ProbabilisticResult& out) {
-  auto all = split.gather(encode_partial(track_part(tr, split_columns(tr.r.keep.size(), split.part, split.parts))));
+  auto all = split.gather(encode_partial(track_part(tr, split.part, split.parts)));
   if (!all) return false;
   if (all->size() != split.parts)
     throw InputError("partial results", std::to_string(all->size()), std::to_string(split.parts) + ", one per part");
@@ -315,6 +373,9 @@ bool merge_split(const Tracking& tr, const RealizationSplit& split, Probabilisti
   PartialResult m = merge_partials(std::move(parts));
   if (m.columns.end != tr.r.keep.size())
     throw InputError("merged columns", std::to_string(m.columns.end), std::to_string(tr.r.keep.size()) + " valid realizations");
+  if (m.finished_first != 0 || m.finished.size() != m.segments.size())
+    throw InputError("finished segments", std::to_string(m.finished.size()) + " from " + std::to_string(m.finished_first),
+                     "every one of the " + std::to_string(m.segments.size()) + " segments, from 0");
   out.segments.resize(m.segments.size());
   out.what_if.assign(tr.variants.size(), std::vector<std::vector<std::uint64_t>>(m.segments.size()));
   util::ParallelErrors errors;
@@ -324,7 +385,7 @@ bool merge_split(const Tracking& tr, const RealizationSplit& split, Probabilisti
       if (m.segments[s].what_if.size() != tr.variants.size())
         throw InputError("what-if counts", std::to_string(m.segments[s].what_if.size()), "one per variant");
       for (std::size_t v = 0; v < tr.variants.size(); ++v) out.what_if[v][s] = std::move(m.segments[s].what_if[v]);
-      out.segments[s] = finish_segment(tr, s, std::move(m.segments[s]));
+      out.segments[s] = finish_segment(std::move(m.segments[s]), std::move(m.finished[s]));
     });
   errors.rethrow();
   out.map_dangerous = std::move(m.map_dangerous);

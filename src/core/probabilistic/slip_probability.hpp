@@ -44,22 +44,7 @@ struct AuditEntry {
   std::vector<double> dp_at_output;           // Pa, fast path
 };
 
-// Well attribution of a segment's median Δp at one output time. The median realization is the
-// valid realization of rank ⌊(n − 1)/2⌋ (0-based, the sketches' rank convention) when the n
-// valid realizations are ordered by their Δp at the segment at that time (fast path, max over
-// check points), ties by realization index. Its inputs are reproducible from its stream
-// (seed, realization). At the check point holding that maximum (the first one on ties), each
-// well's contribution is evaluated from its similarity table (every source of the well, with
-// its sign, the realization's D, μ/(4π k h) and rate factors). Σ well_dp equals `dp` to the
-// surrogate's accuracy (max_relative_error()); shares are well_dp / Σ well_dp.
-struct MedianAttribution {
-  std::uint64_t realization = 0;  // realization index i (not the rank among valid ones)
-  double dp = 0.0;                // Pa, the median realization's Δp at the segment (fast path)
-  std::size_t check_point = 0;    // index in the segment's check points (holding the maximum)
-  std::vector<double> well_dp;    // Pa, per well
-  // Well w's share of Σ well_dp (0 when the sum is ≤ 0).
-  double share(std::size_t w) const;
-};
+// Well attribution of a segment's median Δp: MedianAttribution (realization_split.hpp).
 
 struct SegmentResult {
   std::vector<std::uint64_t> slipped_by;  // per output time: injection-induced slips by then
@@ -74,7 +59,7 @@ struct SegmentResult {
   std::vector<double> sensitivity;        // Spearman ρ of each input with the final slip margin
   // Per output time: the well attribution of the median Δp (empty unless RunSettings::
   // attribute_median). Not a mergeable accumulator: it needs every realization's Δp at the
-  // segment, so it merges across segment splits only (realization splits must gather Δp first).
+  // segment, so in a split run one part computes it over every realization (FinishedSegment).
   std::vector<MedianAttribution> median;
   // Weighted by the realizations' likelihood when the run is conditioned on observations
   // (RunSettings::observations; conditioning.hpp); empty otherwise.

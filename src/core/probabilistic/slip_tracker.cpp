@@ -210,4 +210,23 @@ void track_slip(const hydro::PressureSurrogate& surrogate, const std::vector<std
   errors.rethrow();
 }
 
+void pressure_at_output_times(const hydro::PressureSurrogate& surrogate, const std::vector<std::size_t>& points,
+                              const PressureDraws& draws, std::span<const std::size_t> output_index, Eigen::MatrixXd& out) {
+  const Eigen::Index n_real = draws.basis.cols();
+  const Eigen::MatrixXf no_thresholds(1, n_real);
+  check_track_inputs(1, n_real, no_thresholds, surrogate.time_count(), output_index);
+  const std::vector<Eigen::Index> out_rows(output_index.begin(), output_index.end());
+  const Eigen::MatrixXd no_parts;
+  const TrackInputs in{surrogate, draws, no_thresholds, out_rows, no_parts, surrogate.time_count(), surrogate.group_count(),
+                       0, static_cast<Eigen::Index>(surrogate.node_count()), n_real};
+  Workspace ws;
+  ws.all.resize(static_cast<std::size_t>(n_real));
+  for (Eigen::Index r = 0; r < n_real; ++r) ws.all[static_cast<std::size_t>(r)] = r;
+  SegmentOutcome res;
+  res.dp_at_output.swap(out);  // its storage is reused when the shape is the same
+  res.dp_at_output.setZero(static_cast<Eigen::Index>(out_rows.size()), n_real);
+  pressure_at_outputs(in, points, ws, res);  // the same products, in the same blocks, as track_slip
+  out.swap(res.dp_at_output);
+}
+
 }  // namespace slipscreen::probabilistic

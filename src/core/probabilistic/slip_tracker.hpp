@@ -51,4 +51,13 @@ void track_slip(const hydro::PressureSurrogate& surrogate, const std::vector<std
                 std::span<const std::size_t> output_index,
                 const std::function<void(const SegmentOutcome&)>& visit);
 
+// Δp (max over `points`) at the output times for every realization of `draws` into `out`
+// (outputs × N; its storage is reused): the values track_slip hands over as
+// SegmentOutcome::dp_at_output, bit for bit (the same matrix products in the same blocks of
+// realizations). A run split across processes recomputes them where it needs every
+// realization's (sensitivities and median attribution, slip_probability.cpp) rather than
+// sending them between processes.
+void pressure_at_output_times(const hydro::PressureSurrogate& surrogate, const std::vector<std::size_t>& points,
+                              const PressureDraws& draws, std::span<const std::size_t> output_index, Eigen::MatrixXd& out);
+
 }  // namespace slipscreen::probabilistic
