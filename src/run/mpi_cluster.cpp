@@ -26,6 +26,8 @@ struct State {
   std::vector<char> ended_at_root;  // the root: per rank, its last message has arrived
   probabilistic::RealizationSplit split;
   unsigned long long bytes_sent = 0, bytes_received = 0;  // payloads of the gathers
+  bool stopped = false;  // a rank > 0: the root's exit code arrived while it waited for a share
+  int stop_code = 0;
 };
 
 State& state() {
@@ -36,7 +38,7 @@ State& state() {
 #ifdef SLIPSCREEN_MPI
 
 enum Kind : std::int64_t { kPart = 1, kDone = 2, kFailed = 3 };
-constexpr int kTagMessage = 41, kTagCode = 42;
+constexpr int kTagMessage = 41, kTagCode = 42, kTagShare = 43;
 constexpr auto kPoll = std::chrono::milliseconds(2);
 
 // A message: kind, exit code, category, message length, then the message and the payload.
@@ -130,6 +132,63 @@ std::optional<std::vector<std::vector<std::uint8_t>>> gather(std::vector<std::ui
   return all;
 }
 
+// Every rank's piece to every rank: the root gathers them (as in gather) and sends the whole set
+// back to each rank. A rank waiting for the set also watches for the root's exit code, which the
+// root sends first when it fails, so that no rank waits for a set that never comes.
+std::vector<std::vector<std::uint8_t>> all_gather(std::vector<std::uint8_t> mine) {
+  State& s = state();
+  if (s.rank == 0) {
+    auto all = *gather(std::move(mine));  // rethrows a rank's failure
+    std::vector<std::uint8_t> set;
+    for (const auto& piece : all) {
+      const std::uint64_t n = piece.size();
+      const auto* head = reinterpret_cast<const std::uint8_t*>(&n);
+      set.insert(set.end(), head, head + sizeof n);
+      set.insert(set.end(), piece.begin(), piece.end());
+    }
+    if (set.size() > static_cast<std::size_t>(INT32_MAX))
+      throw IoError("MPI: a shared set of " + std::to_string(set.size()) +
+                    " bytes exceeds the 2 GiB of one message (docs/cluster.md)");
+    for (int r = 1; r < s.ranks; ++r) {
+      check(MPI_Send(set.data(), static_cast<int>(set.size()), MPI_BYTE, r, kTagShare, MPI_COMM_WORLD), "MPI_Send");
+      s.bytes_sent += set.size();
+    }
+    return all;
+  }
+  gather(std::move(mine));
+  MPI_Status st;
+  for (;;) {
+    int ready = 0;
+    check(MPI_Iprobe(0, kTagShare, MPI_COMM_WORLD, &ready, &st), "MPI_Iprobe");
+    if (ready) break;
+    check(MPI_Iprobe(0, kTagCode, MPI_COMM_WORLD, &ready, MPI_STATUS_IGNORE), "MPI_Iprobe");
+    if (ready) {
+      check(MPI_Recv(&s.stop_code, 1, MPI_INT, 0, kTagCode, MPI_COMM_WORLD, MPI_STATUS_IGNORE), "MPI_Recv");
+      s.stopped = true;
+      throw Error(ErrorCategory::io, "stopped: rank 0 ended the run");
+    }
+    std::this_thread::sleep_for(kPoll);
+  }
+  int n = 0;
+  check(MPI_Get_count(&st, MPI_BYTE, &n), "MPI_Get_count");
+  std::vector<std::uint8_t> set(static_cast<std::size_t>(n));
+  check(MPI_Recv(set.data(), n, MPI_BYTE, 0, kTagShare, MPI_COMM_WORLD, MPI_STATUS_IGNORE), "MPI_Recv");
+  s.bytes_received += set.size();
+  std::vector<std::vector<std::uint8_t>> all;
+  for (std::size_t at = 0; at < set.size();) {
+    std::uint64_t len = 0;
+    if (set.size() - at < sizeof len) throw IoError("MPI: a truncated shared set from rank 0");
+    std::memcpy(&len, set.data() + at, sizeof len);
+    at += sizeof len;
+    if (len > set.size() - at) throw IoError("MPI: a truncated shared set from rank 0");
+    all.emplace_back(set.begin() + static_cast<std::ptrdiff_t>(at), set.begin() + static_cast<std::ptrdiff_t>(at + len));
+    at += len;
+  }
+  if (all.size() != static_cast<std::size_t>(s.ranks))
+    throw IoError("MPI: a shared set of " + std::to_string(all.size()) + " pieces from rank 0");
+  return all;
+}
+
 #endif
 
 }  // namespace
@@ -147,6 +206,7 @@ ClusterSession::ClusterSession(int* argc, char*** argv) {
   s.split.part = static_cast<std::size_t>(s.rank);
   s.split.parts = static_cast<std::size_t>(s.ranks);
   s.split.gather = gather;
+  s.split.all_gather = all_gather;
 }
 
 ClusterSession::~ClusterSession() { MPI_Finalize(); }
@@ -159,12 +219,17 @@ int cluster_finish(int code, int category, const std::string& text, std::ostream
   if (s.rank != 0) {
     if (!s.ended) send(message(code == 0 ? kDone : kFailed, code, category, text));
     s.ended = true;
+    if (s.stopped) return s.stop_code;  // the root's code has arrived already
     MPI_Request req;
     int final_code = code, done = 0;
     MPI_Irecv(&final_code, 1, MPI_INT, 0, kTagCode, MPI_COMM_WORLD, &req);
     while (MPI_Test(&req, &done, MPI_STATUS_IGNORE) == MPI_SUCCESS && !done) std::this_thread::sleep_for(kPoll);
     return final_code;
   }
+  // A failed root sends its code first: a rank waiting for a shared set stops on it.
+  const bool sent_first = code != 0;
+  if (sent_first)
+    for (int r = 1; r < s.ranks; ++r) MPI_Send(&code, 1, MPI_INT, r, kTagCode, MPI_COMM_WORLD);
   for (int r = 1; r < s.ranks; ++r)
     while (!s.ended_at_root[static_cast<std::size_t>(r)]) {  // parts of gathers the root never reached are dropped
       const Message m = receive(r);
@@ -173,7 +238,8 @@ int cluster_finish(int code, int category, const std::string& text, std::ostream
         code = m.code;
       }
     }
-  for (int r = 1; r < s.ranks; ++r) MPI_Send(&code, 1, MPI_INT, r, kTagCode, MPI_COMM_WORLD);
+  if (!sent_first)  // every rank gets the final code (sent above already when the root failed)
+    for (int r = 1; r < s.ranks; ++r) MPI_Send(&code, 1, MPI_INT, r, kTagCode, MPI_COMM_WORLD);
   return code;
 }
 

@@ -70,7 +70,9 @@ std::vector<std::string> files_in(const std::filesystem::path& folder) {
 screen::ScreenResult deterministic_part(const screening::PreparedRun& prepared, const probabilistic::RealizationSplit& split,
                                         ProgressBridge* bridge) {
   const screen::SegmentRange mine = screen::split_segments(prepared.inputs.segments.size(), split.part, split.parts);
-  screen::ScreenResult result = screen::deterministic_screen(prepared.inputs, bridge ? &report : nullptr, bridge, mine);
+  const util::WorkShare share = split.work_share();
+  screen::ScreenResult result =
+      screen::deterministic_screen(prepared.inputs, bridge ? &report : nullptr, bridge, mine, &share);
   const auto all = split.gather(screen::encode_screen_part(result, mine));
   if (!all) return result;
   if (all->size() != split.parts)

@@ -8,6 +8,7 @@
 
 #include "core/errors.hpp"
 #include "core/util/parallel_errors.hpp"
+#include "core/util/word_codec.hpp"
 
 namespace slipscreen::hydro {
 namespace {
@@ -88,6 +89,36 @@ void sum_tables(const std::vector<SimilarityTable>& tables, std::span<const Pres
   errors.rethrow();
 }
 
+// sum_tables for this part's range of points, then every other part's range from the exchange.
+void sum_tables_shared(const std::vector<SimilarityTable>& tables, std::span<const PressureSource> sources,
+                       std::span<const ObservationPoint> points, std::size_t n_groups, const std::vector<double>& inv4d,
+                       const util::WorkShare& share, std::vector<Eigen::MatrixXd>& g) {
+  const auto [first, end] = util::part_range(points.size(), share.part, share.parts);
+  std::vector<Eigen::MatrixXd> mine(g.begin() + static_cast<std::ptrdiff_t>(first * n_groups),
+                                    g.begin() + static_cast<std::ptrdiff_t>(end * n_groups));
+  sum_tables(tables, sources, points.subspan(first, end - first), n_groups, inv4d, mine);
+  util::WordWriter out;
+  out.word(first);
+  out.word(end);
+  for (const auto& m : mine) out.doubles(std::span<const double>(m.data(), static_cast<std::size_t>(m.size())));
+  std::move(mine.begin(), mine.end(), g.begin() + static_cast<std::ptrdiff_t>(first * n_groups));
+  const auto all = share.all_gather(out.bytes());
+  if (all.size() != share.parts)
+    throw InputError("shared pressure surrogate", std::to_string(all.size()) + " parts", std::to_string(share.parts));
+  for (std::size_t p = 0; p < all.size(); ++p) {
+    if (p == share.part) continue;
+    util::WordReader in(all[p], "the pressure surrogate of another process (pressure_surrogate.hpp)");
+    const auto [pf, pe] = util::part_range(points.size(), p, share.parts);
+    if (in.word() != pf || in.word() != pe) in.fail("a point range other than part " + std::to_string(p) + "'s");
+    for (std::size_t i = pf * n_groups; i < pe * n_groups; ++i) {
+      const std::vector<double> v = in.doubles();
+      if (v.size() != static_cast<std::size_t>(g[i].size())) in.fail("a table of " + std::to_string(v.size()) + " values");
+      std::copy(v.begin(), v.end(), g[i].data());
+    }
+    if (!in.done()) in.fail("words after the end");
+  }
+}
+
 // max_k |G_{p,g}(t_k, D_d)| per (point, group) and node d.
 std::vector<double> column_maxima(const std::vector<Eigen::MatrixXd>& g, std::size_t n) {
   std::vector<double> col_max(g.size() * n);
@@ -145,7 +176,7 @@ double estimate_error(const PressureSurrogate& surrogate, const std::vector<Simi
 PressureSurrogate::PressureSurrogate(const std::vector<SimilarityTable>& tables,
                                      std::span<const PressureSource> sources,
                                      std::span<const ObservationPoint> points, std::size_t group_count,
-                                     double d_min, double d_max, std::size_t nodes)
+                                     double d_min, double d_max, std::size_t nodes, const util::WorkShare* share)
     : n_points_(points.size()), n_groups_(group_count) {
   check_inputs(tables, sources, group_count, d_min, d_max);
   n_times_ = tables.front().time_count();
@@ -155,7 +186,10 @@ PressureSurrogate::PressureSurrogate(const std::vector<SimilarityTable>& tables,
   const std::size_t n = ln_nodes_.size();
   g_.assign(n_points_ * n_groups_,
             Eigen::MatrixXd::Zero(static_cast<Eigen::Index>(n_times_), static_cast<Eigen::Index>(n)));
-  sum_tables(tables, sources, points, n_groups_, placed.inv4d, g_);
+  if (share && share->active())
+    sum_tables_shared(tables, sources, points, n_groups_, placed.inv4d, *share, g_);
+  else
+    sum_tables(tables, sources, points, n_groups_, placed.inv4d, g_);
   col_max_ = column_maxima(g_, n);
   max_error_ = estimate_error(*this, tables, sources, points, ln_nodes_);
 }

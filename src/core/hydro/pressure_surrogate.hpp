@@ -21,6 +21,7 @@
 #include <vector>
 
 #include "core/hydro/similarity_table.hpp"
+#include "core/util/work_share.hpp"
 
 namespace slipscreen::hydro {
 
@@ -40,10 +41,13 @@ struct PressureSource {
 class PressureSurrogate {
  public:
   // Tabulates G for every point and rate group at `nodes` Chebyshev nodes in
-  // [ln d_min, ln d_max] (one node when d_min == d_max). OpenMP over points.
+  // [ln d_min, ln d_max] (one node when d_min == d_max). OpenMP over points. With an active
+  // `share` each part tabulates its range of points (util::part_range) and the parts exchange
+  // them, so every part holds the whole surrogate, bit for bit that of one process (a point's G
+  // sums the sources in the same order whatever the other points).
   PressureSurrogate(const std::vector<SimilarityTable>& tables, std::span<const PressureSource> sources,
                     std::span<const ObservationPoint> points, std::size_t group_count, double d_min,
-                    double d_max, std::size_t nodes = 16);
+                    double d_max, std::size_t nodes = 16, const util::WorkShare* share = nullptr);
 
   std::size_t point_count() const { return n_points_; }
   std::size_t group_count() const { return n_groups_; }

@@ -1,5 +1,8 @@
 #include "core/hydro/similarity_table.hpp"
 
+#include <bit>
+#include <cstdint>
+
 #include <algorithm>
 #include <cmath>
 #include <limits>
@@ -10,6 +13,7 @@
 #include "core/hydro/well_function.hpp"
 #include "core/util/number_text.hpp"
 #include "core/util/parallel_errors.hpp"
+#include "core/util/word_codec.hpp"
 
 namespace slipscreen::hydro {
 namespace {
@@ -205,30 +209,94 @@ double SimilarityTable::direct(const RateSteps& steps, double x, double t, doubl
   return h;
 }
 
-std::vector<SimilarityTable> build_tables(const std::vector<RateSteps>& steps,
-                                          std::span<const double> tracking_times, const SimilarityGrid& grid) {
+SimilarityTable SimilarityTable::from_values(const SimilarityGrid& grid, std::size_t nodes, std::size_t times,
+                                             std::vector<float> values) {
+  if (values.size() != nodes * times)
+    throw InputError("similarity table values", std::to_string(values.size()),
+                     std::to_string(nodes) + " nodes x " + std::to_string(times) + " times");
+  SimilarityTable t;
+  t.grid_ = grid;
+  t.n_nodes_ = nodes;
+  t.n_times_ = times;
+  t.values_ = std::move(values);
+  return t;
+}
+
+namespace {
+
+// Tables of the wells [first, end) into tables[first .. end).
+void build_range(const std::vector<RateSteps>& steps, std::span<const double> tracking_times, const SimilarityGrid& grid,
+                 std::size_t first, std::size_t end, std::vector<SimilarityTable>& tables) {
   bool lattice = !tracking_times.empty();
-  double first = tracking_times.empty() ? 0.0 : tracking_times.back();
+  double earliest = tracking_times.empty() ? 0.0 : tracking_times.back();
   for (double t : tracking_times) lattice = lattice && whole_quanta(t, kDay);
-  for (const auto& s : steps)
+  for (const auto& s : steps)  // every well's steps decide the lattice and its lags, as in one process
     for (double t : s.time) {
       lattice = lattice && whole_quanta(t, kDay);
-      first = std::min(first, t);
+      earliest = std::min(earliest, t);
     }
-  std::vector<SimilarityTable> tables(steps.size());
   util::ParallelErrors errors;
   if (lattice && !tracking_times.empty()) {
-    const auto max_lag = static_cast<std::size_t>(std::llround((tracking_times.back() - first) / kDay)) + 1;
+    const auto max_lag = static_cast<std::size_t>(std::llround((tracking_times.back() - earliest) / kDay)) + 1;
     const LagKernel kernel(grid, kDay, max_lag);
 #pragma omp parallel for schedule(dynamic, 1)
-    for (std::size_t w = 0; w < steps.size(); ++w)
+    for (std::size_t w = first; w < end; ++w)
       errors.iteration(w, [&] { tables[w] = SimilarityTable(steps[w], tracking_times, grid, kernel); });
   } else {
 #pragma omp parallel for schedule(dynamic, 1)
-    for (std::size_t w = 0; w < steps.size(); ++w)
+    for (std::size_t w = first; w < end; ++w)
       errors.iteration(w, [&] { tables[w] = SimilarityTable(steps[w], tracking_times, grid); });
   }
   errors.rethrow();
+}
+
+}  // namespace
+
+std::vector<SimilarityTable> build_tables(const std::vector<RateSteps>& steps,
+                                          std::span<const double> tracking_times, const SimilarityGrid& grid,
+                                          const util::WorkShare* share) {
+  std::vector<SimilarityTable> tables(steps.size());
+  if (!share || !share->active()) {
+    build_range(steps, tracking_times, grid, 0, steps.size(), tables);
+    return tables;
+  }
+  const auto [first, end] = util::part_range(steps.size(), share->part, share->parts);
+  build_range(steps, tracking_times, grid, first, end, tables);
+  util::WordWriter out;
+  out.word(first);
+  out.word(end);
+  for (std::size_t w = first; w < end; ++w) {
+    const auto& v = tables[w].raw_values();
+    out.word(tables[w].node_count());
+    out.word(tables[w].time_count());
+    out.word(v.size());
+    for (std::size_t i = 0; i < v.size(); i += 2) {  // two floats per word
+      std::uint64_t word = std::bit_cast<std::uint32_t>(v[i]);
+      if (i + 1 < v.size()) word |= static_cast<std::uint64_t>(std::bit_cast<std::uint32_t>(v[i + 1])) << 32;
+      out.word(word);
+    }
+  }
+  const auto all = share->all_gather(out.bytes());
+  if (all.size() != share->parts)
+    throw InputError("shared similarity tables", std::to_string(all.size()) + " parts", std::to_string(share->parts));
+  for (std::size_t p = 0; p < all.size(); ++p) {
+    if (p == share->part) continue;
+    util::WordReader in(all[p], "the similarity tables of another process (similarity_table.hpp build_tables)");
+    const auto [pf, pe] = util::part_range(steps.size(), p, share->parts);
+    if (in.word() != pf || in.word() != pe) in.fail("a well range other than part " + std::to_string(p) + "'s");
+    for (std::size_t w = pf; w < pe; ++w) {
+      const std::size_t nodes = in.word(), times = in.word(), n = in.word();
+      if (n != nodes * times || times != tracking_times.size()) in.fail("a table of " + std::to_string(n) + " values");
+      std::vector<float> v(n);
+      for (std::size_t i = 0; i < n; i += 2) {
+        const std::uint64_t word = in.word();
+        v[i] = std::bit_cast<float>(static_cast<std::uint32_t>(word));
+        if (i + 1 < n) v[i + 1] = std::bit_cast<float>(static_cast<std::uint32_t>(word >> 32));
+      }
+      tables[w] = SimilarityTable::from_values(grid, nodes, times, std::move(v));
+    }
+    if (!in.done()) in.fail("words after the end");
+  }
   return tables;
 }
 

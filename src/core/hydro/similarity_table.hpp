@@ -25,6 +25,8 @@
 #include <span>
 #include <vector>
 
+#include "core/util/work_share.hpp"
+
 namespace slipscreen::hydro {
 
 // Piecewise-constant rate history as step times and rate increments (q_j − q_{j−1}).
@@ -97,6 +99,12 @@ class SimilarityTable {
   // Adds scale · H(x, t_k) for every tracking time k to out[k] (the hot loop of table builds).
   void accumulate(const SimilarityTap& t, double scale, double* out) const;
 
+  // The table's values (node-major) and a table rebuilt from them on the same grid: how tables
+  // built by another process arrive (build_tables with a WorkShare).
+  const std::vector<float>& raw_values() const { return values_; }
+  static SimilarityTable from_values(const SimilarityGrid& grid, std::size_t nodes, std::size_t times,
+                                     std::vector<float> values);
+
   std::size_t time_count() const { return n_times_; }
   std::size_t node_count() const { return n_nodes_; }
   // max_i |H(x_i, t_k)| over the nodes: the scale of the stated accuracy at tracking time k.
@@ -115,7 +123,11 @@ class SimilarityTable {
 
 // Tables for many wells sharing one grid and tracking times (OpenMP over wells). Uses the
 // lattice build when every time is a whole number of days, the direct build otherwise.
+// With an active `share` (several processes), each part builds its range of wells
+// (util::part_range) and the parts exchange them: every part ends with every table, bit for bit
+// those of one process (a table depends on its own well's steps only).
 std::vector<SimilarityTable> build_tables(const std::vector<RateSteps>& steps,
-                                          std::span<const double> tracking_times, const SimilarityGrid& grid);
+                                          std::span<const double> tracking_times, const SimilarityGrid& grid,
+                                          const util::WorkShare* share = nullptr);
 
 }  // namespace slipscreen::hydro

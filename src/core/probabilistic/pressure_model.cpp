@@ -48,7 +48,8 @@ Eigen::MatrixXd rate_factors(const PressureModel& m, const InputList& list, cons
 }  // namespace
 
 PressureModel build_pressure_model(const std::vector<WellInput>& wells, const std::vector<SegmentInput>& segments,
-                                   const RunSettings& settings, const InputList& list, const SampledRealizations& r) {
+                                   const RunSettings& settings, const InputList& list, const SampledRealizations& r,
+                                   const util::WorkShare* share) {
   PressureModel m;
   m.diffusivity_min = *std::min_element(r.diffusivity.begin(), r.diffusivity.end());
   m.diffusivity_max = *std::max_element(r.diffusivity.begin(), r.diffusivity.end());
@@ -65,14 +66,16 @@ PressureModel build_pressure_model(const std::vector<WellInput>& wells, const st
     }
   m.grid = {std::log(rw_min * rw_min / (4.0 * m.diffusivity_max)) - 0.1,
             std::log(std::max(r2_max, 1.0) / (4.0 * m.diffusivity_min)) + 0.1, 0.025, settings.leakage_rate};
-  m.tables = hydro::build_tables(m.steps, settings.tracking_times, m.grid);
+  // Tables shared only for the leaky well function, the surrogate always (docs/cluster.md: a
+  // Theis table costs about as much to send as to build).
+  m.tables = hydro::build_tables(m.steps, settings.tracking_times, m.grid, settings.leakage_rate > 0.0 ? share : nullptr);
   m.nodes = settings.surrogate_nodes > 0
                 ? settings.surrogate_nodes
                 // Clamped as a double before the cast (fmin/fmax also take NaN to a bound), so no
                 // ratio of diffusivities can make the float-to-integer cast undefined.
                 : static_cast<std::size_t>(
                       std::fmax(4.0, std::fmin(64.0, std::ceil(8.0 * std::log(m.diffusivity_max / m.diffusivity_min)))));
-  m.surrogate.emplace(m.tables, m.sources, points, m.groups, m.diffusivity_min, m.diffusivity_max, m.nodes);
+  m.surrogate.emplace(m.tables, m.sources, points, m.groups, m.diffusivity_min, m.diffusivity_max, m.nodes, share);
   m.factor = rate_factors(m, list, r.inputs);
   m.draws = make_pressure_draws(*m.surrogate, r.diffusivity, r.prefactor, m.factor);
   return m;

@@ -22,6 +22,7 @@
 #include <optional>
 #include <vector>
 
+#include "core/util/work_share.hpp"
 #include "core/hydro/pressure_surrogate.hpp"
 #include "core/hydro/similarity_table.hpp"
 #include "core/probabilistic/realization_sampler.hpp"
@@ -46,9 +47,12 @@ struct PressureModel {
   PressureDraws draws;                                   // the realizations' basis and P · f_g
 };
 
-// Builds the model for the valid realizations of `r` (their D, P and rate-factor inputs).
+// Builds the model for the valid realizations of `r` (their D, P and rate-factor inputs). With an
+// active `share` the parts build the tables and the surrogate together (every part then calls
+// this with the same inputs, in the same order as its other shared builds).
 PressureModel build_pressure_model(const std::vector<WellInput>& wells, const std::vector<SegmentInput>& segments,
-                                   const RunSettings& settings, const InputList& list, const SampledRealizations& r);
+                                   const RunSettings& settings, const InputList& list, const SampledRealizations& r,
+                                   const util::WorkShare* share = nullptr);
 
 // Σ over the model's groups of its table rows [first_row, first_row + rows) times basis · scale_g,
 // for the realizations `cols`, at every check point of `points`, stacked into `out`: row i·rows + k

@@ -5,6 +5,7 @@
 
 #include "core/errors.hpp"
 #include "core/util/word_codec.hpp"
+#include "core/util/work_share.hpp"
 
 namespace slipscreen::probabilistic {
 namespace {
@@ -70,10 +71,8 @@ ColumnRange split_columns(std::size_t columns, std::size_t part, std::size_t par
 }
 
 ColumnRange split_rows(std::size_t n, std::size_t part, std::size_t parts) {
-  if (parts == 0 || part >= parts)
-    throw InputError("part", std::to_string(part) + " of " + std::to_string(parts), "a part index below the part count");
-  const auto first = [&](std::size_t p) { return n / parts * p + std::min(p, n % parts); };
-  return {first(part), first(part + 1)};
+  const auto [first, end] = util::part_range(n, part, parts);
+  return {first, end};
 }
 
 std::vector<std::uint8_t> encode_partial(const PartialResult& p) {

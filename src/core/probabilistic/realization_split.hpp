@@ -23,6 +23,7 @@
 
 #include "core/stats/quantile_sketch.hpp"
 #include "core/stats/weighted_sketch.hpp"
+#include "core/util/work_share.hpp"
 
 namespace slipscreen::probabilistic {
 
@@ -122,6 +123,10 @@ PartialResult merge_partials(std::vector<PartialResult> parts);
 struct RealizationSplit {
   std::size_t part = 0, parts = 1;
   std::function<std::optional<std::vector<std::vector<std::uint8_t>>>(std::vector<std::uint8_t>)> gather;
+  // Every part's piece to every part (util::WorkShare): the pressure model's tables and surrogate
+  // are built together. Empty: every part builds the whole model itself.
+  std::function<std::vector<std::vector<std::uint8_t>>(std::vector<std::uint8_t>)> all_gather;
+  util::WorkShare work_share() const { return {part, parts, all_gather}; }
 };
 
 }  // namespace slipscreen::probabilistic

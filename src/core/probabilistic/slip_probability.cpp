@@ -399,7 +399,7 @@ bool merge_split(const Tracking& tr, const RealizationSplit& split, Probabilisti
 // of their schedules that is scaled, each taking the sampled rate factor of its origin well (the
 // same realizations and rate groups as the screen's).
 PressureModel group_part_model(const GroupSplit& g, const std::vector<SegmentInput>& segments, const RunSettings& settings,
-                               const InputList& list, const SampledRealizations& r) {
+                               const InputList& list, const SampledRealizations& r, const util::WorkShare* share = nullptr) {
   if (g.origin.size() != g.wells.size() || g.in_group.size() != g.wells.size())
     throw InputError("well group", std::to_string(g.wells.size()) + " wells", "an origin and a flag per split well");
   std::vector<WellInput> part;
@@ -411,7 +411,7 @@ PressureModel group_part_model(const GroupSplit& g, const std::vector<SegmentInp
       part_list.well_rate.push_back(list.well_rate.at(g.origin[w]));
     }
   if (part.empty()) throw InputError("well group", "(no well)", "at least one well whose rates are scaled");
-  return build_pressure_model(part, segments, settings, part_list, r);
+  return build_pressure_model(part, segments, settings, part_list, r, share);
 }
 
 }  // namespace
@@ -472,7 +472,8 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
   out.sampler = r.sampler;
   out.input_names = sampled_input_names(model, wells, fault_count);
 
-  const PressureModel pm = build_pressure_model(wells, segments, settings, list, r);
+  const util::WorkShare share = split_run ? split->work_share() : util::WorkShare{};
+  const PressureModel pm = build_pressure_model(wells, segments, settings, list, r, &share);
   out.diffusivity_min = pm.diffusivity_min;
   out.diffusivity_max = pm.diffusivity_max;
   out.surrogate_error = pm.surrogate->max_relative_error();
@@ -495,7 +496,7 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
   Tracking tr = prepare_tracking(wells, segments, settings, r, pm);
   if (out.conditioning) tr.weights = &out.conditioning->weights;
   for (const auto& v : settings.what_if)
-    tr.variants.push_back(prepare_variant(pm, group_part_model(v, segments, settings, list, r), v.factor, r.keep.size()));
+    tr.variants.push_back(prepare_variant(pm, group_part_model(v, segments, settings, list, r, &share), v.factor, r.keep.size()));
   if (split_run) {
     if (!merge_split(tr, *split, out))
       out.merged_elsewhere = true;

@@ -95,7 +95,8 @@ struct TabulatedField {
 // Similarity tables of every well over the tracked times (one grid for all wells, spanning
 // x = r²/(4D) from the smallest well radius to the farthest source of any check point).
 std::vector<hydro::SimilarityTable> similarity_tables(const TabulatedField& tf,
-                                                      const std::vector<hydro::FieldPoint>& points) {
+                                                      const std::vector<hydro::FieldPoint>& points,
+                                                      const util::WorkShare* share) {
   const std::size_t W = tf.in.wells.size();
   double rw_min = std::numeric_limits<double>::infinity(), r2_max = 1.0;
   std::vector<hydro::RateSteps> steps(W);
@@ -111,7 +112,9 @@ std::vector<hydro::SimilarityTable> similarity_tables(const TabulatedField& tf,
   }
   const hydro::SimilarityGrid grid{std::log(rw_min * rw_min * tf.inv4d) - 0.1, std::log(r2_max * tf.inv4d) + 0.1,
                                    kTableStep, tf.in.formation.leakage_rate};
-  return hydro::build_tables(steps, tf.tracked_times, grid);
+  // Shared only where a table costs far more to build than to send: the leaky well function
+  // (docs/cluster.md, measured; Theis tables are built about as fast as they are copied).
+  return hydro::build_tables(steps, tf.tracked_times, grid, tf.in.formation.leakage_rate > 0.0 ? share : nullptr);
 }
 
 // Bound on the table error of any point's Δp at tracked time g: the stated accuracy of each
@@ -127,9 +130,10 @@ std::vector<double> table_error_bound(const TabulatedField& tf) {
 }
 
 TabulatedField tabulate(const ScreenInputs& in, const hydro::PressureField& field,
-                        const std::vector<hydro::FieldPoint>& points, const std::vector<double>& tracked_times) {
+                        const std::vector<hydro::FieldPoint>& points, const std::vector<double>& tracked_times,
+                        const util::WorkShare* share) {
   TabulatedField tf{in, field, tracked_times, 1.0 / (4.0 * in.formation.diffusivity), {}, {}, {}};
-  tf.tables = similarity_tables(tf, points);
+  tf.tables = similarity_tables(tf, points, share);
   tf.table_error = table_error_bound(tf);
   tf.out_index.resize(in.output_times.size());
   for (std::size_t k = 0; k < in.output_times.size(); ++k)
@@ -262,7 +266,8 @@ bool screen_block(const TabulatedField& tf, const CheckPoints& cps, std::size_t 
 
 }  // namespace
 
-ScreenResult deterministic_screen(const ScreenInputs& in, Progress progress, void* user, SegmentRange only) {
+ScreenResult deterministic_screen(const ScreenInputs& in, Progress progress, void* user, SegmentRange only,
+                                  const util::WorkShare* share) {
   if (in.output_times.empty()) throw InputError("output times", "(none)", "at least one output time");
   check_times(in.output_times, "output times");
   check_times(in.tracking_times, "tracking times");
@@ -288,7 +293,7 @@ ScreenResult deterministic_screen(const ScreenInputs& in, Progress progress, voi
   for (const auto& w : in.wells) sources.push_back({w.id, w.x, w.y, w.radius, w.history});
   const hydro::PressureField field(std::move(sources), in.boundaries);
   hydro::validate(in.formation);
-  const TabulatedField tf = tabulate(in, field, cps.points, result.tracked_times);
+  const TabulatedField tf = tabulate(in, field, cps.points, result.tracked_times, share);
 
   // Segments in blocks, so that progress can be reported and memory stays bounded; each block
   // is computed exactly as a whole run would be (results do not depend on the blocking).

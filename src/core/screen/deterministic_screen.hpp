@@ -50,6 +50,7 @@
 #include "core/hydro/image_wells.hpp"
 #include "core/hydro/rate_history.hpp"
 #include "core/hydro/theis.hpp"
+#include "core/util/work_share.hpp"
 
 namespace slipscreen::screen {
 
@@ -124,7 +125,9 @@ struct SegmentRange {
 // resolved for every segment, and the tables span every check point, so each segment in the
 // range gets exactly the values of a whole run (how a run splits across processes,
 // screen_split.hpp).
+// With an active `share` the parts build the wells' similarity tables together
+// (hydro::build_tables); every part must then call this with the same inputs.
 ScreenResult deterministic_screen(const ScreenInputs& in, Progress progress = nullptr, void* user = nullptr,
-                                  SegmentRange only = {});
+                                  SegmentRange only = {}, const util::WorkShare* share = nullptr);
 
 }  // namespace slipscreen::screen

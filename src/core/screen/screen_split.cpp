@@ -7,6 +7,7 @@
 
 #include "core/errors.hpp"
 #include "core/util/word_codec.hpp"
+#include "core/util/work_share.hpp"
 
 namespace slipscreen::screen {
 namespace {
@@ -22,10 +23,8 @@ void check_length(const util::WordReader& r, std::size_t got, std::size_t want, 
 }  // namespace
 
 SegmentRange split_segments(std::size_t segments, std::size_t part, std::size_t parts) {
-  if (parts == 0 || part >= parts)
-    throw InputError("part", std::to_string(part) + " of " + std::to_string(parts), "a part index below the part count");
-  const auto first = [&](std::size_t p) { return segments / parts * p + std::min(p, segments % parts); };
-  return {first(part), first(part + 1)};
+  const auto [first, end] = util::part_range(segments, part, parts);
+  return {first, end};
 }
 
 std::vector<std::uint8_t> encode_screen_part(const ScreenResult& result, SegmentRange range) {

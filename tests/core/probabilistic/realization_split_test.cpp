@@ -1,6 +1,10 @@
+#include "support/thread_exchange.hpp"
 #include "core/probabilistic/realization_split.hpp"
 
 #include <doctest/doctest.h>
+
+#include <exception>
+#include <thread>
 
 #include <bit>
 #include <numbers>
@@ -47,24 +51,39 @@ struct SplitCase {
   }
 };
 
-// Runs the case split into `parts` processes, simulated in turn: parts 1.. first (their gather
-// keeps the bytes), then part 0, whose gather returns every part's bytes.
-ProbabilisticResult run_split(const SplitCase& c, std::size_t parts) {
-  std::vector<std::vector<std::uint8_t>> sent(parts);
+// Runs the case split into `parts` processes, simulated by threads: the realization blocks are
+// gathered to part 0, and (with `share`) the pressure model's tables and surrogate are built
+// together. Returns part 0's result; the others must have merged elsewhere.
+ProbabilisticResult run_split(const SplitCase& c, std::size_t parts, bool share = true) {
+  slipscreen::threads::Exchange exchange(parts);
+  std::vector<ProbabilisticResult> results(parts);
+  std::vector<std::exception_ptr> errors(parts);
+  std::vector<std::thread> threads;
+  for (std::size_t p = 0; p < parts; ++p)
+    threads.emplace_back([&, p] {
+      try {
+        RealizationSplit split;
+        split.part = p;
+        split.parts = parts;
+        split.gather = [&, p](std::vector<std::uint8_t> b) -> std::optional<std::vector<std::vector<std::uint8_t>>> {
+          auto all = exchange.all(p, std::move(b));
+          if (p != 0) return std::nullopt;
+          return all;
+        };
+        if (share) split.all_gather = [&, p](std::vector<std::uint8_t> b) { return exchange.all(p, std::move(b)); };
+        results[p] = run_probabilistic(c.model, c.wells, c.segments, c.settings, &split);
+      } catch (...) {
+        errors[p] = std::current_exception();
+      }
+    });
+  for (auto& t : threads) t.join();
+  for (auto& e : errors)
+    if (e) std::rethrow_exception(e);
   for (std::size_t p = 1; p < parts; ++p) {
-    RealizationSplit split{p, parts, [&, p](std::vector<std::uint8_t> b) {
-                             sent[p] = std::move(b);
-                             return std::optional<std::vector<std::vector<std::uint8_t>>>();
-                           }};
-    const auto r = run_probabilistic(c.model, c.wells, c.segments, c.settings, &split);
-    CHECK(r.merged_elsewhere);
-    CHECK(r.segments.empty());
+    CHECK(results[p].merged_elsewhere);
+    CHECK(results[p].segments.empty());
   }
-  RealizationSplit split{0, parts, [&](std::vector<std::uint8_t> b) {
-                           sent[0] = std::move(b);
-                           return std::optional(sent);
-                         }};
-  return run_probabilistic(c.model, c.wells, c.segments, c.settings, &split);
+  return std::move(results[0]);
 }
 
 // Bit for bit (a constant input's ρ is NaN, which == would call different).
@@ -171,7 +190,8 @@ TEST_CASE("run_probabilistic split into 2 and 3 parts gives the unsplit result b
   CHECK(variant_moves);
   for (std::size_t parts : {2u, 3u}) {
     CAPTURE(parts);
-    check_identical(whole, run_split(c, parts));
+    check_identical(whole, run_split(c, parts));         // tables and surrogate built together
+    check_identical(whole, run_split(c, parts, false));  // every part builds them itself
   }
 }
 
