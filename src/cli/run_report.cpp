@@ -318,7 +318,8 @@ class StageTimer {
   void finish() {
     end_stage("");
     const double total = std::chrono::duration<double>(Clock::now() - start_).count();
-    ctx_.err << "slipscreen: timing: " << prefix_ << "total " << util::number_text(total, 3) << " s, sent "
+    ctx_.err << "slipscreen: timing: " << prefix_ << "total " << util::number_text(total, 3) << " s, cpu "
+             << util::number_text(cpu_seconds(), 3) << " s, sent "
              << run::cluster_bytes_sent() << " bytes, received " << run::cluster_bytes_received()
              << " bytes, peak memory " << peak_memory_bytes() << " bytes\n"
              << std::flush;
@@ -334,6 +335,12 @@ class StageTimer {
                << std::flush;
     stage_ = next;
     stage_start_ = now;
+  }
+  static double cpu_seconds() {  // user + system time of this process, all threads
+    rusage ru{};
+    getrusage(RUSAGE_SELF, &ru);
+    return static_cast<double>(ru.ru_utime.tv_sec + ru.ru_stime.tv_sec) +
+           1e-6 * static_cast<double>(ru.ru_utime.tv_usec + ru.ru_stime.tv_usec);
   }
   static long long peak_memory_bytes() {
     rusage ru{};

@@ -139,22 +139,27 @@ std::vector<std::vector<std::uint8_t>> all_gather(std::vector<std::uint8_t> mine
   State& s = state();
   if (s.rank == 0) {
     auto all = *gather(std::move(mine));  // rethrows a rank's failure
-    std::vector<std::uint8_t> set;
-    for (const auto& piece : all) {
-      const std::uint64_t n = piece.size();
-      const auto* head = reinterpret_cast<const std::uint8_t*>(&n);
-      set.insert(set.end(), head, head + sizeof n);
-      set.insert(set.end(), piece.begin(), piece.end());
-    }
-    if (set.size() > static_cast<std::size_t>(INT32_MAX))
-      throw IoError("MPI: a shared set of " + std::to_string(set.size()) +
-                    " bytes exceeds the 2 GiB of one message (docs/cluster.md)");
-    for (int r = 1; r < s.ranks; ++r) {
+    for (int r = 1; r < s.ranks; ++r) {  // each rank gets the others' pieces (its own stays empty)
+      std::size_t total = 0;
+      for (const auto& piece : all) total += sizeof(std::uint64_t) + piece.size();
+      std::vector<std::uint8_t> set;
+      set.reserve(total);
+      for (int q = 0; q < s.ranks; ++q) {
+        const auto& piece = all[static_cast<std::size_t>(q)];
+        const std::uint64_t n = q == r ? 0 : piece.size();
+        const auto* head = reinterpret_cast<const std::uint8_t*>(&n);
+        set.insert(set.end(), head, head + sizeof n);
+        if (q != r) set.insert(set.end(), piece.begin(), piece.end());
+      }
+      if (set.size() > static_cast<std::size_t>(INT32_MAX))
+        throw IoError("MPI: a shared set of " + std::to_string(set.size()) +
+                      " bytes exceeds the 2 GiB of one message (docs/cluster.md); use more ranks");
       check(MPI_Send(set.data(), static_cast<int>(set.size()), MPI_BYTE, r, kTagShare, MPI_COMM_WORLD), "MPI_Send");
       s.bytes_sent += set.size();
     }
     return all;
   }
+  std::vector<std::uint8_t> mine_copy = mine;  // rank 0 sends back only the other ranks' pieces
   gather(std::move(mine));
   MPI_Status st;
   for (;;) {
@@ -186,6 +191,7 @@ std::vector<std::vector<std::uint8_t>> all_gather(std::vector<std::uint8_t> mine
   }
   if (all.size() != static_cast<std::size_t>(s.ranks))
     throw IoError("MPI: a shared set of " + std::to_string(all.size()) + " pieces from rank 0");
+  all[static_cast<std::size_t>(s.rank)] = std::move(mine_copy);
   return all;
 }
 

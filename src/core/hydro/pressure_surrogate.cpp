@@ -98,6 +98,9 @@ void sum_tables_shared(const std::vector<SimilarityTable>& tables, std::span<con
                                     g.begin() + static_cast<std::ptrdiff_t>(end * n_groups));
   sum_tables(tables, sources, points.subspan(first, end - first), n_groups, inv4d, mine);
   util::WordWriter out;
+  std::size_t words = 2;
+  for (const auto& m : mine) words += 1 + static_cast<std::size_t>(m.size());
+  out.reserve(words);
   out.word(first);
   out.word(end);
   for (const auto& m : mine) out.doubles(std::span<const double>(m.data(), static_cast<std::size_t>(m.size())));

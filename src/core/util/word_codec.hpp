@@ -3,7 +3,6 @@
 // (docs/cluster.md): counts, lengths and doubles (bit for bit). The reader checks every length
 // against the buffer and throws InputError naming `what` (the kind of block) on a truncated or
 // malformed one. No I/O here: the run layer moves the bytes.
-#include <bit>
 #include <cstddef>
 #include <cstdint>
 #include <cstring>
@@ -22,10 +21,13 @@ class WordWriter {
     word(v.size());
     words_.insert(words_.end(), v.begin(), v.end());
   }
-  void doubles(std::span<const double> v) {
+  void doubles(std::span<const double> v) {  // bit for bit (memcpy: large blocks of the surrogate)
     word(v.size());
-    for (double d : v) word(std::bit_cast<std::uint64_t>(d));
+    const std::size_t at = words_.size();
+    words_.resize(at + v.size());
+    if (!v.empty()) std::memcpy(words_.data() + at, v.data(), v.size() * sizeof(double));
   }
+  void reserve(std::size_t words) { words_.reserve(words); }
   void sizes(std::span<const std::size_t> v) {
     word(v.size());
     for (std::size_t s : v) word(s);
@@ -64,8 +66,10 @@ class WordReader {
     return v;
   }
   std::vector<double> doubles() {
-    std::vector<double> v;
-    for (std::uint64_t w : words()) v.push_back(std::bit_cast<double>(w));
+    const std::size_t n = count();
+    std::vector<double> v(n);
+    if (n > 0) std::memcpy(v.data(), words_.data() + at_, n * sizeof(double));
+    at_ += n;
     return v;
   }
   std::vector<std::size_t> sizes() {
