@@ -6,7 +6,8 @@
 # and compares every file of each run folder byte for byte (diff -r; the manifest apart from the
 # build's git commit) with the run of
 # REFERENCE_SLIPSCREEN (the build without MPI; default: MPI_SLIPSCREEN started without mpirun).
-# Then the same with the seismicity likelihood on a tiny fixture (2 ranks), and checks that an input
+# Then the tiny scenario on 1, 2 and 3 ranks, the same with the seismicity likelihood on a tiny
+# fixture (2 ranks), and checks that an input
 # error ends every rank with the same exit code and leaves no folder.
 set -euo pipefail
 mpi_bin="$(realpath "$1")"
@@ -42,6 +43,21 @@ for n in 1 2 3; do
   diff "$work/ref.txt" "$work/n$n.txt" ||
     { echo "mpi_equality: $n ranks' summary differs"; exit 1; }
   echo "mpi_equality: $n ranks: $(find "$work/n$n" -type f | wc -l) files identical"
+done
+
+# The tiny scenario (tests/data/scenario/tiny: deterministic screen, rasters, report) on 1, 2 and
+# 3 ranks: its segments are split across the ranks (docs/cluster.md); every file, the report too.
+mkdir -p "$work/tiny" && cp -r "$root/tests/data/scenario/tiny" "$work/tiny/"
+"$ref_bin" run "$work/tiny/tiny/scenario.toml" --out "$work/out" --reproducible > "$work/tiny-ref.txt"
+mv "$work/out" "$work/tiny-ref"
+for n in 1 2 3; do
+  mpirun_ "$n" "$mpi_bin" run "$work/tiny/tiny/scenario.toml" --out "$work/out" --reproducible > "$work/tiny-n$n.txt"
+  diff -r --exclude=manifest.json "$work/tiny-ref" "$work/out" &&
+    diff <(grep -v '"git_commit"' "$work/tiny-ref/manifest.json") <(grep -v '"git_commit"' "$work/out/manifest.json") &&
+    diff "$work/tiny-ref.txt" "$work/tiny-n$n.txt" ||
+    { echo "mpi_equality: tiny scenario on $n ranks differs from the reference run"; exit 1; }
+  echo "mpi_equality: tiny scenario, $n ranks: $(find "$work/out" -type f | wc -l) files identical"
+  rm -rf "$work/out"
 done
 
 # The seismicity likelihood ([observations] seismicity = true; docs/conditioning.md): every rank
