@@ -139,9 +139,9 @@ std::vector<std::vector<std::uint8_t>> all_gather(std::vector<std::uint8_t> mine
   State& s = state();
   if (s.rank == 0) {
     auto all = *gather(std::move(mine));  // rethrows a rank's failure
+    std::size_t total = 0;
+    for (const auto& piece : all) total += sizeof(std::uint64_t) + piece.size();
     for (int r = 1; r < s.ranks; ++r) {  // each rank gets the others' pieces (its own stays empty)
-      std::size_t total = 0;
-      for (const auto& piece : all) total += sizeof(std::uint64_t) + piece.size();
       std::vector<std::uint8_t> set;
       set.reserve(total);
       for (int q = 0; q < s.ranks; ++q) {

@@ -1,7 +1,5 @@
 #include "core/hydro/similarity_table.hpp"
 
-#include <bit>
-#include <cstdint>
 
 #include <algorithm>
 #include <cmath>
@@ -266,15 +264,9 @@ std::vector<SimilarityTable> build_tables(const std::vector<RateSteps>& steps,
   out.word(first);
   out.word(end);
   for (std::size_t w = first; w < end; ++w) {
-    const auto& v = tables[w].raw_values();
     out.word(tables[w].node_count());
     out.word(tables[w].time_count());
-    out.word(v.size());
-    for (std::size_t i = 0; i < v.size(); i += 2) {  // two floats per word
-      std::uint64_t word = std::bit_cast<std::uint32_t>(v[i]);
-      if (i + 1 < v.size()) word |= static_cast<std::uint64_t>(std::bit_cast<std::uint32_t>(v[i + 1])) << 32;
-      out.word(word);
-    }
+    out.floats(tables[w].raw_values());
   }
   const auto all = share->all_gather(out.bytes());
   if (all.size() != share->parts)
@@ -285,14 +277,10 @@ std::vector<SimilarityTable> build_tables(const std::vector<RateSteps>& steps,
     const auto [pf, pe] = util::part_range(steps.size(), p, share->parts);
     if (in.word() != pf || in.word() != pe) in.fail("a well range other than part " + std::to_string(p) + "'s");
     for (std::size_t w = pf; w < pe; ++w) {
-      const std::size_t nodes = in.word(), times = in.word(), n = in.word();
-      if (n != nodes * times || times != tracking_times.size()) in.fail("a table of " + std::to_string(n) + " values");
-      std::vector<float> v(n);
-      for (std::size_t i = 0; i < n; i += 2) {
-        const std::uint64_t word = in.word();
-        v[i] = std::bit_cast<float>(static_cast<std::uint32_t>(word));
-        if (i + 1 < n) v[i + 1] = std::bit_cast<float>(static_cast<std::uint32_t>(word >> 32));
-      }
+      const std::size_t nodes = in.word(), times = in.word();
+      std::vector<float> v = in.floats();
+      if (v.size() != nodes * times || times != tracking_times.size())
+        in.fail("a table of " + std::to_string(v.size()) + " values");
       tables[w] = SimilarityTable::from_values(grid, nodes, times, std::move(v));
     }
     if (!in.done()) in.fail("words after the end");

@@ -10,7 +10,7 @@
 namespace slipscreen::probabilistic {
 namespace {
 
-constexpr std::uint64_t kMagic = 0x736c697073706c33ULL;  // "slipspl3": this encoding's version
+constexpr std::uint64_t kMagic = 0x736c697073706c34ULL;  // "slipspl4": this encoding's version
 
 // The partial result's words (core/util/word_codec.hpp), with its sketches.
 class Writer : public util::WordWriter {
@@ -44,20 +44,6 @@ void merge_conditioned(ConditionedCounts& a, const ConditionedCounts& b) {
   for (std::size_t t = 0; t < a.dp.size(); ++t) a.dp[t].merge(b.dp[t]);
 }
 
-// dp_by_time of `into` (a columns, t-major) followed by `from` (b columns).
-std::vector<double> concat_by_time(const std::vector<double>& a, std::size_t na, const std::vector<double>& b,
-                                   std::size_t nb, std::size_t n_out) {
-  std::vector<double> out;
-  out.reserve(a.size() + b.size());
-  for (std::size_t t = 0; t < n_out; ++t) {
-    out.insert(out.end(), a.begin() + static_cast<std::ptrdiff_t>(t * na),
-               a.begin() + static_cast<std::ptrdiff_t>((t + 1) * na));
-    out.insert(out.end(), b.begin() + static_cast<std::ptrdiff_t>(t * nb),
-               b.begin() + static_cast<std::ptrdiff_t>((t + 1) * nb));
-  }
-  return out;
-}
-
 }  // namespace
 
 ColumnRange split_columns(std::size_t columns, std::size_t part, std::size_t parts) {
@@ -89,8 +75,6 @@ std::vector<std::uint8_t> encode_partial(const PartialResult& p) {
     w.sketch(s.dp_crit);
     w.word(s.dp.size());
     for (const auto& d : s.dp) w.sketch(d);
-    w.doubles(s.margin);
-    w.doubles(s.dp_by_time);
     w.word(s.what_if.size());
     for (const auto& v : s.what_if) w.words(v);
     w.words(s.conditioned.slipped_by);
@@ -134,8 +118,6 @@ PartialResult decode_partial(std::span<const std::uint8_t> bytes) {
     s.dp_crit = r.sketch();
     s.dp.resize(r.count());
     for (auto& d : s.dp) d = r.sketch();
-    s.margin = r.doubles();
-    s.dp_by_time = r.doubles();
     s.what_if.resize(r.count());
     for (auto& v : s.what_if) v = r.words();
     s.conditioned.slipped_by = r.words();
@@ -178,7 +160,6 @@ PartialResult merge_partials(std::vector<PartialResult> parts) {
     if (p.segments.size() != m.segments.size())
       throw InputError("part " + std::to_string(k) + "'s segments", std::to_string(p.segments.size()),
                        std::to_string(m.segments.size()) + " as in part 0");
-    const std::size_t na = m.columns.size(), nb = p.columns.size();
     for (std::size_t i = 0; i < m.segments.size(); ++i) {
       SegmentPart& a = m.segments[i];
       SegmentPart& b = p.segments[i];
@@ -191,21 +172,9 @@ PartialResult merge_partials(std::vector<PartialResult> parts) {
         throw InputError("Δp sketches", std::to_string(b.dp.size()), std::to_string(a.dp.size()) + " as in part 0");
       for (std::size_t t = 0; t < a.dp.size(); ++t) a.dp[t].merge(b.dp[t]);
       merge_conditioned(a.conditioned, b.conditioned);
-      if (!a.margin.empty() || !b.margin.empty()) {
-        if (a.margin.size() != na || b.margin.size() != nb)
-          throw InputError("slip margins", std::to_string(b.margin.size()), "one per column of every part, or none in all");
-        a.margin.insert(a.margin.end(), b.margin.begin(), b.margin.end());
-      }
       if (a.what_if.size() != b.what_if.size())
         throw InputError("what-if counts", std::to_string(b.what_if.size()), std::to_string(a.what_if.size()) + " variants as in part 0");
       for (std::size_t v = 0; v < a.what_if.size(); ++v) add_counts(a.what_if[v], b.what_if[v], "what-if counts");
-      const std::size_t n_out = a.dp.size();
-      if (!a.dp_by_time.empty() || !b.dp_by_time.empty()) {
-        if (a.dp_by_time.size() != na * n_out || b.dp_by_time.size() != nb * n_out)
-          throw InputError("Δp by output time", std::to_string(b.dp_by_time.size()),
-                           "one value per column and output time in every part, or none in all");
-        a.dp_by_time = concat_by_time(a.dp_by_time, na, b.dp_by_time, nb, n_out);
-      }
     }
     if (!p.finished.empty()) {
       if (p.finished_first != m.finished_first + m.finished.size())

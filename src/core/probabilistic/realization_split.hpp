@@ -87,9 +87,6 @@ struct SegmentPart {
   std::uint64_t already_critical = 0, never_critical = 0;
   stats::QuantileSketch dp_crit;
   std::vector<stats::QuantileSketch> dp;  // per output time
-  // Unsplit runs only (empty in a part; FinishedSegment instead):
-  std::vector<double> margin;             // per column: Δp_crit − Δp(final output time)
-  std::vector<double> dp_by_time;         // [t · columns + c]; empty unless attribute_median
   std::vector<std::vector<std::uint64_t>> what_if;  // per what-if variant: slips by output time
   ConditionedCounts conditioned;          // empty unless conditioned on observations
   bool operator==(const SegmentPart&) const = default;
@@ -111,8 +108,8 @@ std::vector<std::uint8_t> encode_partial(const PartialResult& p);
 PartialResult decode_partial(std::span<const std::uint8_t> bytes);
 
 // Merges parts whose column ranges follow each other from column 0 (InputError otherwise, or if
-// their shapes differ): counts summed, sketches merged, margins and Δp (where present)
-// concatenated, finished segments concatenated (their ranges must follow each other too).
+// their shapes differ): counts summed, sketches merged, finished segments concatenated (their
+// ranges must follow each other too).
 PartialResult merge_partials(std::vector<PartialResult> parts);
 
 // How run_probabilistic splits: this process's part and the exchange. `gather` is called once

@@ -233,9 +233,10 @@ std::vector<MedianAttribution> median_attributions(const Tracking& tr, std::size
 }
 
 // A segment's results over the outcome's columns (valid realizations c0, c0 + 1, ...); with
-// `keep_by_time` (an unsplit run) also its slip margins and (with attribute_median) its Δp by
-// output time, for finish_over_all.
-SegmentPart segment_part(const Tracking& tr, const SegmentOutcome& o, std::size_t c0, bool keep_by_time) {
+// `by_time_out` (an unsplit run with attribute_median) also its Δp by output time, t-major, for
+// finish_over_all.
+SegmentPart segment_part(const Tracking& tr, const SegmentOutcome& o, std::size_t c0,
+                         std::vector<double>* by_time_out) {
   const std::size_t n = o.first_crossing.size(), n_out = tr.settings.output_index.size();
   SegmentPart res;
   res.slipped_by.assign(n_out, 0);
@@ -254,10 +255,9 @@ SegmentPart segment_part(const Tracking& tr, const SegmentOutcome& o, std::size_
                                   tr.weights->units[c0 + c]);
   }
   count_slips(tr, o, c0, res);
-  if (keep_by_time) res.margin = slip_margins(tr, o.segment, o.dp_at_output, c0);
   for (const auto& v : tr.variants)
     res.what_if.push_back(variant_segment_slips(v, tr.r.dp_crit, o.segment, o.first_crossing, c0, tr.settings.output_index));
-  if (keep_by_time && tr.settings.attribute_median) res.dp_by_time.assign(by_time.data(), by_time.data() + by_time.size());
+  if (by_time_out) by_time_out->assign(by_time.data(), by_time.data() + by_time.size());
   return res;
 }
 
@@ -316,9 +316,11 @@ void track_segments(const Tracking& tr, ProbabilisticResult& out) {
   track_slip(*tr.pm.surrogate, tr.pm.segment_points, tr.pm.draws, tr.r.dp_crit, tr.settings.output_index,
              [&](const SegmentOutcome& o) {
                add_audit_entries(tr, o, audit_by_segment[o.segment]);
-               SegmentPart part = segment_part(tr, o, 0, true);
+               std::vector<double> by_time;
+               SegmentPart part = segment_part(tr, o, 0, tr.settings.attribute_median ? &by_time : nullptr);
                for (std::size_t v = 0; v < part.what_if.size(); ++v) out.what_if[v][o.segment] = std::move(part.what_if[v]);
-               FinishedSegment f = finish_over_all(tr, o.segment, part.margin, part.dp_by_time, part.dp);
+               FinishedSegment f =
+                   finish_over_all(tr, o.segment, slip_margins(tr, o.segment, o.dp_at_output, 0), by_time, part.dp);
                out.segments[o.segment] = finish_segment(std::move(part), std::move(f));
              });
   for (auto& v : audit_by_segment)
@@ -339,7 +341,7 @@ PartialResult track_part(const Tracking& tr, std::size_t part, std::size_t parts
   const PressureDraws draws{tr.pm.draws.basis.middleCols(c0, nc), tr.pm.draws.scale.middleCols(c0, nc)};
   const Eigen::MatrixXf crit = tr.r.dp_crit.middleCols(c0, nc);
   track_slip(*tr.pm.surrogate, tr.pm.segment_points, draws, crit, tr.settings.output_index,
-             [&](const SegmentOutcome& o) { p.segments[o.segment] = segment_part(tr, o, cols.begin, false); });
+             [&](const SegmentOutcome& o) { p.segments[o.segment] = segment_part(tr, o, cols.begin, nullptr); });
   const ColumnRange mine = split_rows(tr.segments.size(), part, parts);
   p.finished_first = mine.begin;
   p.finished.resize(mine.size());

@@ -27,6 +27,12 @@ class WordWriter {
     words_.resize(at + v.size());
     if (!v.empty()) std::memcpy(words_.data() + at, v.data(), v.size() * sizeof(double));
   }
+  void floats(std::span<const float> v) {  // bit for bit, two to a word (the last one padded)
+    word(v.size());
+    const std::size_t at = words_.size();
+    words_.resize(at + (v.size() + 1) / 2, 0);
+    if (!v.empty()) std::memcpy(words_.data() + at, v.data(), v.size() * sizeof(float));
+  }
   void reserve(std::size_t words) { words_.reserve(words); }
   void sizes(std::span<const std::size_t> v) {
     word(v.size());
@@ -70,6 +76,14 @@ class WordReader {
     std::vector<double> v(n);
     if (n > 0) std::memcpy(v.data(), words_.data() + at_, n * sizeof(double));
     at_ += n;
+    return v;
+  }
+  std::vector<float> floats() {
+    const std::uint64_t n = word();
+    if (n > 2 * (words_.size() - at_)) fail("a length of " + std::to_string(n) + " floats beyond the buffer");
+    std::vector<float> v(static_cast<std::size_t>(n));
+    if (n > 0) std::memcpy(v.data(), words_.data() + at_, v.size() * sizeof(float));
+    at_ += (v.size() + 1) / 2;
     return v;
   }
   std::vector<std::size_t> sizes() {

@@ -156,10 +156,10 @@ TEST_CASE("encode_partial/decode_partial round trip; truncated buffers are refus
   s.dp_crit.add(-2e5);
   s.dp.assign(2, stats::QuantileSketch());
   s.dp[1].add(3e5);
-  s.margin = {1.0, -2.5};
-  s.dp_by_time = {1, 2, 3, 4};
   s.what_if = {{1, 2}, {0, 3}};
   p.segments = {s, s};
+  p.finished_first = 1;
+  p.finished = {{{0.25, -0.5}, {{7, 2.5e5, 1, {1e5, 1.5e5}}, {9, 0.0, 0, {0.0, 0.0}}}}};
   p.map_dangerous = {5, 6};
   p.map_dangerous_already_critical = 7;
   const auto bytes = encode_partial(p);
