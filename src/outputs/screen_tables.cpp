@@ -54,15 +54,13 @@ void write_screen_tables(const RunFolder& folder, const ResolvedScenario& s, con
     for (std::size_t i = 0; i < r.segments.size(); ++i) {
       const auto& g = r.segments[i];
       for (std::size_t k = 0; k < K; ++k) {
-        std::size_t lead = 0;
-        for (std::size_t w = 1; w < W; ++w)
-          if (g.well_share[k * W + w] > g.well_share[k * W + lead]) lead = w;
+        const std::size_t lead = g.leading_well[k];
         const bool has = W > 0 && g.dp[k] > 0;
         t.row({p.segments[i].segment_id, p.segments[i].fault_id, util::format_iso_date(s.output.dates[k]),
                u.text(g.dp[k], P, 6), u.text(g.dp_crit, P, 6), u.text(g.dp_crit - g.dp[k], P, 6),
                g.dp[k] >= g.dp_crit ? "yes" : "no",
                std::to_string(g.dp_point[k]), has ? p.wells[lead].id : "",
-               has ? fixed_decimals(g.well_share[k * W + lead], 6) : ""});
+               has ? fixed_decimals(g.leading_share[k], 6) : ""});
       }
     }
     t.close();

@@ -237,6 +237,7 @@ screen::ScreenInputs screen_inputs(const scenario::ResolvedScenario& s, const Pr
   }
   in.output_times = s.output.times;
   in.tracking_times = screen::tracking_grid(changes, in.output_times);
+  in.all_well_shares = s.output.tables;  // well_shares.csv; otherwise the leading wells are enough
   return in;
 }
 

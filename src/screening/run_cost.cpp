@@ -249,7 +249,9 @@ CostPart inputs_cost(const RunSizes& z) {
 // Deterministic screen: peak while its tables and one block are alive; `results` stay alive.
 CostPart deterministic_cost(const RunSizes& z, double& results) {
   const double W = d(z.wells), G = d(z.tracked_times), K = d(z.output_times), S = d(z.segments);
-  results = S * (K * W + G + 2.0 * K) * 8.0;
+  // per segment: Δp and the leading well at each output time, Δp on the tracked times, and every
+  // well's share at each output time when kept (ScreenInputs::all_well_shares)
+  results = S * ((z.all_well_shares ? K * W : 0.0) + G + 4.0 * K) * 8.0;
   if (z.wells == 0 || z.segments == 0) return {"deterministic screen", results, 0.0};
   const double tables = W * d(z.table_nodes) * G * 4.0;
   const double kernel = (d(z.lags) + 1.0) * d(z.table_nodes) * 4.0;
@@ -338,6 +340,7 @@ RunSizes run_sizes(const scenario::ResolvedScenario& s, const PreparedRun& p) {
   z.threads = static_cast<std::size_t>(std::max(1, omp_get_max_threads()));
   z.output_times = s.output.times.size();
   z.leaky = s.region.formation.leaky;
+  z.all_well_shares = p.inputs.all_well_shares;
   for (const auto& w : s.wells) z.rate_periods += w.periods.size();
   const WellPart w = well_part(p, z);
   const Bounds points = segment_part(p, z);

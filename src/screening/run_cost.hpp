@@ -70,6 +70,7 @@ struct RunSizes {
   std::size_t lags = 0;           // L, whole days from the first rate change to the last tracked time
   std::size_t table_nodes = 0;    // n_x, deterministic
   bool leaky = false;             // [formation] model = "leaky": W(u, r/B) in place of E1
+  bool all_well_shares = false;   // every well's share of Δp is kept (with the tables, well_shares.csv)
   // Probabilistic screen (realizations = 0: none)
   std::uint64_t realizations = 0;     // N
   std::size_t sampled_inputs = 0;

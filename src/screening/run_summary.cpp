@@ -15,7 +15,6 @@ RunSummary summarize_run(const scenario::ResolvedScenario& s, const PreparedRun&
   summary.well_count = prepared.wells.size();
   summary.radius_clamped = result.radius_clamped;
   summary.last_date = util::format_iso_date(s.output.dates.back());
-  const std::size_t W = prepared.wells.size();
   const std::size_t K = s.output.times.size();
   for (std::size_t i = 0; i < result.segments.size(); ++i) {
     const auto& r = result.segments[i];
@@ -29,13 +28,11 @@ RunSummary summarize_run(const scenario::ResolvedScenario& s, const PreparedRun&
     if (r.first_crossing) line.first_crossing = util::format_iso_date(util::date_at(*r.first_crossing));
     // At the first crossing when there is one (a well starting later is never named for it),
     // otherwise at the last output time.
-    line.leading_at_crossing = !r.crossing_share.empty();
-    for (std::size_t w = 0; w < W; ++w) {
-      const double share = line.leading_at_crossing ? r.crossing_share[w] : r.well_share[(K - 1) * W + w];
-      if (share > line.leading_share) {
-        line.leading_share = share;
-        line.leading_well = prepared.wells[w].id;
-      }
+    line.leading_at_crossing = r.first_crossing.has_value();
+    const double share = line.leading_at_crossing ? r.crossing_well_share : r.leading_share[K - 1];
+    if (share > line.leading_share) {
+      line.leading_share = share;
+      line.leading_well = prepared.wells[line.leading_at_crossing ? r.crossing_well : r.leading_well[K - 1]].id;
     }
     summary.crossing_count += r.first_crossing.has_value();
     summary.already_critical_count += r.status == geomech::CriticalStatus::already_critical;

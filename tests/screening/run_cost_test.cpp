@@ -45,19 +45,24 @@ TEST_CASE("the cost formulas, by hand for one set of sizes") {
   RunSizes z;
   z.wells = 1000, z.sources = 1000, z.segments = 100, z.check_points = 300, z.block_points = 192;
   z.output_times = 10, z.tracked_times = 120, z.lags = 3650, z.table_nodes = 1000;
+  z.all_well_shares = true;
   const RunCost c = run_cost(z);
   // Arithmetic from the formulas of run_cost.hpp:
-  //   results 100 × (10 × 1000 + 120 + 2 × 10) × 8 = 8 112 000 B
+  //   results 100 × (10 × 1000 + 120 + 4 × 10) × 8 = 8 128 000 B
   //   tables  1000 × 1000 × 120 × 4 = 480 000 000 B
   //   kernel  (3650 + 1) × 1000 × 4 = 14 604 000 B (larger than one block, 192 × 25 960 = 4 984 320 B)
   //   inputs  600 × 1000 = 600 000 B
   REQUIRE(c.parts.size() == 5);
   CHECK(c.parts[0].bytes == 600000.0);
-  CHECK(c.parts[1].bytes == 8112000.0 + 480000000.0 + 14604000.0);
+  CHECK(c.parts[1].bytes == 8128000.0 + 480000000.0 + 14604000.0);
   CHECK(c.parts[2].bytes == 0.0);  // no probabilistic screen
   CHECK(c.parts[3].bytes == 0.0);  // no raster
   CHECK(c.parts[4].bytes == 0.0);  // no screen in depth
-  CHECK(c.peak_bytes == 600000.0 + 502716000.0);
+  CHECK(c.peak_bytes == 600000.0 + 502732000.0);
+  // Only the leading wells kept (no tables): results 100 × (120 + 4 × 10) × 8 = 128 000 B.
+  RunSizes lean = z;
+  lean.all_well_shares = false;
+  CHECK(run_cost(lean).parts[1].bytes == 128000.0 + 480000000.0 + 14604000.0);
   // The screen in depth (model = "poroelastic_3d"), 900 points with their levels and 50 rate
   // steps: 100 × 10 × 48 + 900 × 64 = 105 600 B on top; 900 × 120 × 50 × 6 = 3.24e7 responses;
   // with 10 realizations of its Monte Carlo, 11 screens.

@@ -192,8 +192,13 @@ void exact_output_dp(const TabulatedField& tf, std::span<const hydro::FieldPoint
       best[k] = total;
       out.dp[k] = total;
       out.dp_point[k] = p - pa;
-      for (std::size_t w = 0; w < W; ++w)
-        out.well_share[k * W + w] = total > 0 ? exact.contribution(0, i, w) / total : 0.0;
+      const auto share = [&](std::size_t w) { return total > 0 ? exact.contribution(0, i, w) / total : 0.0; };
+      out.leading_well[k] = 0, out.leading_share[k] = 0.0;
+      for (std::size_t w = 0; w < W; ++w) {
+        const double v = share(w);
+        if (v > out.leading_share[k]) out.leading_well[k] = w, out.leading_share[k] = v;
+        if (tf.in.all_well_shares) out.well_share[k * W + w] = v;
+      }
     }
   }
 }
@@ -237,8 +242,12 @@ void crossing_shares(const TabulatedField& tf, std::span<const hydro::FieldPoint
   const std::vector<double> ts{*out.first_crossing};
   const hydro::PressureResult exact = tf.field.evaluate(one, ts, tf.in.formation, {}, true);
   const double total = exact.at(0, 0);
-  out.crossing_share.assign(W, 0.0);
-  for (std::size_t w = 0; w < W; ++w) out.crossing_share[w] = total > 0 ? exact.contribution(0, 0, w) / total : 0.0;
+  if (tf.in.all_well_shares) out.crossing_share.assign(W, 0.0);
+  for (std::size_t w = 0; w < W; ++w) {
+    const double v = total > 0 ? exact.contribution(0, 0, w) / total : 0.0;
+    if (v > out.crossing_well_share) out.crossing_well = w, out.crossing_well_share = v;
+    if (tf.in.all_well_shares) out.crossing_share[w] = v;
+  }
 }
 
 // Screens the segments [s0, s1) as one block: table Δp at their check points, then each
@@ -281,10 +290,13 @@ ScreenResult deterministic_screen(const ScreenInputs& in, Progress progress, voi
   const std::size_t W = in.wells.size();
   const std::size_t K = in.output_times.size();
   const std::size_t G = result.tracked_times.size();
+  result.well_count = W;
   for (auto& out : result.segments) {
     out.dp.assign(K, 0.0);
     out.dp_point.assign(K, 0);
-    out.well_share.assign(K * W, 0.0);
+    out.well_share.assign(in.all_well_shares ? K * W : 0, 0.0);
+    out.leading_well.assign(K, 0);
+    out.leading_share.assign(K, 0.0);
     out.tracked_dp.assign(G, 0.0);
   }
   if (W == 0 || in.segments.empty()) return result;

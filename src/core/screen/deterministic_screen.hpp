@@ -79,6 +79,10 @@ struct ScreenInputs {
   std::vector<double> output_times;    // s, strictly increasing
   std::vector<double> tracking_times;  // s, strictly increasing (tracking_grid); may be empty
   double stress_path_kappa = 0.0;      // κ = α(1−2ν)/(1−ν) in [0, 1]; 0: no stress change
+  // Keep every well's share (well_share, crossing_share): S·K·W values, 24 GB for 20,000
+  // segments, 50 output times and 3,000 wells. false: only the leading well's (leading_well,
+  // leading_share, crossing_well), which is all a run without its tables reads.
+  bool all_well_shares = true;
 };
 
 struct SegmentScreen {
@@ -95,10 +99,17 @@ struct SegmentScreen {
   geomech::CoulombPathChange coulomb_change;  // ΔCFF(Δp) on the stress path (μΔp when κ = 0)
   std::vector<double> dp;              // Pa, per output time: max over check points (0 before injection)
   std::vector<std::size_t> dp_point;   // per output time: the check point holding the max
-  std::vector<double> well_share;      // [k * wells + w]: well w's fraction of dp[k] (0 if dp = 0)
+  std::vector<double> well_share;      // [k * wells + w]: well w's fraction of dp[k] (0 if dp = 0);
+                                       // empty unless ScreenInputs::all_well_shares
+  std::vector<std::size_t> leading_well;  // per output time: the well with the largest share (the
+                                          // first on ties; 0 when dp = 0)
+  std::vector<double> leading_share;   // per output time: that well's share (0 if dp = 0)
   std::optional<double> first_crossing;  // s; empty when never reached or already critical
   std::vector<double> crossing_share;  // per well: fraction of the exact Δp at first_crossing, at the
-                                       // check point holding the maximum there (empty without a crossing)
+                                       // check point holding the maximum there (empty without a
+                                       // crossing, or unless ScreenInputs::all_well_shares)
+  std::size_t crossing_well = 0;       // the well with the largest such fraction (first on ties)
+  double crossing_well_share = 0;      // its fraction (0 without a crossing)
   std::vector<double> tracked_dp;      // Pa, per tracked time (ScreenResult::tracked_times): max over check points
                                        // (similarity-table values, exact at the output times)
   double peak_dp = 0;                  // Pa, max over the tracking grid and output times
@@ -109,6 +120,7 @@ struct ScreenResult {
   std::vector<SegmentScreen> segments;   // in input order
   std::vector<double> tracked_times;     // the grid actually searched (tracking ∪ output times)
   bool radius_clamped = false;           // some check point lay within a well radius
+  std::size_t well_count = 0;            // wells screened (the range of leading_well, crossing_well)
 };
 
 // Progress callback: fraction done in [0, 1] (called from the calling thread only).

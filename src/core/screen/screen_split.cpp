@@ -12,12 +12,18 @@
 namespace slipscreen::screen {
 namespace {
 
-constexpr std::uint64_t kMagic = 0x736c697073637231ULL;  // "slipscr1": this encoding's version
+constexpr std::uint64_t kMagic = 0x736c697073637232ULL;  // "slipscr2": this encoding's version
 constexpr const char* kWhat = "an encoded part of the deterministic screen (screen_split.hpp)";
 
 // The lengths a segment's vectors must have in `into`.
 void check_length(const util::WordReader& r, std::size_t got, std::size_t want, const char* field) {
   if (got != want) r.fail(std::string(field) + " of " + std::to_string(got) + " values where " + std::to_string(want) + " fit");
+}
+
+// A well index must name one of the screen's wells.
+void check_well(const util::WordReader& r, std::size_t index, std::size_t wells, const char* field) {
+  if (index >= std::max<std::size_t>(wells, 1))
+    r.fail(std::string(field) + " " + std::to_string(index) + " of " + std::to_string(wells) + " wells");
 }
 
 }  // namespace
@@ -39,9 +45,13 @@ std::vector<std::uint8_t> encode_screen_part(const ScreenResult& result, Segment
     w.doubles(g.dp);
     w.sizes(g.dp_point);
     w.doubles(g.well_share);
+    w.sizes(g.leading_well);
+    w.doubles(g.leading_share);
     w.word(g.first_crossing ? 1 : 0);
     w.word(std::bit_cast<std::uint64_t>(g.first_crossing.value_or(0.0)));
     w.doubles(g.crossing_share);
+    w.word(g.crossing_well);
+    w.word(std::bit_cast<std::uint64_t>(g.crossing_well_share));
     w.doubles(g.tracked_dp);
     w.word(std::bit_cast<std::uint64_t>(g.peak_dp));
     w.word(std::bit_cast<std::uint64_t>(g.peak_time));
@@ -68,12 +78,20 @@ void merge_screen_part(ScreenResult& into, std::span<const std::uint8_t> bytes) 
     check_length(r, g.dp_point.size(), K, "dp_point");
     g.well_share = r.doubles();
     check_length(r, g.well_share.size(), KW, "well_share");
+    g.leading_well = r.sizes();
+    check_length(r, g.leading_well.size(), K, "leading_well");
+    g.leading_share = r.doubles();
+    check_length(r, g.leading_share.size(), K, "leading_share");
+    for (std::size_t v : g.leading_well) check_well(r, v, into.well_count, "leading_well");
     const std::uint64_t crossed = r.word();
     const double at = std::bit_cast<double>(r.word());
     if (crossed > 1) r.fail("a crossing flag of " + std::to_string(crossed));
     g.first_crossing.reset();
     if (crossed == 1) g.first_crossing = at;
     g.crossing_share = r.doubles();
+    g.crossing_well = r.word();
+    check_well(r, g.crossing_well, into.well_count, "crossing_well");
+    g.crossing_well_share = std::bit_cast<double>(r.word());
     g.tracked_dp = r.doubles();
     check_length(r, g.tracked_dp.size(), G, "tracked_dp");
     g.peak_dp = std::bit_cast<double>(r.word());

@@ -273,6 +273,23 @@ TEST_CASE("well shares at the first crossing: a well starting later is not part 
   CHECK(s.well_share[1 * 3 + 1] > s.well_share[1 * 3 + 0]);
   CHECK(s.well_share[1 * 3 + 1] > s.well_share[1 * 3 + 2]);
   CHECK(r0.segments[0].crossing_share.empty() == !r0.segments[0].first_crossing.has_value());
+  // The leading wells: W at the crossing (nearer than W3, P1 not yet injecting), P1 at the last
+  // output time; the same with only the leading well kept (how a run without its tables screens).
+  CHECK(s.crossing_well == 0);
+  CHECK(s.crossing_well_share == s.crossing_share[0]);
+  CHECK(s.leading_well[1] == 1);
+  CHECK(s.leading_share[1] == s.well_share[1 * 3 + 1]);
+  in.all_well_shares = false;
+  const ScreenResult lean = deterministic_screen(in);
+  const auto& l = lean.segments[0];
+  CHECK(l.well_share.empty());
+  CHECK(l.crossing_share.empty());
+  CHECK(l.dp == s.dp);
+  CHECK(l.first_crossing == s.first_crossing);
+  CHECK(l.leading_well == s.leading_well);
+  CHECK(l.leading_share == s.leading_share);
+  CHECK(l.crossing_well == s.crossing_well);
+  CHECK(l.crossing_well_share == s.crossing_well_share);
 }
 
 TEST_CASE("an already critical fault is reported, with no crossing time") {

@@ -64,34 +64,42 @@ TEST_CASE("split_segments cuts the segments into near-equal runs that cover them
 }
 
 TEST_CASE("the deterministic screen split into parts and merged equals the whole screen bit for bit") {
-  const ScreenInputs in = split_inputs();
-  const ScreenResult whole = deterministic_screen(in);
-  std::size_t crossed = 0;
-  for (const auto& s : whole.segments) crossed += s.first_crossing ? 1 : 0;
-  REQUIRE(crossed > 0);            // the case exercises crossings and their shares ...
-  REQUIRE(crossed < in.segments.size());  // ... and segments that never cross
-  for (std::size_t parts : {2u, 3u}) {
-    CAPTURE(parts);
-    ScreenResult merged = deterministic_screen(in, nullptr, nullptr, split_segments(in.segments.size(), 0, parts));
-    for (std::size_t p = 1; p < parts; ++p) {
-      const SegmentRange mine = split_segments(in.segments.size(), p, parts);
-      const ScreenResult part = deterministic_screen(in, nullptr, nullptr, mine);
-      CHECK(part.segments[0].tracked_dp == std::vector<double>(whole.segments[0].tracked_dp.size(), 0.0));  // not its segment
-      merge_screen_part(merged, encode_screen_part(part, mine));
-    }
-    CHECK(merged.radius_clamped == whole.radius_clamped);
-    for (std::size_t s = 0; s < whole.segments.size(); ++s) {
-      CAPTURE(s);
-      const SegmentScreen &a = merged.segments[s], &b = whole.segments[s];
-      CHECK(same_bits(a.dp, b.dp));
-      CHECK(a.dp_point == b.dp_point);
-      CHECK(same_bits(a.well_share, b.well_share));
-      CHECK(a.first_crossing == b.first_crossing);
-      CHECK(same_bits(a.crossing_share, b.crossing_share));
-      CHECK(same_bits(a.tracked_dp, b.tracked_dp));
-      CHECK(std::memcmp(&a.peak_dp, &b.peak_dp, sizeof(double)) == 0);
-      CHECK(std::memcmp(&a.peak_time, &b.peak_time, sizeof(double)) == 0);
-      CHECK(std::memcmp(&a.dp_crit, &b.dp_crit, sizeof(double)) == 0);
+  for (bool all_shares : {true, false}) {  // every well's share, or the leading well's only
+    ScreenInputs in = split_inputs();
+    in.all_well_shares = all_shares;
+    CAPTURE(all_shares);
+    const ScreenResult whole = deterministic_screen(in);
+    std::size_t crossed = 0;
+    for (const auto& s : whole.segments) crossed += s.first_crossing ? 1 : 0;
+    REQUIRE(crossed > 0);            // the case exercises crossings and their shares ...
+    REQUIRE(crossed < in.segments.size());  // ... and segments that never cross
+    for (std::size_t parts : {2u, 3u}) {
+      CAPTURE(parts);
+      ScreenResult merged = deterministic_screen(in, nullptr, nullptr, split_segments(in.segments.size(), 0, parts));
+      for (std::size_t p = 1; p < parts; ++p) {
+        const SegmentRange mine = split_segments(in.segments.size(), p, parts);
+        const ScreenResult part = deterministic_screen(in, nullptr, nullptr, mine);
+        CHECK(part.segments[0].tracked_dp == std::vector<double>(whole.segments[0].tracked_dp.size(), 0.0));  // not its segment
+        merge_screen_part(merged, encode_screen_part(part, mine));
+      }
+      CHECK(merged.radius_clamped == whole.radius_clamped);
+      for (std::size_t s = 0; s < whole.segments.size(); ++s) {
+        CAPTURE(s);
+        const SegmentScreen &a = merged.segments[s], &b = whole.segments[s];
+        CHECK(same_bits(a.dp, b.dp));
+        CHECK(a.dp_point == b.dp_point);
+        CHECK(same_bits(a.well_share, b.well_share));
+        CHECK(a.first_crossing == b.first_crossing);
+        CHECK(same_bits(a.crossing_share, b.crossing_share));
+        CHECK(a.leading_well == b.leading_well);
+        CHECK(same_bits(a.leading_share, b.leading_share));
+        CHECK(a.crossing_well == b.crossing_well);
+        CHECK(std::memcmp(&a.crossing_well_share, &b.crossing_well_share, sizeof(double)) == 0);
+        CHECK(same_bits(a.tracked_dp, b.tracked_dp));
+        CHECK(std::memcmp(&a.peak_dp, &b.peak_dp, sizeof(double)) == 0);
+        CHECK(std::memcmp(&a.peak_time, &b.peak_time, sizeof(double)) == 0);
+        CHECK(std::memcmp(&a.dp_crit, &b.dp_crit, sizeof(double)) == 0);
+      }
     }
   }
 }
@@ -113,4 +121,16 @@ TEST_CASE("a malformed or misfitting part of the deterministic screen is refused
   ScreenResult other = deterministic_screen(fewer, nullptr, nullptr, split_segments(in.segments.size(), 0, 2));
   CHECK_THROWS_AS(merge_screen_part(other, good), InputError);
   merge_screen_part(into, good);  // the well-formed part still fits
+
+  // A part naming a well the receiving screen does not have (a run with other wells).
+  ScreenInputs lean = in;
+  lean.all_well_shares = false;
+  const ScreenResult lean_part = deterministic_screen(lean, nullptr, nullptr, mine);
+  bool names_second = false;
+  for (std::size_t s = mine.first; s < mine.end; ++s)
+    for (std::size_t w : lean_part.segments[s].leading_well) names_second = names_second || w == 1;
+  REQUIRE(names_second);
+  lean.wells.pop_back();
+  ScreenResult one_well = deterministic_screen(lean, nullptr, nullptr, split_segments(in.segments.size(), 0, 2));
+  CHECK_THROWS_AS(merge_screen_part(one_well, encode_screen_part(lean_part, mine)), InputError);
 }
