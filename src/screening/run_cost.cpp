@@ -280,16 +280,20 @@ CostPart probabilistic_cost(const RunSizes& z, double& results) {
   const double kernel = (d(z.lags) + 1.0) * d(z.mc_table_nodes) * 4.0;
   const double surrogate = P * groups * nd * (G + 1.0) * 8.0;
   const double draws = (2.0 * nd + 2.0 * groups) * N * 8.0;
-  const double ranks = d(z.sampled_inputs) * N * 8.0 + (z.median_attribution ? K * W * d(z.mc_table_nodes) * 4.0 : 0.0);
+  const double ranks = d(z.sampled_inputs) * N * 8.0;
+  // the table nodes at the output times, kept for the median's attribution
+  const double median = z.median_attribution ? K * W * d(z.mc_table_nodes) * 4.0 : 0.0;
   const double per_thread = (2.0 * K + 2.0 * chunks + 6.0) * N * 8.0 * d(z.threads);
   results = S * ((K + 1.0) * kSketchBytes + (d(z.sampled_inputs) + 2.0 + K) * 8.0 +
                  (z.median_attribution ? K * (W * 8.0 + 64.0) : 0.0)) +
             M * K * 16.0;
   const double map_tables = W * d(z.map_table_nodes) * G * 4.0;
-  const double map_model = M * groups * nd * (G + 1.0) * 8.0 + (2.0 * nd + groups) * N * 8.0;
-  const double tracking = kept + tables + surrogate + draws + results;
-  const double peak = std::max({sampling, kept + tables + kernel, tracking + ranks + per_thread,
-                                tracking + map_tables + map_model + per_thread});
+  const double map_surrogate = M * groups * nd * (G + 1.0) * 8.0, map_draws = (2.0 * nd + groups) * N * 8.0;
+  // The tables live until both surrogates exist (probabilistic::release_tables); the surrogates
+  // and draws through the tracking, the map's draws at its end.
+  const double models = kept + surrogate + draws + map_surrogate + median;
+  const double peak = std::max({sampling, kept + tables + kernel, models + tables + map_tables,
+                                models + results + ranks + map_draws + per_thread});
   const double search = nd * groups * (K + chunks + kTrackChunk);
   const double kernel_cost = z.leaky ? kLeakyKernelCost : 1.0;
   const double ops = N * (S + (M > 0 ? kOrientations : 0.0)) * kCoulombOps +

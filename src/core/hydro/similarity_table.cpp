@@ -157,10 +157,12 @@ SimilarityTable::SimilarityTable(const RateSteps& steps, std::span<const double>
   }
 }
 
-SimilarityTap SimilarityTable::tap(double x) const {
+SimilarityTap SimilarityTable::tap(double x) const { return similarity_tap(grid_, n_nodes_, x); }
+
+SimilarityTap similarity_tap(const SimilarityGrid& grid, std::size_t nodes, double x) {
   SimilarityTap t;
-  const double s = (std::log(x) - grid_.ln_x(0)) / grid_.step;  // fractional node position
-  const double s_max = static_cast<double>(n_nodes_ - 3);
+  const double s = (std::log(x) - grid.ln_x(0)) / grid.step;  // fractional node position
+  const double s_max = static_cast<double>(nodes - 3);
   if (!(s < s_max)) return t;                 // past the table: every term has underflowed
   const double sc = std::max(s, 1.0);         // clamp below (x smaller than the well radius allows)
   const auto i1 = static_cast<std::size_t>(sc);

@@ -67,6 +67,10 @@ struct SimilarityTap {
   std::array<float, 4> weight{};   // Lagrange weights; all zero when x is past the table
 };
 
+// The tap of x on a grid of `nodes` nodes (SimilarityTable::tap, for a table whose values are
+// held elsewhere).
+SimilarityTap similarity_tap(const SimilarityGrid& grid, std::size_t nodes, double x);
+
 class SimilarityTable {
  public:
   SimilarityTable() = default;

@@ -5,6 +5,7 @@
 #include <cmath>
 #include <limits>
 
+#include "core/errors.hpp"
 #include "core/hydro/image_wells.hpp"
 
 namespace slipscreen::probabilistic {
@@ -69,6 +70,7 @@ PressureModel build_pressure_model(const std::vector<WellInput>& wells, const st
   // Tables shared only for the leaky well function, the surrogate always (docs/cluster.md: a
   // Theis table costs about as much to send as to build).
   m.tables = hydro::build_tables(m.steps, settings.tracking_times, m.grid, settings.leakage_rate > 0.0 ? share : nullptr);
+  m.table_nodes = m.grid.node_count();
   m.nodes = settings.surrogate_nodes > 0
                 ? settings.surrogate_nodes
                 // Clamped as a double before the cast (fmin/fmax also take NaN to a bound), so no
@@ -79,6 +81,31 @@ PressureModel build_pressure_model(const std::vector<WellInput>& wells, const st
   m.factor = rate_factors(m, list, r.inputs);
   m.draws = make_pressure_draws(*m.surrogate, r.diffusivity, r.prefactor, m.factor);
   return m;
+}
+
+hydro::PressureSurrogate map_surrogate(const PressureModel& m, const RunSettings& settings) {
+  double r2m = 0.0;
+  for (const auto& p : settings.map_points)
+    for (const auto& src : m.sources) {
+      const double dx = p.x - src.x, dy = p.y - src.y;
+      r2m = std::max(r2m, dx * dx + dy * dy);
+    }
+  const hydro::SimilarityGrid grid{
+      m.grid.ln_x_min, std::max(m.grid.ln_x_max, std::log(std::max(r2m, 1.0) / (4.0 * m.diffusivity_min)) + 0.1),
+      0.025, m.grid.leakage_rate};
+  if (grid.ln_x_max > m.grid.ln_x_max)
+    return {hydro::build_tables(m.steps, settings.tracking_times, grid), m.sources, settings.map_points, m.groups,
+            m.diffusivity_min, m.diffusivity_max, m.nodes};
+  if (m.tables.empty()) throw InputError("similarity tables", "(released)", "the model's tables for the map's surrogate");
+  return {m.tables, m.sources, settings.map_points, m.groups, m.diffusivity_min, m.diffusivity_max, m.nodes};
+}
+
+void release_tables(PressureModel& m, const RunSettings& settings) {
+  if (!settings.map_points.empty()) m.map_surrogate.emplace(map_surrogate(m, settings));
+  if (settings.attribute_median)
+    for (std::size_t k : settings.output_index)
+      for (const auto& table : m.tables) m.median_nodes.push_back(table.nodes_at(k));
+  std::vector<hydro::SimilarityTable>().swap(m.tables);
 }
 
 void point_series(const PressureModel& pm, const std::vector<std::size_t>& points, Eigen::Index rows,

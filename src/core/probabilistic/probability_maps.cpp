@@ -30,20 +30,9 @@ ProbabilityMaps probability_maps(const PressureModel& model, const SampledRealiz
                                  std::optional<ColumnRange> columns) {
   ProbabilityMaps maps;
   if (settings.map_points.empty()) return maps;
-  double r2m = 0.0;
-  for (const auto& p : settings.map_points)
-    for (const auto& src : model.sources) {
-      const double dx = p.x - src.x, dy = p.y - src.y;
-      r2m = std::max(r2m, dx * dx + dy * dy);
-    }
-  const hydro::SimilarityGrid grid{
-      model.grid.ln_x_min,
-      std::max(model.grid.ln_x_max, std::log(std::max(r2m, 1.0) / (4.0 * model.diffusivity_min)) + 0.1), 0.025,
-      model.grid.leakage_rate};
-  const auto tables =
-      grid.ln_x_max > model.grid.ln_x_max ? hydro::build_tables(model.steps, settings.tracking_times, grid) : model.tables;
-  const hydro::PressureSurrogate surrogate(tables, model.sources, settings.map_points, model.groups,
-                                           model.diffusivity_min, model.diffusivity_max, model.nodes);
+  std::optional<hydro::PressureSurrogate> built;
+  if (!model.map_surrogate) built.emplace(map_surrogate(model, settings));
+  const hydro::PressureSurrogate& surrogate = model.map_surrogate ? *model.map_surrogate : *built;
   const ColumnRange cols = columns.value_or(ColumnRange{0, r.diffusivity.size()});
   const auto c0 = static_cast<Eigen::Index>(cols.begin), nc = static_cast<Eigen::Index>(cols.size());
   const PressureDraws draws =

@@ -30,7 +30,6 @@ struct Tracking {
   const SampledRealizations& r;
   const PressureModel& pm;
   std::vector<std::vector<double>> input_ranks;              // per sampled input, over the valid realizations
-  std::vector<std::vector<float>> median_nodes;              // every table's nodes at every output time [t * wells + w]
   std::vector<std::pair<std::uint64_t, Eigen::Index>> audit_cols;  // audited realizations: (index, column)
   std::vector<char> audited;                                 // per segment
   std::vector<VariantSearch> variants;                       // RunSettings::what_if, prepared
@@ -39,7 +38,7 @@ struct Tracking {
 
 Tracking prepare_tracking(const std::vector<WellInput>& wells, const std::vector<SegmentInput>& segments,
                           const RunSettings& settings, const SampledRealizations& r, const PressureModel& pm) {
-  Tracking tr{wells, segments, settings, r, pm, {}, {}, {}, {}, {}, nullptr};
+  Tracking tr{wells, segments, settings, r, pm, {}, {}, {}, {}, nullptr};
   const std::size_t n = r.keep.size();
   tr.input_ranks.resize(static_cast<std::size_t>(r.inputs.rows()));
   for (std::size_t j = 0; j < tr.input_ranks.size(); ++j) {
@@ -47,9 +46,9 @@ Tracking prepare_tracking(const std::vector<WellInput>& wells, const std::vector
     for (std::size_t c = 0; c < n; ++c) col[c] = r.inputs(static_cast<Eigen::Index>(j), static_cast<Eigen::Index>(c));
     tr.input_ranks[j] = stats::average_ranks(col);
   }
-  if (settings.attribute_median)
-    for (std::size_t k : settings.output_index)
-      for (std::size_t w = 0; w < wells.size(); ++w) tr.median_nodes.push_back(pm.tables[w].nodes_at(k));
+  if (settings.attribute_median && pm.median_nodes.size() != settings.output_index.size() * wells.size())
+    throw InputError("median attribution", std::to_string(pm.median_nodes.size()) + " table columns",
+                     "every well's at every output time (release_tables)");
   for (std::uint64_t i : settings.audit_realizations) {
     const auto it = std::lower_bound(r.keep.begin(), r.keep.end(), static_cast<Eigen::Index>(i));
     if (it != r.keep.end() && *it == static_cast<Eigen::Index>(i)) tr.audit_cols.emplace_back(i, it - r.keep.begin());
@@ -199,13 +198,14 @@ std::vector<double> well_contributions(const Tracking& tr, const hydro::Observat
   const double inv4d = 0.25 / tr.r.diffusivity[static_cast<std::size_t>(c)];
   std::vector<double> well_dp(n_wells, 0.0);
   for (std::size_t w = 0; w < n_wells; ++w) {
-    const float* h_nodes = tr.median_nodes[t * n_wells + w].data();
+    const float* h_nodes = pm.median_nodes[t * n_wells + w].data();
     double h = 0.0;
     for (std::size_t j = pm.first_source[w]; j < pm.first_source[w + 1]; ++j) {
       const auto& src = pm.sources[j];
       const double dx = cp.x - src.x, dy = cp.y - src.y;
       const double r2 = std::max(dx * dx + dy * dy, src.radius * src.radius);
-      h += src.sign * hydro::SimilarityTable::value_from_nodes(pm.tables[w].tap(r2 * inv4d), h_nodes);
+      h += src.sign * hydro::SimilarityTable::value_from_nodes(hydro::similarity_tap(pm.grid, pm.table_nodes, r2 * inv4d),
+                                                               h_nodes);
     }
     well_dp[w] = tr.r.prefactor[static_cast<std::size_t>(c)] * pm.factor(static_cast<Eigen::Index>(pm.group_of[w]), c) * h;
   }
@@ -475,7 +475,8 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
   out.input_names = sampled_input_names(model, wells, fault_count);
 
   const util::WorkShare share = split_run ? split->work_share() : util::WorkShare{};
-  const PressureModel pm = build_pressure_model(wells, segments, settings, list, r, &share);
+  PressureModel pm = build_pressure_model(wells, segments, settings, list, r, &share);
+  release_tables(pm, settings);
   out.diffusivity_min = pm.diffusivity_min;
   out.diffusivity_max = pm.diffusivity_max;
   out.surrogate_error = pm.surrogate->max_relative_error();
