@@ -73,3 +73,27 @@ TEST_CASE("probability maps: no pixels, no maps; the oriented map is never more 
   CHECK(empty.dangerous.empty());
   CHECK(empty.oriented.empty());
 }
+
+TEST_CASE("probability maps: the same counts once the model's tables are released") {
+  // The 150 km pixel lies beyond the segment's tables, so the map's surrogate needs its own wider
+  // tables; with only the 500 m pixel it is built from the model's tables before they go.
+  for (bool far_pixel : {true, false}) {
+    CAPTURE(far_pixel);
+    Case c;
+    if (!far_pixel) c.settings.map_points.pop_back();
+    c.settings.attribute_median = true;
+    const InputList list = make_inputs(c.model, c.wells, 1);
+    const auto r = sample_realizations(c.model, list, c.segments, 1, c.settings, stats::RealizationCount(200));
+    PressureModel m = build_pressure_model(c.wells, c.segments, c.settings, list, r);
+    const ProbabilityMaps before = probability_maps(m, r, c.settings);
+    const std::vector<float> last_nodes = m.tables[0].nodes_at(c.settings.output_index.back());
+    release_tables(m, c.settings);
+    CHECK(m.tables.empty());
+    REQUIRE(m.map_surrogate.has_value());
+    REQUIRE(m.median_nodes.size() == c.settings.output_index.size() * c.wells.size());
+    CHECK(m.median_nodes.back() == last_nodes);  // the output times' columns, kept bit for bit
+    const ProbabilityMaps after = probability_maps(m, r, c.settings);
+    CHECK(after.dangerous == before.dangerous);
+    CHECK(after.dangerous_already_critical == before.dangerous_already_critical);
+  }
+}
