@@ -287,7 +287,8 @@ CostPart probabilistic_cost(const RunSizes& z, double& results) {
   results = S * ((K + 1.0) * kSketchBytes + (d(z.sampled_inputs) + 2.0 + K) * 8.0 +
                  (z.median_attribution ? K * (W * 8.0 + 64.0) : 0.0)) +
             M * K * 16.0;
-  const double map_tables = W * d(z.map_table_nodes) * G * 4.0;
+  // the map's own tables, when its farthest pixel lies beyond the segments' (and their lag kernel)
+  const double map_tables = W * d(z.map_table_nodes) * G * 4.0 + (d(z.lags) + 1.0) * d(z.map_table_nodes) * 4.0;
   const double map_surrogate = M * groups * nd * (G + 1.0) * 8.0, map_draws = (2.0 * nd + groups) * N * 8.0;
   // The tables live until both surrogates exist (probabilistic::release_tables); the surrogates
   // and draws through the tracking, the map's draws at its end.
@@ -299,7 +300,8 @@ CostPart probabilistic_cost(const RunSizes& z, double& results) {
   const double ops = N * (S + (M > 0 ? kOrientations : 0.0)) * kCoulombOps +
                      d(z.lags) * d(z.mc_table_nodes) * kernel_cost +
                      d(z.rate_steps) * G * d(z.mc_table_nodes) + (P + M) * d(z.sources) * nd * G +
-                     (P + M) * N * search;
+                     (P + M) * N * search +
+                     (d(z.lags) * kernel_cost + d(z.rate_steps) * G) * d(z.map_table_nodes);  // the map's tables
   return {"probabilistic screen", peak, ops};
 }
 

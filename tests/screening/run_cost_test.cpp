@@ -80,6 +80,20 @@ TEST_CASE("the cost formulas, by hand for one set of sizes") {
   CHECK(run_cost(z2).peak_bytes > 1.9 * c.peak_bytes);
 }
 
+TEST_CASE("a probability map beyond the segments' tables costs its own tables and their lag kernel") {
+  RunSizes z;
+  z.wells = 100, z.sources = 100, z.segments = 50, z.check_points = 150, z.faults = 10;
+  z.output_times = 5, z.rate_steps = 2000, z.lags = 3000, z.realizations = 1000, z.sampled_inputs = 8;
+  z.mc_times = 100, z.mc_table_nodes = 800, z.surrogate_nodes = 16, z.map_points = 400;
+  RunSizes wide = z;
+  wide.map_table_nodes = 1000;  // the farthest pixel needs 200 more nodes: the map builds its own
+  const CostPart narrow_part = run_cost(z).parts[2], wide_part = run_cost(wide).parts[2];
+  // Arithmetic from the formulas of run_cost.cpp: the kernel's 3000 lags and the tables' 2000 rate
+  // steps × 100 tracking times, at 1000 nodes each.
+  CHECK(wide_part.operations - narrow_part.operations == (3000.0 + 2000.0 * 100.0) * 1000.0);
+  CHECK(wide_part.bytes >= narrow_part.bytes);
+}
+
 TEST_CASE("a leaky formation costs its W(u, r/B): the estimate exceeds the Theis one by the measured factors") {
   // The tiny scenario (three wells, rate histories from 2020) and the same with the leaky
   // formation of tests/data/scenario/physics_paths.toml (B = 14 km), each with a small
@@ -115,10 +129,13 @@ TEST_CASE("a leaky formation costs its W(u, r/B): the estimate exceeds the Theis
                        static_cast<double>(zl.wells);
   CHECK(cl.parts[1].operations - ct.parts[1].operations ==
         doctest::Approx((kLeakyKernelCost - 1.0) * kernel + (kLeakyTermCost - 1.0) * exact).epsilon(1e-12));
-  // probabilistic screen: its own lag kernel over the sampled range of D
+  // probabilistic screen: its own lag kernel over the sampled range of D, and the map's (its
+  // pixels reach beyond the segments' tables here)
+  REQUIRE(zl.map_table_nodes > 0);
+  CHECK(zl.map_table_nodes == zt.map_table_nodes);
   CHECK(cl.parts[2].operations - ct.parts[2].operations ==
         doctest::Approx((kLeakyKernelCost - 1.0) * static_cast<double>(zl.lags) *
-                        static_cast<double>(zl.mc_table_nodes)).epsilon(1e-12));
+                        static_cast<double>(zl.mc_table_nodes + zl.map_table_nodes)).epsilon(1e-12));
   // pressure raster: summed directly, one W per cell, time, source and rate step
   CHECK(cl.parts[3].operations ==
         doctest::Approx(static_cast<double>(zl.raster_cells) * exact / static_cast<double>(zl.segments) *
