@@ -70,7 +70,6 @@ PressureModel build_pressure_model(const std::vector<WellInput>& wells, const st
   // Tables shared only for the leaky well function, the surrogate always (docs/cluster.md: a
   // Theis table costs about as much to send as to build).
   m.tables = hydro::build_tables(m.steps, settings.tracking_times, m.grid, settings.leakage_rate > 0.0 ? share : nullptr);
-  m.table_nodes = m.grid.node_count();
   m.nodes = settings.surrogate_nodes > 0
                 ? settings.surrogate_nodes
                 // Clamped as a double before the cast (fmin/fmax also take NaN to a bound), so no

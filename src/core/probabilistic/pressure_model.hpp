@@ -40,7 +40,6 @@ struct PressureModel {
   std::vector<std::vector<std::size_t>> segment_points;  // surrogate point index of every check point
   double diffusivity_min = 0.0, diffusivity_max = 0.0;   // m²/s over the valid realizations
   hydro::SimilarityGrid grid;
-  std::size_t table_nodes = 0;                           // nodes of the grid (hydro::similarity_tap)
   std::vector<hydro::SimilarityTable> tables;            // per well; empty after release_tables
   std::size_t nodes = 0;                                 // Chebyshev nodes in ln D
   std::optional<hydro::PressureSurrogate> surrogate;     // at the segments' check points

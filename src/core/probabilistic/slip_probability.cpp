@@ -196,6 +196,7 @@ std::vector<double> well_contributions(const Tracking& tr, const hydro::Observat
   const auto& pm = tr.pm;
   const std::size_t n_wells = tr.wells.size();
   const double inv4d = 0.25 / tr.r.diffusivity[static_cast<std::size_t>(c)];
+  const std::size_t table_nodes = pm.grid.node_count();  // the released tables' (release_tables)
   std::vector<double> well_dp(n_wells, 0.0);
   for (std::size_t w = 0; w < n_wells; ++w) {
     const float* h_nodes = pm.median_nodes[t * n_wells + w].data();
@@ -204,7 +205,7 @@ std::vector<double> well_contributions(const Tracking& tr, const hydro::Observat
       const auto& src = pm.sources[j];
       const double dx = cp.x - src.x, dy = cp.y - src.y;
       const double r2 = std::max(dx * dx + dy * dy, src.radius * src.radius);
-      h += src.sign * hydro::SimilarityTable::value_from_nodes(hydro::similarity_tap(pm.grid, pm.table_nodes, r2 * inv4d),
+      h += src.sign * hydro::SimilarityTable::value_from_nodes(hydro::similarity_tap(pm.grid, table_nodes, r2 * inv4d),
                                                                h_nodes);
     }
     well_dp[w] = tr.r.prefactor[static_cast<std::size_t>(c)] * pm.factor(static_cast<Eigen::Index>(pm.group_of[w]), c) * h;

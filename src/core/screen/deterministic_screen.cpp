@@ -4,6 +4,8 @@
 #include <cmath>
 #include <limits>
 #include <span>
+#include <tuple>
+#include <utility>
 
 #include "core/errors.hpp"
 #include "core/geomech/fault_plane.hpp"
@@ -161,6 +163,21 @@ void table_series(const TabulatedField& tf, const hydro::PreparedPoints& prepare
   errors.rethrow();
 }
 
+// Each well's fraction of the exact Δp at point 0 and time i of `exact` (0 when Δp = 0), written
+// to `all` (W values) unless it is null; returns the largest fraction's well and value (the first
+// well on ties; well 0 and 0 when no fraction is positive).
+std::pair<std::size_t, double> well_fractions(const hydro::PressureResult& exact, std::size_t i, std::size_t W,
+                                              double* all) {
+  const double total = exact.at(0, i);
+  std::pair<std::size_t, double> lead{0, 0.0};
+  for (std::size_t w = 0; w < W; ++w) {
+    const double v = total > 0 ? exact.contribution(0, i, w) / total : 0.0;
+    if (v > lead.second) lead = {w, v};
+    if (all) all[w] = v;
+  }
+  return lead;
+}
+
 // Exact Δp at the output times, at the check points [pa, pb) of one segment that can hold the
 // maximum: those within twice the table error of the highest table value (the exact maximum is
 // among them). Fills dp, dp_point and well_share.
@@ -192,13 +209,8 @@ void exact_output_dp(const TabulatedField& tf, std::span<const hydro::FieldPoint
       best[k] = total;
       out.dp[k] = total;
       out.dp_point[k] = p - pa;
-      const auto share = [&](std::size_t w) { return total > 0 ? exact.contribution(0, i, w) / total : 0.0; };
-      out.leading_well[k] = 0, out.leading_share[k] = 0.0;
-      for (std::size_t w = 0; w < W; ++w) {
-        const double v = share(w);
-        if (v > out.leading_share[k]) out.leading_well[k] = w, out.leading_share[k] = v;
-        if (tf.in.all_well_shares) out.well_share[k * W + w] = v;
-      }
+      std::tie(out.leading_well[k], out.leading_share[k]) =
+          well_fractions(exact, i, W, tf.in.all_well_shares ? &out.well_share[k * W] : nullptr);
     }
   }
 }
@@ -241,13 +253,9 @@ void crossing_shares(const TabulatedField& tf, std::span<const hydro::FieldPoint
   const hydro::PreparedPoints one = tf.field.prepare(pts.subspan(point, 1));
   const std::vector<double> ts{*out.first_crossing};
   const hydro::PressureResult exact = tf.field.evaluate(one, ts, tf.in.formation, {}, true);
-  const double total = exact.at(0, 0);
   if (tf.in.all_well_shares) out.crossing_share.assign(W, 0.0);
-  for (std::size_t w = 0; w < W; ++w) {
-    const double v = total > 0 ? exact.contribution(0, 0, w) / total : 0.0;
-    if (v > out.crossing_well_share) out.crossing_well = w, out.crossing_well_share = v;
-    if (tf.in.all_well_shares) out.crossing_share[w] = v;
-  }
+  std::tie(out.crossing_well, out.crossing_well_share) =
+      well_fractions(exact, 0, W, tf.in.all_well_shares ? out.crossing_share.data() : nullptr);
 }
 
 // Screens the segments [s0, s1) as one block: table Δp at their check points, then each
