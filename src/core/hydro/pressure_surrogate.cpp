@@ -4,6 +4,7 @@
 #include <cmath>
 #include <numbers>
 #include <numeric>
+#include <optional>
 #include <string>
 
 #include "core/errors.hpp"
@@ -135,14 +136,17 @@ std::vector<double> column_maxima(const std::vector<Eigen::MatrixXd>& g, std::si
 // 64 points spread through the list (per point it costs as much as the table itself).
 double estimate_error(const PressureSurrogate& surrogate, const std::vector<SimilarityTable>& tables,
                       std::span<const PressureSource> sources, std::span<const ObservationPoint> points,
-                      const std::vector<double>& ln_nodes) {
+                      const std::vector<double>& ln_nodes, const PointRange& range) {
   const std::size_t n_points = points.size(), n_groups = surrogate.group_count(),
                     n_times = surrogate.time_count(), n = ln_nodes.size();
   double worst = 0.0;
-  const std::size_t stride = std::max<std::size_t>(1, n_points / 64);
+  // Every stride-th point of the whole set, so that parts holding ranges of it sample the same
+  // points as the whole (their maxima then give the whole's).
+  const std::size_t stride = std::max<std::size_t>(1, range.total / 64);
+  const std::size_t start = (stride - range.first % stride) % stride;
   util::ParallelErrors errors;
 #pragma omp parallel for schedule(dynamic, 1) reduction(max : worst)
-  for (std::size_t p = 0; p < n_points; p += stride)
+  for (std::size_t p = start; p < n_points; p += stride)
     errors.iteration(p, [&] {
       std::vector<std::vector<double>> exact(n_groups, std::vector<double>(n_times));
       std::vector<double> ell(n);
@@ -179,9 +183,14 @@ double estimate_error(const PressureSurrogate& surrogate, const std::vector<Simi
 PressureSurrogate::PressureSurrogate(const std::vector<SimilarityTable>& tables,
                                      std::span<const PressureSource> sources,
                                      std::span<const ObservationPoint> points, std::size_t group_count,
-                                     double d_min, double d_max, std::size_t nodes, const util::WorkShare* share)
+                                     double d_min, double d_max, std::size_t nodes, const util::WorkShare* share,
+                                     std::optional<PointRange> range)
     : n_points_(points.size()), n_groups_(group_count) {
   check_inputs(tables, sources, group_count, d_min, d_max);
+  if (range && (share || range->first > range->total || range->total - range->first < points.size()))
+    throw InputError("surrogate point range", std::to_string(range->first) + " + " + std::to_string(points.size()) + " of " +
+                                                  std::to_string(range->total) + (share ? ", shared" : ""),
+                     "a range inside the whole set of points, not shared");
   n_times_ = tables.front().time_count();
   Nodes placed = place_nodes(d_min, d_max, nodes);
   ln_nodes_ = std::move(placed.ln_d);
@@ -194,7 +203,7 @@ PressureSurrogate::PressureSurrogate(const std::vector<SimilarityTable>& tables,
   else
     sum_tables(tables, sources, points, n_groups_, placed.inv4d, g_);
   col_max_ = column_maxima(g_, n);
-  max_error_ = estimate_error(*this, tables, sources, points, ln_nodes_);
+  max_error_ = estimate_error(*this, tables, sources, points, ln_nodes_, range.value_or(PointRange{0, points.size()}));
 }
 
 void PressureSurrogate::basis(double diffusivity, double* out) const {

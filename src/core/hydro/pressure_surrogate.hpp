@@ -17,6 +17,7 @@
 // point's maximum Δp (tests/core/hydro/pressure_surrogate_test.cpp).
 #include <Eigen/Dense>
 #include <cstddef>
+#include <optional>
 #include <span>
 #include <vector>
 
@@ -38,16 +39,26 @@ struct PressureSource {
   std::size_t group = 0;     // rate group (a rate factor per group)
 };
 
+// The points given to a surrogate as items [first, first + count) of a larger set of `total`
+// points (a part of a split run holds only its own segments' check points, docs/cluster.md).
+// The error estimate then samples the same points of the whole set as a surrogate of all of
+// them, so the largest of the parts' estimates is the whole's.
+struct PointRange {
+  std::size_t first = 0, total = 0;
+};
+
 class PressureSurrogate {
  public:
   // Tabulates G for every point and rate group at `nodes` Chebyshev nodes in
   // [ln d_min, ln d_max] (one node when d_min == d_max). OpenMP over points. With an active
   // `share` each part tabulates its range of points (util::part_range) and the parts exchange
   // them, so every part holds the whole surrogate, bit for bit that of one process (a point's G
-  // sums the sources in the same order whatever the other points).
+  // sums the sources in the same order whatever the other points). With `range` (not shared) the
+  // points are a range of a larger set (PointRange).
   PressureSurrogate(const std::vector<SimilarityTable>& tables, std::span<const PressureSource> sources,
                     std::span<const ObservationPoint> points, std::size_t group_count, double d_min,
-                    double d_max, std::size_t nodes = 16, const util::WorkShare* share = nullptr);
+                    double d_max, std::size_t nodes = 16, const util::WorkShare* share = nullptr,
+                    std::optional<PointRange> range = std::nullopt);
 
   std::size_t point_count() const { return n_points_; }
   std::size_t group_count() const { return n_groups_; }

@@ -4,6 +4,8 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <span>
+#include <string>
 
 #include "core/errors.hpp"
 #include "core/hydro/image_wells.hpp"
@@ -50,7 +52,10 @@ Eigen::MatrixXd rate_factors(const PressureModel& m, const InputList& list, cons
 
 PressureModel build_pressure_model(const std::vector<WellInput>& wells, const std::vector<SegmentInput>& segments,
                                    const RunSettings& settings, const InputList& list, const SampledRealizations& r,
-                                   const util::WorkShare* share) {
+                                   const util::WorkShare* share, std::optional<SegmentRows> own) {
+  if (own && (own->first > own->second || own->second > segments.size()))
+    throw InputError("own segments", std::to_string(own->first) + " to " + std::to_string(own->second),
+                     "a range of the " + std::to_string(segments.size()) + " segments");
   PressureModel m;
   m.diffusivity_min = *std::min_element(r.diffusivity.begin(), r.diffusivity.end());
   m.diffusivity_max = *std::max_element(r.diffusivity.begin(), r.diffusivity.end());
@@ -76,7 +81,18 @@ PressureModel build_pressure_model(const std::vector<WellInput>& wells, const st
                 // ratio of diffusivities can make the float-to-integer cast undefined.
                 : static_cast<std::size_t>(
                       std::fmax(4.0, std::fmin(64.0, std::ceil(8.0 * std::log(m.diffusivity_max / m.diffusivity_min)))));
-  m.surrogate.emplace(m.tables, m.sources, points, m.groups, m.diffusivity_min, m.diffusivity_max, m.nodes, share);
+  if (own) {  // this part's segments only: their points are contiguous in `points`
+    const std::size_t first = own->first < own->second ? m.segment_points[own->first].front() : 0;
+    const std::size_t end = own->first < own->second ? m.segment_points[own->second - 1].back() + 1 : 0;
+    for (std::size_t s = 0; s < segments.size(); ++s)
+      if (s < own->first || s >= own->second) m.segment_points[s].clear();
+      else
+        for (auto& i : m.segment_points[s]) i -= first;
+    m.surrogate.emplace(m.tables, m.sources, std::span(points).subspan(first, end - first), m.groups, m.diffusivity_min,
+                        m.diffusivity_max, m.nodes, nullptr, hydro::PointRange{first, points.size()});
+  } else {
+    m.surrogate.emplace(m.tables, m.sources, points, m.groups, m.diffusivity_min, m.diffusivity_max, m.nodes, share);
+  }
   m.factor = rate_factors(m, list, r.inputs);
   m.draws = make_pressure_draws(*m.surrogate, r.diffusivity, r.prefactor, m.factor);
   return m;

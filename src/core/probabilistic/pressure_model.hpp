@@ -20,6 +20,7 @@
 #include <Eigen/Dense>
 #include <cstddef>
 #include <optional>
+#include <utility>
 #include <vector>
 
 #include "core/util/work_share.hpp"
@@ -50,12 +51,18 @@ struct PressureModel {
   PressureDraws draws;                                   // the realizations' basis and P · f_g
 };
 
+// Segments [first, second).
+using SegmentRows = std::pair<std::size_t, std::size_t>;
+
 // Builds the model for the valid realizations of `r` (their D, P and rate-factor inputs). With an
 // active `share` the parts build the tables and the surrogate together (every part then calls
-// this with the same inputs, in the same order as its other shared builds).
+// this with the same inputs, in the same order as its other shared builds). With `own` the
+// surrogate holds only the check points of those segments (a part of a split run that tracks
+// them; the other segments' segment_points are empty), each point's G bit for bit that of the
+// whole model; `share` then serves only the tables.
 PressureModel build_pressure_model(const std::vector<WellInput>& wells, const std::vector<SegmentInput>& segments,
                                    const RunSettings& settings, const InputList& list, const SampledRealizations& r,
-                                   const util::WorkShare* share = nullptr);
+                                   const util::WorkShare* share = nullptr, std::optional<SegmentRows> own = std::nullopt);
 
 // The surrogate at the settings' map points: from the model's tables, or from tables reaching
 // the farthest pixel when the model's do not (built here, then dropped).

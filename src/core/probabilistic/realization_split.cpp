@@ -1,6 +1,7 @@
 // Splitting the realizations across processes; see realization_split.hpp.
 #include "core/probabilistic/realization_split.hpp"
 
+#include <algorithm>
 #include <string>
 
 #include "core/errors.hpp"
@@ -10,7 +11,7 @@
 namespace slipscreen::probabilistic {
 namespace {
 
-constexpr std::uint64_t kMagic = 0x736c697073706c34ULL;  // "slipspl4": this encoding's version
+constexpr std::uint64_t kMagic = 0x736c697073706c35ULL;  // "slipspl5": this encoding's version
 
 // The partial result's words (core/util/word_codec.hpp), with its sketches.
 class Writer : public util::WordWriter {
@@ -34,16 +35,6 @@ void add_counts(std::vector<std::uint64_t>& into, const std::vector<std::uint64_
   for (std::size_t k = 0; k < into.size(); ++k) into[k] += from[k];
 }
 
-// The weighted accumulators: weight units summed, weighted sketches merged.
-void merge_conditioned(ConditionedCounts& a, const ConditionedCounts& b) {
-  add_counts(a.slipped_by, b.slipped_by, "weighted slip counts");
-  a.already_critical += b.already_critical;
-  a.dp_crit.merge(b.dp_crit);
-  if (a.dp.size() != b.dp.size())
-    throw InputError("weighted Δp sketches", std::to_string(b.dp.size()), std::to_string(a.dp.size()) + " as in part 0");
-  for (std::size_t t = 0; t < a.dp.size(); ++t) a.dp[t].merge(b.dp[t]);
-}
-
 }  // namespace
 
 ColumnRange split_columns(std::size_t columns, std::size_t part, std::size_t parts) {
@@ -64,8 +55,7 @@ ColumnRange split_rows(std::size_t n, std::size_t part, std::size_t parts) {
 std::vector<std::uint8_t> encode_partial(const PartialResult& p) {
   Writer w;
   w.word(kMagic);
-  w.word(p.columns.begin);
-  w.word(p.columns.end);
+  w.word(p.first_segment);
   w.word(p.segments.size());
   for (const auto& s : p.segments) {
     w.words(s.slipped_by);
@@ -83,7 +73,6 @@ std::vector<std::uint8_t> encode_partial(const PartialResult& p) {
     w.word(s.conditioned.dp.size());
     for (const auto& d : s.conditioned.dp) w.sketch(d);
   }
-  w.word(p.finished_first);
   w.word(p.finished.size());
   for (const auto& f : p.finished) {
     w.doubles(f.sensitivity);
@@ -95,6 +84,9 @@ std::vector<std::uint8_t> encode_partial(const PartialResult& p) {
       w.doubles(m.well_dp);
     }
   }
+  w.doubles(std::span<const double>(&p.surrogate_error, 1));
+  w.word(p.columns.begin);
+  w.word(p.columns.end);
   w.words(p.map_dangerous);
   w.words(p.map_oriented);
   w.word(p.map_dangerous_already_critical);
@@ -106,9 +98,7 @@ PartialResult decode_partial(std::span<const std::uint8_t> bytes) {
   Reader r(bytes);
   if (r.word() != kMagic) r.fail("an unknown header");
   PartialResult p;
-  p.columns.begin = r.word();
-  p.columns.end = r.word();
-  if (p.columns.end < p.columns.begin) r.fail("a column range that ends before it begins");
+  p.first_segment = static_cast<std::size_t>(r.word());
   p.segments.resize(r.count());
   for (auto& s : p.segments) {
     s.slipped_by = r.words();
@@ -126,8 +116,9 @@ PartialResult decode_partial(std::span<const std::uint8_t> bytes) {
     s.conditioned.dp.resize(r.count());
     for (auto& d : s.conditioned.dp) d = r.weighted_sketch();
   }
-  p.finished_first = r.word();
   p.finished.resize(r.count());
+  if (p.finished.size() != p.segments.size())
+    r.fail(std::to_string(p.finished.size()) + " finished segments for " + std::to_string(p.segments.size()) + " tracked");
   for (auto& f : p.finished) {
     f.sensitivity = r.doubles();
     f.median.resize(r.count());
@@ -140,6 +131,12 @@ PartialResult decode_partial(std::span<const std::uint8_t> bytes) {
       m.well_dp = r.doubles();
     }
   }
+  const std::vector<double> error = r.doubles();
+  if (error.size() != 1) r.fail("a surrogate error of " + std::to_string(error.size()) + " values");
+  p.surrogate_error = error[0];
+  p.columns.begin = r.word();
+  p.columns.end = r.word();
+  if (p.columns.end < p.columns.begin) r.fail("a column range that ends before it begins");
   p.map_dangerous = r.words();
   p.map_oriented = r.words();
   p.map_dangerous_already_critical = r.word();
@@ -152,36 +149,21 @@ PartialResult merge_partials(std::vector<PartialResult> parts) {
   if (parts.empty()) throw InputError("partial results", "(none)", "at least one part");
   PartialResult m = std::move(parts.front());
   if (m.columns.begin != 0) throw InputError("first part's columns", std::to_string(m.columns.begin), "starting at 0");
+  if (m.first_segment != 0) throw InputError("first part's segments", std::to_string(m.first_segment), "starting at 0");
   for (std::size_t k = 1; k < parts.size(); ++k) {
     PartialResult& p = parts[k];
     if (p.columns.begin != m.columns.end)
       throw InputError("part " + std::to_string(k) + "'s first column", std::to_string(p.columns.begin),
                        std::to_string(m.columns.end) + ", the end of the parts before it");
-    if (p.segments.size() != m.segments.size())
-      throw InputError("part " + std::to_string(k) + "'s segments", std::to_string(p.segments.size()),
-                       std::to_string(m.segments.size()) + " as in part 0");
-    for (std::size_t i = 0; i < m.segments.size(); ++i) {
-      SegmentPart& a = m.segments[i];
-      SegmentPart& b = p.segments[i];
-      add_counts(a.slipped_by, b.slipped_by, "slip counts");
-      add_counts(a.first_slip, b.first_slip, "first-slip counts");
-      a.already_critical += b.already_critical;
-      a.never_critical += b.never_critical;
-      a.dp_crit.merge(b.dp_crit);
-      if (a.dp.size() != b.dp.size())
-        throw InputError("Δp sketches", std::to_string(b.dp.size()), std::to_string(a.dp.size()) + " as in part 0");
-      for (std::size_t t = 0; t < a.dp.size(); ++t) a.dp[t].merge(b.dp[t]);
-      merge_conditioned(a.conditioned, b.conditioned);
-      if (a.what_if.size() != b.what_if.size())
-        throw InputError("what-if counts", std::to_string(b.what_if.size()), std::to_string(a.what_if.size()) + " variants as in part 0");
-      for (std::size_t v = 0; v < a.what_if.size(); ++v) add_counts(a.what_if[v], b.what_if[v], "what-if counts");
-    }
-    if (!p.finished.empty()) {
-      if (p.finished_first != m.finished_first + m.finished.size())
-        throw InputError("part " + std::to_string(k) + "'s first finished segment", std::to_string(p.finished_first),
-                         std::to_string(m.finished_first + m.finished.size()) + ", the end of the parts before it");
-      for (auto& f : p.finished) m.finished.push_back(std::move(f));
-    }
+    if (p.first_segment != m.first_segment + m.segments.size())
+      throw InputError("part " + std::to_string(k) + "'s first segment", std::to_string(p.first_segment),
+                       std::to_string(m.first_segment + m.segments.size()) + ", the end of the parts before it");
+    if (p.finished.size() != p.segments.size())
+      throw InputError("part " + std::to_string(k) + "'s finished segments", std::to_string(p.finished.size()),
+                       std::to_string(p.segments.size()) + ", one per tracked segment");
+    for (auto& s : p.segments) m.segments.push_back(std::move(s));
+    for (auto& f : p.finished) m.finished.push_back(std::move(f));
+    m.surrogate_error = std::max(m.surrogate_error, p.surrogate_error);
     add_counts(m.map_dangerous, p.map_dangerous, "map counts");
     add_counts(m.map_oriented, p.map_oriented, "oriented map counts");
     m.map_dangerous_already_critical += p.map_dangerous_already_critical;

@@ -1,16 +1,19 @@
 #pragma once
-// Splitting the probabilistic screen's realizations across processes (docs/cluster.md).
+// Splitting the probabilistic screen across processes (docs/cluster.md).
 //
-// Every process samples every realization and builds the same pressure model (the surrogate's
-// range in D spans all valid realizations); each then tracks only its block of the valid
-// realizations. A block is a fixed range of columns (valid realizations in index order) whose
-// boundaries are multiples of kSplitAlign, the slip tracker's block of matrix products, so each
-// process evaluates exactly the products of the single-process run. The partial results merge
-// exactly: slip counts are integers, the quantile sketches merge bucket for bucket
-// (stats::QuantileSketch). What needs every realization at a segment (the sensitivities and the
-// median attribution) is computed by one part per segment, for its range of segments: it
-// recomputes those segments' Δp at the output times for every realization (the same products
-// as the tracking, so the same bits) instead of receiving them from the other parts.
+// Every process samples every realization and builds the same tables; the segments are cut
+// into near-equal ranges (split_rows), and each process builds the surrogate of its own
+// segments' check points only (pressure_model.hpp; every point's values bit for bit those of
+// the whole model) and tracks its segments over every realization, exactly as one process
+// tracks them: the same products in the same blocks, the same sketches, sensitivities and
+// median attribution. Nothing but finished segments needs merging. The probability maps are
+// split by realizations: a fixed range of columns (valid realizations in index order) per
+// process, whose boundaries are multiples of kSplitAlign, the slip tracker's block of matrix
+// products, so each process evaluates exactly the products of the single-process run; their
+// integer counts sum exactly.
+// (The segments were first split by realizations as the maps are; measured on the regional
+// case, docs/cluster.md, the surrogate's exchange and the recomputation of every realization's
+// Δp for the sensitivities cost more than the split saved.)
 //
 // No communication happens here (src/core has no I/O): the caller supplies `gather`, which the
 // run layer implements with MPI (run/mpi_cluster.hpp).
@@ -68,10 +71,8 @@ struct MedianAttribution {
   bool operator==(const MedianAttribution&) const = default;
 };
 
-// What a segment's results need from every realization, computed by one part for its range of
-// segments (split_rows) after it recomputes their Δp at the output times for every realization
-// (slip_tracker.hpp pressure_at_output_times; each part holds every realization's draws): the
-// sensitivities (Spearman ρ with the slip margin) and the median attribution.
+// What a segment's results need from every realization: the sensitivities (Spearman ρ with the
+// slip margin) and the median attribution.
 struct FinishedSegment {
   std::vector<double> sensitivity;
   std::vector<MedianAttribution> median;
@@ -81,7 +82,7 @@ struct FinishedSegment {
 // Part `part` of `parts` over `n` rows (segments): near-equal runs, in order.
 ColumnRange split_rows(std::size_t n, std::size_t part, std::size_t parts);
 
-// One segment's results over a block of columns.
+// One segment's results over every realization, before what needs all of them at once.
 struct SegmentPart {
   std::vector<std::uint64_t> slipped_by, first_slip;
   std::uint64_t already_critical = 0, never_critical = 0;
@@ -92,11 +93,13 @@ struct SegmentPart {
   bool operator==(const SegmentPart&) const = default;
 };
 
+// One process's share: its segments, whole, and its block of the map counts.
 struct PartialResult {
-  ColumnRange columns;
+  std::size_t first_segment = 0;           // segments [first_segment, + segments.size()) tracked here
   std::vector<SegmentPart> segments;
-  std::size_t finished_first = 0;          // segments [finished_first, + finished.size()) finished here
-  std::vector<FinishedSegment> finished;
+  std::vector<FinishedSegment> finished;   // the same segments
+  double surrogate_error = 0.0;            // over this part's check points (hydro::PointRange)
+  ColumnRange columns;                     // the valid realizations of the map counts
   std::vector<std::uint64_t> map_dangerous, map_oriented;
   std::uint64_t map_dangerous_already_critical = 0, map_oriented_already_critical = 0;
   bool operator==(const PartialResult&) const = default;
@@ -107,9 +110,9 @@ struct PartialResult {
 std::vector<std::uint8_t> encode_partial(const PartialResult& p);
 PartialResult decode_partial(std::span<const std::uint8_t> bytes);
 
-// Merges parts whose column ranges follow each other from column 0 (InputError otherwise, or if
-// their shapes differ): counts summed, sketches merged, finished segments concatenated (their
-// ranges must follow each other too).
+// Merges parts whose segment ranges and column ranges each follow each other from 0 (InputError
+// otherwise, or if their map counts differ in shape): segments concatenated, map counts summed,
+// the largest surrogate error.
 PartialResult merge_partials(std::vector<PartialResult> parts);
 
 // How run_probabilistic splits: this process's part and the exchange. `gather` is called once
@@ -120,8 +123,9 @@ PartialResult merge_partials(std::vector<PartialResult> parts);
 struct RealizationSplit {
   std::size_t part = 0, parts = 1;
   std::function<std::optional<std::vector<std::vector<std::uint8_t>>>(std::vector<std::uint8_t>)> gather;
-  // Every part's piece to every part (util::WorkShare): the pressure model's tables and surrogate
-  // are built together. Empty: every part builds the whole model itself.
+  // Every part's piece to every part (util::WorkShare): the leaky model's tables are built
+  // together, and so is the whole surrogate when every part needs it (the allowable rate, the
+  // seismicity likelihood). Empty: every part builds what it needs itself.
   std::function<std::vector<std::vector<std::uint8_t>>(std::vector<std::uint8_t>)> all_gather;
   util::WorkShare work_share() const { return {part, parts, all_gather}; }
 };

@@ -272,26 +272,6 @@ FinishedSegment finish_over_all(const Tracking& tr, std::size_t segment, const s
   return f;
 }
 
-// finish_over_all in a part of a split run, for one of its segments: Δp at the output times for
-// every realization, recomputed bit for bit as the tracking computes it (pressure_at_output_times).
-// No sketches (the merged ones are on part 0): the median search orders every value, which costs
-// less than building them.
-// `at_output` and `by_time` are one thread's buffers, reused from segment to segment (fresh
-// allocations of this size cost more in page faults than the products).
-FinishedSegment finish_recomputed(const Tracking& tr, std::size_t segment, Eigen::MatrixXd& at_output,
-                                  std::vector<double>& by_time) {
-  pressure_at_output_times(*tr.pm.surrogate, tr.pm.segment_points[segment], tr.pm.draws, tr.settings.output_index,
-                           at_output);
-  by_time.clear();
-  if (tr.settings.attribute_median) {
-    const auto n = static_cast<std::size_t>(at_output.cols());
-    by_time.resize(n * static_cast<std::size_t>(at_output.rows()));
-    for (Eigen::Index t = 0; t < at_output.rows(); ++t)
-      for (std::size_t c = 0; c < n; ++c) by_time[static_cast<std::size_t>(t) * n + c] = at_output(t, static_cast<Eigen::Index>(c));
-  }
-  return finish_over_all(tr, segment, slip_margins(tr, segment, at_output, 0), by_time, {});
-}
-
 // The segment's results: the counts of its (merged) part and what needs every realization.
 SegmentResult finish_segment(SegmentPart&& part, FinishedSegment&& finished) {
   SegmentResult res;
@@ -307,6 +287,23 @@ SegmentResult finish_segment(SegmentPart&& part, FinishedSegment&& finished) {
   return res;
 }
 
+// A tracked segment's counts and sketches over every realization, and what needs all of them
+// (`finished`).
+SegmentPart tracked_segment(const Tracking& tr, const SegmentOutcome& o, FinishedSegment& finished) {
+  std::vector<double> by_time;
+  SegmentPart part = segment_part(tr, o, 0, tr.settings.attribute_median ? &by_time : nullptr);
+  finished = finish_over_all(tr, o.segment, slip_margins(tr, o.segment, o.dp_at_output, 0), by_time, part.dp);
+  return part;
+}
+
+// The segment's what-if counts into out.what_if and its results into out.segments.
+void store_segment(std::size_t segment, SegmentPart&& part, FinishedSegment&& finished, ProbabilisticResult& out) {
+  if (part.what_if.size() != out.what_if.size())
+    throw InputError("what-if counts", std::to_string(part.what_if.size()), std::to_string(out.what_if.size()) + ", one per variant");
+  for (std::size_t v = 0; v < part.what_if.size(); ++v) out.what_if[v][segment] = std::move(part.what_if[v]);
+  out.segments[segment] = finish_segment(std::move(part), std::move(finished));
+}
+
 // Tracks every segment and fills out.segments and out.audit (audited pairs in (realization,
 // segment) order).
 void track_segments(const Tracking& tr, ProbabilisticResult& out) {
@@ -317,12 +314,9 @@ void track_segments(const Tracking& tr, ProbabilisticResult& out) {
   track_slip(*tr.pm.surrogate, tr.pm.segment_points, tr.pm.draws, tr.r.dp_crit, tr.settings.output_index,
              [&](const SegmentOutcome& o) {
                add_audit_entries(tr, o, audit_by_segment[o.segment]);
-               std::vector<double> by_time;
-               SegmentPart part = segment_part(tr, o, 0, tr.settings.attribute_median ? &by_time : nullptr);
-               for (std::size_t v = 0; v < part.what_if.size(); ++v) out.what_if[v][o.segment] = std::move(part.what_if[v]);
-               FinishedSegment f =
-                   finish_over_all(tr, o.segment, slip_margins(tr, o.segment, o.dp_at_output, 0), by_time, part.dp);
-               out.segments[o.segment] = finish_segment(std::move(part), std::move(f));
+               FinishedSegment f;
+               SegmentPart part = tracked_segment(tr, o, f);
+               store_segment(o.segment, std::move(part), std::move(f), out);
              });
   for (auto& v : audit_by_segment)
     for (auto& a : v) out.audit.push_back(std::move(a));
@@ -331,32 +325,23 @@ void track_segments(const Tracking& tr, ProbabilisticResult& out) {
   });
 }
 
-// This part's block of valid realizations (segment parts and map counts), and its range of
-// segments finished over every realization.
+// This part's range of segments tracked over every realization (as the unsplit run tracks them),
+// and its block of valid realizations of the probability maps.
 PartialResult track_part(const Tracking& tr, std::size_t part, std::size_t parts) {
-  const ColumnRange cols = split_columns(tr.r.keep.size(), part, parts);
-  PartialResult p;
-  p.columns = cols;
-  p.segments.resize(tr.segments.size());
-  const auto c0 = static_cast<Eigen::Index>(cols.begin), nc = static_cast<Eigen::Index>(cols.size());
-  const PressureDraws draws{tr.pm.draws.basis.middleCols(c0, nc), tr.pm.draws.scale.middleCols(c0, nc)};
-  const Eigen::MatrixXf crit = tr.r.dp_crit.middleCols(c0, nc);
-  track_slip(*tr.pm.surrogate, tr.pm.segment_points, draws, crit, tr.settings.output_index,
-             [&](const SegmentOutcome& o) { p.segments[o.segment] = segment_part(tr, o, cols.begin, nullptr); });
   const ColumnRange mine = split_rows(tr.segments.size(), part, parts);
-  p.finished_first = mine.begin;
+  PartialResult p;
+  p.first_segment = mine.begin;
+  p.segments.resize(mine.size());
   p.finished.resize(mine.size());
-  util::ParallelErrors errors;
-#pragma omp parallel
-  {
-    Eigen::MatrixXd at_output;
-    std::vector<double> by_time;
-#pragma omp for schedule(dynamic, 1)
-    for (std::size_t s = mine.begin; s < mine.end; ++s)
-      errors.iteration(s, [&] { p.finished[s - mine.begin] = finish_recomputed(tr, s, at_output, by_time); });
-  }
-  errors.rethrow();
-  ProbabilityMaps maps = probability_maps(tr.pm, tr.r, tr.settings, cols);
+  track_slip(
+      *tr.pm.surrogate, tr.pm.segment_points, tr.pm.draws, tr.r.dp_crit, tr.settings.output_index,
+      [&](const SegmentOutcome& o) {
+        p.segments[o.segment - mine.begin] = tracked_segment(tr, o, p.finished[o.segment - mine.begin]);
+      },
+      std::pair{mine.begin, mine.end});
+  p.surrogate_error = tr.pm.surrogate->max_relative_error();
+  p.columns = split_columns(tr.r.keep.size(), part, parts);
+  ProbabilityMaps maps = probability_maps(tr.pm, tr.r, tr.settings, p.columns);
   p.map_dangerous = std::move(maps.dangerous);
   p.map_oriented = std::move(maps.oriented);
   p.map_dangerous_already_critical = maps.dangerous_already_critical;
@@ -364,8 +349,9 @@ PartialResult track_part(const Tracking& tr, std::size_t part, std::size_t parts
   return p;
 }
 
-// Tracks this part's block and hands it to split.gather; on part 0, merges every part and fills
-// out's segments and maps as the unsplit run does (returns true), elsewhere returns false.
+// Tracks this part's segments and map block and hands them to split.gather; on part 0, merges
+// every part and fills out's segments and maps as the unsplit run does (returns true), elsewhere
+// returns false.
 bool merge_split(const Tracking& tr, const RealizationSplit& split, ProbabilisticResult& out) {
   auto all = split.gather(encode_partial(track_part(tr, split.part, split.parts)));
   if (!all) return false;
@@ -376,20 +362,16 @@ bool merge_split(const Tracking& tr, const RealizationSplit& split, Probabilisti
   PartialResult m = merge_partials(std::move(parts));
   if (m.columns.end != tr.r.keep.size())
     throw InputError("merged columns", std::to_string(m.columns.end), std::to_string(tr.r.keep.size()) + " valid realizations");
-  if (m.finished_first != 0 || m.finished.size() != m.segments.size())
-    throw InputError("finished segments", std::to_string(m.finished.size()) + " from " + std::to_string(m.finished_first),
-                     "every one of the " + std::to_string(m.segments.size()) + " segments, from 0");
+  if (m.first_segment != 0 || m.segments.size() != tr.segments.size() || m.finished.size() != tr.segments.size())
+    throw InputError("merged segments", std::to_string(m.segments.size()) + " from " + std::to_string(m.first_segment),
+                     "every one of the " + std::to_string(tr.segments.size()) + " segments, from 0");
+  out.surrogate_error = m.surrogate_error;
   out.segments.resize(m.segments.size());
   out.what_if.assign(tr.variants.size(), std::vector<std::vector<std::uint64_t>>(m.segments.size()));
   util::ParallelErrors errors;
 #pragma omp parallel for schedule(dynamic, 1)
   for (std::size_t s = 0; s < m.segments.size(); ++s)
-    errors.iteration(s, [&] {
-      if (m.segments[s].what_if.size() != tr.variants.size())
-        throw InputError("what-if counts", std::to_string(m.segments[s].what_if.size()), "one per variant");
-      for (std::size_t v = 0; v < tr.variants.size(); ++v) out.what_if[v][s] = std::move(m.segments[s].what_if[v]);
-      out.segments[s] = finish_segment(std::move(m.segments[s]), std::move(m.finished[s]));
-    });
+    errors.iteration(s, [&] { store_segment(s, std::move(m.segments[s]), std::move(m.finished[s]), out); });
   errors.rethrow();
   out.map_dangerous = std::move(m.map_dangerous);
   out.map_oriented = std::move(m.map_oriented);
@@ -402,7 +384,8 @@ bool merge_split(const Tracking& tr, const RealizationSplit& split, Probabilisti
 // of their schedules that is scaled, each taking the sampled rate factor of its origin well (the
 // same realizations and rate groups as the screen's).
 PressureModel group_part_model(const GroupSplit& g, const std::vector<SegmentInput>& segments, const RunSettings& settings,
-                               const InputList& list, const SampledRealizations& r, const util::WorkShare* share = nullptr) {
+                               const InputList& list, const SampledRealizations& r, const util::WorkShare* share = nullptr,
+                               std::optional<SegmentRows> own = std::nullopt) {
   if (g.origin.size() != g.wells.size() || g.in_group.size() != g.wells.size())
     throw InputError("well group", std::to_string(g.wells.size()) + " wells", "an origin and a flag per split well");
   std::vector<WellInput> part;
@@ -414,7 +397,7 @@ PressureModel group_part_model(const GroupSplit& g, const std::vector<SegmentInp
       part_list.well_rate.push_back(list.well_rate.at(g.origin[w]));
     }
   if (part.empty()) throw InputError("well group", "(no well)", "at least one well whose rates are scaled");
-  return build_pressure_model(part, segments, settings, part_list, r, share);
+  return build_pressure_model(part, segments, settings, part_list, r, share, own);
 }
 
 }  // namespace
@@ -476,7 +459,14 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
   out.input_names = sampled_input_names(model, wells, fault_count);
 
   const util::WorkShare share = split_run ? split->work_share() : util::WorkShare{};
-  PressureModel pm = build_pressure_model(wells, segments, settings, list, r, &share);
+  // A part of a split run tracks its own segments, so its surrogate holds only their check points
+  // (docs/cluster.md); the allowable rate and the seismicity likelihood read every segment's.
+  std::optional<SegmentRows> own;
+  if (split_run && !settings.capacity && !settings.seismicity) {
+    const ColumnRange rows = split_rows(segments.size(), split->part, split->parts);
+    own = SegmentRows{rows.begin, rows.end};
+  }
+  PressureModel pm = build_pressure_model(wells, segments, settings, list, r, &share, own);
   release_tables(pm, settings);
   out.diffusivity_min = pm.diffusivity_min;
   out.diffusivity_max = pm.diffusivity_max;
@@ -500,7 +490,8 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
   Tracking tr = prepare_tracking(wells, segments, settings, r, pm);
   if (out.conditioning) tr.weights = &out.conditioning->weights;
   for (const auto& v : settings.what_if)
-    tr.variants.push_back(prepare_variant(pm, group_part_model(v, segments, settings, list, r, &share), v.factor, r.keep.size()));
+    tr.variants.push_back(
+        prepare_variant(pm, group_part_model(v, segments, settings, list, r, &share, own), v.factor, r.keep.size()));
   if (split_run) {
     if (!merge_split(tr, *split, out))
       out.merged_elsewhere = true;

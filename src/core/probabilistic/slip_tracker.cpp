@@ -175,9 +175,13 @@ PressureDraws make_pressure_draws(const hydro::PressureSurrogate& surrogate, std
 void track_slip(const hydro::PressureSurrogate& surrogate, const std::vector<std::vector<std::size_t>>& segment_points,
                 const PressureDraws& draws, const Eigen::MatrixXf& dp_crit,
                 std::span<const std::size_t> output_index,
-                const std::function<void(const SegmentOutcome&)>& visit) {
+                const std::function<void(const SegmentOutcome&)>& visit, std::optional<std::pair<std::size_t, std::size_t>> only) {
   const Eigen::Index n_real = draws.basis.cols();
   const auto n_seg = segment_points.size();
+  const std::size_t first = only ? only->first : 0, end = only ? only->second : n_seg;
+  if (first > end || end > n_seg)
+    throw InputError("tracked segments", std::to_string(first) + " to " + std::to_string(end),
+                     "a range of the " + std::to_string(n_seg) + " segments");
   const std::size_t n_times = surrogate.time_count();
   check_track_inputs(n_seg, n_real, dp_crit, n_times, output_index);
   const std::vector<Eigen::Index> out_rows(output_index.begin(), output_index.end());
@@ -199,7 +203,7 @@ void track_slip(const hydro::PressureSurrogate& surrogate, const std::vector<std
       for (std::size_t r = 0; r < n_real_u; ++r) ws.all[r] = static_cast<Eigen::Index>(r);
     });
 #pragma omp for schedule(dynamic, 1)
-    for (std::size_t s = 0; s < n_seg; ++s)
+    for (std::size_t s = first; s < end; ++s)
       errors.iteration(s, [&] {
         SegmentOutcome res;
         res.segment = s;
@@ -208,25 +212,6 @@ void track_slip(const hydro::PressureSurrogate& surrogate, const std::vector<std
       });
   }
   errors.rethrow();
-}
-
-void pressure_at_output_times(const hydro::PressureSurrogate& surrogate, const std::vector<std::size_t>& points,
-                              const PressureDraws& draws, std::span<const std::size_t> output_index, Eigen::MatrixXd& out) {
-  const Eigen::Index n_real = draws.basis.cols();
-  const Eigen::MatrixXf no_thresholds(1, n_real);
-  check_track_inputs(1, n_real, no_thresholds, surrogate.time_count(), output_index);
-  const std::vector<Eigen::Index> out_rows(output_index.begin(), output_index.end());
-  const Eigen::MatrixXd no_parts;
-  const TrackInputs in{surrogate, draws, no_thresholds, out_rows, no_parts, surrogate.time_count(), surrogate.group_count(),
-                       0, static_cast<Eigen::Index>(surrogate.node_count()), n_real};
-  Workspace ws;
-  ws.all.resize(static_cast<std::size_t>(n_real));
-  for (Eigen::Index r = 0; r < n_real; ++r) ws.all[static_cast<std::size_t>(r)] = r;
-  SegmentOutcome res;
-  res.dp_at_output.swap(out);  // its storage is reused when the shape is the same
-  res.dp_at_output.setZero(static_cast<Eigen::Index>(out_rows.size()), n_real);
-  pressure_at_outputs(in, points, ws, res);  // the same products, in the same blocks, as track_slip
-  out.swap(res.dp_at_output);
 }
 
 }  // namespace slipscreen::probabilistic

@@ -19,7 +19,9 @@
 #include <Eigen/Dense>
 #include <cstddef>
 #include <functional>
+#include <optional>
 #include <span>
+#include <utility>
 #include <vector>
 
 #include "core/hydro/pressure_surrogate.hpp"
@@ -42,22 +44,15 @@ struct SegmentOutcome {
   Eigen::MatrixXd dp_at_output;     // outputs × N: Δp (max over check points) at output times
 };
 
-// For every segment (OpenMP over segments), evaluates Δp for all realizations in blocks and
-// calls visit(outcome) once per segment — possibly from several threads at once, each with a
-// different segment, so the visitor must write to per-segment storage only.
+// For every segment (OpenMP over segments), or only segments [only->first, only->second),
+// evaluates Δp for all realizations in blocks and calls visit(outcome) once per segment —
+// possibly from several threads at once, each with a different segment, so the visitor must
+// write to per-segment storage only.
 // `dp_crit` is segments × N, or 1 × N when every segment shares the same values (maps). `output_index` lists the tracking indices of the output times.
 void track_slip(const hydro::PressureSurrogate& surrogate, const std::vector<std::vector<std::size_t>>& segment_points,
                 const PressureDraws& draws, const Eigen::MatrixXf& dp_crit,
                 std::span<const std::size_t> output_index,
-                const std::function<void(const SegmentOutcome&)>& visit);
-
-// Δp (max over `points`) at the output times for every realization of `draws` into `out`
-// (outputs × N; its storage is reused): the values track_slip hands over as
-// SegmentOutcome::dp_at_output, bit for bit (the same matrix products in the same blocks of
-// realizations). A run split across processes recomputes them where it needs every
-// realization's (sensitivities and median attribution, slip_probability.cpp) rather than
-// sending them between processes.
-void pressure_at_output_times(const hydro::PressureSurrogate& surrogate, const std::vector<std::size_t>& points,
-                              const PressureDraws& draws, std::span<const std::size_t> output_index, Eigen::MatrixXd& out);
+                const std::function<void(const SegmentOutcome&)>& visit,
+                std::optional<std::pair<std::size_t, std::size_t>> only = std::nullopt);
 
 }  // namespace slipscreen::probabilistic

@@ -97,6 +97,7 @@ bool same_bits(const std::vector<double>& a, const std::vector<double>& b) {
 void check_identical(const ProbabilisticResult& a, const ProbabilisticResult& b) {
   CHECK_FALSE(b.merged_elsewhere);
   CHECK(a.realizations == b.realizations);
+  CHECK(a.surrogate_error == b.surrogate_error);
   REQUIRE(a.segments.size() == b.segments.size());
   for (std::size_t s = 0; s < a.segments.size(); ++s) {
     const auto& x = a.segments[s];
@@ -146,6 +147,8 @@ TEST_CASE("split_columns: contiguous blocks of whole 256-column groups covering 
 
 TEST_CASE("encode_partial/decode_partial round trip; truncated buffers are refused") {
   PartialResult p;
+  p.first_segment = 1;
+  p.surrogate_error = 3.25e-6;
   p.columns = {256, 300};
   SegmentPart s;
   s.slipped_by = {1, 2};
@@ -158,21 +161,57 @@ TEST_CASE("encode_partial/decode_partial round trip; truncated buffers are refus
   s.dp[1].add(3e5);
   s.what_if = {{1, 2}, {0, 3}};
   p.segments = {s, s};
-  p.finished_first = 1;
-  p.finished = {{{0.25, -0.5}, {{7, 2.5e5, 1, {1e5, 1.5e5}}, {9, 0.0, 0, {0.0, 0.0}}}}};
+  p.finished = {{{0.25, -0.5}, {{7, 2.5e5, 1, {1e5, 1.5e5}}, {9, 0.0, 0, {0.0, 0.0}}}}, {{0.125}, {}}};
   p.map_dangerous = {5, 6};
   p.map_dangerous_already_critical = 7;
   const auto bytes = encode_partial(p);
   CHECK(decode_partial(bytes) == p);
   CHECK_THROWS_AS(decode_partial(std::span(bytes).first(bytes.size() - 8)), InputError);
   CHECK_THROWS_AS(decode_partial(std::span(bytes).first(bytes.size() - 3)), InputError);
+  // A finished segment missing for a tracked one.
+  PartialResult q = p;
+  q.finished.pop_back();
+  CHECK_THROWS_AS(decode_partial(encode_partial(q)), InputError);
 }
 
-TEST_CASE("merge_partials refuses parts that do not follow each other") {
+TEST_CASE("merge_partials: segments concatenated, map counts summed, the largest surrogate error") {
   PartialResult a, b;
+  SegmentPart s;
+  s.slipped_by = {4, 5};
+  a.segments = {s};
+  a.finished = {{{0.5}, {}}};
+  a.surrogate_error = 2e-6;
   a.columns = {0, 256};
-  b.columns = {300, 400};
-  CHECK_THROWS_AS(merge_partials({a, b}), InputError);
+  a.map_dangerous = {1, 2};
+  s.slipped_by = {6, 7};
+  b.first_segment = 1;
+  b.segments = {s, s};
+  b.finished = {{{0.25}, {}}, {{0.125}, {}}};
+  b.surrogate_error = 5e-6;
+  b.columns = {256, 300};
+  b.map_dangerous = {10, 20};
+  b.map_dangerous_already_critical = 3;
+  const PartialResult m = merge_partials({a, b});
+  CHECK(m.first_segment == 0);
+  REQUIRE(m.segments.size() == 3);
+  CHECK(m.segments[0].slipped_by == std::vector<std::uint64_t>{4, 5});
+  CHECK(m.segments[2].slipped_by == std::vector<std::uint64_t>{6, 7});
+  REQUIRE(m.finished.size() == 3);
+  CHECK(m.finished[2].sensitivity == std::vector<double>{0.125});
+  CHECK(m.surrogate_error == 5e-6);
+  CHECK(m.columns == ColumnRange{0, 300});
+  CHECK(m.map_dangerous == std::vector<std::uint64_t>{11, 22});
+  CHECK(m.map_dangerous_already_critical == 3);
+  // Refused: columns that do not follow, segments that do not follow, a finished segment missing.
+  PartialResult c = b;
+  c.columns = {300, 400};
+  CHECK_THROWS_AS(merge_partials({a, c}), InputError);
+  c = b;
+  c.first_segment = 2;
+  CHECK_THROWS_AS(merge_partials({a, c}), InputError);
+  c = b;
+  c.finished.pop_back();
+  CHECK_THROWS_AS(merge_partials({a, c}), InputError);
 }
 
 TEST_CASE("run_probabilistic split into 2 and 3 parts gives the unsplit result bit for bit") {
