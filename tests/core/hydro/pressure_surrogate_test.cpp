@@ -2,7 +2,9 @@
 
 #include <doctest/doctest.h>
 
+#include <algorithm>
 #include <cmath>
+#include <span>
 #include <vector>
 
 #include "core/errors.hpp"
@@ -96,4 +98,40 @@ TEST_CASE("surrogate rejects bad input") {
   CHECK_THROWS_AS(PressureSurrogate(f.tables, f.sources, f.points, 2, 0.0, 1.0), slipscreen::InputError);
   CHECK_THROWS_AS(PressureSurrogate(f.tables, f.sources, f.points, 2, 2.0, 1.0), slipscreen::InputError);
   CHECK_THROWS_AS(PressureSurrogate(f.tables, f.sources, f.points, 1, 0.1, 1.0), slipscreen::InputError);
+}
+
+TEST_CASE("surrogates of ranges of the points hold the whole one's tables bit for bit, and the largest error estimate") {
+  Fixture f;
+  // 200 points on a spiral (fictional), so that the error estimate samples every third point.
+  f.points.clear();
+  for (int i = 0; i < 200; ++i) {
+    const double a = 0.37 * i, r = 300.0 + 40.0 * i;
+    f.points.push_back({r * std::cos(a), r * std::sin(a)});
+  }
+  const PressureSurrogate whole(f.tables, f.sources, f.points, 2, 0.05, 2.0, 16);
+  REQUIRE(whole.max_relative_error() > 0.0);
+  double largest = 0.0;
+  const std::vector<std::size_t> cuts = {0, 1, 77, 150, 200};  // parts of 1, 76, 73 and 50 points
+  for (std::size_t k = 0; k + 1 < cuts.size(); ++k) {
+    const std::size_t first = cuts[k], count = cuts[k + 1] - cuts[k];
+    const PressureSurrogate part(f.tables, f.sources, std::span(f.points).subspan(first, count), 2, 0.05, 2.0, 16,
+                                 nullptr, PointRange{first, f.points.size()});
+    REQUIRE(part.point_count() == count);
+    for (std::size_t p = 0; p < count; ++p)
+      for (std::size_t g = 0; g < 2; ++g) CHECK(part.table(p, g) == whole.table(first + p, g));
+    // The part samples the whole set's points 0, 3, 6, ... (every 200/64-th) that fall in its
+    // range: its estimate is the largest of those points' own estimates.
+    double expected = 0.0;
+    for (std::size_t g = first; g < first + count; ++g)
+      if (g % 3 == 0)
+        expected = std::max(expected, PressureSurrogate(f.tables, f.sources, std::span(f.points).subspan(g, 1), 2, 0.05,
+                                                        2.0, 16).max_relative_error());
+    CHECK(part.max_relative_error() == expected);
+    largest = std::max(largest, part.max_relative_error());
+  }
+  CHECK(largest == whole.max_relative_error());
+  // A range that does not fit the whole set is refused.
+  CHECK_THROWS_AS(PressureSurrogate(f.tables, f.sources, std::span(f.points).subspan(150, 50), 2, 0.05, 2.0, 16, nullptr,
+                                    PointRange{151, f.points.size()}),
+                  slipscreen::InputError);
 }
