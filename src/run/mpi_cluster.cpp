@@ -1,6 +1,7 @@
 // Running across MPI processes; see mpi_cluster.hpp.
 #include "run/mpi_cluster.hpp"
 
+#include <algorithm>
 #include <chrono>
 #include <cstdint>
 #include <cstring>
@@ -11,6 +12,8 @@
 #include <vector>
 
 #include "core/errors.hpp"
+
+#include <omp.h>
 
 #ifdef SLIPSCREEN_MPI
 #include <mpi.h>
@@ -28,6 +31,7 @@ struct State {
   unsigned long long bytes_sent = 0, bytes_received = 0;  // payloads of the gathers
   bool stopped = false;  // a rank > 0: the root's exit code arrived while it waited for a share
   int stop_code = 0;
+  int node_ranks = 1;  // ranks on this rank's node (MPI_COMM_TYPE_SHARED), this one included
 };
 
 State& state() {
@@ -213,6 +217,11 @@ ClusterSession::ClusterSession(int* argc, char*** argv) {
   s.split.parts = static_cast<std::size_t>(s.ranks);
   s.split.gather = gather;
   s.split.all_gather = all_gather;
+  MPI_Comm node;
+  if (MPI_Comm_split_type(MPI_COMM_WORLD, MPI_COMM_TYPE_SHARED, 0, MPI_INFO_NULL, &node) == MPI_SUCCESS) {
+    MPI_Comm_size(node, &s.node_ranks);
+    MPI_Comm_free(&node);
+  }
 }
 
 ClusterSession::~ClusterSession() { MPI_Finalize(); }
@@ -257,6 +266,12 @@ bool built_with_mpi() { return false; }
 int cluster_finish(int code, int, const std::string&, std::ostream&) { return code; }
 
 #endif
+
+void cluster_root_takes_idle_cores() {
+  const State& s = state();
+  if (!s.active || s.rank != 0 || s.node_ranks < 2) return;
+  omp_set_num_threads(std::min(omp_get_num_procs(), omp_get_max_threads() * s.node_ranks));
+}
 
 int cluster_rank() { return state().rank; }
 unsigned long long cluster_bytes_sent() { return state().bytes_sent; }

@@ -48,6 +48,13 @@ unsigned long long cluster_bytes_received();
 // split stage of the run).
 const probabilistic::RealizationSplit* cluster_split();
 
+// On the root, once the last split stage has merged (the other ranks then only wait, polling
+// with sleeps): its OpenMP threads grow to what the ranks of its node had together (its own
+// count times the node's ranks, at most the processors it may run on), so the serial tail of
+// the run (the allowable rate, the maps, the outputs, the report) uses the cores the finished
+// ranks left idle. Does nothing elsewhere or with one rank per node.
+void cluster_root_takes_idle_cores();
+
 // Error categories as sent between ranks: an ErrorCategory's value, or these two.
 inline constexpr int kClusterOk = -1;
 inline constexpr int kClusterInternal = 100;

@@ -8,6 +8,7 @@
 #include "core/screen/screen_split.hpp"
 #include "formats/files/run_folder.hpp"
 #include "outputs/run_outputs.hpp"
+#include "run/mpi_cluster.hpp"
 #include "run/report_job.hpp"
 #include "scenario/uncertainty.hpp"
 #include "screening/capacity.hpp"
@@ -139,6 +140,7 @@ RunSummary run_scenario(const scenario::ResolvedScenario& s, const RunOptions& o
     stage("probabilistic screen");
     prob = screening::run_probabilistic_screen(s, prepared, spec, {}, {}, o.split);
   }
+  if (split) cluster_root_takes_idle_cores();  // every split stage has merged: the other ranks only wait
   std::shared_ptr<const screening::CapacityResult> capacity;
   if (s.capacity && prob) {
     stage("allowable rate");
