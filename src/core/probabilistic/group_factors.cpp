@@ -179,20 +179,19 @@ VariantSearch prepare_variant(const PressureModel& base, PressureModel part, dou
 }
 
 std::vector<std::uint64_t> variant_segment_slips(const VariantSearch& v, const Eigen::MatrixXf& dp_crit, std::size_t s,
-                                                 std::span<const int> first_crossing, std::size_t c0,
+                                                 std::span<const int> first_crossing,
                                                  const std::vector<std::size_t>& output_index) {
   const PressureModel& base = *v.base;
   const auto n = static_cast<Eigen::Index>(first_crossing.size());
   if (output_index.empty() || output_index.back() >= base.surrogate->time_count() || s >= base.segment_points.size() ||
-      c0 + first_crossing.size() > static_cast<std::size_t>(dp_crit.cols()))
+      first_crossing.size() != static_cast<std::size_t>(dp_crit.cols()))
     throw InputError("what-if search", std::to_string(s), "a segment, output times and columns of the run");
   std::vector<std::uint64_t> slipped(output_index.size(), 0);
   const auto count = [&](std::size_t k) {
     for (std::size_t t = 0; t < output_index.size(); ++t)
       if (output_index[t] >= k) ++slipped[t];
   };
-  const auto col = [&](Eigen::Index c) { return static_cast<Eigen::Index>(c0) + c; };
-  const auto crit_of = [&](Eigen::Index c) { return double(dp_crit(static_cast<Eigen::Index>(s), col(c))); };
+  const auto crit_of = [&](Eigen::Index c) { return double(dp_crit(static_cast<Eigen::Index>(s), c)); };
   const auto rows = static_cast<Eigen::Index>(output_index.back() + 1);
   const auto from = static_cast<Eigen::Index>(v.from_row);
   const double c_part = v.factor - 1.0;
@@ -210,9 +209,8 @@ std::vector<std::uint64_t> variant_segment_slips(const VariantSearch& v, const E
   // An upper bound of the variant's Δp = Δp_screen + (factor − 1)·Δp_part (chunk_bounds.hpp): first
   // over every time from `from` and check point at once (a sieve), then per chunk and realization,
   // max over the check points, for the realizations left.
-  const auto cols0 = static_cast<Eigen::Index>(c0);
-  const auto pb = v.parts_base.middleCols(cols0, n), pp = v.parts_part.middleCols(cols0, n);
-  const auto sb = base.draws.scale.middleCols(cols0, n), sp = v.part.draws.scale.middleCols(cols0, n);
+  const auto pb = v.parts_base.leftCols(n), pp = v.parts_part.leftCols(n);
+  const auto sb = base.draws.scale.leftCols(n), sp = v.part.draws.scale.leftCols(n);
   const auto variant_bound = [&](const auto& ub, const auto& up, const auto& lp) {
     return (ub + c_part * (c_part >= 0.0 ? up : lp)).eval();
   };
@@ -243,7 +241,7 @@ std::vector<std::uint64_t> variant_segment_slips(const VariantSearch& v, const E
     std::vector<char> crossed(static_cast<std::size_t>(n), 0);
     for (std::size_t b0 = 0; b0 < in_chunk.size(); b0 += kBlock) {
       cols.clear();
-      for (std::size_t j = b0; j < std::min(in_chunk.size(), b0 + kBlock); ++j) cols.push_back(col(in_chunk[j]));
+      for (std::size_t j = b0; j < std::min(in_chunk.size(), b0 + kBlock); ++j) cols.push_back(in_chunk[j]);
       point_series(base, pts, len, cols, k0, buf, dp);
       point_series(v.part, v.part.segment_points[s], len, cols, k0, buf, part);
       dp.noalias() += c_part * part;

@@ -60,16 +60,15 @@ struct VariantSearch {
 VariantSearch prepare_variant(const PressureModel& base, PressureModel part, double factor, std::size_t realizations);
 
 // Injection-induced slips by each output time of segment s under the variant, over the valid
-// realizations c0, c0 + 1, ... (one per entry of `first_crossing`: the tracking index of each
+// realizations (one per entry of `first_crossing`, which covers every column of the run: the tracking index of each
 // one's first crossing under the screen's rates, −1 if none; slip_tracker.hpp). A realization
 // that crosses before from_row crosses at the same time in the variant; the others are searched
 // from from_row on, in chunks of 24 tracking times, in order until the first crossing, and only
 // in chunks whose bound (U_base + (factor − 1)·U_part, or ·L_part when factor < 1, as above)
 // reaches Δp_crit: the same
-// result as evaluating every series. Realizations are independent, so any split of the columns
-// gives the same counts in sum.
+// result as evaluating every series.
 std::vector<std::uint64_t> variant_segment_slips(const VariantSearch& v, const Eigen::MatrixXf& dp_crit, std::size_t s,
-                                                 std::span<const int> first_crossing, std::size_t c0,
+                                                 std::span<const int> first_crossing,
                                                  const std::vector<std::size_t>& output_index);
 
 }  // namespace slipscreen::probabilistic

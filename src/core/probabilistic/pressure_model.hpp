@@ -20,7 +20,6 @@
 #include <Eigen/Dense>
 #include <cstddef>
 #include <optional>
-#include <utility>
 #include <vector>
 
 #include "core/util/work_share.hpp"
@@ -50,9 +49,6 @@ struct PressureModel {
   Eigen::MatrixXd factor;                                // groups × valid realizations: f_g
   PressureDraws draws;                                   // the realizations' basis and P · f_g
 };
-
-// Segments [first, second).
-using SegmentRows = std::pair<std::size_t, std::size_t>;
 
 // Builds the model for the valid realizations of `r` (their D, P and rate-factor inputs). With an
 // active `share` the parts build the tables and the surrogate together (every part then calls

@@ -147,6 +147,10 @@ PartialResult decode_partial(std::span<const std::uint8_t> bytes) {
 
 PartialResult merge_partials(std::vector<PartialResult> parts) {
   if (parts.empty()) throw InputError("partial results", "(none)", "at least one part");
+  for (std::size_t k = 0; k < parts.size(); ++k)
+    if (parts[k].finished.size() != parts[k].segments.size())
+      throw InputError("part " + std::to_string(k) + "'s finished segments", std::to_string(parts[k].finished.size()),
+                       std::to_string(parts[k].segments.size()) + ", one per tracked segment");
   PartialResult m = std::move(parts.front());
   if (m.columns.begin != 0) throw InputError("first part's columns", std::to_string(m.columns.begin), "starting at 0");
   if (m.first_segment != 0) throw InputError("first part's segments", std::to_string(m.first_segment), "starting at 0");
@@ -158,9 +162,6 @@ PartialResult merge_partials(std::vector<PartialResult> parts) {
     if (p.first_segment != m.first_segment + m.segments.size())
       throw InputError("part " + std::to_string(k) + "'s first segment", std::to_string(p.first_segment),
                        std::to_string(m.first_segment + m.segments.size()) + ", the end of the parts before it");
-    if (p.finished.size() != p.segments.size())
-      throw InputError("part " + std::to_string(k) + "'s finished segments", std::to_string(p.finished.size()),
-                       std::to_string(p.segments.size()) + ", one per tracked segment");
     for (auto& s : p.segments) m.segments.push_back(std::move(s));
     for (auto& f : p.finished) m.finished.push_back(std::move(f));
     m.surrogate_error = std::max(m.surrogate_error, p.surrogate_error);

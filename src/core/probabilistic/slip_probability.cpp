@@ -78,34 +78,34 @@ void add_audit_entries(const Tracking& tr, const SegmentOutcome& o, std::vector<
   }
 }
 
-// The slip margin Δp_crit − Δp(final output time) of segment s in columns c0, c0 + 1, ... (never
+// The slip margin Δp_crit − Δp(final output time) of segment s in every valid realization (never
 // critical: the largest double, so that it ranks last and the ranks stay finite), from the
-// segment's Δp at the output times (outputs × columns).
-std::vector<double> slip_margins(const Tracking& tr, std::size_t segment, const Eigen::MatrixXd& dp_at_output, std::size_t c0) {
+// segment's Δp at the output times (outputs × realizations).
+std::vector<double> slip_margins(const Tracking& tr, std::size_t segment, const Eigen::MatrixXd& dp_at_output) {
   const auto s = static_cast<Eigen::Index>(segment);
   const Eigen::Index last = dp_at_output.rows() - 1;
   std::vector<double> margin(static_cast<std::size_t>(dp_at_output.cols()));
   for (std::size_t c = 0; c < margin.size(); ++c) {
-    const double dc = tr.r.dp_crit(s, static_cast<Eigen::Index>(c0 + c));
+    const double dc = tr.r.dp_crit(s, static_cast<Eigen::Index>(c));
     margin[c] = std::isinf(dc) ? std::numeric_limits<double>::max()
                                : dc - dp_at_output(last, static_cast<Eigen::Index>(c));
   }
   return margin;
 }
 
-// Slip counts by output time, the Δp_crit sketch and the counts apart over the outcome's
-// columns (valid realizations c0, c0 + 1, ...).
-void count_slips(const Tracking& tr, const SegmentOutcome& o, std::size_t c0, SegmentPart& res) {
+// Slip counts by output time, the Δp_crit sketch and the counts apart over every valid
+// realization.
+void count_slips(const Tracking& tr, const SegmentOutcome& o, SegmentPart& res) {
   const std::size_t n = o.first_crossing.size(), n_out = tr.settings.output_index.size();
   const auto s = static_cast<Eigen::Index>(o.segment);
   for (std::size_t c = 0; c < n; ++c) {
-    const double dc = tr.r.dp_crit(s, static_cast<Eigen::Index>(c0 + c));
+    const double dc = tr.r.dp_crit(s, static_cast<Eigen::Index>(c));
     if (std::isinf(dc)) {
       ++res.never_critical;
       continue;
     }
     res.dp_crit.add(dc);
-    const std::uint64_t u = tr.weights ? tr.weights->units[c0 + c] : 0;
+    const std::uint64_t u = tr.weights ? tr.weights->units[c] : 0;
     if (tr.weights) res.conditioned.dp_crit.add(dc, u);
     if (dc <= 0.0) {
       ++res.already_critical;
@@ -143,12 +143,11 @@ std::vector<double> sensitivities(const Tracking& tr, std::size_t segment, const
 // The value of rank ⌊(n − 1)/2⌋ among vals[0..n) and the column holding it (ties by index).
 // The sketch's estimate bounds it (relative accuracy α), so only the values in that window need
 // ordering (all of them if the window misses); then the (rank − #smaller)-th equal value.
-// Without a sketch (nullptr) every value is ordered; the result is the same.
-std::pair<double, Eigen::Index> median_realization(const double* vals, std::size_t n, const stats::QuantileSketch* sketch,
+std::pair<double, Eigen::Index> median_realization(const double* vals, std::size_t n, const stats::QuantileSketch& sketch,
                                                    std::vector<double>& sorted) {
   const std::size_t rank = (n - 1) / 2;
-  const double est = sketch ? sketch->quantile(0.5) : 0.0;
-  const double half = sketch ? 2.0 * sketch->relative_accuracy() * std::abs(est) + sketch->zero_threshold() : -1.0;
+  const double est = sketch.quantile(0.5);
+  const double half = 2.0 * sketch.relative_accuracy() * std::abs(est) + sketch.zero_threshold();
   const double lo = est - half, hi = est + half;
   std::size_t below = 0;
   sorted.clear();
@@ -216,14 +215,13 @@ std::vector<double> well_contributions(const Tracking& tr, const hydro::Observat
 // The well attribution of the segment's median Δp at every output time (see MedianAttribution).
 std::vector<MedianAttribution> median_attributions(const Tracking& tr, std::size_t segment,
                                                    const std::vector<double>& by_time,
-                                                   const std::vector<stats::QuantileSketch>& dp) {  // dp may be empty
+                                                   const std::vector<stats::QuantileSketch>& dp) {
   const std::size_t n = tr.r.keep.size();
   std::vector<double> sorted;
   sorted.reserve(tr.r.keep.size());
   std::vector<MedianAttribution> out(tr.settings.output_index.size());
   for (std::size_t t = 0; t < out.size(); ++t) {
-    const auto [median, c] =
-        median_realization(by_time.data() + t * n, n, dp.empty() ? nullptr : &dp[t], sorted);
+    const auto [median, c] = median_realization(by_time.data() + t * n, n, dp.at(t), sorted);
     MedianAttribution& m = out[t];
     m.realization = static_cast<std::uint64_t>(tr.r.keep[static_cast<std::size_t>(c)]);
     m.dp = median;
@@ -233,11 +231,9 @@ std::vector<MedianAttribution> median_attributions(const Tracking& tr, std::size
   return out;
 }
 
-// A segment's results over the outcome's columns (valid realizations c0, c0 + 1, ...); with
-// `by_time_out` (an unsplit run with attribute_median) also its Δp by output time, t-major, for
-// finish_over_all.
-SegmentPart segment_part(const Tracking& tr, const SegmentOutcome& o, std::size_t c0,
-                         std::vector<double>* by_time_out) {
+// A segment's results over every valid realization; with `by_time_out` (attribute_median) also
+// its Δp by output time, t-major, for finish_over_all.
+SegmentPart segment_part(const Tracking& tr, const SegmentOutcome& o, std::vector<double>* by_time_out) {
   const std::size_t n = o.first_crossing.size(), n_out = tr.settings.output_index.size();
   SegmentPart res;
   res.slipped_by.assign(n_out, 0);
@@ -253,11 +249,11 @@ SegmentPart segment_part(const Tracking& tr, const SegmentOutcome& o, std::size_
     for (std::size_t t = 0; t < n_out; ++t)
       for (std::size_t c = 0; c < n; ++c)
         res.conditioned.dp[t].add(by_time(static_cast<Eigen::Index>(c), static_cast<Eigen::Index>(t)),
-                                  tr.weights->units[c0 + c]);
+                                  tr.weights->units[c]);
   }
-  count_slips(tr, o, c0, res);
+  count_slips(tr, o, res);
   for (const auto& v : tr.variants)
-    res.what_if.push_back(variant_segment_slips(v, tr.r.dp_crit, o.segment, o.first_crossing, c0, tr.settings.output_index));
+    res.what_if.push_back(variant_segment_slips(v, tr.r.dp_crit, o.segment, o.first_crossing, tr.settings.output_index));
   if (by_time_out) by_time_out->assign(by_time.data(), by_time.data() + by_time.size());
   return res;
 }
@@ -291,8 +287,8 @@ SegmentResult finish_segment(SegmentPart&& part, FinishedSegment&& finished) {
 // (`finished`).
 SegmentPart tracked_segment(const Tracking& tr, const SegmentOutcome& o, FinishedSegment& finished) {
   std::vector<double> by_time;
-  SegmentPart part = segment_part(tr, o, 0, tr.settings.attribute_median ? &by_time : nullptr);
-  finished = finish_over_all(tr, o.segment, slip_margins(tr, o.segment, o.dp_at_output, 0), by_time, part.dp);
+  SegmentPart part = segment_part(tr, o, tr.settings.attribute_median ? &by_time : nullptr);
+  finished = finish_over_all(tr, o.segment, slip_margins(tr, o.segment, o.dp_at_output), by_time, part.dp);
   return part;
 }
 
@@ -338,7 +334,7 @@ PartialResult track_part(const Tracking& tr, std::size_t part, std::size_t parts
       [&](const SegmentOutcome& o) {
         p.segments[o.segment - mine.begin] = tracked_segment(tr, o, p.finished[o.segment - mine.begin]);
       },
-      std::pair{mine.begin, mine.end});
+      SegmentRows{mine.begin, mine.end});
   p.surrogate_error = tr.pm.surrogate->max_relative_error();
   p.columns = split_columns(tr.r.keep.size(), part, parts);
   ProbabilityMaps maps = probability_maps(tr.pm, tr.r, tr.settings, p.columns);

@@ -175,7 +175,7 @@ PressureDraws make_pressure_draws(const hydro::PressureSurrogate& surrogate, std
 void track_slip(const hydro::PressureSurrogate& surrogate, const std::vector<std::vector<std::size_t>>& segment_points,
                 const PressureDraws& draws, const Eigen::MatrixXf& dp_crit,
                 std::span<const std::size_t> output_index,
-                const std::function<void(const SegmentOutcome&)>& visit, std::optional<std::pair<std::size_t, std::size_t>> only) {
+                const std::function<void(const SegmentOutcome&)>& visit, std::optional<SegmentRows> only) {
   const Eigen::Index n_real = draws.basis.cols();
   const auto n_seg = segment_points.size();
   const std::size_t first = only ? only->first : 0, end = only ? only->second : n_seg;

@@ -38,6 +38,9 @@ struct PressureDraws {
 PressureDraws make_pressure_draws(const hydro::PressureSurrogate& surrogate, std::span<const double> diffusivity,
                                   std::span<const double> prefactor, const Eigen::MatrixXd& rate_factor);
 
+// Segments [first, second).
+using SegmentRows = std::pair<std::size_t, std::size_t>;
+
 struct SegmentOutcome {
   std::size_t segment = 0;
   std::vector<int> first_crossing;  // tracking index of the first Δp ≥ Δp_crit; −1 if never
@@ -53,6 +56,6 @@ void track_slip(const hydro::PressureSurrogate& surrogate, const std::vector<std
                 const PressureDraws& draws, const Eigen::MatrixXf& dp_crit,
                 std::span<const std::size_t> output_index,
                 const std::function<void(const SegmentOutcome&)>& visit,
-                std::optional<std::pair<std::size_t, std::size_t>> only = std::nullopt);
+                std::optional<SegmentRows> only = std::nullopt);
 
 }  // namespace slipscreen::probabilistic

@@ -212,6 +212,9 @@ TEST_CASE("merge_partials: segments concatenated, map counts summed, the largest
   c = b;
   c.finished.pop_back();
   CHECK_THROWS_AS(merge_partials({a, c}), InputError);
+  c = a;  // the first part is checked too
+  c.finished.clear();
+  CHECK_THROWS_AS(merge_partials({c, b}), InputError);
 }
 
 TEST_CASE("run_probabilistic split into 2 and 3 parts gives the unsplit result bit for bit") {
