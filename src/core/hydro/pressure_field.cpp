@@ -46,6 +46,28 @@ PressureField::PressureField(std::vector<WellSource> wells, std::vector<Boundary
   }
 }
 
+void PressureField::check_point(std::size_t p, const FieldPoint& pt) const {
+  if (!std::isfinite(pt.x) || !std::isfinite(pt.y))
+    throw InputError("point[" + std::to_string(p) + "]", util::number_text(pt.x) + ", " + util::number_text(pt.y),
+                     "finite coordinates (m)");
+  if (!wells_.empty() && !same_region(boundaries_, wells_[0].x, wells_[0].y, pt.x, pt.y))
+    throw InputError("point[" + std::to_string(p) + "]", util::number_text(pt.x) + ", " + util::number_text(pt.y),
+                     "a point inside the region the boundaries enclose (the wells' side)");
+}
+
+bool PressureField::check_points(std::span<const FieldPoint> points) const {
+  bool clamped = false;
+  for (std::size_t p = 0; p < points.size(); ++p) {
+    check_point(p, points[p]);
+    for (std::size_t w = 0; w < wells_.size(); ++w) {
+      if (sources_[w].empty()) continue;
+      const double dx = points[p].x - sources_[w][0].x, dy = points[p].y - sources_[w][0].y;
+      clamped = clamped || dx * dx + dy * dy < wells_[w].well_radius * wells_[w].well_radius;
+    }
+  }
+  return clamped;
+}
+
 PreparedPoints PressureField::prepare(std::span<const FieldPoint> points) const {
   PreparedPoints pp;
   pp.point_count = points.size();
@@ -55,12 +77,7 @@ PreparedPoints PressureField::prepare(std::span<const FieldPoint> points) const 
   pp.offset.push_back(0);
   for (std::size_t p = 0; p < points.size(); ++p) {
     const FieldPoint& pt = points[p];
-    if (!std::isfinite(pt.x) || !std::isfinite(pt.y))
-      throw InputError("point[" + std::to_string(p) + "]", util::number_text(pt.x) + ", " + util::number_text(pt.y),
-                       "finite coordinates (m)");
-    if (!wells_.empty() && !same_region(boundaries_, wells_[0].x, wells_[0].y, pt.x, pt.y))
-      throw InputError("point[" + std::to_string(p) + "]", util::number_text(pt.x) + ", " + util::number_text(pt.y),
-                       "a point inside the region the boundaries enclose (the wells' side)");
+    check_point(p, pt);
     for (std::size_t w = 0; w < wells_.size(); ++w) {
       const double rw2 = wells_[w].well_radius * wells_[w].well_radius;
       for (std::size_t s = 0; s < sources_[w].size(); ++s) {

@@ -80,6 +80,9 @@ class PressureField {
   // Squared distances from each point to every source (InputError for a non-finite point or a
   // point outside the region the boundaries enclose).
   PreparedPoints prepare(std::span<const FieldPoint> points) const;
+  // prepare()'s checks without keeping the distances: InputError as there; returns whether some
+  // point lies within a real well's radius (PreparedPoints::any_clamped of the same points).
+  bool check_points(std::span<const FieldPoint> points) const;
 
   // Δp at each prepared point and each time [s, same epoch as the histories]. Times at or
   // before a well's first rate change get 0 from that well. `rate_factors` (one per well, or
@@ -100,6 +103,7 @@ class PressureField {
   std::vector<WellSource> wells_;
   std::vector<Boundary> boundaries_;
   std::vector<std::vector<ImageSource>> sources_;
+  void check_point(std::size_t p, const FieldPoint& pt) const;
   std::vector<std::vector<RateChange>> changes_;
 };
 

@@ -17,6 +17,7 @@
 // point's maximum Δp (tests/core/hydro/pressure_surrogate_test.cpp).
 #include <Eigen/Dense>
 #include <cstddef>
+#include <memory>
 #include <optional>
 #include <span>
 #include <vector>
@@ -60,6 +61,25 @@ class PressureSurrogate {
                     double d_max, std::size_t nodes = 16, const util::WorkShare* share = nullptr,
                     std::optional<PointRange> range = std::nullopt);
 
+  // The same surrogate built from blocks of tables (hydro::TableBuilder::blocks), so that only one
+  // block need exist at a time: construct with the points (G zero), add() every block of
+  // consecutive wells in order, then finish(). Each point still adds the sources in their order,
+  // so the result is bit for bit the one-block surrogate's when the sources are ordered by table
+  // (checked). The error estimate keeps the exact sums of its sampled points across the blocks.
+  PressureSurrogate(std::span<const ObservationPoint> points, std::size_t group_count, std::size_t time_count,
+                    double d_min, double d_max, std::size_t nodes = 16, const util::WorkShare* share = nullptr,
+                    std::optional<PointRange> range = std::nullopt);
+  // Adds the sources whose table is one of `tables`, the tables of wells [first_table,
+  // first_table + tables.size()), right after the previous block's.
+  void add(std::span<const SimilarityTable> tables, std::size_t first_table, std::span<const PressureSource> sources);
+  // Once every one of `table_count` tables was added: the exchange of a shared build, the column
+  // maxima and the error estimate.
+  void finish(std::size_t table_count);
+
+  ~PressureSurrogate();
+  PressureSurrogate(PressureSurrogate&&) noexcept;
+  PressureSurrogate& operator=(PressureSurrogate&&) noexcept;
+
   std::size_t point_count() const { return n_points_; }
   std::size_t group_count() const { return n_groups_; }
   std::size_t node_count() const { return ln_nodes_.size(); }
@@ -95,6 +115,8 @@ class PressureSurrogate {
   std::vector<Eigen::MatrixXd> g_;
   std::vector<double> col_max_;
   double max_error_ = 0.0;
+  struct Pending;
+  std::unique_ptr<Pending> pending_;  // until finish()
 };
 
 }  // namespace slipscreen::hydro

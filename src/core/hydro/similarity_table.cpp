@@ -222,72 +222,94 @@ SimilarityTable SimilarityTable::from_values(const SimilarityGrid& grid, std::si
   return t;
 }
 
-namespace {
-
-// Tables of the wells [first, end) into tables[first .. end).
-void build_range(const std::vector<RateSteps>& steps, std::span<const double> tracking_times, const SimilarityGrid& grid,
-                 std::size_t first, std::size_t end, std::vector<SimilarityTable>& tables) {
+TableBuilder::TableBuilder(const std::vector<RateSteps>& steps, std::span<const double> tracking_times,
+                           const SimilarityGrid& grid)
+    : steps_(&steps), times_(tracking_times), grid_(grid) {
   bool lattice = !tracking_times.empty();
   double earliest = tracking_times.empty() ? 0.0 : tracking_times.back();
   for (double t : tracking_times) lattice = lattice && whole_quanta(t, kDay);
-  for (const auto& s : steps)  // every well's steps decide the lattice and its lags, as in one process
+  for (const auto& s : steps)  // every well's steps decide the lattice and its lags, whatever the block
     for (double t : s.time) {
       lattice = lattice && whole_quanta(t, kDay);
       earliest = std::min(earliest, t);
     }
+  if (lattice)
+    kernel_.emplace(grid, kDay, static_cast<std::size_t>(std::llround((tracking_times.back() - earliest) / kDay)) + 1);
+}
+
+double TableBuilder::table_bytes() const {
+  return static_cast<double>(grid_.node_count()) * static_cast<double>(times_.size()) * sizeof(float);
+}
+
+std::vector<std::pair<std::size_t, std::size_t>> TableBuilder::blocks(double budget) const {
+  const std::size_t n = well_count();
+  const double per = std::max(1.0, std::floor(budget / std::max(table_bytes(), 1.0)));
+  const std::size_t size = per >= static_cast<double>(n) ? std::max<std::size_t>(n, 1) : static_cast<std::size_t>(per);
+  std::vector<std::pair<std::size_t, std::size_t>> out;
+  for (std::size_t first = 0; first < n; first += size) out.emplace_back(first, std::min(n, first + size));
+  return out;
+}
+
+// Tables of the wells [first, end) into tables[first − offset .. end − offset).
+void TableBuilder::build_range(std::size_t first, std::size_t end, std::size_t offset,
+                               std::vector<SimilarityTable>& tables) const {
   util::ParallelErrors errors;
-  if (lattice && !tracking_times.empty()) {
-    const auto max_lag = static_cast<std::size_t>(std::llround((tracking_times.back() - earliest) / kDay)) + 1;
-    const LagKernel kernel(grid, kDay, max_lag);
+  const auto& steps = *steps_;
 #pragma omp parallel for schedule(dynamic, 1)
-    for (std::size_t w = first; w < end; ++w)
-      errors.iteration(w, [&] { tables[w] = SimilarityTable(steps[w], tracking_times, grid, kernel); });
-  } else {
-#pragma omp parallel for schedule(dynamic, 1)
-    for (std::size_t w = first; w < end; ++w)
-      errors.iteration(w, [&] { tables[w] = SimilarityTable(steps[w], tracking_times, grid); });
-  }
+  for (std::size_t w = first; w < end; ++w)
+    errors.iteration(w, [&] {
+      tables[w - offset] = kernel_ ? SimilarityTable(steps[w], times_, grid_, *kernel_)
+                                   : SimilarityTable(steps[w], times_, grid_);
+    });
   errors.rethrow();
 }
 
-}  // namespace
-
-std::vector<SimilarityTable> build_tables(const std::vector<RateSteps>& steps,
-                                          std::span<const double> tracking_times, const SimilarityGrid& grid,
-                                          const util::WorkShare* share) {
-  std::vector<SimilarityTable> tables(steps.size());
+std::vector<SimilarityTable> TableBuilder::build(std::size_t first, std::size_t end, const util::WorkShare* share) const {
+  if (first > end || end > well_count())
+    throw InputError("table block", std::to_string(first) + " to " + std::to_string(end),
+                     "a range of the " + std::to_string(well_count()) + " wells");
+  std::vector<SimilarityTable> tables(end - first);
   if (!share || !share->active()) {
-    build_range(steps, tracking_times, grid, 0, steps.size(), tables);
+    build_range(first, end, first, tables);
     return tables;
   }
-  const auto [first, end] = util::part_range(steps.size(), share->part, share->parts);
-  build_range(steps, tracking_times, grid, first, end, tables);
+  const auto part = [&](std::size_t p) {
+    const auto [a, b] = util::part_range(end - first, p, share->parts);
+    return std::pair<std::size_t, std::size_t>{first + a, first + b};
+  };
+  const auto [mine_first, mine_end] = part(share->part);
+  build_range(mine_first, mine_end, first, tables);
   util::WordWriter out;
-  out.word(first);
-  out.word(end);
-  for (std::size_t w = first; w < end; ++w) {
-    out.word(tables[w].node_count());
-    out.word(tables[w].time_count());
-    out.floats(tables[w].raw_values());
+  out.word(mine_first);
+  out.word(mine_end);
+  for (std::size_t w = mine_first; w < mine_end; ++w) {
+    out.word(tables[w - first].node_count());
+    out.word(tables[w - first].time_count());
+    out.floats(tables[w - first].raw_values());
   }
   const auto all = share->all_gather(out.bytes());
   if (all.size() != share->parts)
     throw InputError("shared similarity tables", std::to_string(all.size()) + " parts", std::to_string(share->parts));
   for (std::size_t p = 0; p < all.size(); ++p) {
     if (p == share->part) continue;
-    util::WordReader in(all[p], "the similarity tables of another process (similarity_table.hpp build_tables)");
-    const auto [pf, pe] = util::part_range(steps.size(), p, share->parts);
+    util::WordReader in(all[p], "the similarity tables of another process (similarity_table.hpp TableBuilder)");
+    const auto [pf, pe] = part(p);
     if (in.word() != pf || in.word() != pe) in.fail("a well range other than part " + std::to_string(p) + "'s");
     for (std::size_t w = pf; w < pe; ++w) {
       const std::size_t nodes = in.word(), times = in.word();
       std::vector<float> v = in.floats();
-      if (v.size() != nodes * times || times != tracking_times.size())
-        in.fail("a table of " + std::to_string(v.size()) + " values");
-      tables[w] = SimilarityTable::from_values(grid, nodes, times, std::move(v));
+      if (v.size() != nodes * times || times != times_.size()) in.fail("a table of " + std::to_string(v.size()) + " values");
+      tables[w - first] = SimilarityTable::from_values(grid_, nodes, times, std::move(v));
     }
     if (!in.done()) in.fail("words after the end");
   }
   return tables;
+}
+
+std::vector<SimilarityTable> build_tables(const std::vector<RateSteps>& steps,
+                                          std::span<const double> tracking_times, const SimilarityGrid& grid,
+                                          const util::WorkShare* share) {
+  return TableBuilder(steps, tracking_times, grid).build(0, steps.size(), share);
 }
 
 }  // namespace slipscreen::hydro

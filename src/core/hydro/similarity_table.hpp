@@ -22,6 +22,8 @@
 // wells together (LagKernel); each table is then a sum of contiguous rows (build_tables()).
 #include <array>
 #include <cstddef>
+#include <optional>
+#include <utility>
 #include <span>
 #include <vector>
 
@@ -125,11 +127,44 @@ class SimilarityTable {
   std::vector<float> values_;  // node-major: values_[i * n_times_ + k]
 };
 
-// Tables for many wells sharing one grid and tracking times (OpenMP over wells). Uses the
+// The tables of many wells sharing one grid and tracking times, built for all wells at once or
+// for a block of consecutive wells at a time, so that a statewide review holds one block of
+// tables instead of every well's (W · n_x · G floats, 4.5–5 GB; docs/cluster.md). Whether the
+// lattice build applies, and its lag kernel, are decided from every well's steps at
+// construction, so a well's table is bit for bit the same whichever block builds it. Uses the
 // lattice build when every time is a whole number of days, the direct build otherwise.
-// With an active `share` (several processes), each part builds its range of wells
-// (util::part_range) and the parts exchange them: every part ends with every table, bit for bit
-// those of one process (a table depends on its own well's steps only).
+class TableBuilder {
+ public:
+  // `steps` and `tracking_times` must outlive the builder.
+  TableBuilder(const std::vector<RateSteps>& steps, std::span<const double> tracking_times, const SimilarityGrid& grid);
+
+  std::size_t well_count() const { return steps_->size(); }
+  const SimilarityGrid& grid() const { return grid_; }
+  // Bytes of one well's table.
+  double table_bytes() const;
+  // Consecutive blocks [first, second) of wells covering every well, each holding at most
+  // `budget` bytes of tables (at least one well per block).
+  std::vector<std::pair<std::size_t, std::size_t>> blocks(double budget) const;
+
+  // Tables of the wells [first, end), element i being well first + i (OpenMP over wells). With an
+  // active `share` (several processes) each part builds its range of them (util::part_range) and
+  // the parts exchange them: every part ends with every table of the block, bit for bit those of
+  // one process (a table depends on its own well's steps only).
+  std::vector<SimilarityTable> build(std::size_t first, std::size_t end, const util::WorkShare* share = nullptr) const;
+
+ private:
+  void build_range(std::size_t first, std::size_t end, std::size_t offset, std::vector<SimilarityTable>& tables) const;
+  const std::vector<RateSteps>* steps_;
+  std::span<const double> times_;
+  SimilarityGrid grid_;
+  std::optional<LagKernel> kernel_;  // with the lattice build
+};
+
+// Tables held at a time by the screens that build them by blocks of wells (TableBuilder::blocks):
+// 256 MiB, a few blocks for a statewide review, one for a regional one.
+inline constexpr double kTableBlockBytes = 256.0 * 1024.0 * 1024.0;
+
+// Every well's table: TableBuilder(steps, tracking_times, grid).build(0, wells, share).
 std::vector<SimilarityTable> build_tables(const std::vector<RateSteps>& steps,
                                           std::span<const double> tracking_times, const SimilarityGrid& grid,
                                           const util::WorkShare* share = nullptr);

@@ -9,6 +9,7 @@
 
 #include "core/errors.hpp"
 #include "core/hydro/image_wells.hpp"
+#include "core/hydro/similarity_table.hpp"
 
 namespace slipscreen::probabilistic {
 namespace {
@@ -48,6 +49,51 @@ Eigen::MatrixXd rate_factors(const PressureModel& m, const InputList& list, cons
   return factor;
 }
 
+// The grid of the map's tables: the model's, widened to reach the farthest pixel.
+hydro::SimilarityGrid map_grid(const PressureModel& m, const RunSettings& settings) {
+  double r2m = 0.0;
+  for (const auto& p : settings.map_points)
+    for (const auto& src : m.sources) {
+      const double dx = p.x - src.x, dy = p.y - src.y;
+      r2m = std::max(r2m, dx * dx + dy * dy);
+    }
+  return {m.grid.ln_x_min, std::max(m.grid.ln_x_max, std::log(std::max(r2m, 1.0) / (4.0 * m.diffusivity_min)) + 0.1),
+          0.025, m.grid.leakage_rate};
+}
+
+// The similarity tables, built by blocks of wells (RunSettings::table_block_bytes) and added block by
+// block into the segments' surrogate, the map's (when its pixels lie within the same grid; else
+// from its own wider tables, by blocks too) and the table nodes at the output times for the
+// median's attribution; each block is dropped before the next, so a statewide review never holds
+// every table (W · n_x · G floats, 5 GB; docs/cluster.md).
+void add_tables(PressureModel& m, const RunSettings& settings, const util::WorkShare* share) {
+  const std::size_t W = m.steps.size(), G = settings.tracking_times.size();
+  const hydro::SimilarityGrid wide = map_grid(m, settings);
+  const bool map_own_grid = wide.ln_x_max > m.grid.ln_x_max;
+  if (!settings.map_points.empty())
+    m.map_surrogate.emplace(settings.map_points, m.groups, G, m.diffusivity_min, m.diffusivity_max, m.nodes);
+  if (settings.attribute_median) m.median_nodes.assign(settings.output_index.size() * W, {});
+  // Tables shared only for the leaky well function (docs/cluster.md: a Theis table costs about as
+  // much to send as to build).
+  const util::WorkShare* tables_share = settings.leakage_rate > 0.0 ? share : nullptr;
+  const hydro::TableBuilder builder(m.steps, settings.tracking_times, m.grid);
+  for (const auto& [first, end] : builder.blocks(settings.table_block_bytes)) {
+    const std::vector<hydro::SimilarityTable> tables = builder.build(first, end, tables_share);
+    m.surrogate->add(tables, first, m.sources);
+    if (m.map_surrogate && !map_own_grid) m.map_surrogate->add(tables, first, m.sources);
+    for (std::size_t t = 0; t < settings.attribute_median * settings.output_index.size(); ++t)
+      for (std::size_t w = first; w < end; ++w) m.median_nodes[t * W + w] = tables[w - first].nodes_at(settings.output_index[t]);
+  }
+  m.surrogate->finish(W);
+  if (!m.map_surrogate) return;
+  if (map_own_grid) {
+    const hydro::TableBuilder map_builder(m.steps, settings.tracking_times, wide);
+    for (const auto& [first, end] : map_builder.blocks(settings.table_block_bytes))
+      m.map_surrogate->add(map_builder.build(first, end), first, m.sources);
+  }
+  m.map_surrogate->finish(W);
+}
+
 }  // namespace
 
 PressureModel build_pressure_model(const std::vector<WellInput>& wells, const std::vector<SegmentInput>& segments,
@@ -72,15 +118,13 @@ PressureModel build_pressure_model(const std::vector<WellInput>& wells, const st
     }
   m.grid = {std::log(rw_min * rw_min / (4.0 * m.diffusivity_max)) - 0.1,
             std::log(std::max(r2_max, 1.0) / (4.0 * m.diffusivity_min)) + 0.1, 0.025, settings.leakage_rate};
-  // Tables shared only for the leaky well function, the surrogate always (docs/cluster.md: a
-  // Theis table costs about as much to send as to build).
-  m.tables = hydro::build_tables(m.steps, settings.tracking_times, m.grid, settings.leakage_rate > 0.0 ? share : nullptr);
   m.nodes = settings.surrogate_nodes > 0
                 ? settings.surrogate_nodes
                 // Clamped as a double before the cast (fmin/fmax also take NaN to a bound), so no
                 // ratio of diffusivities can make the float-to-integer cast undefined.
                 : static_cast<std::size_t>(
                       std::fmax(4.0, std::fmin(64.0, std::ceil(8.0 * std::log(m.diffusivity_max / m.diffusivity_min)))));
+  const std::size_t G = settings.tracking_times.size();
   if (own) {  // this part's segments only: their points are contiguous in `points`
     const std::size_t first = own->first < own->second ? m.segment_points[own->first].front() : 0;
     const std::size_t end = own->first < own->second ? m.segment_points[own->second - 1].back() + 1 : 0;
@@ -88,39 +132,15 @@ PressureModel build_pressure_model(const std::vector<WellInput>& wells, const st
       if (s < own->first || s >= own->second) m.segment_points[s].clear();
       else
         for (auto& i : m.segment_points[s]) i -= first;
-    m.surrogate.emplace(m.tables, m.sources, std::span(points).subspan(first, end - first), m.groups, m.diffusivity_min,
-                        m.diffusivity_max, m.nodes, nullptr, hydro::PointRange{first, points.size()});
+    m.surrogate.emplace(std::span(points).subspan(first, end - first), m.groups, G, m.diffusivity_min, m.diffusivity_max,
+                        m.nodes, nullptr, hydro::PointRange{first, points.size()});
   } else {
-    m.surrogate.emplace(m.tables, m.sources, points, m.groups, m.diffusivity_min, m.diffusivity_max, m.nodes, share);
+    m.surrogate.emplace(points, m.groups, G, m.diffusivity_min, m.diffusivity_max, m.nodes, share);
   }
+  add_tables(m, settings, share);
   m.factor = rate_factors(m, list, r.inputs);
   m.draws = make_pressure_draws(*m.surrogate, r.diffusivity, r.prefactor, m.factor);
   return m;
-}
-
-hydro::PressureSurrogate map_surrogate(const PressureModel& m, const RunSettings& settings) {
-  double r2m = 0.0;
-  for (const auto& p : settings.map_points)
-    for (const auto& src : m.sources) {
-      const double dx = p.x - src.x, dy = p.y - src.y;
-      r2m = std::max(r2m, dx * dx + dy * dy);
-    }
-  const hydro::SimilarityGrid grid{
-      m.grid.ln_x_min, std::max(m.grid.ln_x_max, std::log(std::max(r2m, 1.0) / (4.0 * m.diffusivity_min)) + 0.1),
-      0.025, m.grid.leakage_rate};
-  if (grid.ln_x_max > m.grid.ln_x_max)
-    return {hydro::build_tables(m.steps, settings.tracking_times, grid), m.sources, settings.map_points, m.groups,
-            m.diffusivity_min, m.diffusivity_max, m.nodes};
-  if (m.tables.empty()) throw InputError("similarity tables", "(released)", "the model's tables for the map's surrogate");
-  return {m.tables, m.sources, settings.map_points, m.groups, m.diffusivity_min, m.diffusivity_max, m.nodes};
-}
-
-void release_tables(PressureModel& m, const RunSettings& settings) {
-  if (!settings.map_points.empty()) m.map_surrogate.emplace(map_surrogate(m, settings));
-  if (settings.attribute_median)
-    for (std::size_t k : settings.output_index)
-      for (const auto& table : m.tables) m.median_nodes.push_back(table.nodes_at(k));
-  std::vector<hydro::SimilarityTable>().swap(m.tables);
 }
 
 void point_series(const PressureModel& pm, const std::vector<std::size_t>& points, Eigen::Index rows,

@@ -40,11 +40,10 @@ struct PressureModel {
   std::vector<std::vector<std::size_t>> segment_points;  // surrogate point index of every check point
   double diffusivity_min = 0.0, diffusivity_max = 0.0;   // m²/s over the valid realizations
   hydro::SimilarityGrid grid;
-  std::vector<hydro::SimilarityTable> tables;            // per well; empty after release_tables
   std::size_t nodes = 0;                                 // Chebyshev nodes in ln D
   std::optional<hydro::PressureSurrogate> surrogate;     // at the segments' check points
-  std::optional<hydro::PressureSurrogate> map_surrogate; // at RunSettings::map_points (release_tables)
-  std::vector<std::vector<float>> median_nodes;          // with attribute_median (release_tables): every
+  std::optional<hydro::PressureSurrogate> map_surrogate; // at RunSettings::map_points (none without them)
+  std::vector<std::vector<float>> median_nodes;          // with RunSettings::attribute_median: every
                                                          // table's nodes at every output time [t · wells + w]
   Eigen::MatrixXd factor;                                // groups × valid realizations: f_g
   PressureDraws draws;                                   // the realizations' basis and P · f_g
@@ -55,20 +54,13 @@ struct PressureModel {
 // this with the same inputs, in the same order as its other shared builds). With `own` the
 // surrogate holds only the check points of those segments (a part of a split run that tracks
 // them; the other segments' segment_points are empty), each point's G bit for bit that of the
-// whole model; `share` then serves only the tables.
+// whole model; `share` then serves only the tables. The similarity tables are built by blocks of
+// wells and each block is added into the surrogates (the segments' and, with map points, the
+// map's) and the median's table nodes (with attribute_median) before the next is built: the model
+// never holds every table (hydro::TableBuilder, docs/cluster.md).
 PressureModel build_pressure_model(const std::vector<WellInput>& wells, const std::vector<SegmentInput>& segments,
                                    const RunSettings& settings, const InputList& list, const SampledRealizations& r,
                                    const util::WorkShare* share = nullptr, std::optional<SegmentRows> own = std::nullopt);
-
-// The surrogate at the settings' map points: from the model's tables, or from tables reaching
-// the farthest pixel when the model's do not (built here, then dropped).
-hydro::PressureSurrogate map_surrogate(const PressureModel& m, const RunSettings& settings);
-
-// What the screen still needs from the tables once the surrogate exists — the map's surrogate
-// (with map points) and the table nodes at the output times of the median's attribution (with
-// attribute_median) — and then the tables freed: W · n_x · G floats, 5 GB for a statewide
-// review (docs/cluster.md).
-void release_tables(PressureModel& m, const RunSettings& settings);
 
 // Σ over the model's groups of its table rows [first_row, first_row + rows) times basis · scale_g,
 // for the realizations `cols`, at every check point of `points`, stacked into `out`: row i·rows + k

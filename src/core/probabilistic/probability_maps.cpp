@@ -30,9 +30,10 @@ ProbabilityMaps probability_maps(const PressureModel& model, const SampledRealiz
                                  std::optional<ColumnRange> columns) {
   ProbabilityMaps maps;
   if (settings.map_points.empty()) return maps;
-  std::optional<hydro::PressureSurrogate> built;
-  if (!model.map_surrogate) built.emplace(map_surrogate(model, settings));
-  const hydro::PressureSurrogate& surrogate = model.map_surrogate ? *model.map_surrogate : *built;
+  if (!model.map_surrogate || model.map_surrogate->point_count() != settings.map_points.size())
+    throw InputError("map surrogate", model.map_surrogate ? std::to_string(model.map_surrogate->point_count()) + " points" : "(none)",
+                     "the model built with these " + std::to_string(settings.map_points.size()) + " map points");
+  const hydro::PressureSurrogate& surrogate = *model.map_surrogate;
   const ColumnRange cols = columns.value_or(ColumnRange{0, r.diffusivity.size()});
   const auto c0 = static_cast<Eigen::Index>(cols.begin), nc = static_cast<Eigen::Index>(cols.size());
   const PressureDraws draws =

@@ -143,6 +143,9 @@ struct RunSettings {
   double leakage_rate = 0.0;
   // Chebyshev nodes in ln D; 0: automatic, 8 per e-fold of D_max/D_min (at least 4, at most 64).
   std::size_t surrogate_nodes = 0;
+  // Bytes of similarity tables held at a time while the surrogates are built (blocks of wells,
+  // hydro::TableBuilder::blocks); the result does not depend on it.
+  double table_block_bytes = hydro::kTableBlockBytes;
   // Probability maps for unmapped faults: pixel centres (working CRS). For each pixel, the
   // probability that a fault of the most dangerous orientation (minimum Δp_crit over a 5° grid
   // of strikes and dips, global friction) — and optionally of a given orientation — has slipped.

@@ -48,7 +48,7 @@ Tracking prepare_tracking(const std::vector<WellInput>& wells, const std::vector
   }
   if (settings.attribute_median && pm.median_nodes.size() != settings.output_index.size() * wells.size())
     throw InputError("median attribution", std::to_string(pm.median_nodes.size()) + " table columns",
-                     "every well's at every output time (release_tables)");
+                     "every well's at every output time (build_pressure_model)");
   for (std::uint64_t i : settings.audit_realizations) {
     const auto it = std::lower_bound(r.keep.begin(), r.keep.end(), static_cast<Eigen::Index>(i));
     if (it != r.keep.end() && *it == static_cast<Eigen::Index>(i)) tr.audit_cols.emplace_back(i, it - r.keep.begin());
@@ -195,7 +195,7 @@ std::vector<double> well_contributions(const Tracking& tr, const hydro::Observat
   const auto& pm = tr.pm;
   const std::size_t n_wells = tr.wells.size();
   const double inv4d = 0.25 / tr.r.diffusivity[static_cast<std::size_t>(c)];
-  const std::size_t table_nodes = pm.grid.node_count();  // the released tables' (release_tables)
+  const std::size_t table_nodes = pm.grid.node_count();  // the model's tables' (build_pressure_model)
   std::vector<double> well_dp(n_wells, 0.0);
   for (std::size_t w = 0; w < n_wells; ++w) {
     const float* h_nodes = pm.median_nodes[t * n_wells + w].data();
@@ -463,7 +463,6 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
     own = SegmentRows{rows.begin, rows.end};
   }
   PressureModel pm = build_pressure_model(wells, segments, settings, list, r, &share, own);
-  release_tables(pm, settings);
   out.diffusivity_min = pm.diffusivity_min;
   out.diffusivity_max = pm.diffusivity_max;
   out.surrogate_error = pm.surrogate->max_relative_error();

@@ -82,26 +82,27 @@ CheckPoints resolve_segments(const ScreenInputs& in, std::vector<SegmentScreen>&
   return cps;
 }
 
-// What every block of segments shares: the field, each well's similarity table over the tracked
-// times, the bound on the table error, and where the output times sit among the tracked times.
+// What every block of segments shares: the field, the table Δp at the screened check points on
+// the tracked times, the bound on the table error, and where the output times sit among the
+// tracked times.
 struct TabulatedField {
   const ScreenInputs& in;
   const hydro::PressureField& field;
   const std::vector<double>& tracked_times;
   double inv4d = 0;                          // 1/(4D)
-  std::vector<hydro::SimilarityTable> tables;
+  std::size_t first_point = 0;               // the first screened check point
+  std::vector<double> series;                // [(p − first_point) · G + g]: Δp from the tables
   std::vector<double> table_error;           // per tracked time
   std::vector<std::size_t> out_index;        // tracked index of each output time
 };
 
-// Similarity tables of every well over the tracked times (one grid for all wells, spanning
-// x = r²/(4D) from the smallest well radius to the farthest source of any check point).
-std::vector<hydro::SimilarityTable> similarity_tables(const TabulatedField& tf,
-                                                      const std::vector<hydro::FieldPoint>& points,
-                                                      const util::WorkShare* share) {
+// The similarity tables' builder: one grid for all wells, spanning x = r²/(4D) from the smallest
+// well radius to the farthest source of any check point.
+hydro::TableBuilder table_builder(const TabulatedField& tf, const std::vector<hydro::FieldPoint>& points,
+                                  std::vector<hydro::RateSteps>& steps) {
   const std::size_t W = tf.in.wells.size();
   double rw_min = std::numeric_limits<double>::infinity(), r2_max = 1.0;
-  std::vector<hydro::RateSteps> steps(W);
+  steps.assign(W, {});
   for (std::size_t w = 0; w < W; ++w) {
     rw_min = std::min(rw_min, tf.in.wells[w].radius);
     for (const auto& c : tf.in.wells[w].history.changes()) {
@@ -114,53 +115,59 @@ std::vector<hydro::SimilarityTable> similarity_tables(const TabulatedField& tf,
   }
   const hydro::SimilarityGrid grid{std::log(rw_min * rw_min * tf.inv4d) - 0.1, std::log(r2_max * tf.inv4d) + 0.1,
                                    kTableStep, tf.in.formation.leakage_rate};
-  // Shared only where a table costs far more to build than to send: the leaky well function
-  // (docs/cluster.md, measured; Theis tables are built about as fast as they are copied).
-  return hydro::build_tables(steps, tf.tracked_times, grid, tf.in.formation.leakage_rate > 0.0 ? share : nullptr);
+  return {steps, tf.tracked_times, grid};
 }
 
-// Bound on the table error of any point's Δp at tracked time g: the stated accuracy of each
-// source's table, summed over sources.
-std::vector<double> table_error_bound(const TabulatedField& tf) {
+// Adds the wells [first, first + tables.size()) to the table Δp at the points [tf.first_point,
+// tf.first_point + n_pts) (sources clamped to r_w as in hydro::PressureField::prepare) and to the
+// bound on the table error: the stated accuracy of each source's table, summed over sources. A
+// point adds its wells and their sources in order, so blocks of wells give the same sums as one.
+void add_table_block(TabulatedField& tf, const std::vector<hydro::FieldPoint>& points, std::size_t n_pts,
+                     std::size_t first, const std::vector<hydro::SimilarityTable>& tables) {
   const std::size_t G = tf.tracked_times.size();
-  std::vector<double> table_error(G, 0.0);
-  for (std::size_t w = 0; w < tf.in.wells.size(); ++w)
+  for (std::size_t i = 0; i < tables.size(); ++i)
     for (std::size_t g = 0; g < G; ++g)
-      table_error[g] += kTableAccuracy * tf.in.formation.pressure_per_rate *
-                        static_cast<double>(tf.field.sources(w).size()) * tf.tables[w].scale(g);
-  return table_error;
+      tf.table_error[g] += kTableAccuracy * tf.in.formation.pressure_per_rate *
+                           static_cast<double>(tf.field.sources(first + i).size()) * tables[i].scale(g);
+  util::ParallelErrors errors;
+#pragma omp parallel for schedule(dynamic, 64)
+  for (std::size_t p = 0; p < n_pts; ++p)
+    errors.iteration(p, [&] {
+      const hydro::FieldPoint& pt = points[tf.first_point + p];
+      double* row = &tf.series[p * G];
+      for (std::size_t i = 0; i < tables.size(); ++i) {
+        const double rw2 = tf.in.wells[first + i].radius * tf.in.wells[first + i].radius;
+        for (const auto& src : tf.field.sources(first + i)) {
+          const double dx = pt.x - src.x, dy = pt.y - src.y;
+          tables[i].accumulate(tables[i].tap(std::max(dx * dx + dy * dy, rw2) * tf.inv4d), src.sign, row);
+        }
+      }
+    });
+  errors.rethrow();
 }
 
-TabulatedField tabulate(const ScreenInputs& in, const hydro::PressureField& field,
-                        const std::vector<hydro::FieldPoint>& points, const std::vector<double>& tracked_times,
+// The table Δp at the check points [first, end) on the tracked times, the tables built by blocks
+// of wells (ScreenInputs::table_block_bytes) and each block dropped before the next; shared only
+// where a table costs far more to build than to send: the leaky well function (docs/cluster.md,
+// measured; Theis tables are built about as fast as they are copied).
+TabulatedField tabulate(const ScreenInputs& in, const hydro::PressureField& field, const CheckPoints& cps,
+                        std::size_t first, std::size_t end, const std::vector<double>& tracked_times,
                         const util::WorkShare* share) {
-  TabulatedField tf{in, field, tracked_times, 1.0 / (4.0 * in.formation.diffusivity), {}, {}, {}};
-  tf.tables = similarity_tables(tf, points, share);
-  tf.table_error = table_error_bound(tf);
+  const std::size_t G = tracked_times.size();
+  TabulatedField tf{in, field, tracked_times, 1.0 / (4.0 * in.formation.diffusivity), first, {}, {}, {}};
+  tf.series.assign((end - first) * G, 0.0);
+  tf.table_error.assign(G, 0.0);
+  std::vector<hydro::RateSteps> steps;
+  const hydro::TableBuilder builder = table_builder(tf, cps.points, steps);
+  for (const auto& [w0, w1] : builder.blocks(in.table_block_bytes))
+    add_table_block(tf, cps.points, end - first, w0,
+                    builder.build(w0, w1, in.formation.leakage_rate > 0.0 ? share : nullptr));
+  for (double& v : tf.series) v *= in.formation.pressure_per_rate;
   tf.out_index.resize(in.output_times.size());
   for (std::size_t k = 0; k < in.output_times.size(); ++k)
     tf.out_index[k] = static_cast<std::size_t>(
         std::lower_bound(tracked_times.begin(), tracked_times.end(), in.output_times[k]) - tracked_times.begin());
   return tf;
-}
-
-// Δp from the tables at a block's check points on the tracked times: series[p * G + g].
-void table_series(const TabulatedField& tf, const hydro::PreparedPoints& prepared, std::size_t n_pts,
-                  std::vector<double>& series) {
-  const std::size_t W = tf.in.wells.size();
-  const std::size_t G = tf.tracked_times.size();
-  series.assign(n_pts * G, 0.0);
-  util::ParallelErrors errors;
-#pragma omp parallel for schedule(dynamic, 4)
-  for (std::size_t p = 0; p < n_pts; ++p)
-    errors.iteration(p, [&] {
-      double* row = &series[p * G];
-      for (std::size_t w = 0; w < W; ++w)
-        for (std::size_t j = prepared.offset[p * W + w]; j < prepared.offset[p * W + w + 1]; ++j)
-          tf.tables[w].accumulate(tf.tables[w].tap(prepared.r2[j] * tf.inv4d), prepared.sign[j], row);
-      for (std::size_t g = 0; g < G; ++g) row[g] *= tf.in.formation.pressure_per_rate;
-    });
-  errors.rethrow();
 }
 
 // Each well's fraction of the exact Δp at point 0 and time i of `exact` (0 when Δp = 0), written
@@ -258,16 +265,15 @@ void crossing_shares(const TabulatedField& tf, std::span<const hydro::FieldPoint
       well_fractions(exact, 0, W, tf.in.all_well_shares ? out.crossing_share.data() : nullptr);
 }
 
-// Screens the segments [s0, s1) as one block: table Δp at their check points, then each
-// segment's exact Δp at the output times, peak and first crossing. `series` is reused between
-// blocks. Returns whether a check point of the block lay within a well radius.
-bool screen_block(const TabulatedField& tf, const CheckPoints& cps, std::size_t s0, std::size_t s1,
-                  std::vector<double>& series, std::vector<SegmentScreen>& segments) {
+// Screens the segments [s0, s1) as one block: each segment's exact Δp at the output times, peak
+// and first crossing from the table Δp at their check points.
+void screen_block(const TabulatedField& tf, const CheckPoints& cps, std::size_t s0, std::size_t s1,
+                  std::vector<SegmentScreen>& segments) {
   const std::size_t first = cps.first[s0], n_pts = cps.first[s1] - first;
   const std::span<const hydro::FieldPoint> pts(cps.points.data() + first, n_pts);
-  const hydro::PreparedPoints prepared = tf.field.prepare(pts);
-  table_series(tf, prepared, n_pts, series);
-
+  const std::size_t G = tf.tracked_times.size();
+  const std::vector<double> series(tf.series.begin() + static_cast<std::ptrdiff_t>((first - tf.first_point) * G),
+                                   tf.series.begin() + static_cast<std::ptrdiff_t>((first - tf.first_point + n_pts) * G));
   util::ParallelErrors errors;
 #pragma omp parallel for schedule(dynamic, 1)
   for (std::size_t s = s0; s < s1; ++s)
@@ -278,7 +284,6 @@ bool screen_block(const TabulatedField& tf, const CheckPoints& cps, std::size_t 
       crossing_shares(tf, pts, series, pa, pb, segments[s]);
     });
   errors.rethrow();
-  return prepared.any_clamped();
 }
 
 }  // namespace
@@ -313,17 +318,19 @@ ScreenResult deterministic_screen(const ScreenInputs& in, Progress progress, voi
   for (const auto& w : in.wells) sources.push_back({w.id, w.x, w.y, w.radius, w.history});
   const hydro::PressureField field(std::move(sources), in.boundaries);
   hydro::validate(in.formation);
-  const TabulatedField tf = tabulate(in, field, cps.points, result.tracked_times, share);
-
-  // Segments in blocks, so that progress can be reported and memory stays bounded; each block
-  // is computed exactly as a whole run would be (results do not depend on the blocking).
-  const std::size_t block = 64;
   const std::size_t end = std::min(only.end, in.segments.size()), first = std::min(only.first, end);
-  std::vector<double> series;  // [local point * G + g]: Δp from the tables
+  // Every screened check point checked (finite, inside the region; InputError otherwise) before
+  // any table is built.
+  const std::span<const hydro::FieldPoint> screened(cps.points.data() + cps.first[first], cps.first[end] - cps.first[first]);
+  result.radius_clamped = field.check_points(screened);
+  const TabulatedField tf = tabulate(in, field, cps, cps.first[first], cps.first[end], result.tracked_times, share);
+
+  // Segments in blocks, so that progress can be reported; each block is computed exactly as a
+  // whole run would be (results do not depend on the blocking).
+  const std::size_t block = 64;
   for (std::size_t s0 = first; s0 < end; s0 += block) {
     const std::size_t s1 = std::min(end, s0 + block);
-    const bool clamped = screen_block(tf, cps, s0, s1, series, result.segments);
-    result.radius_clamped = result.radius_clamped || clamped;
+    screen_block(tf, cps, s0, s1, result.segments);
     if (progress) progress(double(s1 - first) / double(end - first), user);
   }
   return result;

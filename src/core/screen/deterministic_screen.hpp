@@ -49,6 +49,7 @@
 #include "core/geometry/point.hpp"
 #include "core/hydro/image_wells.hpp"
 #include "core/hydro/rate_history.hpp"
+#include "core/hydro/similarity_table.hpp"
 #include "core/hydro/theis.hpp"
 #include "core/util/work_share.hpp"
 
@@ -83,6 +84,9 @@ struct ScreenInputs {
   // segments, 50 output times and 3,000 wells. false: only the leading well's (leading_well,
   // leading_share, crossing_well), which is all a run without its tables reads.
   bool all_well_shares = true;
+  // Bytes of similarity tables held at a time (blocks of wells, hydro::TableBuilder::blocks; the
+  // results do not depend on it).
+  double table_block_bytes = hydro::kTableBlockBytes;
 };
 
 struct SegmentScreen {

@@ -135,3 +135,30 @@ TEST_CASE("surrogates of ranges of the points hold the whole one's tables bit fo
                                     PointRange{151, f.points.size()}),
                   slipscreen::InputError);
 }
+
+TEST_CASE("surrogate by blocks of tables: the one-block surrogate bit for bit, blocks out of order refused") {
+  const Fixture f;
+  const PressureSurrogate whole(f.tables, f.sources, f.points, 2, 0.05, 2.0, 16);
+  PressureSurrogate blocks(f.points, 2, f.times.size(), 0.05, 2.0, 16);
+  // Tables 0 and 1, then table 2 (the sources are ordered by table, as the pressure model's are).
+  blocks.add(std::span(f.tables).subspan(0, 2), 0, f.sources);
+  blocks.add(std::span(f.tables).subspan(2, 1), 2, f.sources);
+  blocks.finish(f.tables.size());
+  for (std::size_t p = 0; p < f.points.size(); ++p)
+    for (std::size_t g = 0; g < 2; ++g) CHECK(blocks.table(p, g) == whole.table(p, g));
+  CHECK(blocks.max_relative_error() == whole.max_relative_error());
+  CHECK(blocks.max_relative_error() > 0.0);
+
+  PressureSurrogate skipped(f.points, 2, f.times.size(), 0.05, 2.0, 16);
+  CHECK_THROWS_AS(skipped.add(std::span(f.tables).subspan(1, 2), 1, f.sources), slipscreen::InputError);
+  skipped.add(std::span(f.tables).subspan(0, 1), 0, f.sources);
+  CHECK_THROWS_AS(skipped.finish(f.tables.size()), slipscreen::InputError);  // tables 1 and 2 never added
+
+  // Sources not ordered by table cannot come in blocks (a point would add them in another order).
+  std::vector<PressureSource> unordered = {f.sources[2], f.sources[0], f.sources[1]};
+  PressureSurrogate mixed(f.points, 2, f.times.size(), 0.05, 2.0, 16);
+  CHECK_THROWS_AS(mixed.add(std::span(f.tables).subspan(0, 1), 0, unordered), slipscreen::InputError);
+  mixed.add(f.tables, 0, unordered);  // one block of every table takes them in any order
+  mixed.finish(f.tables.size());
+  CHECK(mixed.max_relative_error() < 1e-5);
+}

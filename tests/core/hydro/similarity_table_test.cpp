@@ -204,3 +204,51 @@ TEST_CASE("tables built by parts and exchanged equal the tables of one process, 
     }
   }
 }
+
+TEST_CASE("tables built by blocks of wells equal the tables built at once, shared or not") {
+  // Four fictional wells, the last starting 200 days after the others: the lag kernel spans every
+  // well's steps whichever block is built, so each block's tables are the whole build's.
+  std::vector<RateSteps> steps;
+  for (int w = 0; w < 4; ++w) {
+    RateSteps s = test_history();
+    for (auto& t : s.time) t += (w == 3 ? 200.0 : w * 30.0) * kDay;
+    steps.push_back(s);
+  }
+  std::vector<double> times;
+  for (int k = 1; k <= 50; ++k) times.push_back(k * 30.0 * kDay);
+  const SimilarityGrid grid{std::log(1e-3), std::log(1e8), 0.05};
+  const auto whole = build_tables(steps, times, grid);
+  const TableBuilder builder(steps, times, grid);
+  CHECK(builder.table_bytes() == static_cast<double>(grid.node_count() * times.size() * sizeof(float)));
+  // Budgets: one table per block (also below one table's size), two, and all of them.
+  const std::vector<std::pair<double, std::size_t>> budgets = {
+      {1.0, 1}, {2.5 * builder.table_bytes(), 2}, {1e12, 4}};
+  for (const auto& [budget, per_block] : budgets) {
+    CAPTURE(budget);
+    const auto blocks = builder.blocks(budget);
+    std::size_t next = 0;
+    for (const auto& [first, end] : blocks) {
+      CHECK(first == next);
+      CHECK(end - first <= per_block);
+      next = end;
+      const auto got = builder.build(first, end);
+      REQUIRE(got.size() == end - first);
+      for (std::size_t w = first; w < end; ++w) CHECK(got[w - first].raw_values() == whole[w].raw_values());
+    }
+    CHECK(next == steps.size());
+    CHECK(blocks.size() == (steps.size() + per_block - 1) / per_block);
+  }
+  // A block built by two processes and exchanged.
+  slipscreen::threads::Exchange exchange(2);
+  std::vector<std::vector<SimilarityTable>> got(2);
+  std::vector<std::thread> threads;
+  for (std::size_t p = 0; p < 2; ++p)
+    threads.emplace_back([&, p] {
+      slipscreen::util::WorkShare share{p, 2, [&, p](std::vector<std::uint8_t> b) { return exchange.all(p, std::move(b)); }};
+      got[p] = builder.build(1, 4, &share);
+    });
+  for (auto& t : threads) t.join();
+  for (std::size_t p = 0; p < 2; ++p)
+    for (std::size_t w = 1; w < 4; ++w) CHECK(got[p][w - 1].raw_values() == whole[w].raw_values());
+  CHECK_THROWS_AS(builder.build(3, 5), slipscreen::InputError);
+}

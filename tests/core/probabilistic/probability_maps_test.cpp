@@ -74,26 +74,60 @@ TEST_CASE("probability maps: no pixels, no maps; the oriented map is never more 
   CHECK(empty.oriented.empty());
 }
 
-TEST_CASE("probability maps: the same counts once the model's tables are released") {
+TEST_CASE("probability maps: the surrogates and the median's table nodes are the same, built by blocks of wells") {
   // The 150 km pixel lies beyond the segment's tables, so the map's surrogate needs its own wider
-  // tables; with only the 500 m pixel it is built from the model's tables before they go.
+  // tables; with only the 500 m pixel it is built from the model's tables. A block budget of one
+  // byte builds the tables well by well (three wells here), the default all at once; the
+  // reference is a surrogate built from every table at once (pressure_surrogate.hpp).
   for (bool far_pixel : {true, false}) {
     CAPTURE(far_pixel);
     Case c;
     if (!far_pixel) c.settings.map_points.pop_back();
     c.settings.attribute_median = true;
+    c.wells.push_back(WellInput{"W2", 3000.0, 500.0, 0.1, {{100 * kDay}, {0.03}}});
+    c.wells.push_back(WellInput{"W3", -2000.0, -800.0, 0.1, {{400 * kDay, 900 * kDay}, {0.02, -0.02}}});
     const InputList list = make_inputs(c.model, c.wells, 1);
     const auto r = sample_realizations(c.model, list, c.segments, 1, c.settings, stats::RealizationCount(200));
-    PressureModel m = build_pressure_model(c.wells, c.segments, c.settings, list, r);
-    const ProbabilityMaps before = probability_maps(m, r, c.settings);
-    const std::vector<float> last_nodes = m.tables[0].nodes_at(c.settings.output_index.back());
-    release_tables(m, c.settings);
-    CHECK(m.tables.empty());
-    REQUIRE(m.map_surrogate.has_value());
-    REQUIRE(m.median_nodes.size() == c.settings.output_index.size() * c.wells.size());
-    CHECK(m.median_nodes.back() == last_nodes);  // the output times' columns, kept bit for bit
-    const ProbabilityMaps after = probability_maps(m, r, c.settings);
-    CHECK(after.dangerous == before.dangerous);
-    CHECK(after.dangerous_already_critical == before.dangerous_already_critical);
+    const PressureModel whole = build_pressure_model(c.wells, c.segments, c.settings, list, r);
+    RunSettings by_well = c.settings;
+    by_well.table_block_bytes = 1.0;
+    const PressureModel blocks = build_pressure_model(c.wells, c.segments, by_well, list, r);
+    REQUIRE(blocks.map_surrogate.has_value());
+    REQUIRE(whole.map_surrogate.has_value());
+    const auto same = [](const hydro::PressureSurrogate& a, const hydro::PressureSurrogate& b) {
+      REQUIRE(a.point_count() == b.point_count());
+      for (std::size_t p = 0; p < a.point_count(); ++p)
+        for (std::size_t g = 0; g < a.group_count(); ++g) CHECK(a.table(p, g) == b.table(p, g));
+      CHECK(a.max_relative_error() == b.max_relative_error());
+    };
+    same(*blocks.surrogate, *whole.surrogate);
+    same(*blocks.map_surrogate, *whole.map_surrogate);
+    // Against every table built at once, on the map's grid (the model's, or wider for 150 km).
+    double r2m = 0.0;
+    for (const auto& p : c.settings.map_points)
+      for (const auto& s : whole.sources) r2m = std::max(r2m, (p.x - s.x) * (p.x - s.x) + (p.y - s.y) * (p.y - s.y));
+    hydro::SimilarityGrid grid = whole.grid;
+    grid.ln_x_max = std::max(grid.ln_x_max, std::log(r2m / (4.0 * whole.diffusivity_min)) + 0.1);
+    CHECK((grid.ln_x_max > whole.grid.ln_x_max) == far_pixel);
+    const auto tables = hydro::build_tables(whole.steps, c.settings.tracking_times, grid);
+    same(*blocks.map_surrogate, hydro::PressureSurrogate(tables, whole.sources, c.settings.map_points, whole.groups,
+                                                         whole.diffusivity_min, whole.diffusivity_max, whole.nodes));
+    const auto model_tables = hydro::build_tables(whole.steps, c.settings.tracking_times, whole.grid);
+    REQUIRE(blocks.median_nodes.size() == c.settings.output_index.size() * c.wells.size());
+    for (std::size_t t = 0; t < c.settings.output_index.size(); ++t)
+      for (std::size_t w = 0; w < c.wells.size(); ++w)
+        CHECK(blocks.median_nodes[t * c.wells.size() + w] == model_tables[w].nodes_at(c.settings.output_index[t]));
+    CHECK(probability_maps(blocks, r, by_well).dangerous == probability_maps(whole, r, c.settings).dangerous);
   }
+}
+
+TEST_CASE("probability maps: a model built without the map's points is refused, not mapped") {
+  Case c;
+  const InputList list = make_inputs(c.model, c.wells, 1);
+  const auto r = sample_realizations(c.model, list, c.segments, 1, c.settings, stats::RealizationCount(50));
+  RunSettings none = c.settings;
+  none.map_points.clear();
+  const PressureModel m = build_pressure_model(c.wells, c.segments, none, list, r);
+  CHECK_FALSE(m.map_surrogate.has_value());
+  CHECK_THROWS_AS(probability_maps(m, r, c.settings), InputError);
 }

@@ -44,6 +44,29 @@ bool same_bits(const std::vector<double>& a, const std::vector<double>& b) {
   return a.size() == b.size() && (a.empty() || std::memcmp(a.data(), b.data(), a.size() * sizeof(double)) == 0);
 }
 
+// Every result of `a` equals `b`'s bit for bit.
+void same_screen(const ScreenResult& x, const ScreenResult& y) {
+  CHECK(x.radius_clamped == y.radius_clamped);
+  REQUIRE(x.segments.size() == y.segments.size());
+  for (std::size_t s = 0; s < y.segments.size(); ++s) {
+    CAPTURE(s);
+    const SegmentScreen &a = x.segments[s], &b = y.segments[s];
+    CHECK(same_bits(a.dp, b.dp));
+    CHECK(a.dp_point == b.dp_point);
+    CHECK(same_bits(a.well_share, b.well_share));
+    CHECK(a.first_crossing == b.first_crossing);
+    CHECK(same_bits(a.crossing_share, b.crossing_share));
+    CHECK(a.leading_well == b.leading_well);
+    CHECK(same_bits(a.leading_share, b.leading_share));
+    CHECK(a.crossing_well == b.crossing_well);
+    CHECK(std::memcmp(&a.crossing_well_share, &b.crossing_well_share, sizeof(double)) == 0);
+    CHECK(same_bits(a.tracked_dp, b.tracked_dp));
+    CHECK(std::memcmp(&a.peak_dp, &b.peak_dp, sizeof(double)) == 0);
+    CHECK(std::memcmp(&a.peak_time, &b.peak_time, sizeof(double)) == 0);
+    CHECK(std::memcmp(&a.dp_crit, &b.dp_crit, sizeof(double)) == 0);
+  }
+}
+
 }  // namespace
 
 TEST_CASE("split_segments cuts the segments into near-equal runs that cover them once, in order") {
@@ -82,24 +105,7 @@ TEST_CASE("the deterministic screen split into parts and merged equals the whole
         CHECK(part.segments[0].tracked_dp == std::vector<double>(whole.segments[0].tracked_dp.size(), 0.0));  // not its segment
         merge_screen_part(merged, encode_screen_part(part, mine));
       }
-      CHECK(merged.radius_clamped == whole.radius_clamped);
-      for (std::size_t s = 0; s < whole.segments.size(); ++s) {
-        CAPTURE(s);
-        const SegmentScreen &a = merged.segments[s], &b = whole.segments[s];
-        CHECK(same_bits(a.dp, b.dp));
-        CHECK(a.dp_point == b.dp_point);
-        CHECK(same_bits(a.well_share, b.well_share));
-        CHECK(a.first_crossing == b.first_crossing);
-        CHECK(same_bits(a.crossing_share, b.crossing_share));
-        CHECK(a.leading_well == b.leading_well);
-        CHECK(same_bits(a.leading_share, b.leading_share));
-        CHECK(a.crossing_well == b.crossing_well);
-        CHECK(std::memcmp(&a.crossing_well_share, &b.crossing_well_share, sizeof(double)) == 0);
-        CHECK(same_bits(a.tracked_dp, b.tracked_dp));
-        CHECK(std::memcmp(&a.peak_dp, &b.peak_dp, sizeof(double)) == 0);
-        CHECK(std::memcmp(&a.peak_time, &b.peak_time, sizeof(double)) == 0);
-        CHECK(std::memcmp(&a.dp_crit, &b.dp_crit, sizeof(double)) == 0);
-      }
+      same_screen(merged, whole);
     }
   }
 }
@@ -133,4 +139,20 @@ TEST_CASE("a malformed or misfitting part of the deterministic screen is refused
   lean.wells.pop_back();
   ScreenResult one_well = deterministic_screen(lean, nullptr, nullptr, split_segments(in.segments.size(), 0, 2));
   CHECK_THROWS_AS(merge_screen_part(one_well, encode_screen_part(lean_part, mine)), InputError);
+}
+
+TEST_CASE("the deterministic screen built by blocks of wells equals the screen with every table at once") {
+  // A block budget of one byte builds the tables well by well (three wells, images included);
+  // a point adds its wells in order whatever the blocks (deterministic_screen.cpp, tabulate).
+  ScreenInputs in = split_inputs();
+  in.wells.push_back({"W2", -3000.0, 800.0, 0.1, hydro::RateHistory({in.wells[0].history.changes().front().time}, {1.5})});
+  in.boundaries.push_back({hydro::BoundaryKind::no_flow, 0.0, -30000.0, 1.0, 0.0});
+  const ScreenResult whole = deterministic_screen(in);
+  ScreenInputs by_well = in;
+  by_well.table_block_bytes = 1.0;
+  same_screen(deterministic_screen(by_well), whole);
+  // ... and so does each part of a split screen.
+  const SegmentRange mine = split_segments(in.segments.size(), 1, 2);
+  ScreenResult part = deterministic_screen(by_well, nullptr, nullptr, mine), ref = deterministic_screen(in, nullptr, nullptr, mine);
+  same_screen(part, ref);
 }
