@@ -51,8 +51,8 @@ std::vector<std::size_t> spatial_order(std::span<const ObservationPoint> points)
 }
 
 // Per-node table sums G_{p,g}(t_k, D_d) += Σ_w s_w H_w(r_pw²/(4 D_d), t_k) over the `sources` (whose
-// tables are tables[s.table − first_table]) into g[(p − first_point) · n_groups + group] for the
-// points [first_point, end_point) of `points`. Points in spatial order, built in blocks: a block's
+// tables are tables[s.table − first_table]) into g[p · n_groups + group] for the points `order`
+// (indices into `points`, in spatial order). Built in blocks of that order: a block's
 // points are close together, so for each source they read neighbouring rows of its similarity
 // table (cache reuse). Each point adds its sources in their order, whatever the other points.
 void sum_tables(std::span<const SimilarityTable> tables, std::size_t first_table, std::span<const PressureSource> sources,

@@ -81,8 +81,10 @@ void add_tables(PressureModel& m, const RunSettings& settings, const util::WorkS
     const std::vector<hydro::SimilarityTable> tables = builder.build(first, end, tables_share);
     m.surrogate->add(tables, first, m.sources);
     if (m.map_surrogate && !map_own_grid) m.map_surrogate->add(tables, first, m.sources);
-    for (std::size_t t = 0; t < settings.attribute_median * settings.output_index.size(); ++t)
-      for (std::size_t w = first; w < end; ++w) m.median_nodes[t * W + w] = tables[w - first].nodes_at(settings.output_index[t]);
+    if (settings.attribute_median)
+      for (std::size_t t = 0; t < settings.output_index.size(); ++t)
+        for (std::size_t w = first; w < end; ++w)
+          m.median_nodes[t * W + w] = tables[w - first].nodes_at(settings.output_index[t]);
   }
   m.surrogate->finish(W);
   if (!m.map_surrogate) return;

@@ -189,7 +189,7 @@ std::pair<std::size_t, double> well_fractions(const hydro::PressureResult& exact
 // maximum: those within twice the table error of the highest table value (the exact maximum is
 // among them). Fills dp, dp_point and well_share.
 void exact_output_dp(const TabulatedField& tf, std::span<const hydro::FieldPoint> pts,
-                     const std::vector<double>& series, std::size_t pa, std::size_t pb, SegmentScreen& out) {
+                     std::span<const double> series, std::size_t pa, std::size_t pb, SegmentScreen& out) {
   const std::size_t W = tf.in.wells.size();
   const std::size_t K = tf.in.output_times.size();
   const std::size_t G = tf.tracked_times.size();
@@ -224,7 +224,7 @@ void exact_output_dp(const TabulatedField& tf, std::span<const hydro::FieldPoint
 
 // Peak and first crossing of one segment on the tracked times: the maximum over its check points
 // [pa, pb) of the table values, replaced by the exact values at the output times.
-void track_peak_and_crossing(const TabulatedField& tf, const std::vector<double>& series, std::size_t pa,
+void track_peak_and_crossing(const TabulatedField& tf, std::span<const double> series, std::size_t pa,
                              std::size_t pb, SegmentScreen& out) {
   const std::size_t G = tf.tracked_times.size();
   std::vector<double> m(G, -std::numeric_limits<double>::infinity());
@@ -245,7 +245,7 @@ void track_peak_and_crossing(const TabulatedField& tf, const std::vector<double>
 // Each well's share of the exact Δp at the first crossing, at the check point holding the
 // maximum there (an output time: the exact maximum's point; otherwise the table maximum's, the
 // first on ties).
-void crossing_shares(const TabulatedField& tf, std::span<const hydro::FieldPoint> pts, const std::vector<double>& series,
+void crossing_shares(const TabulatedField& tf, std::span<const hydro::FieldPoint> pts, std::span<const double> series,
                      std::size_t pa, std::size_t pb, SegmentScreen& out) {
   if (!out.first_crossing) return;
   const std::size_t G = tf.tracked_times.size(), W = tf.in.wells.size();
@@ -272,8 +272,7 @@ void screen_block(const TabulatedField& tf, const CheckPoints& cps, std::size_t 
   const std::size_t first = cps.first[s0], n_pts = cps.first[s1] - first;
   const std::span<const hydro::FieldPoint> pts(cps.points.data() + first, n_pts);
   const std::size_t G = tf.tracked_times.size();
-  const std::vector<double> series(tf.series.begin() + static_cast<std::ptrdiff_t>((first - tf.first_point) * G),
-                                   tf.series.begin() + static_cast<std::ptrdiff_t>((first - tf.first_point + n_pts) * G));
+  const std::span<const double> series(tf.series.data() + (first - tf.first_point) * G, n_pts * G);
   util::ParallelErrors errors;
 #pragma omp parallel for schedule(dynamic, 1)
   for (std::size_t s = s0; s < s1; ++s)
