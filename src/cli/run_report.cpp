@@ -301,7 +301,7 @@ void print_depth(std::ostream& out, const scenario::ResolvedScenario& s, const s
 
 }  // namespace
 
-// --timings: every stage's wall time when the next one starts, then this process's totals, on
+// --timings: every stage's wall time and the peak memory so far when the next one starts, then this process's totals, on
 // stderr, prefixed with the rank under mpirun (every rank prints its own).
 class StageTimer {
  public:
@@ -331,7 +331,8 @@ class StageTimer {
     const auto now = Clock::now();
     if (!stage_.empty())
       ctx_.err << "slipscreen: timing: " << prefix_ << stage_ << ": "
-               << util::number_text(std::chrono::duration<double>(now - stage_start_).count(), 3) << " s\n"
+               << util::number_text(std::chrono::duration<double>(now - stage_start_).count(), 3)
+               << " s, peak memory so far " << peak_memory_bytes() << " bytes\n"
                << std::flush;
     stage_ = next;
     stage_start_ = now;

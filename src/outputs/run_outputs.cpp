@@ -136,7 +136,10 @@ void write_run_outputs(const formats::RunFolder& folder, const scenario::Resolve
   m.caution = kScreeningCaution;
   m.include_timestamp = !o.reproducible;
   m.inputs = p.manifest_inputs;
-  m.parameters = {{"scenario", scenario::to_json(s)}, {"run", run_block(s, p, r.screen)}};
+  m.parameters = {{"scenario", scenario::to_json(s, /*with_wells=*/false)}, {"run", run_block(s, p, r.screen)}};
+  // The wells one at a time: a statewide review's rate periods would take about 1 GB as JSON.
+  m.streamed.push_back({nlohmann::json::json_pointer("/scenario/wells"), s.wells.size(),
+                        [&s](std::size_t i) { return scenario::to_json(s.wells[i]); }});
   if (r.probabilistic) m.parameters["probabilistic"] = probabilistic_manifest(s, *r.probabilistic);
   if (r.depth_probability) m.parameters["depth_probability"] = depth_probability_manifest(s, *r.depth_probability);
   if (r.capacity) m.parameters["capacity"] = capacity_manifest(*r.capacity);

@@ -619,16 +619,7 @@ json faults_json(const FaultMapSpec& f, bool in_depth) {
 
 json wells_json(const std::vector<WellSpec>& all) {
   json wells = json::array();
-  for (const auto& w : all) {
-    json periods = json::array();
-    for (const auto& p : w.periods)
-      periods.push_back({{"start", util::format_iso_date(util::date_at(p.start))},
-                         {"end", util::format_iso_date(util::date_at(p.end))},
-                         {"rate_m3_per_s", p.rate}, {"assumed", p.assumed}});
-    wells.push_back({{"id", w.id}, {"x", w.x}, {"y", w.y}, {"crs", w.crs}, {"top_m", w.top}, {"bottom_m", w.bottom},
-                     {"radius_m", w.radius}, {"status", status_name(w.status)}, {"proposed", w.proposed},
-                     {"periods", periods}});
-  }
+  for (const auto& w : all) wells.push_back(to_json(w));
   return wells;
 }
 
@@ -655,7 +646,18 @@ json output_json(const OutputSpec& o, const std::string& region_crs) {
 
 }  // namespace
 
-nlohmann::json to_json(const ResolvedScenario& s) {
+nlohmann::json to_json(const WellSpec& w) {
+  json periods = json::array();
+  for (const auto& p : w.periods)
+    periods.push_back({{"start", util::format_iso_date(util::date_at(p.start))},
+                       {"end", util::format_iso_date(util::date_at(p.end))},
+                       {"rate_m3_per_s", p.rate}, {"assumed", p.assumed}});
+  return {{"id", w.id}, {"x", w.x}, {"y", w.y}, {"crs", w.crs}, {"top_m", w.top}, {"bottom_m", w.bottom},
+          {"radius_m", w.radius}, {"status", status_name(w.status)}, {"proposed", w.proposed},
+          {"periods", std::move(periods)}};
+}
+
+nlohmann::json to_json(const ResolvedScenario& s, bool with_wells) {
   const auto& r = s.region;
   nlohmann::json j = {{"scenario", s.file},
           {"title", s.title},
@@ -665,9 +667,9 @@ nlohmann::json to_json(const ResolvedScenario& s) {
                       {"pore_pressure_gradient_Pa_per_m", r.pore_pressure_gradient},
                       {"stress", stress_json(r.stress)}, {"faults", faults_json(r.faults, r.formation.poroelastic_3d)},
                       {"formation", formation_json(r.formation)}}},
-          {"wells", wells_json(s.wells)},
           {"output", output_json(s.output, s.region.crs)},
           {"uncertainty_given", s.uncertainty.given}};
+  if (with_wells) j["wells"] = wells_json(s.wells);
   if (s.allow_outside) j["wells_allow_outside"] = true;  // only when set (earlier manifests stay unchanged)
   if (s.observations)  // only when given (earlier manifests stay unchanged)
     j["observations"] = {{"pressure", s.observations->pressure_file},

@@ -91,8 +91,13 @@ struct ResolvedScenario {
 ResolvedScenario load_scenario(const std::filesystem::path& path);
 
 
-// Every resolved value, in SI with units in the key names, for the manifest.
-nlohmann::json to_json(const ResolvedScenario& s);
+// Every resolved value, in SI with units in the key names, for the manifest. Without the wells
+// ("wells": each one's to_json) when `with_wells` is false: a run's manifest writes them one at a
+// time (formats::StreamedArray).
+nlohmann::json to_json(const ResolvedScenario& s, bool with_wells = true);
+
+// One well of the manifest's "wells": its place, depths, status and rate periods.
+nlohmann::json to_json(const WellSpec& w);
 
 
 }  // namespace slipscreen::scenario

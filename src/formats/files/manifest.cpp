@@ -4,6 +4,8 @@
 #include <ctime>
 #include <fstream>
 #include <map>
+#include <string_view>
+#include <utility>
 
 #include "core/errors.hpp"
 #include "formats/files/build_info.hpp"
@@ -58,10 +60,13 @@ void add_table_shape(nlohmann::json& entry, const fs::path& path) {
   entry["rows"] = records + (open_record ? 1 : 0);
 }
 
-}  // namespace
+// The text standing in for streamed array i until it is written (a control character keeps it
+// apart from any text of the parameters; write_manifest also checks that it occurs once).
+std::string streamed_placeholder(std::size_t i) { return "\x01streamed array " + std::to_string(i) + "\x01"; }
 
-nlohmann::json manifest_json(const ManifestContent& c, std::chrono::system_clock::time_point now,
-                             const std::optional<fs::path>& outputs_root) {
+// The manifest with each streamed array's place holding its placeholder string.
+nlohmann::json manifest_skeleton(const ManifestContent& c, std::chrono::system_clock::time_point now,
+                                 const std::optional<fs::path>& outputs_root) {
   if (c.caution.empty()) throw InputError("caution", "", "the screening caution text for the manifest");
   if (!c.parameters.is_object())
     throw InputError("parameters", c.parameters.type_name(), "a JSON object of resolved parameters");
@@ -74,6 +79,14 @@ nlohmann::json manifest_json(const ManifestContent& c, std::chrono::system_clock
   j["caution"] = c.caution;
   j["command_line"] = c.command_line;
   j["parameters"] = c.parameters;
+  for (std::size_t i = 0; i < c.streamed.size(); ++i) {
+    const auto& at = c.streamed[i].at;
+    const std::string shown = at.to_string();
+    if (at.empty() || !j["parameters"].contains(at.parent_pointer()) || !j["parameters"][at.parent_pointer()].is_object())
+      throw InputError("streamed parameters", shown, "a place in an object of the parameters");
+    if (j["parameters"].contains(at)) throw InputError("streamed parameters", shown, "a place not already taken");
+    j["parameters"][at] = streamed_placeholder(i);
+  }
   if (c.seed) j["seed"] = *c.seed;
   if (c.include_timestamp) j["created_utc"] = utc_iso_time(now);
   j["inputs"] = nlohmann::json::array();
@@ -96,6 +109,19 @@ nlohmann::json manifest_json(const ManifestContent& c, std::chrono::system_clock
       if (full.extension() == ".csv") add_table_shape(e, full);
       j["outputs"].push_back(std::move(e));
     }
+  }
+  return j;
+}
+
+}  // namespace
+
+nlohmann::json manifest_json(const ManifestContent& c, std::chrono::system_clock::time_point now,
+                             const std::optional<fs::path>& outputs_root) {
+  nlohmann::json j = manifest_skeleton(c, now, outputs_root);
+  for (const auto& a : c.streamed) {
+    nlohmann::json items = nlohmann::json::array();
+    for (std::size_t k = 0; k < a.count; ++k) items.push_back(a.item(k));
+    j["parameters"][a.at] = std::move(items);
   }
   return j;
 }
@@ -139,8 +165,45 @@ void record_report_files(const fs::path& path, std::vector<std::string> files) {
 }
 
 void write_manifest(const fs::path& path, const ManifestContent& content, const std::optional<fs::path>& outputs_root) {
-  const std::string text = manifest_json(content, std::chrono::system_clock::now(), outputs_root).dump(2) + "\n";
-  write_text_file(path, text);
+  const std::string text = manifest_skeleton(content, std::chrono::system_clock::now(), outputs_root).dump(2) + "\n";
+  // Each placeholder, as dump() quotes it, by its place in the text.
+  std::vector<std::pair<std::size_t, std::size_t>> places;  // (offset, streamed array)
+  for (std::size_t i = 0; i < content.streamed.size(); ++i) {
+    const std::string quoted = nlohmann::json(streamed_placeholder(i)).dump();
+    const std::size_t at = text.find(quoted);
+    if (at == std::string::npos || text.find(quoted, at + 1) != std::string::npos)
+      throw InputError("streamed parameters", content.streamed[i].at.to_string(), "one place in the manifest's text");
+    places.emplace_back(at, i);
+  }
+  std::sort(places.begin(), places.end());
+  TextFileWriter out(path);
+  std::size_t done = 0;
+  for (const auto& [at, i] : places) {
+    out.write(std::string_view(text).substr(done, at - done));
+    const auto& a = content.streamed[i];
+    // dump(2)'s layout of a non-empty array whose key's line is indented by `indent` spaces: "[",
+    // each element on its own lines indented two more, "," between, and "]" at `indent`.
+    const std::size_t line = text.rfind('\n', at) + 1;  // npos + 1 = 0 on the first line
+    const std::size_t indent = text.find_first_not_of(' ', line) - line;
+    std::string inner(indent + 3, ' ');  // a line feed and the elements' indentation
+    inner.front() = '\n';
+    if (a.count == 0) out.write("[]");
+    for (std::size_t k = 0; k < a.count; ++k) {
+      std::string item = a.item(k).dump(2);
+      for (std::size_t n = item.find('\n'); n != std::string::npos; n = item.find('\n', n + inner.size()))
+        item.replace(n, 1, inner);
+      out.write(k == 0 ? "[" : ",");
+      out.write(inner);
+      out.write(item);
+    }
+    if (a.count > 0) {
+      out.write(std::string_view(inner).substr(0, indent + 1));
+      out.write("]");
+    }
+    done = at + nlohmann::json(streamed_placeholder(i)).dump().size();
+  }
+  out.write(std::string_view(text).substr(done));
+  out.close();
 }
 
 }  // namespace slipscreen::formats

@@ -30,6 +30,7 @@
 #include <chrono>
 #include <cstdint>
 #include <filesystem>
+#include <functional>
 #include <optional>
 #include <string>
 #include <vector>
@@ -44,9 +45,21 @@ struct ManifestInput {
   std::string shown;             // how to name it in the manifest; "" = path as given (generic form)
 };
 
+// An array of the parameters that is written element by element and never held whole as JSON: a
+// statewide review's wells with their 850,000 rate periods took about 1 GB as a JSON tree and its
+// text (docs/cluster.md). The manifest holds item(0), ..., item(count - 1) at `at` (a JSON
+// pointer into the parameters, whose parent object must exist there); the bytes are those of the
+// same manifest built whole.
+struct StreamedArray {
+  nlohmann::json::json_pointer at;
+  std::size_t count = 0;
+  std::function<nlohmann::json(std::size_t)> item;
+};
+
 struct ManifestContent {
   std::vector<std::string> command_line;
   nlohmann::json parameters = nlohmann::json::object();
+  std::vector<StreamedArray> streamed;  // arrays of the parameters written element by element
   std::optional<std::uint64_t> seed;
   std::vector<ManifestInput> inputs;
   nlohmann::json screens = nlohmann::json::object();  // screen name -> ran (true/false); {} = not recorded
@@ -57,9 +70,10 @@ struct ManifestContent {
 // "YYYY-MM-DDTHH:MM:SSZ" (UTC, whole seconds).
 std::string utc_iso_time(std::chrono::system_clock::time_point t);
 
-// The manifest as JSON. Hashes every input (IoError naming the file when one cannot be read)
-// and, when `outputs_root` is given, every regular file under it except manifest.json itself.
-// Throws InputError when the caution is empty or parameters or screens is not an object.
+// The manifest as JSON, the streamed arrays included. Hashes every input (IoError naming the
+// file when one cannot be read) and, when `outputs_root` is given, every regular file under it
+// except manifest.json itself. Throws InputError when the caution is empty, parameters or screens
+// is not an object, or a streamed array's place has no parent object or is already taken.
 nlohmann::json manifest_json(const ManifestContent& content,
                              std::chrono::system_clock::time_point now = std::chrono::system_clock::now(),
                              const std::optional<std::filesystem::path>& outputs_root = std::nullopt);
@@ -76,8 +90,9 @@ void record_report_files(const std::filesystem::path& path, std::vector<std::str
 // The files a manifest's "report" block lists (empty when none).
 std::vector<std::string> report_files(const nlohmann::json& manifest);
 
-// Writes manifest_json(...) to `path` (IoError on failure). Call it last, after every other
-// output, and pass the run folder's staging path as outputs_root to list the outputs.
+// Writes manifest_json(...).dump(2) and a line feed to `path` (IoError on failure), with the
+// streamed arrays written one element at a time. Call it last, after every other output, and
+// pass the run folder's staging path as outputs_root to list the outputs.
 void write_manifest(const std::filesystem::path& path, const ManifestContent& content,
                     const std::optional<std::filesystem::path>& outputs_root = std::nullopt);
 

@@ -150,3 +150,40 @@ TEST_CASE("manifest errors") {
   c.parameters = nlohmann::json::array();
   CHECK_THROWS_AS(formats::manifest_json(c), InputError);
 }
+
+TEST_CASE("streamed arrays: the written bytes equal the manifest built whole") {
+  test::TempDir dir("manifest-streamed");
+  auto c = sample(dir);
+  c.include_timestamp = false;
+  c.parameters["scenario"] = {{"title", "t"}, {"zz", 1}};
+  // Elements with nested objects and arrays (the wells' periods), an empty array, one at the
+  // parameters' top level, and two in one object around other keys.
+  const auto well = [](std::size_t i) {
+    return nlohmann::json{{"id", "W-" + std::to_string(i)},
+                          {"periods", nlohmann::json::array({{{"start", "2001-01-01"}, {"rate", 0.5 * i}}, {{"rate", 1}}})},
+                          {"empty", nlohmann::json::array()}};
+  };
+  c.streamed.push_back({nlohmann::json::json_pointer("/scenario/wells"), 3, well});
+  c.streamed.push_back({nlohmann::json::json_pointer("/scenario/a_first"), 1, [](std::size_t) { return 7; }});
+  c.streamed.push_back({nlohmann::json::json_pointer("/none"), 0, well});
+  c.streamed.push_back({nlohmann::json::json_pointer("/top"), 2, [](std::size_t i) { return nlohmann::json::array({i}); }});
+  formats::write_manifest(dir / "m.json", c);
+  const nlohmann::json whole = formats::manifest_json(c);
+  CHECK(read_text(dir / "m.json") == whole.dump(2) + "\n");
+  // The content is where it was asked for (a placeholder left anywhere would fail this).
+  CHECK(whole["parameters"]["scenario"]["wells"].size() == 3);
+  CHECK(whole["parameters"]["scenario"]["wells"][2]["periods"][0]["rate"] == 1.0);
+  CHECK(whole["parameters"]["scenario"]["a_first"] == nlohmann::json::array({7}));
+  CHECK(whole["parameters"]["none"] == nlohmann::json::array());
+  CHECK(whole["parameters"]["top"][1][0] == 1);
+  CHECK(read_text(dir / "m.json").find("streamed array") == std::string::npos);
+
+  // A place without a parent object, or already taken, is refused before anything is written.
+  auto orphan = c;
+  orphan.streamed = {{nlohmann::json::json_pointer("/missing/wells"), 1, well}};
+  CHECK_THROWS_WITH_AS(formats::write_manifest(dir / "o.json", orphan), doctest::Contains("/missing/wells"), InputError);
+  CHECK_FALSE(fs::exists(dir / "o.json"));
+  auto taken = c;
+  taken.streamed = {{nlohmann::json::json_pointer("/scenario/title"), 1, well}};
+  CHECK_THROWS_WITH_AS(formats::manifest_json(taken), doctest::Contains("/scenario/title"), InputError);
+}
