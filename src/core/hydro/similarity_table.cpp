@@ -224,7 +224,19 @@ SimilarityTable SimilarityTable::from_values(const SimilarityGrid& grid, std::si
 
 TableBuilder::TableBuilder(const std::vector<RateSteps>& steps, std::span<const double> tracking_times,
                            const SimilarityGrid& grid)
-    : steps_(&steps), times_(tracking_times), grid_(grid) {
+    : TableBuilder(steps, tracking_times, grid, {}) {
+  times_.assign(tracking_times.begin(), tracking_times.end());
+}
+
+TableBuilder::TableBuilder(const std::vector<RateSteps>& steps, std::span<const double> tracking_times,
+                           const SimilarityGrid& grid, std::span<const std::size_t> own)
+    : steps_(&steps), grid_(grid) {
+  for (std::size_t k = 0; k < own.size(); ++k) {
+    if (own[k] >= tracking_times.size() || (k > 0 && !(own[k] > own[k - 1])))
+      throw InputError("own tracking times", std::to_string(own[k]),
+                       "increasing indices below " + std::to_string(tracking_times.size()));
+    times_.push_back(tracking_times[own[k]]);
+  }
   bool lattice = !tracking_times.empty();
   double earliest = tracking_times.empty() ? 0.0 : tracking_times.back();
   for (double t : tracking_times) lattice = lattice && whole_quanta(t, kDay);

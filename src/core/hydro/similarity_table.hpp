@@ -135,8 +135,14 @@ class SimilarityTable {
 // lattice build when every time is a whole number of days, the direct build otherwise.
 class TableBuilder {
  public:
-  // `steps` and `tracking_times` must outlive the builder.
+  // `steps` must outlive the builder.
   TableBuilder(const std::vector<RateSteps>& steps, std::span<const double> tracking_times, const SimilarityGrid& grid);
+  // Tables at the tracking times `own` only (increasing indices into tracking_times): column k of
+  // a table is bit for bit column own[k] of the full table, as the lattice and its lag kernel are
+  // still decided from every tracking time. How processes share a screen's tables by time
+  // (screen/deterministic_screen.cpp).
+  TableBuilder(const std::vector<RateSteps>& steps, std::span<const double> tracking_times, const SimilarityGrid& grid,
+               std::span<const std::size_t> own);
 
   std::size_t well_count() const { return steps_->size(); }
   const SimilarityGrid& grid() const { return grid_; }
@@ -155,7 +161,7 @@ class TableBuilder {
  private:
   void build_range(std::size_t first, std::size_t end, std::size_t offset, std::vector<SimilarityTable>& tables) const;
   const std::vector<RateSteps>* steps_;
-  std::span<const double> times_;
+  std::vector<double> times_;  // the tracking times of the tables built
   SimilarityGrid grid_;
   std::optional<LagKernel> kernel_;  // with the lattice build
 };

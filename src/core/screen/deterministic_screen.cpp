@@ -12,6 +12,7 @@
 #include "core/hydro/pressure_field.hpp"
 #include "core/hydro/similarity_table.hpp"
 #include "core/util/parallel_errors.hpp"
+#include "core/util/word_codec.hpp"
 
 namespace slipscreen::screen {
 
@@ -96,10 +97,11 @@ struct TabulatedField {
   std::vector<std::size_t> out_index;        // tracked index of each output time
 };
 
-// The similarity tables' builder: one grid for all wells, spanning x = r²/(4D) from the smallest
-// well radius to the farthest source of any check point.
+// The similarity tables' builder at the tracked times `own`: one grid for all wells, spanning
+// x = r²/(4D) from the smallest well radius to the farthest source of any check point (of every
+// segment, so that every process of a split run builds the same grid).
 hydro::TableBuilder table_builder(const TabulatedField& tf, const std::vector<hydro::FieldPoint>& points,
-                                  std::vector<hydro::RateSteps>& steps) {
+                                  std::vector<hydro::RateSteps>& steps, std::span<const std::size_t> own) {
   const std::size_t W = tf.in.wells.size();
   double rw_min = std::numeric_limits<double>::infinity(), r2_max = 1.0;
   steps.assign(W, {});
@@ -115,26 +117,33 @@ hydro::TableBuilder table_builder(const TabulatedField& tf, const std::vector<hy
   }
   const hydro::SimilarityGrid grid{std::log(rw_min * rw_min * tf.inv4d) - 0.1, std::log(r2_max * tf.inv4d) + 0.1,
                                    kTableStep, tf.in.formation.leakage_rate};
-  return {steps, tf.tracked_times, grid};
+  return {steps, tf.tracked_times, grid, own};
 }
 
-// Adds the wells [first, first + tables.size()) to the table Δp at the points [tf.first_point,
-// tf.first_point + n_pts) (sources clamped to r_w as in hydro::PressureField::prepare) and to the
-// bound on the table error: the stated accuracy of each source's table, summed over sources. A
-// point adds its wells and their sources in order, so blocks of wells give the same sums as one.
-void add_table_block(TabulatedField& tf, const std::vector<hydro::FieldPoint>& points, std::size_t n_pts,
-                     std::size_t first, const std::vector<hydro::SimilarityTable>& tables) {
-  const std::size_t G = tf.tracked_times.size();
+// Table Δp at some points and tracked times, and the bound on the table error at those times.
+struct TableValues {
+  std::vector<double> series;  // [p · own.size() + k]
+  std::vector<double> error;   // [k]
+};
+
+// Adds the wells [first, first + tables.size()) to the table Δp at the points [pa, pb) (sources
+// clamped to r_w as in hydro::PressureField::prepare) and to the bound on the table error: the
+// stated accuracy of each source's table, summed over sources. A point adds its wells and their
+// sources in order, so blocks of wells give the same sums as one.
+void add_table_block(const TabulatedField& tf, const std::vector<hydro::FieldPoint>& points, std::size_t pa,
+                     std::size_t pb, std::size_t first, const std::vector<hydro::SimilarityTable>& tables,
+                     TableValues& v) {
+  const std::size_t G = v.error.size();
   for (std::size_t i = 0; i < tables.size(); ++i)
     for (std::size_t g = 0; g < G; ++g)
-      tf.table_error[g] += kTableAccuracy * tf.in.formation.pressure_per_rate *
-                           static_cast<double>(tf.field.sources(first + i).size()) * tables[i].scale(g);
+      v.error[g] += kTableAccuracy * tf.in.formation.pressure_per_rate *
+                    static_cast<double>(tf.field.sources(first + i).size()) * tables[i].scale(g);
   util::ParallelErrors errors;
 #pragma omp parallel for schedule(dynamic, 64)
-  for (std::size_t p = 0; p < n_pts; ++p)
+  for (std::size_t p = pa; p < pb; ++p)
     errors.iteration(p, [&] {
-      const hydro::FieldPoint& pt = points[tf.first_point + p];
-      double* row = &tf.series[p * G];
+      const hydro::FieldPoint& pt = points[p];
+      double* row = &v.series[(p - pa) * G];
       for (std::size_t i = 0; i < tables.size(); ++i) {
         const double rw2 = tf.in.wells[first + i].radius * tf.in.wells[first + i].radius;
         for (const auto& src : tf.field.sources(first + i)) {
@@ -146,27 +155,73 @@ void add_table_block(TabulatedField& tf, const std::vector<hydro::FieldPoint>& p
   errors.rethrow();
 }
 
-// The table Δp at the check points [first, end) on the tracked times, the tables built by blocks
-// of wells (ScreenInputs::table_block_bytes) and each block dropped before the next; shared only
-// where a table costs far more to build than to send: the leaky well function (docs/cluster.md,
-// measured; Theis tables are built about as fast as they are copied).
+// The table Δp at the check points [pa, pb) at the tracked times `own`, the tables built by
+// blocks of wells (ScreenInputs::table_block_bytes) and each block dropped before the next.
+TableValues table_values(const TabulatedField& tf, const CheckPoints& cps, std::size_t pa, std::size_t pb,
+                         std::span<const std::size_t> own) {
+  TableValues v{std::vector<double>((pb - pa) * own.size(), 0.0), std::vector<double>(own.size(), 0.0)};
+  if (own.empty()) return v;
+  std::vector<hydro::RateSteps> steps;
+  const hydro::TableBuilder builder = table_builder(tf, cps.points, steps, own);
+  for (const auto& [w0, w1] : builder.blocks(tf.in.table_block_bytes))
+    add_table_block(tf, cps.points, pa, pb, w0, builder.build(w0, w1), v);
+  for (double& x : v.series) x *= tf.in.formation.pressure_per_rate;
+  return v;
+}
+
+// The tracked times whose tables part `part` of `parts` builds: every parts-th from `part`
+// (interleaved, as a time's tables cost grows with the rate steps before it).
+std::vector<std::size_t> part_times(std::size_t G, std::size_t part, std::size_t parts) {
+  std::vector<std::size_t> own;
+  for (std::size_t g = part; g < G; g += parts) own.push_back(g);
+  return own;
+}
+
+// The table Δp at the check points [first, end) on the tracked times. Split across processes
+// (an active `share`) by tracked times: each part builds every well's tables at its times only,
+// for every check point, and the parts exchange the values (P · G doubles in all, far less than
+// the tables; docs/cluster.md). A value is summed over the same sources in the same order
+// whichever part computes it, so the results are those of one process.
 TabulatedField tabulate(const ScreenInputs& in, const hydro::PressureField& field, const CheckPoints& cps,
                         std::size_t first, std::size_t end, const std::vector<double>& tracked_times,
                         const util::WorkShare* share) {
   const std::size_t G = tracked_times.size();
   TabulatedField tf{in, field, tracked_times, 1.0 / (4.0 * in.formation.diffusivity), first, {}, {}, {}};
-  tf.series.assign((end - first) * G, 0.0);
-  tf.table_error.assign(G, 0.0);
-  std::vector<hydro::RateSteps> steps;
-  const hydro::TableBuilder builder = table_builder(tf, cps.points, steps);
-  for (const auto& [w0, w1] : builder.blocks(in.table_block_bytes))
-    add_table_block(tf, cps.points, end - first, w0,
-                    builder.build(w0, w1, in.formation.leakage_rate > 0.0 ? share : nullptr));
-  for (double& v : tf.series) v *= in.formation.pressure_per_rate;
   tf.out_index.resize(in.output_times.size());
   for (std::size_t k = 0; k < in.output_times.size(); ++k)
     tf.out_index[k] = static_cast<std::size_t>(
         std::lower_bound(tracked_times.begin(), tracked_times.end(), in.output_times[k]) - tracked_times.begin());
+  if (!share || !share->active()) {
+    TableValues v = table_values(tf, cps, first, end, part_times(G, 0, 1));
+    tf.series = std::move(v.series);
+    tf.table_error = std::move(v.error);
+    return tf;
+  }
+  const std::size_t P = cps.points.size();
+  std::vector<std::vector<std::uint8_t>> all;
+  {
+    const TableValues mine = table_values(tf, cps, 0, P, part_times(G, share->part, share->parts));
+    util::WordWriter out;
+    out.reserve(2 + mine.error.size() + mine.series.size());
+    out.doubles(mine.error);
+    out.doubles(mine.series);
+    all = share->all_gather(out.bytes());
+  }
+  if (all.size() != share->parts)
+    throw InputError("shared table pressures", std::to_string(all.size()) + " parts", std::to_string(share->parts));
+  tf.series.assign((end - first) * G, 0.0);
+  tf.table_error.assign(G, 0.0);
+  for (std::size_t q = 0; q < all.size(); ++q) {
+    const std::vector<std::size_t> times = part_times(G, q, share->parts);
+    util::WordReader piece(all[q], "the table pressures of another process (deterministic_screen.cpp tabulate)");
+    const std::vector<double> error = piece.doubles(), series = piece.doubles();
+    if (error.size() != times.size() || series.size() != P * times.size() || !piece.done())
+      piece.fail(std::to_string(error.size()) + " times and " + std::to_string(series.size()) + " values");
+    for (std::size_t k = 0; k < times.size(); ++k) tf.table_error[times[k]] = error[k];
+    for (std::size_t p = first; p < end; ++p)
+      for (std::size_t k = 0; k < times.size(); ++k) tf.series[(p - first) * G + times[k]] = series[p * times.size() + k];
+  }
+  all.clear();
   return tf;
 }
 
@@ -322,6 +377,8 @@ ScreenResult deterministic_screen(const ScreenInputs& in, Progress progress, voi
   // any table is built.
   const std::span<const hydro::FieldPoint> screened(cps.points.data() + cps.first[first], cps.first[end] - cps.first[first]);
   result.radius_clamped = field.check_points(screened);
+  // Split across processes, the table Δp is computed at every segment's check points (tabulate).
+  if (share && share->active()) (void)field.check_points(cps.points);
   const TabulatedField tf = tabulate(in, field, cps, cps.first[first], cps.first[end], result.tracked_times, share);
 
   // Segments in blocks, so that progress can be reported; each block is computed exactly as a

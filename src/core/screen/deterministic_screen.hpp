@@ -141,8 +141,9 @@ struct SegmentRange {
 // resolved for every segment, and the tables span every check point, so each segment in the
 // range gets exactly the values of a whole run (how a run splits across processes,
 // screen_split.hpp).
-// With an active `share` the parts build the wells' similarity tables together
-// (hydro::build_tables); every part must then call this with the same inputs.
+// With an active `share` the parts compute the table Δp together, each at its share of the tracked
+// times for every check point, and exchange the values; every part must then call this with the
+// same inputs (its own `only`).
 ScreenResult deterministic_screen(const ScreenInputs& in, Progress progress = nullptr, void* user = nullptr,
                                   SegmentRange only = {}, const util::WorkShare* share = nullptr);
 

@@ -252,3 +252,34 @@ TEST_CASE("tables built by blocks of wells equal the tables built at once, share
     for (std::size_t w = 1; w < 4; ++w) CHECK(got[p][w - 1].raw_values() == whole[w].raw_values());
   CHECK_THROWS_AS(builder.build(3, 5), slipscreen::InputError);
 }
+
+TEST_CASE("tables at a subset of the tracking times equal those columns of the whole tables") {
+  // Two fictional wells; the subsets of a process sharing a screen by time (every second or
+  // third time), for the lattice build, the direct build (a time off the day lattice) and the
+  // leaky well function.
+  std::vector<RateSteps> steps{test_history(), test_history()};
+  for (auto& t : steps[1].time) t += 45.0 * kDay;
+  for (bool lattice : {true, false})
+    for (double leakage : {0.0, 1e-8}) {
+      CAPTURE(lattice);
+      CAPTURE(leakage);
+      std::vector<double> times;
+      for (int k = 1; k <= 40; ++k) times.push_back(k * 30.0 * kDay + (lattice || k != 7 ? 0.0 : 0.5 * kDay));
+      const SimilarityGrid grid{std::log(1e-3), std::log(1e8), 0.05, leakage};
+      const auto whole = build_tables(steps, times, grid);
+      for (const std::vector<std::size_t>& own : {std::vector<std::size_t>{1, 3, 5, 39}, {0, 3, 6, 9, 12, 15, 18}}) {
+        const auto part = TableBuilder(steps, times, grid, own).build(0, steps.size());
+        for (std::size_t w = 0; w < steps.size(); ++w) {
+          REQUIRE(part[w].time_count() == own.size());
+          for (std::size_t k = 0; k < own.size(); ++k) {
+            CHECK(part[w].nodes_at(k) == whole[w].nodes_at(own[k]));
+            CHECK(part[w].scale(k) == whole[w].scale(own[k]));
+          }
+        }
+      }
+    }
+  const std::vector<double> times{30.0 * kDay, 60.0 * kDay};
+  const SimilarityGrid grid{std::log(1e-3), std::log(1e8), 0.05};
+  for (const std::vector<std::size_t>& bad : {std::vector<std::size_t>{2}, {1, 0}, {1, 1}})
+    CHECK_THROWS_AS(TableBuilder(steps, times, grid, bad), slipscreen::InputError);
+}

@@ -5,8 +5,10 @@
 #include <cmath>
 #include <cstring>
 #include <string>
+#include <thread>
 
 #include "core/errors.hpp"
+#include "support/thread_exchange.hpp"
 
 using namespace slipscreen;
 using namespace slipscreen::screen;
@@ -155,4 +157,36 @@ TEST_CASE("the deterministic screen built by blocks of wells equals the screen w
   const SegmentRange mine = split_segments(in.segments.size(), 1, 2);
   ScreenResult part = deterministic_screen(by_well, nullptr, nullptr, mine), ref = deterministic_screen(in, nullptr, nullptr, mine);
   same_screen(part, ref);
+}
+
+TEST_CASE("the deterministic screen shared by tracked times across parts equals the whole screen bit for bit") {
+  // Parts simulated by threads exchange their table Δp (deterministic_screen.cpp, tabulate): each
+  // builds the tables at every parts-th tracked time for every check point. Theis and leaky
+  // formations, with a no-flow boundary (image wells), and with one well per table block.
+  ScreenInputs base = split_inputs();
+  base.boundaries.push_back({hydro::BoundaryKind::no_flow, 0.0, -30000.0, 1.0, 0.0});
+  for (double leakage : {0.0, 1e-9})
+    for (double block : {hydro::kTableBlockBytes, 1.0}) {
+      ScreenInputs in = base;
+      in.formation.leakage_rate = leakage;
+      in.table_block_bytes = block;
+      CAPTURE(leakage);
+      CAPTURE(block);
+      const ScreenResult whole = deterministic_screen(in);
+      for (std::size_t parts : {2u, 3u}) {
+        CAPTURE(parts);
+        threads::Exchange exchange(parts);
+        std::vector<ScreenResult> got(parts);
+        std::vector<std::thread> workers;
+        for (std::size_t p = 0; p < parts; ++p)
+          workers.emplace_back([&, p] {
+            const util::WorkShare share{p, parts, [&, p](std::vector<std::uint8_t> b) { return exchange.all(p, std::move(b)); }};
+            got[p] = deterministic_screen(in, nullptr, nullptr, split_segments(in.segments.size(), p, parts), &share);
+          });
+        for (auto& w : workers) w.join();
+        for (std::size_t p = 1; p < parts; ++p)
+          merge_screen_part(got[0], encode_screen_part(got[p], split_segments(in.segments.size(), p, parts)));
+        same_screen(got[0], whole);
+      }
+    }
 }
