@@ -301,8 +301,8 @@ void print_depth(std::ostream& out, const scenario::ResolvedScenario& s, const s
 
 }  // namespace
 
-// --timings: every stage's wall time and the peak memory so far when the next one starts, then this process's totals, on
-// stderr, prefixed with the rank under mpirun (every rank prints its own).
+// --timings: every stage's wall time and the peak memory so far when the next one starts, then
+// this process's totals, on stderr, prefixed with the rank under mpirun (every rank prints its own).
 class StageTimer {
  public:
   StageTimer(Context& ctx) : ctx_(ctx), start_(Clock::now()), stage_start_(start_) {

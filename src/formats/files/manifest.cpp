@@ -5,7 +5,7 @@
 #include <fstream>
 #include <map>
 #include <string_view>
-#include <utility>
+#include <tuple>
 
 #include "core/errors.hpp"
 #include "formats/files/build_info.hpp"
@@ -166,19 +166,19 @@ void record_report_files(const fs::path& path, std::vector<std::string> files) {
 
 void write_manifest(const fs::path& path, const ManifestContent& content, const std::optional<fs::path>& outputs_root) {
   const std::string text = manifest_skeleton(content, std::chrono::system_clock::now(), outputs_root).dump(2) + "\n";
-  // Each placeholder, as dump() quotes it, by its place in the text.
-  std::vector<std::pair<std::size_t, std::size_t>> places;  // (offset, streamed array)
+  // Each placeholder, as dump() quotes it, by its place in the text: (offset, array, length).
+  std::vector<std::tuple<std::size_t, std::size_t, std::size_t>> places;
   for (std::size_t i = 0; i < content.streamed.size(); ++i) {
     const std::string quoted = nlohmann::json(streamed_placeholder(i)).dump();
     const std::size_t at = text.find(quoted);
     if (at == std::string::npos || text.find(quoted, at + 1) != std::string::npos)
       throw InputError("streamed parameters", content.streamed[i].at.to_string(), "one place in the manifest's text");
-    places.emplace_back(at, i);
+    places.emplace_back(at, i, quoted.size());
   }
   std::sort(places.begin(), places.end());
   TextFileWriter out(path);
   std::size_t done = 0;
-  for (const auto& [at, i] : places) {
+  for (const auto& [at, i, length] : places) {
     out.write(std::string_view(text).substr(done, at - done));
     const auto& a = content.streamed[i];
     // dump(2)'s layout of a non-empty array whose key's line is indented by `indent` spaces: "[",
@@ -200,7 +200,7 @@ void write_manifest(const fs::path& path, const ManifestContent& content, const 
       out.write(std::string_view(inner).substr(0, indent + 1));
       out.write("]");
     }
-    done = at + nlohmann::json(streamed_placeholder(i)).dump().size();
+    done = at + length;
   }
   out.write(std::string_view(text).substr(done));
   out.close();
