@@ -221,7 +221,6 @@ TabulatedField tabulate(const ScreenInputs& in, const hydro::PressureField& fiel
     for (std::size_t p = first; p < end; ++p)
       for (std::size_t k = 0; k < times.size(); ++k) tf.series[(p - first) * G + times[k]] = series[p * times.size() + k];
   }
-  all.clear();
   return tf;
 }
 
