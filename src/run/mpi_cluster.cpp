@@ -42,19 +42,8 @@ State& state() {
 #ifdef SLIPSCREEN_MPI
 
 enum Kind : std::int64_t { kPart = 1, kDone = 2, kFailed = 3 };
-constexpr int kTagMessage = 41, kTagCode = 42, kTagShare = 43;
+constexpr int kTagMessage = 41, kTagCode = 42, kTagShare = 43, kTagPayload = 44;
 constexpr auto kPoll = std::chrono::milliseconds(2);
-
-// A message: kind, exit code, category, message length, then the message and the payload.
-std::vector<std::uint8_t> message(Kind kind, int code, int category, const std::string& text,
-                                  const std::vector<std::uint8_t>& payload = {}) {
-  const std::int64_t head[4] = {kind, code, category, static_cast<std::int64_t>(text.size())};
-  std::vector<std::uint8_t> m(sizeof head + text.size() + payload.size());
-  std::memcpy(m.data(), head, sizeof head);
-  std::memcpy(m.data() + sizeof head, text.data(), text.size());
-  if (!payload.empty()) std::memcpy(m.data() + sizeof head + text.size(), payload.data(), payload.size());
-  return m;
-}
 
 struct Message {
   Kind kind = kDone;
@@ -67,14 +56,36 @@ void check(int rc, const char* what) {
   if (rc != MPI_SUCCESS) throw IoError(std::string("MPI: ") + what + " failed (code " + std::to_string(rc) + ")");
 }
 
-void send(const std::vector<std::uint8_t>& m) {
-  if (m.size() > static_cast<std::size_t>(INT32_MAX))
-    throw IoError("MPI: a block of " + std::to_string(m.size()) +
+// One MPI message of raw bytes (at most 2 GiB).
+void send_bytes(const std::vector<std::uint8_t>& b, int to, int tag) {
+  if (b.size() > static_cast<std::size_t>(INT32_MAX))
+    throw IoError("MPI: a block of " + std::to_string(b.size()) +
                   " bytes exceeds the 2 GiB of one message (docs/cluster.md); use more ranks");
-  check(MPI_Send(m.data(), static_cast<int>(m.size()), MPI_BYTE, 0, kTagMessage, MPI_COMM_WORLD), "MPI_Send");
+  check(MPI_Send(b.data(), static_cast<int>(b.size()), MPI_BYTE, to, tag, MPI_COMM_WORLD), "MPI_Send");
 }
 
-// Waits (polling, with sleeps) for rank `from`'s one message.
+// The message whose arrival `st` announced, received into a buffer of its size.
+std::vector<std::uint8_t> receive_bytes(const MPI_Status& st) {
+  int n = 0;
+  check(MPI_Get_count(&st, MPI_BYTE, &n), "MPI_Get_count");
+  std::vector<std::uint8_t> b(static_cast<std::size_t>(n));
+  check(MPI_Recv(b.data(), n, MPI_BYTE, st.MPI_SOURCE, st.MPI_TAG, MPI_COMM_WORLD, MPI_STATUS_IGNORE), "MPI_Recv");
+  return b;
+}
+
+// A message to the root: kind, exit code, category and text length, then the text; a part's
+// payload follows as a message of its own, so that tens of megabytes are sent where they lie
+// instead of being copied behind a header (MPI keeps the order of one sender's messages).
+void send(Kind kind, int code, int category, const std::string& text, const std::vector<std::uint8_t>* payload = nullptr) {
+  const std::int64_t head[4] = {kind, code, category, static_cast<std::int64_t>(text.size())};
+  std::vector<std::uint8_t> m(sizeof head + text.size());
+  std::memcpy(m.data(), head, sizeof head);
+  std::memcpy(m.data() + sizeof head, text.data(), text.size());
+  send_bytes(m, 0, kTagMessage);
+  if (kind == kPart) send_bytes(payload ? *payload : std::vector<std::uint8_t>{}, 0, kTagPayload);
+}
+
+// Waits (polling, with sleeps) for rank `from`'s one message, and a part's payload after it.
 Message receive(int from) {
   MPI_Status st;
   int ready = 0;
@@ -83,10 +94,7 @@ Message receive(int from) {
     if (ready) break;
     std::this_thread::sleep_for(kPoll);
   }
-  int n = 0;
-  check(MPI_Get_count(&st, MPI_BYTE, &n), "MPI_Get_count");
-  std::vector<std::uint8_t> m(static_cast<std::size_t>(n));
-  check(MPI_Recv(m.data(), n, MPI_BYTE, from, kTagMessage, MPI_COMM_WORLD, MPI_STATUS_IGNORE), "MPI_Recv");
+  const std::vector<std::uint8_t> m = receive_bytes(st);
   std::int64_t head[4];
   if (m.size() < sizeof head) throw IoError("MPI: a message of " + std::to_string(m.size()) + " bytes from rank " + std::to_string(from));
   std::memcpy(head, m.data(), sizeof head);
@@ -95,9 +103,14 @@ Message receive(int from) {
   r.code = static_cast<int>(head[1]);
   r.category = static_cast<int>(head[2]);
   const auto len = static_cast<std::size_t>(head[3]);
+  if (len != m.size() - sizeof head) throw IoError("MPI: a message of " + std::to_string(m.size()) + " bytes from rank " + std::to_string(from));
   r.text.assign(reinterpret_cast<const char*>(m.data()) + sizeof head, len);
-  r.payload.assign(m.begin() + static_cast<std::ptrdiff_t>(sizeof head + len), m.end());
-  if (r.kind != kPart) state().ended_at_root[static_cast<std::size_t>(from)] = 1;
+  if (r.kind == kPart) {
+    check(MPI_Probe(from, kTagPayload, MPI_COMM_WORLD, &st), "MPI_Probe");
+    r.payload = receive_bytes(st);
+  } else {
+    state().ended_at_root[static_cast<std::size_t>(from)] = 1;
+  }
   return r;
 }
 
@@ -113,11 +126,16 @@ Message receive(int from) {
   }
 }
 
+// A rank > 0's piece of a gather, sent to the root (the piece stays with the caller).
+void send_part(const std::vector<std::uint8_t>& mine) {
+  state().bytes_sent += mine.size();
+  send(kPart, 0, kClusterOk, "", &mine);
+}
+
 std::optional<std::vector<std::vector<std::uint8_t>>> gather(std::vector<std::uint8_t> mine) {
   State& s = state();
   if (s.rank != 0) {
-    s.bytes_sent += mine.size();
-    send(message(kPart, 0, kClusterOk, "", mine));
+    send_part(mine);
     return std::nullopt;
   }
   std::vector<std::vector<std::uint8_t>> all;
@@ -136,66 +154,43 @@ std::optional<std::vector<std::vector<std::uint8_t>>> gather(std::vector<std::ui
   return all;
 }
 
-// Every rank's piece to every rank: the root gathers them (as in gather) and sends the whole set
-// back to each rank. A rank waiting for the set also watches for the root's exit code, which the
-// root sends first when it fails, so that no rank waits for a set that never comes.
+// Every rank's piece to every rank: the root gathers them (as in gather) and sends each rank the
+// other ranks' pieces, one message each in rank order (its own comes back empty). A rank waiting
+// for them also watches for the root's exit code, which the root sends first when it fails, so
+// that no rank waits for a piece that never comes.
 std::vector<std::vector<std::uint8_t>> all_gather(std::vector<std::uint8_t> mine) {
   State& s = state();
   if (s.rank == 0) {
     auto all = *gather(std::move(mine));  // rethrows a rank's failure
-    std::size_t total = 0;
-    for (const auto& piece : all) total += sizeof(std::uint64_t) + piece.size();
-    for (int r = 1; r < s.ranks; ++r) {  // each rank gets the others' pieces (its own stays empty)
-      std::vector<std::uint8_t> set;
-      set.reserve(total);
+    const std::vector<std::uint8_t> none;
+    for (int r = 1; r < s.ranks; ++r)
       for (int q = 0; q < s.ranks; ++q) {
-        const auto& piece = all[static_cast<std::size_t>(q)];
-        const std::uint64_t n = q == r ? 0 : piece.size();
-        const auto* head = reinterpret_cast<const std::uint8_t*>(&n);
-        set.insert(set.end(), head, head + sizeof n);
-        if (q != r) set.insert(set.end(), piece.begin(), piece.end());
+        const auto& piece = q == r ? none : all[static_cast<std::size_t>(q)];
+        send_bytes(piece, r, kTagShare);
+        s.bytes_sent += piece.size();
       }
-      if (set.size() > static_cast<std::size_t>(INT32_MAX))
-        throw IoError("MPI: a shared set of " + std::to_string(set.size()) +
-                      " bytes exceeds the 2 GiB of one message (docs/cluster.md); use more ranks");
-      check(MPI_Send(set.data(), static_cast<int>(set.size()), MPI_BYTE, r, kTagShare, MPI_COMM_WORLD), "MPI_Send");
-      s.bytes_sent += set.size();
-    }
     return all;
   }
-  std::vector<std::uint8_t> mine_copy = mine;  // rank 0 sends back only the other ranks' pieces
-  gather(std::move(mine));
-  MPI_Status st;
-  for (;;) {
-    int ready = 0;
-    check(MPI_Iprobe(0, kTagShare, MPI_COMM_WORLD, &ready, &st), "MPI_Iprobe");
-    if (ready) break;
-    check(MPI_Iprobe(0, kTagCode, MPI_COMM_WORLD, &ready, MPI_STATUS_IGNORE), "MPI_Iprobe");
-    if (ready) {
-      check(MPI_Recv(&s.stop_code, 1, MPI_INT, 0, kTagCode, MPI_COMM_WORLD, MPI_STATUS_IGNORE), "MPI_Recv");
-      s.stopped = true;
-      throw Error(ErrorCategory::io, "stopped: rank 0 ended the run");
-    }
-    std::this_thread::sleep_for(kPoll);
-  }
-  int n = 0;
-  check(MPI_Get_count(&st, MPI_BYTE, &n), "MPI_Get_count");
-  std::vector<std::uint8_t> set(static_cast<std::size_t>(n));
-  check(MPI_Recv(set.data(), n, MPI_BYTE, 0, kTagShare, MPI_COMM_WORLD, MPI_STATUS_IGNORE), "MPI_Recv");
-  s.bytes_received += set.size();
+  send_part(mine);
   std::vector<std::vector<std::uint8_t>> all;
-  for (std::size_t at = 0; at < set.size();) {
-    std::uint64_t len = 0;
-    if (set.size() - at < sizeof len) throw IoError("MPI: a truncated shared set from rank 0");
-    std::memcpy(&len, set.data() + at, sizeof len);
-    at += sizeof len;
-    if (len > set.size() - at) throw IoError("MPI: a truncated shared set from rank 0");
-    all.emplace_back(set.begin() + static_cast<std::ptrdiff_t>(at), set.begin() + static_cast<std::ptrdiff_t>(at + len));
-    at += len;
+  for (int q = 0; q < s.ranks; ++q) {
+    MPI_Status st;
+    for (;;) {
+      int ready = 0;
+      check(MPI_Iprobe(0, kTagShare, MPI_COMM_WORLD, &ready, &st), "MPI_Iprobe");
+      if (ready) break;
+      check(MPI_Iprobe(0, kTagCode, MPI_COMM_WORLD, &ready, MPI_STATUS_IGNORE), "MPI_Iprobe");
+      if (ready) {
+        check(MPI_Recv(&s.stop_code, 1, MPI_INT, 0, kTagCode, MPI_COMM_WORLD, MPI_STATUS_IGNORE), "MPI_Recv");
+        s.stopped = true;
+        throw Error(ErrorCategory::io, "stopped: rank 0 ended the run");
+      }
+      std::this_thread::sleep_for(kPoll);
+    }
+    all.push_back(receive_bytes(st));
+    s.bytes_received += all.back().size();
   }
-  if (all.size() != static_cast<std::size_t>(s.ranks))
-    throw IoError("MPI: a shared set of " + std::to_string(all.size()) + " pieces from rank 0");
-  all[static_cast<std::size_t>(s.rank)] = std::move(mine_copy);
+  all[static_cast<std::size_t>(s.rank)] = std::move(mine);
   return all;
 }
 
@@ -232,7 +227,7 @@ int cluster_finish(int code, int category, const std::string& text, std::ostream
   State& s = state();
   if (!s.active) return code;
   if (s.rank != 0) {
-    if (!s.ended) send(message(code == 0 ? kDone : kFailed, code, category, text));
+    if (!s.ended) send(code == 0 ? kDone : kFailed, code, category, text);
     s.ended = true;
     if (s.stopped) return s.stop_code;  // the root's code has arrived already
     MPI_Request req;

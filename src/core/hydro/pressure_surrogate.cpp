@@ -93,7 +93,7 @@ void exchange_ranges(std::size_t n_points, std::size_t n_groups, const util::Wor
   out.word(end);
   for (std::size_t i = first * n_groups; i < end * n_groups; ++i)
     out.doubles(std::span<const double>(g[i].data(), static_cast<std::size_t>(g[i].size())));
-  const auto all = share.all_gather(out.bytes());
+  const auto all = share.all_gather(std::move(out).bytes());
   if (all.size() != share.parts)
     throw InputError("shared pressure surrogate", std::to_string(all.size()) + " parts", std::to_string(share.parts));
   for (std::size_t p = 0; p < all.size(); ++p) {

@@ -299,7 +299,7 @@ std::vector<SimilarityTable> TableBuilder::build(std::size_t first, std::size_t 
     out.word(tables[w - first].time_count());
     out.floats(tables[w - first].raw_values());
   }
-  const auto all = share->all_gather(out.bytes());
+  const auto all = share->all_gather(std::move(out).bytes());
   if (all.size() != share->parts)
     throw InputError("shared similarity tables", std::to_string(all.size()) + " parts", std::to_string(share->parts));
   for (std::size_t p = 0; p < all.size(); ++p) {

@@ -91,7 +91,7 @@ std::vector<std::uint8_t> encode_partial(const PartialResult& p) {
   w.words(p.map_oriented);
   w.word(p.map_dangerous_already_critical);
   w.word(p.map_oriented_already_critical);
-  return w.bytes();
+  return std::move(w).bytes();
 }
 
 PartialResult decode_partial(std::span<const std::uint8_t> bytes) {

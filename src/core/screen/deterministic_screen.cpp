@@ -205,7 +205,7 @@ TabulatedField tabulate(const ScreenInputs& in, const hydro::PressureField& fiel
     out.reserve(2 + mine.error.size() + mine.series.size());
     out.doubles(mine.error);
     out.doubles(mine.series);
-    all = share->all_gather(out.bytes());
+    all = share->all_gather(std::move(out).bytes());
   }
   if (all.size() != share->parts)
     throw InputError("shared table pressures", std::to_string(all.size()) + " parts", std::to_string(share->parts));

@@ -36,6 +36,13 @@ SegmentRange split_segments(std::size_t segments, std::size_t part, std::size_t 
 std::vector<std::uint8_t> encode_screen_part(const ScreenResult& result, SegmentRange range) {
   const std::size_t end = std::min(range.end, result.segments.size()), first = std::min(range.first, end);
   util::WordWriter w;
+  std::size_t words = 4;  // reserved whole: tens of megabytes for a regional review
+  for (std::size_t s = first; s < end; ++s) {
+    const SegmentScreen& g = result.segments[s];
+    words += 13 + g.dp.size() + g.dp_point.size() + g.well_share.size() + g.leading_well.size() +
+             g.leading_share.size() + g.crossing_share.size() + g.tracked_dp.size();
+  }
+  w.reserve(words);
   w.word(kMagic);
   w.word(first);
   w.word(end);
@@ -56,7 +63,7 @@ std::vector<std::uint8_t> encode_screen_part(const ScreenResult& result, Segment
     w.word(std::bit_cast<std::uint64_t>(g.peak_dp));
     w.word(std::bit_cast<std::uint64_t>(g.peak_time));
   }
-  return w.bytes();
+  return std::move(w).bytes();
 }
 
 void merge_screen_part(ScreenResult& into, std::span<const std::uint8_t> bytes) {
