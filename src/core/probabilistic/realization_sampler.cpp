@@ -8,6 +8,7 @@
 #include <optional>
 #include <span>
 #include <string>
+#include <utility>
 
 #include "core/errors.hpp"
 #include "core/geomech/a_phi.hpp"
@@ -42,9 +43,10 @@ struct SamplingJob {
   geomech::OrientationGrid orientations;
   Eigen::MatrixXd inputs;        // sampled inputs × all realizations
   Eigen::MatrixXf perturbation;  // (2 · faults) × all
-  Eigen::MatrixXf dp_crit;       // segments × all
+  Eigen::MatrixXf dp_crit;       // segments × all (rows [seg_first, seg_end) computed, NaN elsewhere)
   Eigen::MatrixXf map_dp_crit;   // 2 × all
   std::vector<geomech::CoulombPathChange> coulomb_path;  // [i · segments + s] (seismicity only)
+  std::size_t seg_first = 0, seg_end = 0;                // the segments whose Δp_crit is drawn
 };
 
 // Per-thread scratch space.
@@ -134,17 +136,17 @@ bool beyond_frictional_limit(const geomech::AndersonianStress& st, double mu) {
   return (s1 - st.pore_pressure) > lim * (s3 - st.pore_pressure);
 }
 
-// Δp_crit of every segment (perturbed orientation, its fault's friction) into column `col`; with
-// the seismicity likelihood also ΔCFF(Δp) along the same plane and stress path.
+// Δp_crit of the job's segments (perturbed orientation, its fault's friction) into column `col`;
+// with the seismicity likelihood also ΔCFF(Δp) along the same plane and stress path.
 void segment_thresholds(SamplingJob& job, Eigen::Index col, const Eigen::Matrix3d& tensor, double pore_pressure,
                         double mu_global, double kappa, Scratch& s) {
   const std::vector<double>& v = s.v;
   s.planes = {};
   s.states = {};
-  s.planes.reserve(job.segments.size());
-  s.states.reserve(job.segments.size());
+  s.planes.reserve(job.seg_end - job.seg_first);
+  s.states.reserve(job.seg_end - job.seg_first);
   const std::size_t n_seg = job.segments.size();
-  for (std::size_t k = 0; k < n_seg; ++k) {
+  for (std::size_t k = job.seg_first; k < job.seg_end; ++k) {
     const auto& seg = job.segments[k];
     const double ds = job.perturbation(static_cast<Eigen::Index>(2 * seg.fault), col);
     const double dd = job.perturbation(static_cast<Eigen::Index>(2 * seg.fault + 1), col);
@@ -158,8 +160,9 @@ void segment_thresholds(SamplingJob& job, Eigen::Index col, const Eigen::Matrix3
       job.coulomb_path[static_cast<std::size_t>(col) * n_seg + k] =
           geomech::coulomb_path_change(tensor, plane.normal(), mu_f, kappa);
   }
-  geomech::critical_pressure_paired(s.planes, s.states, s.dp);
-  for (std::size_t k = 0; k < n_seg; ++k)
+  const std::span<double> dp = std::span(s.dp).subspan(job.seg_first, job.seg_end - job.seg_first);
+  geomech::critical_pressure_paired(s.planes, s.states, dp);
+  for (std::size_t k = job.seg_first; k < job.seg_end; ++k)
     job.dp_crit(static_cast<Eigen::Index>(k), col) = static_cast<float>(s.dp[k]);
 }
 
@@ -214,18 +217,21 @@ Draw draw_realization(SamplingJob& job, std::uint64_t i, Scratch& s) {
 // The job of `n_all` realizations (every matrix has a column per realization).
 SamplingJob make_job(const UncertainModel& model, const InputList& list, const std::vector<SegmentInput>& segments,
                      std::size_t fault_count, const RunSettings& settings, const stats::Sampler& sampler,
-                     std::uint64_t n_all) {
+                     std::uint64_t n_all, std::optional<std::pair<std::size_t, std::size_t>> only = std::nullopt) {
   const auto cols = static_cast<Eigen::Index>(n_all);
   const bool maps = !settings.map_points.empty();
+  const auto rows = static_cast<Eigen::Index>(segments.size());
   return SamplingJob{model, list, segments, settings, sampler, fault_count, maps,
                      maps && settings.map_strike && settings.map_dip,
                      maps ? geomech::make_orientation_grid(5.0 * std::numbers::pi / 180.0, 5.0 * std::numbers::pi / 180.0)
                           : geomech::OrientationGrid{},
                      Eigen::MatrixXd(static_cast<Eigen::Index>(list.inputs.size()), cols),
                      Eigen::MatrixXf(static_cast<Eigen::Index>(2 * fault_count), cols),
-                     Eigen::MatrixXf(static_cast<Eigen::Index>(segments.size()), cols),
+                     only ? Eigen::MatrixXf::Constant(rows, cols, std::numeric_limits<float>::quiet_NaN())
+                          : Eigen::MatrixXf(rows, cols),
                      Eigen::MatrixXf::Constant(2, cols, std::numeric_limits<float>::infinity()),
-                     std::vector<geomech::CoulombPathChange>(settings.seismicity ? n_all * segments.size() : 0)};
+                     std::vector<geomech::CoulombPathChange>(settings.seismicity ? n_all * segments.size() : 0),
+                     only ? only->first : 0, only ? only->second : segments.size()};
 }
 
 }  // namespace
@@ -245,10 +251,16 @@ std::vector<double> realization_critical_pressures(const UncertainModel& model, 
 
 SampledRealizations sample_realizations(const UncertainModel& model, const InputList& list,
                                         const std::vector<SegmentInput>& segments, std::size_t fault_count,
-                                        const RunSettings& settings, const stats::RealizationCount& count) {
+                                        const RunSettings& settings, const stats::RealizationCount& count,
+                                        std::optional<std::pair<std::size_t, std::size_t>> only_segments) {
+  if (only_segments && (only_segments->first > only_segments->second || only_segments->second > segments.size() ||
+                        settings.seismicity))
+    throw InputError("segments sampled", std::to_string(only_segments->first) + " to " + std::to_string(only_segments->second),
+                     "a range of the " + std::to_string(segments.size()) +
+                         " segments, and every segment when the seismicity likelihood reads them all");
   const stats::Sampler sampler(list.inputs, settings.method, settings.seed, count);
   const std::uint64_t n_all = count.value();
-  SamplingJob job = make_job(model, list, segments, fault_count, settings, sampler, n_all);
+  SamplingJob job = make_job(model, list, segments, fault_count, settings, sampler, n_all, only_segments);
   std::vector<Draw> draws(n_all);
   util::ParallelErrors errors;
 #pragma omp parallel
@@ -279,10 +291,17 @@ SampledRealizations sample_realizations(const UncertainModel& model, const Input
     out.diffusivity.push_back(draws[static_cast<std::size_t>(i)].diffusivity);
     out.prefactor.push_back(draws[static_cast<std::size_t>(i)].prefactor);
   }
-  out.inputs = job.inputs(Eigen::all, out.keep);
-  out.perturbation = job.perturbation(Eigen::all, out.keep);
-  out.dp_crit = job.dp_crit(Eigen::all, out.keep);
-  out.map_dp_crit = job.map_dp_crit(Eigen::all, out.keep);
+  if (out.keep.size() == n_all) {  // every realization valid: the matrices as drawn, not copied
+    out.inputs = std::move(job.inputs);
+    out.perturbation = std::move(job.perturbation);
+    out.dp_crit = std::move(job.dp_crit);
+    out.map_dp_crit = std::move(job.map_dp_crit);
+  } else {
+    out.inputs = job.inputs(Eigen::all, out.keep);
+    out.perturbation = job.perturbation(Eigen::all, out.keep);
+    out.dp_crit = job.dp_crit(Eigen::all, out.keep);
+    out.map_dp_crit = job.map_dp_crit(Eigen::all, out.keep);
+  }
   if (!job.coulomb_path.empty()) {
     const std::size_t n_seg = segments.size();
     out.coulomb_path.reserve(out.keep.size() * n_seg);

@@ -29,7 +29,10 @@
 // Accuracy: D and P exact to rounding (hydro/theis.hpp); Δp_crit stored in single precision
 // (relative rounding 6e-8), as the slip tracker compares it in single precision.
 #include <Eigen/Dense>
+#include <cstddef>
 #include <cstdint>
+#include <optional>
+#include <utility>
 #include <vector>
 
 #include "core/geomech/coulomb.hpp"
@@ -60,10 +63,15 @@ struct SampledRealizations {
 
 // Draws every realization (OpenMP over realizations) and keeps the valid ones. The maps' Δp_crit
 // is computed when settings.map_points is not empty (row 1 also needs map_strike and map_dip).
+// With `only_segments` [first, second) only those segments' Δp_crit rows are computed (a part
+// of a split run tracks only its own segments, docs/cluster.md); the other rows hold NaN, and
+// the draws, validity and every other matrix are the whole run's. Refused with the seismicity
+// likelihood, which reads every segment.
 // Throws InputError when no realization is valid, and rethrows the first failure of any draw.
 SampledRealizations sample_realizations(const UncertainModel& model, const InputList& list,
                                         const std::vector<SegmentInput>& segments, std::size_t fault_count,
-                                        const RunSettings& settings, const stats::RealizationCount& count);
+                                        const RunSettings& settings, const stats::RealizationCount& count,
+                                        std::optional<std::pair<std::size_t, std::size_t>> only_segments = std::nullopt);
 
 // Realization i's Δp_crit on every segment in double precision, before the single-precision
 // store of sample_realizations (same draw, same kernel); empty when the realization is not

@@ -445,8 +445,16 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
     fault_count = std::max(fault_count, s.fault + 1);
   }
 
+  // A part of a split run tracks its own segments, so it draws only their thresholds and its
+  // surrogate holds only their check points (docs/cluster.md); the allowable rate and the
+  // seismicity likelihood read every segment's.
+  std::optional<SegmentRows> own;
+  if (split_run && !settings.capacity && !settings.seismicity) {
+    const ColumnRange rows = split_rows(segments.size(), split->part, split->parts);
+    own = SegmentRows{rows.begin, rows.end};
+  }
   const InputList list = make_inputs(model, wells, fault_count);
-  const SampledRealizations r = sample_realizations(model, list, segments, fault_count, settings, count);
+  const SampledRealizations r = sample_realizations(model, list, segments, fault_count, settings, count, own);
   ProbabilisticResult out;
   out.realizations = r.keep.size();
   out.rejected = r.drawn - r.keep.size();
@@ -455,13 +463,6 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
   out.input_names = sampled_input_names(model, wells, fault_count);
 
   const util::WorkShare share = split_run ? split->work_share() : util::WorkShare{};
-  // A part of a split run tracks its own segments, so its surrogate holds only their check points
-  // (docs/cluster.md); the allowable rate and the seismicity likelihood read every segment's.
-  std::optional<SegmentRows> own;
-  if (split_run && !settings.capacity && !settings.seismicity) {
-    const ColumnRange rows = split_rows(segments.size(), split->part, split->parts);
-    own = SegmentRows{rows.begin, rows.end};
-  }
   PressureModel pm = build_pressure_model(wells, segments, settings, list, r, &share, own);
   out.diffusivity_min = pm.diffusivity_min;
   out.diffusivity_max = pm.diffusivity_max;

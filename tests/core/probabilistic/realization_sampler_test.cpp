@@ -99,3 +99,33 @@ TEST_CASE("realizations: the most dangerous map orientation is never safer than 
     CHECK(std::abs(r.map_dp_crit(1, col) - r.dp_crit(0, col)) <= 1e-6f * std::abs(r.dp_crit(0, col)));
   }
 }
+
+TEST_CASE("realizations: a part's own segments get the whole run's thresholds bit for bit, the others NaN") {
+  Case c;
+  c.settings.realizations = 300;
+  c.model.friction = Distribution::uniform(0.4, 0.8);
+  c.model.porosity = Distribution::uniform(0.5, 1.5);  // some realizations rejected: the kept columns are picked
+  for (int k = 1; k < 5; ++k) {
+    SegmentInput s = c.segments.front();
+    s.strike = (15 + 20 * k) * kDeg;
+    c.segments.push_back(s);
+  }
+  const InputList list = make_inputs(c.model, c.wells, 1);
+  const stats::RealizationCount n(300);
+  const SampledRealizations whole = sample_realizations(c.model, list, c.segments, 1, c.settings, n);
+  const SampledRealizations part = sample_realizations(c.model, list, c.segments, 1, c.settings, n, std::pair{1, 3});
+  REQUIRE(part.keep == whole.keep);
+  REQUIRE(whole.keep.size() < 300);
+  CHECK(part.inputs == whole.inputs);
+  CHECK(part.perturbation == whole.perturbation);
+  CHECK(part.diffusivity == whole.diffusivity);
+  REQUIRE(part.dp_crit.rows() == 5);
+  for (Eigen::Index s = 0; s < 5; ++s)
+    for (Eigen::Index col = 0; col < part.dp_crit.cols(); ++col) {
+      if (s >= 1 && s < 3) CHECK(part.dp_crit(s, col) == whole.dp_crit(s, col));
+      else CHECK(std::isnan(part.dp_crit(s, col)));
+    }
+  CHECK_THROWS_AS(sample_realizations(c.model, list, c.segments, 1, c.settings, n, std::pair{3, 6}), InputError);
+  c.settings.seismicity.emplace();  // reads every segment's
+  CHECK_THROWS_AS(sample_realizations(c.model, list, c.segments, 1, c.settings, n, std::pair{0, 2}), InputError);
+}
