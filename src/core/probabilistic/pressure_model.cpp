@@ -66,28 +66,31 @@ hydro::SimilarityGrid map_grid(const PressureModel& m, const RunSettings& settin
 // from its own wider tables, by blocks too) and the table nodes at the output times for the
 // median's attribution; each block is dropped before the next, so a statewide review never holds
 // every table (W · n_x · G floats, 5 GB; docs/cluster.md).
-void add_tables(PressureModel& m, const RunSettings& settings, const util::WorkShare* share) {
+// With `segments_only` the tables fill the segments' surrogate alone (a later chunk of a split
+// run's segments, rebuild_segment_surrogate), each part building every table itself.
+void add_tables(PressureModel& m, const RunSettings& settings, const util::WorkShare* share, bool segments_only = false) {
   const std::size_t W = m.steps.size(), G = settings.tracking_times.size();
   const hydro::SimilarityGrid wide = map_grid(m, settings);
   const bool map_own_grid = wide.ln_x_max > m.grid.ln_x_max;
-  if (!settings.map_points.empty())
+  if (!settings.map_points.empty() && !segments_only)
     m.map_surrogate.emplace(settings.map_points, m.groups, G, m.diffusivity_min, m.diffusivity_max, m.nodes);
-  if (settings.attribute_median) m.median_nodes.assign(settings.output_index.size() * W, {});
+  const bool median = settings.attribute_median && !segments_only;
+  if (median) m.median_nodes.assign(settings.output_index.size() * W, {});
   // Tables shared only for the leaky well function (docs/cluster.md: a Theis table costs about as
   // much to send as to build).
-  const util::WorkShare* tables_share = settings.leakage_rate > 0.0 ? share : nullptr;
+  const util::WorkShare* tables_share = settings.leakage_rate > 0.0 && !segments_only ? share : nullptr;
   const hydro::TableBuilder builder(m.steps, settings.tracking_times, m.grid);
   for (const auto& [first, end] : builder.blocks(settings.table_block_bytes)) {
     const std::vector<hydro::SimilarityTable> tables = builder.build(first, end, tables_share);
     m.surrogate->add(tables, first, m.sources);
-    if (m.map_surrogate && !map_own_grid) m.map_surrogate->add(tables, first, m.sources);
-    if (settings.attribute_median)
+    if (m.map_surrogate && !map_own_grid && !segments_only) m.map_surrogate->add(tables, first, m.sources);
+    if (median)
       for (std::size_t t = 0; t < settings.output_index.size(); ++t)
         for (std::size_t w = first; w < end; ++w)
           m.median_nodes[t * W + w] = tables[w - first].nodes_at(settings.output_index[t]);
   }
   m.surrogate->finish(W);
-  if (!m.map_surrogate) return;
+  if (!m.map_surrogate || segments_only) return;
   if (map_own_grid) {
     const hydro::TableBuilder map_builder(m.steps, settings.tracking_times, wide);
     for (const auto& [first, end] : map_builder.blocks(settings.table_block_bytes))
@@ -96,7 +99,53 @@ void add_tables(PressureModel& m, const RunSettings& settings, const util::WorkS
   m.map_surrogate->finish(W);
 }
 
+// The segments' check points in segment order.
+std::vector<hydro::ObservationPoint> check_points(const std::vector<SegmentInput>& segments) {
+  std::vector<hydro::ObservationPoint> points;
+  for (const auto& s : segments) points.insert(points.end(), s.check_points.begin(), s.check_points.end());
+  return points;
+}
+
+// An empty surrogate (tables still to add) at the check points of segments `own` only, and
+// their segment_points (the other segments' emptied): those points are contiguous in the whole
+// set, and the error estimate samples the whole set's points (hydro::PointRange).
+void own_surrogate(PressureModel& m, const std::vector<SegmentInput>& segments, const RunSettings& settings, SegmentRows own) {
+  const std::vector<hydro::ObservationPoint> points = check_points(segments);
+  std::size_t first = 0, end = 0;
+  for (std::size_t s = 0; s < segments.size(); ++s) {
+    const std::size_t n = segments[s].check_points.size();
+    if (s < own.first) first += n;
+    if (s < own.second) end += n;
+  }
+  m.segment_points.assign(segments.size(), {});
+  for (std::size_t s = own.first, i = 0; s < own.second; ++s)
+    for (std::size_t k = 0; k < segments[s].check_points.size(); ++k) m.segment_points[s].push_back(i++);
+  m.surrogate.reset();
+  m.surrogate.emplace(std::span(points).subspan(first, end - first), m.groups, settings.tracking_times.size(),
+                      m.diffusivity_min, m.diffusivity_max, m.nodes, nullptr, hydro::PointRange{first, points.size()});
+}
+
 }  // namespace
+
+std::size_t surrogate_node_count(const RunSettings& settings, double d_min, double d_max) {
+  return settings.surrogate_nodes > 0
+             ? settings.surrogate_nodes
+             // Clamped as a double before the cast (fmin/fmax also take NaN to a bound), so no
+             // ratio of diffusivities can make the float-to-integer cast undefined.
+             : static_cast<std::size_t>(std::fmax(4.0, std::fmin(64.0, std::ceil(8.0 * std::log(d_max / d_min)))));
+}
+
+void rebuild_segment_surrogate(PressureModel& m, const std::vector<SegmentInput>& segments, const RunSettings& settings,
+                               SegmentRows own) {
+  if (own.first > own.second || own.second > segments.size())
+    throw InputError("own segments", std::to_string(own.first) + " to " + std::to_string(own.second),
+                     "a range of the " + std::to_string(segments.size()) + " segments");
+  if (!m.surrogate || m.segment_points.size() != segments.size())
+    throw InputError("pressure model", "not built for these segments", "a model from build_pressure_model");
+  m.surrogate.reset();  // freed before the next one is built
+  own_surrogate(m, segments, settings, own);
+  add_tables(m, settings, nullptr, true);
+}
 
 PressureModel build_pressure_model(const std::vector<WellInput>& wells, const std::vector<SegmentInput>& segments,
                                    const RunSettings& settings, const InputList& list, const SampledRealizations& r,
@@ -120,25 +169,9 @@ PressureModel build_pressure_model(const std::vector<WellInput>& wells, const st
     }
   m.grid = {std::log(rw_min * rw_min / (4.0 * m.diffusivity_max)) - 0.1,
             std::log(std::max(r2_max, 1.0) / (4.0 * m.diffusivity_min)) + 0.1, 0.025, settings.leakage_rate};
-  m.nodes = settings.surrogate_nodes > 0
-                ? settings.surrogate_nodes
-                // Clamped as a double before the cast (fmin/fmax also take NaN to a bound), so no
-                // ratio of diffusivities can make the float-to-integer cast undefined.
-                : static_cast<std::size_t>(
-                      std::fmax(4.0, std::fmin(64.0, std::ceil(8.0 * std::log(m.diffusivity_max / m.diffusivity_min)))));
-  const std::size_t G = settings.tracking_times.size();
-  if (own) {  // this part's segments only: their points are contiguous in `points`
-    const std::size_t first = own->first < own->second ? m.segment_points[own->first].front() : 0;
-    const std::size_t end = own->first < own->second ? m.segment_points[own->second - 1].back() + 1 : 0;
-    for (std::size_t s = 0; s < segments.size(); ++s)
-      if (s < own->first || s >= own->second) m.segment_points[s].clear();
-      else
-        for (auto& i : m.segment_points[s]) i -= first;
-    m.surrogate.emplace(std::span(points).subspan(first, end - first), m.groups, G, m.diffusivity_min, m.diffusivity_max,
-                        m.nodes, nullptr, hydro::PointRange{first, points.size()});
-  } else {
-    m.surrogate.emplace(points, m.groups, G, m.diffusivity_min, m.diffusivity_max, m.nodes, share);
-  }
+  m.nodes = surrogate_node_count(settings, m.diffusivity_min, m.diffusivity_max);
+  if (own) own_surrogate(m, segments, settings, *own);
+  else m.surrogate.emplace(points, m.groups, settings.tracking_times.size(), m.diffusivity_min, m.diffusivity_max, m.nodes, share);
   add_tables(m, settings, share);
   m.factor = rate_factors(m, list, r.inputs);
   m.draws = make_pressure_draws(*m.surrogate, r.diffusivity, r.prefactor, m.factor);

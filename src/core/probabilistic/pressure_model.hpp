@@ -62,6 +62,19 @@ PressureModel build_pressure_model(const std::vector<WellInput>& wells, const st
                                    const RunSettings& settings, const InputList& list, const SampledRealizations& r,
                                    const util::WorkShare* share = nullptr, std::optional<SegmentRows> own = std::nullopt);
 
+// The surrogate's Chebyshev nodes in ln D for diffusivities in [d_min, d_max]: the setting when
+// given, else 8 per e-fold of D_max/D_min, from 4 to 64.
+std::size_t surrogate_node_count(const RunSettings& settings, double d_min, double d_max);
+
+// Replaces the segments' surrogate of a model built with `own` by one at the check points of
+// segments `own` (a later chunk of a split run's segments, docs/cluster.md): the old one is freed
+// first, the tables are built again by blocks (each part building them itself) and fill this
+// surrogate alone; the map's surrogate, the median's table nodes and the draws stay as they are
+// (the draws depend on the nodes in ln D only, the same for every chunk). Every point's G is bit
+// for bit that of the whole model.
+void rebuild_segment_surrogate(PressureModel& m, const std::vector<SegmentInput>& segments, const RunSettings& settings,
+                               SegmentRows own);
+
 // Σ over the model's groups of its table rows [first_row, first_row + rows) times basis · scale_g,
 // for the realizations `cols`, at every check point of `points`, stacked into `out`: row i·rows + k
 // is point i at tracking index first_row + k (points.size()·rows × cols.size()). One product per

@@ -146,6 +146,10 @@ struct RunSettings {
   // Bytes of similarity tables held at a time while the surrogates are built (blocks of wells,
   // hydro::TableBuilder::blocks); the result does not depend on it.
   double table_block_bytes = hydro::kTableBlockBytes;
+  // Bytes of the segments' surrogate a part of a split run holds at a time: beyond it, its
+  // segments are tracked in chunks, the tables built again for each (docs/cluster.md, memory per
+  // rank); the result does not depend on it. Not with what-if variants (one chunk then).
+  double surrogate_chunk_bytes = 1024.0 * 1024.0 * 1024.0;
   // Probability maps for unmapped faults: pixel centres (working CRS). For each pixel, the
   // probability that a fault of the most dangerous orientation (minimum Δp_crit over a 5° grid
   // of strikes and dips, global friction) — and optionally of a given orientation — has slipped.

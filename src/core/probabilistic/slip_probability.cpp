@@ -321,40 +321,90 @@ void track_segments(const Tracking& tr, ProbabilisticResult& out) {
   });
 }
 
+// Chunks of the segments `own`, in order, whose surrogate holds at most `budget` bytes each at
+// `point_bytes` per check point (at least one segment per chunk; one empty chunk when `own` is).
+std::vector<SegmentRows> surrogate_chunks(SegmentRows own, const std::vector<SegmentInput>& segments, double point_bytes,
+                                          double budget) {
+  std::vector<SegmentRows> out;
+  std::size_t first = own.first;
+  double bytes = 0.0;
+  for (std::size_t s = own.first; s < own.second; ++s) {
+    const double b = point_bytes * static_cast<double>(segments[s].check_points.size());
+    if (s > first && bytes + b > budget) {
+      out.emplace_back(first, s);
+      first = s;
+      bytes = 0.0;
+    }
+    bytes += b;
+  }
+  out.emplace_back(first, own.second);
+  return out;
+}
+
 // This part's range of segments tracked over every realization (as the unsplit run tracks them),
-// and its block of valid realizations of the probability maps.
-PartialResult track_part(const Tracking& tr, std::size_t part, std::size_t parts) {
+// and its block of valid realizations of the probability maps. With several `chunks` of its
+// segments (surrogate_chunks; the model in `model`, whose surrogate holds the first chunk's
+// points), the maps come first and their surrogate is then freed, and each later chunk's
+// surrogate replaces the one before (rebuild_segment_surrogate).
+PartialResult track_part(const Tracking& tr, std::size_t part, std::size_t parts, const std::vector<SegmentRows>& chunks,
+                         PressureModel* model) {
   const ColumnRange mine = split_rows(tr.segments.size(), part, parts);
+  if (chunks.empty() || chunks.front().first != mine.begin || chunks.back().second != mine.end ||
+      (chunks.size() > 1 && model != &tr.pm))
+    throw InputError("chunks of segments", std::to_string(chunks.size()),
+                     "runs covering segments " + std::to_string(mine.begin) + " to " + std::to_string(mine.end) +
+                         ", and the tracked model to rebuild when there are several");
   PartialResult p;
   p.first_segment = mine.begin;
   p.segments.resize(mine.size());
   p.finished.resize(mine.size());
-  track_slip(
-      *tr.pm.surrogate, tr.pm.segment_points, tr.pm.draws, tr.r.dp_crit, tr.settings.output_index,
-      [&](const SegmentOutcome& o) {
-        p.segments[o.segment - mine.begin] = tracked_segment(tr, o, p.finished[o.segment - mine.begin]);
-      },
-      SegmentRows{mine.begin, mine.end});
-  p.surrogate_error = tr.pm.surrogate->max_relative_error();
   p.columns = split_columns(tr.r.keep.size(), part, parts);
   ProbabilityMaps maps = probability_maps(tr.pm, tr.r, tr.settings, p.columns);
   p.map_dangerous = std::move(maps.dangerous);
   p.map_oriented = std::move(maps.oriented);
   p.map_dangerous_already_critical = maps.dangerous_already_critical;
   p.map_oriented_already_critical = maps.oriented_already_critical;
+  if (chunks.size() > 1) model->map_surrogate.reset();
+  for (std::size_t k = 0; k < chunks.size(); ++k) {
+    if (k > 0) rebuild_segment_surrogate(*model, tr.segments, tr.settings, chunks[k]);
+    track_slip(
+        *tr.pm.surrogate, tr.pm.segment_points, tr.pm.draws, tr.r.dp_crit, tr.settings.output_index,
+        [&](const SegmentOutcome& o) {
+          p.segments[o.segment - mine.begin] = tracked_segment(tr, o, p.finished[o.segment - mine.begin]);
+        },
+        chunks[k]);
+    p.surrogate_error = std::max(p.surrogate_error, tr.pm.surrogate->max_relative_error());
+  }
   return p;
 }
 
 // Tracks this part's segments and map block and hands them to split.gather; on part 0, merges
 // every part and fills out's segments and maps as the unsplit run does (returns true), elsewhere
-// returns false.
-bool merge_split(const Tracking& tr, const RealizationSplit& split, ProbabilisticResult& out) {
-  auto all = split.gather(encode_partial(track_part(tr, split.part, split.parts)));
+// returns false. `chunks` and `model` as in track_part. The memory at the merge (docs/cluster.md):
+// with `release` the model is emptied once this part has tracked (the merge does not need it);
+// part 0 keeps its own result as
+// it is, gathers an empty piece for itself, and decodes the other parts' blocks one at a time,
+// freeing each once decoded; the other parts free their result once encoded.
+bool merge_split(const Tracking& tr, const RealizationSplit& split, ProbabilisticResult& out,
+                 const std::vector<SegmentRows>& chunks, PressureModel* model, bool release) {
+  PartialResult mine = track_part(tr, split.part, split.parts, chunks, model);
+  if (release && model) *model = PressureModel{};
+  std::vector<std::uint8_t> encoded;
+  if (split.part != 0) {
+    encoded = encode_partial(mine);
+    mine = PartialResult{};
+  }
+  auto all = split.gather(std::move(encoded));
   if (!all) return false;
-  if (all->size() != split.parts)
-    throw InputError("partial results", std::to_string(all->size()), std::to_string(split.parts) + ", one per part");
+  if (split.part != 0 || all->size() != split.parts)
+    throw InputError("partial results", std::to_string(all->size()) + " on part " + std::to_string(split.part),
+                     std::to_string(split.parts) + ", one per part, on part 0 only");
   std::vector<PartialResult> parts;
-  for (const auto& b : *all) parts.push_back(decode_partial(b));
+  parts.push_back(std::move(mine));
+  for (std::size_t q = 1; q < all->size(); ++q) {
+    parts.push_back(decode_partial((*all)[q]));
+    std::vector<std::uint8_t>().swap((*all)[q]);
+  }
   PartialResult m = merge_partials(std::move(parts));
   if (m.columns.end != tr.r.keep.size())
     throw InputError("merged columns", std::to_string(m.columns.end), std::to_string(tr.r.keep.size()) + " valid realizations");
@@ -463,7 +513,21 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
   out.input_names = sampled_input_names(model, wells, fault_count);
 
   const util::WorkShare share = split_run ? split->work_share() : util::WorkShare{};
-  PressureModel pm = build_pressure_model(wells, segments, settings, list, r, &share, own);
+  // A part tracks its segments in chunks when their surrogate would hold more than
+  // surrogate_chunk_bytes (not with what-if variants, whose models cover every own segment).
+  std::vector<SegmentRows> chunks;
+  if (own) {
+    const double d_min = *std::min_element(r.diffusivity.begin(), r.diffusivity.end());
+    const double d_max = *std::max_element(r.diffusivity.begin(), r.diffusivity.end());
+    const auto groups = 1 + std::count_if(list.well_rate.begin(), list.well_rate.end(),
+                                          [](std::size_t i) { return i != InputList::npos; });
+    const double point_bytes = 8.0 * static_cast<double>(groups) *
+                               static_cast<double>(surrogate_node_count(settings, d_min, d_max)) *
+                               static_cast<double>(settings.tracking_times.size() + 1);
+    chunks = settings.what_if.empty() ? surrogate_chunks(*own, segments, point_bytes, settings.surrogate_chunk_bytes)
+                                      : std::vector<SegmentRows>{*own};
+  }
+  PressureModel pm = build_pressure_model(wells, segments, settings, list, r, &share, own ? std::optional(chunks.front()) : own);
   out.diffusivity_min = pm.diffusivity_min;
   out.diffusivity_max = pm.diffusivity_max;
   out.surrogate_error = pm.surrogate->max_relative_error();
@@ -489,7 +553,12 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
     tr.variants.push_back(
         prepare_variant(pm, group_part_model(v, segments, settings, list, r, &share, own), v.factor, r.keep.size()));
   if (split_run) {
-    if (!merge_split(tr, *split, out))
+    // The allowable rate reads the model after the merge; nothing else does.
+    if (!own) {  // the whole surrogate: this part's segments in one chunk
+      const ColumnRange rows = split_rows(segments.size(), split->part, split->parts);
+      chunks = {SegmentRows{rows.begin, rows.end}};
+    }
+    if (!merge_split(tr, *split, out, chunks, &pm, !settings.capacity))
       out.merged_elsewhere = true;
     else
       decision_answers();

@@ -237,6 +237,23 @@ TEST_CASE("run_probabilistic split into 2 and 3 parts gives the unsplit result b
   }
 }
 
+TEST_CASE("a split run tracking its segments in chunks of the surrogate gives the unsplit result bit for bit") {
+  SplitCase c;
+  c.settings.what_if.clear();
+  const ProbabilisticResult whole = run_probabilistic(c.model, c.wells, c.segments, c.settings);
+  REQUIRE(c.segments.size() == 3);
+  c.settings.surrogate_chunk_bytes = 1.0;  // one segment per chunk: part 0 of 2 holds one, part 1 two
+  for (std::size_t parts : {2u, 3u}) {
+    CAPTURE(parts);
+    check_identical(whole, run_split(c, parts));
+    check_identical(whole, run_split(c, parts, false));
+  }
+  // With a what-if variant a part keeps its segments in one chunk, whatever the budget.
+  SplitCase v;
+  v.settings.surrogate_chunk_bytes = 1.0;
+  check_identical(run_probabilistic(v.model, v.wells, v.segments, v.settings), run_split(v, 2));
+}
+
 TEST_CASE("a run conditioned on pressure observations split into 2 and 3 parts gives the unsplit result bit for bit") {
   SplitCase c;
   // Two fictional observations at 2.5 km from the well (after 2 and 5 years, 30-day years).
