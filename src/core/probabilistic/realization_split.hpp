@@ -115,9 +115,11 @@ PartialResult decode_partial(std::span<const std::uint8_t> bytes);
 // the largest surrogate error.
 PartialResult merge_partials(std::vector<PartialResult> parts);
 
-// How run_probabilistic splits: this process's part and the exchange. `gather` is called once
-// on every part with its encoded PartialResult (the run layer calls it before that for the
-// deterministic screen's segments, screen/screen_split.hpp); on part 0 it returns every part's bytes in part
+// How run_probabilistic splits: this process's part and the exchange. `gather` is called by
+// every part the same number of times, each with an encoded PartialResult holding the next
+// round of its finished segments (slip_probability.cpp merge_split; part 0's own pieces are
+// empty, as it keeps its result); the run layer calls it before that for the deterministic
+// screen's segments (screen/screen_split.hpp). On part 0 it returns every part's bytes in part
 // order, elsewhere nothing (and run_probabilistic then returns only the run-level fields, with
 // ProbabilisticResult::merged_elsewhere set).
 struct RealizationSplit {

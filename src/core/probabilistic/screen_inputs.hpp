@@ -150,6 +150,10 @@ struct RunSettings {
   // segments are tracked in chunks, the tables built again for each (docs/cluster.md, memory per
   // rank); the result does not depend on it. Not with what-if variants (one chunk then).
   double surrogate_chunk_bytes = 1024.0 * 1024.0 * 1024.0;
+  // Segments a part of a split run sends to part 0 per round of the merge, so that neither side
+  // holds more than a round's encoded block beside the results (a statewide part's segments
+  // encode to about 1 GB, docs/cluster.md); the result does not depend on it.
+  std::size_t merge_segments = 1024;
   // Probability maps for unmapped faults: pixel centres (working CRS). For each pixel, the
   // probability that a fault of the most dangerous orientation (minimum Δp_crit over a 5° grid
   // of strikes and dips, global friction) — and optionally of a given orientation — has slipped.

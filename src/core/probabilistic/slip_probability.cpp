@@ -378,33 +378,74 @@ PartialResult track_part(const Tracking& tr, std::size_t part, std::size_t parts
   return p;
 }
 
+// Segments [first, end) of `p` (relative to p.first_segment), moved out into a part of their own;
+// with `whole` also p's map counts, columns and error estimate.
+PartialResult take_segments(PartialResult& p, std::size_t first, std::size_t end, bool whole) {
+  PartialResult out;
+  out.first_segment = p.first_segment + first;
+  for (std::size_t i = first; i < end; ++i) {
+    out.segments.push_back(std::move(p.segments[i]));
+    out.finished.push_back(std::move(p.finished[i]));
+  }
+  if (whole) {
+    out.surrogate_error = p.surrogate_error;
+    out.columns = p.columns;
+    out.map_dangerous = std::move(p.map_dangerous);
+    out.map_oriented = std::move(p.map_oriented);
+    out.map_dangerous_already_critical = p.map_dangerous_already_critical;
+    out.map_oriented_already_critical = p.map_oriented_already_critical;
+  }
+  return out;
+}
+
 // Tracks this part's segments and map block and hands them to split.gather; on part 0, merges
 // every part and fills out's segments and maps as the unsplit run does (returns true), elsewhere
 // returns false. `chunks` and `model` as in track_part. The memory at the merge (docs/cluster.md):
 // with `release` the model is emptied once this part has tracked (the merge does not need it);
-// part 0 keeps its own result as
-// it is, gathers an empty piece for itself, and decodes the other parts' blocks one at a time,
-// freeing each once decoded; the other parts free their result once encoded.
+// the segments go to part 0 in rounds of RunSettings::merge_segments (every part runs the same number of
+// rounds, from the largest part's segment count), each part's first round carrying its map
+// counts; a part frees each round's segments once encoded, and part 0 keeps its own as they are
+// (it gathers empty pieces) and frees each received block once decoded.
 bool merge_split(const Tracking& tr, const RealizationSplit& split, ProbabilisticResult& out,
                  const std::vector<SegmentRows>& chunks, PressureModel* model, bool release) {
   PartialResult mine = track_part(tr, split.part, split.parts, chunks, model);
   if (release && model) *model = PressureModel{};
-  std::vector<std::uint8_t> encoded;
-  if (split.part != 0) {
-    encoded = encode_partial(mine);
-    mine = PartialResult{};
+  std::size_t most = 0;
+  for (std::size_t q = 0; q < split.parts; ++q) most = std::max(most, split_rows(tr.segments.size(), q, split.parts).size());
+  const std::size_t batch = std::max<std::size_t>(1, tr.settings.merge_segments);
+  const std::size_t rounds = std::max<std::size_t>(1, (most + batch - 1) / batch);
+  std::vector<PartialResult> parts(split.parts);
+  for (std::size_t k = 0; k < rounds; ++k) {
+    std::vector<std::uint8_t> encoded;
+    if (split.part != 0) {
+      const std::size_t first = std::min(mine.segments.size(), k * batch);
+      const std::size_t end = std::min(mine.segments.size(), first + batch);
+      encoded = encode_partial(take_segments(mine, first, end, k == 0));
+    }
+    auto all = split.gather(std::move(encoded));
+    if (!all) continue;
+    if (split.part != 0 || all->size() != split.parts)
+      throw InputError("partial results", std::to_string(all->size()) + " on part " + std::to_string(split.part),
+                       std::to_string(split.parts) + ", one per part, on part 0 only");
+    for (std::size_t q = 1; q < all->size(); ++q) {
+      PartialResult piece = decode_partial((*all)[q]);
+      std::vector<std::uint8_t>().swap((*all)[q]);
+      PartialResult& p = parts[q];
+      if (k == 0) {
+        p = std::move(piece);
+        continue;
+      }
+      if (piece.first_segment != p.first_segment + p.segments.size() || piece.finished.size() != piece.segments.size())
+        throw InputError("part " + std::to_string(q) + "'s segments in round " + std::to_string(k),
+                         std::to_string(piece.segments.size()) + " from " + std::to_string(piece.first_segment),
+                         "the segments that follow its earlier rounds, from " +
+                             std::to_string(p.first_segment + p.segments.size()));
+      for (auto& g : piece.segments) p.segments.push_back(std::move(g));
+      for (auto& f : piece.finished) p.finished.push_back(std::move(f));
+    }
   }
-  auto all = split.gather(std::move(encoded));
-  if (!all) return false;
-  if (split.part != 0 || all->size() != split.parts)
-    throw InputError("partial results", std::to_string(all->size()) + " on part " + std::to_string(split.part),
-                     std::to_string(split.parts) + ", one per part, on part 0 only");
-  std::vector<PartialResult> parts;
-  parts.push_back(std::move(mine));
-  for (std::size_t q = 1; q < all->size(); ++q) {
-    parts.push_back(decode_partial((*all)[q]));
-    std::vector<std::uint8_t>().swap((*all)[q]);
-  }
+  if (split.part != 0) return false;
+  parts[0] = std::move(mine);
   PartialResult m = merge_partials(std::move(parts));
   if (m.columns.end != tr.r.keep.size())
     throw InputError("merged columns", std::to_string(m.columns.end), std::to_string(tr.r.keep.size()) + " valid realizations");

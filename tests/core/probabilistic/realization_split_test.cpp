@@ -237,7 +237,7 @@ TEST_CASE("run_probabilistic split into 2 and 3 parts gives the unsplit result b
   }
 }
 
-TEST_CASE("a split run tracking its segments in chunks of the surrogate gives the unsplit result bit for bit") {
+TEST_CASE("a split run tracking its segments in chunks of the surrogate, merged in rounds, gives the unsplit result bit for bit") {
   SplitCase c;
   c.settings.what_if.clear();
   const ProbabilisticResult whole = run_probabilistic(c.model, c.wells, c.segments, c.settings);
@@ -248,6 +248,8 @@ TEST_CASE("a split run tracking its segments in chunks of the surrogate gives th
     check_identical(whole, run_split(c, parts));
     check_identical(whole, run_split(c, parts, false));
   }
+  c.settings.merge_segments = 1;  // the merge in rounds of one segment: part 1 of 2 sends two rounds
+  check_identical(whole, run_split(c, 2));
   // With a what-if variant a part keeps its segments in one chunk, whatever the budget.
   SplitCase v;
   v.settings.surrogate_chunk_bytes = 1.0;
