@@ -31,6 +31,8 @@ double add_sources(const std::vector<WellInput>& wells, const RunSettings& setti
       m.sources.push_back({im.x, im.y, wells[w].radius, w, im.sign, m.group_of[w]});
   }
   m.first_source[wells.size()] = m.sources.size();
+  if (m.groups != rate_group_count(list))
+    throw InputError("rate groups", std::to_string(m.groups), std::to_string(rate_group_count(list)) + ", one per well rate factor and one for the rest");
   return rw_min;
 }
 
@@ -126,6 +128,11 @@ void own_surrogate(PressureModel& m, const std::vector<SegmentInput>& segments, 
 }
 
 }  // namespace
+
+std::size_t rate_group_count(const InputList& list) {
+  return 1 + static_cast<std::size_t>(std::count_if(list.well_rate.begin(), list.well_rate.end(),
+                                                    [](std::size_t i) { return i != InputList::npos; }));
+}
 
 std::size_t surrogate_node_count(const RunSettings& settings, double d_min, double d_max) {
   return settings.surrogate_nodes > 0

@@ -62,6 +62,10 @@ PressureModel build_pressure_model(const std::vector<WellInput>& wells, const st
                                    const RunSettings& settings, const InputList& list, const SampledRealizations& r,
                                    const util::WorkShare* share = nullptr, std::optional<SegmentRows> own = std::nullopt);
 
+// The rate groups of a model of `list`'s wells: one for the wells without a rate factor of their
+// own, one for each well with one.
+std::size_t rate_group_count(const InputList& list);
+
 // The surrogate's Chebyshev nodes in ln D for diffusivities in [d_min, d_max]: the setting when
 // given, else 8 per e-fold of D_max/D_min, from 4 to 64.
 std::size_t surrogate_node_count(const RunSettings& settings, double d_min, double d_max);

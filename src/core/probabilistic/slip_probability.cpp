@@ -560,9 +560,7 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
   if (own) {
     const double d_min = *std::min_element(r.diffusivity.begin(), r.diffusivity.end());
     const double d_max = *std::max_element(r.diffusivity.begin(), r.diffusivity.end());
-    const auto groups = 1 + std::count_if(list.well_rate.begin(), list.well_rate.end(),
-                                          [](std::size_t i) { return i != InputList::npos; });
-    const double point_bytes = 8.0 * static_cast<double>(groups) *
+    const double point_bytes = 8.0 * static_cast<double>(rate_group_count(list)) *
                                static_cast<double>(surrogate_node_count(settings, d_min, d_max)) *
                                static_cast<double>(settings.tracking_times.size() + 1);
     chunks = settings.what_if.empty() ? surrogate_chunks(*own, segments, point_bytes, settings.surrogate_chunk_bytes)
@@ -594,11 +592,11 @@ ProbabilisticResult run_probabilistic(const UncertainModel& model, const std::ve
     tr.variants.push_back(
         prepare_variant(pm, group_part_model(v, segments, settings, list, r, &share, own), v.factor, r.keep.size()));
   if (split_run) {
-    // The allowable rate reads the model after the merge; nothing else does.
     if (!own) {  // the whole surrogate: this part's segments in one chunk
       const ColumnRange rows = split_rows(segments.size(), split->part, split->parts);
       chunks = {SegmentRows{rows.begin, rows.end}};
     }
+    // The allowable rate reads the model after the merge; nothing else does.
     if (!merge_split(tr, *split, out, chunks, &pm, !settings.capacity))
       out.merged_elsewhere = true;
     else
