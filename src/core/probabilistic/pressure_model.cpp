@@ -17,11 +17,13 @@ namespace {
 // Rate groups, sources (wells and images) and the smallest well radius.
 double add_sources(const std::vector<WellInput>& wells, const RunSettings& settings, const InputList& list,
                    PressureModel& m) {
+  if (list.well_rate.size() != wells.size())
+    throw InputError("well rate factors", std::to_string(list.well_rate.size()), std::to_string(wells.size()) + ", one per well");
   for (const auto& w : wells) m.steps.push_back(w.steps);
   m.group_of.assign(wells.size(), 0);
-  m.groups = 1;
-  for (std::size_t w = 0; w < wells.size(); ++w)
-    if (list.well_rate[w] != InputList::npos) m.group_of[w] = m.groups++;
+  m.groups = rate_group_count(list);
+  for (std::size_t w = 0, g = 1; w < wells.size(); ++w)
+    if (list.well_rate[w] != InputList::npos) m.group_of[w] = g++;
   m.first_source.assign(wells.size() + 1, 0);
   double rw_min = std::numeric_limits<double>::infinity();
   for (std::size_t w = 0; w < wells.size(); ++w) {
@@ -31,8 +33,6 @@ double add_sources(const std::vector<WellInput>& wells, const RunSettings& setti
       m.sources.push_back({im.x, im.y, wells[w].radius, w, im.sign, m.group_of[w]});
   }
   m.first_source[wells.size()] = m.sources.size();
-  if (m.groups != rate_group_count(list))
-    throw InputError("rate groups", std::to_string(m.groups), std::to_string(rate_group_count(list)) + ", one per well rate factor and one for the rest");
   return rw_min;
 }
 
@@ -101,30 +101,25 @@ void add_tables(PressureModel& m, const RunSettings& settings, const util::WorkS
   m.map_surrogate->finish(W);
 }
 
-// The segments' check points in segment order.
-std::vector<hydro::ObservationPoint> check_points(const std::vector<SegmentInput>& segments) {
-  std::vector<hydro::ObservationPoint> points;
-  for (const auto& s : segments) points.insert(points.end(), s.check_points.begin(), s.check_points.end());
-  return points;
-}
-
 // An empty surrogate (tables still to add) at the check points of segments `own` only, and
 // their segment_points (the other segments' emptied): those points are contiguous in the whole
 // set, and the error estimate samples the whole set's points (hydro::PointRange).
 void own_surrogate(PressureModel& m, const std::vector<SegmentInput>& segments, const RunSettings& settings, SegmentRows own) {
-  const std::vector<hydro::ObservationPoint> points = check_points(segments);
-  std::size_t first = 0, end = 0;
-  for (std::size_t s = 0; s < segments.size(); ++s) {
-    const std::size_t n = segments[s].check_points.size();
-    if (s < own.first) first += n;
-    if (s < own.second) end += n;
-  }
+  std::vector<hydro::ObservationPoint> points;
+  std::size_t first = 0, total = 0;
   m.segment_points.assign(segments.size(), {});
-  for (std::size_t s = own.first, i = 0; s < own.second; ++s)
-    for (std::size_t k = 0; k < segments[s].check_points.size(); ++k) m.segment_points[s].push_back(i++);
-  m.surrogate.reset();
-  m.surrogate.emplace(std::span(points).subspan(first, end - first), m.groups, settings.tracking_times.size(),
-                      m.diffusivity_min, m.diffusivity_max, m.nodes, nullptr, hydro::PointRange{first, points.size()});
+  for (std::size_t s = 0; s < segments.size(); ++s) {
+    const auto& cps = segments[s].check_points;
+    if (s < own.first) first += cps.size();
+    total += cps.size();
+    if (s < own.first || s >= own.second) continue;
+    for (const auto& p : cps) {
+      m.segment_points[s].push_back(points.size());
+      points.push_back(p);
+    }
+  }
+  m.surrogate.emplace(points, m.groups, settings.tracking_times.size(), m.diffusivity_min, m.diffusivity_max, m.nodes,
+                      nullptr, hydro::PointRange{first, total});
 }
 
 }  // namespace
