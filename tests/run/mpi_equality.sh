@@ -8,7 +8,8 @@
 # REFERENCE_SLIPSCREEN (the build without MPI; default: MPI_SLIPSCREEN started without mpirun).
 # Then the tiny scenario on 1, 2 and 3 ranks, the same with the seismicity likelihood on a tiny
 # fixture (2 ranks), and checks that an input
-# error ends every rank with the same exit code and leaves no folder.
+# error, on every rank or on one rank alone, ends every rank with the same exit code and leaves
+# no folder.
 set -euo pipefail
 mpi_bin="$(realpath "$1")"
 ref_bin="$(realpath "${2:-$1}")"
@@ -89,6 +90,35 @@ set -e
   { echo "mpi_equality: expected one error message"; cat "$work/bad.err"; exit 1; }
 [ -z "$(find "$work" -maxdepth 1 -type d -name '*bad*')" ] || { echo "mpi_equality: a folder was left"; exit 1; }
 echo "mpi_equality: input error: exit code 3 from 2 ranks, one message, nothing left"
+
+# The same error on one rank only (a node that sees another file, say): rank 1, then rank 0, reads
+# the bad scenario and the other the good one. Every rank still stops with exit code 3, the one
+# message is the bad rank's (rank 0 names another rank's: "rank 1: ..."), and nothing is left.
+# OMPI_COMM_WORLD_RANK is Open MPI's rank of each process (a wrapper picks the scenario by it).
+cp "$scenario" "$work/bad.toml"
+sed -i 's/min=0.9, max=0.3)"/min=0.3, max=0.9)"/' "$scenario"
+grep -q 'min=0.3, max=0.9)"' "$scenario" || { echo "mpi_equality: could not restore the scenario"; exit 1; }
+cp "$work/bad.toml" "$(dirname "$scenario")/bad.toml"
+cat > "$work/one_bad.sh" <<EOS
+#!/bin/sh
+s="$scenario"
+[ "\$OMPI_COMM_WORLD_RANK" = "\$BAD_RANK" ] && s="$(dirname "$scenario")/bad.toml"
+exec "$mpi_bin" run "\$s" --out "$work/bad" --reproducible
+EOS
+chmod +x "$work/one_bad.sh"
+for bad in 1 0; do
+  set +e
+  BAD_RANK=$bad mpirun_ 2 -x BAD_RANK "$work/one_bad.sh" > "$work/one.txt" 2> "$work/one.err"
+  code=$?
+  set -e
+  [ "$code" -eq 3 ] || { echo "mpi_equality: input error on rank $bad alone gave exit code $code, expected 3"; cat "$work/one.err"; exit 1; }
+  expected='^slipscreen: error: .*bad.toml line'
+  [ "$bad" = 1 ] && expected='^slipscreen: error: rank 1: .*bad.toml line'
+  [ "$(grep -c '^slipscreen: error:' "$work/one.err")" -eq 1 ] && grep -q "$expected" "$work/one.err" ||
+    { echo "mpi_equality: input error on rank $bad alone: expected one message from it"; cat "$work/one.err"; exit 1; }
+  [ -z "$(find "$work" -maxdepth 1 -type d -name '*bad*')" ] || { echo "mpi_equality: a folder was left"; exit 1; }
+  echo "mpi_equality: input error on rank $bad alone: exit code 3, its message once, nothing left"
+done
 
 # A usage error and --help: every rank parses the same arguments; rank 0 alone prints, once.
 set +e
