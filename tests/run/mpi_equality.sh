@@ -95,10 +95,9 @@ echo "mpi_equality: input error: exit code 3 from 2 ranks, one message, nothing 
 # the bad scenario and the other the good one. Every rank still stops with exit code 3, the one
 # message is the bad rank's (rank 0 names another rank's: "rank 1: ..."), and nothing is left.
 # OMPI_COMM_WORLD_RANK is Open MPI's rank of each process (a wrapper picks the scenario by it).
-cp "$scenario" "$work/bad.toml"
+cp "$scenario" "$(dirname "$scenario")/bad.toml"
 sed -i 's/min=0.9, max=0.3)"/min=0.3, max=0.9)"/' "$scenario"
 grep -q 'min=0.3, max=0.9)"' "$scenario" || { echo "mpi_equality: could not restore the scenario"; exit 1; }
-cp "$work/bad.toml" "$(dirname "$scenario")/bad.toml"
 cat > "$work/one_bad.sh" <<EOS
 #!/bin/sh
 s="$scenario"

@@ -6,6 +6,7 @@
 #include <cstring>
 #include <string>
 #include <thread>
+#include <utility>
 
 #include "core/errors.hpp"
 #include "support/thread_exchange.hpp"
@@ -167,30 +168,29 @@ TEST_CASE("the deterministic screen shared by tracked times across parts equals 
   // formations, with a no-flow boundary (image wells), and with one well per table block. The
   // leaky case spans 14 months, not five years, with one well per block only (its lag kernel took
   // about 11 s per screen over five years).
-  for (double leakage : {0.0, 1e-9})
-    for (double block : {hydro::kTableBlockBytes, 1.0}) {
-      if (leakage > 0.0 && block > 1.0) continue;
-      ScreenInputs in = leakage > 0.0 ? split_inputs(12, 14, 1) : split_inputs();
-      in.boundaries.push_back({hydro::BoundaryKind::no_flow, 0.0, -30000.0, 1.0, 0.0});
-      in.formation.leakage_rate = leakage;
-      in.table_block_bytes = block;
-      CAPTURE(leakage);
-      CAPTURE(block);
-      const ScreenResult whole = deterministic_screen(in);
-      for (std::size_t parts : {2u, 3u}) {
-        CAPTURE(parts);
-        threads::Exchange exchange(parts);
-        std::vector<ScreenResult> got(parts);
-        std::vector<std::thread> workers;
-        for (std::size_t p = 0; p < parts; ++p)
-          workers.emplace_back([&, p] {
-            const util::WorkShare share{p, parts, [&, p](std::vector<std::uint8_t> b) { return exchange.all(p, std::move(b)); }};
-            got[p] = deterministic_screen(in, nullptr, nullptr, split_segments(in.segments.size(), p, parts), &share);
-          });
-        for (auto& w : workers) w.join();
-        for (std::size_t p = 1; p < parts; ++p)
-          merge_screen_part(got[0], encode_screen_part(got[p], split_segments(in.segments.size(), p, parts)));
-        same_screen(got[0], whole);
-      }
+  const std::pair<double, double> cases[] = {{0.0, hydro::kTableBlockBytes}, {0.0, 1.0}, {1e-9, 1.0}};  // leakage, block
+  for (const auto& [leakage, block] : cases) {
+    ScreenInputs in = leakage > 0.0 ? split_inputs(12, 14, 1) : split_inputs();
+    in.boundaries.push_back({hydro::BoundaryKind::no_flow, 0.0, -30000.0, 1.0, 0.0});
+    in.formation.leakage_rate = leakage;
+    in.table_block_bytes = block;
+    CAPTURE(leakage);
+    CAPTURE(block);
+    const ScreenResult whole = deterministic_screen(in);
+    for (std::size_t parts : {2u, 3u}) {
+      CAPTURE(parts);
+      threads::Exchange exchange(parts);
+      std::vector<ScreenResult> got(parts);
+      std::vector<std::thread> workers;
+      for (std::size_t p = 0; p < parts; ++p)
+        workers.emplace_back([&, p] {
+          const util::WorkShare share{p, parts, [&, p](std::vector<std::uint8_t> b) { return exchange.all(p, std::move(b)); }};
+          got[p] = deterministic_screen(in, nullptr, nullptr, split_segments(in.segments.size(), p, parts), &share);
+        });
+      for (auto& w : workers) w.join();
+      for (std::size_t p = 1; p < parts; ++p)
+        merge_screen_part(got[0], encode_screen_part(got[p], split_segments(in.segments.size(), p, parts)));
+      same_screen(got[0], whole);
     }
+  }
 }
